@@ -1,0 +1,264 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.Globalization;
+using Periodic.Numerics;
+using Periodic.Transfer;
+using Periodic.Units;
+
+namespace Periodic.Bands;
+
+/// <summary>
+/// Locates band edges e₀ &lt; e₁ ≤ e₂ &lt; e₃ ≤ … of a cell. Brackets come from the oscillation count
+/// (<see cref="CellTransfer.CountBandEdgesBelow"/>), never from a scan of D(E), so no band can be
+/// missed however narrow: an interval is split until it holds at most two edges, and then
+/// <list type="bullet">
+/// <item>one edge, or the two edges of one band (different targets D = ±2), is refined by a
+/// safeguarded Newton search on D(E) ∓ 2 with the exact derivative;</item>
+/// <item>the two edges of one gap (same target) are separated at the extremum of D, the single zero of
+/// D′ in the closed gap; if |D| does not exceed 2 there beyond rounding, the gap is closed.</item>
+/// </list>
+/// </summary>
+internal sealed class BandEdgeFinder
+{
+    private readonly CellTransfer _transfer;
+    private readonly BandSearchOptions _options;
+
+    internal BandEdgeFinder(CellTransfer transfer, BandSearchOptions options)
+    {
+        _transfer = transfer;
+        _options = options;
+    }
+
+    /// <summary>Target value of D at edge i: +2 at zone-centre edges (i = 0, 3, 4, 7, 8, …), −2 at zone-boundary edges.</summary>
+    internal static double TargetTrace(int edgeIndex) => ((edgeIndex + 1) / 2) % 2 == 0 ? 2.0 : -2.0;
+
+    /// <summary>
+    /// Finds edges 0 … <paramref name="edgeCount"/> − 1. Returns their energies, error bounds and
+    /// whether each odd-even gap pair (e_{2j−1}, e_{2j}) is closed.
+    /// </summary>
+    internal (double[] Edges, double[] Errors, bool[] ClosedGapAbove) FindEdges(int edgeCount)
+    {
+        var edges = new double[edgeCount];
+        var errors = new double[edgeCount];
+        var found = new bool[edgeCount];
+        var closedAbove = new bool[(edgeCount + 1) / 2 + 1];
+
+        var (low, high) = InitialInterval(edgeCount);
+        var stack = new Stack<(double A, int CountA, double B, int CountB)>();
+        stack.Push((low, 0, high, _transfer.CountBandEdgesBelow(high)));
+        while (stack.Count > 0)
+        {
+            var (a, ca, b, cb) = stack.Pop();
+            if (ca >= edgeCount || cb <= ca)
+            {
+                continue;
+            }
+            var width = b - a;
+            var resolution = 4 * Math.Max(_options.AbsoluteToleranceElectronVolts, 2.220446049250313e-16 * Math.Max(Math.Abs(a), Math.Abs(b)));
+            if (width <= resolution)
+            {
+                // Several edges closer together than double precision resolves: a degenerate cluster.
+                var mid = 0.5 * (a + b);
+                for (var i = ca; i < cb && i < edgeCount; i++)
+                {
+                    Store(i, mid, width);
+                    if (i % 2 == 1 && i + 1 < cb)
+                    {
+                        closedAbove[(i + 1) / 2] = true;
+                    }
+                }
+                continue;
+            }
+            if (cb - ca == 1)
+            {
+                RefineInto(ca, a, b);
+                continue;
+            }
+            if (cb - ca == 2 && ca % 2 == 0)
+            {
+                RefineInto(ca, a, b);
+                RefineInto(ca + 1, a, b);
+                continue;
+            }
+            if (cb - ca == 2 && TrySeparateGapPair(ca, a, b, out var extremum, out var closed))
+            {
+                if (closed)
+                {
+                    var error = Math.Max(Math.Abs(extremum) * 1e-12, _options.AbsoluteToleranceElectronVolts);
+                    Store(ca, extremum, error);
+                    Store(ca + 1, extremum, error);
+                    closedAbove[(ca + 1) / 2] = true;
+                }
+                else
+                {
+                    RefineInto(ca, a, extremum);
+                    RefineInto(ca + 1, extremum, b);
+                }
+                continue;
+            }
+            var middle = 0.5 * (a + b);
+            var cm = _transfer.CountBandEdgesBelow(middle);
+            // The count is monotone; rounding right at an edge can only shift it by one, so keep it in range.
+            cm = Math.Clamp(cm, ca, cb);
+            stack.Push((middle, cm, b, cb));
+            stack.Push((a, ca, middle, cm));
+        }
+        for (var i = 0; i < edgeCount; i++)
+        {
+            if (!found[i])
+            {
+                throw new BandSearchException(string.Create(CultureInfo.InvariantCulture,
+                    $"band edge {i} was not located in [{low:R}, {high:R}] eV; the oscillation count and the edge search disagree."));
+            }
+        }
+        // Rounding can leave a coincident pair in the wrong order; edges are sorted by definition.
+        Array.Sort(edges, errors);
+        return (edges, errors, closedAbove);
+
+        void Store(int index, double energy, double error)
+        {
+            if (index >= edgeCount)
+            {
+                return;
+            }
+            edges[index] = energy;
+            errors[index] = error;
+            found[index] = true;
+        }
+
+        void RefineInto(int index, double lower, double upper)
+        {
+            if (index >= edgeCount)
+            {
+                return;
+            }
+            var result = RefineEdge(index, lower, upper);
+            Store(index, result.Root, result.ErrorBound);
+        }
+    }
+
+    /// <summary>An interval [low, high] with no edge below low and at least <paramref name="edgeCount"/> edges below high.</summary>
+    private (double Low, double High) InitialInterval(int edgeCount)
+    {
+        var cell = _transfer.Cell;
+        var vMin = cell.MinimumPotential.ElectronVolts;
+        var vMax = cell.MaximumPotential.ElectronVolts;
+        var spread = Math.Max(vMax - vMin, 1e-3);
+        var step = 1e-6 * spread;
+        var low = vMin - step;
+        for (var attempt = 0; ; attempt++)
+        {
+            if (low <= _transfer.LowestValidEnergyElectronVolts)
+            {
+                low = _transfer.LowestValidEnergyElectronVolts + 1e-9 * spread;
+                if (_transfer.CountBandEdgesBelow(low) != 0)
+                {
+                    throw new BandSearchException(string.Create(CultureInfo.InvariantCulture,
+                        $"states exist below {low:R} eV, where a non-parabolic mass would turn negative; the model does not apply there."));
+                }
+                break;
+            }
+            if (_transfer.CountBandEdgesBelow(low) == 0)
+            {
+                break;
+            }
+            if (attempt > 2000)
+            {
+                throw new BandSearchException(string.Create(CultureInfo.InvariantCulture,
+                    $"no energy without states found down to {low:R} eV."));
+            }
+            step *= 2; // delta wells bind below the lowest layer potential
+            low = vMin - step;
+        }
+
+        // Free-particle estimate of the top of band N, then doubling until the count confirms it.
+        var bandsNeeded = (edgeCount + 1) / 2 + 1;
+        var k = bandsNeeded * Math.PI / cell.Period.Nanometres;
+        var excess = 1.5 * PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2 * k * k / cell.MinimumMass.ElectronMasses + spread;
+        var high = vMax + excess;
+        for (var attempt = 0; _transfer.CountBandEdgesBelow(high) < edgeCount; attempt++)
+        {
+            if (attempt > 200 || !double.IsFinite(high))
+            {
+                throw new BandSearchException(string.Create(CultureInfo.InvariantCulture,
+                    $"could not find an energy with {edgeCount} band edges below it (last tried {high:R} eV)."));
+            }
+            excess *= 2;
+            high = vMax + excess;
+        }
+        return (low, high);
+    }
+
+    private RootResult RefineEdge(int index, double lower, double upper)
+    {
+        var function = new TraceMinusTarget(_transfer, TargetTrace(index));
+        var result = RootFinding.SafeguardedNewton(ref function, lower, upper,
+            _options.AbsoluteToleranceElectronVolts, _options.RelativeTolerance, _options.MaxIterations);
+        if (result.Status == RootStatus.NotBracketed)
+        {
+            // Rounding at an end point that sits on a neighbouring edge: the end nearer in |D − target| wins.
+            var fLower = Math.Abs(function.Evaluate(lower, out _));
+            var fUpper = Math.Abs(function.Evaluate(upper, out _));
+            var root = fLower <= fUpper ? lower : upper;
+            return new RootResult(root, lower, upper, upper - lower, 0, RootStatus.Converged);
+        }
+        if (result.Status != RootStatus.Converged)
+        {
+            throw new BandSearchException(string.Create(CultureInfo.InvariantCulture,
+                $"band edge {index} did not converge in {result.Iterations} iterations; bracket [{result.Lower:R}, {result.Upper:R}] eV."));
+        }
+        return result;
+    }
+
+    /// <summary>
+    /// Finds the extremum of D between the two edges of one gap. <paramref name="closed"/> is true when
+    /// |D| there exceeds 2 by no more than rounding.
+    /// </summary>
+    private bool TrySeparateGapPair(int lowerEdge, double a, double b, out double extremum, out bool closed)
+    {
+        var slope = new TraceSlope(_transfer);
+        var result = RootFinding.Brent(ref slope, a, b, _options.AbsoluteToleranceElectronVolts, _options.RelativeTolerance, _options.MaxIterations);
+        extremum = result.Root;
+        closed = false;
+        if (result.Status != RootStatus.Converged)
+        {
+            return false;
+        }
+        var value = _transfer.Dispersion(extremum);
+        var target = TargetTrace(lowerEdge);
+        var matrix = _transfer.Evaluate(extremum);
+        // Rounding level of D: a few ulps of the largest entry that enters the trace.
+        var scale = matrix.Mantissa.MaxAbsEntry * Math.Exp(matrix.LogScale);
+        var excess = target > 0 ? value.Trace - 2 : -2 - value.Trace;
+        closed = excess <= 64 * 2.220446049250313e-16 * Math.Max(scale, 2.0);
+        return true;
+    }
+
+    private readonly struct TraceMinusTarget(CellTransfer transfer, double target) : IDifferentiableFunction
+    {
+        public double Evaluate(double x, out double derivative)
+        {
+            var p = transfer.Accumulate(x);
+            var trace = p.P11 + p.P22;
+            if (p.LogScale > 700)
+            {
+                // |D| is astronomically far from ±2 here: only the sign matters to the bracket.
+                derivative = double.PositiveInfinity;
+                return trace == 0 ? -target : Math.CopySign(double.PositiveInfinity, trace);
+            }
+            var scale = Math.Exp(p.LogScale);
+            derivative = (p.D11 + p.D22) * scale;
+            return trace * scale - target;
+        }
+    }
+
+    private readonly struct TraceSlope(CellTransfer transfer) : IRealFunction
+    {
+        public double Evaluate(double x)
+        {
+            var p = transfer.Accumulate(x);
+            return p.D11 + p.D22; // the sign of dD/dE is that of its mantissa
+        }
+    }
+}

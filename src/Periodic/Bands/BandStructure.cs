@@ -1,0 +1,276 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.Collections.ObjectModel;
+using System.Globalization;
+using System.Text;
+using Periodic.Numerics;
+using Periodic.Structures;
+using Periodic.Transfer;
+using Periodic.Units;
+
+namespace Periodic.Bands;
+
+/// <summary>
+/// The allowed bands and forbidden gaps of an infinite periodic structure, with the dispersion E(k)
+/// and the complex wavevector k(E). Immutable and thread-safe; keep it and query it freely.
+/// </summary>
+/// <remarks>
+/// <para>Every band below the highest one returned is guaranteed present: the edge search is bracketed
+/// by an oscillation (Prüfer-angle) count of band edges, and after the search the count is checked
+/// again at the middle of every band and gap (see <see cref="CellTransfer.CountBandEdgesBelow"/>).</para>
+/// <para>The model is the single-band envelope-function (effective-mass) approximation with BenDaniel–Duke
+/// matching. Its results are as good as its inputs: treat band offsets and masses as uncertain and confirm
+/// design-critical numbers against measurement.</para>
+/// </remarks>
+public sealed class BandStructure
+{
+    private readonly Band[] _bands;
+    private readonly Gap[] _gaps;
+    private readonly BandSearchOptions _options;
+
+    private BandStructure(CellTransfer transfer, Band[] bands, Gap[] gaps, BandSearchOptions options, int countChecks)
+    {
+        Transfer = transfer;
+        _bands = bands;
+        _gaps = gaps;
+        _options = options;
+        Bands = new ReadOnlyCollection<Band>(bands);
+        Gaps = new ReadOnlyCollection<Gap>(gaps);
+        CountChecks = countChecks;
+    }
+
+    /// <summary>The unit cell.</summary>
+    public UnitCell Cell => Transfer.Cell;
+
+    /// <summary>The compiled transfer matrix of the cell.</summary>
+    public CellTransfer Transfer { get; }
+
+    /// <summary>The bands found, lowest first; <c>Bands[n - 1]</c> is band n.</summary>
+    public IReadOnlyList<Band> Bands { get; }
+
+    /// <summary>The gaps above each band found; <c>Gaps[n - 1]</c> lies between band n and n + 1.</summary>
+    public IReadOnlyList<Gap> Gaps { get; }
+
+    /// <summary>The period d, nm.</summary>
+    public double PeriodNanometres => Transfer.PeriodNanometres;
+
+    /// <summary>The tolerances used.</summary>
+    public BandSearchOptions Options => _options;
+
+    /// <summary>How many independent oscillation-count checks the result passed (one in every band and every gap).</summary>
+    public int CountChecks { get; }
+
+    /// <summary>The largest error bound of any edge returned, eV.</summary>
+    public double MaxEdgeErrorElectronVolts
+    {
+        get
+        {
+            var max = 0.0;
+            foreach (var band in _bands)
+            {
+                max = Math.Max(max, Math.Max(band.BottomErrorElectronVolts, band.TopErrorElectronVolts));
+            }
+            return max;
+        }
+    }
+
+    /// <summary>Finds the lowest <paramref name="count"/> bands of <paramref name="cell"/>.</summary>
+    /// <param name="cell">The unit cell.</param>
+    /// <param name="count">Number of bands, 1 to 10,000.</param>
+    /// <param name="options">Tolerances; <see cref="BandSearchOptions.Default"/> when null.</param>
+    /// <exception cref="ArgumentNullException"><paramref name="cell"/> is null.</exception>
+    /// <exception cref="ArgumentOutOfRangeException"><paramref name="count"/> is outside 1 to 10,000.</exception>
+    /// <exception cref="BandSearchException">The search could not complete (see message).</exception>
+    public static BandStructure Compute(UnitCell cell, int count, BandSearchOptions? options = null)
+    {
+        ArgumentNullException.ThrowIfNull(cell);
+        Preconditions.CheckRange(count, 1, 10000);
+        return Compute(CellTransfer.Create(cell), count, options ?? BandSearchOptions.Default);
+    }
+
+    /// <summary>Finds every band whose bottom lies below <paramref name="energyLimit"/> (at least one band).</summary>
+    /// <exception cref="ArgumentNullException"><paramref name="cell"/> is null.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">More than 10,000 bands lie below the limit, or the limit is outside the model's energy range.</exception>
+    /// <exception cref="BandSearchException">The search could not complete (see message).</exception>
+    public static BandStructure ComputeBelow(UnitCell cell, Energy energyLimit, BandSearchOptions? options = null)
+    {
+        ArgumentNullException.ThrowIfNull(cell);
+        var transfer = CellTransfer.Create(cell);
+        var edgesBelow = transfer.CountBandEdgesBelow(energyLimit.ElectronVolts);
+        var count = Math.Max(1, (edgesBelow + 1) / 2);
+        if (count > 10000)
+        {
+            throw new ArgumentOutOfRangeException(nameof(energyLimit), energyLimit.ElectronVolts,
+                string.Create(CultureInfo.InvariantCulture, $"energyLimit lies above {count} bands; at most 10000 can be computed at once."));
+        }
+        return Compute(transfer, count, options ?? BandSearchOptions.Default);
+    }
+
+    private static BandStructure Compute(CellTransfer transfer, int count, BandSearchOptions options)
+    {
+        // Edges 0 … 2N: the extra one is the bottom of band N + 1, so the gap above band N is known.
+        var finder = new BandEdgeFinder(transfer, options);
+        var (edges, errors, closed) = finder.FindEdges(2 * count + 1);
+        var bands = new Band[count];
+        var gaps = new Gap[count];
+        for (var n = 1; n <= count; n++)
+        {
+            double bottom = edges[2 * n - 2], top = edges[2 * n - 1], next = edges[2 * n];
+            bands[n - 1] = new Band(n, bottom, top, errors[2 * n - 2], errors[2 * n - 1], next - top);
+            gaps[n - 1] = new Gap(n, top, next, closed[n] || next == top);
+        }
+        var checks = Reconcile(transfer, bands, gaps);
+        return new BandStructure(transfer, bands, gaps, options, checks);
+    }
+
+    /// <summary>Checks the oscillation count at the middle of every band (2n − 1) and open gap (2n).</summary>
+    private static int Reconcile(CellTransfer transfer, Band[] bands, Gap[] gaps)
+    {
+        var checks = 0;
+        for (var i = 0; i < bands.Length; i++)
+        {
+            var band = bands[i];
+            if (band.WidthElectronVolts > 1e-9 * Math.Max(1.0, Math.Abs(band.CenterElectronVolts)))
+            {
+                Expect(transfer, band.CenterElectronVolts, 2 * band.Index - 1, "band", band.Index);
+                checks++;
+            }
+            var gap = gaps[i];
+            if (!gap.IsClosed && gap.WidthElectronVolts > 1e-9 * Math.Max(1.0, Math.Abs(gap.LowerElectronVolts)))
+            {
+                Expect(transfer, 0.5 * (gap.LowerElectronVolts + gap.UpperElectronVolts), 2 * gap.Index, "gap", gap.Index);
+                checks++;
+            }
+        }
+        return checks;
+    }
+
+    private static void Expect(CellTransfer transfer, double energy, int expected, string what, int index)
+    {
+        var counted = transfer.CountBandEdgesBelow(energy);
+        if (counted != expected)
+        {
+            throw new BandSearchException(string.Create(CultureInfo.InvariantCulture,
+                $"the oscillation count at the middle of {what} {index} ({energy:R} eV) is {counted}, expected {expected}: an edge was missed or misplaced."));
+        }
+    }
+
+    /// <summary>The band with 1-based index <paramref name="bandIndex"/>.</summary>
+    /// <exception cref="ArgumentOutOfRangeException">No such band was computed.</exception>
+    public Band GetBand(int bandIndex)
+    {
+        Preconditions.CheckRange(bandIndex, 1, _bands.Length);
+        return _bands[bandIndex - 1];
+    }
+
+    /// <summary>
+    /// The energy E_n(k), eV, of band <paramref name="bandIndex"/> at Bloch wavevector
+    /// <paramref name="wavevectorPerNanometre"/> in the first zone [−π/d, π/d] (E(−k) = E(k)).
+    /// </summary>
+    /// <remarks>Method: safeguarded Newton search on D(E) = 2 cos(kd) inside the band, where D is monotone.</remarks>
+    /// <exception cref="ArgumentOutOfRangeException">No such band, or k is not finite or lies outside the first zone.</exception>
+    public double EnergyAt(int bandIndex, double wavevectorPerNanometre)
+    {
+        var band = GetBand(bandIndex);
+        var phase = ReducedPhase(wavevectorPerNanometre);
+        return EnergyAtPhase(band, phase);
+    }
+
+    /// <summary>
+    /// Effectively computes <c>destination[i] = E_n(wavevectorsPerNanometre[i])</c> in eV for band
+    /// <paramref name="bandIndex"/>; does not allocate.
+    /// </summary>
+    /// <exception cref="ArgumentException">The destination is shorter than the input, or a wavevector is outside the first zone.</exception>
+    public void EnergiesAt(int bandIndex, ReadOnlySpan<double> wavevectorsPerNanometre, Span<double> destination)
+    {
+        var band = GetBand(bandIndex);
+        Preconditions.CheckDestination(wavevectorsPerNanometre.Length, destination.Length, nameof(wavevectorsPerNanometre), nameof(destination));
+        for (var i = 0; i < wavevectorsPerNanometre.Length; i++)
+        {
+            destination[i] = EnergyAtPhase(band, ReducedPhase(wavevectorsPerNanometre[i], i));
+        }
+    }
+
+    /// <summary>The complex Bloch wavevector k(E) at any energy (see <see cref="BlochWavevector"/>).</summary>
+    /// <exception cref="ArgumentOutOfRangeException">The energy is not finite or outside the model's range.</exception>
+    public BlochWavevector WavevectorAt(double energyElectronVolts) => Transfer.Dispersion(energyElectronVolts).Wavevector;
+
+    /// <summary>
+    /// The 1-based index of the band containing <paramref name="energyElectronVolts"/>, or 0 when the
+    /// energy lies in a gap (or below the lowest band). From the oscillation count, so valid for bands
+    /// above those computed too.
+    /// </summary>
+    public int BandIndexAt(double energyElectronVolts)
+    {
+        var count = Transfer.CountBandEdgesBelow(energyElectronVolts);
+        return count % 2 == 1 ? (count + 1) / 2 : 0;
+    }
+
+    private double ReducedPhase(double k, int index = -1)
+    {
+        var name = index < 0 ? "wavevectorPerNanometre" : string.Create(CultureInfo.InvariantCulture, $"wavevectorsPerNanometre[{index}]");
+        var d = PeriodNanometres;
+        var phase = Math.Abs(k) * d;
+        // A wavevector computed as π/d by the caller may differ from ours by an ulp or two.
+        if (!(phase <= Math.PI * (1 + 8 * 2.220446049250313e-16)))
+        {
+            throw new ArgumentOutOfRangeException(name, k,
+                $"{name} must be a finite wavevector in the first Brillouin zone [-pi/d, pi/d] = [-{Preconditions.Format(Math.PI / d)}, {Preconditions.Format(Math.PI / d)}] 1/nm; got {Preconditions.Format(k)}.");
+        }
+        return Math.Min(phase, Math.PI);
+    }
+
+    private double EnergyAtPhase(Band band, double phase)
+    {
+        var bottomAtCenter = band.BottomZonePoint == ZonePoint.Center;
+        if (phase == 0)
+        {
+            return bottomAtCenter ? band.BottomElectronVolts : band.TopElectronVolts;
+        }
+        if (phase == Math.PI)
+        {
+            return bottomAtCenter ? band.TopElectronVolts : band.BottomElectronVolts;
+        }
+        if (band.WidthElectronVolts == 0)
+        {
+            return band.BottomElectronVolts;
+        }
+        var function = new TraceMinusValue(Transfer, 2 * Math.Cos(phase));
+        var result = RootFinding.SafeguardedNewton(ref function, band.BottomElectronVolts, band.TopElectronVolts,
+            _options.AbsoluteToleranceElectronVolts, _options.RelativeTolerance, _options.MaxIterations);
+        if (result.Status == RootStatus.NotBracketed)
+        {
+            // k within rounding of a zone point: cos(kd) and D(edge) agree to the last bit.
+            var fBottom = Math.Abs(function.Evaluate(band.BottomElectronVolts, out _));
+            var fTop = Math.Abs(function.Evaluate(band.TopElectronVolts, out _));
+            return fBottom <= fTop ? band.BottomElectronVolts : band.TopElectronVolts;
+        }
+        return result.Root;
+    }
+
+    private readonly struct TraceMinusValue(CellTransfer transfer, double value) : IDifferentiableFunction
+    {
+        public double Evaluate(double x, out double derivative)
+        {
+            var p = transfer.Accumulate(x);
+            var scale = Math.Exp(p.LogScale);
+            derivative = (p.D11 + p.D22) * scale;
+            return (p.P11 + p.P22) * scale - value;
+        }
+    }
+
+    /// <summary>A table of bands and gaps, one per line, energies in eV.</summary>
+    public override string ToString()
+    {
+        var text = new StringBuilder();
+        text.Append(CultureInfo.InvariantCulture, $"BandStructure: {_bands.Length} band(s), period {PeriodNanometres:G6} nm").AppendLine();
+        text.AppendLine("  band   bottom (eV)     top (eV)        width (meV)    gap above (meV)");
+        foreach (var band in _bands)
+        {
+            text.Append(CultureInfo.InvariantCulture,
+                $"  {band.Index,4}   {band.BottomElectronVolts,-14:F9}  {band.TopElectronVolts,-14:F9}  {band.WidthElectronVolts * 1e3,-13:G8}  {band.GapAboveElectronVolts * 1e3:G8}").AppendLine();
+        }
+        return text.ToString().TrimEnd();
+    }
+}

@@ -1,0 +1,371 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.Globalization;
+using System.Runtime.CompilerServices;
+using Periodic.Structures;
+using Periodic.Units;
+
+namespace Periodic.Transfer;
+
+/// <summary>
+/// The Bloch-condition transfer matrix of one unit cell, compiled once from a <see cref="UnitCell"/>
+/// and evaluated at any real energy. Immutable and thread-safe; evaluation does not allocate.
+/// </summary>
+/// <remarks>
+/// <para>Method: each uniform layer contributes the closed-form matrix of −(ħ²/2m₀)(ψ′/m)′ + Vψ = Eψ in
+/// the (ψ, ψ′/m) basis (BenDaniel–Duke matching); each delta contributes a jump of ψ′/m. The exact
+/// energy derivative dM/dE is carried alongside by the product rule. The product is held as a mantissa
+/// times e^LogScale: evanescent layers are divided by their growing exponential e^(κw) analytically and
+/// the running product is renormalised by powers of two, so that no entry overflows or loses the band
+/// structure, whatever the barrier thickness or number of layers.</para>
+/// <para>The Bloch condition for the infinite crystal is cos(kd) = D(E)/2 with D = Tr M
+/// (F. Bloch, Z. Phys. 52, 555 (1929); Kronig and Penney 1931).</para>
+/// </remarks>
+public sealed class CellTransfer
+{
+    private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
+    private const double RenormaliseAbove = 1e120;
+    private const double RenormaliseBelow = 1e-120;
+
+    // Packed element data (structure of arrays): kind, width (nm), potential (eV), mass (m0),
+    // mass slope dm/dE (m0/eV), delta jump (strength / C, 1/nm per unit ψ·m0... see Delta).
+    private readonly ElementKind[] _kinds;
+    private readonly double[] _widths;
+    private readonly double[] _potentials;
+    private readonly double[] _masses;
+    private readonly double[] _massSlopes;
+    private readonly double[] _deltaJumps;
+    private readonly ISegmentPropagator?[] _segments;
+
+    private CellTransfer(UnitCell cell)
+    {
+        Cell = cell;
+        var elements = cell.ElementSpan;
+        var n = elements.Length;
+        _kinds = new ElementKind[n];
+        _widths = new double[n];
+        _potentials = new double[n];
+        _masses = new double[n];
+        _massSlopes = new double[n];
+        _deltaJumps = new double[n];
+        _segments = new ISegmentPropagator?[n];
+        var domain = double.NegativeInfinity;
+        for (var i = 0; i < n; i++)
+        {
+            switch (elements[i])
+            {
+                case Layer layer:
+                    _kinds[i] = ElementKind.Layer;
+                    _widths[i] = layer.Width.Nanometres;
+                    _potentials[i] = layer.Potential.ElectronVolts;
+                    _masses[i] = layer.Mass.ElectronMasses;
+                    _massSlopes[i] = layer.Mass.ElectronMasses * layer.NonParabolicityPerElectronVolt;
+                    if (layer.NonParabolicityPerElectronVolt > 0)
+                    {
+                        domain = Math.Max(domain, layer.Potential.ElectronVolts - 1.0 / layer.NonParabolicityPerElectronVolt);
+                    }
+                    break;
+                case DeltaBarrier delta:
+                    _kinds[i] = ElementKind.Delta;
+                    _deltaJumps[i] = delta.StrengthElectronVoltNanometres / C;
+                    break;
+                default:
+                    throw new ArgumentException(
+                        string.Create(CultureInfo.InvariantCulture, $"cell element {i} is of unsupported type {elements[i].GetType().Name}."),
+                        nameof(cell));
+            }
+        }
+        LowestValidEnergyElectronVolts = domain;
+        PeriodNanometres = cell.Period.Nanometres;
+    }
+
+    private enum ElementKind : byte
+    {
+        Layer,
+        Delta,
+        Segment,
+    }
+
+    /// <summary>The cell this transfer matrix describes.</summary>
+    public UnitCell Cell { get; }
+
+    /// <summary>The period d in nm.</summary>
+    public double PeriodNanometres { get; }
+
+    /// <summary>
+    /// Energies must exceed this bound (eV) so that every non-parabolic mass m(E) = m(1 + α(E − V))
+    /// stays positive; −∞ for a cell of parabolic layers.
+    /// </summary>
+    public double LowestValidEnergyElectronVolts { get; }
+
+    /// <summary>Compiles the transfer matrix of <paramref name="cell"/>.</summary>
+    /// <exception cref="ArgumentNullException"><paramref name="cell"/> is null.</exception>
+    public static CellTransfer Create(UnitCell cell)
+    {
+        ArgumentNullException.ThrowIfNull(cell);
+        return new CellTransfer(cell);
+    }
+
+    /// <summary>
+    /// The transfer matrix of the whole cell and its exact energy derivative at
+    /// <paramref name="energyElectronVolts"/>, in scaled form.
+    /// </summary>
+    /// <exception cref="ArgumentOutOfRangeException">The energy is not finite, or not above <see cref="LowestValidEnergyElectronVolts"/>.</exception>
+    public ScaledTransferMatrix Evaluate(double energyElectronVolts)
+    {
+        CheckEnergy(energyElectronVolts);
+        var product = Accumulate(energyElectronVolts);
+        return new ScaledTransferMatrix(energyElectronVolts,
+            new TransferMatrix(product.P11, product.P12, product.P21, product.P22),
+            new TransferMatrix(product.D11, product.D12, product.D21, product.D22),
+            product.LogScale);
+    }
+
+    /// <summary>The dispersion function D(E) = Tr M(E) and its exact derivative at one energy.</summary>
+    /// <exception cref="ArgumentOutOfRangeException">The energy is not finite, or not above <see cref="LowestValidEnergyElectronVolts"/>.</exception>
+    public DispersionValue Dispersion(double energyElectronVolts)
+    {
+        CheckEnergy(energyElectronVolts);
+        var p = Accumulate(energyElectronVolts);
+        return new DispersionValue(energyElectronVolts, p.P11 + p.P22, p.D11 + p.D22, p.LogScale, PeriodNanometres);
+    }
+
+    /// <summary>
+    /// Effectively computes <c>destination[i] = D(energiesElectronVolts[i])</c> = Tr M; a value beyond the
+    /// double range is returned as ±∞ (never NaN). Does not allocate.
+    /// </summary>
+    /// <exception cref="ArgumentException"><paramref name="destination"/> is shorter than the input.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">An energy is not finite or not above <see cref="LowestValidEnergyElectronVolts"/>.</exception>
+    public void Traces(ReadOnlySpan<double> energiesElectronVolts, Span<double> destination)
+    {
+        Preconditions.CheckDestination(energiesElectronVolts.Length, destination.Length, nameof(energiesElectronVolts), nameof(destination));
+        for (var i = 0; i < energiesElectronVolts.Length; i++)
+        {
+            var e = energiesElectronVolts[i];
+            CheckEnergy(e, i);
+            var p = Accumulate(e);
+            destination[i] = (p.P11 + p.P22) * Math.Exp(p.LogScale);
+        }
+    }
+
+    /// <summary>
+    /// How many band edges of the infinite crystal lie below <paramref name="energyElectronVolts"/>,
+    /// from oscillation theory alone (no scan): the Dirichlet eigenvalue count of the cell, from a
+    /// Prüfer-angle zero count, combined with the sign of D(E).
+    /// </summary>
+    /// <remarks>
+    /// The n-th Dirichlet eigenvalue of one cell lies in the closure of the n-th gap, and the sign of
+    /// D alternates from gap to gap (W. Magnus and S. Winkler, Hill's Equation, 1966; M. S. P.
+    /// Eastham, The Spectral Theory of Periodic Differential Equations, 1973). Inside a band the count
+    /// is odd (2n + 1 in band n + 1), inside a gap even. Exactly at an edge either neighbouring count
+    /// may be returned.
+    /// </remarks>
+    /// <exception cref="ArgumentOutOfRangeException">The energy is not finite, or not above <see cref="LowestValidEnergyElectronVolts"/>.</exception>
+    public int CountBandEdgesBelow(double energyElectronVolts)
+    {
+        CheckEnergy(energyElectronVolts);
+        var dirichlet = CountDirichletEigenvaluesBelow(energyElectronVolts, out var traceMantissa, out var traceLogScale);
+        var halfTraceMagnitude = Math.Abs(traceMantissa) * 0.5;
+        if (halfTraceMagnitude < Math.Exp(-traceLogScale))
+        {
+            return 2 * dirichlet + 1;
+        }
+        // In gap j the trace has sign (-1)^j; the Dirichlet count there is j or j - 1.
+        var gapParity = traceMantissa >= 0 ? 0 : 1;
+        var gap = (dirichlet & 1) == gapParity ? dirichlet : dirichlet + 1;
+        return 2 * gap;
+    }
+
+    /// <summary>
+    /// Number of eigenvalues below E of the cell with ψ = 0 at both ends, from the zeros in (0, d) of the
+    /// solution with ψ(0) = 0 (Sturm oscillation theorem). Also returns the scaled trace at E.
+    /// </summary>
+    internal int CountDirichletEigenvaluesBelow(double e, out double traceMantissa, out double traceLogScale)
+    {
+        // The state vector (u, w) = (ψ, ψ'/m) from (0, 1); zeros of u are counted per element.
+        double u = 0, w = 1;
+        var zeros = 0;
+        var product = new Product();
+        product.Reset();
+        for (var i = 0; i < _kinds.Length; i++)
+        {
+            switch (_kinds[i])
+            {
+                case ElementKind.Layer:
+                {
+                    LayerMatrix(i, e, out var m11, out var m12, out var m21, out var m22, out var d11, out var d12, out var d21, out var d22, out var l, out var s, out var mass);
+                    var u1 = m11 * u + m12 * w;
+                    var w1 = m21 * u + m22 * w;
+                    var theta = s > 0 ? Math.Sqrt(s) * _widths[i] : 0;
+                    if (theta < Math.PI)
+                    {
+                        // At most one zero in (0, w]: a sign change of u (a zero at the far end counts).
+                        if (u != 0 && (u1 == 0 || (u1 < 0) != (u < 0)))
+                        {
+                            zeros++;
+                        }
+                    }
+                    else
+                    {
+                        var k = Math.Sqrt(s);
+                        var phi0 = Math.Atan2(u, mass * w / k);
+                        var phiEnd = Math.Atan2(u1, mass * w1 / k);
+                        var turns = Math.Round((phi0 + theta - phiEnd) / (2 * Math.PI));
+                        zeros += FloorQuadrant(u1, w1) + 2 * (int)turns - FloorQuadrant(u, w);
+                    }
+                    u = u1;
+                    w = w1;
+                    product.ApplyLeft(m11, m12, m21, m22, d11, d12, d21, d22, l);
+                    break;
+                }
+                case ElementKind.Delta:
+                    w += _deltaJumps[i] * u;
+                    product.ApplyLeft(1, 0, _deltaJumps[i], 1, 0, 0, 0, 0, 0);
+                    break;
+                default:
+                    zeros += _segments[i]!.PropagateCounting(e, ref u, ref w, ref product);
+                    break;
+            }
+            RenormaliseVector(ref u, ref w);
+        }
+        if (u == 0)
+        {
+            zeros--; // the far end itself is not in the open interval (0, d)
+        }
+        traceMantissa = product.P11 + product.P22;
+        traceLogScale = product.LogScale;
+        return zeros;
+    }
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static int FloorQuadrant(double u, double w) => u < 0 ? -1 : u > 0 ? 0 : w >= 0 ? 0 : 1;
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static void RenormaliseVector(ref double u, ref double w)
+    {
+        var max = Math.Max(Math.Abs(u), Math.Abs(w));
+        if (max > RenormaliseAbove || max < RenormaliseBelow)
+        {
+            var exponent = Math.ILogB(max);
+            u = Math.ScaleB(u, -exponent);
+            w = Math.ScaleB(w, -exponent);
+        }
+    }
+
+    internal Product Accumulate(double e)
+    {
+        var product = new Product();
+        product.Reset();
+        for (var i = 0; i < _kinds.Length; i++)
+        {
+            switch (_kinds[i])
+            {
+                case ElementKind.Layer:
+                    LayerMatrix(i, e, out var m11, out var m12, out var m21, out var m22, out var d11, out var d12, out var d21, out var d22, out var l, out _, out _);
+                    product.ApplyLeft(m11, m12, m21, m22, d11, d12, d21, d22, l);
+                    break;
+                case ElementKind.Delta:
+                    product.ApplyLeft(1, 0, _deltaJumps[i], 1, 0, 0, 0, 0, 0);
+                    break;
+                default:
+                    _segments[i]!.Propagate(e, ref product);
+                    break;
+            }
+        }
+        return product;
+    }
+
+    /// <summary>Scaled matrix and exact energy derivative of uniform layer <paramref name="i"/>.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private void LayerMatrix(int i, double e, out double m11, out double m12, out double m21, out double m22,
+        out double d11, out double d12, out double d21, out double d22, out double logScale, out double s, out double mass)
+    {
+        var excess = e - _potentials[i];
+        var slope = _massSlopes[i];
+        mass = _masses[i] + slope * excess;
+        s = mass * excess / C;
+        var dsde = (mass + slope * excess) / C;
+        var width = _widths[i];
+        UniformLayerPropagator.Evaluate(s, width, out var c, out var sinc, out var dcds, out var dSds, out logScale);
+        // M = [[c, m S], [-(s/m) S, c]]; dM/dE = (ds/dE) dM/ds + (dm/dE) dM/dm.
+        m11 = c;
+        m22 = c;
+        m12 = mass * sinc;
+        m21 = -s * sinc / mass;
+        d11 = dsde * dcds;
+        d22 = d11;
+        d12 = dsde * mass * dSds + slope * sinc;
+        d21 = -dsde * (sinc + s * dSds) / mass + slope * s * sinc / (mass * mass);
+    }
+
+    private void CheckEnergy(double energyElectronVolts, int index = -1)
+    {
+        var name = index < 0 ? "energyElectronVolts" : string.Create(CultureInfo.InvariantCulture, $"energiesElectronVolts[{index}]");
+        if (!double.IsFinite(energyElectronVolts))
+        {
+            throw new ArgumentOutOfRangeException(name, energyElectronVolts,
+                $"{name} must be a finite energy in eV; got {Preconditions.Format(energyElectronVolts)}.");
+        }
+        if (energyElectronVolts <= LowestValidEnergyElectronVolts)
+        {
+            throw new ArgumentOutOfRangeException(name, energyElectronVolts,
+                $"{name} must exceed {Preconditions.Format(LowestValidEnergyElectronVolts)} eV, below which a non-parabolic mass m(E) = m(1 + a(E - V)) would not be positive; got {Preconditions.Format(energyElectronVolts)}.");
+        }
+    }
+
+    /// <summary>
+    /// Running product P = M_n ⋯ M_1 and its energy derivative, as mantissas times e^LogScale.
+    /// A mutable accumulator used only on the stack of one evaluation.
+    /// </summary>
+    internal struct Product
+    {
+        internal double P11, P12, P21, P22, D11, D12, D21, D22, LogScale;
+
+        internal void Reset()
+        {
+            P11 = 1; P12 = 0; P21 = 0; P22 = 1;
+            D11 = 0; D12 = 0; D21 = 0; D22 = 0;
+            LogScale = 0;
+        }
+
+        /// <summary>P ← M·P, dP ← dM·P + M·dP, with M and dM scaled by e^logScale.</summary>
+        [MethodImpl(MethodImplOptions.AggressiveInlining)]
+        internal void ApplyLeft(double m11, double m12, double m21, double m22, double d11, double d12, double d21, double d22, double logScale)
+        {
+            var q11 = m11 * P11 + m12 * P21;
+            var q12 = m11 * P12 + m12 * P22;
+            var q21 = m21 * P11 + m22 * P21;
+            var q22 = m21 * P12 + m22 * P22;
+            var e11 = d11 * P11 + d12 * P21 + m11 * D11 + m12 * D21;
+            var e12 = d11 * P12 + d12 * P22 + m11 * D12 + m12 * D22;
+            var e21 = d21 * P11 + d22 * P21 + m21 * D11 + m22 * D21;
+            var e22 = d21 * P12 + d22 * P22 + m21 * D12 + m22 * D22;
+            P11 = q11; P12 = q12; P21 = q21; P22 = q22;
+            D11 = e11; D12 = e12; D21 = e21; D22 = e22;
+            LogScale += logScale;
+            var max = Math.Max(Math.Max(Math.Max(Math.Abs(q11), Math.Abs(q12)), Math.Max(Math.Abs(q21), Math.Abs(q22))),
+                               Math.Max(Math.Max(Math.Abs(e11), Math.Abs(e12)), Math.Max(Math.Abs(e21), Math.Abs(e22))));
+            if (max > RenormaliseAbove || (max < RenormaliseBelow && max > 0))
+            {
+                // Powers of two rescale exactly, without rounding.
+                var exponent = Math.ILogB(max);
+                P11 = Math.ScaleB(P11, -exponent); P12 = Math.ScaleB(P12, -exponent);
+                P21 = Math.ScaleB(P21, -exponent); P22 = Math.ScaleB(P22, -exponent);
+                D11 = Math.ScaleB(D11, -exponent); D12 = Math.ScaleB(D12, -exponent);
+                D21 = Math.ScaleB(D21, -exponent); D22 = Math.ScaleB(D22, -exponent);
+                LogScale += exponent * Math.Log(2.0);
+            }
+        }
+    }
+}
+
+/// <summary>Propagation through one smooth segment at a given energy (an extension point for non-uniform potentials).</summary>
+internal interface ISegmentPropagator
+{
+    /// <summary>Applies the segment's scaled matrix and energy derivative to the running product.</summary>
+    void Propagate(double energyElectronVolts, ref CellTransfer.Product product);
+
+    /// <summary>As <see cref="Propagate"/>, and also propagates the state (u, w) = (ψ, ψ′/m), returning the number of zeros of ψ inside the segment (its far end included).</summary>
+    int PropagateCounting(double energyElectronVolts, ref double u, ref double w, ref CellTransfer.Product product);
+}
