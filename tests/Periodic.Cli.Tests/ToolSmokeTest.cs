@@ -9,6 +9,6 @@ public sealed class ToolSmokeTest
     public void ToolAssembly_IsBuilt()
     {
         // Replaced by process-level tests of every command when the command-line issue lands.
-        Assert.True(File.Exists(Path.Combine(AppContext.BaseDirectory, "periodic.dll")));
+        Assert.True(File.Exists(Path.Combine(AppContext.BaseDirectory, "Periodic.Cli.dll")));
     }
 }
