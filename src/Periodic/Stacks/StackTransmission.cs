@@ -173,6 +173,37 @@ public sealed class StackTransmission
         }
     }
 
+    /// <summary>
+    /// Finds the transmission peaks (resonances) in [<paramref name="lowerElectronVolts"/>, <paramref name="upperElectronVolts"/>]:
+    /// their energies, heights, full widths at half maximum and lifetimes ħ/Γ.
+    /// </summary>
+    /// <remarks>
+    /// Method: a uniform scan, refined by halving wherever arg t turns by more than
+    /// <see cref="ResonanceSearchOptions.MaxPhaseStepRadians"/> between samples (a resonance turns the
+    /// transmission phase by about π, so a narrow peak is caught however narrow it is); each local maximum
+    /// of ln T is refined by golden section (J. Kiefer, Proc. AMS 4, 502 (1953)), its half-maximum points
+    /// by Brent's method (R. P. Brent, 1973), and its energy as the Brent root of
+    /// ln T(E + h) − ln T(E − h) at h, h/2 and h/4 with Richardson extrapolation (h = 0.2% of the half width); the
+    /// difference of the two extrapolations is the reported error bound.
+    /// The energy tolerance is <see cref="ResonanceSearchOptions.AbsoluteToleranceElectronVolts"/>; each
+    /// result carries its own error bound. Peaks at the window ends are not reported. The window is raised
+    /// to the higher lead band edge when it starts below it.
+    /// </remarks>
+    /// <exception cref="ArgumentOutOfRangeException">A bound is not finite, or <paramref name="upperElectronVolts"/> is not above <paramref name="lowerElectronVolts"/>, or an option is out of range.</exception>
+    public ResonanceSpectrum FindResonances(double lowerElectronVolts, double upperElectronVolts, ResonanceSearchOptions? options = null)
+    {
+        Preconditions.CheckFinite(lowerElectronVolts);
+        Preconditions.CheckFinite(upperElectronVolts);
+        if (!(upperElectronVolts > lowerElectronVolts))
+        {
+            throw new ArgumentOutOfRangeException(nameof(upperElectronVolts), upperElectronVolts,
+                $"upperElectronVolts must exceed lowerElectronVolts ({Preconditions.Format(lowerElectronVolts)} eV); got {Preconditions.Format(upperElectronVolts)}.");
+        }
+        options ??= ResonanceSearchOptions.Default;
+        options.Validate(nameof(options));
+        return ResonanceFinder.Find(this, lowerElectronVolts, upperElectronVolts, options);
+    }
+
     internal void CheckEnergy(double energyElectronVolts, string name)
     {
         if (!double.IsFinite(energyElectronVolts))
