@@ -142,12 +142,19 @@ public sealed class BoundStateSpectrum
         var root = RootFinding.Brent(ref function, a, b, options.AbsoluteToleranceElectronVolts, options.RelativeTolerance, 300);
         var checkLower = Math.Max(a, Math.Min(root.Lower, root.Root - tolerance));
         var checkUpper = Math.Min(b, Math.Max(root.Upper, root.Root + tolerance));
+        var iterations = 0;
         if (root.Status == RootStatus.Converged && profile.CountBelow(checkLower, out _) <= index && profile.CountBelow(checkUpper, out _) >= index + 1)
         {
-            return new BoundLevel(index, root.Root, root.ErrorBound, root.Iterations, true);
+            if (root.ErrorBound <= tolerance)
+            {
+                return new BoundLevel(index, root.Root, root.ErrorBound, root.Iterations, true);
+            }
+            // A converged step larger than the tolerance (an exact zero hit early): finish on the count.
+            a = checkLower;
+            b = checkUpper;
+            iterations = root.Iterations;
         }
-        // Fallback: bisection on the count alone (always converges, guaranteed bracket).
-        var iterations = 0;
+        // Bisection on the count alone (always converges, guaranteed bracket).
         while (b - a > tolerance && iterations < 2000)
         {
             var mid = 0.5 * (a + b);
