@@ -61,6 +61,19 @@ public sealed class StackTransmissionTest(ITestOutputHelper output)
         Assert.Equal(expected, result.Transmission, 1e-13);
     }
 
+    [Theory]
+    [InlineData(0.1, 0.01)]
+    [InlineData(-0.1, 0.2)]
+    public void Evaluate_DeltaBarrierOrWell_MatchesClosedForm(double strength, double energy)
+    {
+        // Delta potential ±α δ(x): T = 1 / (1 + m α² / (2ħ² E)) = 1 / (1 + m α² / (4 C E)), the same for
+        // barrier and well (Griffiths, 2nd ed., §2.5.2, eq. 2.141).
+        var expected = 1 / (1 + 0.067 * strength * strength / (4 * C * energy));
+        var result = StackTransmission.Create(LayerStack.Create(Ground, Ground, DeltaBarrier.Create(strength))).Evaluate(energy);
+        // Tolerance: a few roundings in either closed form.
+        Assert.Equal(expected, result.Transmission, 1e-14);
+    }
+
     [Fact]
     public void Evaluate_VeryThickBarrier_GivesFiniteLogBelow1e300()
     {
