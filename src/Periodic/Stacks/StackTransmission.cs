@@ -230,32 +230,39 @@ public sealed class StackTransmission
         }
     }
 
-    /// <summary>The reference impedance: geometric mean of |k|/m over the materials present, so every element is converted well-conditioned.</summary>
+    /// <summary>
+    /// The reference impedance: geometric mean of |k|/m over the materials present (each taken at least
+    /// 1e-3 of the largest, so a layer at its own band edge does not drag the mean away from the rest),
+    /// so that every element converts well-conditioned.
+    /// </summary>
     private double ReferenceImpedance(double e)
     {
-        double sumLog = 0;
-        var count = 0;
+        double max = 0;
         for (var i = 0; i < _potentials.Length; i++)
         {
-            var excess = e - _potentials[i];
-            var mass = _masses[i] + _slopes[i] * excess;
-            var s = Math.Abs(mass * excess / C);
-            if (s > 0)
-            {
-                sumLog += 0.5 * Math.Log(s) - Math.Log(mass);
-                count++;
-            }
+            max = Math.Max(max, Impedance(e, _potentials[i], _masses[i], _slopes[i]));
         }
-        foreach (var lead in (ReadOnlySpan<Lead>)[Stack.LeftLead, Stack.RightLead])
+        max = Math.Max(max, Impedance(e, Stack.LeftLead.PotentialElectronVolts, Stack.LeftLead.MassElectronMasses, 0));
+        max = Math.Max(max, Impedance(e, Stack.RightLead.PotentialElectronVolts, Stack.RightLead.MassElectronMasses, 0));
+        if (!(max > 0) || !double.IsFinite(max))
         {
-            var s = Math.Abs(lead.MassElectronMasses * (e - lead.PotentialElectronVolts) / C);
-            if (s > 0)
-            {
-                sumLog += 0.5 * Math.Log(s) - Math.Log(lead.MassElectronMasses);
-                count++;
-            }
+            return 1.0;
         }
-        return count == 0 ? 1.0 : Math.Exp(sumLog / count);
+        var floor = 1e-3 * max;
+        double sumLog = Math.Log(Math.Max(floor, Impedance(e, Stack.LeftLead.PotentialElectronVolts, Stack.LeftLead.MassElectronMasses, 0)))
+            + Math.Log(Math.Max(floor, Impedance(e, Stack.RightLead.PotentialElectronVolts, Stack.RightLead.MassElectronMasses, 0)));
+        for (var i = 0; i < _potentials.Length; i++)
+        {
+            sumLog += Math.Log(Math.Max(floor, Impedance(e, _potentials[i], _masses[i], _slopes[i])));
+        }
+        return Math.Exp(sumLog / (_potentials.Length + 2));
+    }
+
+    private static double Impedance(double e, double potential, double mass, double slope)
+    {
+        var excess = e - potential;
+        var m = mass + slope * excess;
+        return Math.Sqrt(Math.Abs(m * excess / C)) / m;
     }
 
     /// <summary>The scattering matrix of everything between the leads, in the reference basis q.</summary>

@@ -75,6 +75,18 @@ public sealed class StackTransmissionTest(ITestOutputHelper output)
     }
 
     [Fact]
+    public void Evaluate_AtTheBarrierTop_MatchesClosedFormLimit()
+    {
+        // E = V0 exactly (k = 0 inside, the series branch of the propagator): T = 1 / (1 + m a² V0 / (2ħ²))
+        // = 1 / (1 + m a² V0 / (4C)) (Griffiths, Problem 2.33, the E → V0 limit).
+        const double v0 = 0.3, a = 5;
+        var expected = 1 / (1 + 0.067 * a * a * v0 / (4 * C));
+        var result = StackTransmission.Create(LayerStack.Create(Ground, Ground, Slab(a, v0))).Evaluate(v0);
+        // Tolerance: a few roundings in either form.
+        Assert.Equal(expected, result.Transmission, 1e-14);
+    }
+
+    [Fact]
     public void Evaluate_VeryThickBarrier_GivesFiniteLogBelow1e300()
     {
         // A 300 nm, 2 eV barrier at 0.1 eV: κa ≈ 548, T ≈ e^-1095 ≈ 1e-476, far below the double range.
