@@ -204,6 +204,18 @@ public sealed class BuiltStructure
                     $"{material.Name} has its lowest conduction minimum outside Gamma (X or L): only Gamma-valley states are modelled, so lower-lying X/L states in this layer are missing and its barrier height is an upper bound for electrons."));
             }
         }
+        int lowestConduction = 0, highestValence = 0;
+        for (var i = 1; i < n; i++)
+        {
+            lowestConduction = valence[i] + gaps[i] < valence[lowestConduction] + gaps[lowestConduction] ? i : lowestConduction;
+            highestValence = valence[i] > valence[highestValence] ? i : highestValence;
+        }
+        var overlap = valence[highestValence] - (valence[lowestConduction] + gaps[lowestConduction]);
+        if (overlap > 0)
+        {
+            warnings.Add(new ModelWarning(ModelWarningKind.BrokenGap, -1, overlap, 0, string.Create(CultureInfo.InvariantCulture,
+                $"broken-gap alignment: the conduction-band edge of {recipeLayers[lowestConduction].Material.Name} (layer {lowestConduction}) lies {overlap * 1e3:F0} meV below the valence-band edge of {recipeLayers[highestValence].Material.Name} (layer {highestValence}); electron and hole states mix there, which this single-band model does not describe.")));
+        }
         var cell = UnitCell.Create(cellElements);
         return new BuiltStructure(recipe, cell, layers, reference, [.. warnings]);
     }

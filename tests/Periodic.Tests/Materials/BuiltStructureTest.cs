@@ -171,6 +171,17 @@ public sealed class BuiltStructureTest
     }
 
     [Fact]
+    public void Build_InAsGaSb_WarnsBrokenGap()
+    {
+        // InAs/GaSb is the textbook broken-gap pair (common practice, no single source): Ec(InAs) = −0.59 + 0.417
+        // lies below Ev(GaSb) = −0.03 (Vurgaftman et al. 2001, from memory) by 0.143 eV.
+        var built = StructureRecipe.Parse("5 nm InAs / 5 nm GaSb at 0 K").WithSubstrate(Material.GaSb).Build();
+        var w = Assert.Single(built.Warnings, w => w.Kind == ModelWarningKind.BrokenGap);
+        Assert.Equal(-0.03 - (-0.59 + 0.417), w.Value, 1e-12);
+        Assert.DoesNotContain(StructureRecipe.Parse("5 nm GaAs / 5 nm AlAs at 0 K").Build().Warnings, w => w.Kind == ModelWarningKind.BrokenGap);
+    }
+
+    [Fact]
     public void CheckEnergies_FlagsEnergiesFarAboveEdge()
     {
         // Limits: (E − V)/Eg above 0.1 (parabolic) or 0.5 (Kane). GaAs Eg(77 K) ≈ 1.508 eV.
