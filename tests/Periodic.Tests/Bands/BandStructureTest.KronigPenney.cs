@@ -101,4 +101,30 @@ public sealed partial class BandStructureTest
             Assert.True(Math.Abs(ClosedForms.KronigPenneyHalfTrace(1, 1, v0, 0.5, 0.25, middle)) > 1, other.ToString());
         }
     }
+
+    [Fact]
+    public void Compute_KronigPenneyNarrowGap_IsReportedOpenWithItsWidth()
+    {
+        // The closed-gap construction with equal masses (a = b = 1 nm, m = 1, l = 2, n = 1, V0 = 3π²C,
+        // g = ½(ξ + 1/ξ) = 1.25 at E* = 4π²C), then V0 raised by 3e-7 relative: kb b = π moves off kw a = 2π and
+        // a zone-boundary gap of about 1e-7 eV (7e-8 relative) opens between E_α (kw a = 2π) and E_β
+        // (kb b = π) [derived from the quadratic form above: indefinite for g > 1].
+        const double c = ClosedForms.C;
+        var v0 = 3 * Math.PI * Math.PI * c * (1 + 3e-7);
+        double F(double e) => ClosedForms.KronigPenneyHalfTrace(1, 1, v0, 1, 1, e);
+        var eAlpha = 4 * Math.PI * Math.PI * c;
+        var eBeta = v0 + Math.PI * Math.PI * c;
+        var inside = Enumerable.Range(1, 63).Select(i => eAlpha + (eBeta - eAlpha) * i / 64).MinBy(e => F(e) + 1);
+        Assert.True(F(inside) + 1 < 0, "the perturbation must open the gap");
+        var lower = ClosedForms.BrentRoot(e => F(e) + 1, eAlpha, inside);
+        var upper = ClosedForms.BrentRoot(e => F(e) + 1, inside, eBeta);
+        var bands = BandStructure.Compute(KronigPenney(1, 1, v0, 1, 1), 8);
+        var gap = bands.Gaps.MinBy(g => Math.Abs(g.LowerElectronVolts - eAlpha));
+        Assert.False(gap.IsClosed, $"{gap}: a gap of {upper - lower:E3} eV must not be reported closed");
+        // Conditioning: near a nearly degenerate pair |dD/dE| at an edge is only ~1e-6 /eV, so rounding of D
+        // (a few ε) moves each edge, here and in the closed form, by up to ~1e-9 eV: 5 % of the width.
+        Assert.Equal(upper - lower, gap.WidthElectronVolts, 0.05 * (upper - lower));
+        Assert.Equal(lower, gap.LowerElectronVolts, 0.05 * (upper - lower));
+        output.WriteLine($"KP narrow gap: width {gap.WidthElectronVolts:E4} eV vs closed form {upper - lower:E4} eV (relative {Math.Abs(gap.WidthElectronVolts / (upper - lower) - 1):E2})");
+    }
 }
