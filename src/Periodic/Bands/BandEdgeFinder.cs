@@ -90,6 +90,11 @@ internal sealed class BandEdgeFinder
                     Store(ca + 1, extremum, error);
                     closedAbove[(ca + 1) / 2] = true;
                 }
+                else if (TryRefineNarrowPair(ca, a, extremum, b, out var lowerRoot, out var upperRoot))
+                {
+                    Store(ca, lowerRoot.Root, lowerRoot.ErrorBound);
+                    Store(ca + 1, upperRoot.Root, upperRoot.ErrorBound);
+                }
                 else
                 {
                     RefineInto(ca, a, extremum);
@@ -286,6 +291,78 @@ internal sealed class BandEdgeFinder
         }
         var discriminant = linear * linear - 4 * quadratic * constant;
         return discriminant <= 0 ? 0.0 : Math.Sqrt(discriminant) / quadratic;
+    }
+
+    /// <summary>
+    /// Refines the two edges of an open but narrow gap, where M is close to ±I, on det(M(E) ∓ I) in product
+    /// form instead of D(E) ∓ 2: both vanish at the edges (det M = 1), but near M = ±I the trace form loses
+    /// its digits to cancellation (|dD/dE| is tiny at the edges of a narrow gap, so an ulp of D moves the edge
+    /// by ulp/|dD/dE|) while the product of the small entries keeps them. Starts from the roots of the
+    /// linearised model (see <see cref="TrySeparateGapPair"/>). False when M is not near ±I or the brackets
+    /// cannot be confirmed; the caller then uses the trace form.
+    /// </summary>
+    private bool TryRefineNarrowPair(int lowerEdge, double a, double extremum, double b, out RootResult lower, out RootResult upper)
+    {
+        lower = upper = default;
+        var matrix = _transfer.Evaluate(extremum);
+        if (matrix.LogScale > 600)
+        {
+            return false;
+        }
+        var scale = Math.Exp(matrix.LogScale);
+        var sign = TargetTrace(lowerEdge) > 0 ? 1.0 : -1.0;
+        var m = matrix.Mantissa;
+        var d = matrix.EnergyDerivativeMantissa;
+        double e11 = m.M11 * scale - sign, e12 = m.M12 * scale, e21 = m.M21 * scale, e22 = m.M22 * scale - sign;
+        if (Math.Max(Math.Abs(e11), Math.Abs(e22)) > 1e-3 || Math.Abs(e12 * e21) > 1e-6)
+        {
+            return false; // not near ±I: the trace form is as well conditioned
+        }
+        double a11 = d.M11 * scale, a12 = d.M12 * scale, a21 = d.M21 * scale, a22 = d.M22 * scale;
+        var quadratic = a11 * a22 - a12 * a21;
+        var linear = e11 * a22 + e22 * a11 - e12 * a21 - e21 * a12;
+        var constant = e11 * e22 - e12 * e21;
+        var discriminant = linear * linear - 4 * quadratic * constant;
+        if (!(quadratic > 0) || !(discriminant > 0) || !double.IsFinite(discriminant))
+        {
+            return false;
+        }
+        var root = Math.Sqrt(discriminant);
+        var below = (-linear - root) / (2 * quadratic);
+        var above = (-linear + root) / (2 * quadratic);
+        if (!(below < 0 && above > 0))
+        {
+            return false;
+        }
+        var function = new DeterminantOffIdentity(_transfer, sign);
+        var lowerEnd = Math.Max(a, extremum + 4 * below);
+        var upperEnd = Math.Min(b, extremum + 4 * above);
+        // Outside the gap det(M ∓ I) = ±(2 ∓ D)·… is positive, inside negative: confirm both brackets.
+        if (!(function.Evaluate(lowerEnd, out _) > 0 && function.Evaluate(extremum, out _) < 0 && function.Evaluate(upperEnd, out _) > 0))
+        {
+            return false;
+        }
+        lower = RootFinding.SafeguardedNewton(ref function, lowerEnd, extremum, _options.AbsoluteToleranceElectronVolts, _options.RelativeTolerance, _options.MaxIterations);
+        upper = RootFinding.SafeguardedNewton(ref function, extremum, upperEnd, _options.AbsoluteToleranceElectronVolts, _options.RelativeTolerance, _options.MaxIterations);
+        return lower.Status == RootStatus.Converged && upper.Status == RootStatus.Converged;
+    }
+
+    /// <summary>det(M(E) − σI) in product form and its exact energy derivative; σ = ±1.</summary>
+    private readonly struct DeterminantOffIdentity(CellTransfer transfer, double sign) : IDifferentiableFunction
+    {
+        public double Evaluate(double x, out double derivative)
+        {
+            var p = transfer.Accumulate(x);
+            if (p.LogScale > 300)
+            {
+                derivative = double.PositiveInfinity;
+                return double.PositiveInfinity; // far outside any narrow gap: only the sign matters
+            }
+            var s = Math.Exp(p.LogScale);
+            double e11 = p.P11 * s - sign, e22 = p.P22 * s - sign, m12 = p.P12 * s, m21 = p.P21 * s;
+            derivative = (p.D11 * e22 + e11 * p.D22 - p.D12 * m21 - m12 * p.D21) * s;
+            return e11 * e22 - m12 * m21;
+        }
     }
 
     private readonly struct TraceMinusTarget(CellTransfer transfer, double target) : IDifferentiableFunction
