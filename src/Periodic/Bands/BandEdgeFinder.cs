@@ -249,7 +249,7 @@ internal sealed class BandEdgeFinder
         {
             return true; // |D| exceeds 2 far beyond any rounding: an open gap
         }
-        var width = LinearisedGapWidth(matrix, target);
+        var width = LinearisedGapWidth(matrix, target, out var shift, out var curvature);
         if (double.IsNaN(width))
         {
             // No usable linear model (entries beyond the double range, or a degenerate derivative): fall back
@@ -259,17 +259,67 @@ internal sealed class BandEdgeFinder
             closedError = Math.Max(Math.Abs(extremum) * 1e-12, _options.AbsoluteToleranceElectronVolts);
             return true;
         }
-        closed = width <= tolerance;
-        closedError = Math.Max(Math.Max(width, tolerance), result.ErrorBound);
+        // D′ = 0 comes from a noisy slope; the centre of the linearised pair, E_m − (linear)/(2·quadratic), places
+        // a (nearly) degenerate point better. Move there for the decision (the open-gap refinement keeps E_m,
+        // which is known to lie inside the gap).
+        var centre = extremum;
+        for (var step = 0; step < 3 && Math.Abs(shift) > tolerance; step++)
+        {
+            var moved = centre + shift;
+            if (!(moved > a && moved < b))
+            {
+                break;
+            }
+            var movedMatrix = _transfer.Evaluate(moved);
+            var movedWidth = LinearisedGapWidth(movedMatrix, target, out var movedShift, out var movedCurvature);
+            if (double.IsNaN(movedWidth))
+            {
+                break;
+            }
+            centre = moved;
+            matrix = movedMatrix;
+            width = movedWidth;
+            shift = movedShift;
+            curvature = movedCurvature;
+        }
+        // Rounding accumulated over the product shows in det M − 1 (exactly 0 in exact arithmetic); D ∓ 2 carries
+        // rounding of the same size. A gap whose |D| exceeds 2 by no more than that is closed within resolution.
+        var centreScale = Math.Exp(matrix.LogScale);
+        var m = matrix.Mantissa;
+        // Floor: a few ulps of the largest entry that enters the trace (the rounding of the final sum).
+        var noise = Math.Max(8 * Math.Abs((m.M11 * m.M22 - m.M12 * m.M21) * centreScale * centreScale - 1),
+            64 * 2.220446049250313e-16 * Math.Max(m.MaxAbsEntry * centreScale, 2.0));
+        var centreTrace = m.Trace * centreScale;
+        var centreExcess = target > 0 ? centreTrace - 2 : -2 - centreTrace;
+        if (width <= tolerance)
+        {
+            closed = true;
+            closedError = Math.Max(Math.Max(width, tolerance), Math.Abs(shift));
+        }
+        else if (Math.Min(centreExcess, excessOverTarget) <= noise)
+        {
+            // Closed within the resolution that rounding allows: an open gap this shallow would be at most
+            // 2√(noise/curvature) wide (D ∓ 2 ≈ ±curvature·δ² near the centre), which bounds the edges' error.
+            closed = true;
+            closedError = Math.Max(tolerance, Math.Sqrt(noise / curvature));
+        }
+        if (closed)
+        {
+            extremum = centre;
+        }
         return true;
     }
 
     /// <summary>
     /// The separation of the roots of det(η + δA) = 0 (see <see cref="TrySeparateGapPair"/>), eV; 0 when the
     /// quadratic has no real roots (no gap within rounding); NaN when the model cannot be formed.
+    /// <paramref name="shift"/> is the offset of the quadratic's centre from the evaluation point (eV) and
+    /// <paramref name="curvature"/> its leading coefficient det A (1/eV²).
     /// </summary>
-    private static double LinearisedGapWidth(Transfer.ScaledTransferMatrix matrix, double target)
+    private static double LinearisedGapWidth(Transfer.ScaledTransferMatrix matrix, double target, out double shift, out double curvature)
     {
+        shift = 0;
+        curvature = double.NaN;
         if (matrix.LogScale > 600)
         {
             return double.NaN;
@@ -290,6 +340,8 @@ internal sealed class BandEdgeFinder
             return double.NaN;
         }
         var discriminant = linear * linear - 4 * quadratic * constant;
+        shift = -linear / (2 * quadratic);
+        curvature = quadratic;
         return discriminant <= 0 ? 0.0 : Math.Sqrt(discriminant) / quadratic;
     }
 
