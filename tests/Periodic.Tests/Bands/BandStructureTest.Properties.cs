@@ -124,4 +124,46 @@ public sealed partial class BandStructureTest
         });
         output.WriteLine($"no NaN (bands): {ran} random cells");
     }
+
+    [Fact]
+    public void Compute_RandomDoubledCells_FoldedGapsClosedAtQuarterZone()
+    {
+        // A cell made of two copies of a random cell has ½Tr M² = T₂(x) = 2x² − 1, x = ½Tr M [derived]: its edges
+        // are the small cell's edges (x = ±1, T₂ = 1) and the points x = 0 (T₂ = −1) where the small cell's
+        // Bloch phase is π/2, each a doubly degenerate edge. So band 2j − 1 and 2j of the doubled cell meet at
+        // E_j(k = π/2d) of the small cell with a closed gap, and the other gaps are the small cell's.
+        var worst = 0.0;
+        var beyondTarget = 0;
+        var ran = RandomCells.Check(RandomCells.Cells(3, 1), BandPropertyCells / 2, 20260205UL, spec =>
+        {
+            var small = BandStructure.Compute(spec.Build(), 2);
+            var doubled = BandStructure.Compute(new CellSpec(spec.Elements.Concat(spec.Elements).ToArray(), []).Build(), 4);
+            var d = small.PeriodNanometres;
+            for (var j = 1; j <= 2; j++)
+            {
+                var quarter = small.EnergyAt(j, Math.PI / (2 * d));
+                var gap = doubled.Gaps[2 * j - 2];
+                Assert.True(gap.IsClosed, $"{spec}: {gap} should be closed at {quarter:R} eV");
+                // E(k) at mid-band meets the edge tolerance; both searches contribute. Thick barriers (κw ≈ 8 per
+                // layer here) make M lose digits to cancellation (≈ ε e^(2κw) in the doubled cell), so the closed
+                // edge may be off by more: then the error bound the finder reports must cover it.
+                var tolerance = 2 * EdgeTolerance(Math.Max(Math.Abs(quarter), Math.Abs(spec.MinimumPotential)));
+                var reported = doubled.GetBand(2 * j - 1).TopErrorElectronVolts;
+                var deviation = Math.Abs(gap.LowerElectronVolts - quarter);
+                Assert.True(deviation <= Math.Max(tolerance, reported + tolerance), $"{spec}: closed gap at {gap.LowerElectronVolts:R}, expected {quarter:R}, reported error {reported:E2}");
+                if (deviation > tolerance)
+                {
+                    beyondTarget++;
+                }
+                Assert.True(Math.Abs(doubled.GetBand(2 * j - 1).BottomElectronVolts - small.GetBand(j).BottomElectronVolts) <= tolerance, spec.ToString());
+                Assert.True(Math.Abs(doubled.GetBand(2 * j).TopElectronVolts - small.GetBand(j).TopElectronVolts) <= tolerance, spec.ToString());
+                worst = Math.Max(worst, Math.Abs(gap.LowerElectronVolts - quarter) / Math.Max(Math.Abs(quarter), 1e-3));
+                if (!small.Gaps[j - 1].IsClosed && small.Gaps[j - 1].WidthElectronVolts > 1e-9)
+                {
+                    Assert.False(doubled.Gaps[2 * j - 1].IsClosed, $"{spec}: the small cell's gap {j} must stay open");
+                }
+            }
+        });
+        output.WriteLine($"doubled cells: {ran} random cells, folded gaps closed, worst relative deviation of the closed-gap energy {worst:E2}; {beyondTarget} closed gaps beyond 2e-12 relative (within their reported bounds)");
+    }
 }
