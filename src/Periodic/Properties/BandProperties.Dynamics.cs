@@ -20,9 +20,9 @@ public sealed partial class BandProperties
     /// the velocity is odd in k.</para>
     /// <para>At a zone point (k = 0 or ±π/d) the velocity is exactly 0 at an open gap. At a closed gap
     /// (the two bands cross linearly) it is the one-sided limit from inside the zone, taken towards
-    /// k ≥ 0: |dE/dk| of the crossing, positive in odd bands, negative in even bands. Within 1e-8 of
-    /// the band width of a closed gap the local expansion E = E₀ + a q + b q² is used; the relative accuracy
-    /// there is about 1e-8 instead of rounding level.</para>
+    /// k ≥ 0: |dE/dk| of the crossing, positive in odd bands, negative in even bands. Within 1e-4 in kd of
+    /// a closed gap the local expansion E = E₀ + a q + b q² is used; the relative accuracy there is about 1e-8
+    /// instead of rounding level.</para>
     /// </remarks>
     /// <exception cref="ArgumentOutOfRangeException">No such band, or k is not finite or outside the first zone.</exception>
     public GroupVelocity GroupVelocityAt(int bandIndex, double wavevectorPerNanometre)
@@ -101,10 +101,22 @@ public sealed partial class BandProperties
             ThrowIfNoCrossing(edge, "The group velocity");
             return parity * edge.CrossingSlope;
         }
-        if (NearClosedEdge(bandIndex, energy, fromTrace ? ClosedGapWindowFromTrace : ClosedGapWindowFromPhase, out var closed, out var offset))
+        EdgeData closed;
+        double offset;
+        bool near;
+        if (fromTrace)
+        {
+            near = NearClosedEdge(bandIndex, energy, ClosedGapWindowFromTrace, out closed, out offset);
+        }
+        else
+        {
+            near = NearClosedZonePoint(bandIndex, phase, out closed, out var q);
+            offset = closed.CrossingSlope * q + closed.CrossingCurvature * q * q; // δ = a q + b q²
+        }
+        if (near)
         {
             ThrowIfNoCrossing(closed, "The group velocity");
-            // dE/dq = a + 2bq with q ≈ δ/a along the smooth extended-zone crossing.
+            // dE/dq = a + 2bq along the smooth extended-zone crossing, with q ≈ δ/a from the energy offset δ.
             return parity * (closed.CrossingSlope + 2 * closed.CrossingCurvature * offset / closed.CrossingSlope);
         }
         var slope = _transfer.Dispersion(energy).TraceDerivativePerElectronVolt;
@@ -193,7 +205,7 @@ public sealed partial class BandProperties
             }
             return -2 * _d * _d * edge.Sigma / edge.TraceSlope;
         }
-        if (NearClosedEdge(bandIndex, energy, ClosedGapWindowFromPhase, out var closed, out _))
+        if (NearClosedZonePoint(bandIndex, phase, out var closed, out _))
         {
             ThrowIfNoCrossing(closed, "The curvature mass");
             return 2 * closed.CrossingCurvature;

@@ -35,10 +35,13 @@ public sealed partial class BandProperties
     private const double ClosedGapWindowFromTrace = 1e-4;
 
     /// <summary>
-    /// As <see cref="ClosedGapWindowFromTrace"/> for quantities computed from the exact k (D′/sin kd: ε/δ
-    /// against δ for the curvature), balanced at δ = √ε ≈ 1e-8.
+    /// Half-width in Bloch phase |kd − zone point| of the window around a closed gap inside which quantities
+    /// at a given k use the crossing expansion. E(k) from the trace carries a relative error ε/(qd)² in E − E₀
+    /// there (cos kd near ±1 resolves (qd)² only to ε), which the slope inherits and the curvature amplifies to
+    /// ε/(qd)³; the expansion errs by O((qd)²) for the slope and O(qd) for the curvature. At 1e-4 the slope is
+    /// good to ≈ 1e-8 and the curvature to ≈ 1e-4 (documented).
     /// </summary>
-    private const double ClosedGapWindowFromPhase = 1e-8;
+    private const double ClosedGapPhaseWindow = 1e-4;
 
     private readonly BandStructure _structure;
     private readonly CellTransfer _transfer;
@@ -203,6 +206,21 @@ public sealed partial class BandProperties
         edge = _bottoms[bandIndex - 1];
         offset = energy - edge.Energy;
         return edge.Closed && Math.Abs(offset) <= window;
+    }
+
+    /// <summary>
+    /// The closed-gap edge of band n at the zone point nearest to Bloch phase θ, when θ lies within
+    /// <see cref="ClosedGapPhaseWindow"/> of it; <paramref name="offset"/> is the extended-zone offset q (1/nm)
+    /// along which E rises: E ≈ E₀ + a q + b q².
+    /// </summary>
+    private bool NearClosedZonePoint(int bandIndex, double phase, out EdgeData edge, out double offset)
+    {
+        var atCenter = phase < 0.5 * Math.PI;
+        var distance = atCenter ? phase : Math.PI - phase;
+        var isBottom = atCenter == (bandIndex % 2 == 1);
+        edge = isBottom ? _bottoms[bandIndex - 1] : _tops[bandIndex - 1];
+        offset = (isBottom ? 1 : -1) * distance / _d;
+        return edge.Closed && distance <= ClosedGapPhaseWindow;
     }
 
     private static void ThrowIfNoCrossing(EdgeData edge, string what)
