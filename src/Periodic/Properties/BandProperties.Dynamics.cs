@@ -67,7 +67,7 @@ public sealed partial class BandProperties
         for (var i = 0; i < wavevectorsPerNanometre.Length; i++)
         {
             var k = wavevectorsPerNanometre[i];
-            var phase = Phase(k, string.Create(CultureInfo.InvariantCulture, $"wavevectorsPerNanometre[{i}]"));
+            var phase = Phase(k, nameof(wavevectorsPerNanometre), i);
             var energy = _structure.EnergyAt(bandIndex, Math.Min(phase / _d, Math.PI / _d));
             destinationElectronVoltNanometres[i] = SlopeAtPhase(bandIndex, phase, energy) * (k < 0 ? -1.0 : 1.0);
         }

@@ -150,10 +150,11 @@ public sealed partial class BandProperties
     private static string Format(double value) => Preconditions.Format(value);
 
     /// <summary>Where an energy lies: band n (1-based) or gap n (0 below the first band).</summary>
-    private (int Index, bool InBand) Locate(double energy, string paramName)
+    private (int Index, bool InBand) Locate(double energy, string parameter, int element = -1)
     {
         if (!double.IsFinite(energy) || energy <= _transfer.LowestValidEnergyElectronVolts || energy > _upperLimit)
         {
+            var paramName = element < 0 ? parameter : ElementName(parameter, element);
             throw new ArgumentOutOfRangeException(paramName, energy, string.Create(CultureInfo.InvariantCulture,
                 $"{paramName} must be a finite energy above {Format(_transfer.LowestValidEnergyElectronVolts)} eV and at most {Format(_upperLimit)} eV (the bottom of band {_bottoms.Length + 1}, the first band not computed); got {Format(energy)}. Compute more bands to go higher."));
         }
@@ -182,11 +183,12 @@ public sealed partial class BandProperties
     private int CheckBand(int bandIndex) => Preconditions.CheckRange(bandIndex, 1, _bottoms.Length);
 
     /// <summary>Reduces k to the Bloch phase |k|d in [0, π]; throws outside the first zone.</summary>
-    private double Phase(double k, string paramName)
+    private double Phase(double k, string parameter, int element = -1)
     {
         var phase = Math.Abs(k) * _d;
         if (!(phase <= Math.PI * (1 + 8 * 2.220446049250313e-16)))
         {
+            var paramName = element < 0 ? parameter : ElementName(parameter, element);
             throw new ArgumentOutOfRangeException(paramName, k,
                 $"{paramName} must be a finite wavevector in the first Brillouin zone [-pi/d, pi/d] = [-{Format(Math.PI / _d)}, {Format(Math.PI / _d)}] 1/nm; got {Format(k)}.");
         }

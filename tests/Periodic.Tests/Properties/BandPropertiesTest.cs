@@ -459,4 +459,33 @@ public sealed class BandPropertiesTest(ITestOutputHelper output)
             }
         }
     }
+
+    [Fact]
+    public void SpanMethods_DoNotAllocate()
+    {
+        // House rule: batch APIs never allocate (measured with the runtime's per-thread allocation counter).
+        var props = BandProperties.Create(BandStructure.Compute(Cells.Mixed(), 3));
+        var energies = new double[64];
+        var ks = new double[64];
+        for (var i = 0; i < energies.Length; i++)
+        {
+            var low = props.Structure.GetBand(1).BottomElectronVolts;
+            energies[i] = low + i / 64.0 * (props.UpperEnergyLimitElectronVolts - low);
+            ks[i] = (i - 32) / 33.0 * Math.PI / props.PeriodNanometres;
+        }
+        var destination = new double[64];
+        var mass = EffectiveMass.FromElectronMasses(0.07);
+        void Run()
+        {
+            props.DensitiesOfStates(energies, destination);
+            props.IntegratedDensitiesOfStates(energies, destination);
+            props.SuperlatticeDensitiesOfStates(energies, mass, destination);
+            props.SlopesAt(2, ks, destination);
+            props.GroupVelocitiesAt(3, ks, destination);
+        }
+        Run(); // warm up (JIT)
+        var before = GC.GetAllocatedBytesForCurrentThread();
+        Run();
+        Assert.Equal(0, GC.GetAllocatedBytesForCurrentThread() - before);
+    }
 }

@@ -233,4 +233,26 @@ public sealed class BlochFunctionTest(ITestOutputHelper output)
         Assert.Equal("positionNanometres", Assert.Throws<ArgumentOutOfRangeException>(() => psi.ValueAt(double.PositiveInfinity)).ParamName);
         Assert.Contains("band 1", psi.ToString());
     }
+
+    [Fact]
+    public void SpanMethods_DoNotAllocate()
+    {
+        // House rule: evaluation on a grid never allocates (per-thread allocation counter).
+        var psi = BlochFunction.Create(BandStructure.Compute(Cells.Mixed(), 2), 2, 0.2);
+        var xs = Enumerable.Range(0, 50).Select(i => -3.0 + 0.37 * i).ToArray();
+        var re = new double[50];
+        var im = new double[50];
+        var values = new Complex[50];
+        void Run()
+        {
+            psi.Evaluate(xs, re, im);
+            psi.Evaluate(xs, values);
+            psi.EvaluatePeriodicPart(xs, re, im);
+            psi.ProbabilityDensities(xs, re);
+        }
+        Run();
+        var before = GC.GetAllocatedBytesForCurrentThread();
+        Run();
+        Assert.Equal(0, GC.GetAllocatedBytesForCurrentThread() - before);
+    }
 }
