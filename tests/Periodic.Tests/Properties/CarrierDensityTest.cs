@@ -46,7 +46,7 @@ public sealed class CarrierDensityTest(ITestOutputHelper output)
                 var atZero = props.LinearCarrierDensity(mu, 0);
                 var cold = props.LinearCarrierDensity(mu, 1e-3);
                 worst = Math.Max(worst, Cells.RelativeError(atZero.DensityPerNanometre, expected));
-                // At 1 mK: N(μ) plus the Sommerfeld term (π²/6)(kT)²g′(μ) (Ashcroft and Mermin eq. 2.70), which is
+                // At 1 mK: N(μ) plus the Sommerfeld term (π²/6)(kT)²g′(μ) (Ashcroft and Mermin eq. 2.70, equation number from memory), which is
                 // up to 1e-10 relative here; the O(T⁴) remainder is ~1e-20.
                 var kT = KB * 1e-3;
                 var slope = Cells.FirstDerivative(props.DensityOfStatesPerElectronVoltNanometre, mu, 1e-3 * band.WidthElectronVolts);
@@ -64,7 +64,7 @@ public sealed class CarrierDensityTest(ITestOutputHelper output)
     [Fact]
     public void LinearCarrierDensity_LowTemperatureFollowsSommerfeld()
     {
-        // Sommerfeld expansion n(T) − n(0) = (π²/6)(k_BT)² g′(μ) + O(T⁴) (Ashcroft and Mermin eq. 2.70).
+        // Sommerfeld expansion n(T) − n(0) = (π²/6)(k_BT)² g′(μ) + O(T⁴) (Ashcroft and Mermin eq. 2.70, equation number from memory).
         var structure = BandStructure.Compute(Cells.WellBarrier(), 3);
         var props = BandProperties.Create(structure);
         var band = structure.GetBand(1);
@@ -118,7 +118,7 @@ public sealed class CarrierDensityTest(ITestOutputHelper output)
     [Fact]
     public void SuperlatticeCarrierDensity_ZeroTemperatureFreeGasIsKFCubedOverThreePiSquared()
     {
-        // Degenerate 3D gas: n = k_F³/(3π²), k_F = √(mμ/C) (Ashcroft and Mermin eq. 2.21).
+        // Degenerate 3D gas: n = k_F³/(3π²), k_F = √(mμ/C) (Ashcroft and Mermin eq. 2.21, equation number from memory).
         const double m = 0.067;
         var props = BandProperties.Create(BandStructure.Compute(Cells.Free(5.0, m), 6));
         foreach (var mu in new[] { 0.01, 0.1, 0.5 })
