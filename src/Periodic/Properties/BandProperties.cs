@@ -201,13 +201,13 @@ public sealed partial class BandProperties
         var window = relativeWindow * Math.Max(_tops[bandIndex - 1].Energy - _bottoms[bandIndex - 1].Energy, 1e-300);
         edge = _tops[bandIndex - 1];
         offset = energy - edge.Energy;
-        if (edge.Closed && Math.Abs(offset) <= window)
+        if (HasCrossing(edge) && Math.Abs(offset) <= window)
         {
             return true;
         }
         edge = _bottoms[bandIndex - 1];
         offset = energy - edge.Energy;
-        return edge.Closed && Math.Abs(offset) <= window;
+        return HasCrossing(edge) && Math.Abs(offset) <= window;
     }
 
     /// <summary>
@@ -222,8 +222,11 @@ public sealed partial class BandProperties
         var isBottom = atCenter == (bandIndex % 2 == 1);
         edge = isBottom ? _bottoms[bandIndex - 1] : _tops[bandIndex - 1];
         offset = (isBottom ? 1 : -1) * distance / _d;
-        return edge.Closed && distance <= ClosedGapPhaseWindow;
+        return HasCrossing(edge) && distance <= ClosedGapPhaseWindow;
     }
+
+    /// <summary>A closed gap whose crossing slope is usable (or unknown, NaN, so that the caller reports it); a zero slope (D″ = 0 too) falls back to the general formulas.</summary>
+    private static bool HasCrossing(EdgeData edge) => edge.Closed && edge.CrossingSlope != 0;
 
     private static void ThrowIfNoCrossing(EdgeData edge, string what)
     {
