@@ -154,8 +154,9 @@ public sealed partial class BandProperties
     {
         if (!double.IsFinite(energy) || energy <= _transfer.LowestValidEnergyElectronVolts || energy > _upperLimit)
         {
+            // ParamName is the real parameter; the message names the element of a span.
             var paramName = element < 0 ? parameter : ElementName(parameter, element);
-            throw new ArgumentOutOfRangeException(paramName, energy, string.Create(CultureInfo.InvariantCulture,
+            throw new ArgumentOutOfRangeException(parameter, energy, string.Create(CultureInfo.InvariantCulture,
                 $"{paramName} must be a finite energy above {Format(_transfer.LowestValidEnergyElectronVolts)} eV and at most {Format(_upperLimit)} eV (the bottom of band {_bottoms.Length + 1}, the first band not computed); got {Format(energy)}. Compute more bands to go higher."));
         }
         // Largest n with bottom_n ≤ E.
@@ -189,7 +190,7 @@ public sealed partial class BandProperties
         if (!(phase <= Math.PI * (1 + 8 * 2.220446049250313e-16)))
         {
             var paramName = element < 0 ? parameter : ElementName(parameter, element);
-            throw new ArgumentOutOfRangeException(paramName, k,
+            throw new ArgumentOutOfRangeException(parameter, k,
                 $"{paramName} must be a finite wavevector in the first Brillouin zone [-pi/d, pi/d] = [-{Format(Math.PI / _d)}, {Format(Math.PI / _d)}] 1/nm; got {Format(k)}.");
         }
         return Math.Min(phase, Math.PI);

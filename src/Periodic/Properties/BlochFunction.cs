@@ -295,7 +295,7 @@ public sealed class BlochFunction
             if (!double.IsFinite(positions[i]))
             {
                 var name = string.Create(CultureInfo.InvariantCulture, $"positionsNanometres[{i}]");
-                throw new ArgumentOutOfRangeException(name, positions[i], $"{name} must be a finite position in nm; got {Preconditions.Format(positions[i])}.");
+                throw new ArgumentOutOfRangeException("positionsNanometres", positions[i], $"{name} must be a finite position in nm; got {Preconditions.Format(positions[i])}.");
             }
         }
     }

@@ -228,7 +228,9 @@ public sealed class BlochFunctionTest(ITestOutputHelper output)
         Assert.Equal("wavevectorPerNanometre", Assert.Throws<ArgumentOutOfRangeException>(() => BlochFunction.Create(structure, 1, 5)).ParamName);
         Assert.Throws<ArgumentNullException>(() => BlochFunction.Create(null!, 1, 0));
         var psi = BlochFunction.Create(structure, 1, 0.1);
-        Assert.Equal("positionsNanometres[1]", Assert.Throws<ArgumentOutOfRangeException>(() => psi.ProbabilityDensities(new[] { 0.0, double.NaN }, new double[2])).ParamName);
+        var element = Assert.Throws<ArgumentOutOfRangeException>(() => psi.ProbabilityDensities(new[] { 0.0, double.NaN }, new double[2]));
+        Assert.Equal("positionsNanometres", element.ParamName);
+        Assert.Contains("positionsNanometres[1]", element.Message);
         Assert.Equal("destinationImaginary", Assert.Throws<ArgumentException>(() => psi.Evaluate(new double[3], new double[3], new double[1])).ParamName);
         Assert.Equal("positionNanometres", Assert.Throws<ArgumentOutOfRangeException>(() => psi.ValueAt(double.PositiveInfinity)).ParamName);
         Assert.Contains("band 1", psi.ToString());
