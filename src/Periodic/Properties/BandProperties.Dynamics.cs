@@ -39,7 +39,8 @@ public sealed partial class BandProperties
     /// positive in odd bands (E rises from the zone centre), negative in even bands.
     /// </summary>
     /// <remarks>Method as for <see cref="GroupVelocityAt"/>, with sin(kd) = √(4 − D²)/2. At an exact open band edge
-    /// the velocity is 0; an energy exactly at a closed gap belongs to the upper of the two bands.</remarks>
+    /// the velocity is 0; an energy exactly at a closed gap belongs to the upper of the two bands; within 1e-4 of
+    /// the band width of a closed gap the crossing expansion is used (≈ 1e-8 relative).</remarks>
     /// <exception cref="ArgumentOutOfRangeException">The energy is not finite, outside the computed range, or in a gap.</exception>
     public GroupVelocity GroupVelocityAtEnergy(double energyElectronVolts)
     {
@@ -178,8 +179,9 @@ public sealed partial class BandProperties
     /// Method: differentiating dE/dk = −2d sin(kd)/D′ once more gives, exactly,
     /// d²E/dk² = −2d² cos(kd)/D′ − 4d² sin²(kd)·D″/D′³, with D′ and D″ exact (Taylor-mode
     /// propagation of the cell's transfer matrix, see the user guide). At a zone point this reduces to the
-    /// band-edge mass (<see cref="BottomMass"/>); at a closed gap, to the mass of the smooth crossing.
-    /// Supported for cells of uniform layers and delta barriers.
+    /// band-edge mass (<see cref="BottomMass"/>); at a closed gap, to the mass of the smooth crossing, which is
+    /// also returned within 1e-4 in kd of a closed gap, where E(k) itself is too ill-conditioned for the formula
+    /// (accuracy there ≈ 1e-4 relative). Supported for cells of uniform layers and delta barriers.
     /// </remarks>
     /// <exception cref="ArgumentOutOfRangeException">No such band, or k outside the first zone.</exception>
     /// <exception cref="NotSupportedException">The cell holds an element other than a uniform layer or a delta barrier.</exception>

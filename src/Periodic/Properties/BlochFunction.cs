@@ -25,9 +25,9 @@ namespace Periodic.Properties;
 /// use ψ(x + jd) = e^(ikjd)ψ(x). At a zone point of an open gap ψ is real. At a closed gap the two
 /// degenerate states of a zone point are not fixed by k: the lower band gets the standing wave with
 /// ψ′(0) = 0, the upper band the one with ψ(0) = 0.</para>
-/// <para>Accuracy: relative rounding grows like e^(κw) for an evanescent layer of decay κ and width w (the
-/// decaying and growing parts of the state cancel); for κw ≲ 20 it stays below 1e-7. Cells whose
-/// transfer matrix exceeds the double range are refused. With non-parabolic layers the states of different
+/// <para>Accuracy: relative rounding grows like ε·e^(Σκw) over the evanescent layers of the cell (decay κ,
+/// width w: the decaying and growing parts of the state cancel); it is reported as
+/// <see cref="RelativeErrorEstimate"/>, and cells where it would exceed 1e-6 (Σκw ≳ 22) are refused. With non-parabolic layers the states of different
 /// energies are not orthogonal in the plain inner product (the mass depends on energy).</para>
 /// </remarks>
 public sealed class BlochFunction
@@ -42,9 +42,13 @@ public sealed class BlochFunction
     private readonly Complex _end;
     private readonly Complex _endW;
 
-    private BlochFunction(int bandIndex, double k, double energy, double period, double[] starts, double[] widths, double[] s, double[] masses, Complex[] u, Complex[] w, Complex end, Complex endW, Complex origin, Complex originW)
+    /// <summary>The largest relative rounding error accepted: the amplification e^(Σκw) of evanescent layers times ε.</summary>
+    private const double MaxRelativeErrorEstimate = 1e-6;
+
+    private BlochFunction(double errorEstimate, int bandIndex, double k, double energy, double period, double[] starts, double[] widths, double[] s, double[] masses, Complex[] u, Complex[] w, Complex end, Complex endW, Complex origin, Complex originW)
     {
         StateAtOrigin = (origin, originW);
+        RelativeErrorEstimate = errorEstimate;
         BandIndex = bandIndex;
         WavevectorPerNanometre = k;
         EnergyElectronVolts = energy;
@@ -71,11 +75,18 @@ public sealed class BlochFunction
     /// <summary>The period d, nm.</summary>
     public double PeriodNanometres { get; }
 
+    /// <summary>
+    /// Estimated relative rounding error of ψ: ε·e^(Σκw) over the evanescent layers of the cell (κ the decay
+    /// constant at this energy, w the width), from the forward propagation of the state. At most 1e-6.
+    /// </summary>
+    public double RelativeErrorEstimate { get; }
+
     /// <summary>Builds the normalised Bloch function of band <paramref name="bandIndex"/> at <paramref name="wavevectorPerNanometre"/> ∈ [−π/d, π/d].</summary>
     /// <exception cref="ArgumentNullException"><paramref name="structure"/> is null.</exception>
     /// <exception cref="ArgumentOutOfRangeException">No such band, or k outside the first zone.</exception>
     /// <exception cref="NotSupportedException">The cell holds an element other than a uniform layer or a delta barrier.</exception>
-    /// <exception cref="ArgumentException">The cell's transfer matrix exceeds the double range at this energy (barriers too opaque).</exception>
+    /// <exception cref="ArgumentException">The barriers are too opaque at this energy: the estimated relative error
+    /// ε·e^(Σκw) would exceed 1e-6 (Σκw ≳ 22), or the transfer matrix exceeds the double range.</exception>
     public static BlochFunction Create(BandStructure structure, int bandIndex, double wavevectorPerNanometre)
     {
         ArgumentNullException.ThrowIfNull(structure);
@@ -91,6 +102,22 @@ public sealed class BlochFunction
         {
             throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
                 $"the transfer matrix of the cell at {energy:R} eV exceeds the double range; the Bloch function cannot be propagated through barriers this opaque."), nameof(structure));
+        }
+        var opacity = 0.0;
+        foreach (var element in cell.ElementSpan)
+        {
+            if (element is Layer barrier && barrier.Potential.ElectronVolts > energy)
+            {
+                var excess = energy - barrier.Potential.ElectronVolts;
+                var mass = barrier.Mass.ElectronMasses * (1 + barrier.NonParabolicityPerElectronVolt * excess);
+                opacity += Math.Sqrt(-mass * excess / C) * barrier.Width.Nanometres;
+            }
+        }
+        var errorEstimate = 2.220446049250313e-16 * Math.Exp(opacity);
+        if (!(errorEstimate <= MaxRelativeErrorEstimate))
+        {
+            throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
+                $"the barriers of the cell are too opaque at {energy:R} eV for a forward-propagated Bloch function: the summed decay exponent is {opacity:G4}, so the relative rounding error would reach {errorEstimate:G3} (the limit is {MaxRelativeErrorEstimate:G1})."), nameof(structure));
         }
         var lambda = Complex.FromPolarCoordinates(1, wavevectorPerNanometre * d);
         var (u0, w0) = Eigenvector(structure, bandIndex, m, lambda);
@@ -149,7 +176,7 @@ public sealed class BlochFunction
             us[i] *= factor;
             ws[i] *= factor;
         }
-        return new BlochFunction(bandIndex, wavevectorPerNanometre, energy, d, starts, widths, s, masses, us, ws, u * factor, w * factor, u0 * factor, w0 * factor);
+        return new BlochFunction(errorEstimate, bandIndex, wavevectorPerNanometre, energy, d, starts, widths, s, masses, us, ws, u * factor, w * factor, u0 * factor, w0 * factor);
     }
 
     private static (Complex U, Complex W) Eigenvector(BandStructure structure, int bandIndex, TransferMatrix m, Complex lambda)

@@ -257,4 +257,19 @@ public sealed class BlochFunctionTest(ITestOutputHelper output)
         Run();
         Assert.Equal(0, GC.GetAllocatedBytesForCurrentThread() - before);
     }
+
+    [Fact]
+    public void Create_RefusesOpaqueBarriersAndReportsErrorEstimate()
+    {
+        // Forward propagation through a barrier amplifies rounding by e^{κw} (growing evanescent solution,
+        // common practice, no single source); the estimate must reflect it and opaque cells must be refused.
+        var thin = BlochFunction.Create(BandStructure.Compute(Cells.WellBarrier(), 1), 1, 0.1);
+        Assert.InRange(thin.RelativeErrorEstimate, 2.2e-16, 1e-13);
+        var opaque = Periodic.Structures.UnitCell.KronigPenney(Periodic.Units.Length.FromNanometres(5), Periodic.Units.Length.FromNanometres(20),
+            Periodic.Units.Energy.FromElectronVolts(1.0), Periodic.Units.EffectiveMass.FromElectronMasses(0.1));
+        var structure = BandStructure.Compute(opaque, 1);
+        var error = Assert.Throws<ArgumentException>(() => BlochFunction.Create(structure, 1, 0.1));
+        Assert.Equal("structure", error.ParamName);
+        Assert.Contains("opaque", error.Message);
+    }
 }
