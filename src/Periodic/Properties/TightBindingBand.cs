@@ -19,8 +19,8 @@ namespace Periodic.Properties;
 /// which is spectrally accurate for a smooth periodic function (L. N. Trefethen and J. A. C. Weideman,
 /// SIAM Rev. 56, 385 (2014)). t_j is the hopping amplitude to the j-th neighbour cell of the Wannier
 /// picture: E(k) = Σ_R e^{ikR}·h(R), t_j = 2h(jd) for j ≥ 1 (Ashcroft and Mermin, ch. 10).</para>
-/// <para>M doubles from 32 until the coefficients of M and M/2 samples agree to 1e-13 of the band width,
-/// or M reaches 4096; <see cref="AliasingErrorElectronVolts"/> reports that agreement as the coefficient error.
+/// <para>M doubles from 32 until the coefficients of M and M/2 samples agree to 1e-13 of the band width
+/// (or to 1e-13 of |E|, the noise floor of the sampled energies, for very narrow bands), or M reaches 4096; <see cref="AliasingErrorElectronVolts"/> reports that agreement as the coefficient error.
 /// Bands touching a closed gap have a kink at the zone point in this reduced-zone series, so their
 /// coefficients fall only as 1/j² and the aliasing error stays visible.</para>
 /// </remarks>
@@ -29,6 +29,7 @@ public sealed class TightBindingBand
     private const int FirstSampleCount = 32;
     private const int MaxSampleCount = 4096;
     private const double TargetRelativeAliasing = 1e-13;
+    private const double NoiseFloorRelative = 1e-13;
 
     private readonly double[] _coefficients;
     private readonly double[] _samples;
@@ -76,7 +77,11 @@ public sealed class TightBindingBand
         structure.GetBand(bandIndex); // validates the index
         var band = structure.GetBand(bandIndex);
         var d = structure.PeriodNanometres;
-        var width = Math.Max(band.WidthElectronVolts, 1e-300);
+        // Stop at 1e-13 of the width, or at the noise floor of the sampled E(k) (the band search resolves
+        // energies to about 1e-14 of |E|; 1e-13 of |E| leaves room for the transform's own rounding).
+        var target = Math.Max(TargetRelativeAliasing * band.WidthElectronVolts,
+            NoiseFloorRelative * Math.Max(Math.Abs(band.BottomElectronVolts), Math.Abs(band.TopElectronVolts)));
+        target = Math.Max(target, 1e-300);
         var m = FirstSampleCount;
         var samples = Sample(structure, bandIndex, m, null);
         var coefficients = Transform(samples);
@@ -96,7 +101,7 @@ public sealed class TightBindingBand
             m *= 2;
             samples = finer;
             coefficients = next;
-            if (aliasing <= TargetRelativeAliasing * width || m >= MaxSampleCount)
+            if (aliasing <= target || m >= MaxSampleCount)
             {
                 return new TightBindingBand(bandIndex, d, coefficients, samples, aliasing);
             }
