@@ -1,0 +1,332 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.Globalization;
+using System.Numerics.Tensors;
+
+namespace Periodic.Bands;
+
+/// <summary>
+/// The dispersion E_n(k) of one band, inverted once and stored as piecewise Chebyshev series in
+/// x = cos(kd), for fast evaluation on dense k-grids. Immutable and thread-safe; evaluation does not
+/// allocate.
+/// </summary>
+/// <remarks>
+/// <para>Method: inside a band D(E) is monotone and D′ ≠ 0 at the edges of an open gap, so E(x), the
+/// inverse of x = D(E)/2, is analytic on [−1, 1] and its Chebyshev series converges geometrically
+/// (L. N. Trefethen, Approximation Theory and Approximation Practice, SIAM 2013, ch. 7–8). The band's
+/// energies are computed by the root search of <see cref="BandStructure.EnergyAt"/> at Chebyshev–Lobatto
+/// points x_j = cos(πj/N) of a piece, and interpolated (coefficients by the discrete cosine transform,
+/// evaluation by Clenshaw's recurrence). The degree doubles (8, 16, 32, 64) until the interpolant agrees
+/// with the root search at the N points midway in angle between the nodes to within the tolerance — that
+/// largest observed deviation is <see cref="ErrorEstimateElectronVolts"/>; if degree 64 does not
+/// suffice (a nearly closed gap puts a square-root singularity just outside [−1, 1]) the piece is halved,
+/// and pieces that stay unresolved after <see cref="MaxSplitDepth"/> halvings (an exactly closed gap)
+/// keep the root search itself (<see cref="RootSearchFraction"/>).</para>
+/// <para>The error estimate is a sampled one (common practice in adaptive Chebyshev approximation, no
+/// single source): it is the deviation seen at 2N − 1 points per piece, not a proven bound.</para>
+/// </remarks>
+public sealed class BandDispersion
+{
+    /// <summary>Default absolute tolerance on E(k), eV.</summary>
+    public const double DefaultAbsoluteToleranceElectronVolts = 1e-13;
+
+    /// <summary>Largest degree of one piece before it is halved.</summary>
+    public const int MaxDegree = 64;
+
+    /// <summary>Largest number of halvings of [−1, 1] before a piece keeps the root search.</summary>
+    public const int MaxSplitDepth = 24;
+
+    private const double Epsilon = 2.220446049250313e-16;
+
+    private readonly BandStructure _bands;
+    private readonly double[] _breaks;
+    private readonly int[] _offsets;
+    private readonly int[] _degrees; // −1: root search on this piece
+    private readonly double[] _coefficients;
+    private readonly double _period;
+
+    private BandDispersion(BandStructure bands, Band band, double tolerance, List<Piece> pieces, int referenceEvaluations)
+    {
+        _bands = bands;
+        Band = band;
+        ToleranceElectronVolts = tolerance;
+        ReferenceEvaluations = referenceEvaluations;
+        _period = bands.PeriodNanometres;
+        _breaks = new double[pieces.Count + 1];
+        _offsets = new int[pieces.Count];
+        _degrees = new int[pieces.Count];
+        var total = 0;
+        foreach (var piece in pieces)
+        {
+            total += piece.Coefficients.Length;
+        }
+        _coefficients = new double[total];
+        var offset = 0;
+        double error = 0, fallback = 0;
+        for (var i = 0; i < pieces.Count; i++)
+        {
+            var piece = pieces[i];
+            _breaks[i] = piece.Lower;
+            _offsets[i] = offset;
+            _degrees[i] = piece.Degree;
+            piece.Coefficients.CopyTo(_coefficients, offset);
+            offset += piece.Coefficients.Length;
+            error = Math.Max(error, piece.Error);
+            if (piece.Degree < 0)
+            {
+                fallback += piece.Upper - piece.Lower;
+            }
+        }
+        _breaks[pieces.Count] = 1.0;
+        ErrorEstimateElectronVolts = error;
+        RootSearchFraction = fallback / 2;
+        TermCount = total;
+    }
+
+    /// <summary>The band.</summary>
+    public Band Band { get; }
+
+    /// <summary>The tolerance the series were built to, eV: max(requested, 64 ε·max(|E_bottom|, |E_top|)).</summary>
+    public double ToleranceElectronVolts { get; }
+
+    /// <summary>Largest deviation from the root search observed at the check points of every piece, eV (0 where the root search is kept).</summary>
+    public double ErrorEstimateElectronVolts { get; }
+
+    /// <summary>Number of pieces of [−1, 1] in x = cos kd.</summary>
+    public int PieceCount => _degrees.Length;
+
+    /// <summary>Total number of Chebyshev coefficients stored.</summary>
+    public int TermCount { get; }
+
+    /// <summary>Fraction of the x = cos kd range where no series converged and the root search is used (0 for most bands).</summary>
+    public double RootSearchFraction { get; }
+
+    /// <summary>How many root searches building the series took.</summary>
+    public int ReferenceEvaluations { get; }
+
+    /// <summary>Inverts band <paramref name="bandIndex"/> of <paramref name="bands"/>.</summary>
+    /// <param name="bands">The band structure.</param>
+    /// <param name="bandIndex">1-based band index, a band that <paramref name="bands"/> holds.</param>
+    /// <param name="absoluteToleranceElectronVolts">Target accuracy, in [1e-15, 1e-3] eV.</param>
+    /// <exception cref="ArgumentNullException"><paramref name="bands"/> is null.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">No such band, or the tolerance is outside its range.</exception>
+    public static BandDispersion Create(BandStructure bands, int bandIndex, double absoluteToleranceElectronVolts = DefaultAbsoluteToleranceElectronVolts)
+    {
+        ArgumentNullException.ThrowIfNull(bands);
+        var band = bands.GetBand(bandIndex);
+        Preconditions.CheckRange(absoluteToleranceElectronVolts, 1e-15, 1e-3);
+        var tolerance = Math.Max(absoluteToleranceElectronVolts,
+            64 * Epsilon * Math.Max(Math.Abs(band.BottomElectronVolts), Math.Abs(band.TopElectronVolts)));
+        var pieces = new List<Piece>();
+        var builder = new Builder(bands, bandIndex, tolerance);
+        if (band.WidthElectronVolts == 0)
+        {
+            pieces.Add(new Piece(-1, 1, 0, [band.BottomElectronVolts], 0));
+        }
+        else
+        {
+            builder.Build(-1, 1, 0, pieces);
+        }
+        return new BandDispersion(bands, band, tolerance, pieces, builder.Evaluations);
+    }
+
+    /// <summary>E_n(k), eV, at Bloch wavevector <paramref name="wavevectorPerNanometre"/> in the first zone [−π/d, π/d].</summary>
+    /// <exception cref="ArgumentOutOfRangeException">k is not finite or lies outside the first zone.</exception>
+    public double EnergyAt(double wavevectorPerNanometre)
+    {
+        var phase = Math.Abs(wavevectorPerNanometre) * _period;
+        if (!(phase <= MaxPhase))
+        {
+            throw ZoneError("wavevectorPerNanometre", wavevectorPerNanometre);
+        }
+        return EnergyAtCosine(Math.Cos(phase));
+    }
+
+    /// <summary>
+    /// Effectively computes <c>destination[i] = E_n(wavevectorsPerNanometre[i])</c> in eV. Does not
+    /// allocate; every wavevector is checked before anything is written; in place when both spans start
+    /// at the same address.
+    /// </summary>
+    /// <exception cref="ArgumentException">The destination is shorter than the input, or a wavevector is outside the first zone.</exception>
+    public void EnergiesAt(ReadOnlySpan<double> wavevectorsPerNanometre, Span<double> destination)
+    {
+        Preconditions.CheckDestination(wavevectorsPerNanometre.Length, destination.Length, nameof(wavevectorsPerNanometre), nameof(destination));
+        if (wavevectorsPerNanometre.Length == 0)
+        {
+            return;
+        }
+        var largest = TensorPrimitives.MaxMagnitude(wavevectorsPerNanometre);
+        if (!(Math.Abs(largest) * _period <= MaxPhase))
+        {
+            for (var i = 0; i < wavevectorsPerNanometre.Length; i++)
+            {
+                var k = wavevectorsPerNanometre[i];
+                if (!(Math.Abs(k) * _period <= MaxPhase))
+                {
+                    throw ZoneError(string.Create(CultureInfo.InvariantCulture, $"wavevectorsPerNanometre[{i}]"), k);
+                }
+            }
+        }
+        var output = destination[..wavevectorsPerNanometre.Length];
+        // x = cos(|k| d), vectorised; cos is even, so |k| is not needed.
+        TensorPrimitives.Multiply(wavevectorsPerNanometre, _period, output);
+        TensorPrimitives.Cos(output, output);
+        if (_degrees.Length == 1 && _degrees[0] >= 0)
+        {
+            var degree = _degrees[0];
+            for (var i = 0; i < output.Length; i++)
+            {
+                output[i] = Clenshaw(0, degree, Math.Clamp(output[i], -1.0, 1.0));
+            }
+            return;
+        }
+        for (var i = 0; i < output.Length; i++)
+        {
+            output[i] = EnergyAtCosine(Math.Clamp(output[i], -1.0, 1.0));
+        }
+    }
+
+    private double MaxPhase => Math.PI * (1 + 8 * Epsilon);
+
+    private ArgumentOutOfRangeException ZoneError(string name, double k) =>
+        new(name, k, $"{name} must be a finite wavevector in the first Brillouin zone [-pi/d, pi/d] = [-{Preconditions.Format(Math.PI / _period)}, {Preconditions.Format(Math.PI / _period)}] 1/nm; got {Preconditions.Format(k)}.");
+
+    private double EnergyAtCosine(double x)
+    {
+        var piece = 0;
+        if (_degrees.Length > 1)
+        {
+            int low = 0, high = _degrees.Length - 1;
+            while (low < high)
+            {
+                var mid = (low + high + 1) >> 1;
+                if (x >= _breaks[mid])
+                {
+                    low = mid;
+                }
+                else
+                {
+                    high = mid - 1;
+                }
+            }
+            piece = low;
+        }
+        var degree = _degrees[piece];
+        if (degree < 0)
+        {
+            return _bands.EnergyAt(Band.Index, Math.Acos(x) / _period);
+        }
+        double a = _breaks[piece], b = _breaks[piece + 1];
+        var t = degree == 0 ? 0 : Math.Clamp((2 * x - a - b) / (b - a), -1.0, 1.0);
+        return Clenshaw(_offsets[piece], degree, t);
+    }
+
+    private double Clenshaw(int offset, int degree, double t)
+    {
+        var c = _coefficients.AsSpan(offset, degree + 1);
+        double b1 = 0, b2 = 0;
+        var twoT = 2 * t;
+        for (var k = degree; k >= 1; k--)
+        {
+            var b0 = c[k] + twoT * b1 - b2;
+            b2 = b1;
+            b1 = b0;
+        }
+        return c[0] + t * b1 - b2;
+    }
+
+    /// <inheritdoc />
+    public override string ToString() => string.Create(CultureInfo.InvariantCulture,
+        $"BandDispersion band {Band.Index}: {PieceCount} piece(s), {TermCount} terms, error estimate {ErrorEstimateElectronVolts:G3} eV (tolerance {ToleranceElectronVolts:G3} eV){(RootSearchFraction > 0 ? string.Create(CultureInfo.InvariantCulture, $", root search on {RootSearchFraction:P3} of cos kd") : "")}");
+
+    private sealed record Piece(double Lower, double Upper, int Degree, double[] Coefficients, double Error);
+
+    private sealed class Builder(BandStructure bands, int bandIndex, double tolerance)
+    {
+        private readonly double _period = bands.PeriodNanometres;
+
+        internal int Evaluations { get; private set; }
+
+        private double Reference(double x)
+        {
+            Evaluations++;
+            return bands.EnergyAt(bandIndex, Math.Acos(Math.Clamp(x, -1.0, 1.0)) / _period);
+        }
+
+        internal void Build(double a, double b, int depth, List<Piece> pieces)
+        {
+            double mid = 0.5 * (a + b), half = 0.5 * (b - a);
+            var degree = 8;
+            var values = new double[degree + 1];
+            for (var j = 0; j <= degree; j++)
+            {
+                values[j] = j == 0 ? Reference(b) : j == degree ? Reference(a) : Reference(mid + half * Math.Cos(Math.PI * j / degree));
+            }
+            while (true)
+            {
+                var coefficients = Coefficients(values);
+                // Check points: cos(π(j + ½)/N), the new nodes of degree 2N.
+                var doubled = new double[2 * degree + 1];
+                var error = 0.0;
+                for (var j = 0; j < degree; j++)
+                {
+                    var t = Math.Cos(Math.PI * (j + 0.5) / degree);
+                    var reference = Reference(mid + half * t);
+                    doubled[2 * j] = values[j];
+                    doubled[2 * j + 1] = reference;
+                    error = Math.Max(error, Math.Abs(Evaluate(coefficients, t) - reference));
+                }
+                doubled[2 * degree] = values[degree];
+                if (error <= tolerance)
+                {
+                    pieces.Add(new Piece(a, b, degree, coefficients, error));
+                    return;
+                }
+                if (degree >= MaxDegree)
+                {
+                    break;
+                }
+                degree *= 2;
+                values = doubled;
+            }
+            if (depth >= MaxSplitDepth)
+            {
+                pieces.Add(new Piece(a, b, -1, [], 0));
+                return;
+            }
+            Build(a, mid, depth + 1, pieces);
+            Build(mid, b, depth + 1, pieces);
+        }
+
+        /// <summary>Chebyshev coefficients of the interpolant through values at t_j = cos(πj/N) (DCT-I).</summary>
+        private static double[] Coefficients(double[] values)
+        {
+            var n = values.Length - 1;
+            var c = new double[n + 1];
+            for (var k = 0; k <= n; k++)
+            {
+                var sum = 0.0;
+                for (var j = 0; j <= n; j++)
+                {
+                    var weight = j == 0 || j == n ? 0.5 : 1.0;
+                    sum += weight * values[j] * Math.Cos(Math.PI * ((long)j * k % (2 * n)) / n);
+                }
+                c[k] = 2.0 / n * sum * (k == 0 || k == n ? 0.5 : 1.0);
+            }
+            return c;
+        }
+
+        private static double Evaluate(double[] c, double t)
+        {
+            double b1 = 0, b2 = 0;
+            for (var k = c.Length - 1; k >= 1; k--)
+            {
+                var b0 = c[k] + 2 * t * b1 - b2;
+                b2 = b1;
+                b1 = b0;
+            }
+            return c[0] + t * b1 - b2;
+        }
+    }
+}
