@@ -37,6 +37,7 @@ public sealed class CellTransfer
     private readonly double[] _massSlopes;
     private readonly double[] _deltaJumps;
     private readonly ISegmentPropagator?[] _segments;
+    private readonly TraceKernel? _traceKernel;
 
     private CellTransfer(UnitCell cell)
     {
@@ -78,6 +79,7 @@ public sealed class CellTransfer
         }
         LowestValidEnergyElectronVolts = domain;
         PeriodNanometres = cell.Period.Nanometres;
+        _traceKernel = TraceKernel.TryCreate(cell);
     }
 
     private enum ElementKind : byte
@@ -133,8 +135,13 @@ public sealed class CellTransfer
 
     /// <summary>
     /// Effectively computes <c>destination[i] = D(energiesElectronVolts[i])</c> = Tr M; a value beyond the
-    /// double range is returned as ±∞ (never NaN). Does not allocate.
+    /// double range is returned as ±∞ (never NaN). Does not allocate. Every energy is checked before
+    /// anything is written.
     /// </summary>
+    /// <remarks>For cells of layers and deltas the traces are computed without the derivative and
+    /// vectorised across energies; they agree with <see cref="Dispersion"/> to within
+    /// 1e-13 × (number of elements) of the largest entry of M (vectorised sin, cos and exp differ from the
+    /// scalar ones by a few ulps).</remarks>
     /// <exception cref="ArgumentException"><paramref name="destination"/> is shorter than the input.</exception>
     /// <exception cref="ArgumentOutOfRangeException">An energy is not finite or not above <see cref="LowestValidEnergyElectronVolts"/>.</exception>
     public void Traces(ReadOnlySpan<double> energiesElectronVolts, Span<double> destination)
@@ -142,9 +149,17 @@ public sealed class CellTransfer
         Preconditions.CheckDestination(energiesElectronVolts.Length, destination.Length, nameof(energiesElectronVolts), nameof(destination));
         for (var i = 0; i < energiesElectronVolts.Length; i++)
         {
-            var e = energiesElectronVolts[i];
-            CheckEnergy(e, i);
-            var p = Accumulate(e);
+            CheckEnergy(energiesElectronVolts[i], i); // all checked before any output is written
+        }
+        if (_traceKernel is not null)
+        {
+            // Trace-only products, vectorised across energies (see TraceKernel).
+            _traceKernel.Traces(energiesElectronVolts, destination);
+            return;
+        }
+        for (var i = 0; i < energiesElectronVolts.Length; i++)
+        {
+            var p = Accumulate(energiesElectronVolts[i]);
             destination[i] = (p.P11 + p.P22) * Math.Exp(p.LogScale);
         }
     }
