@@ -134,6 +134,24 @@ public sealed class CellTransfer
     }
 
     /// <summary>
+    /// D(E) = Tr M alone (no derivative) at one energy, from the trace-only product for cells of layers and
+    /// deltas; ±∞ beyond the double range, never NaN. Agrees with <see cref="Dispersion"/>'s
+    /// <see cref="DispersionValue.Trace"/> to rounding (a few ulps of the largest entry of M per element).
+    /// </summary>
+    /// <exception cref="ArgumentOutOfRangeException">The energy is not finite, or not above <see cref="LowestValidEnergyElectronVolts"/>.</exception>
+    public double Trace(double energyElectronVolts)
+    {
+        CheckEnergy(energyElectronVolts);
+        if (_traceKernel is not null)
+        {
+            return _traceKernel.Trace(energyElectronVolts);
+        }
+        var p = Accumulate(energyElectronVolts);
+        var mantissa = p.P11 + p.P22;
+        return mantissa == 0 ? 0 : mantissa * Math.Exp(p.LogScale);
+    }
+
+    /// <summary>
     /// Effectively computes <c>destination[i] = D(energiesElectronVolts[i])</c> = Tr M; a value beyond the
     /// double range is returned as ±∞ (never NaN). Does not allocate. Every energy is checked before
     /// anything is written.
