@@ -1,6 +1,7 @@
 // SPDX-License-Identifier: MIT
 // Copyright (c) 2026 Periodic contributors
 
+using System.Collections.Concurrent;
 using System.Globalization;
 using Periodic.Structures;
 
@@ -15,7 +16,7 @@ public static class BandSweep
 {
     /// <summary>
     /// Effectively computes <c>result[i] = BandStructure.Compute(cells[i], bandCount, options)</c>.
-    /// Cells are distributed over threads with <see cref="Parallel.For(int, int, ParallelOptions, Action{int})"/>;
+    /// Cells are distributed over threads in contiguous ranges with <see cref="Parallel.ForEach{TSource}(System.Collections.Concurrent.Partitioner{TSource}, ParallelOptions, Action{TSource})"/>;
     /// results are written by index, so their order and values do not depend on the thread count.
     /// </summary>
     /// <param name="cells">The cells; none may be null.</param>
@@ -54,7 +55,16 @@ public static class BandSweep
         }
         else
         {
-            Parallel.For(0, results.Length, new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism }, Solve);
+            // Contiguous ranges (about eight per thread) keep the per-cell scheduling cost negligible.
+            var threads = maxDegreeOfParallelism == -1 ? Environment.ProcessorCount : maxDegreeOfParallelism;
+            var rangeSize = Math.Max(1, results.Length / (8 * threads));
+            Parallel.ForEach(Partitioner.Create(0, results.Length, rangeSize), new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism }, range =>
+            {
+                for (var i = range.Item1; i < range.Item2; i++)
+                {
+                    Solve(i);
+                }
+            });
         }
         for (var i = 0; i < failures.Length; i++)
         {
