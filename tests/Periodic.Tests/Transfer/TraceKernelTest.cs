@@ -84,6 +84,10 @@ public sealed class TraceKernelTest
                 var difference = Math.Abs(batch[i] - scalar.Trace);
                 Assert.True(difference == 0 || Math.Log(difference) <= logTolerance,
                     $"{name}, E = {energies[i]}: batch {batch[i]:R}, scalar {scalar.Trace:R}");
+                // The public scalar trace-only path, same tolerance.
+                var traceOnly = Math.Abs(transfer.Trace(energies[i]) - scalar.Trace);
+                Assert.True(traceOnly == 0 || Math.Log(traceOnly) <= logTolerance,
+                    $"{name}, E = {energies[i]}: Trace {transfer.Trace(energies[i]):R}, scalar {scalar.Trace:R}");
             }
         }
     }
