@@ -46,7 +46,7 @@ public static class BandSweep
         var resolved = options ?? BandSearchOptions.Default;
         var results = new BandStructure[cells.Count];
         var failures = new Exception?[cells.Count];
-        if (maxDegreeOfParallelism == 1)
+        if (maxDegreeOfParallelism == 1 || results.Length < 2)
         {
             for (var i = 0; i < results.Length; i++)
             {
