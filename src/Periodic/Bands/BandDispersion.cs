@@ -21,7 +21,8 @@ namespace Periodic.Bands;
 /// with the root search at the N points midway in angle between the nodes to within the tolerance — that
 /// largest observed deviation is <see cref="ErrorEstimateElectronVolts"/>; if degree 64 does not
 /// suffice (a nearly closed gap puts a square-root singularity just outside [−1, 1]) the piece is halved,
-/// and pieces that stay unresolved after <see cref="MaxSplitDepth"/> halvings (an exactly closed gap)
+/// and pieces that stay unresolved after <see cref="MaxSplitDepth"/> halvings (an exactly closed gap), or
+/// once <see cref="MaxPieces"/> pieces exist,
 /// keep the root search itself (<see cref="RootSearchFraction"/>).</para>
 /// <para>The error estimate is a sampled one (common practice in adaptive Chebyshev approximation, no
 /// single source): it is the deviation seen at 2N − 1 points per piece, not a proven bound.</para>
@@ -36,6 +37,9 @@ public sealed class BandDispersion
 
     /// <summary>Largest number of halvings of [−1, 1] before a piece keeps the root search.</summary>
     public const int MaxSplitDepth = 24;
+
+    /// <summary>Largest number of pieces; once reached, unresolved pieces keep the root search.</summary>
+    public const int MaxPieces = 256;
 
     private const double Epsilon = 2.220446049250313e-16;
 
@@ -87,7 +91,11 @@ public sealed class BandDispersion
     /// <summary>The band.</summary>
     public Band Band { get; }
 
-    /// <summary>The tolerance the series were built to, eV: max(requested, 64 ε·max(|E_bottom|, |E_top|)).</summary>
+    /// <summary>
+    /// The tolerance the series were built to, eV: the requested one, raised if need be to 64 ε·|E|max
+    /// (rounding) and to 4 × the root search's own tolerance (<see cref="BandStructure.Options"/>), |E|max
+    /// being the larger magnitude of the band's edges.
+    /// </summary>
     public double ToleranceElectronVolts { get; }
 
     /// <summary>Largest deviation from the root search observed at the check points of every piece, eV (0 where the root search is kept).</summary>
@@ -116,8 +124,12 @@ public sealed class BandDispersion
         ArgumentNullException.ThrowIfNull(bands);
         var band = bands.GetBand(bandIndex);
         Preconditions.CheckRange(absoluteToleranceElectronVolts, 1e-15, 1e-3);
-        var tolerance = Math.Max(absoluteToleranceElectronVolts,
-            64 * Epsilon * Math.Max(Math.Abs(band.BottomElectronVolts), Math.Abs(band.TopElectronVolts)));
+        // Never ask the series to be better than the root search that supplies its nodes (its options'
+        // tolerances), nor than rounding: otherwise noise in the nodes would force endless splitting.
+        var magnitude = Math.Max(Math.Abs(band.BottomElectronVolts), Math.Abs(band.TopElectronVolts));
+        var options = bands.Options;
+        var tolerance = Math.Max(absoluteToleranceElectronVolts, Math.Max(64 * Epsilon * magnitude,
+            4 * (options.RelativeTolerance * magnitude + options.AbsoluteToleranceElectronVolts)));
         var pieces = new List<Piece>();
         var builder = new Builder(bands, bandIndex, tolerance);
         if (band.WidthElectronVolts == 0)
@@ -290,7 +302,7 @@ public sealed class BandDispersion
                 degree *= 2;
                 values = doubled;
             }
-            if (depth >= MaxSplitDepth)
+            if (depth >= MaxSplitDepth || pieces.Count + depth >= MaxPieces)
             {
                 pieces.Add(new Piece(a, b, -1, [], 0));
                 return;

@@ -109,6 +109,33 @@ public sealed class BandDispersionTest
     }
 
     [Fact]
+    public void Create_LooseSearchOptions_ToleranceFollowsTheRootSearch()
+    {
+        // Nodes from a root search stopped at 1e-8 relative cannot support a 1e-13 eV series; the tolerance
+        // is raised to 4 × that search tolerance instead of splitting without end.
+        var options = BandSearchOptions.Create(relativeTolerance: 1e-8);
+        var bands = BandStructure.Compute(KronigPenney(), 3, options);
+        var k = Zone(bands.PeriodNanometres, 501);
+        var fast = new double[k.Length];
+        var reference = new double[k.Length];
+        for (var n = 1; n <= 3; n++)
+        {
+            var dispersion = BandDispersion.Create(bands, n);
+            var magnitude = Math.Max(Math.Abs(dispersion.Band.BottomElectronVolts), Math.Abs(dispersion.Band.TopElectronVolts));
+            Assert.True(dispersion.ToleranceElectronVolts >= 4e-8 * magnitude);
+            Assert.True(dispersion.PieceCount <= BandDispersion.MaxPieces);
+            dispersion.EnergiesAt(k, fast);
+            bands.EnergiesAt(n, k, reference);
+            // Both sides carry the search error (≤ the tolerance); interpolating nodes with such errors adds at
+            // most the Lebesgue constant of degree ≤ 64 Chebyshev points (< 4; Trefethen, ATAP ch. 15) times it.
+            for (var i = 0; i < k.Length; i++)
+            {
+                Assert.True(Math.Abs(fast[i] - reference[i]) <= 6 * dispersion.ToleranceElectronVolts, $"band {n}, k = {k[i]:R}");
+            }
+        }
+    }
+
+    [Fact]
     public void EnergiesAt_InPlace_EqualsSeparateDestination()
     {
         var bands = BandStructure.Compute(KronigPenney(), 2);
