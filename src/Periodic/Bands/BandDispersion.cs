@@ -171,12 +171,12 @@ public sealed class BandDispersion
         var largest = TensorPrimitives.MaxMagnitude(wavevectorsPerNanometre);
         if (!(Math.Abs(largest) * _period <= MaxPhase))
         {
-            for (var i = 0; i < wavevectorsPerNanometre.Length; i++)
+            for (var j = 0; j < wavevectorsPerNanometre.Length; j++)
             {
-                var k = wavevectorsPerNanometre[i];
+                var k = wavevectorsPerNanometre[j];
                 if (!(Math.Abs(k) * _period <= MaxPhase))
                 {
-                    throw ZoneError(string.Create(CultureInfo.InvariantCulture, $"wavevectorsPerNanometre[{i}]"), k);
+                    throw ZoneError(string.Create(CultureInfo.InvariantCulture, $"wavevectorsPerNanometre[{j}]"), k);
                 }
             }
         }
@@ -184,16 +184,27 @@ public sealed class BandDispersion
         // x = cos(|k| d), vectorised; cos is even, so |k| is not needed.
         TensorPrimitives.Multiply(wavevectorsPerNanometre, _period, output);
         TensorPrimitives.Cos(output, output);
-        if (_degrees.Length == 1 && _degrees[0] >= 0)
+        // Two points per step: their Clenshaw recurrences are independent chains, which the processor
+        // overlaps (one chain alone is latency bound).
+        var i = 0;
+        for (; i + 1 < output.Length; i += 2)
         {
-            var degree = _degrees[0];
-            for (var i = 0; i < output.Length; i++)
+            double x0 = Math.Clamp(output[i], -1.0, 1.0), x1 = Math.Clamp(output[i + 1], -1.0, 1.0);
+            int p0 = PieceOf(x0), p1 = PieceOf(x1);
+            if (p0 == p1 && _degrees[p0] > 0)
             {
-                output[i] = Clenshaw(0, degree, Math.Clamp(output[i], -1.0, 1.0));
+                double a = _breaks[p0], b = _breaks[p0 + 1];
+                var (e0, e1) = ClenshawPair(_offsets[p0], _degrees[p0], Math.Clamp((2 * x0 - a - b) / (b - a), -1.0, 1.0), Math.Clamp((2 * x1 - a - b) / (b - a), -1.0, 1.0));
+                output[i] = e0;
+                output[i + 1] = e1;
             }
-            return;
+            else
+            {
+                output[i] = EnergyInPiece(p0, x0);
+                output[i + 1] = EnergyInPiece(p1, x1);
+            }
         }
-        for (var i = 0; i < output.Length; i++)
+        if (i < output.Length)
         {
             output[i] = EnergyAtCosine(Math.Clamp(output[i], -1.0, 1.0));
         }
@@ -204,26 +215,28 @@ public sealed class BandDispersion
     private ArgumentOutOfRangeException ZoneError(string name, double k) =>
         new(name, k, $"{name} must be a finite wavevector in the first Brillouin zone [-pi/d, pi/d] = [-{Preconditions.Format(Math.PI / _period)}, {Preconditions.Format(Math.PI / _period)}] 1/nm; got {Preconditions.Format(k)}.");
 
-    private double EnergyAtCosine(double x)
+    private double EnergyAtCosine(double x) => EnergyInPiece(PieceOf(x), x);
+
+    private int PieceOf(double x)
     {
-        var piece = 0;
-        if (_degrees.Length > 1)
+        int low = 0, high = _degrees.Length - 1;
+        while (low < high)
         {
-            int low = 0, high = _degrees.Length - 1;
-            while (low < high)
+            var mid = (low + high + 1) >> 1;
+            if (x >= _breaks[mid])
             {
-                var mid = (low + high + 1) >> 1;
-                if (x >= _breaks[mid])
-                {
-                    low = mid;
-                }
-                else
-                {
-                    high = mid - 1;
-                }
+                low = mid;
             }
-            piece = low;
+            else
+            {
+                high = mid - 1;
+            }
         }
+        return low;
+    }
+
+    private double EnergyInPiece(int piece, double x)
+    {
         var degree = _degrees[piece];
         if (degree < 0)
         {
@@ -246,6 +259,25 @@ public sealed class BandDispersion
             b1 = b0;
         }
         return c[0] + t * b1 - b2;
+    }
+
+    /// <summary>Clenshaw's recurrence for two arguments at once (same arithmetic per argument as <see cref="Clenshaw"/>).</summary>
+    private (double, double) ClenshawPair(int offset, int degree, double t, double u)
+    {
+        var c = _coefficients.AsSpan(offset, degree + 1);
+        double b1 = 0, b2 = 0, d1 = 0, d2 = 0;
+        double twoT = 2 * t, twoU = 2 * u;
+        for (var k = degree; k >= 1; k--)
+        {
+            var ck = c[k];
+            var b0 = ck + twoT * b1 - b2;
+            var d0 = ck + twoU * d1 - d2;
+            b2 = b1;
+            b1 = b0;
+            d2 = d1;
+            d1 = d0;
+        }
+        return (c[0] + t * b1 - b2, c[0] + u * d1 - d2);
     }
 
     /// <inheritdoc />
