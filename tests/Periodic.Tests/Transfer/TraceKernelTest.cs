@@ -92,6 +92,23 @@ public sealed class TraceKernelTest
         }
     }
 
+    [FsCheck.Xunit.Property(Replay = "(4242424242,1313131313)", MaxTest = 60)]
+    public void Traces_RandomEnergies_BatchEqualsScalar(double[] raw)
+    {
+        // Property (fixed seed): any set of energies in (0, 1.5] eV, batch and scalar agree to the stated tolerance.
+        var energies = raw.Select(x => double.IsFinite(x) ? 0.0005 + 1.5 * (Math.Abs(x) % 1.0) : 0.25).ToArray();
+        var transfer = CellTransfer.Create(KronigPenney());
+        var batch = new double[energies.Length];
+        transfer.Traces(energies, batch);
+        for (var i = 0; i < energies.Length; i++)
+        {
+            var matrix = transfer.Evaluate(energies[i]);
+            var scale = Math.Max(2, matrix.Mantissa.MaxAbsEntry * Math.Exp(matrix.LogScale));
+            // Stated tolerance: 1e-13 × elements (2) × the largest entry.
+            Assert.True(Math.Abs(batch[i] - transfer.Dispersion(energies[i]).Trace) <= 2e-13 * scale);
+        }
+    }
+
     [Fact]
     public void Traces_KronigPenney_MatchesClosedForm()
     {
