@@ -184,27 +184,31 @@ public sealed class BandDispersion
         // x = cos(|k| d), vectorised; cos is even, so |k| is not needed.
         TensorPrimitives.Multiply(wavevectorsPerNanometre, _period, output);
         TensorPrimitives.Cos(output, output);
-        // Two points per step: their Clenshaw recurrences are independent chains, which the processor
-        // overlaps (one chain alone is latency bound).
+        // Four points per step when they share a piece: their Clenshaw recurrences are independent
+        // chains, which the processor overlaps (one chain alone is latency bound).
         var i = 0;
-        for (; i + 1 < output.Length; i += 2)
+        for (; i + 3 < output.Length; i += 4)
         {
             double x0 = Math.Clamp(output[i], -1.0, 1.0), x1 = Math.Clamp(output[i + 1], -1.0, 1.0);
-            int p0 = PieceOf(x0), p1 = PieceOf(x1);
-            if (p0 == p1 && _degrees[p0] > 0)
+            double x2 = Math.Clamp(output[i + 2], -1.0, 1.0), x3 = Math.Clamp(output[i + 3], -1.0, 1.0);
+            var p0 = PieceOf(x0);
+            if (_degrees[p0] > 0 && PieceOf(x1) == p0 && PieceOf(x2) == p0 && PieceOf(x3) == p0)
             {
-                double a = _breaks[p0], b = _breaks[p0 + 1];
-                var (e0, e1) = ClenshawPair(_offsets[p0], _degrees[p0], Math.Clamp((2 * x0 - a - b) / (b - a), -1.0, 1.0), Math.Clamp((2 * x1 - a - b) / (b - a), -1.0, 1.0));
-                output[i] = e0;
-                output[i + 1] = e1;
+                double a = _breaks[p0], scale = 2 / (_breaks[p0 + 1] - a), shift = scale * a + 1;
+                ClenshawQuad(_offsets[p0], _degrees[p0],
+                    Math.Clamp(scale * x0 - shift, -1.0, 1.0), Math.Clamp(scale * x1 - shift, -1.0, 1.0),
+                    Math.Clamp(scale * x2 - shift, -1.0, 1.0), Math.Clamp(scale * x3 - shift, -1.0, 1.0),
+                    output.Slice(i, 4));
             }
             else
             {
-                output[i] = EnergyInPiece(p0, x0);
-                output[i + 1] = EnergyInPiece(p1, x1);
+                output[i] = EnergyAtCosine(x0);
+                output[i + 1] = EnergyAtCosine(x1);
+                output[i + 2] = EnergyAtCosine(x2);
+                output[i + 3] = EnergyAtCosine(x3);
             }
         }
-        if (i < output.Length)
+        for (; i < output.Length; i++)
         {
             output[i] = EnergyAtCosine(Math.Clamp(output[i], -1.0, 1.0));
         }
@@ -261,23 +265,28 @@ public sealed class BandDispersion
         return c[0] + t * b1 - b2;
     }
 
-    /// <summary>Clenshaw's recurrence for two arguments at once (same arithmetic per argument as <see cref="Clenshaw"/>).</summary>
-    private (double, double) ClenshawPair(int offset, int degree, double t, double u)
+    /// <summary>Clenshaw's recurrence for four arguments at once (per argument the arithmetic of <see cref="Clenshaw"/>).</summary>
+    private void ClenshawQuad(int offset, int degree, double t0, double t1, double t2, double t3, Span<double> destination)
     {
         var c = _coefficients.AsSpan(offset, degree + 1);
-        double b1 = 0, b2 = 0, d1 = 0, d2 = 0;
-        double twoT = 2 * t, twoU = 2 * u;
+        double a1 = 0, a2 = 0, b1 = 0, b2 = 0, c1 = 0, c2 = 0, d1 = 0, d2 = 0;
+        double u0 = 2 * t0, u1 = 2 * t1, u2 = 2 * t2, u3 = 2 * t3;
         for (var k = degree; k >= 1; k--)
         {
             var ck = c[k];
-            var b0 = ck + twoT * b1 - b2;
-            var d0 = ck + twoU * d1 - d2;
-            b2 = b1;
-            b1 = b0;
-            d2 = d1;
-            d1 = d0;
+            var a0 = ck + u0 * a1 - a2;
+            var b0 = ck + u1 * b1 - b2;
+            var c0 = ck + u2 * c1 - c2;
+            var d0 = ck + u3 * d1 - d2;
+            a2 = a1; a1 = a0;
+            b2 = b1; b1 = b0;
+            c2 = c1; c1 = c0;
+            d2 = d1; d1 = d0;
         }
-        return (c[0] + t * b1 - b2, c[0] + u * d1 - d2);
+        destination[0] = c[0] + t0 * a1 - a2;
+        destination[1] = c[0] + t1 * b1 - b2;
+        destination[2] = c[0] + t2 * c1 - c2;
+        destination[3] = c[0] + t3 * d1 - d2;
     }
 
     /// <inheritdoc />
