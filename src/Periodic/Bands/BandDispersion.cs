@@ -25,7 +25,8 @@ namespace Periodic.Bands;
 /// once <see cref="MaxPieces"/> pieces exist,
 /// keep the root search itself (<see cref="RootSearchFraction"/>).</para>
 /// <para>The error estimate is a sampled one (common practice in adaptive Chebyshev approximation, no
-/// single source): it is the deviation seen at 2N − 1 points per piece, not a proven bound.</para>
+/// single source): it is the deviation seen at the N midpoints between the N + 1 nodes of each piece, not
+/// a proven bound.</para>
 /// </remarks>
 public sealed class BandDispersion
 {
@@ -316,6 +317,7 @@ public sealed class BandDispersion
             {
                 values[j] = j == 0 ? Reference(b) : j == degree ? Reference(a) : Reference(mid + half * Math.Cos(Math.PI * j / degree));
             }
+            var previous = double.PositiveInfinity;
             while (true)
             {
                 var coefficients = Coefficients(values);
@@ -336,10 +338,13 @@ public sealed class BandDispersion
                     pieces.Add(new Piece(a, b, degree, coefficients, error));
                     return;
                 }
-                if (degree >= MaxDegree)
+                // Geometric convergence predicts the next error as error²/previous; when even that misses
+                // the tolerance by far, halving the piece is cheaper than doubling the degree.
+                if (degree >= MaxDegree || (previous < double.PositiveInfinity && error * error / previous > 100 * tolerance))
                 {
                     break;
                 }
+                previous = error;
                 degree *= 2;
                 values = doubled;
             }
