@@ -77,7 +77,7 @@ internal static class Calibration
         var transfer = bands.Transfer;
         var energies = Scenarios.Grid(0.001, 1.0, 1_000_000);
         var batch = new double[energies.Length];
-        transfer.Traces(energies, batch);
+        transfer.TracesVectorized(energies, batch);
         double worstTrace = 0, worstInline = 0;
         for (var i = 0; i < energies.Length; i++)
         {

@@ -151,7 +151,7 @@ public sealed class BandDispersion
         var phase = Math.Abs(wavevectorPerNanometre) * _period;
         if (!(phase <= MaxPhase))
         {
-            throw ZoneError("wavevectorPerNanometre", wavevectorPerNanometre);
+            throw ZoneError(nameof(wavevectorPerNanometre), nameof(wavevectorPerNanometre), wavevectorPerNanometre);
         }
         return EnergyAtCosine(Math.Cos(phase));
     }
@@ -177,7 +177,7 @@ public sealed class BandDispersion
                 var k = wavevectorsPerNanometre[j];
                 if (!(Math.Abs(k) * _period <= MaxPhase))
                 {
-                    throw ZoneError(string.Create(CultureInfo.InvariantCulture, $"wavevectorsPerNanometre[{j}]"), k);
+                    throw ZoneError(nameof(wavevectorsPerNanometre), string.Create(CultureInfo.InvariantCulture, $"wavevectorsPerNanometre[{j}]"), k);
                 }
             }
         }
@@ -217,8 +217,9 @@ public sealed class BandDispersion
 
     private double MaxPhase => Math.PI * (1 + 8 * Epsilon);
 
-    private ArgumentOutOfRangeException ZoneError(string name, double k) =>
-        new(name, k, $"{name} must be a finite wavevector in the first Brillouin zone [-pi/d, pi/d] = [-{Preconditions.Format(Math.PI / _period)}, {Preconditions.Format(Math.PI / _period)}] 1/nm; got {Preconditions.Format(k)}.");
+    // ParamName is the real parameter; the message names the element of a span.
+    private ArgumentOutOfRangeException ZoneError(string paramName, string name, double k) =>
+        new(paramName, k, $"{name} must be a finite wavevector in the first Brillouin zone [-pi/d, pi/d] = [-{Preconditions.Format(Math.PI / _period)}, {Preconditions.Format(Math.PI / _period)}] 1/nm; got {Preconditions.Format(k)}.");
 
     private double EnergyAtCosine(double x) => EnergyInPiece(PieceOf(x), x);
 

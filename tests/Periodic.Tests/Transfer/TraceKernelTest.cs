@@ -7,7 +7,7 @@ using Periodic.Units;
 
 namespace Periodic.Tests.Transfer;
 
-/// <summary>The vectorised trace-only batch path behind <see cref="CellTransfer.Traces"/>.</summary>
+/// <summary>The trace-only paths <see cref="CellTransfer.TracesVectorized"/> and <see cref="CellTransfer.Trace"/>.</summary>
 public sealed class TraceKernelTest
 {
     private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
@@ -64,13 +64,13 @@ public sealed class TraceKernelTest
             }
             var batch = new double[length + 2];
             batch[length] = 123; // beyond the input: must stay untouched
-            transfer.Traces(energies, batch);
+            transfer.TracesVectorized(energies, batch);
             Assert.Equal(123, batch[length]);
             for (var i = 0; i < length; i++)
             {
                 var scalar = transfer.Dispersion(energies[i]);
                 var matrix = transfer.Evaluate(energies[i]);
-                // Stated tolerance (CellTransfer.Traces docs): 1e-13 × elements × the largest entry of M,
+                // Stated tolerance (CellTransfer.TracesVectorized docs): 1e-13 × elements × the largest entry of M,
                 // compared in log form so that entries beyond the double range still compare.
                 var logScale = Math.Log(Math.Max(2, matrix.Mantissa.MaxAbsEntry)) + matrix.LogScale;
                 var logTolerance = Math.Log(1e-13 * cell.Elements.Count) + logScale;
@@ -99,7 +99,7 @@ public sealed class TraceKernelTest
         var energies = raw.Select(x => double.IsFinite(x) ? 0.0005 + 1.5 * (Math.Abs(x) % 1.0) : 0.25).ToArray();
         var transfer = CellTransfer.Create(KronigPenney());
         var batch = new double[energies.Length];
-        transfer.Traces(energies, batch);
+        transfer.TracesVectorized(energies, batch);
         for (var i = 0; i < energies.Length; i++)
         {
             var matrix = transfer.Evaluate(energies[i]);
@@ -122,7 +122,7 @@ public sealed class TraceKernelTest
             energies[i] = 0.0005 + 0.9 * i / (energies.Length - 1.0);
         }
         var batch = new double[energies.Length];
-        transfer.Traces(energies, batch);
+        transfer.TracesVectorized(energies, batch);
         for (var i = 0; i < energies.Length; i++)
         {
             var e = energies[i];
@@ -151,8 +151,9 @@ public sealed class TraceKernelTest
     {
         var transfer = CellTransfer.Create(KronigPenney());
         var destination = new double[3];
-        var exception = Assert.Throws<ArgumentOutOfRangeException>(() => transfer.Traces([0.1, 0.2, double.NaN], destination));
-        Assert.Equal("energiesElectronVolts[2]", exception.ParamName);
+        var exception = Assert.Throws<ArgumentOutOfRangeException>(() => transfer.TracesVectorized([0.1, 0.2, double.NaN], destination));
+        Assert.Equal("energiesElectronVolts", exception.ParamName);
+        Assert.Contains("energiesElectronVolts[2]", exception.Message);
         Assert.All(destination, value => Assert.Equal(0, value)); // no partial output
     }
 
@@ -160,7 +161,7 @@ public sealed class TraceKernelTest
     public void Traces_ShortDestination_NamesDestination()
     {
         var transfer = CellTransfer.Create(KronigPenney());
-        var exception = Assert.Throws<ArgumentException>(() => transfer.Traces([0.1, 0.2], new double[1]));
+        var exception = Assert.Throws<ArgumentException>(() => transfer.TracesVectorized([0.1, 0.2], new double[1]));
         Assert.Equal("destination", exception.ParamName);
     }
 }
