@@ -1,0 +1,242 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.CommandLine;
+using System.Globalization;
+using Periodic.Bands;
+using Periodic.Cli.Output;
+using Periodic.Cli.Physics;
+using Periodic.Serialization;
+using Periodic.Structures;
+using ScottPlot;
+
+namespace Periodic.Cli.Commands;
+
+/// <summary>
+/// <c>plot FILE --out PATH</c>: pictures of a structure. Energy is always the vertical axis so the
+/// pictures line up: E(k) over the whole first zone with the gaps shaded; the DOS with the gaps
+/// shaded; the potential profile over a few periods with the minibands drawn across it; T(E).
+/// </summary>
+internal static class PlotCommand
+{
+    private static readonly string[] Kinds = ["dispersion", "dos", "profile", "transmission"];
+    private static readonly Color GapColor = Color.FromHex("#F2C7C7").WithAlpha(0.55);
+    private static readonly Color BandColor = Color.FromHex("#9FC5E8").WithAlpha(0.55);
+    private static readonly Color LineColor = Color.FromHex("#1F4E79");
+    private static readonly Color ProfileColor = Color.FromHex("#404040");
+
+    public static Command Create()
+    {
+        var file = Common.FileArgument();
+        var output = new Option<string>("--out", "-o") { Description = "Image file to write: .png or .svg.", Required = true };
+        var show = new Option<string>("--show", "-s")
+        {
+            Description = "What to draw: dispersion (E(k), gaps shaded), dos, profile (V(x) with the minibands) or transmission (T(E), log scale).",
+            DefaultValueFactory = _ => "dispersion",
+        };
+        show.AcceptOnlyFromAmong(Kinds);
+        var count = Common.CountOption(3);
+        var periods = new Option<int>("--periods", "-N") { Description = "Periods drawn in the profile (default 3) or stacked for transmission (default 10).", DefaultValueFactory = _ => 0 };
+        var grid = new EnergyGridOptions();
+        var width = new Option<int>("--width") { Description = "Image width, pixels.", DefaultValueFactory = _ => 900 };
+        var height = new Option<int>("--height") { Description = "Image height, pixels.", DefaultValueFactory = _ => 600 };
+        var command = new Command("plot", "Draw E(k), the DOS, the potential profile with its minibands, or T(E) to a PNG or SVG file.");
+        command.Arguments.Add(file);
+        command.Options.Add(output);
+        command.Options.Add(show);
+        command.Options.Add(count);
+        command.Options.Add(periods);
+        grid.AddTo(command);
+        command.Options.Add(width);
+        command.Options.Add(height);
+        command.SetAction(result =>
+        {
+            var path = result.GetValue(output)!;
+            var extension = Path.GetExtension(path).ToLowerInvariant();
+            if (extension is not (".png" or ".svg"))
+            {
+                throw new UsageException($"--out must end in .png or .svg; got \"{path}\".");
+            }
+            var w = Common.CheckCount(result.GetValue(width), "--width", 8000);
+            var h = Common.CheckCount(result.GetValue(height), "--height", 8000);
+            if (w < 200 || h < 150)
+            {
+                throw new UsageException("--width must be at least 200 and --height at least 150 pixels.");
+            }
+            var n = Common.CheckCount(result.GetValue(count), "--count", 50);
+            var kind = result.GetValue(show)!;
+            var hasGrid = result.GetValue(grid.From) is not null || result.GetValue(grid.Energies) is not null || result.GetValue(grid.Points) is not null || result.GetValue(grid.To) is not null;
+            var energies = hasGrid ? grid.Read(result) : null;
+            var p = result.GetValue(periods);
+            if (p < 0 || p > 100_000)
+            {
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--periods must be between 1 and 100000; got {p}."));
+            }
+            var structure = Common.Load(result.GetValue(file)!);
+            var plot = kind switch
+            {
+                "dispersion" => Dispersion(structure, n),
+                "dos" => Dos(structure, n, energies),
+                "profile" => Profile(structure, n, p == 0 ? 3 : p),
+                _ => throw new NotSupportedException("transmission plots need the finite-stack layer of the library, which this build does not include yet."),
+            };
+            Save(plot, path, extension, w, h);
+            Console.Error.WriteLine($"wrote {path}");
+            return 0;
+        });
+        return command;
+    }
+
+    private static void Save(Plot plot, string path, string extension, int width, int height)
+    {
+        if (extension == ".svg")
+        {
+            OutputFile.WriteText(path, plot.GetSvgXml(width, height));
+        }
+        else
+        {
+            var bytes = plot.GetImage(width, height).GetImageBytes(ImageFormat.Png);
+            OutputFile.WriteAtomically(path, stream => stream.Write(bytes));
+        }
+    }
+
+    private static Plot NewPlot(string title, string xLabel, string yLabel)
+    {
+        var plot = new Plot();
+        plot.Title(title, size: 16);
+        plot.XLabel(xLabel, size: 14);
+        plot.YLabel(yLabel, size: 14);
+        return plot;
+    }
+
+    /// <summary>The energy window shown: from the lowest potential to just above the highest band drawn.</summary>
+    private static (double Low, double High) EnergyWindow(BandStructure bands)
+    {
+        var low = Math.Min(bands.Cell.MinimumPotential.ElectronVolts, bands.Bands[0].BottomElectronVolts);
+        var high = bands.Bands[^1].TopElectronVolts;
+        var margin = 0.08 * (high - low);
+        return (low - margin, high + margin);
+    }
+
+    private static void ShadeGaps(Plot plot, BandStructure bands, double left, double right, double low, double high)
+    {
+        var lower = low;
+        for (var i = 0; i < bands.Bands.Count; i++)
+        {
+            var bottom = bands.Bands[i].BottomElectronVolts;
+            Shade(plot, left, right, lower, bottom, GapColor);
+            lower = bands.Bands[i].TopElectronVolts;
+        }
+        Shade(plot, left, right, lower, Math.Min(high, bands.Gaps[^1].UpperElectronVolts), GapColor);
+    }
+
+    private static void Shade(Plot plot, double left, double right, double bottom, double top, Color color)
+    {
+        if (!(top > bottom))
+        {
+            return;
+        }
+        var rectangle = plot.Add.Rectangle(left, right, bottom, top);
+        rectangle.FillStyle.Color = color;
+        rectangle.LineStyle.Width = 0;
+    }
+
+    private static Plot Dispersion(StructureDefinition structure, int count)
+    {
+        var bands = BandStructure.Compute(structure.Cell, count);
+        var (k, e) = DispersionCommand.Compute(bands, 201);
+        var zone = Math.PI / bands.PeriodNanometres;
+        var (low, high) = EnergyWindow(bands);
+        var plot = NewPlot($"E(k): {structure.Name}", "Bloch wavevector k (1/nm)", "Energy E (eV)");
+        ShadeGaps(plot, bands, -zone, zone, low, high);
+        // Mirror the grid onto [−π/d, 0]: E(−k) = E(k).
+        var mirrored = k.Reverse().Select(x => -x).Concat(k.Skip(1)).ToArray();
+        for (var n = 0; n < e.Length; n++)
+        {
+            var values = e[n].Reverse().Concat(e[n].Skip(1)).ToArray();
+            var line = plot.Add.ScatterLine(mirrored, values);
+            line.LineWidth = 2.5f;
+            line.Color = LineColor;
+        }
+        var edge1 = plot.Add.VerticalLine(-zone);
+        var edge2 = plot.Add.VerticalLine(zone);
+        edge1.Color = edge2.Color = Colors.Gray;
+        edge1.LinePattern = edge2.LinePattern = LinePattern.Dashed;
+        plot.Add.Text("gaps shaded", -0.97 * zone, high - 0.02 * (high - low)).LabelFontSize = 12;
+        plot.Axes.SetLimits(-zone * 1.02, zone * 1.02, low, high);
+        return plot;
+    }
+
+    private static Plot Dos(StructureDefinition structure, int count, double[]? energies)
+    {
+        var bands = BandStructure.Compute(structure.Cell, count);
+        var (low, high) = EnergyWindow(bands);
+        energies ??= Enumerable.Range(0, 2001).Select(i => low + (high - low) * i / 2000.0).ToArray();
+        var values = DosCommand.Compute(structure, energies);
+        var dos = values.Select(v => v.Dos).ToArray();
+        // The 1/sqrt divergences at the band edges would flatten the picture: cap the axis.
+        var finite = dos.Where(d => double.IsFinite(d) && d > 0).OrderBy(d => d).ToArray();
+        var cap = finite.Length == 0 ? 1.0 : 1.5 * finite[(int)(0.9 * (finite.Length - 1))];
+        var clipped = dos.Select(d => Math.Min(d, cap * 1.05)).ToArray();
+        var plot = NewPlot($"Density of states: {structure.Name}", "DOS g(E) (1/(eV nm), spin included)", "Energy E (eV)");
+        ShadeGaps(plot, bands, 0, cap, energies.Min(), energies.Max());
+        var line = plot.Add.ScatterLine(clipped, energies);
+        line.LineWidth = 2;
+        line.Color = LineColor;
+        plot.Axes.SetLimits(0, cap, energies.Min(), energies.Max());
+        return plot;
+    }
+
+    private static Plot Profile(StructureDefinition structure, int count, int periods)
+    {
+        var bands = BandStructure.Compute(structure.Cell, count);
+        var cell = structure.Cell;
+        var d = cell.Period.Nanometres;
+        var xs = new List<double>();
+        var vs = new List<double>();
+        var deltas = new List<(double X, double S)>();
+        var x = 0.0;
+        for (var p = 0; p < periods; p++)
+        {
+            foreach (var element in cell.Elements)
+            {
+                switch (element)
+                {
+                    case Layer layer:
+                        xs.Add(x);
+                        vs.Add(layer.Potential.ElectronVolts);
+                        x += layer.Width.Nanometres;
+                        xs.Add(x);
+                        vs.Add(layer.Potential.ElectronVolts);
+                        break;
+                    case DeltaBarrier delta:
+                        deltas.Add((x, delta.StrengthElectronVoltNanometres));
+                        break;
+                }
+            }
+        }
+        var (low, high) = EnergyWindow(bands);
+        high = Math.Max(high, cell.MaximumPotential.ElectronVolts + 0.08 * (high - low));
+        var plot = NewPlot($"Potential and minibands: {structure.Name}", "Position x (nm)", "Energy (eV)");
+        foreach (var band in bands.Bands)
+        {
+            Shade(plot, 0, periods * d, band.BottomElectronVolts, Math.Max(band.TopElectronVolts, band.BottomElectronVolts + 1e-4 * (high - low)), BandColor);
+            var label = plot.Add.Text(string.Create(CultureInfo.InvariantCulture, $"band {band.Index}: {band.WidthElectronVolts * 1e3:G4} meV wide"),
+                periods * d * 1.005, 0.5 * (band.BottomElectronVolts + band.TopElectronVolts));
+            label.LabelFontSize = 11;
+            label.LabelAlignment = Alignment.MiddleLeft;
+        }
+        var line = plot.Add.ScatterLine(xs.ToArray(), vs.ToArray());
+        line.LineWidth = 2.5f;
+        line.Color = ProfileColor;
+        foreach (var (dx, s) in deltas)
+        {
+            var spike = plot.Add.VerticalLine(dx);
+            spike.Color = s > 0 ? Colors.DarkRed : Colors.DarkGreen;
+            spike.LineWidth = 2;
+        }
+        plot.Axes.SetLimits(0, periods * d * 1.3, low, high);
+        plot.Add.Text("minibands shaded", 0.01 * periods * d, high - 0.02 * (high - low)).LabelFontSize = 12;
+        return plot;
+    }
+}
