@@ -30,7 +30,7 @@ root.SetAction(_ =>
 var parsed = root.Parse(args);
 if (parsed.Errors.Count > 0)
 {
-    Console.Error.WriteLine($"periodic: error: {parsed.Errors[0].Message} (see periodic --help)");
+    Console.Error.WriteLine($"periodic: error: {OneLine(parsed.Errors[0].Message)} (see periodic --help)");
     return 2;
 }
 try
@@ -51,7 +51,7 @@ catch (Exception e)
         IOException or UnauthorizedAccessException => "",
         _ => "computation failed: ",
     };
-    Console.Error.WriteLine($"periodic: error: {what}{OneLine(e.Message)}");
+    Console.Error.WriteLine($"periodic: error: {what}{OneLine(Describe(e))}");
     if (parsed.GetValue(verbose))
     {
         Console.Error.WriteLine(e.ToString());
@@ -59,4 +59,17 @@ catch (Exception e)
     return code;
 }
 
-static string OneLine(string message) => message.ReplaceLineEndings(" ");
+static string OneLine(string message) =>
+    System.Text.RegularExpressions.Regex.Replace(message.ReplaceLineEndings(" "), @"\s+", " ").Trim();
+
+// ArgumentException appends "(Parameter 'x')" and "Actual value was v."; our messages already say both.
+static string Describe(Exception e)
+{
+    if (e is not ArgumentException argument)
+    {
+        return e.Message;
+    }
+    var message = argument.Message;
+    var cut = message.IndexOf(" (Parameter '", StringComparison.Ordinal);
+    return cut >= 0 ? message[..cut] : message;
+}
