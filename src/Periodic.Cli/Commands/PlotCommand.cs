@@ -171,19 +171,53 @@ internal static class PlotCommand
     {
         var bands = BandStructure.Compute(structure.Cell, count);
         var (low, high) = EnergyWindow(bands);
-        energies ??= Enumerable.Range(0, 2001).Select(i => low + (high - low) * i / 2000.0).ToArray();
-        var values = DosCommand.Compute(structure, energies);
-        var dos = values.Select(v => v.Dos).ToArray();
-        // The 1/sqrt divergences at the band edges would flatten the picture: cap the axis.
-        var finite = dos.Where(d => double.IsFinite(d) && d > 0).OrderBy(d => d).ToArray();
-        var cap = finite.Length == 0 ? 1.0 : 1.5 * finite[(int)(0.9 * (finite.Length - 1))];
-        var clipped = dos.Select(d => Math.Min(d, cap * 1.05)).ToArray();
+        if (energies is not null)
+        {
+            low = energies.Min();
+            high = energies.Max();
+        }
         var plot = NewPlot($"Density of states: {structure.Name}", "DOS g(E) (1/(eV nm), spin included)", "Energy E (eV)");
-        ShadeGaps(plot, bands, 0, cap, energies.Min(), energies.Max());
-        var line = plot.Add.ScatterLine(clipped, energies);
-        line.LineWidth = 2;
-        line.Color = LineColor;
-        plot.Axes.SetLimits(0, cap, energies.Min(), energies.Max());
+        // One curve per band, so nothing is drawn across a gap. Without a user grid, each band gets
+        // Chebyshev-spaced points (dense near its edges, where g has its 1/sqrt(E - E_edge) divergence).
+        var curves = new List<(double[] E, double[] G)>();
+        foreach (var band in bands.Bands)
+        {
+            double[] grid;
+            if (energies is null)
+            {
+                const int points = 400;
+                grid = Enumerable.Range(1, points).Select(i => band.CenterElectronVolts - 0.5 * band.WidthElectronVolts * Math.Cos(Math.PI * (i - 0.5) / points)).ToArray();
+            }
+            else
+            {
+                grid = energies.Where(e => e > band.BottomElectronVolts && e < band.TopElectronVolts).Order().ToArray();
+            }
+            if (grid.Length == 0)
+            {
+                continue;
+            }
+            var values = DosCommand.Compute(structure, grid);
+            curves.Add((grid, values.Select(v => v.Dos).ToArray()));
+        }
+        // The divergences would flatten the picture: cap the axis at 4x the largest band-centre value.
+        var cap = 1.0;
+        foreach (var band in bands.Bands)
+        {
+            var centre = DosCommand.Compute(structure, [band.CenterElectronVolts])[0].Dos;
+            if (double.IsFinite(centre))
+            {
+                cap = Math.Max(cap, 4 * centre);
+            }
+        }
+        ShadeGaps(plot, bands, 0, cap * 1.1, low, high);
+        foreach (var (e, g) in curves)
+        {
+            var line = plot.Add.ScatterLine(g.Select(x => Math.Min(x, cap * 1.2)).ToArray(), e);
+            line.LineWidth = 2;
+            line.Color = LineColor;
+        }
+        plot.Add.Text("gaps shaded; g diverges at every band edge (axis capped)", 0.02 * cap, high - 0.02 * (high - low)).LabelFontSize = 12;
+        plot.Axes.SetLimits(0, cap, low, high);
         return plot;
     }
 
@@ -235,7 +269,13 @@ internal static class PlotCommand
             spike.Color = s > 0 ? Colors.DarkRed : Colors.DarkGreen;
             spike.LineWidth = 2;
         }
-        plot.Axes.SetLimits(0, periods * d * 1.3, low, high);
+        if (deltas.Count > 0)
+        {
+            var s0 = deltas[0].S;
+            var note = plot.Add.Text(string.Create(CultureInfo.InvariantCulture, $"delta {(s0 > 0 ? "barrier" : "well")} {s0:G4} eV nm"), deltas[0].X + 0.01 * periods * d, low + 0.1 * (high - low));
+            note.LabelFontSize = 11;
+        }
+        plot.Axes.SetLimits(-0.02 * periods * d, periods * d * 1.3, low, high);
         plot.Add.Text("minibands shaded", 0.01 * periods * d, high - 0.02 * (high - low)).LabelFontSize = 12;
         return plot;
     }
