@@ -301,17 +301,18 @@ public sealed class CellTransfer
 
     private void CheckEnergy(double energyElectronVolts, int index = -1)
     {
+        if (double.IsFinite(energyElectronVolts) && energyElectronVolts > LowestValidEnergyElectronVolts)
+        {
+            return;
+        }
         var name = index < 0 ? "energyElectronVolts" : string.Create(CultureInfo.InvariantCulture, $"energiesElectronVolts[{index}]");
         if (!double.IsFinite(energyElectronVolts))
         {
             throw new ArgumentOutOfRangeException(name, energyElectronVolts,
                 $"{name} must be a finite energy in eV; got {Preconditions.Format(energyElectronVolts)}.");
         }
-        if (energyElectronVolts <= LowestValidEnergyElectronVolts)
-        {
-            throw new ArgumentOutOfRangeException(name, energyElectronVolts,
-                $"{name} must exceed {Preconditions.Format(LowestValidEnergyElectronVolts)} eV, below which a non-parabolic mass m(E) = m(1 + a(E - V)) would not be positive; got {Preconditions.Format(energyElectronVolts)}.");
-        }
+        throw new ArgumentOutOfRangeException(name, energyElectronVolts,
+            $"{name} must exceed {Preconditions.Format(LowestValidEnergyElectronVolts)} eV, below which a non-parabolic mass m(E) = m(1 + a(E - V)) would not be positive; got {Preconditions.Format(energyElectronVolts)}.");
     }
 
     /// <summary>
