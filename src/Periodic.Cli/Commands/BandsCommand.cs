@@ -4,7 +4,7 @@
 using System.CommandLine;
 using Periodic.Bands;
 using Periodic.Cli.Output;
-using Periodic.Cli.Physics;
+using Periodic.Properties;
 using Periodic.Serialization;
 
 namespace Periodic.Cli.Commands;
@@ -37,7 +37,8 @@ internal static class BandsCommand
     public static string Render(StructureDefinition structure, int count, OutputFormat format)
     {
         var bands = BandStructure.Compute(structure.Cell, count);
-        var masses = bands.Bands.Select(b => (Bottom: CoreDerived.EdgeMass(bands, b.BottomElectronVolts), Top: CoreDerived.EdgeMass(bands, b.TopElectronVolts))).ToArray();
+        var properties = BandProperties.Create(bands);
+        var masses = bands.Bands.Select(b => (Bottom: properties.BottomMass(b.Index).ElectronMasses, Top: properties.TopMass(b.Index).ElectronMasses)).ToArray();
         if (format == OutputFormat.Json)
         {
             return Common.Json(w =>

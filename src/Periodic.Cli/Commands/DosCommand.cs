@@ -2,7 +2,6 @@
 // Copyright (c) 2026 Periodic contributors
 
 using System.CommandLine;
-using Periodic.Bands;
 using Periodic.Cli.Output;
 using Periodic.Cli.Physics;
 using Periodic.Serialization;
@@ -34,15 +33,14 @@ internal static class DosCommand
         return command;
     }
 
-    public static CoreDerived.PointValues[] Compute(StructureDefinition structure, double[] energies)
+    public static PointQuantities.Values[] Compute(StructureDefinition structure, double[] energies)
     {
-        // One band is enough: the per-energy quantities need only the transfer matrix.
-        var bands = BandStructure.Compute(structure.Cell, 1);
-        var values = new CoreDerived.PointValues[energies.Length];
+        var properties = PointQuantities.PropertiesUpTo(structure.Cell, energies.Max());
+        var values = new PointQuantities.Values[energies.Length];
         using var progress = new Progress("dos", energies.Length);
         for (var i = 0; i < energies.Length; i++)
         {
-            values[i] = CoreDerived.At(bands, energies[i]);
+            values[i] = PointQuantities.At(properties, energies[i]);
             if ((i & 255) == 0)
             {
                 progress.Report(i);

@@ -5,7 +5,6 @@ using System.CommandLine;
 using System.Globalization;
 using Periodic.Bands;
 using Periodic.Cli.Output;
-using Periodic.Cli.Physics;
 using Periodic.Serialization;
 using Periodic.Structures;
 using ScottPlot;

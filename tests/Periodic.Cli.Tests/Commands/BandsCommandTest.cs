@@ -28,6 +28,9 @@ public sealed class BandsCommandTest
             Assert.Equal(expected.Bands[i].BottomElectronVolts, band.GetProperty("bottom").GetDouble());
             Assert.Equal(expected.Bands[i].TopElectronVolts, band.GetProperty("top").GetDouble());
             Assert.Equal(expected.Bands[i].WidthElectronVolts, band.GetProperty("width").GetDouble());
+            var properties = Periodic.Properties.BandProperties.Create(expected);
+            Assert.Equal(properties.BottomMass(i + 1).ElectronMasses, band.GetProperty("massAtBottom").GetDouble());
+            Assert.Equal(properties.TopMass(i + 1).ElectronMasses, band.GetProperty("massAtTop").GetDouble());
             Assert.True(band.GetProperty("massAtBottom").GetDouble() > 0, "a band bottom is a minimum: positive mass");
             Assert.True(band.GetProperty("massAtTop").GetDouble() < 0, "a band top is a maximum: negative mass");
             var gap = json.GetProperty("gaps")[i];

@@ -66,6 +66,26 @@ public sealed class DosCommandTest
     }
 
     [Fact]
+    public void Dos_Json_MatchesLibrary()
+    {
+        var file = ToolRunner.Example("superlattice.json");
+        var run = ToolRunner.Invoke("dos", file, "--from", "0.02", "--to", "0.6", "--points", "30", "--json");
+        Assert.Equal(0, run.ExitCode);
+        var properties = Periodic.Properties.BandProperties.Create(
+            Periodic.Bands.BandStructure.ComputeBelow(Periodic.Serialization.StructureFile.Load(file).Cell, Energy.FromElectronVolts(0.6)));
+        foreach (var p in run.Json().GetProperty("points").EnumerateArray())
+        {
+            var e = p.GetProperty("energy").GetDouble();
+            var k = properties.Structure.WavevectorAt(e);
+            // Shortest round-trip JSON: the tool's numbers are the library's, bit for bit.
+            Assert.Equal(properties.DensityOfStatesPerElectronVoltNanometre(e), p.GetProperty("dos").GetDouble());
+            Assert.Equal(k.RealPerNanometre, p.GetProperty("wavevector").GetDouble());
+            Assert.Equal(k.ImaginaryPerNanometre, p.GetProperty("decay").GetDouble());
+            Assert.Equal(k.IsPropagating ? properties.GroupVelocityAtEnergy(e).SlopeElectronVoltNanometres : 0.0, p.GetProperty("slope").GetDouble());
+        }
+    }
+
+    [Fact]
     public void Dos_Grid_IncludesBothEnds()
     {
         var run = ToolRunner.Invoke("dos", ToolRunner.Example("superlattice.json"), "--from", "0.01", "--to", "0.5", "--points", "50", "--csv");
