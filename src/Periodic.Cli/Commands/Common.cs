@@ -61,7 +61,15 @@ internal static class Common
         {
             throw new UsageException($"structure file {path} does not exist.");
         }
-        return StructureFile.Load(path);
+        var structure = StructureFile.Load(path);
+        if (structure.Materials is { } built)
+        {
+            foreach (var warning in built.Warnings)
+            {
+                Console.Error.WriteLine($"periodic: warning: {path}: {warning.Message}");
+            }
+        }
+        return structure;
     }
 
     /// <summary>Writes the finished text to stdout, or atomically to <paramref name="outPath"/>.</summary>
@@ -110,6 +118,17 @@ internal static class Common
         writer.WriteString("source", structure.SourceName);
         writer.WriteNumber("period", structure.Cell.Period.Nanometres);
         writer.WriteNumber("elements", structure.Cell.Elements.Count);
+        if (structure.Materials is { } built)
+        {
+            writer.WriteNumber("temperature", built.TemperatureKelvin);
+            writer.WriteNumber("referenceEnergy", built.ReferenceElectronVolts);
+            writer.WriteStartArray("warnings");
+            foreach (var warning in built.Warnings)
+            {
+                writer.WriteStringValue(warning.Message);
+            }
+            writer.WriteEndArray();
+        }
         writer.WriteEndObject();
     }
 

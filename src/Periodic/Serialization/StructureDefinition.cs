@@ -4,6 +4,7 @@
 using System.Collections.ObjectModel;
 using System.Globalization;
 using System.Text;
+using Periodic.Materials;
 using Periodic.Structures;
 
 namespace Periodic.Serialization;
@@ -11,14 +12,22 @@ namespace Periodic.Serialization;
 /// <summary>A structure read from a structure file: its name, optional description and unit cell.</summary>
 public sealed class StructureDefinition
 {
-    internal StructureDefinition(string name, string? description, UnitCell cell, string?[] labels, string sourceName)
+    internal StructureDefinition(string name, string? description, UnitCell cell, string?[] labels, string sourceName, BuiltStructure? materials)
     {
         Name = name;
         Description = description;
         Cell = cell;
         Labels = new ReadOnlyCollection<string?>(labels);
         SourceName = sourceName;
+        Materials = materials;
     }
+
+    /// <summary>
+    /// For a cell of material layers: the structure built from the material table, with its validity
+    /// <see cref="BuiltStructure.Warnings"/> and the reference energy of the potentials; null for a cell given by
+    /// explicit potentials and masses.
+    /// </summary>
+    public BuiltStructure? Materials { get; }
 
     /// <summary>The structure's name (the file's <c>name</c> field).</summary>
     public string Name { get; }

@@ -5,6 +5,7 @@ using System.Globalization;
 using System.Text;
 using System.Text.Json;
 using System.Text.RegularExpressions;
+using Periodic.Materials;
 using Periodic.Structures;
 using Periodic.Units;
 
@@ -42,6 +43,11 @@ public static partial class StructureFile
     private static readonly Dictionary<string, double> StrengthUnits = new(StringComparer.Ordinal)
     {
         ["eVnm"] = 1.0, ["meVnm"] = 1e-3, ["eVÅ"] = 0.1, ["eVA"] = 0.1, ["meVÅ"] = 1e-4, ["meVA"] = 1e-4,
+    };
+
+    private static readonly Dictionary<string, double> TemperatureUnits = new(StringComparer.Ordinal)
+    {
+        ["K"] = 1.0,
     };
 
     private static readonly Dictionary<string, double> InverseEnergyUnits = new(StringComparer.Ordinal)
@@ -115,7 +121,7 @@ public static partial class StructureFile
         public StructureDefinition ReadDocument(JsonTreeNode root)
         {
             var obj = ExpectObject(root, "(document)");
-            var fields = Fields(obj, "", ["$schema", "name", "description", "cell"]);
+            var fields = Fields(obj, "", ["$schema", "name", "description", "cell", "temperature", "carrier", "nonParabolic", "substrate"]);
             var name = ReadString(Required(fields, obj, "", "name"), "name");
             if (name.Trim().Length == 0)
             {
@@ -135,8 +141,19 @@ public static partial class StructureFile
             {
                 throw Error(array, "cell", "must hold at least one layer; got an empty array.");
             }
-            var elements = new CellElement[array.Items.Count];
             var labels = new string?[array.Items.Count];
+            if (array.Items.Exists(item => item is JsonTreeObject o && o.Properties.Exists(p => p.Name == "material")))
+            {
+                return ReadMaterialsDocument(fields, array, name, description, labels);
+            }
+            foreach (var key in new[] { "temperature", "carrier", "nonParabolic", "substrate" })
+            {
+                if (fields.TryGetValue(key, out var stray))
+                {
+                    throw ErrorAt(stray.NameOffset, key, "applies only to a cell of material layers ({\"material\": \"GaAs\", \"width\": ...}).");
+                }
+            }
+            var elements = new CellElement[array.Items.Count];
             var hasWidth = false;
             for (var i = 0; i < elements.Length; i++)
             {
@@ -156,7 +173,112 @@ public static partial class StructureFile
             {
                 throw Error(array, "cell", e.Message, e);
             }
-            return new StructureDefinition(name, description, cell, labels, sourceName);
+            return new StructureDefinition(name, description, cell, labels, sourceName, null);
+        }
+
+        /// <summary>A cell of material layers, built by <see cref="StructureRecipe"/> (potentials and masses from the material table).</summary>
+        private StructureDefinition ReadMaterialsDocument(Dictionary<string, JsonTreeProperty> fields, JsonTreeArray array, string name, string? description, string?[] labels)
+        {
+            if (!fields.TryGetValue("temperature", out var t))
+            {
+                throw Error(array, "temperature", "is required for a cell of material layers (e.g. \"temperature\": \"300 K\").");
+            }
+            var temperature = ReadQuantity(t.Value, "temperature", TemperatureUnits, "K", "K");
+            StructureRecipe recipe;
+            try
+            {
+                recipe = StructureRecipe.Create(temperature);
+            }
+            catch (ArgumentException e)
+            {
+                throw Error(t.Value, "temperature", Describe(e), e);
+            }
+            if (fields.TryGetValue("nonParabolic", out var np))
+            {
+                var on = np.Value is JsonTreeLiteral { Token: JsonTokenType.True or JsonTokenType.False } literal
+                    ? literal.Token == JsonTokenType.True
+                    : throw Error(np.Value, "nonParabolic", $"must be true or false; got {np.Value.KindName}.");
+                recipe = Apply(np.Value, "nonParabolic", () => recipe.WithNonParabolicity(on));
+            }
+            if (fields.TryGetValue("carrier", out var c))
+            {
+                var text = ReadString(c.Value, "carrier");
+                var carrier = text switch
+                {
+                    "electron" => Carrier.Electron,
+                    "heavyHole" => Carrier.HeavyHole,
+                    "lightHole" => Carrier.LightHole,
+                    _ => throw Error(c.Value, "carrier", $"must be \"electron\", \"heavyHole\" or \"lightHole\"; got \"{text}\"."),
+                };
+                recipe = Apply(c.Value, "carrier", () => recipe.WithCarrier(carrier));
+            }
+            if (fields.TryGetValue("substrate", out var sub))
+            {
+                var substrate = ReadMaterial(sub.Value, "substrate");
+                recipe = recipe.WithSubstrate(substrate);
+            }
+            for (var i = 0; i < array.Items.Count; i++)
+            {
+                var path = string.Create(CultureInfo.InvariantCulture, $"cell[{i}]");
+                var obj = ExpectObject(array.Items[i], path);
+                if (!obj.Properties.Exists(p => p.Name == "material"))
+                {
+                    throw Error(obj, path + ".material", "is required: a cell that uses materials must give every layer as {\"material\": ..., \"width\": ...} (deltas and explicit layers cannot be mixed in).");
+                }
+                var layerFields = Fields(obj, path, ["material", "width", "monolayers", "label"]);
+                labels[i] = layerFields.TryGetValue("label", out var l) ? ReadString(l.Value, path + ".label") : null;
+                var material = ReadMaterial(layerFields["material"].Value, path + ".material");
+                RecipeLayer layer;
+                if (layerFields.TryGetValue("monolayers", out var ml))
+                {
+                    if (layerFields.ContainsKey("width"))
+                    {
+                        throw ErrorAt(ml.NameOffset, path + ".monolayers", "give either width or monolayers, not both.");
+                    }
+                    if (ml.Value is not JsonTreeNumber { Value: var count } || count != Math.Floor(count) || count < 1 || count > 100000)
+                    {
+                        throw Error(ml.Value, path + ".monolayers", "must be a whole number of monolayers from 1 to 100000.");
+                    }
+                    layer = Apply(ml.Value, path + ".monolayers", () => RecipeLayer.FromMonolayers(material, (int)count));
+                }
+                else
+                {
+                    var widthNode = Required(layerFields, obj, path, "width", " (or \"monolayers\")");
+                    var width = ReadQuantity(widthNode, path + ".width", LengthUnits, "nm", "nm, Å, pm, µm");
+                    if (width <= 0)
+                    {
+                        throw Error(widthNode, path + ".width", $"must be positive; got {Format(width)} nm.");
+                    }
+                    layer = Apply(widthNode, path + ".width", () => RecipeLayer.Create(material, Length.FromNanometres(width)));
+                }
+                recipe = recipe.Add(layer);
+            }
+            var built = Apply(array, "cell", recipe.Build);
+            return new StructureDefinition(name, description, built.Cell, labels, sourceName, built);
+        }
+
+        private Material ReadMaterial(JsonTreeNode node, string path)
+        {
+            var text = ReadString(node, path);
+            return Apply(node, path, () => StructureRecipe.ParseMaterial(text));
+        }
+
+        private T Apply<T>(JsonTreeNode node, string path, Func<T> action)
+        {
+            try
+            {
+                return action();
+            }
+            catch (ArgumentException e)
+            {
+                throw Error(node, path, Describe(e), e);
+            }
+        }
+
+        private static string Describe(ArgumentException e)
+        {
+            var cut = e.Message.IndexOf(" (Parameter '", StringComparison.Ordinal);
+            return cut >= 0 ? e.Message[..cut] : e.Message;
         }
 
         private (CellElement Element, string? Label) ReadElement(JsonTreeNode node, string path)

@@ -101,3 +101,43 @@ public sealed class StructureFileTest
         }
     }
 }
+
+public sealed class StructureFileMaterialsTest
+{
+    [Fact]
+    public void Parse_MaterialLayers_AreBuiltByTheRecipe()
+    {
+        var s = StructureFile.Parse("""
+            {"name": "m", "temperature": "77 K", "cell": [
+              {"material": "GaAs", "width": "6 nm"}, {"material": "Al0.3Ga0.7As", "monolayers": 20}]}
+            """, "m.json");
+        var expected = Periodic.Materials.StructureRecipe.Create(77)
+            .Add(Periodic.Materials.StructureRecipe.ParseMaterial("GaAs"), Periodic.Units.Length.FromNanometres(6))
+            .Add(Periodic.Materials.RecipeLayer.FromMonolayers(Periodic.Materials.StructureRecipe.ParseMaterial("Al0.3Ga0.7As"), 20))
+            .Build();
+        Assert.NotNull(s.Materials);
+        Assert.Equal(77.0, s.Materials!.TemperatureKelvin);
+        for (var i = 0; i < 2; i++)
+        {
+            var got = Assert.IsType<Layer>(s.Cell.Elements[i]);
+            var want = Assert.IsType<Layer>(expected.Cell.Elements[i]);
+            Assert.Equal(want.Width, got.Width);
+            Assert.Equal(want.Potential, got.Potential);
+            Assert.Equal(want.Mass, got.Mass);
+        }
+    }
+
+    [Theory]
+    [InlineData("""{"name": "m", "cell": [{"material": "GaAs", "width": 5}]}""", "temperature", "required")]
+    [InlineData("""{"name": "m", "temperature": 300, "cell": [{"material": "Unobtainium", "width": 5}]}""", "cell[0].material", "not a known material")]
+    [InlineData("""{"name": "m", "temperature": 300, "cell": [{"material": "GaAs", "width": 5}, {"width": 1, "potential": 0, "mass": 1}]}""", "cell[1].material", "required")]
+    [InlineData("""{"name": "m", "temperature": 300, "cell": [{"width": 1, "potential": 0, "mass": 1}]}""", "temperature", "only")]
+    [InlineData("""{"name": "m", "temperature": 300, "carrier": "positron", "cell": [{"material": "GaAs", "width": 5}]}""", "carrier", "electron")]
+    public void Parse_BadMaterialCell_NamesTheField(string json, string field, string problem)
+    {
+        var e = Assert.Throws<StructureFileException>(() => StructureFile.Parse(json, "m.json"));
+        Assert.Equal(field, e.Field);
+        Assert.Contains(problem, e.Problem, StringComparison.Ordinal);
+        Assert.True(e.LineNumber == 1 && e.Column > 1, e.Message);
+    }
+}
