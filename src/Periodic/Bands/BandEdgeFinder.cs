@@ -81,11 +81,11 @@ internal sealed class BandEdgeFinder
                 RefineInto(ca + 1, a, b);
                 continue;
             }
-            if (cb - ca == 2 && TrySeparateGapPair(ca, a, b, out var extremum, out var closed))
+            if (cb - ca == 2 && TrySeparateGapPair(ca, a, b, out var extremum, out var closed, out var closedError))
             {
                 if (closed)
                 {
-                    var error = Math.Max(Math.Abs(extremum) * 1e-12, _options.AbsoluteToleranceElectronVolts);
+                    var error = closedError;
                     Store(ca, extremum, error);
                     Store(ca + 1, extremum, error);
                     closedAbove[(ca + 1) / 2] = true;
@@ -212,15 +212,25 @@ internal sealed class BandEdgeFinder
     }
 
     /// <summary>
-    /// Finds the extremum of D between the two edges of one gap. <paramref name="closed"/> is true when
-    /// |D| there exceeds 2 by no more than rounding.
+    /// Finds the extremum of D between the two edges of one gap and decides whether the gap is closed.
+    /// <paramref name="closedError"/> bounds the distance of both edges from the extremum when it is.
     /// </summary>
-    private bool TrySeparateGapPair(int lowerEdge, double a, double b, out double extremum, out bool closed)
+    /// <remarks>
+    /// Near a gap edge pair, D ∓ 2 = ∓det(M ∓ I) exactly (det M = 1). Linearising M(E_m + δ) ≈ M_m + δ·dM/dE
+    /// at the extremum E_m turns the edges into the roots of the quadratic det(η + δA) = 0, η = M_m ∓ I,
+    /// A = dM/dE, whose separation W is the gap width. W inherits only the rounding of the entries of M
+    /// divided by |A|, whereas the value D(E_m) ∓ 2 (the width from it, 2√(excess/|D″/2|), takes the square
+    /// root of that rounding) cannot resolve a gap below √ε relative when rounding accumulates over many
+    /// elements. The gap is closed when W is below the edge tolerance (M = ±I there: coexistence of two
+    /// periodic solutions, Magnus and Winkler, Hill's Equation, 1966, §2.3).
+    /// </remarks>
+    private bool TrySeparateGapPair(int lowerEdge, double a, double b, out double extremum, out bool closed, out double closedError)
     {
         var slope = new TraceSlope(_transfer);
         var result = RootFinding.Brent(ref slope, a, b, _options.AbsoluteToleranceElectronVolts, _options.RelativeTolerance, _options.MaxIterations);
         extremum = result.Root;
         closed = false;
+        closedError = 0;
         if (result.Status != RootStatus.Converged)
         {
             return false;
@@ -228,11 +238,54 @@ internal sealed class BandEdgeFinder
         var value = _transfer.Dispersion(extremum);
         var target = TargetTrace(lowerEdge);
         var matrix = _transfer.Evaluate(extremum);
-        // Rounding level of D: a few ulps of the largest entry that enters the trace.
-        var scale = matrix.Mantissa.MaxAbsEntry * Math.Exp(matrix.LogScale);
-        var excess = target > 0 ? value.Trace - 2 : -2 - value.Trace;
-        closed = excess <= 64 * 2.220446049250313e-16 * Math.Max(scale, 2.0);
+        var tolerance = Math.Max(_options.AbsoluteToleranceElectronVolts, _options.RelativeTolerance * Math.Abs(extremum));
+        var excessOverTarget = target > 0 ? value.Trace - 2 : -2 - value.Trace;
+        if (excessOverTarget > 1e-6)
+        {
+            return true; // |D| exceeds 2 far beyond any rounding: an open gap
+        }
+        var width = LinearisedGapWidth(matrix, target);
+        if (double.IsNaN(width))
+        {
+            // No usable linear model (entries beyond the double range, or a degenerate derivative): fall back
+            // on the value, whose rounding level is a few ulps of the largest entry that enters the trace.
+            var scale = matrix.Mantissa.MaxAbsEntry * Math.Exp(matrix.LogScale);
+            closed = excessOverTarget <= 64 * 2.220446049250313e-16 * Math.Max(scale, 2.0);
+            closedError = Math.Max(Math.Abs(extremum) * 1e-12, _options.AbsoluteToleranceElectronVolts);
+            return true;
+        }
+        closed = width <= tolerance;
+        closedError = Math.Max(Math.Max(width, tolerance), result.ErrorBound);
         return true;
+    }
+
+    /// <summary>
+    /// The separation of the roots of det(η + δA) = 0 (see <see cref="TrySeparateGapPair"/>), eV; 0 when the
+    /// quadratic has no real roots (no gap within rounding); NaN when the model cannot be formed.
+    /// </summary>
+    private static double LinearisedGapWidth(Transfer.ScaledTransferMatrix matrix, double target)
+    {
+        if (matrix.LogScale > 600)
+        {
+            return double.NaN;
+        }
+        var scale = Math.Exp(matrix.LogScale);
+        var sign = target > 0 ? 1.0 : -1.0;
+        var m = matrix.Mantissa;
+        var d = matrix.EnergyDerivativeMantissa;
+        double e11 = m.M11 * scale - sign, e12 = m.M12 * scale, e21 = m.M21 * scale, e22 = m.M22 * scale - sign;
+        double a11 = d.M11 * scale, a12 = d.M12 * scale, a21 = d.M21 * scale, a22 = d.M22 * scale;
+        // det(η + δA) = det(A) δ² + (η11 A22 + η22 A11 − η12 A21 − η21 A12) δ + det(η).
+        var quadratic = a11 * a22 - a12 * a21;
+        var linear = e11 * a22 + e22 * a11 - e12 * a21 - e21 * a12;
+        var constant = e11 * e22 - e12 * e21;
+        // At an extremum inside a gap det A > 0 (it is ∓D″/2 there); otherwise the model does not apply.
+        if (!(quadratic > 0) || !double.IsFinite(linear) || !double.IsFinite(constant))
+        {
+            return double.NaN;
+        }
+        var discriminant = linear * linear - 4 * quadratic * constant;
+        return discriminant <= 0 ? 0.0 : Math.Sqrt(discriminant) / quadratic;
     }
 
     private readonly struct TraceMinusTarget(CellTransfer transfer, double target) : IDifferentiableFunction

@@ -305,13 +305,15 @@ public sealed class CellTransfer
         {
             return;
         }
-        var name = index < 0 ? "energyElectronVolts" : string.Create(CultureInfo.InvariantCulture, $"energiesElectronVolts[{index}]");
+        // ParamName is the real parameter; the message names the element of a span.
+        var paramName = index < 0 ? "energyElectronVolts" : "energiesElectronVolts";
+        var name = index < 0 ? paramName : string.Create(CultureInfo.InvariantCulture, $"energiesElectronVolts[{index}]");
         if (!double.IsFinite(energyElectronVolts))
         {
-            throw new ArgumentOutOfRangeException(name, energyElectronVolts,
+            throw new ArgumentOutOfRangeException(paramName, energyElectronVolts,
                 $"{name} must be a finite energy in eV; got {Preconditions.Format(energyElectronVolts)}.");
         }
-        throw new ArgumentOutOfRangeException(name, energyElectronVolts,
+        throw new ArgumentOutOfRangeException(paramName, energyElectronVolts,
             $"{name} must exceed {Preconditions.Format(LowestValidEnergyElectronVolts)} eV, below which a non-parabolic mass m(E) = m(1 + a(E - V)) would not be positive; got {Preconditions.Format(energyElectronVolts)}.");
     }
 
