@@ -204,7 +204,8 @@ internal sealed class EnergyGridOptions
         var grid = new double[points.Value];
         for (var i = 0; i < grid.Length; i++)
         {
-            grid[i] = i == grid.Length - 1 ? to.Value : from.Value + (to.Value - from.Value) * i / (grid.Length - 1);
+            var t = (double)i / (grid.Length - 1);
+            grid[i] = i == grid.Length - 1 ? to.Value : from.Value * (1 - t) + to.Value * t;
         }
         return grid;
     }
