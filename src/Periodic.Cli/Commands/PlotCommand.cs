@@ -77,7 +77,7 @@ internal static class PlotCommand
                 "dispersion" => Dispersion(structure, n),
                 "dos" => Dos(structure, n, energies),
                 "profile" => Profile(structure, n, p == 0 ? 3 : p),
-                _ => Transmission(structure, n, p == 0 ? 10 : p, energies),
+                _ => Transmission(structure, n, p == 0 ? structure.Stack?.Parts[0].Repetitions ?? 10 : p, energies),
             };
             Save(plot, path, extension, w, h);
             Console.Error.WriteLine($"wrote {path}");

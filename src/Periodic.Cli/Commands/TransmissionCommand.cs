@@ -17,7 +17,7 @@ internal static class TransmissionCommand
     public static Command Create()
     {
         var file = Common.FileArgument();
-        var periods = new Option<int>("--periods", "-N") { Description = "Number of unit cells in the finite stack (1 to 1,000,000).", Required = true };
+        var periods = new Option<int?>("--periods", "-N") { Description = "Number of unit cells in the finite stack (1 to 1,000,000); default: the file's stack.periods." };
         var grid = new EnergyGridOptions();
         var leadPotential = new Option<double?>("--lead-potential") { Description = "Potential of both leads, eV (default: the first layer's)." };
         var leadMass = new Option<double?>("--lead-mass") { Description = "Effective mass in both leads, m0 (default: the first layer's)." };
@@ -34,7 +34,11 @@ internal static class TransmissionCommand
         command.SetAction(result =>
         {
             var format = Common.Format(result, json, csv);
-            var n = Common.CheckCount(result.GetValue(periods), "--periods", 1_000_000);
+            var n = result.GetValue(periods);
+            if (n is { } count)
+            {
+                Common.CheckCount(count, "--periods", 1_000_000);
+            }
             var energies = grid.Read(result);
             var potential = result.GetValue(leadPotential);
             var mass = result.GetValue(leadMass);
@@ -47,7 +51,8 @@ internal static class TransmissionCommand
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--lead-mass must be a positive mass in m0; got {m:R}."));
             }
             var structure = Common.Load(result.GetValue(file)!);
-            Common.Emit(Render(structure, n, energies, potential, mass, format), null);
+            Common.Emit(Render(structure, n ?? structure.Stack?.Parts[0].Repetitions
+                ?? throw new UsageException("give --periods N (the structure file has no \"stack\" with periods)."), energies, potential, mass, format), null);
             return 0;
         });
         return command;
@@ -68,8 +73,17 @@ internal static class TransmissionCommand
 
     public static (StackTransmission Stack, TransmissionResult[] Results) Compute(StructureDefinition structure, int periods, double[] energies, double? potential, double? mass)
     {
-        var lead = DefaultLead(structure.Cell, potential, mass);
-        var transmission = StackTransmission.Create(LayerStack.Periodic(lead, structure.Cell, periods, lead));
+        // Leads: the command-line options, else the file's stack, else the cell's first layer.
+        Lead left, right;
+        if (structure.Stack is { } given && potential is null && mass is null)
+        {
+            (left, right) = (given.LeftLead, given.RightLead);
+        }
+        else
+        {
+            left = right = DefaultLead(structure.Cell, potential, mass);
+        }
+        var transmission = StackTransmission.Create(LayerStack.Periodic(left, structure.Cell, periods, right));
         var results = new TransmissionResult[energies.Length];
         using var progress = new Progress("transmission", energies.Length);
         for (var i = 0; i < energies.Length; i++)

@@ -5,6 +5,7 @@ using System.Collections.ObjectModel;
 using System.Globalization;
 using System.Text;
 using Periodic.Materials;
+using Periodic.Stacks;
 using Periodic.Structures;
 
 namespace Periodic.Serialization;
@@ -12,7 +13,7 @@ namespace Periodic.Serialization;
 /// <summary>A structure read from a structure file: its name, optional description and unit cell.</summary>
 public sealed class StructureDefinition
 {
-    internal StructureDefinition(string name, string? description, UnitCell cell, string?[] labels, string sourceName, BuiltStructure? materials)
+    internal StructureDefinition(string name, string? description, UnitCell cell, string?[] labels, string sourceName, BuiltStructure? materials, LayerStack? stack)
     {
         Name = name;
         Description = description;
@@ -20,7 +21,14 @@ public sealed class StructureDefinition
         Labels = new ReadOnlyCollection<string?>(labels);
         SourceName = sourceName;
         Materials = materials;
+        Stack = stack;
     }
+
+    /// <summary>
+    /// The finite stack the file describes (its <c>stack</c> field: N periods of the cell between two leads),
+    /// or null when the file describes only the infinite crystal.
+    /// </summary>
+    public LayerStack? Stack { get; }
 
     /// <summary>
     /// For a cell of material layers: the structure built from the material table, with its validity

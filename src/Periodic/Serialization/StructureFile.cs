@@ -6,6 +6,7 @@ using System.Text;
 using System.Text.Json;
 using System.Text.RegularExpressions;
 using Periodic.Materials;
+using Periodic.Stacks;
 using Periodic.Structures;
 using Periodic.Units;
 
@@ -121,7 +122,7 @@ public static partial class StructureFile
         public StructureDefinition ReadDocument(JsonTreeNode root)
         {
             var obj = ExpectObject(root, "(document)");
-            var fields = Fields(obj, "", ["$schema", "name", "description", "cell", "temperature", "carrier", "nonParabolic", "substrate"]);
+            var fields = Fields(obj, "", ["$schema", "name", "description", "cell", "temperature", "carrier", "nonParabolic", "substrate", "stack"]);
             var name = ReadString(Required(fields, obj, "", "name"), "name");
             if (name.Trim().Length == 0)
             {
@@ -173,7 +174,46 @@ public static partial class StructureFile
             {
                 throw Error(array, "cell", e.Message, e);
             }
-            return new StructureDefinition(name, description, cell, labels, sourceName, null);
+            return new StructureDefinition(name, description, cell, labels, sourceName, null, ReadStack(fields, cell));
+        }
+
+        /// <summary>The optional finite stack: <c>"stack": {"periods": N, "leads": {...}}</c> or separate leftLead/rightLead.</summary>
+        private LayerStack? ReadStack(Dictionary<string, JsonTreeProperty> fields, UnitCell cell)
+        {
+            if (!fields.TryGetValue("stack", out var property))
+            {
+                return null;
+            }
+            var obj = ExpectObject(property.Value, "stack");
+            var stackFields = Fields(obj, "stack", ["periods", "leads", "leftLead", "rightLead"]);
+            var periodsNode = Required(stackFields, obj, "stack", "periods");
+            if (periodsNode is not JsonTreeNumber { Value: var periods } || periods != Math.Floor(periods) || periods < 1 || periods > 1_000_000)
+            {
+                throw Error(periodsNode, "stack.periods", "must be a whole number of periods from 1 to 1000000.");
+            }
+            if (stackFields.TryGetValue("leads", out var both) && (stackFields.ContainsKey("leftLead") || stackFields.ContainsKey("rightLead")))
+            {
+                throw ErrorAt(both.NameOffset, "stack.leads", "give either leads (both sides) or leftLead/rightLead, not both.");
+            }
+            var first = cell.Elements.OfType<Layer>().First();
+            var fallback = Lead.Create(first.Potential, first.Mass);
+            var left = both is not null ? ReadLead(both.Value, "stack.leads") : stackFields.TryGetValue("leftLead", out var l) ? ReadLead(l.Value, "stack.leftLead") : fallback;
+            var right = both is not null ? left : stackFields.TryGetValue("rightLead", out var r) ? ReadLead(r.Value, "stack.rightLead") : fallback;
+            return Apply(obj, "stack", () => LayerStack.Periodic(left, cell, (int)periods, right));
+        }
+
+        private Lead ReadLead(JsonTreeNode node, string path)
+        {
+            var obj = ExpectObject(node, path);
+            var leadFields = Fields(obj, path, ["potential", "mass"]);
+            var potential = ReadQuantity(Required(leadFields, obj, path, "potential"), path + ".potential", EnergyUnits, "eV", "eV, meV");
+            var massNode = Required(leadFields, obj, path, "mass");
+            var mass = ReadQuantity(massNode, path + ".mass", MassUnits, "m0", "m0");
+            if (mass <= 0)
+            {
+                throw Error(massNode, path + ".mass", $"must be positive; got {Format(mass)} m0.");
+            }
+            return Apply(obj, path, () => Lead.Create(Energy.FromElectronVolts(potential), EffectiveMass.FromElectronMasses(mass)));
         }
 
         /// <summary>A cell of material layers, built by <see cref="StructureRecipe"/> (potentials and masses from the material table).</summary>
@@ -254,7 +294,7 @@ public static partial class StructureFile
                 recipe = recipe.Add(layer);
             }
             var built = Apply(array, "cell", recipe.Build);
-            return new StructureDefinition(name, description, built.Cell, labels, sourceName, built);
+            return new StructureDefinition(name, description, built.Cell, labels, sourceName, built, ReadStack(fields, built.Cell));
         }
 
         private Material ReadMaterial(JsonTreeNode node, string path)

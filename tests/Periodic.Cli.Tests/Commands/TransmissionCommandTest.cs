@@ -94,3 +94,23 @@ public sealed class TransmissionCommandTest
         Assert.Single(run.Stderr.Split('\n', StringSplitOptions.RemoveEmptyEntries));
     }
 }
+
+public sealed class TransmissionFromFileStackTest
+{
+    [Fact]
+    public void Transmission_FileStack_GivesPeriodsAndLeads()
+    {
+        var file = ToolRunner.Example("filter-stack.json");
+        var run = ToolRunner.Invoke("transmission", file, "--energies", "0.05,0.1,0.2", "--json");
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        var json = run.Json();
+        var stack = Periodic.Serialization.StructureFile.Load(file).Stack!;
+        Assert.Equal(12, json.GetProperty("stack").GetProperty("periods").GetInt32());
+        Assert.Equal(-0.02, json.GetProperty("stack").GetProperty("leftLead").GetProperty("potential").GetDouble(), 1e-17);
+        var reference = Periodic.Stacks.StackTransmission.Create(stack);
+        foreach (var p in json.GetProperty("points").EnumerateArray())
+        {
+            Assert.Equal(reference.Evaluate(p.GetProperty("energy").GetDouble()).Transmission, p.GetProperty("transmission").GetDouble());
+        }
+    }
+}

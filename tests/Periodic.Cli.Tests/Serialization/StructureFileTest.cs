@@ -141,3 +141,35 @@ public sealed class StructureFileMaterialsTest
         Assert.True(e.LineNumber == 1 && e.Column > 1, e.Message);
     }
 }
+
+public sealed class StructureFileStackTest
+{
+    [Fact]
+    public void Parse_Stack_BuildsPeriodsBetweenTheLeads()
+    {
+        var s = StructureFile.Parse("""
+            {"name": "s", "cell": [{"width": 4, "potential": 0, "mass": 0.067}, {"width": 1.5, "potential": 0.3, "mass": 0.092}],
+             "stack": {"periods": 12, "leftLead": {"potential": "-20 meV", "mass": 0.067}}}
+            """, "s.json");
+        Assert.NotNull(s.Stack);
+        Assert.Equal(12, s.Stack!.Parts[0].Repetitions);
+        Assert.Equal(-0.02, s.Stack.LeftLead.PotentialElectronVolts, 1e-17);
+        // The right lead defaults to the first layer (0 eV, 0.067 m0).
+        Assert.Equal(0.0, s.Stack.RightLead.PotentialElectronVolts);
+        Assert.Equal(0.067, s.Stack.RightLead.MassElectronMasses);
+        Assert.Equal(66.0, s.Stack.ThicknessNanometres, 1e-12);
+    }
+
+    [Theory]
+    [InlineData("""{"periods": 0}""", "stack.periods")]
+    [InlineData("""{"periods": 2.5}""", "stack.periods")]
+    [InlineData("""{"leads": {"potential": 0, "mass": 1}}""", "stack.periods")]
+    [InlineData("""{"periods": 3, "leads": {"potential": 0, "mass": -1}}""", "stack.leads.mass")]
+    [InlineData("""{"periods": 3, "leads": {"potential": 0, "mass": 1}, "leftLead": {"potential": 0, "mass": 1}}""", "stack.leads")]
+    public void Parse_BadStack_NamesTheField(string stack, string field)
+    {
+        var e = Assert.Throws<StructureFileException>(() => StructureFile.Parse(
+            """{"name": "s", "cell": [{"width": 4, "potential": 0, "mass": 0.067}], "stack": """ + stack + "}", "s.json"));
+        Assert.Equal(field, e.Field);
+    }
+}
