@@ -11,21 +11,24 @@ namespace Periodic.Materials;
 /// </summary>
 public readonly record struct BandOffset
 {
+    private readonly string? _firstName;
+    private readonly string? _secondName;
+
     private BandOffset(string first, string second, double temperature, double conduction, double valence, double gapDifference)
     {
-        FirstName = first;
-        SecondName = second;
+        _firstName = first;
+        _secondName = second;
         TemperatureKelvin = temperature;
         ConductionElectronVolts = conduction;
         ValenceElectronVolts = valence;
         GapDifferenceElectronVolts = gapDifference;
     }
 
-    /// <summary>Name of the first (reference) material.</summary>
-    public string FirstName { get; }
+    /// <summary>Name of the first (reference) material (empty for <c>default</c>).</summary>
+    public string FirstName => _firstName ?? string.Empty;
 
-    /// <summary>Name of the second material.</summary>
-    public string SecondName { get; }
+    /// <summary>Name of the second material (empty for <c>default</c>).</summary>
+    public string SecondName => _secondName ?? string.Empty;
 
     /// <summary>Temperature of the gaps, K.</summary>
     public double TemperatureKelvin { get; }

@@ -5,6 +5,7 @@ using System.Collections.ObjectModel;
 using System.Globalization;
 using System.Text;
 using Periodic.Bands;
+using Periodic.Stacks;
 using Periodic.Structures;
 using Periodic.Units;
 
@@ -122,6 +123,52 @@ public sealed class BuiltStructure
         return CheckEnergies(energies);
     }
 
+    /// <summary>
+    /// A finite stack of <see cref="StructureRecipe.Periods"/> periods of <see cref="Cell"/> between leads of
+    /// the given materials, on the same energy reference and for the same carrier as the cell.
+    /// </summary>
+    /// <remarks>
+    /// Leads are parabolic (band-edge mass) even when the cell uses the Kane mass. Lead materials are not
+    /// checked for lattice mismatch or directness; build a recipe containing them to see those warnings.
+    /// </remarks>
+    /// <param name="leftLeadMaterial">Material of the semi-infinite lead on the left.</param>
+    /// <param name="rightLeadMaterial">Material of the semi-infinite lead on the right.</param>
+    /// <exception cref="ArgumentNullException">A lead material is null.</exception>
+    /// <exception cref="ArgumentException">A lead material has no mass for the carrier (holes).</exception>
+    /// <exception cref="ArgumentOutOfRangeException">A lead material's gap is not positive at the structure's temperature.</exception>
+    public LayerStack ToStack(Material leftLeadMaterial, Material rightLeadMaterial) =>
+        LayerStack.Periodic(LeadOf(leftLeadMaterial, nameof(leftLeadMaterial)), Cell, Recipe.Periods, LeadOf(rightLeadMaterial, nameof(rightLeadMaterial)));
+
+    /// <summary>
+    /// The lead of <paramref name="material"/> for this structure's carrier, on its energy reference
+    /// (parabolic, band-edge mass).
+    /// </summary>
+    /// <exception cref="ArgumentNullException"><paramref name="material"/> is null.</exception>
+    /// <exception cref="ArgumentException">The material has no mass for the carrier (holes).</exception>
+    /// <exception cref="ArgumentOutOfRangeException">The material's gap is not positive at the structure's temperature.</exception>
+    public Lead LeadOf(Material material) => LeadOf(material, nameof(material));
+
+    private Lead LeadOf(Material material, string paramName)
+    {
+        ArgumentNullException.ThrowIfNull(material, paramName);
+        var gap = material.BandGapElectronVolts(TemperatureKelvin);
+        var vbo = material.ValenceBandOffsetElectronVolts;
+        double potential, mass;
+        switch (Carrier)
+        {
+            case Carrier.Electron:
+                potential = vbo + gap - ReferenceElectronVolts;
+                mass = material.ElectronMassElectronMasses;
+                break;
+            default:
+                potential = ReferenceElectronVolts - vbo;
+                mass = (Carrier == Carrier.HeavyHole ? material.HeavyHoleMassElectronMasses : material.LightHoleMassElectronMasses)
+                    ?? throw new ArgumentException($"{paramName} ({material.Name}) has no {(Carrier == Carrier.HeavyHole ? "heavy" : "light")}-hole mass.", paramName);
+                break;
+        }
+        return Lead.Create(Energy.FromElectronVolts(potential), EffectiveMass.FromElectronMasses(mass));
+    }
+
     /// <inheritdoc />
     public override string ToString()
     {
@@ -203,6 +250,18 @@ public sealed class BuiltStructure
                 warnings.Add(new ModelWarning(ModelWarningKind.IndirectGap, i, 0, 0,
                     $"{material.Name} has its lowest conduction minimum outside Gamma (X or L): only Gamma-valley states are modelled, so lower-lying X/L states in this layer are missing and its barrier height is an upper bound for electrons."));
             }
+        }
+        int lowestConduction = 0, highestValence = 0;
+        for (var i = 1; i < n; i++)
+        {
+            lowestConduction = valence[i] + gaps[i] < valence[lowestConduction] + gaps[lowestConduction] ? i : lowestConduction;
+            highestValence = valence[i] > valence[highestValence] ? i : highestValence;
+        }
+        var overlap = valence[highestValence] - (valence[lowestConduction] + gaps[lowestConduction]);
+        if (overlap > 0)
+        {
+            warnings.Add(new ModelWarning(ModelWarningKind.BrokenGap, -1, overlap, 0, string.Create(CultureInfo.InvariantCulture,
+                $"broken-gap alignment: the conduction-band edge of {recipeLayers[lowestConduction].Material.Name} (layer {lowestConduction}) lies {overlap * 1e3:F0} meV below the valence-band edge of {recipeLayers[highestValence].Material.Name} (layer {highestValence}); electron and hole states mix there, which this single-band model does not describe.")));
         }
         var cell = UnitCell.Create(cellElements);
         return new BuiltStructure(recipe, cell, layers, reference, [.. warnings]);

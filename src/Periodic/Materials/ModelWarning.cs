@@ -22,6 +22,12 @@ public enum ModelWarningKind
 
     /// <summary>Holes are described by a single parabolic band each (no heavy/light-hole mixing): a rough estimate.</summary>
     SingleBandHoles,
+
+    /// <summary>
+    /// Broken-gap (type III) alignment: one layer's conduction-band edge lies below another layer's valence-band
+    /// edge (e.g. InAs/GaSb). Electron and hole states then mix, which a single-band model cannot describe.
+    /// </summary>
+    BrokenGap,
 }
 
 /// <summary>One warning about the model's validity, with the number that triggered it and the limit it broke.</summary>
@@ -44,7 +50,7 @@ public sealed class ModelWarning
 
     /// <summary>
     /// The value that broke the limit, in the unit of the limit: monolayers (ThinLayer), relative mismatch
-    /// (LatticeMismatch), composition x or 0 (IndirectGap), (E − edge)/Eg (EnergyFarAboveBandEdge), 0 (SingleBandHoles).
+    /// (LatticeMismatch), 0 (IndirectGap), the overlap in eV (BrokenGap), (E − edge)/Eg (EnergyFarAboveBandEdge), 0 (SingleBandHoles).
     /// </summary>
     public double Value { get; }
 

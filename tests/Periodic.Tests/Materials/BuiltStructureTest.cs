@@ -4,6 +4,7 @@
 using MathNet.Numerics.RootFinding;
 using Periodic.Bands;
 using Periodic.Materials;
+using Periodic.Stacks;
 using Periodic.Structures;
 using Periodic.Transfer;
 using Periodic.Units;
@@ -171,6 +172,17 @@ public sealed class BuiltStructureTest
     }
 
     [Fact]
+    public void Build_InAsGaSb_WarnsBrokenGap()
+    {
+        // InAs/GaSb is the textbook broken-gap pair (common practice, no single source): Ec(InAs) = −0.59 + 0.417
+        // lies below Ev(GaSb) = −0.03 (Vurgaftman et al. 2001, from memory) by 0.143 eV.
+        var built = StructureRecipe.Parse("5 nm InAs / 5 nm GaSb at 0 K").WithSubstrate(Material.GaSb).Build();
+        var w = Assert.Single(built.Warnings, w => w.Kind == ModelWarningKind.BrokenGap);
+        Assert.Equal(-0.03 - (-0.59 + 0.417), w.Value, 1e-12);
+        Assert.DoesNotContain(StructureRecipe.Parse("5 nm GaAs / 5 nm AlAs at 0 K").Build().Warnings, w => w.Kind == ModelWarningKind.BrokenGap);
+    }
+
+    [Fact]
     public void CheckEnergies_FlagsEnergiesFarAboveEdge()
     {
         // Limits: (E − V)/Eg above 0.1 (parabolic) or 0.5 (Kane). GaAs Eg(77 K) ≈ 1.508 eV.
@@ -218,6 +230,36 @@ public sealed class BuiltStructureTest
         var noHoles = StructureRecipe.Create(4).Add(Material.Create("X", 1, 0, 100, 0.05, -0.5, 0.565), Length.FromNanometres(3))
             .WithCarrier(Carrier.LightHole);
         Assert.Contains("light-hole", Assert.Throws<InvalidOperationException>(() => noHoles.Build()).Message, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void ToStack_PeriodsBetweenLeads_FollowChebyshevTransmissionLaw()
+    {
+        // N identical cells between leads of one material: 1/T_N = 1 + (1/T_1 − 1)(sin NKd / sin Kd)²
+        // (Abelès 1950; P. Yeh, Optical Waves in Layered Media, ch. 6; from memory, derived from
+        // M^N = U_{N−1}M − U_{N−2}I). Kd from the engine's band structure of the same cell.
+        var recipe = StructureRecipe.Parse("5 nm GaAs / 2 nm Al0.3Ga0.7As at 77 K");
+        var built = recipe.WithPeriods(10).Build();
+        var stack = built.ToStack(Material.GaAs, Material.GaAs);
+        Assert.Equal(70, stack.ThicknessNanometres, 1e-12);
+        Assert.Equal(0, stack.LeftLead.PotentialElectronVolts);
+        Assert.Equal(0.067, stack.RightLead.MassElectronMasses);
+        Assert.Equal(built.Layers[1].PotentialElectronVolts, built.LeadOf(TernaryAlloy.AlGaAs.At(0.3)).PotentialElectronVolts);
+        var one = StackTransmission.Create(recipe.Build().ToStack(Material.GaAs, Material.GaAs));
+        var ten = StackTransmission.Create(stack);
+        var band = BandStructure.Compute(built.Cell, 1).GetBand(1);
+        foreach (var f in new[] { 0.2, 0.45, 0.7 })
+        {
+            var e = band.BottomElectronVolts + f * band.WidthElectronVolts;
+            var kd = built.Cell.Period.Nanometres * BandStructure.Compute(built.Cell, 1).WavevectorAt(e).RealPerNanometre;
+            var t1 = one.Evaluate(e).Transmission;
+            var ratio = Math.Sin(10 * kd) / Math.Sin(kd);
+            var expected = 1 / (1 + (1 / t1 - 1) * ratio * ratio);
+            // Tolerance 1e-9: both sides are exact formulas evaluated in double precision; ten periods amplify
+            // rounding in T by at most ~1e3.
+            Assert.Equal(expected, ten.Evaluate(e).Transmission, 1e-9);
+        }
+        Assert.Equal("leftLeadMaterial", Assert.Throws<ArgumentNullException>(() => built.ToStack(null!, Material.GaAs)).ParamName);
     }
 
     [Fact]
