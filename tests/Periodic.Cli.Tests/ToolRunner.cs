@@ -18,7 +18,9 @@ internal static class ToolRunner
 
     public static string Example(string name) => Path.Combine(RepositoryRoot, "docs", "examples", "structures", name);
 
-    public static Run Invoke(params string[] args)
+    public static Run Invoke(params string[] args) => Invoke(new Dictionary<string, string>(), args);
+
+    public static Run Invoke(IReadOnlyDictionary<string, string> environment, params string[] args)
     {
         var start = new ProcessStartInfo("dotnet")
         {
@@ -27,6 +29,10 @@ internal static class ToolRunner
             UseShellExecute = false,
             WorkingDirectory = RepositoryRoot,
         };
+        foreach (var (name, value) in environment)
+        {
+            start.Environment[name] = value;
+        }
         start.ArgumentList.Add("exec");
         start.ArgumentList.Add(Path.Combine(AppContext.BaseDirectory, "Periodic.Cli.dll"));
         foreach (var arg in args)

@@ -12,13 +12,15 @@ namespace Periodic.Cli.Output;
 /// </summary>
 internal sealed class Progress : IDisposable
 {
-    private static readonly TimeSpan ShowAfter = TimeSpan.FromSeconds(1);
+    // PERIODIC_PROGRESS_DELAY_MS overrides the one-second delay; the tests use it to see the line on short runs.
+    private static readonly TimeSpan ShowAfter = TimeSpan.FromMilliseconds(
+        int.TryParse(Environment.GetEnvironmentVariable("PERIODIC_PROGRESS_DELAY_MS"), NumberStyles.None, CultureInfo.InvariantCulture, out var ms) ? ms : 1000);
     private static readonly TimeSpan Interval = TimeSpan.FromMilliseconds(200);
     private readonly Stopwatch _clock = Stopwatch.StartNew();
     private readonly string _label;
     private readonly int _total;
     private readonly bool _enabled;
-    private TimeSpan _lastShown = TimeSpan.MinValue;
+    private TimeSpan _lastShown = TimeSpan.Zero;
     private bool _shown;
 
     public Progress(string label, int total)
@@ -35,7 +37,7 @@ internal sealed class Progress : IDisposable
             return;
         }
         var elapsed = _clock.Elapsed;
-        if (elapsed < ShowAfter || elapsed - _lastShown < Interval)
+        if (elapsed < ShowAfter || (_shown && elapsed - _lastShown < Interval))
         {
             return;
         }
