@@ -15,6 +15,27 @@ trap 'rm -rf "$WORK"' EXIT
 step() { printf '\n== %s\n' "$*"; }
 fail() { echo "package-checks: FAILED: $*" >&2; exit 1; }
 
+step "structure schema: valid JSON Schema, every example conforms, a bad file does not"
+python3 - <<'PY' || fail "structure schema"
+import glob, json, sys
+try:
+    import jsonschema
+except ImportError:
+    print("  python3 jsonschema not installed: schema check skipped"); sys.exit(0)
+schema = json.load(open("docs/structure.schema.json", encoding="utf-8"))
+jsonschema.Draft202012Validator.check_schema(schema)
+validator = jsonschema.Draft202012Validator(schema)
+bad = 0
+for path in sorted(glob.glob("docs/examples/structures/*.json")):
+    errors = [e.message for e in validator.iter_errors(json.load(open(path, encoding="utf-8")))]
+    print(f"  {'ok  ' if not errors else 'FAIL'} {path} {errors[:2] if errors else ''}")
+    bad += bool(errors)
+wrong = {"name": "x", "cell": [{"width": "5 parsecs", "potential": 0, "mass": 0.067}]}
+if not list(validator.iter_errors(wrong)):
+    print("  FAIL the schema accepts an unknown unit"); bad += 1
+sys.exit(1 if bad else 0)
+PY
+
 step "pack"
 rm -f "$PKG"/Periodic.*.nupkg "$PKG"/Periodic.*.snupkg "$PKG"/Periodic.Cli.*.nupkg "$PKG"/Periodic.Cli.*.snupkg
 dotnet pack src/Periodic -c Release -v:q -nologo -p:ContinuousIntegrationBuild=true
