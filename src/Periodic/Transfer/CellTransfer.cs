@@ -70,6 +70,10 @@ public sealed class CellTransfer
                     _kinds[i] = ElementKind.Delta;
                     _deltaJumps[i] = delta.StrengthElectronVoltNanometres / C;
                     break;
+                case IMeshedSegment smooth:
+                    _kinds[i] = ElementKind.Segment;
+                    _segments[i] = new MagnusSegmentPropagator(smooth.Mesh);
+                    break;
                 default:
                     throw new ArgumentException(
                         string.Create(CultureInfo.InvariantCulture, $"cell element {i} is of unsupported type {elements[i].GetType().Name}."),
