@@ -231,6 +231,18 @@ internal sealed class BandEdgeFinder
         // Rounding level of D: a few ulps of the largest entry that enters the trace.
         var scale = matrix.Mantissa.MaxAbsEntry * Math.Exp(matrix.LogScale);
         var excess = target > 0 ? value.Trace - 2 : -2 - value.Trace;
+        var product = _transfer.Accumulate(extremum);
+        if (product.LogScale < 700 && NearSignedIdentity(product, Math.Exp(product.LogScale), target, out var shifted, out _))
+        {
+            // |D| − 2 from det(M ∓ I), accurate to ε|M ∓ I| rather than ε|M| (see NearSignedIdentity).
+            var m = matrix.Matrix;
+            var sign = target > 0 ? 1.0 : -1.0;
+            var n = Math.Max(Math.Max(Math.Abs(m.M11 - sign), Math.Abs(m.M22 - sign)), Math.Max(Math.Abs(m.M12), Math.Abs(m.M21)));
+            // A gap the oscillation count cannot resolve (|D| − 2 below the rounding of the trace) stays closed.
+            closed = sign * shifted <= 64 * 2.220446049250313e-16 * Math.Max(n, 2.220446049250313e-16)
+                || excess <= 64 * 2.220446049250313e-16 * Math.Max(scale, 2.0);
+            return true;
+        }
         closed = excess <= 64 * 2.220446049250313e-16 * Math.Max(scale, 2.0);
         return true;
     }
@@ -248,9 +260,37 @@ internal sealed class BandEdgeFinder
                 return trace == 0 ? -target : Math.CopySign(double.PositiveInfinity, trace);
             }
             var scale = Math.Exp(p.LogScale);
+            if (NearSignedIdentity(p, scale, target, out var value, out var slope))
+            {
+                derivative = slope;
+                return value;
+            }
             derivative = (p.D11 + p.D22) * scale;
             return trace * scale - target;
         }
+    }
+
+    /// <summary>
+    /// Near M = ±I (the edges of a narrow gap) D ∓ 2 is a difference of nearly equal numbers with an error
+    /// ε|M| that moves an edge by ε|M|/|D′|, and |D′| shrinks with the gap. Since det M = 1,
+    /// D ∓ 2 = ∓det(M ∓ I) exactly; the determinant of the small matrix N = M ∓ I has an error of only
+    /// ε|N|, which keeps the edges of a narrow gap as accurate as those of a wide one.
+    /// Used when every entry of N is at most 1 in magnitude.
+    /// </summary>
+    internal static bool NearSignedIdentity(in CellTransfer.Product p, double scale, double target, out double value, out double derivative)
+    {
+        var sign = target > 0 ? 1.0 : -1.0;
+        double n11 = p.P11 * scale - sign, n22 = p.P22 * scale - sign, n12 = p.P12 * scale, n21 = p.P21 * scale;
+        if (Math.Max(Math.Max(Math.Abs(n11), Math.Abs(n22)), Math.Max(Math.Abs(n12), Math.Abs(n21))) > 1)
+        {
+            value = 0;
+            derivative = 0;
+            return false;
+        }
+        double d11 = p.D11 * scale, d12 = p.D12 * scale, d21 = p.D21 * scale, d22 = p.D22 * scale;
+        value = -sign * (n11 * n22 - n12 * n21);
+        derivative = -sign * (d11 * n22 + n11 * d22 - d12 * n21 - n12 * d21);
+        return true;
     }
 
     private readonly struct TraceSlope(CellTransfer transfer) : IRealFunction
