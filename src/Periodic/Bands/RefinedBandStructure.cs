@@ -158,11 +158,13 @@ public sealed class RefinedBandStructure
                 previousDifferences[i] = difference;
             }
             current = next;
+            ClosedGapBounds(current, errors);
             if (settled)
             {
                 return new RefinedBandStructure(current, errors, relativeTolerance, level, converged, roundingLimited, steps, scale);
             }
         }
+        ClosedGapBounds(current, errors);
         return new RefinedBandStructure(current, errors, relativeTolerance, maxRefinements, false, false, StepCount(cell), scale);
     }
 
@@ -194,6 +196,38 @@ public sealed class RefinedBandStructure
             return searchError; // a closed gap: the search reports its own bound there
         }
         return root * entries / slope;
+    }
+
+    /// <summary>
+    /// A gap reported closed may be open by less than the trace resolves: |D| − 2 ≤ T = 64ε·max(|M|, 2) at its
+    /// centre. With D ≈ ±2 ± c(E − E₀)² there, its half-width is at most √(T/c); that bound (doubled) is
+    /// added to the edges beside a closed gap. c comes from a central difference of D′.
+    /// </summary>
+    private static void ClosedGapBounds(BandStructure bands, double[] errors)
+    {
+        for (var n = 1; n <= bands.Gaps.Count; n++)
+        {
+            var gap = bands.Gaps[n - 1];
+            if (!gap.IsClosed)
+            {
+                continue;
+            }
+            var centre = 0.5 * (gap.LowerElectronVolts + gap.UpperElectronVolts);
+            var h = Math.Max(1e-6 * Math.Abs(centre), 1e-9);
+            var slopeAbove = bands.Transfer.Dispersion(centre + h).TraceDerivativePerElectronVolt;
+            var slopeBelow = bands.Transfer.Dispersion(centre - h).TraceDerivativePerElectronVolt;
+            var curvature = Math.Abs(slopeAbove - slopeBelow) / (4 * h);
+            var matrix = bands.Transfer.Evaluate(centre);
+            var threshold = 64 * 2.220446049250313e-16 * Math.Max(matrix.Mantissa.MaxAbsEntry * Math.Exp(matrix.LogScale), 2.0);
+            var bound = curvature > 0 ? 2 * Math.Sqrt(threshold / curvature) : Math.Abs(gap.UpperElectronVolts - gap.LowerElectronVolts) + h;
+            foreach (var i in new[] { 2 * n - 1, 2 * n })
+            {
+                if (i < errors.Length)
+                {
+                    errors[i] = Math.Max(errors[i], bound);
+                }
+            }
+        }
     }
 
     private static double Edge(BandStructure bands, int i)
