@@ -237,7 +237,7 @@ internal sealed class BandEdgeFinder
             // |D| − 2 from det(M ∓ I), accurate to ε|M ∓ I| rather than ε|M| (see NearSignedIdentity).
             var m = matrix.Matrix;
             var sign = target > 0 ? 1.0 : -1.0;
-            var n = Math.Max(Math.Max(Math.Abs(m.M11 - sign), Math.Abs(m.M22 - sign)), Math.Max(Math.Abs(m.M12), Math.Abs(m.M21)));
+            var n = Math.Max(Math.Max(Math.Abs(m.M11 - sign), Math.Abs(m.M22 - sign)), Math.Sqrt(Math.Abs(m.M12 * m.M21)));
             // A gap the oscillation count cannot resolve (|D| − 2 below the rounding of the trace) stays closed.
             closed = sign * shifted <= 64 * 2.220446049250313e-16 * Math.Max(n, 2.220446049250313e-16)
                 || excess <= 64 * 2.220446049250313e-16 * Math.Max(scale, 2.0);
@@ -275,13 +275,14 @@ internal sealed class BandEdgeFinder
     /// ε|M| that moves an edge by ε|M|/|D′|, and |D′| shrinks with the gap. Since det M = 1,
     /// D ∓ 2 = ∓det(M ∓ I) exactly; the determinant of the small matrix N = M ∓ I has an error of only
     /// ε|N|, which keeps the edges of a narrow gap as accurate as those of a wide one.
-    /// Used when every entry of N is at most 1 in magnitude.
+    /// Used when |N11|, |N22| and √|N12·N21| are at most 1.
     /// </summary>
     internal static bool NearSignedIdentity(in CellTransfer.Product p, double scale, double target, out double value, out double derivative)
     {
         var sign = target > 0 ? 1.0 : -1.0;
         double n11 = p.P11 * scale - sign, n22 = p.P22 * scale - sign, n12 = p.P12 * scale, n21 = p.P21 * scale;
-        if (Math.Max(Math.Max(Math.Abs(n11), Math.Abs(n22)), Math.Max(Math.Abs(n12), Math.Abs(n21))) > 1)
+        // M12 and M21 carry reciprocal units (mass × length and its inverse): compare their geometric mean.
+        if (Math.Max(Math.Max(Math.Abs(n11), Math.Abs(n22)), Math.Sqrt(Math.Abs(n12 * n21))) > 1)
         {
             value = 0;
             derivative = 0;
