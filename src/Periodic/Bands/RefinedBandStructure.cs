@@ -119,7 +119,10 @@ public sealed class RefinedBandStructure
         var k = cell.ZoneBoundaryPerNanometre;
         var scale = Math.Max(cell.MaximumPotential.ElectronVolts - cell.MinimumPotential.ElectronVolts,
             PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2 * k * k / cell.MinimumMass.ElectronMasses);
-        var options = BandSearchOptions.Create(Math.Min(1e-14, relativeTolerance * 1e-2));
+        // The search must resolve far below the requested tolerance, on the energy scale of this cell (which
+        // for an atom in an optical lattice is ~1e-11 eV, far from the eV default).
+        var options = BandSearchOptions.Create(Math.Min(1e-14, relativeTolerance * 1e-2),
+            Math.Clamp(1e-3 * relativeTolerance * scale, 1e-300, 1.0));
         var current = BandStructure.Compute(cell, count, options);
         if (!cell.Elements.Any(e => e is IMeshedSegment))
         {
@@ -158,13 +161,13 @@ public sealed class RefinedBandStructure
                 previousDifferences[i] = difference;
             }
             current = next;
-            ClosedGapBounds(current, errors);
+            ClosedGapBounds(current, errors, scale);
             if (settled)
             {
                 return new RefinedBandStructure(current, errors, relativeTolerance, level, converged, roundingLimited, steps, scale);
             }
         }
-        ClosedGapBounds(current, errors);
+        ClosedGapBounds(current, errors, scale);
         return new RefinedBandStructure(current, errors, relativeTolerance, maxRefinements, false, false, StepCount(cell), scale);
     }
 
@@ -185,12 +188,13 @@ public sealed class RefinedBandStructure
                 // The edge is found from det(M ∓ I), whose rounding is ε|M ∓ I|.
                 var sign = target > 0 ? 1.0 : -1.0;
                 var n = Math.Max(Math.Max(Math.Abs(product.P11 * scale - sign), Math.Abs(product.P22 * scale - sign)),
-                    Math.Max(Math.Abs(product.P12 * scale), Math.Abs(product.P21 * scale)));
+                    Math.Sqrt(Math.Abs(product.P12 * product.P21)) * scale);
                 return root * Math.Max(n, 2.220446049250313e-16) / Math.Abs(detSlope);
             }
         }
         var slope = Math.Abs(product.D11 + product.D22);
-        var entries = Math.Max(Math.Max(Math.Abs(product.P11), Math.Abs(product.P12)), Math.Max(Math.Abs(product.P21), Math.Abs(product.P22)));
+        // Unit-balanced size of M: M12 and M21 carry reciprocal units.
+        var entries = Math.Max(Math.Max(Math.Abs(product.P11), Math.Abs(product.P22)), Math.Sqrt(Math.Abs(product.P12 * product.P21)));
         if (!(slope > 0))
         {
             return searchError; // a closed gap: the search reports its own bound there
@@ -203,7 +207,7 @@ public sealed class RefinedBandStructure
     /// centre. With D ≈ ±2 ± c(E − E₀)² there, its half-width is at most √(T/c); that bound (doubled) is
     /// added to the edges beside a closed gap. c comes from a central difference of D′.
     /// </summary>
-    private static void ClosedGapBounds(BandStructure bands, double[] errors)
+    private static void ClosedGapBounds(BandStructure bands, double[] errors, double scale)
     {
         for (var n = 1; n <= bands.Gaps.Count; n++)
         {
@@ -213,12 +217,12 @@ public sealed class RefinedBandStructure
                 continue;
             }
             var centre = 0.5 * (gap.LowerElectronVolts + gap.UpperElectronVolts);
-            var h = Math.Max(1e-6 * Math.Abs(centre), 1e-9);
+            var h = 1e-6 * Math.Max(Math.Abs(centre), scale);
             var slopeAbove = bands.Transfer.Dispersion(centre + h).TraceDerivativePerElectronVolt;
             var slopeBelow = bands.Transfer.Dispersion(centre - h).TraceDerivativePerElectronVolt;
             var curvature = Math.Abs(slopeAbove - slopeBelow) / (4 * h);
             var matrix = bands.Transfer.Evaluate(centre);
-            var threshold = 64 * 2.220446049250313e-16 * Math.Max(matrix.Mantissa.MaxAbsEntry * Math.Exp(matrix.LogScale), 2.0);
+            var threshold = 64 * 2.220446049250313e-16 * Math.Max(matrix.Mantissa.MaxAbsEntry * Math.Exp(matrix.LogScale), 2.0); // as the edge finder's closed-gap test
             var bound = curvature > 0 ? 2 * Math.Sqrt(threshold / curvature) : Math.Abs(gap.UpperElectronVolts - gap.LowerElectronVolts) + h;
             foreach (var i in new[] { 2 * n - 1, 2 * n })
             {

@@ -145,6 +145,7 @@ public sealed class PlaneWaveSolver
         Preconditions.CheckRange(relativeTolerance, 1e-15, 1e-2);
         var harmonics = Math.Max(_vCos.Length, _etaCos.Length);
         var n = Math.Max(Math.Max(8, 2 * harmonics), bandCount);
+        // The matrix is solved in units of the energy scale (MathNet's iteration is tuned for entries of order one).
         var previous = Solve(wavevectorPerNanometre, n, bandCount);
         var errors = new double[bandCount];
         while (true)
@@ -178,9 +179,9 @@ public sealed class PlaneWaveSolver
             {
                 double kr = k + (r - cutoff) * g, kc = k + (c - cutoff) * g;
                 var j = r - c;
-                return C * kr * kc * RealCoefficient(_etaConstant, _etaCos, j) + RealCoefficient(_vConstant, _vCos, j);
+                return (C * kr * kc * RealCoefficient(_etaConstant, _etaCos, j) + RealCoefficient(_vConstant, _vCos, j)) / _scale;
             });
-            result = h.Evd(Symmetricity.Symmetric).EigenValues.Select(z => z.Real).ToArray();
+            result = h.Evd(Symmetricity.Symmetric).EigenValues.Select(z => z.Real * _scale).ToArray();
         }
         else
         {
@@ -188,9 +189,9 @@ public sealed class PlaneWaveSolver
             {
                 double kr = k + (r - cutoff) * g, kc = k + (c - cutoff) * g;
                 var j = r - c;
-                return C * kr * kc * ComplexCoefficient(_etaConstant, _etaCos, _etaSin, j) + ComplexCoefficient(_vConstant, _vCos, _vSin, j);
+                return (C * kr * kc * ComplexCoefficient(_etaConstant, _etaCos, _etaSin, j) + ComplexCoefficient(_vConstant, _vCos, _vSin, j)) / _scale;
             });
-            result = h.Evd(Symmetricity.Hermitian).EigenValues.Select(z => z.Real).ToArray();
+            result = h.Evd(Symmetricity.Hermitian).EigenValues.Select(z => z.Real * _scale).ToArray();
         }
         Array.Sort(result);
         return result[..count];

@@ -1,4 +1,5 @@
 using Periodic.Bands;
+using Periodic.PlaneWaves;
 using Periodic.Structures;
 using Periodic.Tests.TestSupport;
 using Periodic.Units;
@@ -11,38 +12,15 @@ public sealed class ScratchTest(ITestOutputHelper output)
     [Fact]
     public void Scratch()
     {
-        var d = Length.FromNanometres(1);
-        var m = EffectiveMass.FreeElectron;
-        var er = FourierSegment.RecoilEnergy(d, m).ElectronVolts;
-        var q = 0.1;
-        var reference = MathieuReference.BandEdges(3, q);
-        output.WriteLine($"ref top3 {reference[5] * er:R} a3 {MathieuReference.A(3, q) * er:R}");
-        foreach (var steps in new[] { 64, 128, 256, 512, 1024, 4096 })
-        {
-            var seg = FourierSegment.Cosine(d, Energy.FromElectronVolts(2 * q * er), m).WithStepCount(steps);
-            var bs = BandStructure.Compute(UnitCell.Create(seg), 3);
-            var b = bs.GetBand(3);
-            output.WriteLine($"{steps}: bottom {b.BottomElectronVolts:R} ({b.BottomErrorElectronVolts:G3}) top {b.TopElectronVolts:R} ({b.TopErrorElectronVolts:G3}) gap {b.GapAboveElectronVolts:G4} next {(b.TopElectronVolts + b.GapAboveElectronVolts):R}");
-        }
-    }
-}
-public sealed class Scratch2Test(ITestOutputHelper output)
-{
-    [Fact]
-    public void Scratch()
-    {
-        var d = Length.FromNanometres(1);
-        var m = EffectiveMass.FreeElectron;
-        var er = FourierSegment.RecoilEnergy(d, m).ElectronVolts;
-        var q = 0.1;
-        var r = RefinedBandStructure.Compute(UnitCell.Create(FourierSegment.Cosine(d, Energy.FromElectronVolts(2 * q * er), m)), 3, 1e-12);
+        var mass = EffectiveMass.FromElectronMasses(86.909 * 1822.888);
+        var d = Length.FromNanometres(532);
+        var er = FourierSegment.RecoilEnergy(d, mass).ElectronVolts;
+        var seg = FourierSegment.OpticalLattice(d, 1, mass);
+        var r = RefinedBandStructure.Compute(UnitCell.Create(seg), 2, 1e-12);
+        var pw = PlaneWaveSolver.Create(seg).EnergiesAt(0, 2);
         output.WriteLine(r.ToString());
-        var reference = MathieuReference.BandEdges(3, q);
-        for (var i = 0; i < 6; i++)
-        {
-            var b = r.Bands.GetBand(i / 2 + 1);
-            var e = i % 2 == 0 ? b.BottomElectronVolts : b.TopElectronVolts;
-            output.WriteLine($"{i}: {e:R} err {r.EdgeErrorsElectronVolts[i]:G3} true {e - reference[i] * er:G3}");
-        }
+        output.WriteLine(pw.ToString());
+        output.WriteLine($"ref {(MathieuReference.A(0, 0.25) + 0.5) * er:R}, tr {r.Bands.GetBand(1).BottomElectronVolts:R} pw {pw.Energies[0]:R} er {er:R}");
+        output.WriteLine($"seg {seg}"); for (var i = 0; i < 4; i++) output.WriteLine($"e{i} {r.EdgeErrorsElectronVolts[i]:G3} {r.Bands.GetBand(i / 2 + 1).BottomErrorElectronVolts:G3} {r.Bands.GetBand(i / 2 + 1).TopErrorElectronVolts:G3} closed {r.Bands.Gaps[i / 2].IsClosed}");
     }
 }
