@@ -22,7 +22,9 @@ namespace Periodic.PlaneWaves;
 /// Hermitian otherwise.</para>
 /// <para>Basis size: N grows (by half, at least 8) until every requested energy changes by at most
 /// relativeTolerance × max(|E|, energy scale) between two sizes; that change is reported as the error
-/// estimate. For a finite Fourier series the energies converge faster than any power of 1/N, so the change
+/// estimate, floored at the eigensolver's rounding level 4ε·‖H‖. When the change reaches that floor
+/// first, the search stops there (a larger basis would only add rounding) and <see cref="PlaneWaveSpectrum.Converged"/>
+/// says whether the tolerance was met. For a finite Fourier series the energies converge faster than any power of 1/N, so the change
 /// bounds the error of the larger basis. The variational principle makes each energy decrease towards its
 /// limit as N grows (the bases are nested).</para>
 /// <para>Position-dependent mass: handled exactly in the BenDaniel–Duke ordering through the Fourier series of
@@ -47,6 +49,8 @@ public sealed class PlaneWaveSolver
     private readonly double[] _etaCos;
     private readonly double[] _etaSin;
     private readonly double _scale;
+    private readonly double _etaMax;
+    private readonly double _vSpread;
 
     private PlaneWaveSolver(double period, double vConstant, double[] vCos, double[] vSin, double etaConstant, double[] etaCos, double[] etaSin)
     {
@@ -58,10 +62,10 @@ public sealed class PlaneWaveSolver
         _etaCos = etaCos;
         _etaSin = etaSin;
         IsRealSymmetric = vSin.All(b => b == 0) && etaSin.All(b => b == 0);
-        var vSpread = 2 * (vCos.Sum(Math.Abs) + vSin.Sum(Math.Abs));
-        var etaMax = etaConstant + etaCos.Sum(Math.Abs) + etaSin.Sum(Math.Abs);
+        _vSpread = 2 * (vCos.Sum(Math.Abs) + vSin.Sum(Math.Abs));
+        _etaMax = etaConstant + etaCos.Sum(Math.Abs) + etaSin.Sum(Math.Abs);
         var k = Math.PI / period;
-        _scale = Math.Max(vSpread, C * k * k * etaMax);
+        _scale = Math.Max(_vSpread, C * k * k * _etaMax);
     }
 
     /// <summary>The period d, nm.</summary>
@@ -152,13 +156,22 @@ public sealed class PlaneWaveSolver
         {
             var next = Math.Min(MaxHarmonicCutoff, n + Math.Max(8, n / 2));
             var current = Solve(wavevectorPerNanometre, next, bandCount);
+            // Rounding of a dense symmetric eigensolver: a small multiple of ε·‖H‖ (backward stable), and ‖H‖
+            // grows like the kinetic energy of the largest plane wave. Once the change between bases is at that level, a
+            // larger basis only adds noise.
+            var kMax = Math.Abs(wavevectorPerNanometre) + next * 2 * Math.PI / _period;
+            var norm = C * kMax * kMax * _etaMax + _vSpread;
+            var rounding = 4 * 2.220446049250313e-16 * norm;
             var converged = true;
+            var roundingLimited = true;
             for (var i = 0; i < bandCount; i++)
             {
-                errors[i] = Math.Abs(current[i] - previous[i]);
+                var change = Math.Abs(current[i] - previous[i]);
+                errors[i] = Math.Max(change, rounding);
                 converged &= errors[i] <= relativeTolerance * Math.Max(Math.Abs(current[i]), _scale);
+                roundingLimited &= change <= rounding;
             }
-            if (converged || next == MaxHarmonicCutoff)
+            if (converged || roundingLimited || next == MaxHarmonicCutoff)
             {
                 return new PlaneWaveSpectrum(wavevectorPerNanometre, current, errors, 2 * next + 1, converged, relativeTolerance);
             }
