@@ -81,11 +81,11 @@ internal sealed class BandEdgeFinder
                 RefineInto(ca + 1, a, b);
                 continue;
             }
-            if (cb - ca == 2 && TrySeparateGapPair(ca, a, b, out var extremum, out var closed))
+            if (cb - ca == 2 && TrySeparateGapPair(ca, a, b, out var extremum, out var closed, out var closedError))
             {
                 if (closed)
                 {
-                    var error = Math.Max(Math.Abs(extremum) * 1e-12, _options.AbsoluteToleranceElectronVolts);
+                    var error = closedError;
                     Store(ca, extremum, error);
                     Store(ca + 1, extremum, error);
                     closedAbove[(ca + 1) / 2] = true;
@@ -212,15 +212,25 @@ internal sealed class BandEdgeFinder
     }
 
     /// <summary>
-    /// Finds the extremum of D between the two edges of one gap. <paramref name="closed"/> is true when
-    /// |D| there exceeds 2 by no more than rounding.
+    /// Finds the extremum of D between the two edges of one gap and decides whether the gap is closed.
+    /// <paramref name="closedError"/> bounds the distance of both edges from the extremum when it is.
     /// </summary>
-    private bool TrySeparateGapPair(int lowerEdge, double a, double b, out double extremum, out bool closed)
+    /// <remarks>
+    /// Near a gap edge pair, D ∓ 2 = ∓det(M ∓ I) exactly (det M = 1). Linearising M(E_m + δ) ≈ M_m + δ·dM/dE
+    /// at the extremum E_m turns the edges into the roots of the quadratic det(η + δA) = 0, η = M_m ∓ I,
+    /// A = dM/dE, whose separation W is the gap width. W inherits only the rounding of the entries of M
+    /// divided by |A|, whereas the value D(E_m) ∓ 2 (the width from it, 2√(excess/|D″/2|), takes the square
+    /// root of that rounding) cannot resolve a gap below √ε relative when rounding accumulates over many
+    /// elements. The gap is closed when W is below the edge tolerance (M = ±I there: coexistence of two
+    /// periodic solutions, Magnus and Winkler, Hill's Equation, 1966, §2.3).
+    /// </remarks>
+    private bool TrySeparateGapPair(int lowerEdge, double a, double b, out double extremum, out bool closed, out double closedError)
     {
         var slope = new TraceSlope(_transfer);
         var result = RootFinding.Brent(ref slope, a, b, _options.AbsoluteToleranceElectronVolts, _options.RelativeTolerance, _options.MaxIterations);
         extremum = result.Root;
         closed = false;
+        closedError = 0;
         if (result.Status != RootStatus.Converged)
         {
             return false;
@@ -228,23 +238,54 @@ internal sealed class BandEdgeFinder
         var value = _transfer.Dispersion(extremum);
         var target = TargetTrace(lowerEdge);
         var matrix = _transfer.Evaluate(extremum);
-        // Rounding level of D: a few ulps of the largest entry that enters the trace.
-        var scale = matrix.Mantissa.MaxAbsEntry * Math.Exp(matrix.LogScale);
-        var excess = target > 0 ? value.Trace - 2 : -2 - value.Trace;
-        var product = _transfer.Accumulate(extremum);
-        if (product.LogScale < 700 && NearSignedIdentity(product, Math.Exp(product.LogScale), target, out var shifted, out _))
+        var tolerance = Math.Max(_options.AbsoluteToleranceElectronVolts, _options.RelativeTolerance * Math.Abs(extremum));
+        var excessOverTarget = target > 0 ? value.Trace - 2 : -2 - value.Trace;
+        if (excessOverTarget > 1e-6)
         {
-            // |D| − 2 from det(M ∓ I), accurate to ε|M ∓ I| rather than ε|M| (see NearSignedIdentity).
-            var m = matrix.Matrix;
-            var sign = target > 0 ? 1.0 : -1.0;
-            var n = Math.Max(Math.Max(Math.Abs(m.M11 - sign), Math.Abs(m.M22 - sign)), Math.Sqrt(Math.Abs(m.M12 * m.M21)));
-            // A gap the oscillation count cannot resolve (|D| − 2 below the rounding of the trace) stays closed.
-            closed = sign * shifted <= 64 * 2.220446049250313e-16 * Math.Max(n, 2.220446049250313e-16)
-                || excess <= 64 * 2.220446049250313e-16 * Math.Max(scale, 2.0);
+            return true; // |D| exceeds 2 far beyond any rounding: an open gap
+        }
+        var width = LinearisedGapWidth(matrix, target);
+        if (double.IsNaN(width))
+        {
+            // No usable linear model (entries beyond the double range, or a degenerate derivative): fall back
+            // on the value, whose rounding level is a few ulps of the largest entry that enters the trace.
+            var scale = matrix.Mantissa.MaxAbsEntry * Math.Exp(matrix.LogScale);
+            closed = excessOverTarget <= 64 * 2.220446049250313e-16 * Math.Max(scale, 2.0);
+            closedError = Math.Max(Math.Abs(extremum) * 1e-12, _options.AbsoluteToleranceElectronVolts);
             return true;
         }
-        closed = excess <= 64 * 2.220446049250313e-16 * Math.Max(scale, 2.0);
+        closed = width <= tolerance;
+        closedError = Math.Max(Math.Max(width, tolerance), result.ErrorBound);
         return true;
+    }
+
+    /// <summary>
+    /// The separation of the roots of det(η + δA) = 0 (see <see cref="TrySeparateGapPair"/>), eV; 0 when the
+    /// quadratic has no real roots (no gap within rounding); NaN when the model cannot be formed.
+    /// </summary>
+    private static double LinearisedGapWidth(Transfer.ScaledTransferMatrix matrix, double target)
+    {
+        if (matrix.LogScale > 600)
+        {
+            return double.NaN;
+        }
+        var scale = Math.Exp(matrix.LogScale);
+        var sign = target > 0 ? 1.0 : -1.0;
+        var m = matrix.Mantissa;
+        var d = matrix.EnergyDerivativeMantissa;
+        double e11 = m.M11 * scale - sign, e12 = m.M12 * scale, e21 = m.M21 * scale, e22 = m.M22 * scale - sign;
+        double a11 = d.M11 * scale, a12 = d.M12 * scale, a21 = d.M21 * scale, a22 = d.M22 * scale;
+        // det(η + δA) = det(A) δ² + (η11 A22 + η22 A11 − η12 A21 − η21 A12) δ + det(η).
+        var quadratic = a11 * a22 - a12 * a21;
+        var linear = e11 * a22 + e22 * a11 - e12 * a21 - e21 * a12;
+        var constant = e11 * e22 - e12 * e21;
+        // At an extremum inside a gap det A > 0 (it is ∓D″/2 there); otherwise the model does not apply.
+        if (!(quadratic > 0) || !double.IsFinite(linear) || !double.IsFinite(constant))
+        {
+            return double.NaN;
+        }
+        var discriminant = linear * linear - 4 * quadratic * constant;
+        return discriminant <= 0 ? 0.0 : Math.Sqrt(discriminant) / quadratic;
     }
 
     private readonly struct TraceMinusTarget(CellTransfer transfer, double target) : IDifferentiableFunction
@@ -275,14 +316,14 @@ internal sealed class BandEdgeFinder
     /// ε|M| that moves an edge by ε|M|/|D′|, and |D′| shrinks with the gap. Since det M = 1,
     /// D ∓ 2 = ∓det(M ∓ I) exactly; the determinant of the small matrix N = M ∓ I has an error of only
     /// ε|N|, which keeps the edges of a narrow gap as accurate as those of a wide one.
-    /// Used when |N11|, |N22| and √|N12·N21| are at most 1.
+    /// Used when |N11|, |N22| and √|N12·N21| are at most 0.1 (elsewhere the trace is as good).
     /// </summary>
     internal static bool NearSignedIdentity(in CellTransfer.Product p, double scale, double target, out double value, out double derivative)
     {
         var sign = target > 0 ? 1.0 : -1.0;
         double n11 = p.P11 * scale - sign, n22 = p.P22 * scale - sign, n12 = p.P12 * scale, n21 = p.P21 * scale;
         // M12 and M21 carry reciprocal units (mass × length and its inverse): compare their geometric mean.
-        if (Math.Max(Math.Max(Math.Abs(n11), Math.Abs(n22)), Math.Sqrt(Math.Abs(n12 * n21))) > 1)
+        if (Math.Max(Math.Max(Math.Abs(n11), Math.Abs(n22)), Math.Sqrt(Math.Abs(n12 * n21))) > 0.1)
         {
             value = 0;
             derivative = 0;

@@ -209,13 +209,15 @@ public sealed class BandStructure
 
     private double ReducedPhase(double k, int index = -1)
     {
-        var name = index < 0 ? "wavevectorPerNanometre" : string.Create(CultureInfo.InvariantCulture, $"wavevectorsPerNanometre[{index}]");
         var d = PeriodNanometres;
         var phase = Math.Abs(k) * d;
         // A wavevector computed as π/d by the caller may differ from ours by an ulp or two.
         if (!(phase <= Math.PI * (1 + 8 * 2.220446049250313e-16)))
         {
-            throw new ArgumentOutOfRangeException(name, k,
+            // ParamName is the real parameter; the message names the element of a span.
+            var paramName = index < 0 ? "wavevectorPerNanometre" : "wavevectorsPerNanometre";
+            var name = index < 0 ? paramName : string.Create(CultureInfo.InvariantCulture, $"wavevectorsPerNanometre[{index}]");
+            throw new ArgumentOutOfRangeException(paramName, k,
                 $"{name} must be a finite wavevector in the first Brillouin zone [-pi/d, pi/d] = [-{Preconditions.Format(Math.PI / d)}, {Preconditions.Format(Math.PI / d)}] 1/nm; got {Preconditions.Format(k)}.");
         }
         return Math.Min(phase, Math.PI);

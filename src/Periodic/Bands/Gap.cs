@@ -29,7 +29,7 @@ public readonly record struct Gap
     public double WidthElectronVolts => UpperElectronVolts - LowerElectronVolts;
 
     /// <summary>
-    /// True when the two edges coincide within the resolution of double precision (a degenerate edge,
+    /// True when the two edges coincide within the edge tolerance of the search (a degenerate edge,
     /// as in a free particle or at special Kronig–Penney widths).
     /// </summary>
     public bool IsClosed { get; }

@@ -201,23 +201,7 @@ public sealed class CellTransfer
                     LayerMatrix(i, e, out var m11, out var m12, out var m21, out var m22, out var d11, out var d12, out var d21, out var d22, out var l, out var s, out var mass);
                     var u1 = m11 * u + m12 * w;
                     var w1 = m21 * u + m22 * w;
-                    var theta = s > 0 ? Math.Sqrt(s) * _widths[i] : 0;
-                    if (theta < Math.PI)
-                    {
-                        // At most one zero in (0, w]: a sign change of u (a zero at the far end counts).
-                        if (u != 0 && (u1 == 0 || (u1 < 0) != (u < 0)))
-                        {
-                            zeros++;
-                        }
-                    }
-                    else
-                    {
-                        var k = Math.Sqrt(s);
-                        var phi0 = Math.Atan2(u, mass * w / k);
-                        var phiEnd = Math.Atan2(u1, mass * w1 / k);
-                        var turns = Math.Round((phi0 + theta - phiEnd) / (2 * Math.PI));
-                        zeros += FloorQuadrant(u1, w1) + 2 * (int)turns - FloorQuadrant(u, w);
-                    }
+                    zeros += LayerZeros(u, w, u1, w1, s, _widths[i], mass);
                     u = u1;
                     w = w1;
                     product.ApplyLeft(m11, m12, m21, m22, d11, d12, d21, d22, l);
@@ -240,6 +224,26 @@ public sealed class CellTransfer
         traceMantissa = product.P11 + product.P22;
         traceLogScale = product.LogScale;
         return zeros;
+    }
+
+    /// <summary>
+    /// Zeros of ψ in (0, width] of a uniform layer with wavenumber squared <paramref name="s"/> and mass
+    /// <paramref name="mass"/>, given the state (u, w) at its start and (u1, w1) at its end (a zero at the far
+    /// end counts, one at the start does not).
+    /// </summary>
+    internal static int LayerZeros(double u, double w, double u1, double w1, double s, double width, double mass)
+    {
+        var theta = s > 0 ? Math.Sqrt(s) * width : 0;
+        if (theta < Math.PI)
+        {
+            // At most one zero in (0, w]: a sign change of u (a zero at the far end counts).
+            return u != 0 && (u1 == 0 || (u1 < 0) != (u < 0)) ? 1 : 0;
+        }
+        var k = Math.Sqrt(s);
+        var phi0 = Math.Atan2(u, mass * w / k);
+        var phiEnd = Math.Atan2(u1, mass * w1 / k);
+        var turns = Math.Round((phi0 + theta - phiEnd) / (2 * Math.PI));
+        return FloorQuadrant(u1, w1) + 2 * (int)turns - FloorQuadrant(u, w);
     }
 
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
@@ -305,17 +309,20 @@ public sealed class CellTransfer
 
     private void CheckEnergy(double energyElectronVolts, int index = -1)
     {
-        var name = index < 0 ? "energyElectronVolts" : string.Create(CultureInfo.InvariantCulture, $"energiesElectronVolts[{index}]");
+        if (double.IsFinite(energyElectronVolts) && energyElectronVolts > LowestValidEnergyElectronVolts)
+        {
+            return;
+        }
+        // ParamName is the real parameter; the message names the element of a span.
+        var paramName = index < 0 ? "energyElectronVolts" : "energiesElectronVolts";
+        var name = index < 0 ? paramName : string.Create(CultureInfo.InvariantCulture, $"energiesElectronVolts[{index}]");
         if (!double.IsFinite(energyElectronVolts))
         {
-            throw new ArgumentOutOfRangeException(name, energyElectronVolts,
+            throw new ArgumentOutOfRangeException(paramName, energyElectronVolts,
                 $"{name} must be a finite energy in eV; got {Preconditions.Format(energyElectronVolts)}.");
         }
-        if (energyElectronVolts <= LowestValidEnergyElectronVolts)
-        {
-            throw new ArgumentOutOfRangeException(name, energyElectronVolts,
-                $"{name} must exceed {Preconditions.Format(LowestValidEnergyElectronVolts)} eV, below which a non-parabolic mass m(E) = m(1 + a(E - V)) would not be positive; got {Preconditions.Format(energyElectronVolts)}.");
-        }
+        throw new ArgumentOutOfRangeException(paramName, energyElectronVolts,
+            $"{name} must exceed {Preconditions.Format(LowestValidEnergyElectronVolts)} eV, below which a non-parabolic mass m(E) = m(1 + a(E - V)) would not be positive; got {Preconditions.Format(energyElectronVolts)}.");
     }
 
     /// <summary>

@@ -4,10 +4,11 @@
 using Periodic.Bands;
 using Periodic.Structures;
 using Periodic.Units;
+using Xunit.Abstractions;
 
 namespace Periodic.Tests.Bands;
 
-public sealed class BandStructureTest
+public sealed partial class BandStructureTest(ITestOutputHelper output)
 {
     private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
 

@@ -1,0 +1,212 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.Globalization;
+using Periodic.Bands;
+using Periodic.Units;
+
+namespace Periodic.Properties;
+
+public sealed partial class BandProperties
+{
+    /// <summary>
+    /// The group velocity v = (1/ħ) dE/dk of band <paramref name="bandIndex"/> at Bloch wavevector
+    /// <paramref name="wavevectorPerNanometre"/> in [−π/d, π/d].
+    /// </summary>
+    /// <remarks>
+    /// <para>Method: differentiating the Bloch condition cos(kd) = D(E)/2 gives
+    /// dE/dk = −2d·sin(kd)/D′(E) exactly, with D′ the exact energy derivative of the trace (F. Bloch,
+    /// Z. Phys. 52, 555 (1929); N. W. Ashcroft and N. D. Mermin, Solid State Physics, ch. 8). E(−k) = E(k), so
+    /// the velocity is odd in k.</para>
+    /// <para>At a zone point (k = 0 or ±π/d) the velocity is exactly 0 at an open gap. At a closed gap
+    /// (the two bands cross linearly) it is the one-sided limit from inside the zone, taken towards
+    /// k ≥ 0: |dE/dk| of the crossing, positive in odd bands, negative in even bands. Within 1e-8 of
+    /// the band width of a closed gap the local expansion E = E₀ + a q + b q² is used; the relative accuracy
+    /// there is about 1e-8 instead of rounding level.</para>
+    /// </remarks>
+    /// <exception cref="ArgumentOutOfRangeException">No such band, or k is not finite or outside the first zone.</exception>
+    public GroupVelocity GroupVelocityAt(int bandIndex, double wavevectorPerNanometre)
+    {
+        CheckBand(bandIndex);
+        var phase = Phase(wavevectorPerNanometre, nameof(wavevectorPerNanometre));
+        var energy = _structure.EnergyAt(bandIndex, wavevectorPerNanometre);
+        var slope = SlopeAtPhase(bandIndex, phase, energy) * (wavevectorPerNanometre < 0 ? -1.0 : 1.0);
+        return new GroupVelocity(bandIndex, wavevectorPerNanometre, energy, slope);
+    }
+
+    /// <summary>
+    /// The group velocity of the Bloch state with k ≥ 0 at energy <paramref name="energyElectronVolts"/>:
+    /// positive in odd bands (E rises from the zone centre), negative in even bands.
+    /// </summary>
+    /// <remarks>Method as for <see cref="GroupVelocityAt"/>, with sin(kd) = √(4 − D²)/2. At an exact open band edge
+    /// the velocity is 0; an energy exactly at a closed gap belongs to the upper of the two bands.</remarks>
+    /// <exception cref="ArgumentOutOfRangeException">The energy is not finite, outside the computed range, or in a gap.</exception>
+    public GroupVelocity GroupVelocityAtEnergy(double energyElectronVolts)
+    {
+        var (index, inBand) = Locate(energyElectronVolts, nameof(energyElectronVolts));
+        if (!inBand)
+        {
+            throw new ArgumentOutOfRangeException(nameof(energyElectronVolts), energyElectronVolts, string.Create(CultureInfo.InvariantCulture,
+                $"energyElectronVolts = {Format(energyElectronVolts)} eV lies in {(index == 0 ? "the region below the first band" : $"gap {index}")}, where no propagating state exists; allowed are energies inside a band."));
+        }
+        var value = _transfer.Dispersion(energyElectronVolts);
+        var k = value.Wavevector.RealPerNanometre;
+        var phase = k * _d;
+        return new GroupVelocity(index, k, energyElectronVolts, SlopeAtPhase(index, phase, energyElectronVolts, fromTrace: true));
+    }
+
+    /// <summary>
+    /// Effectively computes <c>destination[i] = dE/dk</c> (eV·nm) of band <paramref name="bandIndex"/> at
+    /// <c>wavevectorsPerNanometre[i]</c>, as <see cref="GroupVelocityAt"/>; does not allocate.
+    /// </summary>
+    /// <exception cref="ArgumentException">The destination is shorter than the input, or a wavevector is outside the first zone.</exception>
+    public void SlopesAt(int bandIndex, ReadOnlySpan<double> wavevectorsPerNanometre, Span<double> destinationElectronVoltNanometres)
+    {
+        CheckBand(bandIndex);
+        Preconditions.CheckDestination(wavevectorsPerNanometre.Length, destinationElectronVoltNanometres.Length, nameof(wavevectorsPerNanometre), nameof(destinationElectronVoltNanometres));
+        for (var i = 0; i < wavevectorsPerNanometre.Length; i++)
+        {
+            var k = wavevectorsPerNanometre[i];
+            var phase = Phase(k, string.Create(CultureInfo.InvariantCulture, $"wavevectorsPerNanometre[{i}]"));
+            var energy = _structure.EnergyAt(bandIndex, Math.Min(phase / _d, Math.PI / _d));
+            destinationElectronVoltNanometres[i] = SlopeAtPhase(bandIndex, phase, energy) * (k < 0 ? -1.0 : 1.0);
+        }
+    }
+
+    /// <summary>
+    /// Effectively computes <c>destination[i] = v</c> (m/s) of band <paramref name="bandIndex"/> at
+    /// <c>wavevectorsPerNanometre[i]</c>, as <see cref="GroupVelocityAt"/>; does not allocate.
+    /// </summary>
+    /// <exception cref="ArgumentException">The destination is shorter than the input, or a wavevector is outside the first zone.</exception>
+    public void GroupVelocitiesAt(int bandIndex, ReadOnlySpan<double> wavevectorsPerNanometre, Span<double> destinationMetresPerSecond)
+    {
+        SlopesAt(bandIndex, wavevectorsPerNanometre, destinationMetresPerSecond);
+        for (var i = 0; i < wavevectorsPerNanometre.Length; i++)
+        {
+            destinationMetresPerSecond[i] *= GroupVelocity.MetresPerSecondPerElectronVoltNanometre;
+        }
+    }
+
+    /// <summary>dE/dk (eV·nm) of band n for k ≥ 0 at Bloch phase θ = kd ∈ [0, π] and energy E = E_n(k).</summary>
+    private double SlopeAtPhase(int bandIndex, double phase, double energy, bool fromTrace = false)
+    {
+        var parity = bandIndex % 2 == 1 ? 1.0 : -1.0;
+        if (phase == 0 || phase == Math.PI)
+        {
+            var edge = (phase == 0) == (bandIndex % 2 == 1) ? _bottoms[bandIndex - 1] : _tops[bandIndex - 1];
+            if (!edge.Closed)
+            {
+                return 0.0;
+            }
+            ThrowIfNoCrossing(edge, "The group velocity");
+            return parity * edge.CrossingSlope;
+        }
+        if (NearClosedEdge(bandIndex, energy, fromTrace ? ClosedGapWindowFromTrace : ClosedGapWindowFromPhase, out var closed, out var offset))
+        {
+            ThrowIfNoCrossing(closed, "The group velocity");
+            // dE/dq = a + 2bq with q ≈ δ/a along the smooth extended-zone crossing.
+            return parity * (closed.CrossingSlope + 2 * closed.CrossingCurvature * offset / closed.CrossingSlope);
+        }
+        var slope = _transfer.Dispersion(energy).TraceDerivativePerElectronVolt;
+        var value = -2 * _d * Math.Sin(phase) / slope;
+        return double.IsFinite(value) ? value : 0.0; // |D′| = ∞ only beyond the double range: a flat band
+    }
+
+    /// <summary>
+    /// The effective mass at the bottom of band <paramref name="bandIndex"/> (positive), from D′(E) alone.
+    /// </summary>
+    /// <remarks>
+    /// <para>Method: near an edge E₀ with D(E₀) = 2σ (σ = +1 at the zone centre, −1 at the boundary),
+    /// D ≈ 2σ + D′(E₀)(E − E₀) and cos(qd) ≈ 1 − (qd)²/2 for the offset q from the zone point, so
+    /// E − E₀ = −σ(qd)²/D′ and m*/m₀ = −σ (ħ²/2m₀) D′(E₀)/d². For the Dirac comb this reproduces
+    /// m*/m = −P/(nπ)² at the band tops (Kittel's form of the comb).</para>
+    /// <para>At a closed gap D′(E₀) = 0 and the two bands cross smoothly; the mass returned is then
+    /// the curvature mass ħ²/(d²E/dq²) of the smooth extended-zone band through the crossing, the same
+    /// for both bands (from D″ and D‴: m*/m₀ = 3(ħ²/2m₀)D″²/(σ D‴ d²)); for a free particle it is the
+    /// particle's mass. <see cref="BandEdgeMass.IsClosedGap"/> says which case applies.</para>
+    /// </remarks>
+    /// <exception cref="ArgumentOutOfRangeException">No such band.</exception>
+    public BandEdgeMass BottomMass(int bandIndex)
+    {
+        CheckBand(bandIndex);
+        var band = _structure.GetBand(bandIndex);
+        return EdgeMass(bandIndex, BandEdge.Bottom, band.BottomZonePoint, _bottoms[bandIndex - 1]);
+    }
+
+    /// <summary>The effective mass at the top of band <paramref name="bandIndex"/> (negative); method as <see cref="BottomMass"/>.</summary>
+    /// <exception cref="ArgumentOutOfRangeException">No such band.</exception>
+    public BandEdgeMass TopMass(int bandIndex)
+    {
+        CheckBand(bandIndex);
+        var band = _structure.GetBand(bandIndex);
+        return EdgeMass(bandIndex, BandEdge.Top, band.TopZonePoint, _tops[bandIndex - 1]);
+    }
+
+    private BandEdgeMass EdgeMass(int bandIndex, BandEdge which, ZonePoint point, EdgeData edge)
+    {
+        double mass;
+        if (edge.Closed)
+        {
+            ThrowIfNoCrossing(edge, "The effective mass");
+            mass = edge.CrossingCurvature == 0 ? double.PositiveInfinity : C / edge.CrossingCurvature;
+        }
+        else
+        {
+            mass = -edge.Sigma * C * edge.TraceSlope / (_d * _d);
+        }
+        return new BandEdgeMass(bandIndex, which, point, edge.Energy, mass, edge.Closed);
+    }
+
+    /// <summary>
+    /// The curvature mass m* = ħ²/(d²E/dk²) in m₀ of band <paramref name="bandIndex"/> at
+    /// <paramref name="wavevectorPerNanometre"/>: positive where the band curves up, negative where it
+    /// curves down, ±∞ at an inflection point.
+    /// </summary>
+    /// <remarks>
+    /// Method: differentiating dE/dk = −2d sin(kd)/D′ once more gives, exactly,
+    /// d²E/dk² = −2d² cos(kd)/D′ − 4d² sin²(kd)·D″/D′³, with D′ and D″ exact (Taylor-mode
+    /// propagation of the cell's transfer matrix, see the user guide). At a zone point this reduces to the
+    /// band-edge mass (<see cref="BottomMass"/>); at a closed gap, to the mass of the smooth crossing.
+    /// Supported for cells of uniform layers and delta barriers.
+    /// </remarks>
+    /// <exception cref="ArgumentOutOfRangeException">No such band, or k outside the first zone.</exception>
+    /// <exception cref="NotSupportedException">The cell holds an element other than a uniform layer or a delta barrier.</exception>
+    public double CurvatureMassElectronMasses(int bandIndex, double wavevectorPerNanometre)
+    {
+        CheckBand(bandIndex);
+        var phase = Phase(wavevectorPerNanometre, nameof(wavevectorPerNanometre));
+        var energy = _structure.EnergyAt(bandIndex, wavevectorPerNanometre);
+        var curvature = CurvatureAtPhase(bandIndex, phase, energy);
+        return curvature == 0 ? double.PositiveInfinity : 2 * C / curvature;
+    }
+
+    /// <summary>d²E/dk² in eV·nm² at Bloch phase θ ∈ [0, π], energy E = E_n(θ/d).</summary>
+    private double CurvatureAtPhase(int bandIndex, double phase, double energy)
+    {
+        if (phase == 0 || phase == Math.PI)
+        {
+            var edge = (phase == 0) == (bandIndex % 2 == 1) ? _bottoms[bandIndex - 1] : _tops[bandIndex - 1];
+            if (edge.Closed)
+            {
+                ThrowIfNoCrossing(edge, "The curvature mass");
+                return 2 * edge.CrossingCurvature;
+            }
+            return -2 * _d * _d * edge.Sigma / edge.TraceSlope;
+        }
+        if (NearClosedEdge(bandIndex, energy, ClosedGapWindowFromPhase, out var closed, out _))
+        {
+            ThrowIfNoCrossing(closed, "The curvature mass");
+            return 2 * closed.CrossingCurvature;
+        }
+        if (!DispersionDerivatives.Supports(_structure.Cell))
+        {
+            throw DispersionDerivatives.Unsupported("The curvature mass");
+        }
+        var jet = DispersionDerivatives.Evaluate(_structure.Cell, energy);
+        var scale = jet.Scale;
+        var (sin, cos) = Math.SinCos(phase);
+        var d1 = jet.D1;
+        var value = -2 * _d * _d * cos / (d1 * scale) - 4 * _d * _d * sin * sin * jet.D2 / (d1 * d1 * d1 * scale * scale);
+        return double.IsFinite(value) ? value : 0.0;
+    }
+}

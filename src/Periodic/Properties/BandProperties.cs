@@ -1,0 +1,215 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.Globalization;
+using Periodic.Bands;
+using Periodic.Transfer;
+using Periodic.Units;
+
+namespace Periodic.Properties;
+
+/// <summary>
+/// Quantities derived from the exact dispersion cos(kd) = D(E)/2 of a computed
+/// <see cref="BandStructure"/>: group velocity, effective masses, density of states (1D and
+/// superlattice), integrated density of states and carrier densities. Immutable and thread-safe;
+/// create once per band structure and query freely.
+/// </summary>
+/// <remarks>
+/// <para>Everything here follows from D(E) = Tr M(E) and its exact energy derivatives (the core's
+/// product-rule derivative D′, and Taylor-mode derivatives D″, D‴ for curvatures and closed gaps),
+/// never from finite differences of E(k).</para>
+/// <para>Energy arguments must lie below the bottom of the first band that was not computed
+/// (top of the highest computed band plus the gap above it), so that every band edge involved is known.</para>
+/// <para>The model is the single-band envelope-function approximation of the cell: treat band offsets
+/// and masses as uncertain inputs and confirm design-critical numbers against measurement.</para>
+/// </remarks>
+public sealed partial class BandProperties
+{
+    private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
+
+    /// <summary>
+    /// Half-width, in units of the band width, of the window around a closed gap inside which the local
+    /// expansion E = E₀ + a q + b q² replaces a 0/0 ratio, for quantities computed from √(4 − D²): there the
+    /// ratio loses ε/δ² relatively and the expansion δ², balanced at δ = ε^¼ ≈ 1e-4 (both ≈ 1e-8).
+    /// </summary>
+    private const double ClosedGapWindowFromTrace = 1e-4;
+
+    /// <summary>
+    /// As <see cref="ClosedGapWindowFromTrace"/> for quantities computed from the exact k (D′/sin kd: ε/δ
+    /// against δ for the curvature), balanced at δ = √ε ≈ 1e-8.
+    /// </summary>
+    private const double ClosedGapWindowFromPhase = 1e-8;
+
+    private readonly BandStructure _structure;
+    private readonly CellTransfer _transfer;
+    private readonly double _d;
+    private readonly EdgeData[] _bottoms;
+    private readonly EdgeData[] _tops;
+    private readonly double _upperLimit;
+
+    private BandProperties(BandStructure structure)
+    {
+        _structure = structure;
+        _transfer = structure.Transfer;
+        _d = structure.PeriodNanometres;
+        var count = structure.Bands.Count;
+        _bottoms = new EdgeData[count];
+        _tops = new EdgeData[count];
+        for (var i = 0; i < count; i++)
+        {
+            var band = structure.Bands[i];
+            var closedBelow = i > 0 && structure.Gaps[i - 1].IsClosed;
+            var closedAbove = structure.Gaps[i].IsClosed;
+            _bottoms[i] = MakeEdge(band.BottomElectronVolts, band.BottomZonePoint, closedBelow);
+            _tops[i] = MakeEdge(band.TopElectronVolts, band.TopZonePoint, closedAbove);
+        }
+        var last = structure.Bands[count - 1];
+        _upperLimit = last.TopElectronVolts + last.GapAboveElectronVolts;
+    }
+
+    /// <summary>The band structure these properties derive from.</summary>
+    public BandStructure Structure => _structure;
+
+    /// <summary>The period d, nm.</summary>
+    public double PeriodNanometres => _d;
+
+    /// <summary>
+    /// The highest energy (eV) accepted by the energy-based methods: the bottom of the first band
+    /// above those computed.
+    /// </summary>
+    public double UpperEnergyLimitElectronVolts => _upperLimit;
+
+    /// <summary>Prepares the derived quantities of <paramref name="structure"/> (evaluates D′ at every band edge).</summary>
+    /// <exception cref="ArgumentNullException"><paramref name="structure"/> is null.</exception>
+    public static BandProperties Create(BandStructure structure)
+    {
+        ArgumentNullException.ThrowIfNull(structure);
+        return new BandProperties(structure);
+    }
+
+    /// <summary>What is known about one band edge.</summary>
+    private readonly struct EdgeData
+    {
+        internal EdgeData(double energy, double sigma, double slope, bool closed, double crossingSlope, double crossingCurvature)
+        {
+            Energy = energy;
+            Sigma = sigma;
+            TraceSlope = slope;
+            Closed = closed;
+            CrossingSlope = crossingSlope;
+            CrossingCurvature = crossingCurvature;
+        }
+
+        internal double Energy { get; }
+
+        /// <summary>D(E0)/2: +1 at the zone centre, −1 at the boundary.</summary>
+        internal double Sigma { get; }
+
+        /// <summary>D′(E0), 1/eV.</summary>
+        internal double TraceSlope { get; }
+
+        internal bool Closed { get; }
+
+        /// <summary>Closed gap: a = |dE/dq| of the smooth crossing E = E0 + a q + b q², eV·nm.</summary>
+        internal double CrossingSlope { get; }
+
+        /// <summary>Closed gap: b (eV·nm²), so d²E/dk² = 2b.</summary>
+        internal double CrossingCurvature { get; }
+    }
+
+    private EdgeData MakeEdge(double energy, ZonePoint point, bool closed)
+    {
+        var sigma = point == ZonePoint.Center ? 1.0 : -1.0;
+        var slope = _transfer.Dispersion(energy).TraceDerivativePerElectronVolt;
+        if (!closed)
+        {
+            return new EdgeData(energy, sigma, slope, false, 0, 0);
+        }
+        if (!DispersionDerivatives.Supports(_structure.Cell))
+        {
+            return new EdgeData(energy, sigma, slope, true, double.NaN, double.NaN);
+        }
+        // Near a closed gap D − 2σ = (D″/2)δ² + (D‴/6)δ³ and D/2 = σ cos(qd) with q the extended-zone
+        // offset; matching orders with δ = a q + b q² gives a² = −2σd²/D″ and b = σ D‴ d² / (3 D″²).
+        var jet = DispersionDerivatives.Evaluate(_structure.Cell, energy);
+        var d2 = jet.D2; // the common scale cancels in both ratios below
+        var d3 = jet.D3;
+        var a2 = -2 * sigma * _d * _d / (d2 * jet.Scale);
+        var a = a2 > 0 && double.IsFinite(a2) ? Math.Sqrt(a2) : 0.0;
+        var b = sigma * d3 * _d * _d / (3 * d2 * d2 * jet.Scale);
+        if (!double.IsFinite(b))
+        {
+            b = 0;
+        }
+        return new EdgeData(energy, sigma, slope, true, a, b);
+    }
+
+    private static string Format(double value) => Preconditions.Format(value);
+
+    /// <summary>Where an energy lies: band n (1-based) or gap n (0 below the first band).</summary>
+    private (int Index, bool InBand) Locate(double energy, string paramName)
+    {
+        if (!double.IsFinite(energy) || energy <= _transfer.LowestValidEnergyElectronVolts || energy > _upperLimit)
+        {
+            throw new ArgumentOutOfRangeException(paramName, energy, string.Create(CultureInfo.InvariantCulture,
+                $"{paramName} must be a finite energy above {Format(_transfer.LowestValidEnergyElectronVolts)} eV and at most {Format(_upperLimit)} eV (the bottom of band {_bottoms.Length + 1}, the first band not computed); got {Format(energy)}. Compute more bands to go higher."));
+        }
+        // Largest n with bottom_n ≤ E.
+        int lo = 0, hi = _bottoms.Length - 1, found = -1;
+        while (lo <= hi)
+        {
+            var mid = (lo + hi) >> 1;
+            if (_bottoms[mid].Energy <= energy)
+            {
+                found = mid;
+                lo = mid + 1;
+            }
+            else
+            {
+                hi = mid - 1;
+            }
+        }
+        if (found < 0)
+        {
+            return (0, false);
+        }
+        return energy <= _tops[found].Energy ? (found + 1, true) : (found + 1, false);
+    }
+
+    private int CheckBand(int bandIndex) => Preconditions.CheckRange(bandIndex, 1, _bottoms.Length);
+
+    /// <summary>Reduces k to the Bloch phase |k|d in [0, π]; throws outside the first zone.</summary>
+    private double Phase(double k, string paramName)
+    {
+        var phase = Math.Abs(k) * _d;
+        if (!(phase <= Math.PI * (1 + 8 * 2.220446049250313e-16)))
+        {
+            throw new ArgumentOutOfRangeException(paramName, k,
+                $"{paramName} must be a finite wavevector in the first Brillouin zone [-pi/d, pi/d] = [-{Format(Math.PI / _d)}, {Format(Math.PI / _d)}] 1/nm; got {Format(k)}.");
+        }
+        return Math.Min(phase, Math.PI);
+    }
+
+    /// <summary>The closed-gap edge of band n within the expansion window of <paramref name="energy"/>, if any.</summary>
+    private bool NearClosedEdge(int bandIndex, double energy, double relativeWindow, out EdgeData edge, out double offset)
+    {
+        var window = relativeWindow * Math.Max(_tops[bandIndex - 1].Energy - _bottoms[bandIndex - 1].Energy, 1e-300);
+        edge = _tops[bandIndex - 1];
+        offset = energy - edge.Energy;
+        if (edge.Closed && Math.Abs(offset) <= window)
+        {
+            return true;
+        }
+        edge = _bottoms[bandIndex - 1];
+        offset = energy - edge.Energy;
+        return edge.Closed && Math.Abs(offset) <= window;
+    }
+
+    private static void ThrowIfNoCrossing(EdgeData edge, string what)
+    {
+        if (double.IsNaN(edge.CrossingSlope))
+        {
+            throw DispersionDerivatives.Unsupported(what + " at a closed gap");
+        }
+    }
+}

@@ -1,0 +1,238 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.Collections.ObjectModel;
+using System.Globalization;
+using System.Text;
+using Periodic.Numerics;
+using Periodic.Structures;
+using Periodic.Transfer;
+
+namespace Periodic.Stacks;
+
+/// <summary>
+/// The bound states of a finite stack: every level below both lead band edges, found with a proof of
+/// completeness, and their wavefunctions on request. Immutable and thread-safe.
+/// </summary>
+/// <remarks>
+/// <para>Method: the number of levels below an energy E equals the number of zeros, on the whole line,
+/// of the solution that decays into the left lead (Sturm oscillation theorem for −C(ψ′/m)′ + Vψ = Eψ;
+/// e.g. G. Teschl, Ordinary Differential Equations and Dynamical Systems, AMS 2012, ch. 5; B. Simon,
+/// "Sturm oscillation and comparison theorems", in Sturm–Liouville Theory: Past and Present, Birkhäuser
+/// 2005). Zeros are counted layer by layer with the core's Prüfer-angle count, and the zero beyond the
+/// last interface from the sign of the growing tail. Bisection on this count isolates every level in
+/// its own bracket, so none is missed; each is then refined by Brent's method (R. P. Brent, 1973) on the
+/// normalised coefficient of the growing tail in the right lead, which changes sign exactly once in the
+/// bracket.</para>
+/// <para>The count is proven for parabolic layers. With non-parabolic masses the equation becomes
+/// nonlinear in E and the count is used as it stands.</para>
+/// </remarks>
+public sealed class BoundStateSpectrum
+{
+    private readonly StackProfile _profile;
+    private readonly BoundLevel[] _levels;
+
+    private BoundStateSpectrum(StackProfile profile, BoundLevel[] levels, int totalCount, double lower, double upper, BoundStateOptions options)
+    {
+        _profile = profile;
+        _levels = levels;
+        Levels = new ReadOnlyCollection<BoundLevel>(levels);
+        TotalCount = totalCount;
+        LowerBoundElectronVolts = lower;
+        ContinuumEdgeElectronVolts = upper;
+        Options = options;
+    }
+
+    /// <summary>The stack.</summary>
+    public LayerStack Stack => _profile.Stack;
+
+    /// <summary>The levels found, lowest first (at most <see cref="BoundStateOptions.MaxLevels"/>).</summary>
+    public IReadOnlyList<BoundLevel> Levels { get; }
+
+    /// <summary>How many bound states the stack has in all (the oscillation count at the continuum edge).</summary>
+    public int TotalCount { get; }
+
+    /// <summary>The energy below which the count proved there is no level, eV.</summary>
+    public double LowerBoundElectronVolts { get; }
+
+    /// <summary>The lower of the two lead band edges, eV: above it states are not bound.</summary>
+    public double ContinuumEdgeElectronVolts { get; }
+
+    /// <summary>The options used.</summary>
+    public BoundStateOptions Options { get; }
+
+    /// <summary>Finds every bound state of <paramref name="stack"/> (energies below both lead band edges).</summary>
+    /// <exception cref="ArgumentNullException"><paramref name="stack"/> is null.</exception>
+    /// <exception cref="ArgumentException">The stack has more written-out elements than <see cref="BoundStateOptions.MaxElements"/>.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">An option is out of range.</exception>
+    public static BoundStateSpectrum Find(LayerStack stack, BoundStateOptions? options = null)
+    {
+        ArgumentNullException.ThrowIfNull(stack);
+        options ??= BoundStateOptions.Default;
+        options.Validate(nameof(options));
+        var profile = new StackProfile(stack, options.MaxElements, nameof(stack));
+        var edge = Math.Min(stack.LeftLead.PotentialElectronVolts, stack.RightLead.PotentialElectronVolts);
+        var top = Math.BitDecrement(edge);
+        var lowestValid = profile.LowestValidEnergyElectronVolts;
+
+        // A floor with no level below: the lowest potential, lowered further for delta wells until the count is zero.
+        var margin = Math.Max(1e-3, Math.Abs(edge - profile.MinimumPotentialElectronVolts));
+        var bottom = profile.MinimumPotentialElectronVolts - margin;
+        var guard = 0;
+        while (bottom > lowestValid && profile.CountBelow(bottom, out _) > 0 && guard++ < 200)
+        {
+            margin *= 2;
+            bottom = profile.MinimumPotentialElectronVolts - margin;
+        }
+        if (bottom <= lowestValid)
+        {
+            bottom = Math.BitIncrement(lowestValid);
+        }
+        if (!(bottom < top))
+        {
+            return new BoundStateSpectrum(profile, [], 0, bottom, edge, options);
+        }
+        var countBottom = profile.CountBelow(bottom, out _);
+        var total = profile.CountBelow(top, out _);
+        var levels = new List<BoundLevel>();
+        Isolate(profile, bottom, countBottom, top, total, options, levels);
+        levels.Sort((x, y) => x.Index.CompareTo(y.Index));
+        return new BoundStateSpectrum(profile, levels.ToArray(), total, bottom, edge, options);
+    }
+
+    private struct Mismatch(StackProfile profile) : IRealFunction
+    {
+        public readonly double Evaluate(double x)
+        {
+            profile.CountBelow(x, out var g);
+            return g;
+        }
+    }
+
+    private static void Isolate(StackProfile profile, double a, int countA, double b, int countB, BoundStateOptions options, List<BoundLevel> levels)
+    {
+        if (countB <= countA || countA >= options.MaxLevels)
+        {
+            return;
+        }
+        var tolerance = Math.Max(options.AbsoluteToleranceElectronVolts, options.RelativeTolerance * Math.Max(Math.Abs(a), Math.Abs(b)));
+        if (countB - countA == 1)
+        {
+            levels.Add(Refine(profile, a, b, countA, tolerance, options));
+            return;
+        }
+        var mid = 0.5 * (a + b);
+        if (b - a <= tolerance || mid <= a || mid >= b)
+        {
+            // Levels closer than the tolerance: report them together, flagged.
+            for (var n = countA; n < countB && n < options.MaxLevels; n++)
+            {
+                levels.Add(new BoundLevel(n, mid, 0.5 * (b - a), 0, false));
+            }
+            return;
+        }
+        var countMid = profile.CountBelow(mid, out _);
+        Isolate(profile, a, countA, mid, countMid, options, levels);
+        Isolate(profile, mid, countMid, b, countB, options, levels);
+    }
+
+    private static BoundLevel Refine(StackProfile profile, double a, double b, int index, double tolerance, BoundStateOptions options)
+    {
+        var function = new Mismatch(profile);
+        var root = RootFinding.Brent(ref function, a, b, options.AbsoluteToleranceElectronVolts, options.RelativeTolerance, 300);
+        var checkLower = Math.Max(a, Math.Min(root.Lower, root.Root - tolerance));
+        var checkUpper = Math.Min(b, Math.Max(root.Upper, root.Root + tolerance));
+        var iterations = 0;
+        if (root.Status == RootStatus.Converged && profile.CountBelow(checkLower, out _) <= index && profile.CountBelow(checkUpper, out _) >= index + 1)
+        {
+            if (root.ErrorBound <= tolerance)
+            {
+                return new BoundLevel(index, root.Root, root.ErrorBound, root.Iterations, true);
+            }
+            // A converged step larger than the tolerance (an exact zero hit early): finish on the count.
+            a = checkLower;
+            b = checkUpper;
+            iterations = root.Iterations;
+        }
+        // Bisection on the count alone (always converges, guaranteed bracket).
+        while (b - a > tolerance && iterations < 2000)
+        {
+            var mid = 0.5 * (a + b);
+            if (mid <= a || mid >= b)
+            {
+                break;
+            }
+            if (profile.CountBelow(mid, out _) <= index)
+            {
+                a = mid;
+            }
+            else
+            {
+                b = mid;
+            }
+            iterations++;
+        }
+        return new BoundLevel(index, 0.5 * (a + b), 0.5 * (b - a), iterations, true);
+    }
+
+    /// <summary>
+    /// The number of bound states strictly below <paramref name="energyElectronVolts"/>, from the oscillation
+    /// count alone (no search). Energies at or above <see cref="ContinuumEdgeElectronVolts"/> give <see cref="TotalCount"/>.
+    /// </summary>
+    /// <exception cref="ArgumentOutOfRangeException">The energy is not finite.</exception>
+    public int CountBelow(double energyElectronVolts)
+    {
+        Preconditions.CheckFinite(energyElectronVolts);
+        if (energyElectronVolts >= ContinuumEdgeElectronVolts)
+        {
+            return TotalCount;
+        }
+        if (energyElectronVolts <= LowerBoundElectronVolts)
+        {
+            return 0;
+        }
+        return _profile.CountBelow(energyElectronVolts, out _);
+    }
+
+    /// <summary>
+    /// The levels that lie inside a gap (minigap) of the infinite crystal of <paramref name="cell"/>: states
+    /// localised by a defect or at a surface, which cannot belong to any miniband. Uses the core dispersion
+    /// |Tr M(E)| &gt; 2 (Bloch condition).
+    /// </summary>
+    /// <exception cref="ArgumentNullException"><paramref name="cell"/> is null.</exception>
+    public IReadOnlyList<BoundLevel> LevelsInGapsOf(UnitCell cell)
+    {
+        ArgumentNullException.ThrowIfNull(cell);
+        var transfer = CellTransfer.Create(cell);
+        var result = new List<BoundLevel>();
+        foreach (var level in _levels)
+        {
+            if (level.EnergyElectronVolts > transfer.LowestValidEnergyElectronVolts && !transfer.Dispersion(level.EnergyElectronVolts).IsInBand)
+            {
+                result.Add(level);
+            }
+        }
+        return result.AsReadOnly();
+    }
+
+    /// <summary>The normalised wavefunction of level <paramref name="index"/> (0-based), ready to be sampled on any grid.</summary>
+    /// <exception cref="ArgumentOutOfRangeException"><paramref name="index"/> is not the index of a level found.</exception>
+    public BoundWavefunction GetWavefunction(int index)
+    {
+        Preconditions.CheckRange(index, 0, _levels.Length - 1);
+        return new BoundWavefunction(_profile, _levels[index]);
+    }
+
+    /// <inheritdoc />
+    public override string ToString()
+    {
+        var text = new StringBuilder();
+        text.Append(CultureInfo.InvariantCulture,
+            $"{TotalCount} bound state(s) below {ContinuumEdgeElectronVolts:G8} eV (none below {LowerBoundElectronVolts:G8} eV)");
+        foreach (var level in _levels)
+        {
+            text.AppendLine().Append("  ").Append(level);
+        }
+        return text.ToString();
+    }
+}

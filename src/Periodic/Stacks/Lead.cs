@@ -1,0 +1,79 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.Globalization;
+using Periodic.Units;
+
+namespace Periodic.Stacks;
+
+/// <summary>
+/// A semi-infinite uniform contact region on one side of a <see cref="LayerStack"/>: constant
+/// potential energy (its band edge) and a parabolic effective mass. Carriers propagate in the lead
+/// only above its band edge, with wavenumber k = √(2m(E − V))/ħ.
+/// </summary>
+public readonly record struct Lead
+{
+    private Lead(double potentialElectronVolts, double massElectronMasses)
+    {
+        PotentialElectronVolts = potentialElectronVolts;
+        MassElectronMasses = massElectronMasses;
+    }
+
+    /// <summary>The band edge (potential energy) of the lead, eV.</summary>
+    public double PotentialElectronVolts { get; }
+
+    /// <summary>The effective mass of the lead, in electron masses (zero only for <c>default</c>, which no API accepts).</summary>
+    public double MassElectronMasses { get; }
+
+    /// <summary>Creates a lead of the given band edge and effective mass.</summary>
+    /// <param name="potential">Band edge of the lead.</param>
+    /// <param name="mass">Effective mass; must be a created (non-default) mass.</param>
+    /// <exception cref="ArgumentOutOfRangeException"><paramref name="mass"/> is the default (zero) mass.</exception>
+    public static Lead Create(Energy potential, EffectiveMass mass)
+    {
+        if (!(mass.ElectronMasses > 0))
+        {
+            throw new ArgumentOutOfRangeException(nameof(mass), mass.ElectronMasses,
+                "mass must be positive and finite; got the default (zero) mass. Create it with EffectiveMass.FromElectronMasses.");
+        }
+        return new Lead(potential.ElectronVolts, mass.ElectronMasses);
+    }
+
+    /// <summary>A lead of the same material as <paramref name="layer"/> (its potential and band-edge mass).</summary>
+    /// <exception cref="ArgumentNullException"><paramref name="layer"/> is null.</exception>
+    public static Lead Like(Structures.Layer layer)
+    {
+        ArgumentNullException.ThrowIfNull(layer);
+        return new Lead(layer.Potential.ElectronVolts, layer.Mass.ElectronMasses);
+    }
+
+    /// <summary>
+    /// The wavenumber k (1/nm) at <paramref name="energyElectronVolts"/>: real and positive above the
+    /// band edge; zero at or below it (then the lead carries no current, see <see cref="DecayConstantPerNanometre"/>).
+    /// </summary>
+    public double WavenumberPerNanometre(double energyElectronVolts)
+    {
+        var excess = energyElectronVolts - PotentialElectronVolts;
+        return excess > 0 ? Math.Sqrt(MassElectronMasses * excess / PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2) : 0.0;
+    }
+
+    /// <summary>The decay constant κ (1/nm) of the evanescent solution at or below the band edge; zero above it.</summary>
+    public double DecayConstantPerNanometre(double energyElectronVolts)
+    {
+        var deficit = PotentialElectronVolts - energyElectronVolts;
+        return deficit > 0 ? Math.Sqrt(MassElectronMasses * deficit / PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2) : 0.0;
+    }
+
+    internal void Validate(string paramName)
+    {
+        if (!(MassElectronMasses > 0))
+        {
+            throw new ArgumentException(
+                $"{paramName} is the default Lead (zero mass); create it with Lead.Create(potential, mass).", paramName);
+        }
+    }
+
+    /// <inheritdoc />
+    public override string ToString() => string.Create(CultureInfo.InvariantCulture,
+        $"Lead V = {PotentialElectronVolts:G6} eV, m = {MassElectronMasses:G6} m0");
+}

@@ -1,0 +1,327 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.Globalization;
+using System.Numerics;
+using Periodic.Structures;
+using Periodic.Transfer;
+using Periodic.Units;
+
+namespace Periodic.Stacks;
+
+/// <summary>
+/// Transmission and reflection of a <see cref="LayerStack"/>, compiled once and evaluated at any real
+/// energy. Immutable and thread-safe; evaluation does not allocate.
+/// </summary>
+/// <remarks>
+/// <para>Method: scattering-matrix composition (D. Y. K. Ko and J. C. Inkson, Phys. Rev. B 38, 9945
+/// (1988); Redheffer star product). Each layer's closed-form transfer matrix (from the core engine,
+/// scaled by e^(−κw) in barriers) is turned into a unitary scattering matrix in the basis of a
+/// zero-thickness reference medium; these are composed left to right, and a part of N repeated cells
+/// uses the cell's matrix raised to the N-th power by repeated squaring, so its cost grows as log₂ N.
+/// Transmission amplitudes are held as mantissa × e^scale: T down to 1e-300 and far below stays
+/// finite in <see cref="TransmissionResult.LogTransmission"/>, never NaN.</para>
+/// <para>At or below a lead's band edge no current flows in that lead: T = 0 and the result says so
+/// (<see cref="TransmissionResult.Channels"/>).</para>
+/// </remarks>
+public sealed class StackTransmission
+{
+    private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
+
+    private readonly CompiledPart[] _parts;
+
+    // Distinct layer materials (potential, mass, mass slope) for choosing the reference impedance.
+    private readonly double[] _potentials;
+    private readonly double[] _masses;
+    private readonly double[] _slopes;
+
+    private StackTransmission(LayerStack stack)
+    {
+        Stack = stack;
+        var parts = stack.PartSpan;
+        _parts = new CompiledPart[parts.Length];
+        var materials = new List<(double V, double M, double Slope)>();
+        var lowest = double.NegativeInfinity;
+        for (var i = 0; i < parts.Length; i++)
+        {
+            var part = parts[i];
+            var elements = part.Cell is null ? [part.Element!] : part.Cell.Elements.ToArray();
+            var compiled = new CompiledElement[elements.Length];
+            for (var j = 0; j < elements.Length; j++)
+            {
+                switch (elements[j])
+                {
+                    case Layer layer:
+                        var transfer = CellTransfer.Create(UnitCell.Create(layer));
+                        lowest = Math.Max(lowest, transfer.LowestValidEnergyElectronVolts);
+                        compiled[j] = new CompiledElement(transfer, 0);
+                        var material = (layer.Potential.ElectronVolts, layer.Mass.ElectronMasses, layer.Mass.ElectronMasses * layer.NonParabolicityPerElectronVolt);
+                        if (!materials.Contains(material))
+                        {
+                            materials.Add(material);
+                        }
+                        break;
+                    case DeltaBarrier delta:
+                        compiled[j] = new CompiledElement(null, delta.StrengthElectronVoltNanometres / C);
+                        break;
+                    default:
+                        throw new ArgumentException(
+                            string.Create(CultureInfo.InvariantCulture, $"stack part {i}, element {j} is of unsupported type {elements[j].GetType().Name}."),
+                            nameof(stack));
+                }
+            }
+            _parts[i] = new CompiledPart(compiled, part.Repetitions);
+        }
+        _potentials = materials.Select(m => m.V).ToArray();
+        _masses = materials.Select(m => m.M).ToArray();
+        _slopes = materials.Select(m => m.Slope).ToArray();
+        LowestValidEnergyElectronVolts = lowest;
+    }
+
+    /// <summary>The stack.</summary>
+    public LayerStack Stack { get; }
+
+    /// <summary>
+    /// Energies must exceed this bound (eV) so that every non-parabolic mass m(E) = m(1 + α(E − V)) stays
+    /// positive; −∞ for a stack of parabolic layers.
+    /// </summary>
+    public double LowestValidEnergyElectronVolts { get; }
+
+    /// <summary>Compiles the transmission calculation of <paramref name="stack"/>.</summary>
+    /// <exception cref="ArgumentNullException"><paramref name="stack"/> is null.</exception>
+    public static StackTransmission Create(LayerStack stack)
+    {
+        ArgumentNullException.ThrowIfNull(stack);
+        return new StackTransmission(stack);
+    }
+
+    /// <summary>Transmission, reflection and their amplitudes at <paramref name="energyElectronVolts"/>.</summary>
+    /// <exception cref="ArgumentOutOfRangeException">The energy is not finite, or not above <see cref="LowestValidEnergyElectronVolts"/>.</exception>
+    public TransmissionResult Evaluate(double energyElectronVolts)
+    {
+        CheckEnergy(energyElectronVolts, "energyElectronVolts");
+        return EvaluateCore(energyElectronVolts);
+    }
+
+    /// <summary>
+    /// Effectively computes <c>destination[i] = T(energiesElectronVolts[i])</c>; a value below the double
+    /// range is returned as 0 (see <see cref="Log10Transmissions"/>), never NaN. Does not allocate.
+    /// </summary>
+    /// <exception cref="ArgumentException"><paramref name="destination"/> is shorter than the input.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">An energy is not finite or not above <see cref="LowestValidEnergyElectronVolts"/> (the message names its index); destination is then unchanged.</exception>
+    public void Transmissions(ReadOnlySpan<double> energiesElectronVolts, Span<double> destination)
+    {
+        Preconditions.CheckDestination(energiesElectronVolts.Length, destination.Length, nameof(energiesElectronVolts), nameof(destination));
+        CheckEnergies(energiesElectronVolts);
+        for (var i = 0; i < energiesElectronVolts.Length; i++)
+        {
+            destination[i] = EvaluateCore(energiesElectronVolts[i]).Transmission;
+        }
+    }
+
+    /// <summary>
+    /// Effectively computes <c>destination[i] = log₁₀ T(energiesElectronVolts[i])</c>; −∞ where a lead is
+    /// closed, finite otherwise, never NaN. Does not allocate.
+    /// </summary>
+    /// <exception cref="ArgumentException"><paramref name="destination"/> is shorter than the input.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">An energy is not finite or not above <see cref="LowestValidEnergyElectronVolts"/>; destination is then unchanged.</exception>
+    public void Log10Transmissions(ReadOnlySpan<double> energiesElectronVolts, Span<double> destination)
+    {
+        Preconditions.CheckDestination(energiesElectronVolts.Length, destination.Length, nameof(energiesElectronVolts), nameof(destination));
+        CheckEnergies(energiesElectronVolts);
+        for (var i = 0; i < energiesElectronVolts.Length; i++)
+        {
+            destination[i] = EvaluateCore(energiesElectronVolts[i]).Log10Transmission;
+        }
+    }
+
+    /// <summary>
+    /// As <see cref="Transmissions(ReadOnlySpan{double}, Span{double})"/>, for long sweeps: reports progress
+    /// about every 1% of the points and checks <paramref name="cancellationToken"/> before every point.
+    /// </summary>
+    /// <param name="energiesElectronVolts">Energies, eV.</param>
+    /// <param name="destination">Receives T; may be longer than the input.</param>
+    /// <param name="progress">Receives <see cref="SweepProgress"/> reports (may be null); the last report has Completed = Total.</param>
+    /// <param name="cancellationToken">Cancels the sweep.</param>
+    /// <exception cref="OperationCanceledException">The sweep was cancelled. No partial output is left: the first
+    /// <c>energiesElectronVolts.Length</c> entries of <paramref name="destination"/> are reset to zero.</exception>
+    /// <exception cref="ArgumentException"><paramref name="destination"/> is shorter than the input.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">An energy is invalid; destination is then unchanged.</exception>
+    public void Transmissions(ReadOnlySpan<double> energiesElectronVolts, Span<double> destination,
+        IProgress<SweepProgress>? progress, CancellationToken cancellationToken)
+    {
+        Preconditions.CheckDestination(energiesElectronVolts.Length, destination.Length, nameof(energiesElectronVolts), nameof(destination));
+        CheckEnergies(energiesElectronVolts);
+        var n = energiesElectronVolts.Length;
+        var stride = Math.Max(1, n / 100);
+        for (var i = 0; i < n; i++)
+        {
+            if (cancellationToken.IsCancellationRequested)
+            {
+                destination[..n].Clear();
+                cancellationToken.ThrowIfCancellationRequested();
+            }
+            destination[i] = EvaluateCore(energiesElectronVolts[i]).Transmission;
+            if (progress is not null && ((i + 1) % stride == 0 || i + 1 == n))
+            {
+                progress.Report(new SweepProgress(i + 1, n));
+            }
+        }
+        if (n == 0)
+        {
+            progress?.Report(new SweepProgress(0, 0));
+        }
+    }
+
+    /// <summary>
+    /// Finds the transmission peaks (resonances) in [<paramref name="lowerElectronVolts"/>, <paramref name="upperElectronVolts"/>]:
+    /// their energies, heights, full widths at half maximum and lifetimes ħ/Γ.
+    /// </summary>
+    /// <remarks>
+    /// Method: a uniform scan, refined by halving wherever arg t turns by more than
+    /// <see cref="ResonanceSearchOptions.MaxPhaseStepRadians"/> between samples (a resonance turns the
+    /// transmission phase by about π, so a narrow peak is caught however narrow it is); each local maximum
+    /// of ln T is refined by golden section (J. Kiefer, Proc. AMS 4, 502 (1953)), its half-maximum points
+    /// by Brent's method (R. P. Brent, 1973), and its energy as the Brent root of
+    /// ln T(E + h) − ln T(E − h) at h, h/2 and h/4 with Richardson extrapolation (h = 0.2% of the half width); the
+    /// difference of the two extrapolations is the reported error bound.
+    /// The energy tolerance is <see cref="ResonanceSearchOptions.AbsoluteToleranceElectronVolts"/>; each
+    /// result carries its own error bound. Peaks at the window ends are not reported. The window is raised
+    /// to the higher lead band edge when it starts below it.
+    /// </remarks>
+    /// <exception cref="ArgumentOutOfRangeException">A bound is not finite, or <paramref name="upperElectronVolts"/> is not above <paramref name="lowerElectronVolts"/>, or an option is out of range.</exception>
+    public ResonanceSpectrum FindResonances(double lowerElectronVolts, double upperElectronVolts, ResonanceSearchOptions? options = null)
+    {
+        Preconditions.CheckFinite(lowerElectronVolts);
+        Preconditions.CheckFinite(upperElectronVolts);
+        if (!(upperElectronVolts > lowerElectronVolts))
+        {
+            throw new ArgumentOutOfRangeException(nameof(upperElectronVolts), upperElectronVolts,
+                $"upperElectronVolts must exceed lowerElectronVolts ({Preconditions.Format(lowerElectronVolts)} eV); got {Preconditions.Format(upperElectronVolts)}.");
+        }
+        options ??= ResonanceSearchOptions.Default;
+        options.Validate(nameof(options));
+        return ResonanceFinder.Find(this, lowerElectronVolts, upperElectronVolts, options);
+    }
+
+    internal void CheckEnergy(double energyElectronVolts, string name)
+    {
+        if (!double.IsFinite(energyElectronVolts))
+        {
+            throw new ArgumentOutOfRangeException(name, energyElectronVolts,
+                $"{name} must be a finite energy in eV; got {Preconditions.Format(energyElectronVolts)}.");
+        }
+        if (energyElectronVolts <= LowestValidEnergyElectronVolts)
+        {
+            throw new ArgumentOutOfRangeException(name, energyElectronVolts,
+                $"{name} must exceed {Preconditions.Format(LowestValidEnergyElectronVolts)} eV, below which a non-parabolic mass m(E) = m(1 + a(E - V)) would not be positive; got {Preconditions.Format(energyElectronVolts)}.");
+        }
+    }
+
+    private void CheckEnergies(ReadOnlySpan<double> energies)
+    {
+        for (var i = 0; i < energies.Length; i++)
+        {
+            var e = energies[i];
+            if (!double.IsFinite(e) || e <= LowestValidEnergyElectronVolts)
+            {
+                CheckEnergy(e, string.Create(CultureInfo.InvariantCulture, $"energiesElectronVolts[{i}]"));
+            }
+        }
+    }
+
+    /// <summary>The reference impedance: geometric mean of |k|/m over the materials present, so every element is converted well-conditioned.</summary>
+    private double ReferenceImpedance(double e)
+    {
+        double sumLog = 0;
+        var count = 0;
+        for (var i = 0; i < _potentials.Length; i++)
+        {
+            var excess = e - _potentials[i];
+            var mass = _masses[i] + _slopes[i] * excess;
+            var s = Math.Abs(mass * excess / C);
+            if (s > 0)
+            {
+                sumLog += 0.5 * Math.Log(s) - Math.Log(mass);
+                count++;
+            }
+        }
+        foreach (var lead in (ReadOnlySpan<Lead>)[Stack.LeftLead, Stack.RightLead])
+        {
+            var s = Math.Abs(lead.MassElectronMasses * (e - lead.PotentialElectronVolts) / C);
+            if (s > 0)
+            {
+                sumLog += 0.5 * Math.Log(s) - Math.Log(lead.MassElectronMasses);
+                count++;
+            }
+        }
+        return count == 0 ? 1.0 : Math.Exp(sumLog / count);
+    }
+
+    /// <summary>The scattering matrix of everything between the leads, in the reference basis q.</summary>
+    internal ScatteringMatrix Interior(double e, double q)
+    {
+        var total = ScatteringMatrix.Identity;
+        foreach (var part in _parts)
+        {
+            var s = ScatteringMatrix.Identity;
+            foreach (var element in part.Elements)
+            {
+                s = ScatteringMatrix.Compose(s, element.Scattering(e, q));
+            }
+            if (part.Repetitions > 1)
+            {
+                s = ScatteringMatrix.Power(s, part.Repetitions);
+            }
+            total = ScatteringMatrix.Compose(total, s);
+        }
+        return total;
+    }
+
+    internal TransmissionResult EvaluateCore(double e)
+    {
+        var left = Stack.LeftLead;
+        var right = Stack.RightLead;
+        var kLeft = left.WavenumberPerNanometre(e);
+        if (kLeft == 0)
+        {
+            return new TransmissionResult(e, LeadChannels.LeftLeadClosed, double.NegativeInfinity, Complex.One, Complex.Zero, 0);
+        }
+        var q = ReferenceImpedance(e);
+        var qLeft = kLeft / left.MassElectronMasses;
+        var s = ScatteringMatrix.Compose(ScatteringMatrix.Interface(qLeft, q), Interior(e, q));
+        var kRight = right.WavenumberPerNanometre(e);
+        if (kRight == 0)
+        {
+            // Evanescent right lead: the load reflects b/a of the decaying state (1, −κ/m) in the q basis.
+            var beta = right.DecayConstantPerNanometre(e) / (right.MassElectronMasses * q);
+            var load = new Complex(1, -beta) / new Complex(1, beta);
+            var den = Complex.One - s.Rp * load;
+            var r = den == Complex.Zero ? s.R : s.R + s.T * s.Tp * Math.Exp(2 * s.LogScale) * load / den;
+            return new TransmissionResult(e, LeadChannels.RightLeadClosed, double.NegativeInfinity, r, Complex.Zero, 0);
+        }
+        var qRight = kRight / right.MassElectronMasses;
+        s = ScatteringMatrix.Compose(s, ScatteringMatrix.Interface(q, qRight));
+        var logT = Math.Log(qRight / qLeft) + 2 * (Math.Log(s.T.Magnitude) + s.LogScale);
+        return new TransmissionResult(e, LeadChannels.Open, logT, s.R, s.T, s.LogScale);
+    }
+
+    private readonly record struct CompiledPart(CompiledElement[] Elements, int Repetitions);
+
+    private readonly record struct CompiledElement(CellTransfer? Layer, double DeltaJump)
+    {
+        internal ScatteringMatrix Scattering(double e, double q)
+        {
+            if (Layer is null)
+            {
+                return ScatteringMatrix.FromTransfer(1, 0, DeltaJump, 1, 0, q);
+            }
+            var p = Layer.Accumulate(e);
+            return ScatteringMatrix.FromTransfer(p.P11, p.P12, p.P21, p.P22, p.LogScale, q);
+        }
+    }
+
+    /// <inheritdoc />
+    public override string ToString() => string.Create(CultureInfo.InvariantCulture,
+        $"StackTransmission of {Stack.ElementCount} element(s), {Stack.ThicknessNanometres:G6} nm, S-matrix composition");
+}
