@@ -301,7 +301,7 @@ internal sealed class BandEdgeFinder
                 return trace == 0 ? -target : Math.CopySign(double.PositiveInfinity, trace);
             }
             var scale = Math.Exp(p.LogScale);
-            if (NearSignedIdentity(p, scale, target, out var value, out var slope))
+            if (p.TryShiftedTrace(scale, target, out var value, out var slope))
             {
                 derivative = slope;
                 return value;
@@ -311,29 +311,7 @@ internal sealed class BandEdgeFinder
         }
     }
 
-    /// <summary>
-    /// Near M = ±I (the edges of a narrow gap) D ∓ 2 is a difference of nearly equal numbers with an error
-    /// ε|M| that moves an edge by ε|M|/|D′|, and |D′| shrinks with the gap. Since det M = 1,
-    /// D ∓ 2 = ∓det(M ∓ I) exactly; the determinant of the small matrix N = M ∓ I has an error of only
-    /// ε|N|, which keeps the edges of a narrow gap as accurate as those of a wide one.
-    /// Used when |N11|, |N22| and √|N12·N21| are at most 0.1 (elsewhere the trace is as good).
-    /// </summary>
-    internal static bool NearSignedIdentity(in CellTransfer.Product p, double scale, double target, out double value, out double derivative)
-    {
-        var sign = target > 0 ? 1.0 : -1.0;
-        double n11 = p.P11 * scale - sign, n22 = p.P22 * scale - sign, n12 = p.P12 * scale, n21 = p.P21 * scale;
-        // M12 and M21 carry reciprocal units (mass × length and its inverse): compare their geometric mean.
-        if (Math.Max(Math.Max(Math.Abs(n11), Math.Abs(n22)), Math.Sqrt(Math.Abs(n12 * n21))) > 0.1)
-        {
-            value = 0;
-            derivative = 0;
-            return false;
-        }
-        double d11 = p.D11 * scale, d12 = p.D12 * scale, d21 = p.D21 * scale, d22 = p.D22 * scale;
-        value = -sign * (n11 * n22 - n12 * n21);
-        derivative = -sign * (d11 * n22 + n11 * d22 - d12 * n21 - n12 * d21);
-        return true;
-    }
+
 
     private readonly struct TraceSlope(CellTransfer transfer) : IRealFunction
     {

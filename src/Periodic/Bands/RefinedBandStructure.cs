@@ -183,7 +183,7 @@ public sealed class RefinedBandStructure
         {
             var scale = Math.Exp(product.LogScale);
             var target = BandEdgeFinder.TargetTrace(edgeIndex);
-            if (BandEdgeFinder.NearSignedIdentity(product, scale, target, out _, out var detSlope) && Math.Abs(detSlope) > 0)
+            if (product.TryShiftedTrace(scale, target, out _, out var detSlope) && Math.Abs(detSlope) > 0)
             {
                 // The edge is found from det(M ∓ I), whose rounding is ε|M ∓ I|.
                 var sign = target > 0 ? 1.0 : -1.0;
