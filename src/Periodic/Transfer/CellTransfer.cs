@@ -71,6 +71,10 @@ public sealed class CellTransfer
                     _kinds[i] = ElementKind.Delta;
                     _deltaJumps[i] = delta.StrengthElectronVoltNanometres / C;
                     break;
+                case IMeshedSegment smooth:
+                    _kinds[i] = ElementKind.Segment;
+                    _segments[i] = new MagnusSegmentPropagator(smooth.Mesh);
+                    break;
                 default:
                     throw new ArgumentException(
                         string.Create(CultureInfo.InvariantCulture, $"cell element {i} is of unsupported type {elements[i].GetType().Name}."),
@@ -216,9 +220,16 @@ public sealed class CellTransfer
     public int CountBandEdgesBelow(double energyElectronVolts)
     {
         CheckEnergy(energyElectronVolts);
-        var dirichlet = CountDirichletEigenvaluesBelow(energyElectronVolts, out var traceMantissa, out var traceLogScale);
+        var dirichlet = CountDirichletEigenvaluesBelow(energyElectronVolts, out var traceMantissa, out var traceLogScale, out var product);
         var halfTraceMagnitude = Math.Abs(traceMantissa) * 0.5;
-        if (halfTraceMagnitude < Math.Exp(-traceLogScale))
+        var inBand = halfTraceMagnitude < Math.Exp(-traceLogScale);
+        // Near M = ±I (a narrow gap) decide |D| < 2 from det(M ∓ I), which resolves gaps the trace cannot.
+        var target = traceMantissa >= 0 ? 2.0 : -2.0;
+        if (traceLogScale < 700 && product.TryShiftedTrace(Math.Exp(traceLogScale), target, out var shifted, out _))
+        {
+            inBand = target > 0 ? shifted < 0 : shifted > 0;
+        }
+        if (inBand)
         {
             return 2 * dirichlet + 1;
         }
@@ -232,7 +243,10 @@ public sealed class CellTransfer
     /// Number of eigenvalues below E of the cell with ψ = 0 at both ends, from the zeros in (0, d) of the
     /// solution with ψ(0) = 0 (Sturm oscillation theorem). Also returns the scaled trace at E.
     /// </summary>
-    internal int CountDirichletEigenvaluesBelow(double e, out double traceMantissa, out double traceLogScale)
+    internal int CountDirichletEigenvaluesBelow(double e, out double traceMantissa, out double traceLogScale) =>
+        CountDirichletEigenvaluesBelow(e, out traceMantissa, out traceLogScale, out _);
+
+    private int CountDirichletEigenvaluesBelow(double e, out double traceMantissa, out double traceLogScale, out Product cellProduct)
     {
         // The state vector (u, w) = (ψ, ψ'/m) from (0, 1); zeros of u are counted per element.
         double u = 0, w = 1;
@@ -270,6 +284,7 @@ public sealed class CellTransfer
         }
         traceMantissa = product.P11 + product.P22;
         traceLogScale = product.LogScale;
+        cellProduct = product;
         return zeros;
     }
 
@@ -460,6 +475,30 @@ public sealed class CellTransfer
     internal struct Product
     {
         internal double P11, P12, P21, P22, D11, D12, D21, D22, LogScale;
+
+        /// <summary>
+        /// Near M = ±I (the edges of a narrow gap) D ∓ 2 is a difference of nearly equal numbers with an error
+        /// ε|M| that moves an edge by ε|M|/|D′|, and |D′| shrinks with the gap. Since det M = 1,
+        /// D ∓ 2 = ∓det(M ∓ I) exactly; the determinant of the small matrix N = M ∓ I has an error of only
+        /// ε|N|, which keeps the edges of a narrow gap as accurate as those of a wide one.
+        /// Used when |N11|, |N22| and √|N12·N21| are at most 1e-3: there the trace would lose more than three digits; elsewhere it is as good.
+        /// </summary>
+        internal readonly bool TryShiftedTrace(double scale, double target, out double value, out double derivative)
+        {
+            var sign = target > 0 ? 1.0 : -1.0;
+            double n11 = P11 * scale - sign, n22 = P22 * scale - sign, n12 = P12 * scale, n21 = P21 * scale;
+            // M12 and M21 carry reciprocal units (mass × length and its inverse): compare their geometric mean.
+            if (Math.Max(Math.Max(Math.Abs(n11), Math.Abs(n22)), Math.Sqrt(Math.Abs(n12 * n21))) > 1e-3)
+            {
+                value = 0;
+                derivative = 0;
+                return false;
+            }
+            double d11 = D11 * scale, d12 = D12 * scale, d21 = D21 * scale, d22 = D22 * scale;
+            value = -sign * (n11 * n22 - n12 * n21);
+            derivative = -sign * (d11 * n22 + n11 * d22 - d12 * n21 - n12 * d21);
+            return true;
+        }
 
         internal void Reset()
         {
