@@ -9,6 +9,12 @@ namespace Periodic.Bands;
 /// Tolerances of the band-edge and E(k) searches. Every default lives here; <see cref="Default"/>
 /// reaches 1e-14 relative (or 1e-15 eV absolute near zero) on simple edges.
 /// </summary>
+/// <remarks>
+/// When no options are passed, <see cref="BandStructure.Compute(Structures.UnitCell, int, BandSearchOptions?)"/> caps
+/// the absolute tolerance at 1e-15 of the cell's natural energy scale (the larger of its potential spread
+/// and ħ²(π/d)²/2m), so cells whose bands lie far below 1 eV — cold atoms in optical lattices, at ~1e-11 eV —
+/// keep the same relative accuracy. <see cref="BandStructure.Options"/> shows the tolerances used.
+/// </remarks>
 public sealed class BandSearchOptions
 {
     /// <summary>Default relative tolerance on an edge energy.</summary>

@@ -86,7 +86,8 @@ public sealed class BandStructure
     {
         ArgumentNullException.ThrowIfNull(cell);
         Preconditions.CheckRange(count, 1, 10000);
-        return Compute(CellTransfer.Create(cell), count, options ?? BandSearchOptions.Default);
+        var transfer = CellTransfer.Create(cell);
+        return Compute(transfer, count, options ?? DefaultOptionsFor(transfer));
     }
 
     /// <summary>Finds every band whose bottom lies below <paramref name="energyLimit"/> (at least one band).</summary>
@@ -104,7 +105,29 @@ public sealed class BandStructure
             throw new ArgumentOutOfRangeException(nameof(energyLimit), energyLimit.ElectronVolts,
                 string.Create(CultureInfo.InvariantCulture, $"energyLimit lies above {count} bands; at most 10000 can be computed at once."));
         }
-        return Compute(transfer, count, options ?? BandSearchOptions.Default);
+        return Compute(transfer, count, options ?? DefaultOptionsFor(transfer));
+    }
+
+    /// <summary>
+    /// The natural energy scale of a cell, eV: the larger of its potential spread and the first-zone
+    /// kinetic energy ħ²(π/d)²/(2m). Lets tolerances and thresholds follow the cell, whether its bands
+    /// lie at 0.1 eV (a semiconductor superlattice) or 1e-11 eV (cold atoms in an optical lattice).
+    /// </summary>
+    internal static double EnergyScaleElectronVolts(CellTransfer transfer)
+    {
+        var cell = transfer.Cell;
+        var k = Math.PI / transfer.PeriodNanometres;
+        var kinetic = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2 * k * k / cell.MinimumMass.ElectronMasses;
+        return Math.Max(cell.MaximumPotential.ElectronVolts - cell.MinimumPotential.ElectronVolts, kinetic);
+    }
+
+    /// <summary>The default options, with the absolute tolerance capped at 1e-15 of the cell's energy scale.</summary>
+    private static BandSearchOptions DefaultOptionsFor(CellTransfer transfer)
+    {
+        var scaled = BandSearchOptions.DefaultAbsoluteToleranceElectronVolts * Math.Min(1.0, EnergyScaleElectronVolts(transfer));
+        return scaled >= BandSearchOptions.DefaultAbsoluteToleranceElectronVolts || !(scaled >= 1e-300)
+            ? BandSearchOptions.Default
+            : BandSearchOptions.Create(absoluteToleranceElectronVolts: scaled);
     }
 
     private static BandStructure Compute(CellTransfer transfer, int count, BandSearchOptions options)
@@ -177,7 +200,7 @@ public sealed class BandStructure
                 continue; // a resolved open gap
             }
             // Degenerate within rounding: one edge, known to √(2δD/|D″|) plus half the width seen.
-            var h = Math.Max(width, 1e-9 * Math.Max(Math.Abs(middle), 1e-3));
+            var h = Math.Max(width, 1e-9 * Math.Max(Math.Abs(middle), EnergyScaleElectronVolts(transfer)));
             var curvature = Math.Abs(transfer.Dispersion(middle + h).TraceDerivativePerElectronVolt
                 - transfer.Dispersion(middle - h).TraceDerivativePerElectronVolt) / (2 * h);
             var spread = curvature > 0 ? Math.Sqrt(2 * roundingOfTrace / curvature) : 0;
@@ -206,16 +229,17 @@ public sealed class BandStructure
     private static int Reconcile(CellTransfer transfer, Band[] bands, Gap[] gaps)
     {
         var checks = 0;
+        var scale = EnergyScaleElectronVolts(transfer);
         for (var i = 0; i < bands.Length; i++)
         {
             var band = bands[i];
-            if (band.WidthElectronVolts > 1e-9 * Math.Max(1.0, Math.Abs(band.CenterElectronVolts)))
+            if (band.WidthElectronVolts > 1e-9 * Math.Max(scale, Math.Abs(band.CenterElectronVolts)))
             {
                 Expect(transfer, band.CenterElectronVolts, 2 * band.Index - 1, "band", band.Index);
                 checks++;
             }
             var gap = gaps[i];
-            if (!gap.IsClosed && gap.WidthElectronVolts > 1e-9 * Math.Max(1.0, Math.Abs(gap.LowerElectronVolts)))
+            if (!gap.IsClosed && gap.WidthElectronVolts > 1e-9 * Math.Max(scale, Math.Abs(gap.LowerElectronVolts)))
             {
                 Expect(transfer, 0.5 * (gap.LowerElectronVolts + gap.UpperElectronVolts), 2 * gap.Index, "gap", gap.Index);
                 checks++;

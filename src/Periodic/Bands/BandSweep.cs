@@ -21,7 +21,7 @@ public static class BandSweep
     /// </summary>
     /// <param name="cells">The cells; none may be null.</param>
     /// <param name="bandCount">Bands per cell, 1 to 10,000.</param>
-    /// <param name="options">Tolerances; <see cref="BandSearchOptions.Default"/> when null.</param>
+    /// <param name="options">Tolerances; when null, each cell gets the defaults scaled to its energy scale, as in <see cref="BandStructure.Compute(UnitCell, int, BandSearchOptions?)"/>.</param>
     /// <param name="maxDegreeOfParallelism">Threads to use: −1 for all cores, 1 for serial, or any positive count.</param>
     /// <exception cref="ArgumentNullException"><paramref name="cells"/> is null.</exception>
     /// <exception cref="ArgumentException">A cell is null.</exception>
@@ -43,7 +43,6 @@ public static class BandSweep
                 throw new ArgumentException(string.Create(CultureInfo.InvariantCulture, $"cells[{i}] is null; every entry must be a cell."), nameof(cells));
             }
         }
-        var resolved = options ?? BandSearchOptions.Default;
         var results = new BandStructure[cells.Count];
         var failures = new Exception?[cells.Count];
         if (maxDegreeOfParallelism == 1 || results.Length < 2)
@@ -79,7 +78,7 @@ public static class BandSweep
         {
             try
             {
-                results[i] = BandStructure.Compute(cells[i], bandCount, resolved);
+                results[i] = BandStructure.Compute(cells[i], bandCount, options);
             }
             catch (BandSearchException exception)
             {
