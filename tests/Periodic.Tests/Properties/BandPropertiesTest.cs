@@ -62,6 +62,8 @@ public sealed class BandPropertiesTest(ITestOutputHelper output)
             worst = Math.Max(worst, Math.Max(Cells.RelativeError(bottom.ElectronMasses, m), Cells.RelativeError(top.ElectronMasses, m)));
         }
         output.WriteLine($"free particle edge masses: worst relative error {worst:E2}");
+        output.WriteLine(props.ToString());
+        Assert.Contains("*", props.ToString()); // closed gaps are flagged in the printed table
         // Closed-gap masses come from D″ and D‴ at an edge found to 1e-14; 1e-8 is the acceptance bound.
         Assert.True(worst <= 1e-8, $"worst {worst:E3}");
     }
