@@ -122,7 +122,7 @@ public sealed partial class BandProperties
         if (!inBand)
         {
             // Within rounding of an edge D may still say |D| ≤ 2: that is the edge itself (Van Hove: +∞).
-            return index > 0 && _transfer.Dispersion(energy).IsInBand ? double.PositiveInfinity : 0.0;
+            return _transfer.Dispersion(energy).IsInBand ? double.PositiveInfinity : 0.0;
         }
         if (NearClosedEdge(index, energy, ClosedGapWindowFromTrace, out var edge, out var offset))
         {
