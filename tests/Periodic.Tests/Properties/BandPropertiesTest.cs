@@ -27,7 +27,13 @@ public sealed class BandPropertiesTest(ITestOutputHelper output)
             Assert.False(mass.IsClosedGap);
             worst = Math.Max(worst, Cells.RelativeError(mass.ElectronMasses, expected));
         }
-        output.WriteLine($"Dirac comb top masses: worst relative error {worst:E2}");
+        // Band 2 of the P = 3π/2 comb starts at exactly Kd = 3π/2 (REFERENCES.md, derived). With
+        // f(x) = cos x + P sin x / x, x = Kd, the same expansion gives m*/m = −σ f′(x₀)/x₀ at any edge; here σ = −1 and
+        // f′(3π/2) = 1 + P/(3π/2)² = 1 + 2/(3π), so m*/m = (2/(3π))·(1 + 2/(3π)) (derived).
+        var x0 = 1.5 * Math.PI;
+        var bottom2 = (1 + 2 / (3 * Math.PI)) / x0;
+        worst = Math.Max(worst, Cells.RelativeError(props.BottomMass(2).ElectronMasses, bottom2));
+        output.WriteLine($"Dirac comb top masses and band-2 bottom mass: worst relative error {worst:E2}");
         // Acceptance bound for edge masses (issue 3): 1e-8. The edge energy is found to 1e-14 relative
         // and D′ is exact, so the observed error is at rounding level.
         Assert.True(worst <= 1e-8, $"worst {worst:E3}");
