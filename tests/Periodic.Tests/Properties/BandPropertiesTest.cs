@@ -530,4 +530,34 @@ public sealed class BandPropertiesTest(ITestOutputHelper output)
         }
         output.WriteLine($"energies within rounding of a top edge that D puts in the band: {inBandSeen}");
     }
+
+    [Fact]
+    public void GroupVelocityAtEnergy_MatchesKronigPenneyClosedForm()
+    {
+        // Kronig and Penney 1931 with BenDaniel–Duke matching (REFERENCES.md): for E < V0,
+        // cos kd = cos(k_w a) cosh(κb) + ½(ξ − 1/ξ) sin(k_w a) sinh(κb), ξ = (κ/m_b)/(k_w/m_w). The reference slope
+        // dE/dk = −d sin(kd) / (d cos kd/dE) uses an 8th-order difference of this closed form (not the engine).
+        const double a = 5, b = 2, v0 = 0.25, mw = 0.067, mb = 0.092, d = a + b;
+        static double CosKd(double e)
+        {
+            var kw = Math.Sqrt(mw * e / C);
+            var kappa = Math.Sqrt(mb * (v0 - e) / C);
+            var xi = kappa / mb / (kw / mw);
+            return Math.Cos(kw * a) * Math.Cosh(kappa * b) + 0.5 * (xi - 1 / xi) * Math.Sin(kw * a) * Math.Sinh(kappa * b);
+        }
+        var structure = BandStructure.Compute(Cells.WellBarrier(), 1);
+        var props = BandProperties.Create(structure);
+        var band = structure.GetBand(1);
+        var worst = 0.0;
+        foreach (var fraction in new[] { 0.2, 0.5, 0.8 })
+        {
+            var e = band.BottomElectronVolts + fraction * band.WidthElectronVolts;
+            var cos = CosKd(e);
+            var reference = -d * Math.Sqrt(1 - cos * cos) / Cells.FirstDerivative(CosKd, e, 1e-3 * band.WidthElectronVolts);
+            worst = Math.Max(worst, Cells.RelativeError(props.GroupVelocityAtEnergy(e).SlopeElectronVoltNanometres, reference));
+        }
+        output.WriteLine($"Kronig–Penney closed form: dE/dk worst relative {worst:E2}");
+        // FD of an analytic function with h = 1e-3 of the width: truncation ~1e-20, rounding ~1e-16/1e-3·(E/W) ≈ 1e-12; tolerance 1e-9.
+        Assert.True(worst <= 1e-9, $"worst {worst:E3}");
+    }
 }
