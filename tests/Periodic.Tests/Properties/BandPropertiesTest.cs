@@ -549,14 +549,18 @@ public sealed class BandPropertiesTest(ITestOutputHelper output)
         var props = BandProperties.Create(structure);
         var band = structure.GetBand(1);
         var worst = 0.0;
+        var worstDos = 0.0;
         foreach (var fraction in new[] { 0.2, 0.5, 0.8 })
         {
             var e = band.BottomElectronVolts + fraction * band.WidthElectronVolts;
             var cos = CosKd(e);
             var reference = -d * Math.Sqrt(1 - cos * cos) / Cells.FirstDerivative(CosKd, e, 1e-3 * band.WidthElectronVolts);
             worst = Math.Max(worst, Cells.RelativeError(props.GroupVelocityAtEnergy(e).SlopeElectronVoltNanometres, reference));
+            // g = (2/π)|dk/dE| with the same closed-form slope.
+            worstDos = Math.Max(worstDos, Cells.RelativeError(props.DensityOfStatesPerElectronVoltNanometre(e), 2 / Math.PI / Math.Abs(reference)));
         }
-        output.WriteLine($"Kronig–Penney closed form: dE/dk worst relative {worst:E2}");
+        output.WriteLine($"Kronig–Penney closed form: dE/dk worst relative {worst:E2}, DOS {worstDos:E2}");
+        Assert.True(worstDos <= 1e-9, $"DOS {worstDos:E3}");
         // FD of an analytic function with h = 1e-3 of the width: truncation ~1e-20, rounding ~1e-16/1e-3·(E/W) ≈ 1e-12; tolerance 1e-9.
         Assert.True(worst <= 1e-9, $"worst {worst:E3}");
     }
