@@ -564,4 +564,28 @@ public sealed class BandPropertiesTest(ITestOutputHelper output)
         // FD of an analytic function with h = 1e-3 of the width: truncation ~1e-20, rounding ~1e-16/1e-3·(E/W) ≈ 1e-12; tolerance 1e-9.
         Assert.True(worst <= 1e-9, $"worst {worst:E3}");
     }
+
+    [Fact]
+    public void SmoothSegments_EdgeMassAndVelocityWorkAndCurvatureIsRefused()
+    {
+        // Cosine lattice (Fourier segment): edge masses from D′ alone match an 8th-order difference of the engine's
+        // E(k) (Fornberg 1988), as for layered cells; the Taylor-mode quantities are refused, not guessed.
+        var period = Periodic.Units.Length.FromNanometres(2);
+        var mass = EffectiveMass.FromElectronMasses(0.1);
+        var cell = Periodic.Structures.UnitCell.Create(Periodic.Structures.FourierSegment.OpticalLattice(period, 8, mass));
+        var structure = RefinedBandStructure.Compute(cell, 2).Bands;
+        var props = BandProperties.Create(structure);
+        var d = structure.PeriodNanometres;
+        var h = 0.002 * Math.PI / d;
+        var reference = 2 * C / Cells.SecondDerivative(q => structure.EnergyAt(1, q), 0, h);
+        var error = Cells.RelativeError(props.BottomMass(1).ElectronMasses, reference);
+        output.WriteLine($"cosine lattice bottom mass vs FD: {error:E2}");
+        // FD rounding ~1e-14·|E|/(h²|E″|) ≈ 1e-8 here; truncation negligible at hd = 0.002π; tolerance 1e-6.
+        Assert.True(error <= 1e-6, $"{error:E3}");
+        var k = 0.4 * Math.PI / d;
+        var slope = Cells.FirstDerivative(q => structure.EnergyAt(1, q), k, 0.01 * Math.PI / d);
+        Assert.True(Cells.RelativeError(props.GroupVelocityAt(1, k).SlopeElectronVoltNanometres, slope) <= 1e-8);
+        Assert.Throws<NotSupportedException>(() => props.CurvatureMassElectronMasses(1, k));
+        Assert.Throws<NotSupportedException>(() => BlochFunction.Create(structure, 1, k));
+    }
 }
