@@ -17,6 +17,9 @@ public sealed partial class BandProperties
 
     private static readonly double[] FermiBreakpoints = [-40, -24, -12, -6, -2, 0, 2, 6, 12, 24, 40];
 
+    /// <summary>Breakpoints above each band bottom, in k_BT: a non-degenerate band's carriers sit within a few k_BT of it.</summary>
+    private static readonly double[] BottomBreakpoints = [0.25, 1, 4, 12, 40];
+
     /// <summary>
     /// The carrier density per unit length of the 1D crystal (spin included) for Fermi level
     /// <paramref name="fermiLevelElectronVolts"/> and temperature <paramref name="temperatureKelvin"/>:
@@ -26,11 +29,12 @@ public sealed partial class BandProperties
     /// <para>Method: the integral is taken over the Bloch phase instead of the energy,
     /// n = (2/πd) Σ_n ∫₀^π f(E_n(θ/d)) dθ, a substitution that removes the 1/√ Van Hove edges of g(E)
     /// and leaves a smooth integrand. Each band's [0, π] is split at the phases of μ + j·k_BT
-    /// (j = 0, ±2, ±6, ±12, ±24, ±40) and at multiples of π/4, and every panel is integrated by 20-point
+    /// (j = 0, ±2, ±6, ±12, ±24, ±40), at the phases of E_bottom + j·k_BT (j = ¼, 1, 4, 12, 40, where a
+    /// non-degenerate band holds its carriers) and at multiples of π/4, and every panel is integrated by 20-point
     /// Gauss–Legendre (Press et al., Numerical Recipes, §4.6); the 10-point rule on the same panels gives the
     /// error estimate (conservative: it bounds the 10-point error). At T = 0 the occupation is the step
     /// function and the result equals <see cref="IntegratedDensityOfStatesPerNanometre"/> at μ.</para>
-    /// <para>Bands with bottom above max(μ, E₁) + 40 k_BT are omitted (relative contribution below 4e-18).</para>
+    /// <para>Bands with bottom above max(μ, E₁) + 40 k_BT are omitted; a bound on their share is included in the error estimate.</para>
     /// </remarks>
     /// <exception cref="ArgumentOutOfRangeException">The Fermi level is not finite or needs bands that were not computed; the temperature is negative or not finite.</exception>
     public LinearCarrierDensity LinearCarrierDensity(double fermiLevelElectronVolts, double temperatureKelvin)
@@ -121,7 +125,7 @@ public sealed partial class BandProperties
     private (double Value, double Error, int Evaluations) Occupied(double mu, double kT, bool superlattice)
     {
         var reach = Math.Max(mu, _bottoms[0].Energy) + OccupationCutoff * kT;
-        Span<double> cuts = stackalloc double[FermiBreakpoints.Length + 5];
+        Span<double> cuts = stackalloc double[FermiBreakpoints.Length + BottomBreakpoints.Length + 5];
         double total = 0, error = 0;
         var evaluations = 0;
         for (var n = 1; n <= _bottoms.Length && _bottoms[n - 1].Energy < reach; n++)
@@ -143,6 +147,17 @@ public sealed partial class BandProperties
                     cuts[count++] = PhaseOf(n, e);
                 }
             }
+            if (kT > 0)
+            {
+                foreach (var multiple in BottomBreakpoints)
+                {
+                    var e = _bottoms[n - 1].Energy + multiple * kT;
+                    if (e < _tops[n - 1].Energy)
+                    {
+                        cuts[count++] = PhaseOf(n, e);
+                    }
+                }
+            }
             var used = cuts[..count];
             used.Sort();
             for (var i = 0; i + 1 < count; i++)
@@ -159,8 +174,13 @@ public sealed partial class BandProperties
                 error += Math.Abs(fine - coarse);
             }
         }
-        // The omitted tail is below e^-40 of a band's share; add it to the estimate.
-        error += Math.Exp(-OccupationCutoff) * Math.PI * (superlattice ? Math.Max(kT, 1e-300) : 1);
+        // Omitted bands start above reach, where the occupation is below e^(−(reach − μ)/k_BT) (and k_BT times
+        // that for the superlattice integrand); each holds at most π of phase. Twice one band's worth bounds
+        // the rapidly shrinking sum over them. At T = 0 nothing above μ is occupied.
+        if (kT > 0)
+        {
+            error += 2 * Math.PI * Math.Exp(-(reach - mu) / kT) * (superlattice ? kT : 1);
+        }
         return (total, error, evaluations);
     }
 

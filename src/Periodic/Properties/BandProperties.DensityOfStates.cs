@@ -121,7 +121,8 @@ public sealed partial class BandProperties
         var (index, inBand) = Locate(energy, paramName, element);
         if (!inBand)
         {
-            return 0.0;
+            // Within rounding of an edge D may still say |D| ≤ 2: that is the edge itself (Van Hove: +∞).
+            return _transfer.Dispersion(energy).IsInBand ? double.PositiveInfinity : 0.0;
         }
         if (NearClosedEdge(index, energy, ClosedGapWindowFromTrace, out var edge, out var offset))
         {

@@ -45,6 +45,19 @@ public sealed partial class BandProperties
     public GroupVelocity GroupVelocityAtEnergy(double energyElectronVolts)
     {
         var (index, inBand) = Locate(energyElectronVolts, nameof(energyElectronVolts));
+        if (!inBand && _transfer.Dispersion(energyElectronVolts).IsInBand)
+        {
+            if (index == 0)
+            {
+                return new GroupVelocity(1, 0.0, energyElectronVolts, 0.0); // just below the bottom of band 1
+            }
+            // Within rounding of an edge (|D| ≤ 2 just outside the edge energies found): the edge state, v = 0.
+            var below = energyElectronVolts - _tops[index - 1].Energy;
+            var above = (index < _bottoms.Length ? _bottoms[index].Energy : _upperLimit) - energyElectronVolts;
+            var band = below <= above ? index : index + 1;
+            var zoneK = index % 2 == 1 ? Math.PI / _d : 0.0; // odd gaps open at the zone boundary, even ones at the centre
+            return new GroupVelocity(band, zoneK, energyElectronVolts, 0.0);
+        }
         if (!inBand)
         {
             throw new ArgumentOutOfRangeException(nameof(energyElectronVolts), energyElectronVolts, string.Create(CultureInfo.InvariantCulture,

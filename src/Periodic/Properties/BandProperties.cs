@@ -149,6 +149,39 @@ public sealed partial class BandProperties
 
     private static string Format(double value) => Preconditions.Format(value);
 
+    /// <summary>One line per band: edges with their masses and the closed-gap flags.</summary>
+    public override string ToString()
+    {
+        var text = new System.Text.StringBuilder();
+        text.Append(CultureInfo.InvariantCulture, $"BandProperties: {_bottoms.Length} band(s), period {_d:G6} nm, energies up to {_upperLimit:G8} eV").AppendLine();
+        text.AppendLine("  band   bottom (eV)     m* bottom (m0)   top (eV)        m* top (m0)");
+        for (var n = 1; n <= _bottoms.Length; n++)
+        {
+            var bottom = BottomMassText(n);
+            var top = TopMassText(n);
+            text.Append(CultureInfo.InvariantCulture,
+                $"  {n,4}   {_bottoms[n - 1].Energy,-14:F9}  {bottom,-15}{(_bottoms[n - 1].Closed ? "*" : " ")}  {_tops[n - 1].Energy,-14:F9}  {top}{(_tops[n - 1].Closed ? "*" : "")}").AppendLine();
+        }
+        text.Append("  (* closed gap: mass of the smooth crossing)");
+        return text.ToString();
+    }
+
+    private string BottomMassText(int n) => MassText(() => BottomMass(n).ElectronMasses);
+
+    private string TopMassText(int n) => MassText(() => TopMass(n).ElectronMasses);
+
+    private static string MassText(Func<double> mass)
+    {
+        try
+        {
+            return mass().ToString("G8", CultureInfo.InvariantCulture);
+        }
+        catch (NotSupportedException)
+        {
+            return "n/a";
+        }
+    }
+
     /// <summary>Where an energy lies: band n (1-based) or gap n (0 below the first band).</summary>
     private (int Index, bool InBand) Locate(double energy, string parameter, int element = -1)
     {

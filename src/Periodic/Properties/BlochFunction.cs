@@ -27,7 +27,10 @@ namespace Periodic.Properties;
 /// ψ′(0) = 0, the upper band the one with ψ(0) = 0.</para>
 /// <para>Accuracy: relative rounding grows like ε·e^(Σκw) over the evanescent layers of the cell (decay κ,
 /// width w: the decaying and growing parts of the state cancel); it is reported as
-/// <see cref="RelativeErrorEstimate"/>, and cells where it would exceed 1e-6 (Σκw ≳ 22) are refused. With non-parabolic layers the states of different
+/// <see cref="RelativeErrorEstimate"/>. When it would exceed 1e-6 (Σκw ≳ 22), the thickest barrier is bridged
+/// instead: ψ inside it is interpolated between its two interface values, reached forwards from the origin and
+/// backwards from the Bloch-shifted end state, so only the other barriers count; cells still above the limit
+/// are refused. With non-parabolic layers the states of different
 /// energies are not orthogonal in the plain inner product (the mass depends on energy).</para>
 /// </remarks>
 public sealed class BlochFunction
@@ -41,12 +44,18 @@ public sealed class BlochFunction
     private readonly Complex[] _w;
     private readonly Complex _end;
     private readonly Complex _endW;
+    private readonly int _bridged;
+    private readonly Complex _bridgeRight;
+
+    private const double Epsilon = 2.220446049250313e-16;
 
     /// <summary>The largest relative rounding error accepted: the amplification e^(Σκw) of evanescent layers times ε.</summary>
     private const double MaxRelativeErrorEstimate = 1e-6;
 
-    private BlochFunction(double errorEstimate, int bandIndex, double k, double energy, double period, double[] starts, double[] widths, double[] s, double[] masses, Complex[] u, Complex[] w, Complex end, Complex endW, Complex origin, Complex originW)
+    private BlochFunction(double errorEstimate, int bandIndex, double k, double energy, double period, double[] starts, double[] widths, double[] s, double[] masses, Complex[] u, Complex[] w, Complex end, Complex endW, Complex origin, Complex originW, int bridged, Complex bridgeRight)
     {
+        _bridged = bridged;
+        _bridgeRight = bridgeRight;
         StateAtOrigin = (origin, originW);
         RelativeErrorEstimate = errorEstimate;
         BandIndex = bandIndex;
@@ -77,7 +86,7 @@ public sealed class BlochFunction
 
     /// <summary>
     /// Estimated relative rounding error of ψ: ε·e^(Σκw) over the evanescent layers of the cell (κ the decay
-    /// constant at this energy, w the width), from the forward propagation of the state. At most 1e-6.
+    /// constant at this energy, w the width) — without the thickest barrier when that one is bridged. At most 1e-6.
     /// </summary>
     public double RelativeErrorEstimate { get; }
 
@@ -85,8 +94,8 @@ public sealed class BlochFunction
     /// <exception cref="ArgumentNullException"><paramref name="structure"/> is null.</exception>
     /// <exception cref="ArgumentOutOfRangeException">No such band, or k outside the first zone.</exception>
     /// <exception cref="NotSupportedException">The cell holds an element other than a uniform layer or a delta barrier.</exception>
-    /// <exception cref="ArgumentException">The barriers are too opaque at this energy: the estimated relative error
-    /// ε·e^(Σκw) would exceed 1e-6 (Σκw ≳ 22), or the transfer matrix exceeds the double range.</exception>
+    /// <exception cref="ArgumentException">The barriers are too opaque at this energy: even with the thickest barrier
+    /// bridged the estimated relative error would exceed 1e-6, or the transfer matrix exceeds the double range.</exception>
     public static BlochFunction Create(BandStructure structure, int bandIndex, double wavevectorPerNanometre)
     {
         ArgumentNullException.ThrowIfNull(structure);
@@ -103,26 +112,7 @@ public sealed class BlochFunction
             throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
                 $"the transfer matrix of the cell at {energy:R} eV exceeds the double range; the Bloch function cannot be propagated through barriers this opaque."), nameof(structure));
         }
-        var opacity = 0.0;
-        foreach (var element in cell.ElementSpan)
-        {
-            if (element is Layer barrier && barrier.Potential.ElectronVolts > energy)
-            {
-                var excess = energy - barrier.Potential.ElectronVolts;
-                var mass = barrier.Mass.ElectronMasses * (1 + barrier.NonParabolicityPerElectronVolt * excess);
-                opacity += Math.Sqrt(-mass * excess / C) * barrier.Width.Nanometres;
-            }
-        }
-        var errorEstimate = 2.220446049250313e-16 * Math.Exp(opacity);
-        if (!(errorEstimate <= MaxRelativeErrorEstimate))
-        {
-            throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
-                $"the barriers of the cell are too opaque at {energy:R} eV for a forward-propagated Bloch function: the summed decay exponent is {opacity:G4}, so the relative rounding error would reach {errorEstimate:G3} (the limit is {MaxRelativeErrorEstimate:G1})."), nameof(structure));
-        }
-        var lambda = Complex.FromPolarCoordinates(1, wavevectorPerNanometre * d);
-        var (u0, w0) = Eigenvector(structure, bandIndex, m, lambda);
-
-        // Propagate through the cell, recording each layer's left-interface state.
+        // Per-layer data; the opacity Σκw of the evanescent layers sets the rounding of forward propagation.
         var elements = cell.ElementSpan;
         var layerCount = 0;
         foreach (var element in elements)
@@ -136,11 +126,57 @@ public sealed class BlochFunction
         var widths = new double[layerCount];
         var s = new double[layerCount];
         var masses = new double[layerCount];
+        double opacity = 0, thickest = 0, x = 0;
+        var thickIndex = -1;
+        var index = 0;
+        foreach (var element in elements)
+        {
+            if (element is not Layer layer)
+            {
+                continue;
+            }
+            var excess = energy - layer.Potential.ElectronVolts;
+            masses[index] = layer.Mass.ElectronMasses * (1 + layer.NonParabolicityPerElectronVolt * excess);
+            s[index] = masses[index] * excess / C;
+            widths[index] = layer.Width.Nanometres;
+            starts[index] = x;
+            x += widths[index];
+            if (s[index] < 0)
+            {
+                var kw = Math.Sqrt(-s[index]) * widths[index];
+                opacity += kw;
+                if (kw > thickest)
+                {
+                    thickest = kw;
+                    thickIndex = index;
+                }
+            }
+            index++;
+        }
+        var errorEstimate = Epsilon * Math.Exp(opacity);
+        if (!(errorEstimate <= MaxRelativeErrorEstimate))
+        {
+            // Two-sided construction: the thickest barrier is bridged by interpolating ψ between its interface
+            // values, reached forwards from the origin and backwards from the Bloch-shifted end state.
+            errorEstimate = Epsilon * Math.Exp(opacity - thickest);
+            if (!(errorEstimate <= MaxRelativeErrorEstimate))
+            {
+                throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
+                    $"the barriers of the cell are too opaque at {energy:R} eV for a propagated Bloch function: the summed decay exponent outside the thickest barrier is {opacity - thickest:G4}, so the relative rounding error would reach {errorEstimate:G3} (the limit is {MaxRelativeErrorEstimate:G1})."), nameof(structure));
+            }
+        }
+        else
+        {
+            thickIndex = -1;
+        }
+        var lambda = Complex.FromPolarCoordinates(1, wavevectorPerNanometre * d);
+        var (u0, w0) = Eigenvector(structure, bandIndex, m, lambda);
+
+        // Forward from the origin (up to the bridged barrier, if any), recording each layer's left-interface state.
         var us = new Complex[layerCount];
         var ws = new Complex[layerCount];
-        Complex u = u0, w = w0;
-        double x = 0, norm = 0;
-        var index = 0;
+        Complex u = u0, w = w0, right = Complex.Zero;
+        index = 0;
         foreach (var element in elements)
         {
             if (element is DeltaBarrier delta)
@@ -148,24 +184,56 @@ public sealed class BlochFunction
                 w += delta.StrengthElectronVoltNanometres / C * u;
                 continue;
             }
-            var layer = (Layer)element;
-            var excess = energy - layer.Potential.ElectronVolts;
-            var mass = layer.Mass.ElectronMasses * (1 + layer.NonParabolicityPerElectronVolt * excess);
-            var sl = mass * excess / C;
-            var width = layer.Width.Nanometres;
-            starts[index] = x;
-            widths[index] = width;
-            s[index] = sl;
-            masses[index] = mass;
             us[index] = u;
             ws[index] = w;
-            var (c, sinc) = Functions(sl, width);
-            norm += u.Magnitude * u.Magnitude * 0.5 * (width + c * sinc)
-                + 2 * mass * (u * Complex.Conjugate(w)).Real * 0.5 * sinc * sinc
-                + mass * mass * w.Magnitude * w.Magnitude * IntegralOfSincSquared(sl, width, c, sinc);
-            (u, w) = (c * u + mass * sinc * w, -sl / mass * sinc * u + c * w);
-            x += width;
+            if (index == thickIndex)
+            {
+                break;
+            }
+            var (c, sinc) = Functions(s[index], widths[index]);
+            (u, w) = (c * u + masses[index] * sinc * w, -s[index] / masses[index] * sinc * u + c * w);
             index++;
+        }
+        var end = (U: u, W: w);
+        if (thickIndex >= 0)
+        {
+            // Backwards from ψ(d) = e^{ikd}ψ(0) with the inverse layer matrices [[c, −mS], [(s/m)S, c]].
+            Complex ub = lambda * u0, wb = lambda * w0;
+            end = (ub, wb);
+            var li = layerCount - 1;
+            for (var e = elements.Length - 1; e >= 0; e--)
+            {
+                if (elements[e] is DeltaBarrier delta)
+                {
+                    wb -= delta.StrengthElectronVoltNanometres / C * ub;
+                    continue;
+                }
+                if (li == thickIndex)
+                {
+                    right = ub;
+                    break;
+                }
+                var (c, sinc) = Functions(s[li], widths[li]);
+                (ub, wb) = (c * ub - masses[li] * sinc * wb, s[li] / masses[li] * sinc * ub + c * wb);
+                us[li] = ub;
+                ws[li] = wb;
+                li--;
+            }
+        }
+        var norm = 0.0;
+        for (var i = 0; i < layerCount; i++)
+        {
+            if (i == thickIndex)
+            {
+                var (i11, i12) = BridgeIntegrals(Math.Sqrt(-s[i]), widths[i]);
+                norm += (us[i].Magnitude * us[i].Magnitude + right.Magnitude * right.Magnitude) * i11 + 2 * (us[i] * Complex.Conjugate(right)).Real * i12;
+                continue;
+            }
+            var (c, sinc) = Functions(s[i], widths[i]);
+            var mass = masses[i];
+            norm += us[i].Magnitude * us[i].Magnitude * 0.5 * (widths[i] + c * sinc)
+                + 2 * mass * (us[i] * Complex.Conjugate(ws[i])).Real * 0.5 * sinc * sinc
+                + mass * mass * ws[i].Magnitude * ws[i].Magnitude * IntegralOfSincSquared(s[i], widths[i], c, sinc);
         }
         // Normalise and fix the phase.
         var scale = 1 / Math.Sqrt(norm);
@@ -176,7 +244,22 @@ public sealed class BlochFunction
             us[i] *= factor;
             ws[i] *= factor;
         }
-        return new BlochFunction(errorEstimate, bandIndex, wavevectorPerNanometre, energy, d, starts, widths, s, masses, us, ws, u * factor, w * factor, u0 * factor, w0 * factor);
+        return new BlochFunction(errorEstimate, bandIndex, wavevectorPerNanometre, energy, d, starts, widths, s, masses, us, ws,
+            end.U * factor, end.W * factor, u0 * factor, w0 * factor, thickIndex, right * factor);
+    }
+
+    /// <summary>
+    /// ∫₀^w g₁² dt (= ∫ g₂²) and ∫₀^w g₁g₂ dt for g₁ = sinh(κ(w − t))/sinh(κw), g₂ = sinh(κt)/sinh(κw), written
+    /// with e^(−2κw) so that thick barriers do not overflow: coth(κw)/(2κ) − w/(2 sinh²κw) and
+    /// (w cosh κw − sinh(κw)/κ)/(2 sinh²κw).
+    /// </summary>
+    private static (double Same, double Cross) BridgeIntegrals(double kappa, double w)
+    {
+        var q = Math.Exp(-2 * kappa * w);
+        var coth = (1 + q) / (1 - q);
+        var inverseSinhSquared = 4 * q / ((1 - q) * (1 - q));
+        var inverseSinh = 2 * Math.Sqrt(q) / (1 - q);
+        return (coth / (2 * kappa) - 0.5 * w * inverseSinhSquared, 0.5 * w * coth * inverseSinh - inverseSinh / (2 * kappa));
     }
 
     private static (Complex U, Complex W) Eigenvector(BandStructure structure, int bandIndex, TransferMatrix m, Complex lambda)
@@ -362,6 +445,21 @@ public sealed class BlochFunction
             }
         }
         var t = Math.Clamp(x - _starts[lo], 0, _widths[lo]);
+        if (lo == _bridged)
+        {
+            // ψ = u_L·sinh(κ(w − t))/sinh(κw) + u_R·sinh(κt)/sinh(κw), in decaying exponentials.
+            var kappa = Math.Sqrt(-_s[lo]);
+            var width = _widths[lo];
+            var denominator = 1 - Math.Exp(-2 * kappa * width);
+            double eLeft = Math.Exp(-kappa * t), eRight = Math.Exp(-kappa * (width - t));
+            double qLeft = Math.Exp(-2 * kappa * (width - t)), qRight = Math.Exp(-2 * kappa * t);
+            var g1 = eLeft * (1 - qLeft) / denominator;
+            var g2 = eRight * (1 - qRight) / denominator;
+            var g1Prime = -kappa * eLeft * (1 + qLeft) / denominator;
+            var g2Prime = kappa * eRight * (1 + qRight) / denominator;
+            var left = _u[lo];
+            return (left * g1 + _bridgeRight * g2, (left * g1Prime + _bridgeRight * g2Prime) / _masses[lo]);
+        }
         var (c, sinc) = Functions(_s[lo], t);
         var u = _u[lo];
         var w = _w[lo];

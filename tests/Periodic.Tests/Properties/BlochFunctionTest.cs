@@ -259,16 +259,41 @@ public sealed class BlochFunctionTest(ITestOutputHelper output)
     }
 
     [Fact]
-    public void Create_RefusesOpaqueBarriersAndReportsErrorEstimate()
+    public void Create_BridgesOneOpaqueBarrierAndRefusesTwo()
     {
-        // Forward propagation through a barrier amplifies rounding by e^{κw} (growing evanescent solution,
-        // common practice, no single source); the estimate must reflect it and opaque cells must be refused.
+        // Forward propagation through a barrier amplifies rounding by e^{κw} (growing evanescent solution; common
+        // practice, no single source). A 20 nm, 1 eV barrier (κw ≈ 32) is bridged by interpolation; the checks
+        // that can fail: ψ′/m continuous at both barrier interfaces (the bridge uses ψ values only), the norm by
+        // MathNet quadrature, and orthogonality to the next band. Tolerances: the 1e-12 nm offset moves ψ′ by
+        // ~1e-12·|ψ″| ≪ 1e-8 of ψ′; quadrature and rounding 1e-10 / 1e-8 (observed ~1e-13 and below).
+        var opaque = UnitCell.KronigPenney(Periodic.Units.Length.FromNanometres(5), Periodic.Units.Length.FromNanometres(20),
+            Periodic.Units.Energy.FromElectronVolts(1.0), Periodic.Units.EffectiveMass.FromElectronMasses(0.1));
+        var structure = BandStructure.Compute(opaque, 2);
+        var d = structure.PeriodNanometres;
         var thin = BlochFunction.Create(BandStructure.Compute(Cells.WellBarrier(), 1), 1, 0.1);
         Assert.InRange(thin.RelativeErrorEstimate, 2.2e-16, 1e-13);
-        var opaque = Periodic.Structures.UnitCell.KronigPenney(Periodic.Units.Length.FromNanometres(5), Periodic.Units.Length.FromNanometres(20),
-            Periodic.Units.Energy.FromElectronVolts(1.0), Periodic.Units.EffectiveMass.FromElectronMasses(0.1));
-        var structure = BandStructure.Compute(opaque, 1);
-        var error = Assert.Throws<ArgumentException>(() => BlochFunction.Create(structure, 1, 0.1));
+        var psi = BlochFunction.Create(structure, 1, 0.3 * Math.PI / d);
+        var next = BlochFunction.Create(structure, 2, 0.3 * Math.PI / d);
+        Assert.True(psi.RelativeErrorEstimate <= 1e-15);
+        var (uLeft, wLeft) = psi.StateAt(5 - 1e-12);
+        var (uBridge, wBridge) = psi.StateAt(5);
+        var scaleW = Math.Max(wLeft.Magnitude, 1e-300);
+        Assert.True((uLeft - uBridge).Magnitude <= 1e-9 / Math.Sqrt(d));
+        Assert.True((wLeft - wBridge).Magnitude <= 1e-8 * scaleW, $"left: {wLeft} vs {wBridge}");
+        var lambda = Complex.FromPolarCoordinates(1, 0.3 * Math.PI);
+        var (uEnd, wEnd) = psi.StateAt(d);
+        var (u0, w0) = psi.StateAtOrigin;
+        Assert.True((uEnd - lambda * u0).Magnitude <= 1e-9 / Math.Sqrt(d));
+        Assert.True((wEnd - lambda * w0).Magnitude <= 1e-8 * Math.Max(w0.Magnitude, 1e-300), $"right: {wEnd} vs {lambda * w0}");
+        var norm = IntegrateOverCell(opaque, x => Complex.Conjugate(psi.ValueAt(x)) * psi.ValueAt(x));
+        Assert.Equal(1.0, norm.Real, 1e-10);
+        var overlap = IntegrateOverCell(opaque, x => Complex.Conjugate(psi.ValueAt(x)) * next.ValueAt(x));
+        Assert.True(overlap.Magnitude <= 1e-8, $"overlap {overlap.Magnitude:E2}");
+        output.WriteLine($"bridged barrier (kappa w = 32): w mismatch left {(wLeft - wBridge).Magnitude / scaleW:E2}, right {(wEnd - lambda * w0).Magnitude / Math.Max(w0.Magnitude, 1e-300):E2}, norm {Math.Abs(norm.Real - 1):E2}, overlap {overlap.Magnitude:E2}");
+
+        var twoBarriers = UnitCell.Create(opaque.Elements.Concat(opaque.Elements));
+        var doubled = BandStructure.Compute(twoBarriers, 1);
+        var error = Assert.Throws<ArgumentException>(() => BlochFunction.Create(doubled, 1, 0.3 * Math.PI / doubled.PeriodNanometres));
         Assert.Equal("structure", error.ParamName);
         Assert.Contains("opaque", error.Message);
     }

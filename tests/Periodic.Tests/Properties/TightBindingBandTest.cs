@@ -151,4 +151,31 @@ public sealed class TightBindingBandTest(ITestOutputHelper output)
         // At s = 40 the asymptotic form is about 8 % high (REFERENCES.md): accept 1.02 … 1.15.
         Assert.InRange(previous, 1.02, 1.15);
     }
+
+    [Fact]
+    public void NearestNeighbourHopping_DeepOpticalLatticeTrendsToZwerger()
+    {
+        // Zwerger, J. Opt. B 5, S9 (2003) [read in secondary texts, REFERENCES.md]: for V = s·E_R·sin²(πx/d),
+        // J/E_R ≈ (4/√π) s^{3/4} e^{−2√s}, asymptotic, about 8 % high at s = 40. Trend on the smooth potential
+        // (Fourier segment, Magnus propagation refined to 1e-11 of the energy scale): the ratio formula/J falls
+        // towards 1 as s grows. Scenario of our own: d = 400 nm, a 40 u atom expressed in electron masses
+        // (1 u = 1822.888 m0, CODATA 2018).
+        var period = Periodic.Units.Length.FromNanometres(400);
+        var mass = Periodic.Units.EffectiveMass.FromElectronMasses(40 * 1822.888);
+        var recoil = Periodic.Structures.FourierSegment.RecoilEnergy(period, mass).ElectronVolts;
+        var previous = double.PositiveInfinity;
+        foreach (var depth in new[] { 10.0, 20.0, 30.0, 40.0 })
+        {
+            var cell = Periodic.Structures.UnitCell.Create(Periodic.Structures.FourierSegment.OpticalLattice(period, depth, mass));
+            var refined = RefinedBandStructure.Compute(cell, 1);
+            var hopping = TightBindingBand.Fit(refined.Bands, 1).NearestNeighbourHoppingElectronVolts / recoil;
+            var zwerger = 4 / Math.Sqrt(Math.PI) * Math.Pow(depth, 0.75) * Math.Exp(-2 * Math.Sqrt(depth));
+            var ratio = zwerger / hopping;
+            output.WriteLine($"smooth s = {depth}: J/E_R = {hopping:E6}, Zwerger {zwerger:E4}, ratio {ratio:F4}, edge error {refined.MaxEdgeErrorElectronVolts / recoil:E1} E_R");
+            Assert.True(ratio > 1 && ratio < previous, $"s = {depth}: ratio {ratio}");
+            previous = ratio;
+        }
+        // At s = 40 the asymptotic form is about 8 % high (REFERENCES.md): accept 1.02 … 1.15.
+        Assert.InRange(previous, 1.02, 1.15);
+    }
 }
