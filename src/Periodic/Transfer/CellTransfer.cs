@@ -99,6 +99,11 @@ public sealed class CellTransfer
     /// </summary>
     public double LowestValidEnergyElectronVolts { get; }
 
+    /// <summary>One line: element count, period and the lowest valid energy (culture-invariant).</summary>
+    public override string ToString() => double.IsNegativeInfinity(LowestValidEnergyElectronVolts)
+        ? string.Create(CultureInfo.InvariantCulture, $"CellTransfer: {Cell.Elements.Count} element(s), period {PeriodNanometres:G6} nm")
+        : string.Create(CultureInfo.InvariantCulture, $"CellTransfer: {Cell.Elements.Count} element(s), period {PeriodNanometres:G6} nm, energies above {LowestValidEnergyElectronVolts:G6} eV");
+
     /// <summary>Compiles the transfer matrix of <paramref name="cell"/>.</summary>
     /// <exception cref="ArgumentNullException"><paramref name="cell"/> is null.</exception>
     public static CellTransfer Create(UnitCell cell)
