@@ -141,14 +141,18 @@ public sealed class CellTransfer
     /// double range is returned as ±∞ (never NaN). Does not allocate.
     /// </summary>
     /// <exception cref="ArgumentException"><paramref name="destination"/> is shorter than the input.</exception>
-    /// <exception cref="ArgumentOutOfRangeException">An energy is not finite or not above <see cref="LowestValidEnergyElectronVolts"/>.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">An energy is not finite or not above <see cref="LowestValidEnergyElectronVolts"/> (the message names its index); destination is then unchanged.</exception>
     public void Traces(ReadOnlySpan<double> energiesElectronVolts, Span<double> destination)
     {
         Preconditions.CheckDestination(energiesElectronVolts.Length, destination.Length, nameof(energiesElectronVolts), nameof(destination));
+        // Validate every energy before writing anything: no partial output on a bad element.
+        for (var i = 0; i < energiesElectronVolts.Length; i++)
+        {
+            CheckEnergy(energiesElectronVolts[i], i);
+        }
         for (var i = 0; i < energiesElectronVolts.Length; i++)
         {
             var e = energiesElectronVolts[i];
-            CheckEnergy(e, i);
             var p = Accumulate(e);
             destination[i] = (p.P11 + p.P22) * Math.Exp(p.LogScale);
         }
