@@ -61,10 +61,7 @@ public sealed class CellTransfer
                     _potentials[i] = layer.Potential.ElectronVolts;
                     _masses[i] = layer.Mass.ElectronMasses;
                     _massSlopes[i] = layer.Mass.ElectronMasses * layer.NonParabolicityPerElectronVolt;
-                    if (layer.NonParabolicityPerElectronVolt > 0)
-                    {
-                        domain = Math.Max(domain, layer.Potential.ElectronVolts - 1.0 / layer.NonParabolicityPerElectronVolt);
-                    }
+                    domain = Math.Max(domain, layer.LowestValidEnergyElectronVolts());
                     break;
                 case DeltaBarrier delta:
                     _kinds[i] = ElementKind.Delta;
