@@ -3,4 +3,9 @@
 
 using BenchmarkDotNet.Running;
 
+if (args.Length > 0 && args[0] == "--calibrate")
+{
+    Periodic.Benchmarks.Calibration.Run();
+    return;
+}
 BenchmarkSwitcher.FromAssembly(typeof(Program).Assembly).Run(args);

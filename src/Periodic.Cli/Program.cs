@@ -1,12 +1,75 @@
 // SPDX-License-Identifier: MIT
 // Copyright (c) 2026 Periodic contributors
 
+using System.CommandLine;
 using Periodic.Bands;
-using Periodic.Structures;
-using Periodic.Units;
+using Periodic.Cli;
+using Periodic.Cli.Commands;
+using Periodic.Serialization;
 
-// Placeholder until the command-line issue lands: prints the band table of a built-in example.
-var cell = UnitCell.KronigPenney(Length.FromNanometres(5), Length.FromNanometres(2), Energy.FromElectronVolts(0.25),
-    EffectiveMass.FromElectronMasses(0.067), EffectiveMass.FromElectronMasses(0.092));
-Console.WriteLine(BandStructure.Compute(cell, 4));
-return 0;
+// Exit codes: 0 success, 1 a computation failed, 2 bad input or usage. Errors are one line on
+// stderr; --verbose adds the exception detail.
+var verbose = new Option<bool>("--verbose") { Description = "On failure, print the full error detail.", Recursive = true };
+var root = new RootCommand("periodic: bands, dispersion, density of states, transmission and plots of one-dimensional periodic structures. "
+    + "Without arguments, prints the band table of a built-in example superlattice.");
+root.Options.Add(verbose);
+root.Subcommands.Add(BandsCommand.Create());
+root.Subcommands.Add(DispersionCommand.Create());
+root.Subcommands.Add(DosCommand.Create());
+root.Subcommands.Add(TransmissionCommand.Create());
+root.Subcommands.Add(PlotCommand.Create());
+root.Subcommands.Add(ExampleCommand.Create());
+root.SetAction(_ =>
+{
+    Console.Out.Write(BandsCommand.Render(BuiltInExample.Load(), 4, OutputFormat.Table));
+    Console.Out.WriteLine();
+    Console.Out.WriteLine("(built-in example; try: periodic example > my.json && periodic bands my.json --json)");
+    return 0;
+});
+
+var parsed = root.Parse(args);
+if (parsed.Errors.Count > 0)
+{
+    Console.Error.WriteLine($"periodic: error: {OneLine(parsed.Errors[0].Message)} (see periodic --help)");
+    return 2;
+}
+try
+{
+    return parsed.Invoke(new InvocationConfiguration { EnableDefaultExceptionHandler = false });
+}
+catch (Exception e)
+{
+    var code = e switch
+    {
+        UsageException or StructureFileException or ArgumentException or FileNotFoundException or UnauthorizedAccessException => 2,
+        _ => 1,
+    };
+    var what = e switch
+    {
+        BandSearchException => "computation failed: ",
+        UsageException or StructureFileException or ArgumentException => "",
+        IOException or UnauthorizedAccessException => "",
+        _ => "computation failed: ",
+    };
+    Console.Error.WriteLine($"periodic: error: {what}{OneLine(Describe(e))}");
+    if (parsed.GetValue(verbose))
+    {
+        Console.Error.WriteLine(e.ToString());
+    }
+    return code;
+}
+
+static string OneLine(string message) =>
+    System.Text.RegularExpressions.Regex.Replace(message.ReplaceLineEndings(" "), @"\s+", " ").Trim();
+
+// ArgumentException appends "(Parameter 'x')" and "Actual value was v."; our messages already say both.
+static string Describe(Exception e)
+{
+    if (e is not ArgumentException argument)
+    {
+        return e.Message;
+    }
+    var message = argument.Message;
+    var cut = message.IndexOf(" (Parameter '", StringComparison.Ordinal);
+    return cut >= 0 ? message[..cut] : message;
+}

@@ -90,6 +90,11 @@ internal sealed class BandEdgeFinder
                     Store(ca + 1, extremum, error);
                     closedAbove[(ca + 1) / 2] = true;
                 }
+                else if (TryRefineNarrowPair(ca, a, extremum, b, out var lowerRoot, out var upperRoot))
+                {
+                    Store(ca, lowerRoot.Root, lowerRoot.ErrorBound);
+                    Store(ca + 1, upperRoot.Root, upperRoot.ErrorBound);
+                }
                 else
                 {
                     RefineInto(ca, a, extremum);
@@ -244,7 +249,7 @@ internal sealed class BandEdgeFinder
         {
             return true; // |D| exceeds 2 far beyond any rounding: an open gap
         }
-        var width = LinearisedGapWidth(matrix, target);
+        var width = LinearisedGapWidth(matrix, target, out var shift, out var curvature);
         if (double.IsNaN(width))
         {
             // No usable linear model (entries beyond the double range, or a degenerate derivative): fall back
@@ -254,17 +259,67 @@ internal sealed class BandEdgeFinder
             closedError = Math.Max(Math.Abs(extremum) * 1e-12, _options.AbsoluteToleranceElectronVolts);
             return true;
         }
-        closed = width <= tolerance;
-        closedError = Math.Max(Math.Max(width, tolerance), result.ErrorBound);
+        // D′ = 0 comes from a noisy slope; the centre of the linearised pair, E_m − (linear)/(2·quadratic), places
+        // a (nearly) degenerate point better. Move there for the decision (the open-gap refinement keeps E_m,
+        // which is known to lie inside the gap).
+        var centre = extremum;
+        for (var step = 0; step < 3 && Math.Abs(shift) > tolerance; step++)
+        {
+            var moved = centre + shift;
+            if (!(moved > a && moved < b))
+            {
+                break;
+            }
+            var movedMatrix = _transfer.Evaluate(moved);
+            var movedWidth = LinearisedGapWidth(movedMatrix, target, out var movedShift, out var movedCurvature);
+            if (double.IsNaN(movedWidth))
+            {
+                break;
+            }
+            centre = moved;
+            matrix = movedMatrix;
+            width = movedWidth;
+            shift = movedShift;
+            curvature = movedCurvature;
+        }
+        // Rounding accumulated over the product shows in det M − 1 (exactly 0 in exact arithmetic); D ∓ 2 carries
+        // rounding of the same size. A gap whose |D| exceeds 2 by no more than that is closed within resolution.
+        var centreScale = Math.Exp(matrix.LogScale);
+        var m = matrix.Mantissa;
+        // Floor: a few ulps of the largest entry that enters the trace (the rounding of the final sum).
+        var noise = Math.Max(8 * Math.Abs((m.M11 * m.M22 - m.M12 * m.M21) * centreScale * centreScale - 1),
+            64 * 2.220446049250313e-16 * Math.Max(m.MaxAbsEntry * centreScale, 2.0));
+        var centreTrace = m.Trace * centreScale;
+        var centreExcess = target > 0 ? centreTrace - 2 : -2 - centreTrace;
+        if (width <= tolerance)
+        {
+            closed = true;
+            closedError = Math.Max(Math.Max(width, tolerance), Math.Abs(shift));
+        }
+        else if (Math.Min(centreExcess, excessOverTarget) <= noise)
+        {
+            // Closed within the resolution that rounding allows: an open gap this shallow would be at most
+            // 2√(noise/curvature) wide (D ∓ 2 ≈ ±curvature·δ² near the centre), which bounds the edges' error.
+            closed = true;
+            closedError = Math.Max(tolerance, Math.Sqrt(noise / curvature));
+        }
+        if (closed)
+        {
+            extremum = centre;
+        }
         return true;
     }
 
     /// <summary>
     /// The separation of the roots of det(η + δA) = 0 (see <see cref="TrySeparateGapPair"/>), eV; 0 when the
     /// quadratic has no real roots (no gap within rounding); NaN when the model cannot be formed.
+    /// <paramref name="shift"/> is the offset of the quadratic's centre from the evaluation point (eV) and
+    /// <paramref name="curvature"/> its leading coefficient det A (1/eV²).
     /// </summary>
-    private static double LinearisedGapWidth(Transfer.ScaledTransferMatrix matrix, double target)
+    private static double LinearisedGapWidth(Transfer.ScaledTransferMatrix matrix, double target, out double shift, out double curvature)
     {
+        shift = 0;
+        curvature = double.NaN;
         if (matrix.LogScale > 600)
         {
             return double.NaN;
@@ -285,7 +340,81 @@ internal sealed class BandEdgeFinder
             return double.NaN;
         }
         var discriminant = linear * linear - 4 * quadratic * constant;
+        shift = -linear / (2 * quadratic);
+        curvature = quadratic;
         return discriminant <= 0 ? 0.0 : Math.Sqrt(discriminant) / quadratic;
+    }
+
+    /// <summary>
+    /// Refines the two edges of an open but narrow gap, where M is close to ±I, on det(M(E) ∓ I) in product
+    /// form instead of D(E) ∓ 2: both vanish at the edges (det M = 1), but near M = ±I the trace form loses
+    /// its digits to cancellation (|dD/dE| is tiny at the edges of a narrow gap, so an ulp of D moves the edge
+    /// by ulp/|dD/dE|) while the product of the small entries keeps them. Starts from the roots of the
+    /// linearised model (see <see cref="TrySeparateGapPair"/>). False when M is not near ±I or the brackets
+    /// cannot be confirmed; the caller then uses the trace form.
+    /// </summary>
+    private bool TryRefineNarrowPair(int lowerEdge, double a, double extremum, double b, out RootResult lower, out RootResult upper)
+    {
+        lower = upper = default;
+        var matrix = _transfer.Evaluate(extremum);
+        if (matrix.LogScale > 600)
+        {
+            return false;
+        }
+        var scale = Math.Exp(matrix.LogScale);
+        var sign = TargetTrace(lowerEdge) > 0 ? 1.0 : -1.0;
+        var m = matrix.Mantissa;
+        var d = matrix.EnergyDerivativeMantissa;
+        double e11 = m.M11 * scale - sign, e12 = m.M12 * scale, e21 = m.M21 * scale, e22 = m.M22 * scale - sign;
+        if (Math.Max(Math.Abs(e11), Math.Abs(e22)) > 1e-3 || Math.Abs(e12 * e21) > 1e-6)
+        {
+            return false; // not near ±I: the trace form is as well conditioned
+        }
+        double a11 = d.M11 * scale, a12 = d.M12 * scale, a21 = d.M21 * scale, a22 = d.M22 * scale;
+        var quadratic = a11 * a22 - a12 * a21;
+        var linear = e11 * a22 + e22 * a11 - e12 * a21 - e21 * a12;
+        var constant = e11 * e22 - e12 * e21;
+        var discriminant = linear * linear - 4 * quadratic * constant;
+        if (!(quadratic > 0) || !(discriminant > 0) || !double.IsFinite(discriminant))
+        {
+            return false;
+        }
+        var root = Math.Sqrt(discriminant);
+        var below = (-linear - root) / (2 * quadratic);
+        var above = (-linear + root) / (2 * quadratic);
+        if (!(below < 0 && above > 0))
+        {
+            return false;
+        }
+        var function = new DeterminantOffIdentity(_transfer, sign);
+        var lowerEnd = Math.Max(a, extremum + 4 * below);
+        var upperEnd = Math.Min(b, extremum + 4 * above);
+        // Outside the gap det(M ∓ I) = ±(2 ∓ D)·… is positive, inside negative: confirm both brackets.
+        if (!(function.Evaluate(lowerEnd, out _) > 0 && function.Evaluate(extremum, out _) < 0 && function.Evaluate(upperEnd, out _) > 0))
+        {
+            return false;
+        }
+        lower = RootFinding.SafeguardedNewton(ref function, lowerEnd, extremum, _options.AbsoluteToleranceElectronVolts, _options.RelativeTolerance, _options.MaxIterations);
+        upper = RootFinding.SafeguardedNewton(ref function, extremum, upperEnd, _options.AbsoluteToleranceElectronVolts, _options.RelativeTolerance, _options.MaxIterations);
+        return lower.Status == RootStatus.Converged && upper.Status == RootStatus.Converged;
+    }
+
+    /// <summary>det(M(E) − σI) in product form and its exact energy derivative; σ = ±1.</summary>
+    private readonly struct DeterminantOffIdentity(CellTransfer transfer, double sign) : IDifferentiableFunction
+    {
+        public double Evaluate(double x, out double derivative)
+        {
+            var p = transfer.Accumulate(x);
+            if (p.LogScale > 300)
+            {
+                derivative = double.PositiveInfinity;
+                return double.PositiveInfinity; // far outside any narrow gap: only the sign matters
+            }
+            var s = Math.Exp(p.LogScale);
+            double e11 = p.P11 * s - sign, e22 = p.P22 * s - sign, m12 = p.P12 * s, m21 = p.P21 * s;
+            derivative = (p.D11 * e22 + e11 * p.D22 - p.D12 * m21 - m12 * p.D21) * s;
+            return e11 * e22 - m12 * m21;
+        }
     }
 
     private readonly struct TraceMinusTarget(CellTransfer transfer, double target) : IDifferentiableFunction

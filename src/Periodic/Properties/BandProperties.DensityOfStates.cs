@@ -37,7 +37,7 @@ public sealed partial class BandProperties
         Preconditions.CheckDestination(energiesElectronVolts.Length, destinationPerElectronVoltNanometre.Length, nameof(energiesElectronVolts), nameof(destinationPerElectronVoltNanometre));
         for (var i = 0; i < energiesElectronVolts.Length; i++)
         {
-            destinationPerElectronVoltNanometre[i] = DensityOfStates(energiesElectronVolts[i], ElementName(nameof(energiesElectronVolts), i));
+            destinationPerElectronVoltNanometre[i] = DensityOfStates(energiesElectronVolts[i], nameof(energiesElectronVolts), i);
         }
     }
 
@@ -66,7 +66,7 @@ public sealed partial class BandProperties
         Preconditions.CheckDestination(energiesElectronVolts.Length, destinationPerNanometre.Length, nameof(energiesElectronVolts), nameof(destinationPerNanometre));
         for (var i = 0; i < energiesElectronVolts.Length; i++)
         {
-            destinationPerNanometre[i] = IntegratedDensity(energiesElectronVolts[i], ElementName(nameof(energiesElectronVolts), i));
+            destinationPerNanometre[i] = IntegratedDensity(energiesElectronVolts[i], nameof(energiesElectronVolts), i);
         }
     }
 
@@ -100,7 +100,7 @@ public sealed partial class BandProperties
         Preconditions.CheckDestination(energiesElectronVolts.Length, destinationPerElectronVoltCubicNanometre.Length, nameof(energiesElectronVolts), nameof(destinationPerElectronVoltCubicNanometre));
         for (var i = 0; i < energiesElectronVolts.Length; i++)
         {
-            destinationPerElectronVoltCubicNanometre[i] = factor * IntegratedDensity(energiesElectronVolts[i], ElementName(nameof(energiesElectronVolts), i));
+            destinationPerElectronVoltCubicNanometre[i] = factor * IntegratedDensity(energiesElectronVolts[i], nameof(energiesElectronVolts), i);
         }
     }
 
@@ -116,9 +116,9 @@ public sealed partial class BandProperties
         return inPlaneMass.ElectronMasses / (4 * Math.PI * C);
     }
 
-    private double DensityOfStates(double energy, string paramName)
+    private double DensityOfStates(double energy, string paramName, int element = -1)
     {
-        var (index, inBand) = Locate(energy, paramName);
+        var (index, inBand) = Locate(energy, paramName, element);
         if (!inBand)
         {
             return 0.0;
@@ -139,9 +139,9 @@ public sealed partial class BandProperties
         return double.IsNaN(density) ? double.PositiveInfinity : density;
     }
 
-    private double IntegratedDensity(double energy, string paramName)
+    private double IntegratedDensity(double energy, string paramName, int element = -1)
     {
-        var (index, inBand) = Locate(energy, paramName);
+        var (index, inBand) = Locate(energy, paramName, element);
         if (!inBand)
         {
             return 2.0 * index / _d;

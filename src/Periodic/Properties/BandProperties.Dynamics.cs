@@ -20,9 +20,9 @@ public sealed partial class BandProperties
     /// the velocity is odd in k.</para>
     /// <para>At a zone point (k = 0 or ±π/d) the velocity is exactly 0 at an open gap. At a closed gap
     /// (the two bands cross linearly) it is the one-sided limit from inside the zone, taken towards
-    /// k ≥ 0: |dE/dk| of the crossing, positive in odd bands, negative in even bands. Within 1e-8 of
-    /// the band width of a closed gap the local expansion E = E₀ + a q + b q² is used; the relative accuracy
-    /// there is about 1e-8 instead of rounding level.</para>
+    /// k ≥ 0: |dE/dk| of the crossing, positive in odd bands, negative in even bands. Within 1e-4 in kd of
+    /// a closed gap the local expansion E = E₀ + a q + b q² is used; the relative accuracy there is about 1e-8
+    /// instead of rounding level.</para>
     /// </remarks>
     /// <exception cref="ArgumentOutOfRangeException">No such band, or k is not finite or outside the first zone.</exception>
     public GroupVelocity GroupVelocityAt(int bandIndex, double wavevectorPerNanometre)
@@ -39,7 +39,8 @@ public sealed partial class BandProperties
     /// positive in odd bands (E rises from the zone centre), negative in even bands.
     /// </summary>
     /// <remarks>Method as for <see cref="GroupVelocityAt"/>, with sin(kd) = √(4 − D²)/2. At an exact open band edge
-    /// the velocity is 0; an energy exactly at a closed gap belongs to the upper of the two bands.</remarks>
+    /// the velocity is 0; an energy exactly at a closed gap belongs to the upper of the two bands; within 1e-4 of
+    /// the band width of a closed gap the crossing expansion is used (≈ 1e-8 relative).</remarks>
     /// <exception cref="ArgumentOutOfRangeException">The energy is not finite, outside the computed range, or in a gap.</exception>
     public GroupVelocity GroupVelocityAtEnergy(double energyElectronVolts)
     {
@@ -67,7 +68,7 @@ public sealed partial class BandProperties
         for (var i = 0; i < wavevectorsPerNanometre.Length; i++)
         {
             var k = wavevectorsPerNanometre[i];
-            var phase = Phase(k, string.Create(CultureInfo.InvariantCulture, $"wavevectorsPerNanometre[{i}]"));
+            var phase = Phase(k, nameof(wavevectorsPerNanometre), i);
             var energy = _structure.EnergyAt(bandIndex, Math.Min(phase / _d, Math.PI / _d));
             destinationElectronVoltNanometres[i] = SlopeAtPhase(bandIndex, phase, energy) * (k < 0 ? -1.0 : 1.0);
         }
@@ -101,10 +102,22 @@ public sealed partial class BandProperties
             ThrowIfNoCrossing(edge, "The group velocity");
             return parity * edge.CrossingSlope;
         }
-        if (NearClosedEdge(bandIndex, energy, fromTrace ? ClosedGapWindowFromTrace : ClosedGapWindowFromPhase, out var closed, out var offset))
+        EdgeData closed;
+        double offset;
+        bool near;
+        if (fromTrace)
+        {
+            near = NearClosedEdge(bandIndex, energy, ClosedGapWindowFromTrace, out closed, out offset);
+        }
+        else
+        {
+            near = NearClosedZonePoint(bandIndex, phase, out closed, out var q);
+            offset = closed.CrossingSlope * q + closed.CrossingCurvature * q * q; // δ = a q + b q²
+        }
+        if (near)
         {
             ThrowIfNoCrossing(closed, "The group velocity");
-            // dE/dq = a + 2bq with q ≈ δ/a along the smooth extended-zone crossing.
+            // dE/dq = a + 2bq along the smooth extended-zone crossing, with q ≈ δ/a from the energy offset δ.
             return parity * (closed.CrossingSlope + 2 * closed.CrossingCurvature * offset / closed.CrossingSlope);
         }
         var slope = _transfer.Dispersion(energy).TraceDerivativePerElectronVolt;
@@ -166,8 +179,9 @@ public sealed partial class BandProperties
     /// Method: differentiating dE/dk = −2d sin(kd)/D′ once more gives, exactly,
     /// d²E/dk² = −2d² cos(kd)/D′ − 4d² sin²(kd)·D″/D′³, with D′ and D″ exact (Taylor-mode
     /// propagation of the cell's transfer matrix, see the user guide). At a zone point this reduces to the
-    /// band-edge mass (<see cref="BottomMass"/>); at a closed gap, to the mass of the smooth crossing.
-    /// Supported for cells of uniform layers and delta barriers.
+    /// band-edge mass (<see cref="BottomMass"/>); at a closed gap, to the mass of the smooth crossing, which is
+    /// also returned within 1e-4 in kd of a closed gap, where E(k) itself is too ill-conditioned for the formula
+    /// (accuracy there ≈ 1e-4 relative). Supported for cells of uniform layers and delta barriers.
     /// </remarks>
     /// <exception cref="ArgumentOutOfRangeException">No such band, or k outside the first zone.</exception>
     /// <exception cref="NotSupportedException">The cell holds an element other than a uniform layer or a delta barrier.</exception>
@@ -193,7 +207,7 @@ public sealed partial class BandProperties
             }
             return -2 * _d * _d * edge.Sigma / edge.TraceSlope;
         }
-        if (NearClosedEdge(bandIndex, energy, ClosedGapWindowFromPhase, out var closed, out _))
+        if (NearClosedZonePoint(bandIndex, phase, out var closed, out _))
         {
             ThrowIfNoCrossing(closed, "The curvature mass");
             return 2 * closed.CrossingCurvature;

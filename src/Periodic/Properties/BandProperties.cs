@@ -35,10 +35,13 @@ public sealed partial class BandProperties
     private const double ClosedGapWindowFromTrace = 1e-4;
 
     /// <summary>
-    /// As <see cref="ClosedGapWindowFromTrace"/> for quantities computed from the exact k (D′/sin kd: ε/δ
-    /// against δ for the curvature), balanced at δ = √ε ≈ 1e-8.
+    /// Half-width in Bloch phase |kd − zone point| of the window around a closed gap inside which quantities
+    /// at a given k use the crossing expansion. E(k) from the trace carries a relative error ε/(qd)² in E − E₀
+    /// there (cos kd near ±1 resolves (qd)² only to ε), which the slope inherits and the curvature amplifies to
+    /// ε/(qd)³; the expansion errs by O((qd)²) for the slope and O(qd) for the curvature. At 1e-4 the slope is
+    /// good to ≈ 1e-8 and the curvature to ≈ 1e-4 (documented).
     /// </summary>
-    private const double ClosedGapWindowFromPhase = 1e-8;
+    private const double ClosedGapPhaseWindow = 1e-4;
 
     private readonly BandStructure _structure;
     private readonly CellTransfer _transfer;
@@ -147,11 +150,13 @@ public sealed partial class BandProperties
     private static string Format(double value) => Preconditions.Format(value);
 
     /// <summary>Where an energy lies: band n (1-based) or gap n (0 below the first band).</summary>
-    private (int Index, bool InBand) Locate(double energy, string paramName)
+    private (int Index, bool InBand) Locate(double energy, string parameter, int element = -1)
     {
         if (!double.IsFinite(energy) || energy <= _transfer.LowestValidEnergyElectronVolts || energy > _upperLimit)
         {
-            throw new ArgumentOutOfRangeException(paramName, energy, string.Create(CultureInfo.InvariantCulture,
+            // ParamName is the real parameter; the message names the element of a span.
+            var paramName = element < 0 ? parameter : ElementName(parameter, element);
+            throw new ArgumentOutOfRangeException(parameter, energy, string.Create(CultureInfo.InvariantCulture,
                 $"{paramName} must be a finite energy above {Format(_transfer.LowestValidEnergyElectronVolts)} eV and at most {Format(_upperLimit)} eV (the bottom of band {_bottoms.Length + 1}, the first band not computed); got {Format(energy)}. Compute more bands to go higher."));
         }
         // Largest n with bottom_n ≤ E.
@@ -179,12 +184,13 @@ public sealed partial class BandProperties
     private int CheckBand(int bandIndex) => Preconditions.CheckRange(bandIndex, 1, _bottoms.Length);
 
     /// <summary>Reduces k to the Bloch phase |k|d in [0, π]; throws outside the first zone.</summary>
-    private double Phase(double k, string paramName)
+    private double Phase(double k, string parameter, int element = -1)
     {
         var phase = Math.Abs(k) * _d;
         if (!(phase <= Math.PI * (1 + 8 * 2.220446049250313e-16)))
         {
-            throw new ArgumentOutOfRangeException(paramName, k,
+            var paramName = element < 0 ? parameter : ElementName(parameter, element);
+            throw new ArgumentOutOfRangeException(parameter, k,
                 $"{paramName} must be a finite wavevector in the first Brillouin zone [-pi/d, pi/d] = [-{Format(Math.PI / _d)}, {Format(Math.PI / _d)}] 1/nm; got {Format(k)}.");
         }
         return Math.Min(phase, Math.PI);
@@ -196,14 +202,32 @@ public sealed partial class BandProperties
         var window = relativeWindow * Math.Max(_tops[bandIndex - 1].Energy - _bottoms[bandIndex - 1].Energy, 1e-300);
         edge = _tops[bandIndex - 1];
         offset = energy - edge.Energy;
-        if (edge.Closed && Math.Abs(offset) <= window)
+        if (HasCrossing(edge) && Math.Abs(offset) <= window)
         {
             return true;
         }
         edge = _bottoms[bandIndex - 1];
         offset = energy - edge.Energy;
-        return edge.Closed && Math.Abs(offset) <= window;
+        return HasCrossing(edge) && Math.Abs(offset) <= window;
     }
+
+    /// <summary>
+    /// The closed-gap edge of band n at the zone point nearest to Bloch phase θ, when θ lies within
+    /// <see cref="ClosedGapPhaseWindow"/> of it; <paramref name="offset"/> is the extended-zone offset q (1/nm)
+    /// along which E rises: E ≈ E₀ + a q + b q².
+    /// </summary>
+    private bool NearClosedZonePoint(int bandIndex, double phase, out EdgeData edge, out double offset)
+    {
+        var atCenter = phase < 0.5 * Math.PI;
+        var distance = atCenter ? phase : Math.PI - phase;
+        var isBottom = atCenter == (bandIndex % 2 == 1);
+        edge = isBottom ? _bottoms[bandIndex - 1] : _tops[bandIndex - 1];
+        offset = (isBottom ? 1 : -1) * distance / _d;
+        return HasCrossing(edge) && distance <= ClosedGapPhaseWindow;
+    }
+
+    /// <summary>A closed gap whose crossing slope is usable (or unknown, NaN, so that the caller reports it); a zero slope (D″ = 0 too) falls back to the general formulas.</summary>
+    private static bool HasCrossing(EdgeData edge) => edge.Closed && edge.CrossingSlope != 0;
 
     private static void ThrowIfNoCrossing(EdgeData edge, string what)
     {

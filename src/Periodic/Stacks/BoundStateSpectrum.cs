@@ -29,6 +29,8 @@ namespace Periodic.Stacks;
 /// </remarks>
 public sealed class BoundStateSpectrum
 {
+    private const double ThresholdMarginElectronVolts = 1e-15;
+
     private readonly StackProfile _profile;
     private readonly BoundLevel[] _levels;
 
@@ -55,7 +57,7 @@ public sealed class BoundStateSpectrum
     /// <summary>The energy below which the count proved there is no level, eV.</summary>
     public double LowerBoundElectronVolts { get; }
 
-    /// <summary>The lower of the two lead band edges, eV: above it states are not bound.</summary>
+    /// <summary>The lower of the two lead band edges, eV: above it states are not bound (levels bound by less than 1e-15 eV are not counted).</summary>
     public double ContinuumEdgeElectronVolts { get; }
 
     /// <summary>The options used.</summary>
@@ -72,7 +74,8 @@ public sealed class BoundStateSpectrum
         options.Validate(nameof(options));
         var profile = new StackProfile(stack, options.MaxElements, nameof(stack));
         var edge = Math.Min(stack.LeftLead.PotentialElectronVolts, stack.RightLead.PotentialElectronVolts);
-        var top = Math.BitDecrement(edge);
+        // Binding energies below 1e-15 eV (relative to max(1, |edge|)) are not resolvable: the count stops there.
+        var top = edge - ThresholdMarginElectronVolts * Math.Max(1, Math.Abs(edge));
         var lowestValid = profile.LowestValidEnergyElectronVolts;
 
         // A floor with no level below: the lowest potential, lowered further for delta wells until the count is zero.
@@ -183,7 +186,7 @@ public sealed class BoundStateSpectrum
     public int CountBelow(double energyElectronVolts)
     {
         Preconditions.CheckFinite(energyElectronVolts);
-        if (energyElectronVolts >= ContinuumEdgeElectronVolts)
+        if (energyElectronVolts >= ContinuumEdgeElectronVolts - ThresholdMarginElectronVolts * Math.Max(1, Math.Abs(ContinuumEdgeElectronVolts)))
         {
             return TotalCount;
         }

@@ -6,8 +6,10 @@ using Periodic.Numerics;
 namespace Periodic.Stacks;
 
 /// <summary>
-/// Transmission-peak search: a uniform scan refined wherever the phase of t turns faster than the
-/// allowed step (a resonance turns it by about π, so no peak hides between samples), then for each
+/// Transmission-peak search: a uniform scan refined wherever the phase of t turns by more than the
+/// allowed step between samples — judged from the wrapped phase difference and from the phase slope
+/// at both ends (a resonance turns it by about π, so no isolated peak hides between samples, and dense
+/// peaks are resolved) — then for each
 /// local maximum a golden-section maximisation of ln T, Brent roots of T = T_peak/2 for the width, and
 /// a Brent root of the central difference ln T(E + h) − ln T(E − h) with Richardson extrapolation in h
 /// for the peak energy (R. P. Brent, Algorithms for Minimization without Derivatives, 1973; J. Kiefer,
@@ -18,8 +20,9 @@ internal static class ResonanceFinder
     private const double Ln2 = 0.6931471805599453;
     private const int MaxIterations = 200;
     private const double RelativeTolerance = 4e-16;
+    private const double EdgeMargin = 1e-12;
 
-    private readonly record struct Sample(double Energy, double LogT, double Phase);
+    private readonly record struct Sample(double Energy, double LogT, double Phase, double PhaseSlope, double BlochPhase);
 
     private struct LevelFunction(StackTransmission transmission, double level) : IRealFunction
     {
@@ -35,22 +38,27 @@ internal static class ResonanceFinder
     internal static ResonanceSpectrum Find(StackTransmission transmission, double lower, double upper, ResonanceSearchOptions options)
     {
         var edge = Math.Max(transmission.Stack.LeftLead.PotentialElectronVolts, transmission.Stack.RightLead.PotentialElectronVolts);
-        var lo = Math.Max(lower, Math.BitIncrement(edge));
-        lo = Math.Max(lo, Math.BitIncrement(transmission.LowestValidEnergyElectronVolts));
+        edge = Math.Max(edge, transmission.LowestValidEnergyElectronVolts);
+        // Start just above the higher lead edge (k = 0 there: no current, no peak).
+        var lo = Math.Max(lower, edge + EdgeMargin * Math.Max(1, Math.Abs(edge)));
         if (!(lo < upper))
         {
             return new ResonanceSpectrum([], lo, upper, 0, true, options);
         }
         var evaluations = 0;
         var complete = true;
+        var n = options.ScanPoints;
+        // Step for the phase slope d(arg t)/dE at each sample: far below the scan step.
+        var slopeStep = 1e-6 * (upper - lo) / (n - 1);
         Sample Eval(double e)
         {
-            evaluations++;
+            evaluations += 2;
             var r = transmission.EvaluateCore(e);
-            return new Sample(e, r.LogTransmission, r.TransmissionPhase);
+            var ahead = transmission.EvaluateCore(e + slopeStep);
+            var slope = Math.IEEERemainder(ahead.TransmissionPhase - r.TransmissionPhase, 2 * Math.PI) / slopeStep;
+            return new Sample(e, r.LogTransmission, r.TransmissionPhase, slope, transmission.UnfoldedBlochPhase(e));
         }
 
-        var n = options.ScanPoints;
         var samples = new List<Sample>(n);
         var previous = Eval(lo);
         samples.Add(previous);
@@ -63,7 +71,14 @@ internal static class ResonanceFinder
 
         void Refine(Sample a, Sample b, int depth)
         {
-            var turn = Math.Abs(Math.IEEERemainder(b.Phase - a.Phase, 2 * Math.PI));
+            // The turn of arg t across the step: the wrapped difference (catches an isolated narrow peak
+            // between the samples) or the slope at either end times the step (catches dense peaks whose
+            // turns would wrap to nothing).
+            var step = b.Energy - a.Energy;
+            // For repeated cells the unfolded Bloch phase N·kd, which is monotonic and needs no unwrapping,
+            // bounds how many of their peaks the step can hold.
+            var turn = Math.Max(Math.Abs(Math.IEEERemainder(b.Phase - a.Phase, 2 * Math.PI)),
+                Math.Max(Math.Max(Math.Abs(a.PhaseSlope), Math.Abs(b.PhaseSlope)) * step, Math.Abs(b.BlochPhase - a.BlochPhase)));
             var mid = 0.5 * (a.Energy + b.Energy);
             if (turn > options.MaxPhaseStepRadians && mid > a.Energy && mid < b.Energy)
             {

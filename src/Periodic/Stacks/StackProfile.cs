@@ -181,7 +181,8 @@ internal sealed class StackProfile
         {
             zeros++;
         }
-        mismatch = growing / Math.Sqrt(u * u + tail * tail);
+        var scale = Math.Max(Math.Abs(u), Math.Abs(tail));
+        mismatch = scale > 0 && double.IsFinite(scale) ? (u / scale + tail / scale) / Math.Sqrt((u / scale) * (u / scale) + (tail / scale) * (tail / scale)) : 0.0;
         return zeros;
     }
 

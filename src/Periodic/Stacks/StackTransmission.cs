@@ -65,12 +65,15 @@ public sealed class StackTransmission
                         compiled[j] = new CompiledElement(null, delta.StrengthElectronVoltNanometres / C);
                         break;
                     default:
-                        throw new ArgumentException(
-                            string.Create(CultureInfo.InvariantCulture, $"stack part {i}, element {j} is of unsupported type {elements[j].GetType().Name}."),
-                            nameof(stack));
+                        // Any other element of positive width (a smooth segment) propagates through its own
+                        // one-element cell; the core rejects kinds it cannot propagate.
+                        var segment = CellTransfer.Create(UnitCell.Create(elements[j]));
+                        lowest = Math.Max(lowest, segment.LowestValidEnergyElectronVolts);
+                        compiled[j] = new CompiledElement(segment, 0);
+                        break;
                 }
             }
-            _parts[i] = new CompiledPart(compiled, part.Repetitions);
+            _parts[i] = new CompiledPart(compiled, part.Repetitions, part.Cell is null || part.Repetitions == 1 ? null : CellTransfer.Create(part.Cell));
         }
         _potentials = materials.Select(m => m.V).ToArray();
         _masses = materials.Select(m => m.M).ToArray();
@@ -178,9 +181,13 @@ public sealed class StackTransmission
     /// their energies, heights, full widths at half maximum and lifetimes ħ/Γ.
     /// </summary>
     /// <remarks>
-    /// Method: a uniform scan, refined by halving wherever arg t turns by more than
-    /// <see cref="ResonanceSearchOptions.MaxPhaseStepRadians"/> between samples (a resonance turns the
-    /// transmission phase by about π, so a narrow peak is caught however narrow it is); each local maximum
+    /// Method: a uniform scan, refined by halving wherever a phase turns by more than
+    /// <see cref="ResonanceSearchOptions.MaxPhaseStepRadians"/> between samples: the wrapped change of arg t
+    /// (a resonance turns the transmission phase by about π, so an isolated peak is caught however narrow
+    /// it is), the slope of arg t times the step, and, for repeated cells, the change of N·kd with kd the
+    /// Bloch phase unfolded into the extended zone (monotonic, from the core's band-edge count: it rises by π
+    /// from one peak of the N-period stack to the next, so the dense narrow peaks near miniband edges are
+    /// all resolved). Each local maximum
     /// of ln T is refined by golden section (J. Kiefer, Proc. AMS 4, 502 (1953)), its half-maximum points
     /// by Brent's method (R. P. Brent, 1973), and its energy as the Brent root of
     /// ln T(E + h) − ln T(E − h) at h, h/2 and h/4 with Richardson extrapolation (h = 0.2% of the half width); the
@@ -230,32 +237,39 @@ public sealed class StackTransmission
         }
     }
 
-    /// <summary>The reference impedance: geometric mean of |k|/m over the materials present, so every element is converted well-conditioned.</summary>
+    /// <summary>
+    /// The reference impedance: geometric mean of |k|/m over the materials present (each taken at least
+    /// 1e-3 of the largest, so a layer at its own band edge does not drag the mean away from the rest),
+    /// so that every element converts well-conditioned.
+    /// </summary>
     private double ReferenceImpedance(double e)
     {
-        double sumLog = 0;
-        var count = 0;
+        double max = 0;
         for (var i = 0; i < _potentials.Length; i++)
         {
-            var excess = e - _potentials[i];
-            var mass = _masses[i] + _slopes[i] * excess;
-            var s = Math.Abs(mass * excess / C);
-            if (s > 0)
-            {
-                sumLog += 0.5 * Math.Log(s) - Math.Log(mass);
-                count++;
-            }
+            max = Math.Max(max, Impedance(e, _potentials[i], _masses[i], _slopes[i]));
         }
-        foreach (var lead in (ReadOnlySpan<Lead>)[Stack.LeftLead, Stack.RightLead])
+        max = Math.Max(max, Impedance(e, Stack.LeftLead.PotentialElectronVolts, Stack.LeftLead.MassElectronMasses, 0));
+        max = Math.Max(max, Impedance(e, Stack.RightLead.PotentialElectronVolts, Stack.RightLead.MassElectronMasses, 0));
+        if (!(max > 0) || !double.IsFinite(max))
         {
-            var s = Math.Abs(lead.MassElectronMasses * (e - lead.PotentialElectronVolts) / C);
-            if (s > 0)
-            {
-                sumLog += 0.5 * Math.Log(s) - Math.Log(lead.MassElectronMasses);
-                count++;
-            }
+            return 1.0;
         }
-        return count == 0 ? 1.0 : Math.Exp(sumLog / count);
+        var floor = 1e-3 * max;
+        double sumLog = Math.Log(Math.Max(floor, Impedance(e, Stack.LeftLead.PotentialElectronVolts, Stack.LeftLead.MassElectronMasses, 0)))
+            + Math.Log(Math.Max(floor, Impedance(e, Stack.RightLead.PotentialElectronVolts, Stack.RightLead.MassElectronMasses, 0)));
+        for (var i = 0; i < _potentials.Length; i++)
+        {
+            sumLog += Math.Log(Math.Max(floor, Impedance(e, _potentials[i], _masses[i], _slopes[i])));
+        }
+        return Math.Exp(sumLog / (_potentials.Length + 2));
+    }
+
+    private static double Impedance(double e, double potential, double mass, double slope)
+    {
+        var excess = e - potential;
+        var m = mass + slope * excess;
+        return Math.Sqrt(Math.Abs(m * excess / C)) / m;
     }
 
     /// <summary>The scattering matrix of everything between the leads, in the reference basis q.</summary>
@@ -306,7 +320,39 @@ public sealed class StackTransmission
         return new TransmissionResult(e, LeadChannels.Open, logT, s.R, s.T, s.LogScale);
     }
 
-    private readonly record struct CompiledPart(CompiledElement[] Elements, int Repetitions);
+    private readonly record struct CompiledPart(CompiledElement[] Elements, int Repetitions, CellTransfer? Cell);
+
+    /// <summary>
+    /// Σ over repeated parts of N·θ(E), θ the Bloch phase kd of the part's cell unfolded into the extended
+    /// zone (band n: θ from (n − 1)π to nπ; constant in gaps), from the core's band-edge count. It rises by
+    /// π between consecutive zeros of sin(N kd), i.e. between the transmission peaks a repeated cell makes.
+    /// </summary>
+    internal double UnfoldedBlochPhase(double e)
+    {
+        double total = 0;
+        foreach (var part in _parts)
+        {
+            if (part.Cell is null)
+            {
+                continue;
+            }
+            var edges = part.Cell.CountBandEdgesBelow(e);
+            double theta;
+            if ((edges & 1) == 0)
+            {
+                theta = edges / 2 * Math.PI; // in the gap above band edges/2
+            }
+            else
+            {
+                var band = (edges + 1) / 2;
+                var kd = part.Cell.Dispersion(e).Wavevector.PhasePerPeriod; // in [0, π]
+                var within = (band & 1) == 1 ? kd : Math.PI - kd;
+                theta = (band - 1) * Math.PI + within;
+            }
+            total += part.Repetitions * theta;
+        }
+        return total;
+    }
 
     private readonly record struct CompiledElement(CellTransfer? Layer, double DeltaJump)
     {

@@ -116,15 +116,27 @@ public sealed partial class BandStructureTest
         var eBeta = v0 + Math.PI * Math.PI * c;
         var inside = Enumerable.Range(1, 63).Select(i => eAlpha + (eBeta - eAlpha) * i / 64).MinBy(e => F(e) + 1);
         Assert.True(F(inside) + 1 < 0, "the perturbation must open the gap");
-        var lower = ClosedForms.BrentRoot(e => F(e) + 1, eAlpha, inside);
-        var upper = ClosedForms.BrentRoot(e => F(e) + 1, inside, eBeta);
+        // Reference edges from det(M + I) = D + 2 in product form (ClosedForms.KronigPenneyDeterminant), which
+        // keeps its digits near M = −I; the published trace form F + 1 loses them there (|dF/dE| ~ 1e-6 /eV at
+        // these edges, so one ulp of F moves an edge by ~1e-10 eV): it only confirms the width to 1 %.
+        var lower = ClosedForms.BrentRoot(e => ClosedForms.KronigPenneyDeterminant(1, 1, v0, 1, e, 1), eAlpha, inside);
+        var upper = ClosedForms.BrentRoot(e => ClosedForms.KronigPenneyDeterminant(1, 1, v0, 1, e, 1), inside, eBeta);
+        var lowerTrace = ClosedForms.BrentRoot(e => F(e) + 1, eAlpha, inside);
+        var upperTrace = ClosedForms.BrentRoot(e => F(e) + 1, inside, eBeta);
+        Assert.Equal(upper - lower, upperTrace - lowerTrace, 0.01 * (upper - lower));
+
         var bands = BandStructure.Compute(KronigPenney(1, 1, v0, 1, 1), 8);
         var gap = bands.Gaps.MinBy(g => Math.Abs(g.LowerElectronVolts - eAlpha));
         Assert.False(gap.IsClosed, $"{gap}: a gap of {upper - lower:E3} eV must not be reported closed");
-        // Conditioning: near a nearly degenerate pair |dD/dE| at an edge is only ~1e-6 /eV, so rounding of D
-        // (a few ε) moves each edge, here and in the closed form, by up to ~1e-9 eV: 5 % of the width.
-        Assert.Equal(upper - lower, gap.WidthElectronVolts, 0.05 * (upper - lower));
-        Assert.Equal(lower, gap.LowerElectronVolts, 0.05 * (upper - lower));
-        output.WriteLine($"KP narrow gap: width {gap.WidthElectronVolts:E4} eV vs closed form {upper - lower:E4} eV (relative {Math.Abs(gap.WidthElectronVolts / (upper - lower) - 1):E2})");
+        Assert.Equal(lower, gap.LowerElectronVolts, EdgeTolerance(lower));
+        Assert.Equal(upper, gap.UpperElectronVolts, EdgeTolerance(upper));
+        // Each edge to ~ε·E, so the 1e-7 eV width to better than 1e-6 relative.
+        Assert.Equal(upper - lower, gap.WidthElectronVolts, 1e-6 * (upper - lower));
+        // The reported error bounds must cover the true errors.
+        var topError = bands.GetBand(gap.Index).TopErrorElectronVolts;
+        var bottomError = bands.GetBand(gap.Index + 1).BottomErrorElectronVolts;
+        Assert.True(Math.Abs(gap.LowerElectronVolts - lower) <= topError + 4 * DoubleEpsilon * lower);
+        Assert.True(Math.Abs(gap.UpperElectronVolts - upper) <= bottomError + 4 * DoubleEpsilon * upper);
+        output.WriteLine($"KP narrow gap ({upper - lower:E3} eV): edge errors {Math.Abs(gap.LowerElectronVolts / lower - 1):E2}, {Math.Abs(gap.UpperElectronVolts / upper - 1):E2} relative, width error {Math.Abs(gap.WidthElectronVolts / (upper - lower) - 1):E2}, reported bounds {topError:E2}, {bottomError:E2} eV");
     }
 }

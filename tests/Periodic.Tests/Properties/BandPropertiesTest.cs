@@ -259,6 +259,7 @@ public sealed class BandPropertiesTest(ITestOutputHelper output)
     {
         // Sum rule: each band holds 2 states per period, spin included (Ashcroft and Mermin ch. 8),
         // so N = 2n/d at the top of band n and across gap n; N is continuous at every edge.
+        var worstTop = 0.0;
         foreach (var cell in new[] { Cells.WellBarrier(), Cells.Mixed(), Cells.DiracComb() })
         {
             var structure = BandStructure.Compute(cell, 5);
@@ -267,6 +268,7 @@ public sealed class BandPropertiesTest(ITestOutputHelper output)
             for (var n = 1; n <= 5; n++)
             {
                 var band = structure.GetBand(n);
+                worstTop = Math.Max(worstTop, Cells.RelativeError(props.IntegratedDensityOfStatesPerNanometre(band.TopElectronVolts), 2.0 * n / d));
                 // Exactly at the top: tolerance from rounding of arccos near ±1 (√ε ≈ 1.5e-8 in the phase).
                 Assert.Equal(2.0 * n / d, props.IntegratedDensityOfStatesPerNanometre(band.TopElectronVolts), 2.0 * n / d * 1e-7);
                 Assert.Equal(2.0 * (n - 1) / d, props.IntegratedDensityOfStatesPerNanometre(band.BottomElectronVolts), 2.0 / d * 1e-7);
@@ -280,6 +282,7 @@ public sealed class BandPropertiesTest(ITestOutputHelper output)
                 Assert.True(Math.Abs(props.IntegratedDensityOfStatesPerNanometre(inside) - 2.0 * n / d) <= 2.0 / d * 1e-4);
             }
         }
+        output.WriteLine($"IDOS at band tops vs 2n/d: worst relative {worstTop:E2}");
     }
 
     [Fact]
@@ -305,7 +308,7 @@ public sealed class BandPropertiesTest(ITestOutputHelper output)
     [Fact]
     public void SuperlatticeDensityOfStates_FreeParticleIsThreeDimensionalSqrtLaw()
     {
-        // Free electron gas: g3 = (1/2π²)(2m/ħ²)^{3/2} √E (Ashcroft and Mermin eq. 2.61; Kittel ch. 6), spin included.
+        // Free electron gas: g3 = (1/2π²)(2m/ħ²)^{3/2} √E (Ashcroft and Mermin eq. 2.61, equation number from memory; Kittel ch. 6), spin included.
         const double m = 0.067, d = 4.0;
         var props = BandProperties.Create(BandStructure.Compute(Cells.Free(d, m), 8));
         var mass = EffectiveMass.FromElectronMasses(m);
@@ -375,7 +378,9 @@ public sealed class BandPropertiesTest(ITestOutputHelper output)
         Assert.Equal("energyElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => props.IntegratedDensityOfStatesPerNanometre(props.UpperEnergyLimitElectronVolts + 1)).ParamName);
         var gap = props.Structure.Gaps[0];
         Assert.Equal("energyElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => props.GroupVelocityAtEnergy(0.5 * (gap.LowerElectronVolts + gap.UpperElectronVolts))).ParamName);
-        Assert.Equal("energiesElectronVolts[1]", Assert.Throws<ArgumentOutOfRangeException>(() => props.DensitiesOfStates(new[] { 0.01, double.PositiveInfinity }, new double[2])).ParamName);
+        var element = Assert.Throws<ArgumentOutOfRangeException>(() => props.DensitiesOfStates(new[] { 0.01, double.PositiveInfinity }, new double[2]));
+        Assert.Equal("energiesElectronVolts", element.ParamName);
+        Assert.Contains("energiesElectronVolts[1]", element.Message);
         Assert.Equal("inPlaneMass", Assert.Throws<ArgumentOutOfRangeException>(() => props.SuperlatticeDensityOfStatesPerElectronVoltCubicNanometre(0.01, default)).ParamName);
         Assert.Throws<ArgumentNullException>(() => BandProperties.Create(null!));
     }
@@ -396,5 +401,96 @@ public sealed class BandPropertiesTest(ITestOutputHelper output)
             Assert.True(Cells.RelativeError(byEnergy.SlopeElectronVoltNanometres, byK.SlopeElectronVoltNanometres) <= 1e-10);
             Assert.Contains("m/s", byEnergy.ToString());
         }
+    }
+
+    [Fact]
+    public void CurvatureMass_FreeParticleIsParticleMassEverywhere()
+    {
+        // E = ħ²K²/2m has d²E/dK² = ħ²/m at every K, so the curvature mass is m in every band and at every k,
+        // including next to the closed gaps where D′ → 0 (folding of the free parabola, Ashcroft and Mermin ch. 9).
+        const double m = 0.2, d = 2.5;
+        var props = BandProperties.Create(BandStructure.Compute(Cells.Free(d, m), 4));
+        var worst = 0.0;
+        var worstNear = 0.0;
+        var worstVelocity = 0.0;
+        for (var n = 1; n <= 4; n++)
+        {
+            foreach (var fraction in new[] { 1e-12, 1e-9, 1e-6, 1e-4, 1e-3, 0.05, 0.3, 0.5, 0.8, 1 - 1e-3, 1 - 1e-4, 1 - 1e-6, 1 - 1e-9, 1 - 1e-12 })
+            {
+                var k = fraction * Math.PI / d;
+                var error = Cells.RelativeError(props.CurvatureMassElectronMasses(n, k), m);
+                if (fraction >= 0.05 && fraction <= 0.8)
+                {
+                    worst = Math.Max(worst, error);
+                }
+                else if (n > 1 || fraction > 0.5)
+                {
+                    worstNear = Math.Max(worstNear, error);
+                }
+                var extended = n % 2 == 1 ? k + (n - 1) * Math.PI / d : n * Math.PI / d - k;
+                var expected = (n % 2 == 1 ? 1 : -1) * 2 * C * extended / m;
+                if (n > 1 || fraction > 1e-6)
+                {
+                    worstVelocity = Math.Max(worstVelocity, Cells.RelativeError(props.GroupVelocityAt(n, k).SlopeElectronVoltNanometres, expected));
+                }
+            }
+        }
+        output.WriteLine($"free curvature mass mid-band worst {worst:E2}, near closed gaps {worstNear:E2}; velocity worst {worstVelocity:E2}");
+        // Mid-band the Taylor-mode D″ is exact: rounding only, 1e-10.
+        Assert.True(worst <= 1e-10, $"curvature {worst:E3}");
+        // Next to a closed gap E(k) itself is conditioned as ε/(qd)² (cos kd ≈ ±1); the documented accuracy of the
+        // crossing expansion is ≈ 1e-4 for the curvature and ≈ 1e-8 for the slope; tolerances 3e-4 and 5e-8.
+        Assert.True(worstNear <= 3e-4, $"curvature near gaps {worstNear:E3}");
+        Assert.True(worstVelocity <= 5e-8, $"velocity {worstVelocity:E3}");
+    }
+
+    [Fact]
+    public void DispersionDerivatives_MatchCoreTraceAndDerivative()
+    {
+        // Internal consistency of the Taylor-mode pass with the core's product-rule derivative (same D, D′).
+        foreach (var cell in new[] { Cells.WellBarrier(), Cells.Mixed(), Cells.DiracComb() })
+        {
+            var transfer = Periodic.Transfer.CellTransfer.Create(cell);
+            foreach (var e in new[] { 0.01, 0.2, 0.7 })
+            {
+                var jet = DispersionDerivatives.Evaluate(cell, e);
+                var core = transfer.Dispersion(e);
+                Assert.Equal(core.Trace, jet.D0 * jet.Scale, Math.Abs(core.Trace) * 1e-12 + 1e-12);
+                Assert.Equal(core.TraceDerivativePerElectronVolt, jet.D1 * jet.Scale, Math.Abs(core.TraceDerivativePerElectronVolt) * 1e-12);
+                // D″ against a central difference of the exact D′ (step 1e-5 eV: truncation ~1e-10·D⁗/D″, rounding ~1e-11).
+                var h = 1e-5;
+                var fd = (transfer.Dispersion(e + h).TraceDerivativePerElectronVolt - transfer.Dispersion(e - h).TraceDerivativePerElectronVolt) / (2 * h);
+                Assert.Equal(fd, jet.D2 * jet.Scale, Math.Abs(fd) * 1e-6);
+            }
+        }
+    }
+
+    [Fact]
+    public void SpanMethods_DoNotAllocate()
+    {
+        // House rule: batch APIs never allocate (measured with the runtime's per-thread allocation counter).
+        var props = BandProperties.Create(BandStructure.Compute(Cells.Mixed(), 3));
+        var energies = new double[64];
+        var ks = new double[64];
+        for (var i = 0; i < energies.Length; i++)
+        {
+            var low = props.Structure.GetBand(1).BottomElectronVolts;
+            energies[i] = low + i / 64.0 * (props.UpperEnergyLimitElectronVolts - low);
+            ks[i] = (i - 32) / 33.0 * Math.PI / props.PeriodNanometres;
+        }
+        var destination = new double[64];
+        var mass = EffectiveMass.FromElectronMasses(0.07);
+        void Run()
+        {
+            props.DensitiesOfStates(energies, destination);
+            props.IntegratedDensitiesOfStates(energies, destination);
+            props.SuperlatticeDensitiesOfStates(energies, mass, destination);
+            props.SlopesAt(2, ks, destination);
+            props.GroupVelocitiesAt(3, ks, destination);
+        }
+        Run(); // warm up (JIT)
+        var before = GC.GetAllocatedBytesForCurrentThread();
+        Run();
+        Assert.Equal(0, GC.GetAllocatedBytesForCurrentThread() - before);
     }
 }

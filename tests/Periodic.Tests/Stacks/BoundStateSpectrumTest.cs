@@ -231,6 +231,34 @@ public sealed class BoundStateSpectrumTest(ITestOutputHelper output)
     }
 
     [Fact]
+    public void Find_DeltaWell_HasItsSingleTextbookLevel()
+    {
+        // Attractive delta −α δ(x): one bound state at E = −m α² / (2ħ²) = −m α² / (4C) (Griffiths §2.5.2,
+        // eq. 2.129), wavefunction √κ e^{−κ|x|} with κ = m α / (2C).
+        const double alpha = 0.1, mass = 0.067;
+        var lead = Lead.Create(default, EffectiveMass.FromElectronMasses(mass));
+        var spectrum = BoundStateSpectrum.Find(LayerStack.Create(lead, lead, DeltaBarrier.Create(-alpha)));
+        Assert.Equal(1, spectrum.TotalCount);
+        var expected = -mass * alpha * alpha / (4 * C);
+        // Tolerance: search tolerance 1e-12 eV on a level of 4.4e-3 eV.
+        Assert.Equal(expected, spectrum.Levels[0].EnergyElectronVolts, 2e-12);
+        var kappa = mass * alpha / (2 * C);
+        var psi = spectrum.GetWavefunction(0);
+        Assert.Equal(Math.Sqrt(kappa) * Math.Exp(-kappa * 3), psi.ValueAt(3), 1e-9);
+        Assert.Equal(Math.Sqrt(kappa) * Math.Exp(-kappa * 2), psi.ValueAt(-2), 1e-9);
+    }
+
+    [Fact]
+    public void LevelsInGapsOf_PerfectSuperlattice_HasNone()
+    {
+        // Without a defect every level of the coupled-well stack lies in a miniband (see above).
+        var lead = Lead.Like(Slab(1, 0.3));
+        var spectrum = BoundStateSpectrum.Find(LayerStack.Periodic(lead, Cell(), 9, lead, after: [Slab(4, 0)]));
+        Assert.Equal(10, spectrum.TotalCount);
+        Assert.Empty(spectrum.LevelsInGapsOf(Cell()));
+    }
+
+    [Fact]
     public void GetWavefunction_BadIndex_NamesParameter()
     {
         var spectrum = BoundStateSpectrum.Find(SquareWell(2, 0.3, 0.067));

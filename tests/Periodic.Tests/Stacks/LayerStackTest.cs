@@ -81,15 +81,4 @@ public sealed class LayerStackTest
         Assert.StartsWith("E = 0.08 eV: T = ", result);
         Assert.Contains("log10 T = ", result);
     }
-
-    [Fact]
-    public void Lead_WavenumberAndDecay_FollowParabolicDispersion()
-    {
-        // k = √(2m(E − V))/ħ = √(m (E − V) / C) in 1/nm with C = ħ²/2m₀ (CODATA 2018: 0.03809982116 eV nm², REFERENCES.md).
-        const double c = 0.03809982116;
-        var lead = Lead.Create(Energy.FromElectronVolts(0.1), Mass);
-        Assert.Equal(Math.Sqrt(0.067 * 0.2 / c), lead.WavenumberPerNanometre(0.3), 1e-9);
-        Assert.Equal(0.0, lead.WavenumberPerNanometre(0.05));
-        Assert.Equal(Math.Sqrt(0.067 * 0.05 / c), lead.DecayConstantPerNanometre(0.05), 1e-9);
-    }
 }

@@ -76,6 +76,38 @@ public sealed class ResonanceSpectrumTest(ITestOutputHelper output)
         Assert.True(worstPeak <= 1e-9, $"worst |1 - T| {worstPeak:E3}");
     }
 
+    [Theory]
+    [InlineData(10)]
+    [InlineData(100)]
+    public void FindResonances_NPeriods_GivesNMinusOneUnitPeaksPerBandAtKdEqualsMPiOverN(int periods)
+    {
+        // Chebyshev form 1/T_N = 1 + (1/T_1 − 1)(sin NKd / sin Kd)² (Abelès; Yeh ch. 6, from memory):
+        // T_N = 1 exactly where sin NKd = 0 inside a band, i.e. Kd = mπ/N, m = 1 … N − 1, with K from the
+        // core's Bloch wavevector. Leads of the well material.
+        var cell = UnitCell.Create(Slab(4, 0), Slab(2, 0.3));
+        var lead = Lead.Create(default, EffectiveMass.FromElectronMasses(Mass));
+        var band = Periodic.Bands.BandStructure.Compute(cell, 1).GetBand(1);
+        var spectrum = StackTransmission.Create(LayerStack.Periodic(lead, cell, periods, lead))
+            .FindResonances(band.BottomElectronVolts - 0.01, band.TopElectronVolts + 0.01);
+        var inBand = spectrum.Resonances.Where(r => band.Contains(r.EnergyElectronVolts)).ToList();
+        output.WriteLine($"N = {periods}: {inBand.Count} peaks in band 1, {spectrum.Evaluations} evaluations, complete {spectrum.RefinementComplete}");
+        Assert.True(spectrum.RefinementComplete);
+        Assert.Equal(periods - 1, inBand.Count);
+        var transfer = Periodic.Transfer.CellTransfer.Create(cell);
+        var worst = 0.0;
+        foreach (var peak in inBand)
+        {
+            var kd = transfer.Dispersion(peak.EnergyElectronVolts).Wavevector.PhasePerPeriod;
+            var m = kd * periods / Math.PI;
+            worst = Math.Max(worst, Math.Abs(m - Math.Round(m)));
+            Assert.Equal(1.0, peak.PeakTransmission, 1e-9); // T = 1 up to rounding of T near 1
+        }
+        output.WriteLine($"worst |NKd/π − m| = {worst:E3}");
+        // Tolerance: near a band edge kd = arccos(D/2) is only good to ~√ε ≈ 1e-8 (arccos at ±1), i.e.
+        // NKd/π to ~3e-7 at N = 100; 1e-6 covers that, and an energy error of the peak of ~1e-9 eV.
+        Assert.True(worst < 1e-6, $"worst {worst:E3}");
+    }
+
     [Fact]
     public void FindResonances_NarrowResonanceBetweenScanPoints_IsFound()
     {

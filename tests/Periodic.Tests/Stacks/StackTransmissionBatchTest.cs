@@ -5,10 +5,11 @@ using Periodic.Stacks;
 using Periodic.Structures;
 using Periodic.Transfer;
 using Periodic.Units;
+using Xunit.Abstractions;
 
 namespace Periodic.Tests.Stacks;
 
-public sealed class StackTransmissionBatchTest
+public sealed class StackTransmissionBatchTest(ITestOutputHelper output)
 {
     private static readonly EffectiveMass Mass = EffectiveMass.FromElectronMasses(0.067);
     private static readonly Lead Ground = Lead.Create(default, Mass);
@@ -99,6 +100,7 @@ public sealed class StackTransmissionBatchTest
         Assert.Equal(0.0, million.Transmission);
         Assert.Equal(1.0, million.Reflection, 1e-15);
         var step = twoMillion.LogTransmission - million.LogTransmission;
+        output.WriteLine($"log10 T(1e6) = {million.Log10Transmission:G10}; relative step error {Math.Abs(step / (-2e6 * gamma) - 1):E3}");
         Assert.Equal(-2 * 1_000_000 * gamma, step, 2e6 * gamma * 1e-9);
     }
 

@@ -5,10 +5,11 @@ using Periodic.Stacks;
 using Periodic.Structures;
 using Periodic.Transfer;
 using Periodic.Units;
+using Xunit.Abstractions;
 
 namespace Periodic.Tests.Stacks;
 
-public sealed class StackTransmissionTest
+public sealed class StackTransmissionTest(ITestOutputHelper output)
 {
     private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
     private static readonly EffectiveMass Mass = EffectiveMass.FromElectronMasses(0.067);
@@ -58,6 +59,31 @@ public sealed class StackTransmissionTest
         var result = StackTransmission.Create(LayerStack.Create(Ground, Ground, Slab(a, v0))).Evaluate(energy);
         // Tolerance: closed form vs composed S-matrices, a few roundings each; 1e-13 absolute on T ≤ 1.
         Assert.Equal(expected, result.Transmission, 1e-13);
+    }
+
+    [Theory]
+    [InlineData(0.1, 0.01)]
+    [InlineData(-0.1, 0.2)]
+    public void Evaluate_DeltaBarrierOrWell_MatchesClosedForm(double strength, double energy)
+    {
+        // Delta potential ±α δ(x): T = 1 / (1 + m α² / (2ħ² E)) = 1 / (1 + m α² / (4 C E)), the same for
+        // barrier and well (Griffiths, 2nd ed., §2.5.2, eq. 2.141).
+        var expected = 1 / (1 + 0.067 * strength * strength / (4 * C * energy));
+        var result = StackTransmission.Create(LayerStack.Create(Ground, Ground, DeltaBarrier.Create(strength))).Evaluate(energy);
+        // Tolerance: a few roundings in either closed form.
+        Assert.Equal(expected, result.Transmission, 1e-14);
+    }
+
+    [Fact]
+    public void Evaluate_AtTheBarrierTop_MatchesClosedFormLimit()
+    {
+        // E = V0 exactly (k = 0 inside, the series branch of the propagator): T = 1 / (1 + m a² V0 / (2ħ²))
+        // = 1 / (1 + m a² V0 / (4C)) (Griffiths, Problem 2.33, the E → V0 limit).
+        const double v0 = 0.3, a = 5;
+        var expected = 1 / (1 + 0.067 * a * a * v0 / (4 * C));
+        var result = StackTransmission.Create(LayerStack.Create(Ground, Ground, Slab(a, v0))).Evaluate(v0);
+        // Tolerance: a few roundings in either form.
+        Assert.Equal(expected, result.Transmission, 1e-14);
     }
 
     [Fact]
@@ -139,13 +165,15 @@ public sealed class StackTransmissionTest
         return -log1pX;
     }
 
-    [Fact]
-    public void Evaluate_NPeriods_MatchesChebyshevFormInBandsAndGaps()
+    [Theory]
+    [InlineData(4.0, 2.0, 0.3, 0.067, 4)]  // shallow superlattice, equal masses
+    [InlineData(3.0, 4.0, 1.0, 0.09, 3)]   // deep, thick barriers of another mass: T_100 in the first gap below 1e-300
+    public void Evaluate_NPeriods_MatchesChebyshevFormInBandsAndGaps(double well, double barrier, double height, double barrierMass, int bandCount)
     {
-        var cell = Cell();
+        var cell = UnitCell.Create(Slab(well, 0), Slab(barrier, height, barrierMass));
         var single = StackTransmission.Create(LayerStack.Periodic(Ground, cell, 1, Ground));
         var dispersion = CellTransfer.Create(cell);
-        var bands = Periodic.Bands.BandStructure.Compute(cell, 4);
+        var bands = Periodic.Bands.BandStructure.Compute(cell, bandCount);
         // Energies inside bands and gaps, kept 2% of the band or gap width away from the edges, where
         // sin(kd) → 0 makes the closed form itself ill-conditioned.
         var energies = new List<double>();
@@ -161,6 +189,7 @@ public sealed class StackTransmissionTest
             }
         }
         var worst = 0.0;
+        var smallest = 0.0;
         foreach (var n in new[] { 2, 3, 5, 10, 17, 32, 64, 99, 100 })
         {
             var stack = StackTransmission.Create(LayerStack.Periodic(Ground, cell, n, Ground));
@@ -168,9 +197,11 @@ public sealed class StackTransmissionTest
             {
                 var expected = ChebyshevLogTransmission(single.Evaluate(e).LogTransmission, dispersion.Dispersion(e).Wavevector, n);
                 var actual = stack.Evaluate(e).LogTransmission;
+                smallest = Math.Min(smallest, actual / Math.Log(10));
                 worst = Math.Max(worst, Math.Abs(Math.Exp(actual - expected) - 1));
             }
         }
+        output.WriteLine($"{energies.Count} energies x 9 period counts: worst relative error of T_N {worst:E3}, smallest T_N = 10^{smallest:F1}");
         // Acceptance: relative error of T_N at most 1e-9 for N up to 100.
         Assert.True(worst <= 1e-9, $"worst relative error {worst:E3}");
     }

@@ -173,4 +173,23 @@ internal static class ClosedForms
         }
         return roots;
     }
+
+    /// <summary>
+    /// det(M ± I) of the equal-mass Kronig–Penney cell above the barrier, M = M_b·M_w with the textbook
+    /// layer matrices [[cos θ, sin θ/q], [−q sin θ, cos θ]] in (ψ, ψ′) (any quantum-mechanics text; with
+    /// equal masses ψ′/m matching is ψ′ matching). Since det M = 1, det(M + I) = D + 2 and det(M − I) = 2 − D,
+    /// but the product form is accurate to ε·‖M ± I‖ where M is close to ∓I, i.e. near a nearly closed gap,
+    /// where D ± 2 itself loses all digits to cancellation.
+    /// </summary>
+    internal static double KronigPenneyDeterminant(double a, double b, double v0, double m, double e, double sign)
+    {
+        var kw = Math.Sqrt(m * e / C);
+        var kb = Math.Sqrt(m * (e - v0) / C);
+        double cw = Math.Cos(kw * a), sw = Math.Sin(kw * a), cb = Math.Cos(kb * b), sb = Math.Sin(kb * b);
+        var m11 = cb * cw - sb * kw * sw / kb;
+        var m12 = cb * sw / kw + sb * cw / kb;
+        var m21 = -kb * sb * cw - cb * kw * sw;
+        var m22 = -kb * sb * sw / kw + cb * cw;
+        return (m11 + sign) * (m22 + sign) - m12 * m21;
+    }
 }

@@ -1,0 +1,212 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.CommandLine;
+using System.Globalization;
+using System.Text;
+using System.Text.Json;
+using Periodic.Cli.Output;
+using Periodic.Serialization;
+
+namespace Periodic.Cli.Commands;
+
+internal enum OutputFormat
+{
+    Table,
+    Json,
+    Csv,
+}
+
+/// <summary>Options and helpers shared by the commands.</summary>
+internal static class Common
+{
+    public static Argument<string> FileArgument() => new("file")
+    {
+        Description = "Structure file (JSON, see docs/structure.schema.json).",
+    };
+
+    public static Option<bool> JsonOption() => new("--json") { Description = "Write JSON (camelCase names, a units object)." };
+
+    public static Option<bool> CsvOption() => new("--csv") { Description = "Write CSV (a header row with units)." };
+
+    public static Option<int> CountOption(int defaultCount) => new("--count", "-n")
+    {
+        Description = "Number of bands, from the lowest.",
+        DefaultValueFactory = _ => defaultCount,
+    };
+
+    public static OutputFormat Format(ParseResult result, Option<bool> json, Option<bool> csv)
+    {
+        var isJson = result.GetValue(json);
+        var isCsv = result.GetValue(csv);
+        if (isJson && isCsv)
+        {
+            throw new UsageException("--json and --csv cannot be used together; choose one.");
+        }
+        return isJson ? OutputFormat.Json : isCsv ? OutputFormat.Csv : OutputFormat.Table;
+    }
+
+    public static int CheckCount(int count, string option = "--count", int maximum = 1000)
+    {
+        if (count < 1 || count > maximum)
+        {
+            throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"{option} must be between 1 and {maximum}; got {count}."));
+        }
+        return count;
+    }
+
+    public static StructureDefinition Load(string path)
+    {
+        if (!File.Exists(path))
+        {
+            throw new UsageException($"structure file {path} does not exist.");
+        }
+        var structure = StructureFile.Load(path);
+        if (structure.Materials is { } built)
+        {
+            foreach (var warning in built.Warnings)
+            {
+                Console.Error.WriteLine($"periodic: warning: {path}: {warning.Message}");
+            }
+        }
+        return structure;
+    }
+
+    /// <summary>Writes the finished text to stdout, or atomically to <paramref name="outPath"/>.</summary>
+    public static void Emit(string text, string? outPath)
+    {
+        if (outPath is null)
+        {
+            Console.Out.Write(text);
+            Console.Out.Flush();
+        }
+        else
+        {
+            OutputFile.WriteText(outPath, text);
+        }
+    }
+
+    public static string Json(Action<Utf8JsonWriter> body)
+    {
+        using var buffer = new MemoryStream();
+        using (var writer = new Utf8JsonWriter(buffer, new JsonWriterOptions { Indented = true }))
+        {
+            writer.WriteStartObject();
+            body(writer);
+            writer.WriteEndObject();
+        }
+        return Encoding.UTF8.GetString(buffer.ToArray()) + "\n";
+    }
+
+    /// <summary>JSON has no infinity or NaN: such values are written as null.</summary>
+    public static void Number(this Utf8JsonWriter writer, string name, double value)
+    {
+        if (double.IsFinite(value))
+        {
+            writer.WriteNumber(name, value);
+        }
+        else
+        {
+            writer.WriteNull(name);
+        }
+    }
+
+    public static void StructureHeader(Utf8JsonWriter writer, StructureDefinition structure)
+    {
+        writer.WriteStartObject("structure");
+        writer.WriteString("name", structure.Name);
+        writer.WriteString("source", structure.SourceName);
+        writer.WriteNumber("period", structure.Cell.Period.Nanometres);
+        writer.WriteNumber("elements", structure.Cell.Elements.Count);
+        if (structure.Materials is { } built)
+        {
+            writer.WriteNumber("temperature", built.TemperatureKelvin);
+            writer.WriteNumber("referenceEnergy", built.ReferenceElectronVolts);
+            writer.WriteStartArray("warnings");
+            foreach (var warning in built.Warnings)
+            {
+                writer.WriteStringValue(warning.Message);
+            }
+            writer.WriteEndArray();
+        }
+        writer.WriteEndObject();
+    }
+
+    public static void Units(Utf8JsonWriter writer, params (string Name, string Unit)[] units)
+    {
+        writer.WriteStartObject("units");
+        foreach (var (name, unit) in units)
+        {
+            writer.WriteString(name, unit);
+        }
+        writer.WriteEndObject();
+    }
+
+    public static string TableTitle(StructureDefinition structure) =>
+        string.Create(CultureInfo.InvariantCulture, $"{structure.Name}  (period {structure.Cell.Period.Nanometres:G6} nm, {structure.Cell.Elements.Count} element(s))\n");
+}
+
+/// <summary>An energy grid given either as --from/--to/--points or as --energies e1,e2,….</summary>
+internal sealed class EnergyGridOptions
+{
+    public Option<double?> From { get; } = new("--from") { Description = "Lowest energy of the grid, eV." };
+
+    public Option<double?> To { get; } = new("--to") { Description = "Highest energy of the grid, eV." };
+
+    public Option<int?> Points { get; } = new("--points") { Description = "Number of grid points (2 to 1,000,000), evenly spaced, ends included." };
+
+    public Option<string?> Energies { get; } = new("--energies") { Description = "Comma-separated list of energies, eV (instead of --from/--to/--points)." };
+
+    public void AddTo(Command command)
+    {
+        command.Options.Add(From);
+        command.Options.Add(To);
+        command.Options.Add(Points);
+        command.Options.Add(Energies);
+    }
+
+    public double[] Read(ParseResult result)
+    {
+        var list = result.GetValue(Energies);
+        double? from = result.GetValue(From), to = result.GetValue(To);
+        int? points = result.GetValue(Points);
+        if (list is not null)
+        {
+            if (from is not null || to is not null || points is not null)
+            {
+                throw new UsageException("give either --energies or --from/--to/--points, not both.");
+            }
+            var parts = list.Split(',', StringSplitOptions.TrimEntries);
+            var energies = new double[parts.Length];
+            for (var i = 0; i < parts.Length; i++)
+            {
+                if (!double.TryParse(parts[i], NumberStyles.Float, CultureInfo.InvariantCulture, out energies[i]) || !double.IsFinite(energies[i]))
+                {
+                    throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                        $"--energies: item {i + 1} \"{parts[i]}\" is not a finite number (energies in eV, separated by commas)."));
+                }
+            }
+            return energies;
+        }
+        if (from is null || to is null || points is null)
+        {
+            throw new UsageException("give the energies: --from E --to E --points N, or --energies e1,e2,... (eV).");
+        }
+        if (!double.IsFinite(from.Value) || !double.IsFinite(to.Value) || !(to.Value > from.Value))
+        {
+            throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                $"--to must be a finite energy above --from; got --from {from.Value:R} and --to {to.Value:R} eV."));
+        }
+        if (points.Value < 2 || points.Value > 1_000_000)
+        {
+            throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--points must be between 2 and 1000000; got {points.Value}."));
+        }
+        var grid = new double[points.Value];
+        for (var i = 0; i < grid.Length; i++)
+        {
+            var t = (double)i / (grid.Length - 1);
+            grid[i] = i == grid.Length - 1 ? to.Value : from.Value * (1 - t) + to.Value * t;
+        }
+        return grid;
+    }
+}

@@ -1,0 +1,31 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using Periodic.Bands;
+using Periodic.Properties;
+using Periodic.Structures;
+using Periodic.Units;
+
+namespace Periodic.Cli.Physics;
+
+/// <summary>
+/// The per-energy quantities the tool reports, all taken from the library: the density of states
+/// and dE/dk from <see cref="BandProperties"/>, Re k and Im k from <see cref="BandStructure.WavevectorAt"/>.
+/// </summary>
+internal static class PointQuantities
+{
+    public readonly record struct Values(double Energy, double Dos, double Wavevector, double Decay, double Slope);
+
+    /// <summary>Band properties valid up to (and beyond) <paramref name="highestEnergyElectronVolts"/>.</summary>
+    public static BandProperties PropertiesUpTo(UnitCell cell, double highestEnergyElectronVolts) =>
+        BandProperties.Create(BandStructure.ComputeBelow(cell, Energy.FromElectronVolts(highestEnergyElectronVolts)));
+
+    public static Values At(BandProperties properties, double energyElectronVolts)
+    {
+        var k = properties.Structure.WavevectorAt(energyElectronVolts);
+        var dos = properties.DensityOfStatesPerElectronVoltNanometre(energyElectronVolts);
+        // dE/dk is defined only inside a band; the contract reports 0 in a gap.
+        var slope = k.IsPropagating ? properties.GroupVelocityAtEnergy(energyElectronVolts).SlopeElectronVoltNanometres : 0.0;
+        return new Values(energyElectronVolts, dos, k.RealPerNanometre, k.ImaginaryPerNanometre, slope);
+    }
+}

@@ -1,0 +1,90 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.Collections.Concurrent;
+using System.Globalization;
+using Periodic.Structures;
+
+namespace Periodic.Bands;
+
+/// <summary>
+/// Band structures of many cells at once (a design sweep), serially or in parallel. Each cell is
+/// solved independently by <see cref="BandStructure.Compute(UnitCell, int, BandSearchOptions?)"/>, so
+/// the parallel result is bitwise identical to the serial one whatever the scheduling.
+/// </summary>
+public static class BandSweep
+{
+    /// <summary>
+    /// Effectively computes <c>result[i] = BandStructure.Compute(cells[i], bandCount, options)</c>.
+    /// Cells are distributed over threads in contiguous ranges with <see cref="Parallel.ForEach{TSource}(System.Collections.Concurrent.Partitioner{TSource}, ParallelOptions, Action{TSource})"/>;
+    /// results are written by index, so their order and values do not depend on the thread count.
+    /// </summary>
+    /// <param name="cells">The cells; none may be null.</param>
+    /// <param name="bandCount">Bands per cell, 1 to 10,000.</param>
+    /// <param name="options">Tolerances; <see cref="BandSearchOptions.Default"/> when null.</param>
+    /// <param name="maxDegreeOfParallelism">Threads to use: −1 for all cores, 1 for serial, or any positive count.</param>
+    /// <exception cref="ArgumentNullException"><paramref name="cells"/> is null.</exception>
+    /// <exception cref="ArgumentException">A cell is null.</exception>
+    /// <exception cref="ArgumentOutOfRangeException"><paramref name="bandCount"/> or <paramref name="maxDegreeOfParallelism"/> is out of range.</exception>
+    /// <exception cref="BandSearchException">The search failed for a cell; the message names the lowest such cell index. No partial result is returned.</exception>
+    public static BandStructure[] Compute(IReadOnlyList<UnitCell> cells, int bandCount, BandSearchOptions? options = null, int maxDegreeOfParallelism = -1)
+    {
+        ArgumentNullException.ThrowIfNull(cells);
+        Preconditions.CheckRange(bandCount, 1, 10000);
+        if (maxDegreeOfParallelism == 0 || maxDegreeOfParallelism < -1)
+        {
+            throw new ArgumentOutOfRangeException(nameof(maxDegreeOfParallelism), maxDegreeOfParallelism,
+                string.Create(CultureInfo.InvariantCulture, $"maxDegreeOfParallelism must be -1 (all cores) or at least 1; got {maxDegreeOfParallelism}."));
+        }
+        for (var i = 0; i < cells.Count; i++)
+        {
+            if (cells[i] is null)
+            {
+                throw new ArgumentException(string.Create(CultureInfo.InvariantCulture, $"cells[{i}] is null; every entry must be a cell."), nameof(cells));
+            }
+        }
+        var resolved = options ?? BandSearchOptions.Default;
+        var results = new BandStructure[cells.Count];
+        var failures = new Exception?[cells.Count];
+        if (maxDegreeOfParallelism == 1 || results.Length < 2)
+        {
+            for (var i = 0; i < results.Length; i++)
+            {
+                Solve(i);
+            }
+        }
+        else
+        {
+            // Contiguous ranges (about eight per thread) keep the per-cell scheduling cost negligible.
+            var threads = maxDegreeOfParallelism == -1 ? Environment.ProcessorCount : maxDegreeOfParallelism;
+            var rangeSize = Math.Max(1, results.Length / (8 * threads));
+            Parallel.ForEach(Partitioner.Create(0, results.Length, rangeSize), new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism }, range =>
+            {
+                for (var i = range.Item1; i < range.Item2; i++)
+                {
+                    Solve(i);
+                }
+            });
+        }
+        for (var i = 0; i < failures.Length; i++)
+        {
+            if (failures[i] is { } failure)
+            {
+                throw new BandSearchException(string.Create(CultureInfo.InvariantCulture, $"cells[{i}]: {failure.Message}"));
+            }
+        }
+        return results;
+
+        void Solve(int i)
+        {
+            try
+            {
+                results[i] = BandStructure.Compute(cells[i], bandCount, resolved);
+            }
+            catch (BandSearchException exception)
+            {
+                failures[i] = exception;
+            }
+        }
+    }
+}

@@ -1,0 +1,67 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.Collections.ObjectModel;
+using System.Globalization;
+using System.Text;
+using Periodic.Materials;
+using Periodic.Stacks;
+using Periodic.Structures;
+
+namespace Periodic.Serialization;
+
+/// <summary>A structure read from a structure file: its name, optional description and unit cell.</summary>
+public sealed class StructureDefinition
+{
+    internal StructureDefinition(string name, string? description, UnitCell cell, string?[] labels, string sourceName, BuiltStructure? materials, LayerStack? stack)
+    {
+        Name = name;
+        Description = description;
+        Cell = cell;
+        Labels = new ReadOnlyCollection<string?>(labels);
+        SourceName = sourceName;
+        Materials = materials;
+        Stack = stack;
+    }
+
+    /// <summary>
+    /// The finite stack the file describes (its <c>stack</c> field: N periods of the cell between two leads),
+    /// or null when the file describes only the infinite crystal.
+    /// </summary>
+    public LayerStack? Stack { get; }
+
+    /// <summary>
+    /// For a cell of material layers: the structure built from the material table, with its validity
+    /// <see cref="BuiltStructure.Warnings"/> and the reference energy of the potentials; null for a cell given by
+    /// explicit potentials and masses.
+    /// </summary>
+    public BuiltStructure? Materials { get; }
+
+    /// <summary>The structure's name (the file's <c>name</c> field).</summary>
+    public string Name { get; }
+
+    /// <summary>The free-text description, or null when the file has none.</summary>
+    public string? Description { get; }
+
+    /// <summary>The unit cell.</summary>
+    public UnitCell Cell { get; }
+
+    /// <summary>The <c>label</c> of each cell element (null where none was given), in cell order.</summary>
+    public IReadOnlyList<string?> Labels { get; }
+
+    /// <summary>Where the structure was read from (file path or source name).</summary>
+    public string SourceName { get; }
+
+    /// <inheritdoc />
+    public override string ToString()
+    {
+        var text = new StringBuilder();
+        text.Append(CultureInfo.InvariantCulture, $"Structure \"{Name}\" from {SourceName}");
+        if (Description is not null)
+        {
+            text.AppendLine().Append("  ").Append(Description);
+        }
+        text.AppendLine().Append(Cell);
+        return text.ToString();
+    }
+}

@@ -1,0 +1,454 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.Globalization;
+using System.Text;
+using System.Text.Json;
+using System.Text.RegularExpressions;
+using Periodic.Materials;
+using Periodic.Stacks;
+using Periodic.Structures;
+using Periodic.Units;
+
+namespace Periodic.Serialization;
+
+/// <summary>
+/// Reads structure files: UTF-8 JSON documents that describe one unit cell, as published in
+/// <c>docs/structure.schema.json</c>. The same reader serves the command-line tool, scripts and notebooks.
+/// </summary>
+/// <remarks>
+/// <para>The form is <c>{"name": "...", "cell": [{"width": 5.0, "potential": 0.0, "mass": 0.067}, {"delta": "0.1 eV nm"}]}</c>.
+/// Bare numbers are in nm, eV, m₀, eV·nm and 1/eV; a string may carry a unit instead ("2 nm", "20 Å",
+/// "250 meV", "0.067 m0", "0.1 eV nm", "0.6 /eV"). Comments and trailing commas are accepted; unknown
+/// or duplicate fields are errors (they are usually typing mistakes).</para>
+/// <para>Every error is a <see cref="StructureFileException"/> naming the file, line, column and field.</para>
+/// </remarks>
+public static partial class StructureFile
+{
+    private static readonly Dictionary<string, double> LengthUnits = new(StringComparer.Ordinal)
+    {
+        ["nm"] = 1.0, ["Å"] = 0.1, ["A"] = 0.1, ["angstrom"] = 0.1, ["pm"] = 1e-3, ["um"] = 1e3, ["µm"] = 1e3,
+    };
+
+    private static readonly Dictionary<string, double> EnergyUnits = new(StringComparer.Ordinal)
+    {
+        ["eV"] = 1.0, ["meV"] = 1e-3,
+    };
+
+    private static readonly Dictionary<string, double> MassUnits = new(StringComparer.Ordinal)
+    {
+        ["m0"] = 1.0, ["me"] = 1.0,
+    };
+
+    // Units are compared after removing blanks and the multiplication signs " ", "·", "⋅", "*".
+    private static readonly Dictionary<string, double> StrengthUnits = new(StringComparer.Ordinal)
+    {
+        ["eVnm"] = 1.0, ["meVnm"] = 1e-3, ["eVÅ"] = 0.1, ["eVA"] = 0.1, ["meVÅ"] = 1e-4, ["meVA"] = 1e-4,
+    };
+
+    private static readonly Dictionary<string, double> TemperatureUnits = new(StringComparer.Ordinal)
+    {
+        ["K"] = 1.0,
+    };
+
+    private static readonly Dictionary<string, double> InverseEnergyUnits = new(StringComparer.Ordinal)
+    {
+        ["/eV"] = 1.0, ["1/eV"] = 1.0, ["eV^-1"] = 1.0, ["/meV"] = 1e3, ["1/meV"] = 1e3,
+    };
+
+    /// <summary>Reads and validates the structure file at <paramref name="path"/>.</summary>
+    /// <param name="path">Path of a UTF-8 JSON file.</param>
+    /// <exception cref="ArgumentException"><paramref name="path"/> is null or empty.</exception>
+    /// <exception cref="FileNotFoundException">The file does not exist.</exception>
+    /// <exception cref="IOException">The file cannot be read.</exception>
+    /// <exception cref="StructureFileException">The content is not a valid structure file.</exception>
+    public static StructureDefinition Load(string path)
+    {
+        ArgumentException.ThrowIfNullOrEmpty(path);
+        var bytes = File.ReadAllBytes(path);
+        return Parse(bytes, path);
+    }
+
+    /// <summary>Parses a structure document held in a string.</summary>
+    /// <param name="json">The JSON text.</param>
+    /// <param name="sourceName">Name used in error messages (a file name, or e.g. "&lt;input&gt;").</param>
+    /// <exception cref="ArgumentNullException">An argument is null.</exception>
+    /// <exception cref="StructureFileException">The content is not a valid structure file.</exception>
+    public static StructureDefinition Parse(string json, string sourceName)
+    {
+        ArgumentNullException.ThrowIfNull(json);
+        return Parse(Encoding.UTF8.GetBytes(json), sourceName);
+    }
+
+    /// <summary>Parses a structure document from UTF-8 bytes (a leading byte-order mark is skipped).</summary>
+    /// <param name="utf8Json">The UTF-8 encoded JSON.</param>
+    /// <param name="sourceName">Name used in error messages.</param>
+    /// <exception cref="ArgumentNullException"><paramref name="sourceName"/> is null.</exception>
+    /// <exception cref="StructureFileException">The content is not a valid structure file.</exception>
+    public static StructureDefinition Parse(ReadOnlySpan<byte> utf8Json, string sourceName)
+    {
+        ArgumentNullException.ThrowIfNull(sourceName);
+        if (utf8Json.StartsWith("\uFEFF"u8))
+        {
+            utf8Json = utf8Json[3..];
+        }
+        JsonTreeNode root;
+        try
+        {
+            root = JsonTreeReader.Read(utf8Json);
+        }
+        catch (JsonException e)
+        {
+            var line = (int)(e.LineNumber ?? 0) + 1;
+            var column = (int)(e.BytePositionInLine ?? 0) + 1;
+            throw new StructureFileException(sourceName, line, column, string.Empty, "invalid JSON: " + StripPosition(e.Message), e);
+        }
+        var context = new Context(utf8Json.ToArray(), sourceName);
+        return context.ReadDocument(root);
+    }
+
+    private static string StripPosition(string message)
+    {
+        // The reader appends "LineNumber: n | BytePositionInLine: m." which our prefix already says.
+        var cut = message.IndexOf(" LineNumber:", StringComparison.Ordinal);
+        return (cut >= 0 ? message[..cut] : message).Trim();
+    }
+
+    [GeneratedRegex(@"^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(.*?)\s*$", RegexOptions.CultureInvariant)]
+    private static partial Regex QuantityPattern();
+
+    private sealed class Context(byte[] utf8, string sourceName)
+    {
+        public StructureDefinition ReadDocument(JsonTreeNode root)
+        {
+            var obj = ExpectObject(root, "(document)");
+            var fields = Fields(obj, "", ["$schema", "name", "description", "cell", "temperature", "carrier", "nonParabolic", "substrate", "stack"]);
+            var name = ReadString(Required(fields, obj, "", "name"), "name");
+            if (name.Trim().Length == 0)
+            {
+                throw Error(fields["name"].Value, "name", "must not be empty.");
+            }
+            string? description = fields.TryGetValue("description", out var d) ? ReadString(d.Value, "description") : null;
+            if (fields.TryGetValue("$schema", out var s))
+            {
+                ReadString(s.Value, "$schema");
+            }
+            var cellNode = Required(fields, obj, "", "cell");
+            if (cellNode is not JsonTreeArray array)
+            {
+                throw Error(cellNode, "cell", $"must be an array of layers and deltas; got {cellNode.KindName}.");
+            }
+            if (array.Items.Count == 0)
+            {
+                throw Error(array, "cell", "must hold at least one layer; got an empty array.");
+            }
+            var labels = new string?[array.Items.Count];
+            if (array.Items.Exists(item => item is JsonTreeObject o && o.Properties.Exists(p => p.Name == "material")))
+            {
+                return ReadMaterialsDocument(fields, array, name, description, labels);
+            }
+            foreach (var key in new[] { "temperature", "carrier", "nonParabolic", "substrate" })
+            {
+                if (fields.TryGetValue(key, out var stray))
+                {
+                    throw ErrorAt(stray.NameOffset, key, "applies only to a cell of material layers ({\"material\": \"GaAs\", \"width\": ...}).");
+                }
+            }
+            var elements = new CellElement[array.Items.Count];
+            var hasWidth = false;
+            for (var i = 0; i < elements.Length; i++)
+            {
+                (elements[i], labels[i]) = ReadElement(array.Items[i], string.Create(CultureInfo.InvariantCulture, $"cell[{i}]"));
+                hasWidth |= elements[i] is Layer;
+            }
+            if (!hasWidth)
+            {
+                throw Error(array, "cell", "must hold at least one layer of positive width (deltas alone have no period).");
+            }
+            UnitCell cell;
+            try
+            {
+                cell = UnitCell.Create(elements);
+            }
+            catch (ArgumentException e)
+            {
+                throw Error(array, "cell", e.Message, e);
+            }
+            return new StructureDefinition(name, description, cell, labels, sourceName, null, ReadStack(fields, cell));
+        }
+
+        /// <summary>The optional finite stack: <c>"stack": {"periods": N, "leads": {...}}</c> or separate leftLead/rightLead.</summary>
+        private LayerStack? ReadStack(Dictionary<string, JsonTreeProperty> fields, UnitCell cell)
+        {
+            if (!fields.TryGetValue("stack", out var property))
+            {
+                return null;
+            }
+            var obj = ExpectObject(property.Value, "stack");
+            var stackFields = Fields(obj, "stack", ["periods", "leads", "leftLead", "rightLead"]);
+            var periodsNode = Required(stackFields, obj, "stack", "periods");
+            if (periodsNode is not JsonTreeNumber { Value: var periods } || periods != Math.Floor(periods) || periods < 1 || periods > 1_000_000)
+            {
+                throw Error(periodsNode, "stack.periods", "must be a whole number of periods from 1 to 1000000.");
+            }
+            if (stackFields.TryGetValue("leads", out var both) && (stackFields.ContainsKey("leftLead") || stackFields.ContainsKey("rightLead")))
+            {
+                throw ErrorAt(both.NameOffset, "stack.leads", "give either leads (both sides) or leftLead/rightLead, not both.");
+            }
+            var first = cell.Elements.OfType<Layer>().First();
+            var fallback = Lead.Create(first.Potential, first.Mass);
+            var left = both is not null ? ReadLead(both.Value, "stack.leads") : stackFields.TryGetValue("leftLead", out var l) ? ReadLead(l.Value, "stack.leftLead") : fallback;
+            var right = both is not null ? left : stackFields.TryGetValue("rightLead", out var r) ? ReadLead(r.Value, "stack.rightLead") : fallback;
+            return Apply(obj, "stack", () => LayerStack.Periodic(left, cell, (int)periods, right));
+        }
+
+        private Lead ReadLead(JsonTreeNode node, string path)
+        {
+            var obj = ExpectObject(node, path);
+            var leadFields = Fields(obj, path, ["potential", "mass"]);
+            var potential = ReadQuantity(Required(leadFields, obj, path, "potential"), path + ".potential", EnergyUnits, "eV", "eV, meV");
+            var massNode = Required(leadFields, obj, path, "mass");
+            var mass = ReadQuantity(massNode, path + ".mass", MassUnits, "m0", "m0");
+            if (mass <= 0)
+            {
+                throw Error(massNode, path + ".mass", $"must be positive; got {Format(mass)} m0.");
+            }
+            return Apply(obj, path, () => Lead.Create(Energy.FromElectronVolts(potential), EffectiveMass.FromElectronMasses(mass)));
+        }
+
+        /// <summary>A cell of material layers, built by <see cref="StructureRecipe"/> (potentials and masses from the material table).</summary>
+        private StructureDefinition ReadMaterialsDocument(Dictionary<string, JsonTreeProperty> fields, JsonTreeArray array, string name, string? description, string?[] labels)
+        {
+            if (!fields.TryGetValue("temperature", out var t))
+            {
+                throw Error(array, "temperature", "is required for a cell of material layers (e.g. \"temperature\": \"300 K\").");
+            }
+            var temperature = ReadQuantity(t.Value, "temperature", TemperatureUnits, "K", "K");
+            StructureRecipe recipe;
+            try
+            {
+                recipe = StructureRecipe.Create(temperature);
+            }
+            catch (ArgumentException e)
+            {
+                throw Error(t.Value, "temperature", Describe(e), e);
+            }
+            if (fields.TryGetValue("nonParabolic", out var np))
+            {
+                var on = np.Value is JsonTreeLiteral { Token: JsonTokenType.True or JsonTokenType.False } literal
+                    ? literal.Token == JsonTokenType.True
+                    : throw Error(np.Value, "nonParabolic", $"must be true or false; got {np.Value.KindName}.");
+                recipe = Apply(np.Value, "nonParabolic", () => recipe.WithNonParabolicity(on));
+            }
+            if (fields.TryGetValue("carrier", out var c))
+            {
+                var text = ReadString(c.Value, "carrier");
+                var carrier = text switch
+                {
+                    "electron" => Carrier.Electron,
+                    "heavyHole" => Carrier.HeavyHole,
+                    "lightHole" => Carrier.LightHole,
+                    _ => throw Error(c.Value, "carrier", $"must be \"electron\", \"heavyHole\" or \"lightHole\"; got \"{text}\"."),
+                };
+                recipe = Apply(c.Value, "carrier", () => recipe.WithCarrier(carrier));
+            }
+            if (fields.TryGetValue("substrate", out var sub))
+            {
+                var substrate = ReadMaterial(sub.Value, "substrate");
+                recipe = recipe.WithSubstrate(substrate);
+            }
+            for (var i = 0; i < array.Items.Count; i++)
+            {
+                var path = string.Create(CultureInfo.InvariantCulture, $"cell[{i}]");
+                var obj = ExpectObject(array.Items[i], path);
+                if (!obj.Properties.Exists(p => p.Name == "material"))
+                {
+                    throw Error(obj, path + ".material", "is required: a cell that uses materials must give every layer as {\"material\": ..., \"width\": ...} (deltas and explicit layers cannot be mixed in).");
+                }
+                var layerFields = Fields(obj, path, ["material", "width", "monolayers", "label"]);
+                labels[i] = layerFields.TryGetValue("label", out var l) ? ReadString(l.Value, path + ".label") : null;
+                var material = ReadMaterial(layerFields["material"].Value, path + ".material");
+                RecipeLayer layer;
+                if (layerFields.TryGetValue("monolayers", out var ml))
+                {
+                    if (layerFields.ContainsKey("width"))
+                    {
+                        throw ErrorAt(ml.NameOffset, path + ".monolayers", "give either width or monolayers, not both.");
+                    }
+                    if (ml.Value is not JsonTreeNumber { Value: var count } || count != Math.Floor(count) || count < 1 || count > 100000)
+                    {
+                        throw Error(ml.Value, path + ".monolayers", "must be a whole number of monolayers from 1 to 100000.");
+                    }
+                    layer = Apply(ml.Value, path + ".monolayers", () => RecipeLayer.FromMonolayers(material, (int)count));
+                }
+                else
+                {
+                    var widthNode = Required(layerFields, obj, path, "width", " (or \"monolayers\")");
+                    var width = ReadQuantity(widthNode, path + ".width", LengthUnits, "nm", "nm, Å, pm, µm");
+                    if (width <= 0)
+                    {
+                        throw Error(widthNode, path + ".width", $"must be positive; got {Format(width)} nm.");
+                    }
+                    layer = Apply(widthNode, path + ".width", () => RecipeLayer.Create(material, Length.FromNanometres(width)));
+                }
+                recipe = recipe.Add(layer);
+            }
+            var built = Apply(array, "cell", recipe.Build);
+            return new StructureDefinition(name, description, built.Cell, labels, sourceName, built, ReadStack(fields, built.Cell));
+        }
+
+        private Material ReadMaterial(JsonTreeNode node, string path)
+        {
+            var text = ReadString(node, path);
+            return Apply(node, path, () => StructureRecipe.ParseMaterial(text));
+        }
+
+        private T Apply<T>(JsonTreeNode node, string path, Func<T> action)
+        {
+            try
+            {
+                return action();
+            }
+            catch (ArgumentException e)
+            {
+                throw Error(node, path, Describe(e), e);
+            }
+        }
+
+        private static string Describe(ArgumentException e)
+        {
+            var cut = e.Message.IndexOf(" (Parameter '", StringComparison.Ordinal);
+            return cut >= 0 ? e.Message[..cut] : e.Message;
+        }
+
+        private (CellElement Element, string? Label) ReadElement(JsonTreeNode node, string path)
+        {
+            var obj = ExpectObject(node, path);
+            var isDelta = obj.Properties.Exists(p => p.Name == "delta");
+            var fields = isDelta
+                ? Fields(obj, path, ["delta", "label"])
+                : Fields(obj, path, ["width", "potential", "mass", "nonParabolicity", "label"]);
+            var label = fields.TryGetValue("label", out var l) ? ReadString(l.Value, path + ".label") : null;
+            if (isDelta)
+            {
+                var strength = ReadQuantity(fields["delta"].Value, path + ".delta", StrengthUnits, "eV nm", StrengthUnitsText);
+                return (DeltaBarrier.Create(strength), label);
+            }
+            var widthNode = Required(fields, obj, path, "width", " (or \"delta\" for a delta barrier)");
+            var width = ReadQuantity(widthNode, path + ".width", LengthUnits, "nm", "nm, Å, pm, µm");
+            if (width <= 0)
+            {
+                throw Error(widthNode, path + ".width", $"must be positive; got {Format(width)} nm.");
+            }
+            var potential = ReadQuantity(Required(fields, obj, path, "potential"), path + ".potential", EnergyUnits, "eV", "eV, meV");
+            var massNode = Required(fields, obj, path, "mass");
+            var mass = ReadQuantity(massNode, path + ".mass", MassUnits, "m0", "m0");
+            if (mass <= 0)
+            {
+                throw Error(massNode, path + ".mass", $"must be positive; got {Format(mass)} m0.");
+            }
+            var alpha = 0.0;
+            if (fields.TryGetValue("nonParabolicity", out var a))
+            {
+                alpha = ReadQuantity(a.Value, path + ".nonParabolicity", InverseEnergyUnits, "/eV", "/eV, /meV");
+                if (alpha < 0)
+                {
+                    throw Error(a.Value, path + ".nonParabolicity", $"must be zero or positive; got {Format(alpha)} /eV.");
+                }
+            }
+            try
+            {
+                return (Layer.Create(Length.FromNanometres(width), Energy.FromElectronVolts(potential), EffectiveMass.FromElectronMasses(mass), alpha), label);
+            }
+            catch (ArgumentException e)
+            {
+                throw Error(obj, path, e.Message, e);
+            }
+        }
+
+        private const string StrengthUnitsText = "eV nm, meV nm, eV Å";
+
+        private double ReadQuantity(JsonTreeNode node, string path, Dictionary<string, double> units, string defaultUnit, string allowed)
+        {
+            switch (node)
+            {
+                case JsonTreeNumber number:
+                    if (!double.IsFinite(number.Value))
+                    {
+                        throw Error(node, path, $"must be a finite number; got {number.Text}.");
+                    }
+                    return number.Value;
+                case JsonTreeString text:
+                    var match = QuantityPattern().Match(text.Value);
+                    if (!match.Success)
+                    {
+                        throw Error(node, path, $"must be a number or a string \"<number> <unit>\" (units: {allowed}); got \"{text.Value}\".");
+                    }
+                    var value = double.Parse(match.Groups[1].Value, NumberStyles.Float, CultureInfo.InvariantCulture);
+                    var unit = match.Groups[2].Value;
+                    if (unit.Length == 0)
+                    {
+                        throw Error(node, path, $"a value given as a string needs a unit ({allowed}); write {match.Groups[1].Value} as a bare number for {defaultUnit}.");
+                    }
+                    var key = units == StrengthUnits ? unit.Replace(" ", "").Replace("·", "").Replace("⋅", "").Replace("*", "") : unit;
+                    if (!units.TryGetValue(key, out var factor))
+                    {
+                        throw Error(node, path, $"unknown unit \"{unit}\"; allowed: {allowed}.");
+                    }
+                    var result = value * factor;
+                    if (!double.IsFinite(result))
+                    {
+                        throw Error(node, path, $"must be finite; got \"{text.Value}\".");
+                    }
+                    return result;
+                default:
+                    throw Error(node, path, $"must be a number ({defaultUnit}) or a string with a unit ({allowed}); got {node.KindName}.");
+            }
+        }
+
+        private string ReadString(JsonTreeNode node, string path) =>
+            node is JsonTreeString s ? s.Value : throw Error(node, path, $"must be a string; got {node.KindName}.");
+
+        private JsonTreeObject ExpectObject(JsonTreeNode node, string path) =>
+            node as JsonTreeObject ?? throw Error(node, path, $"must be an object; got {node.KindName}.");
+
+        private Dictionary<string, JsonTreeProperty> Fields(JsonTreeObject obj, string path, string[] allowed)
+        {
+            var fields = new Dictionary<string, JsonTreeProperty>(StringComparer.Ordinal);
+            foreach (var property in obj.Properties)
+            {
+                var where = path.Length == 0 ? property.Name : path + "." + property.Name;
+                if (Array.IndexOf(allowed, property.Name) < 0)
+                {
+                    throw ErrorAt(property.NameOffset, where, $"unknown field; allowed here: {string.Join(", ", allowed)}.");
+                }
+                if (!fields.TryAdd(property.Name, property))
+                {
+                    throw ErrorAt(property.NameOffset, where, "appears twice.");
+                }
+            }
+            return fields;
+        }
+
+        private JsonTreeNode Required(Dictionary<string, JsonTreeProperty> fields, JsonTreeObject obj, string path, string name, string hint = "")
+        {
+            if (fields.TryGetValue(name, out var property))
+            {
+                return property.Value;
+            }
+            var where = path.Length == 0 ? name : path + "." + name;
+            throw Error(obj, where, $"is required{hint} but missing.");
+        }
+
+        private StructureFileException Error(JsonTreeNode node, string field, string problem, Exception? inner = null) =>
+            ErrorAt(node.Offset, field, problem, inner);
+
+        private StructureFileException ErrorAt(long offset, string field, string problem, Exception? inner = null)
+        {
+            var (line, column) = JsonTreeReader.Position(utf8, offset);
+            return new StructureFileException(sourceName, line, column, field, problem, inner);
+        }
+    }
+
+    private static string Format(double value) => value.ToString("R", CultureInfo.InvariantCulture);
+}
