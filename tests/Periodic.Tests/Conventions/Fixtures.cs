@@ -29,6 +29,10 @@ internal static class Fixtures
 
     internal static BandProperties Properties { get; } = BandProperties.Create(Bands);
 
+    internal static BandDispersion Dispersion { get; } = BandDispersion.Create(Bands, 2);
+
+    internal static BlochFunction Bloch { get; } = BlochFunction.Create(Bands, 1, 0.3);
+
     internal static Lead BarrierLead { get; } = Lead.Like(Barrier);
 
     internal static LayerStack Stack { get; } = LayerStack.Periodic(BarrierLead, Cell, 4, BarrierLead);

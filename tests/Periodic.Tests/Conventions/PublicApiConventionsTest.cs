@@ -149,12 +149,12 @@ public sealed class PublicApiConventionsTest
         string[] units =
         [
             "ElectronVolts", "ElectronVolt", "MillielectronVolts", "Nanometres", "Nanometre", "ElectronMasses", "Kelvin", "MetresPerSecond",
-            "Seconds", "Joules", "Metres", "Angstroms", "Kilograms", "Coulombs", "Radians", "PerKelvin", "Cubic",
+            "Seconds", "Joules", "Centimetre", "Metres", "Angstroms", "Kilograms", "Coulombs", "Radians", "PerKelvin", "Cubic",
         ];
         string[] dimensionless =
         [
             "Tolerance", "Trace", "Log", "Fraction", "Share", "Mismatch", "Transmission", "Reflection", "Phase",
-            "Error", "Entry", "Determinant", "M11", "M12", "M21", "M22", "Factor", "Composition", "Minimum", "Maximum", "Probability",
+            "Error", "Entry", "Determinant", "Residual", "M11", "M12", "M21", "M22", "Factor", "Composition", "Minimum", "Maximum", "Probability",
             "Monolayers", "Limit", "Value", "Scale", "Slope", "Curvature", "Strength",
         ];
         var offenders = new List<string>();
