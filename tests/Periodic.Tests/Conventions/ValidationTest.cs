@@ -90,6 +90,8 @@ public sealed class ValidationTest
         AssertRejects(() => Fixtures.Transfer.Evaluate(bad), "energyElectronVolts", bad);
         AssertRejects(() => Fixtures.Transfer.Dispersion(bad), "energyElectronVolts", bad);
         AssertRejects(() => Fixtures.Transfer.CountBandEdgesBelow(bad), "energyElectronVolts", bad);
+        AssertRejects(() => Fixtures.Transfer.Trace(bad), "energyElectronVolts", bad);
+        AssertRejects(() => Fixtures.Transfer.TracesVectorized([0.1, bad], new double[2]), "energiesElectronVolts", bad);
         var destination = new double[3];
         AssertRejects(() => Fixtures.Transfer.Traces([0.1, bad, 0.2], destination), "energiesElectronVolts", bad);
         Assert.Contains("[1]", Assert.ThrowsAny<ArgumentException>(() => Fixtures.Transfer.Traces([0.1, bad, 0.2], destination)).Message, StringComparison.Ordinal);
@@ -141,6 +143,10 @@ public sealed class ValidationTest
             AssertRejects(() => Fixtures.Bands.EnergiesAt(1, [0.0, bad], new double[2]), "wavevectorsPerNanometre", bad);
             AssertRejects(() => Fixtures.Properties.GroupVelocityAt(1, bad), "wavevectorPerNanometre", bad);
             AssertRejects(() => Fixtures.Properties.CurvatureMassElectronMasses(1, bad), "wavevectorPerNanometre", bad);
+            AssertRejects(() => Fixtures.Properties.SlopesAt(1, [0.0, bad], new double[2]), "wavevectorsPerNanometre", bad);
+            AssertRejects(() => Fixtures.Properties.GroupVelocitiesAt(1, [0.0, bad], new double[2]), "wavevectorsPerNanometre", bad);
+            AssertRejects(() => Fixtures.Dispersion.EnergyAt(bad), "wavevectorPerNanometre", bad);
+            AssertRejects(() => Fixtures.Dispersion.EnergiesAt([0.0, bad], new double[2]), "wavevectorsPerNanometre", bad);
         }
     }
 
@@ -161,6 +167,9 @@ public sealed class ValidationTest
         AssertRejects(() => p.IntegratedDensityOfStatesPerNanometre(bad), "energyElectronVolts", bad);
         AssertRejects(() => p.GroupVelocityAtEnergy(bad), "energyElectronVolts", bad);
         AssertRejects(() => p.SuperlatticeDensityOfStatesPerElectronVoltCubicNanometre(bad, EffectiveMass.FromElectronMasses(0.067)), "energyElectronVolts", bad);
+        AssertRejects(() => p.DensitiesOfStates([0.05, bad], new double[2]), "energiesElectronVolts", bad);
+        AssertRejects(() => p.IntegratedDensitiesOfStates([0.05, bad], new double[2]), "energiesElectronVolts", bad);
+        AssertRejects(() => p.SuperlatticeDensitiesOfStates([0.05, bad], EffectiveMass.FromElectronMasses(0.067), new double[2]), "energiesElectronVolts", bad);
     }
 
     [Fact]
@@ -282,4 +291,5 @@ public sealed class ValidationTest
         Assert.Equal("options", ex2.ParamName);
         Assert.Contains("ScanPoints", ex2.Message, StringComparison.Ordinal);
     }
+
 }
