@@ -56,7 +56,7 @@ public sealed class NoNaNTest(ITestOutputHelper output)
     public void Transfer_RandomCells_FiniteOutputs()
     {
         var cases = 0;
-        var ran = RandomCells.Check(RandomCells.Cells(6, 5), 300, 0x5EED_0001UL, spec =>
+        var ran = RandomCells.Check(RandomCells.Cells(6, 5), 1000, 0x5EED_0001UL, spec =>
         {
             var transfer = CellTransfer.Create(spec.Build());
             var traces = new double[spec.EnergiesElectronVolts.Length];
@@ -110,7 +110,7 @@ public sealed class NoNaNTest(ITestOutputHelper output)
         int cells = 0, searchFailures = 0, points = 0;
         var k = new double[9];
         var e = new double[9];
-        RandomCells.Check(RandomCells.Cells(4, 3), 120, 0x5EED_0002UL, spec =>
+        RandomCells.Check(RandomCells.Cells(4, 3), 400, 0x5EED_0002UL, spec =>
         {
             BandStructure bands;
             try
@@ -156,7 +156,7 @@ public sealed class NoNaNTest(ITestOutputHelper output)
             Assert.False(string.IsNullOrWhiteSpace(bands.ToString()));
         });
         output.WriteLine($"Bands: {cells} cells computed, {searchFailures} BandSearchException, {points} E(k) points");
-        Assert.True(cells > 100, $"only {cells} cells gave bands");
+        Assert.True(cells > 350, $"only {cells} cells gave bands");
     }
 
     [Fact]
@@ -168,7 +168,7 @@ public sealed class NoNaNTest(ITestOutputHelper output)
         var gen = from spec in RandomCells.Cells(4, 1)
                   from fractions in Gen.ArrayOf(Gen.Choose(0, 1_000_000), 6)
                   select (spec, fractions.Select(f => f / 1_000_000.0).ToArray());
-        var config = Config.QuickThrowOnFailure.WithMaxTest(80).WithReplay(0x5EED_0003UL, 0x9E3779B97F4A7C15UL).WithQuietOnSuccess(true);
+        var config = Config.QuickThrowOnFailure.WithMaxTest(250).WithReplay(0x5EED_0003UL, 0x9E3779B97F4A7C15UL).WithQuietOnSuccess(true);
         FsCheck.Check.One(config, Prop.ForAll(Arb.From(gen), ((CellSpec Spec, double[] Fractions) input) =>
         {
             BandProperties p;
@@ -230,7 +230,7 @@ public sealed class NoNaNTest(ITestOutputHelper output)
             }
         }));
         output.WriteLine($"Properties: {cells} cells, {points} points");
-        Assert.True(cells > 60, $"only {cells} cells gave bands");
+        Assert.True(cells > 200, $"only {cells} cells gave bands");
     }
 
     [Fact]
@@ -238,7 +238,7 @@ public sealed class NoNaNTest(ITestOutputHelper output)
     {
         int stacks = 0, points = 0;
         var gen = from spec in RandomCells.Cells(4, 6) from periods in Gen.Choose(1, 30) select (spec, periods);
-        var config = Config.QuickThrowOnFailure.WithMaxTest(150).WithReplay(0x5EED_0004UL, 0x9E3779B97F4A7C15UL).WithQuietOnSuccess(true);
+        var config = Config.QuickThrowOnFailure.WithMaxTest(500).WithReplay(0x5EED_0004UL, 0x9E3779B97F4A7C15UL).WithQuietOnSuccess(true);
         var tBatch = new double[6];
         var logBatch = new double[6];
         FsCheck.Check.One(config, Prop.ForAll(Arb.From(gen), ((CellSpec Spec, int Periods) input) =>
@@ -290,7 +290,7 @@ public sealed class NoNaNTest(ITestOutputHelper output)
         var x = new double[16];
         var psi = new double[16];
         var gen = from spec in RandomCells.Cells(3, 1) from periods in Gen.Choose(1, 4) select (spec, periods);
-        var config = Config.QuickThrowOnFailure.WithMaxTest(40).WithReplay(0x5EED_0005UL, 0x9E3779B97F4A7C15UL).WithQuietOnSuccess(true);
+        var config = Config.QuickThrowOnFailure.WithMaxTest(120).WithReplay(0x5EED_0005UL, 0x9E3779B97F4A7C15UL).WithQuietOnSuccess(true);
         FsCheck.Check.One(config, Prop.ForAll(Arb.From(gen), ((CellSpec Spec, int Periods) input) =>
         {
             var cell = input.Spec.Build();
@@ -331,7 +331,7 @@ public sealed class NoNaNTest(ITestOutputHelper output)
         var alloys = new[] { TernaryAlloy.AlGaAs, TernaryAlloy.InGaAs, TernaryAlloy.InAlAs };
         var gen = from t in Gen.Choose(0, 1_000_000) from x in Gen.Choose(0, 1_000_000) from a in Gen.Choose(0, 2) from b in Gen.Choose(0, Material.Binaries.Count - 1)
                   select (T: t * 1e-3, X: x * 1e-6, Alloy: a, Binary: b);
-        var config = Config.QuickThrowOnFailure.WithMaxTest(400).WithReplay(0x5EED_0006UL, 0x9E3779B97F4A7C15UL).WithQuietOnSuccess(true);
+        var config = Config.QuickThrowOnFailure.WithMaxTest(2000).WithReplay(0x5EED_0006UL, 0x9E3779B97F4A7C15UL).WithQuietOnSuccess(true);
         FsCheck.Check.One(config, Prop.ForAll(Arb.From(gen), ((double T, double X, int Alloy, int Binary) input) =>
         {
             var alloy = alloys[input.Alloy].At(input.X);
@@ -380,7 +380,7 @@ public sealed class NoNaNTest(ITestOutputHelper output)
         var cases = 0;
         var gen = from t in Gen.Choose(0, 1000) from x in Gen.Choose(5, 100) from well in Gen.Choose(1, 40) from barrier in Gen.Choose(1, 40) from np in Gen.Elements(false, true)
                   select (T: (double)t, X: x * 0.01, Well: well, Barrier: barrier, NonParabolic: np);
-        var config = Config.QuickThrowOnFailure.WithMaxTest(60).WithReplay(0x5EED_0007UL, 0x9E3779B97F4A7C15UL).WithQuietOnSuccess(true);
+        var config = Config.QuickThrowOnFailure.WithMaxTest(200).WithReplay(0x5EED_0007UL, 0x9E3779B97F4A7C15UL).WithQuietOnSuccess(true);
         FsCheck.Check.One(config, Prop.ForAll(Arb.From(gen), ((double T, double X, int Well, int Barrier, bool NonParabolic) input) =>
         {
             var built = StructureRecipe.Create(input.T)
@@ -417,6 +417,53 @@ public sealed class NoNaNTest(ITestOutputHelper output)
             cases++;
         }));
         output.WriteLine($"Recipes: {cases} superlattices");
-        Assert.True(cases > 50);
+        Assert.True(cases > 180);
+    }
+
+    [Fact]
+    public void Resonances_RandomDoubleBarriers_FiniteAndOrdered()
+    {
+        int spectra = 0, peaks = 0;
+        var gen = from well in Gen.Choose(20, 100) from barrier in Gen.Choose(5, 40) from height in Gen.Choose(50, 500) from mass in Gen.Choose(5, 100)
+                  select (Well: well * 0.1, Barrier: barrier * 0.1, Height: height * 0.001, Mass: mass * 0.01);
+        var config = Config.QuickThrowOnFailure.WithMaxTest(40).WithReplay(0x5EED_000AUL, 0x9E3779B97F4A7C15UL).WithQuietOnSuccess(true);
+        FsCheck.Check.One(config, Prop.ForAll(Arb.From(gen), ((double Well, double Barrier, double Height, double Mass) input) =>
+        {
+            var m = EffectiveMass.FromElectronMasses(input.Mass);
+            var b = Layer.Create(Length.FromNanometres(input.Barrier), Energy.FromElectronVolts(input.Height), m);
+            var w = Layer.Create(Length.FromNanometres(input.Well), Energy.FromElectronVolts(0), m);
+            var lead = Lead.Create(Energy.FromElectronVolts(0), m);
+            var transmission = StackTransmission.Create(LayerStack.Create(lead, lead, b, w, b));
+            var spectrum = transmission.FindResonances(1e-4, input.Height);
+            spectra++;
+            var previous = double.NegativeInfinity;
+            foreach (var r in spectrum.Resonances)
+            {
+                Finite(r.EnergyElectronVolts, "E_r");
+                Finite(r.EnergyErrorElectronVolts, "E_r error");
+                Finite(r.LogPeakTransmission, "ln T_peak");
+                // A probability, up to rounding: the rounding at the peak is what the stack reports as
+                // |T + R − 1| there (it grows like eps·e^(2κb) for opaque barriers); 10× that plus 1e-12.
+                var unitarity = transmission.Evaluate(r.EnergyElectronVolts).UnitarityError;
+                Assert.InRange(r.PeakTransmission, 0, 1 + 10 * unitarity + 1e-12);
+                Assert.False(double.IsNaN(r.WidthElectronVolts)); // +∞ without a width (documented)
+                Assert.False(double.IsNaN(r.LifetimeSeconds));
+                Assert.False(double.IsNaN(r.HalfMaximumLowerElectronVolts));
+                Assert.False(double.IsNaN(r.HalfMaximumUpperElectronVolts));
+                // Reported to the lead, not asserted here: a peak narrower than the search tolerance comes back
+                // with HasWidth = true, FWHM = 0 and lifetime = +∞ (see the report for the reproduction).
+                Assert.True(r.WidthElectronVolts >= 0, r.ToString());
+                if (r.HasWidth && r.WidthElectronVolts > 0)
+                {
+                    // τ = ħ/Γ (Breit–Wigner; the documented definition) with CODATA ħ; 1e-12 relative.
+                    Assert.Equal(PhysicalConstants.ReducedPlanckElectronVoltSeconds / r.WidthElectronVolts, r.LifetimeSeconds, 1e-12 * r.LifetimeSeconds);
+                }
+                Assert.True(r.EnergyElectronVolts > previous, "peaks in ascending order");
+                previous = r.EnergyElectronVolts;
+                peaks++;
+            }
+            Assert.False(string.IsNullOrWhiteSpace(spectrum.ToString()));
+        }));
+        output.WriteLine($"Resonances: {spectra} double barriers, {peaks} peaks");
     }
 }
