@@ -283,11 +283,16 @@ public sealed class BandStructure
     /// Effectively computes <c>destination[i] = E_n(wavevectorsPerNanometre[i])</c> in eV for band
     /// <paramref name="bandIndex"/>; does not allocate.
     /// </summary>
-    /// <exception cref="ArgumentException">The destination is shorter than the input, or a wavevector is outside the first zone.</exception>
+    /// <exception cref="ArgumentException">The destination is shorter than the input, or a wavevector is outside the first zone (destination is then unchanged).</exception>
     public void EnergiesAt(int bandIndex, ReadOnlySpan<double> wavevectorsPerNanometre, Span<double> destination)
     {
         var band = GetBand(bandIndex);
         Preconditions.CheckDestination(wavevectorsPerNanometre.Length, destination.Length, nameof(wavevectorsPerNanometre), nameof(destination));
+        // Validate every wavevector before writing anything: no partial output on a bad element.
+        for (var i = 0; i < wavevectorsPerNanometre.Length; i++)
+        {
+            ReducedPhase(wavevectorsPerNanometre[i], i);
+        }
         for (var i = 0; i < wavevectorsPerNanometre.Length; i++)
         {
             destination[i] = EnergyAtPhase(band, ReducedPhase(wavevectorsPerNanometre[i], i));

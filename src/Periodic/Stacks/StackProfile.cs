@@ -65,10 +65,7 @@ internal sealed class StackProfile
                             Masses[i] = layer.Mass.ElectronMasses;
                             MassSlopes[i] = layer.Mass.ElectronMasses * layer.NonParabolicityPerElectronVolt;
                             vMin = Math.Min(vMin, Potentials[i]);
-                            if (layer.NonParabolicityPerElectronVolt > 0)
-                            {
-                                lowest = Math.Max(lowest, Potentials[i] - 1.0 / layer.NonParabolicityPerElectronVolt);
-                            }
+                            lowest = Math.Max(lowest, layer.LowestValidEnergyElectronVolts());
                             break;
                         case DeltaBarrier delta:
                             IsDelta[i] = true;

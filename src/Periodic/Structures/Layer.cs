@@ -40,17 +40,23 @@ public sealed class Layer : CellElement
     public double NonParabolicityPerElectronVolt { get; }
 
     /// <summary>Creates a layer.</summary>
-    /// <param name="width">Thickness; must be positive.</param>
-    /// <param name="potential">Potential energy in the layer.</param>
+    /// <param name="width">Thickness; must be positive and finite.</param>
+    /// <param name="potential">Potential energy in the layer; must be finite.</param>
     /// <param name="mass">Band-edge effective mass; must be a created (non-default) mass.</param>
     /// <param name="nonParabolicityPerElectronVolt">α ≥ 0 in 1/eV (0: parabolic).</param>
     /// <exception cref="ArgumentOutOfRangeException">A value breaks the rule given for it.</exception>
     public static Layer Create(Length width, Energy potential, EffectiveMass mass, double nonParabolicityPerElectronVolt = 0.0)
     {
-        if (!(width.Nanometres > 0))
+        // Length and Energy arithmetic can overflow to infinity; such values are rejected here.
+        if (!(width.Nanometres > 0) || double.IsPositiveInfinity(width.Nanometres))
         {
             throw new ArgumentOutOfRangeException(nameof(width), width.Nanometres,
-                $"width must be positive; got {Preconditions.Format(width.Nanometres)} nm.");
+                $"width must be positive and finite; got {Preconditions.Format(width.Nanometres)} nm.");
+        }
+        if (!double.IsFinite(potential.ElectronVolts))
+        {
+            throw new ArgumentOutOfRangeException(nameof(potential), potential.ElectronVolts,
+                $"potential must be finite; got {Preconditions.Format(potential.ElectronVolts)} eV.");
         }
         if (!(mass.ElectronMasses > 0))
         {
@@ -59,6 +65,31 @@ public sealed class Layer : CellElement
         }
         Preconditions.CheckNonNegativeFinite(nonParabolicityPerElectronVolt);
         return new Layer(width, potential, mass, nonParabolicityPerElectronVolt);
+    }
+
+    /// <summary>
+    /// Energies must exceed this bound (eV) for m(E) = m + mα(E − V), evaluated in floating point exactly as
+    /// the propagators do, to be positive; −∞ for a parabolic layer. V − 1/α itself may be off by an ulp or
+    /// more, which let m(E) round to zero (NaN in the transfer matrix) one ulp above it.
+    /// </summary>
+    internal double LowestValidEnergyElectronVolts()
+    {
+        var alpha = NonParabolicityPerElectronVolt;
+        if (!(alpha > 0))
+        {
+            return double.NegativeInfinity;
+        }
+        double v = Potential.ElectronVolts, m = Mass.ElectronMasses, slope = m * alpha;
+        var bound = v - 1.0 / alpha;
+        // The computed mass is monotone in E (every rounding step is monotone), so it suffices that the
+        // next double above the bound gives a positive mass; widen the step geometrically (few iterations).
+        var step = Math.Max(Math.Max(double.Epsilon, Math.BitIncrement(Math.Abs(bound)) - Math.Abs(bound)), Math.BitIncrement(Math.Abs(v)) - Math.Abs(v));
+        while (!(m + slope * (Math.BitIncrement(bound) - v) > 0))
+        {
+            bound += step;
+            step *= 2;
+        }
+        return bound;
     }
 
     /// <summary>A copy with another width.</summary>

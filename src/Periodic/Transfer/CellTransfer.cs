@@ -62,10 +62,7 @@ public sealed class CellTransfer
                     _potentials[i] = layer.Potential.ElectronVolts;
                     _masses[i] = layer.Mass.ElectronMasses;
                     _massSlopes[i] = layer.Mass.ElectronMasses * layer.NonParabolicityPerElectronVolt;
-                    if (layer.NonParabolicityPerElectronVolt > 0)
-                    {
-                        domain = Math.Max(domain, layer.Potential.ElectronVolts - 1.0 / layer.NonParabolicityPerElectronVolt);
-                    }
+                    domain = Math.Max(domain, layer.LowestValidEnergyElectronVolts());
                     break;
                 case DeltaBarrier delta:
                     _kinds[i] = ElementKind.Delta;
@@ -104,6 +101,11 @@ public sealed class CellTransfer
     /// stays positive; −∞ for a cell of parabolic layers.
     /// </summary>
     public double LowestValidEnergyElectronVolts { get; }
+
+    /// <summary>One line: element count, period and the lowest valid energy (culture-invariant).</summary>
+    public override string ToString() => double.IsNegativeInfinity(LowestValidEnergyElectronVolts)
+        ? string.Create(CultureInfo.InvariantCulture, $"CellTransfer: {Cell.Elements.Count} element(s), period {PeriodNanometres:G6} nm")
+        : string.Create(CultureInfo.InvariantCulture, $"CellTransfer: {Cell.Elements.Count} element(s), period {PeriodNanometres:G6} nm, energies above {LowestValidEnergyElectronVolts:G6} eV");
 
     /// <summary>Compiles the transfer matrix of <paramref name="cell"/>.</summary>
     /// <exception cref="ArgumentNullException"><paramref name="cell"/> is null.</exception>
@@ -162,7 +164,7 @@ public sealed class CellTransfer
     /// For speed when the last bits do not matter, see <see cref="TracesVectorized"/>.
     /// </summary>
     /// <exception cref="ArgumentException"><paramref name="destination"/> is shorter than the input.</exception>
-    /// <exception cref="ArgumentOutOfRangeException">An energy is not finite or not above <see cref="LowestValidEnergyElectronVolts"/>.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">An energy is not finite or not above <see cref="LowestValidEnergyElectronVolts"/> (the message names its index); destination is then unchanged.</exception>
     public void Traces(ReadOnlySpan<double> energiesElectronVolts, Span<double> destination)
     {
         Preconditions.CheckDestination(energiesElectronVolts.Length, destination.Length, nameof(energiesElectronVolts), nameof(destination));

@@ -28,8 +28,17 @@ public readonly record struct Energy : IComparable<Energy>
     public static Energy FromMillielectronVolts(double millielectronVolts) => new(Preconditions.CheckFinite(millielectronVolts) * 1e-3);
 
     /// <summary>Creates an energy from joules.</summary>
-    /// <exception cref="ArgumentOutOfRangeException"><paramref name="joules"/> is NaN or infinite.</exception>
-    public static Energy FromJoules(double joules) => new(Preconditions.CheckFinite(joules) / PhysicalConstants.ElementaryChargeCoulombs);
+    /// <exception cref="ArgumentOutOfRangeException"><paramref name="joules"/> is NaN or infinite, or so large that the energy in eV overflows.</exception>
+    public static Energy FromJoules(double joules)
+    {
+        var electronVolts = Preconditions.CheckFinite(joules) / PhysicalConstants.ElementaryChargeCoulombs;
+        if (!double.IsFinite(electronVolts))
+        {
+            throw new ArgumentOutOfRangeException(nameof(joules), joules,
+                $"joules must be at most {Preconditions.Format(double.MaxValue * PhysicalConstants.ElementaryChargeCoulombs)} in magnitude (the energy in eV must be finite); got {Preconditions.Format(joules)}.");
+        }
+        return new(electronVolts);
+    }
 
     /// <summary>Sum of two energies.</summary>
     public static Energy operator +(Energy left, Energy right) => new(left.ElectronVolts + right.ElectronVolts);
