@@ -35,6 +35,7 @@ public sealed partial class BandProperties
     public void DensitiesOfStates(ReadOnlySpan<double> energiesElectronVolts, Span<double> destinationPerElectronVoltNanometre)
     {
         Preconditions.CheckDestination(energiesElectronVolts.Length, destinationPerElectronVoltNanometre.Length, nameof(energiesElectronVolts), nameof(destinationPerElectronVoltNanometre));
+        CheckEnergies(energiesElectronVolts, nameof(energiesElectronVolts));
         for (var i = 0; i < energiesElectronVolts.Length; i++)
         {
             destinationPerElectronVoltNanometre[i] = DensityOfStates(energiesElectronVolts[i], nameof(energiesElectronVolts), i);
@@ -64,6 +65,7 @@ public sealed partial class BandProperties
     public void IntegratedDensitiesOfStates(ReadOnlySpan<double> energiesElectronVolts, Span<double> destinationPerNanometre)
     {
         Preconditions.CheckDestination(energiesElectronVolts.Length, destinationPerNanometre.Length, nameof(energiesElectronVolts), nameof(destinationPerNanometre));
+        CheckEnergies(energiesElectronVolts, nameof(energiesElectronVolts));
         for (var i = 0; i < energiesElectronVolts.Length; i++)
         {
             destinationPerNanometre[i] = IntegratedDensity(energiesElectronVolts[i], nameof(energiesElectronVolts), i);
@@ -98,6 +100,7 @@ public sealed partial class BandProperties
     {
         var factor = SuperlatticeFactor(inPlaneMass);
         Preconditions.CheckDestination(energiesElectronVolts.Length, destinationPerElectronVoltCubicNanometre.Length, nameof(energiesElectronVolts), nameof(destinationPerElectronVoltCubicNanometre));
+        CheckEnergies(energiesElectronVolts, nameof(energiesElectronVolts));
         for (var i = 0; i < energiesElectronVolts.Length; i++)
         {
             destinationPerElectronVoltCubicNanometre[i] = factor * IntegratedDensity(energiesElectronVolts[i], nameof(energiesElectronVolts), i);

@@ -78,6 +78,12 @@ public sealed partial class BandProperties
     {
         CheckBand(bandIndex);
         Preconditions.CheckDestination(wavevectorsPerNanometre.Length, destinationElectronVoltNanometres.Length, nameof(wavevectorsPerNanometre), nameof(destinationElectronVoltNanometres));
+        CheckWavevectors(wavevectorsPerNanometre, nameof(wavevectorsPerNanometre));
+        WriteSlopes(bandIndex, wavevectorsPerNanometre, destinationElectronVoltNanometres);
+    }
+
+    private void WriteSlopes(int bandIndex, ReadOnlySpan<double> wavevectorsPerNanometre, Span<double> destinationElectronVoltNanometres)
+    {
         for (var i = 0; i < wavevectorsPerNanometre.Length; i++)
         {
             var k = wavevectorsPerNanometre[i];
@@ -94,7 +100,10 @@ public sealed partial class BandProperties
     /// <exception cref="ArgumentException">The destination is shorter than the input, or a wavevector is outside the first zone.</exception>
     public void GroupVelocitiesAt(int bandIndex, ReadOnlySpan<double> wavevectorsPerNanometre, Span<double> destinationMetresPerSecond)
     {
-        SlopesAt(bandIndex, wavevectorsPerNanometre, destinationMetresPerSecond);
+        CheckBand(bandIndex);
+        Preconditions.CheckDestination(wavevectorsPerNanometre.Length, destinationMetresPerSecond.Length, nameof(wavevectorsPerNanometre), nameof(destinationMetresPerSecond));
+        CheckWavevectors(wavevectorsPerNanometre, nameof(wavevectorsPerNanometre));
+        WriteSlopes(bandIndex, wavevectorsPerNanometre, destinationMetresPerSecond);
         for (var i = 0; i < wavevectorsPerNanometre.Length; i++)
         {
             destinationMetresPerSecond[i] *= GroupVelocity.MetresPerSecondPerElectronVoltNanometre;

@@ -183,6 +183,28 @@ public sealed partial class BandProperties
     }
 
     /// <summary>Where an energy lies: band n (1-based) or gap n (0 below the first band).</summary>
+    /// <summary>Checks every energy of a span before anything is written (no partial output).</summary>
+    private void CheckEnergies(ReadOnlySpan<double> energies, string parameter)
+    {
+        for (var i = 0; i < energies.Length; i++)
+        {
+            var energy = energies[i];
+            if (!double.IsFinite(energy) || energy <= _transfer.LowestValidEnergyElectronVolts || energy > _upperLimit)
+            {
+                Locate(energy, parameter, i); // throws with the standard message
+            }
+        }
+    }
+
+    /// <summary>Checks every wavevector of a span before anything is written (no partial output).</summary>
+    private void CheckWavevectors(ReadOnlySpan<double> wavevectors, string parameter)
+    {
+        for (var i = 0; i < wavevectors.Length; i++)
+        {
+            Phase(wavevectors[i], parameter, i);
+        }
+    }
+
     private (int Index, bool InBand) Locate(double energy, string parameter, int element = -1)
     {
         if (!double.IsFinite(energy) || energy <= _transfer.LowestValidEnergyElectronVolts || energy > _upperLimit)

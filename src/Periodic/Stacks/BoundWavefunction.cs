@@ -163,7 +163,7 @@ public sealed class BoundWavefunction
             if (!double.IsFinite(positionsNanometres[i]))
             {
                 var name = string.Create(CultureInfo.InvariantCulture, $"positionsNanometres[{i}]");
-                throw new ArgumentOutOfRangeException(name, positionsNanometres[i],
+                throw new ArgumentOutOfRangeException(nameof(positionsNanometres), positionsNanometres[i],
                     $"{name} must be a finite position in nm; got {Preconditions.Format(positionsNanometres[i])}.");
             }
         }

@@ -51,15 +51,19 @@ public readonly record struct Lead
     /// The wavenumber k (1/nm) at <paramref name="energyElectronVolts"/>: real and positive above the
     /// band edge; zero at or below it (then the lead carries no current, see <see cref="DecayConstantPerNanometre"/>).
     /// </summary>
+    /// <exception cref="ArgumentOutOfRangeException">The energy is not finite.</exception>
     public double WavenumberPerNanometre(double energyElectronVolts)
     {
+        Preconditions.CheckFinite(energyElectronVolts);
         var excess = energyElectronVolts - PotentialElectronVolts;
         return excess > 0 ? Math.Sqrt(MassElectronMasses * excess / PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2) : 0.0;
     }
 
     /// <summary>The decay constant κ (1/nm) of the evanescent solution at or below the band edge; zero above it.</summary>
+    /// <exception cref="ArgumentOutOfRangeException">The energy is not finite.</exception>
     public double DecayConstantPerNanometre(double energyElectronVolts)
     {
+        Preconditions.CheckFinite(energyElectronVolts);
         var deficit = PotentialElectronVolts - energyElectronVolts;
         return deficit > 0 ? Math.Sqrt(MassElectronMasses * deficit / PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2) : 0.0;
     }

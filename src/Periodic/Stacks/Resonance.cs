@@ -39,10 +39,15 @@ public readonly struct Resonance
     /// <summary>The energy above the peak where T falls to half its peak value, eV; +∞ if T stays above half up to the next minimum.</summary>
     public double HalfMaximumUpperElectronVolts { get; }
 
-    /// <summary>True when both half-maximum points exist, so the width is defined.</summary>
-    public bool HasWidth => double.IsFinite(HalfMaximumLowerElectronVolts) && double.IsFinite(HalfMaximumUpperElectronVolts);
+    /// <summary>
+    /// True when both half-maximum points exist and are distinct, so the width is measured. False for a broad
+    /// peak whose T never falls to half, and for a peak narrower than double precision resolves at its energy
+    /// (both half-maximum points coincide): its width is then unknown, not zero.
+    /// </summary>
+    public bool HasWidth => double.IsFinite(HalfMaximumLowerElectronVolts) && double.IsFinite(HalfMaximumUpperElectronVolts)
+        && HalfMaximumUpperElectronVolts > HalfMaximumLowerElectronVolts;
 
-    /// <summary>The full width at half maximum Γ, eV; +∞ when <see cref="HasWidth"/> is false.</summary>
+    /// <summary>The full width at half maximum Γ, eV; +∞ (unknown) when <see cref="HasWidth"/> is false.</summary>
     public double WidthElectronVolts => HasWidth ? HalfMaximumUpperElectronVolts - HalfMaximumLowerElectronVolts : double.PositiveInfinity;
 
     /// <summary>Lifetime τ = ħ/Γ of the quasi-bound state, s (the Breit–Wigner relation); 0 when the width is undefined.</summary>

@@ -211,16 +211,18 @@ public sealed class StackTransmission
         return ResonanceFinder.Find(this, lowerElectronVolts, upperElectronVolts, options);
     }
 
-    internal void CheckEnergy(double energyElectronVolts, string name)
+    internal void CheckEnergy(double energyElectronVolts, string name, string? paramName = null)
     {
+        // ParamName is the real parameter; the message may name the element of a span.
+        paramName ??= name;
         if (!double.IsFinite(energyElectronVolts))
         {
-            throw new ArgumentOutOfRangeException(name, energyElectronVolts,
+            throw new ArgumentOutOfRangeException(paramName, energyElectronVolts,
                 $"{name} must be a finite energy in eV; got {Preconditions.Format(energyElectronVolts)}.");
         }
         if (energyElectronVolts <= LowestValidEnergyElectronVolts)
         {
-            throw new ArgumentOutOfRangeException(name, energyElectronVolts,
+            throw new ArgumentOutOfRangeException(paramName, energyElectronVolts,
                 $"{name} must exceed {Preconditions.Format(LowestValidEnergyElectronVolts)} eV, below which a non-parabolic mass m(E) = m(1 + a(E - V)) would not be positive; got {Preconditions.Format(energyElectronVolts)}.");
         }
     }
@@ -232,7 +234,7 @@ public sealed class StackTransmission
             var e = energies[i];
             if (!double.IsFinite(e) || e <= LowestValidEnergyElectronVolts)
             {
-                CheckEnergy(e, string.Create(CultureInfo.InvariantCulture, $"energiesElectronVolts[{i}]"));
+                CheckEnergy(e, string.Create(CultureInfo.InvariantCulture, $"energiesElectronVolts[{i}]"), "energiesElectronVolts");
             }
         }
     }

@@ -265,6 +265,8 @@ public sealed class BoundStateSpectrumTest(ITestOutputHelper output)
         Assert.Equal("index", Assert.Throws<ArgumentOutOfRangeException>(() => spectrum.GetWavefunction(spectrum.Levels.Count)).ParamName);
         var psi = spectrum.GetWavefunction(0);
         Assert.Equal("destination", Assert.Throws<ArgumentException>(() => psi.Evaluate(new double[3], new double[2])).ParamName);
-        Assert.Equal("positionsNanometres[1]", Assert.Throws<ArgumentOutOfRangeException>(() => psi.Evaluate([0, double.NaN], new double[2])).ParamName);
+        var badPosition = Assert.Throws<ArgumentOutOfRangeException>(() => psi.Evaluate([0, double.NaN], new double[2]));
+        Assert.Equal("positionsNanometres", badPosition.ParamName); // the parameter; the message names the element
+        Assert.Contains("positionsNanometres[1]", badPosition.Message);
     }
 }

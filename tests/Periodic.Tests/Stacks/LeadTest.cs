@@ -33,4 +33,15 @@ public sealed class LeadTest
         Assert.Equal("layer", Assert.Throws<ArgumentNullException>(() => Lead.Like(null!)).ParamName);
         Assert.Equal("mass", Assert.Throws<ArgumentOutOfRangeException>(() => Lead.Create(default, default)).ParamName);
     }
+
+    [Theory]
+    [InlineData(double.NaN)]
+    [InlineData(double.PositiveInfinity)]
+    [InlineData(double.NegativeInfinity)]
+    public void Wavenumbers_NonFiniteEnergy_NameTheParameter(double energy)
+    {
+        var lead = Lead.Create(Periodic.Units.Energy.FromElectronVolts(0.1), Periodic.Units.EffectiveMass.FromElectronMasses(0.067));
+        Assert.Equal("energyElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => lead.WavenumberPerNanometre(energy)).ParamName);
+        Assert.Equal("energyElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => lead.DecayConstantPerNanometre(energy)).ParamName);
+    }
 }

@@ -52,7 +52,8 @@ public sealed class StackTransmissionBatchTest(ITestOutputHelper output)
         Assert.Contains("at least 5", shortDestination.Message);
         var destination = new double[3];
         var bad = Assert.Throws<ArgumentOutOfRangeException>(() => transmission.Transmissions([0.1, double.PositiveInfinity, 0.2], destination));
-        Assert.Equal("energiesElectronVolts[1]", bad.ParamName);
+        Assert.Equal("energiesElectronVolts", bad.ParamName); // the parameter; the message names the element
+        Assert.Contains("energiesElectronVolts[1]", bad.Message);
         Assert.All(destination, v => Assert.Equal(0.0, v)); // no partial output
         Assert.Equal("energyElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.Evaluate(double.NaN)).ParamName);
     }
