@@ -106,6 +106,16 @@ public class DispersionFunctionGradedBenchmarks
     }
 
     [Benchmark]
+    public double ScalarTraceLoop()
+    {
+        for (var i = 0; i < _energies.Length; i++)
+        {
+            _destination[i] = _transfer.Trace(_energies[i]);
+        }
+        return _destination[Points / 3];
+    }
+
+    [Benchmark]
     public double BatchTraces()
     {
         _transfer.TracesVectorized(_energies, _destination);
