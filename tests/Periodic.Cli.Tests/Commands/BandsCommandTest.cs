@@ -114,4 +114,16 @@ public sealed class BandsCommandTest
         }
         Assert.Equal(string.Empty, run.Stderr);
     }
+
+    [Fact]
+    public void Help_NamesTheToolAndEveryCommand()
+    {
+        var run = ToolRunner.Invoke("--help");
+        Assert.Equal(0, run.ExitCode);
+        Assert.Contains("periodic [command] [options]", run.Stdout, StringComparison.Ordinal);
+        foreach (var command in new[] { "bands", "dispersion", "dos", "transmission", "plot", "example" })
+        {
+            Assert.Contains("  " + command + " ", run.Stdout, StringComparison.Ordinal);
+        }
+    }
 }
