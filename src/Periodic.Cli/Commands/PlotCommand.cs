@@ -293,7 +293,8 @@ internal static class PlotCommand
         var plot = NewPlot($"Potential and minibands: {structure.Name}", "Position x (nm)", "Energy (eV)");
         foreach (var band in bands.Bands)
         {
-            Shade(plot, 0, periods * d, band.BottomElectronVolts, Math.Max(band.TopElectronVolts, band.BottomElectronVolts + 1e-4 * (high - low)), BandColor);
+            // A band narrower than the line width is drawn at a visible minimum thickness (its label gives the width).
+            Shade(plot, 0, periods * d, band.BottomElectronVolts, Math.Max(band.TopElectronVolts, band.BottomElectronVolts + 0.006 * (high - low)), BandColor.WithAlpha(0.8));
             var label = plot.Add.Text(string.Create(CultureInfo.InvariantCulture, $"band {band.Index}: {band.WidthElectronVolts * 1e3:G4} meV wide"),
                 periods * d * 1.005, 0.5 * (band.BottomElectronVolts + band.TopElectronVolts));
             label.LabelFontSize = 11;
