@@ -430,10 +430,17 @@ internal sealed class BandEdgeFinder
                 return trace == 0 ? -target : Math.CopySign(double.PositiveInfinity, trace);
             }
             var scale = Math.Exp(p.LogScale);
+            if (p.TryShiftedTrace(scale, target, out var value, out var slope))
+            {
+                derivative = slope;
+                return value;
+            }
             derivative = (p.D11 + p.D22) * scale;
             return trace * scale - target;
         }
     }
+
+
 
     private readonly struct TraceSlope(CellTransfer transfer) : IRealFunction
     {

@@ -112,6 +112,7 @@ public sealed class BandStructure
         // Edges 0 … 2N: the extra one is the bottom of band N + 1, so the gap above band N is known.
         var finder = new BandEdgeFinder(transfer, options);
         var (edges, errors, closed) = finder.FindEdges(2 * count + 1);
+        ApplyRoundingFloor(transfer, edges, errors, closed);
         var bands = new Band[count];
         var gaps = new Gap[count];
         for (var n = 1; n <= count; n++)
@@ -122,6 +123,83 @@ public sealed class BandStructure
         }
         var checks = Reconcile(transfer, bands, gaps);
         return new BandStructure(transfer, bands, gaps, options, checks);
+    }
+
+    /// <summary>
+    /// Raises each edge's error bound to the rounding floor of the dispersion function, and closes gaps whose
+    /// opening is below that floor (their width is not resolved in double precision).
+    /// </summary>
+    /// <remarks>
+    /// D = Tr M carries a rounding error δD of about 8√n ulps (n elements) of max_j tr(|M_n⋯M_{j+1}|·|M_j⋯M_1|)
+    /// (<see cref="CellTransfer.LogRoundingAmplification"/>). A simple edge then moves by
+    /// δD/|D′|. A gap is resolved only if |D| exceeds 2 by more than δD between its edges; otherwise its two
+    /// edges are one degenerate edge known to about √(2δD/|D″|). For most cells δD is ~1e-15 and nothing
+    /// changes; for cells with several thick barriers per period it can grow to 1e-5 and more
+    /// (docs/core.md, "Resolution limits"), and the bounds say so.
+    /// </remarks>
+    private static void ApplyRoundingFloor(CellTransfer transfer, double[] edges, double[] errors, bool[] closed)
+    {
+        // Rounding accumulates over the elements; √n is its statistical growth (Higham §2.8).
+        var ulps = 8 * 2.220446049250313e-16 * Math.Sqrt(transfer.Cell.Elements.Count);
+        for (var i = 0; i < edges.Length; i++)
+        {
+            var gapOfEdge = (i + 1) / 2; // edges 2j − 1 and 2j bound gap j
+            if (i > 0 && gapOfEdge < closed.Length && closed[gapOfEdge])
+            {
+                continue; // handled with its pair below
+            }
+            var value = transfer.Dispersion(edges[i]);
+            var logSlope = Math.Log(Math.Abs(value.ScaledTraceDerivativePerElectronVolt)) + value.LogScale;
+            var logAmplification = transfer.LogRoundingAmplification(edges[i]);
+            var logFloor = Math.Log(ulps) + logAmplification - logSlope;
+            // Near M = ±I the edge search works on det(M ∓ I) (see BandEdgeFinder), whose rounding is
+            // smaller by the factor |M ∓ I| (but never below the rounding of the entries themselves).
+            var shifted = ShiftedNorm(transfer, edges[i], BandEdgeFinder.TargetTrace(i));
+            if (shifted <= 1e-3)
+            {
+                logFloor += Math.Log(Math.Max(shifted, ulps * Math.Exp(Math.Min(logAmplification, 700))));
+            }
+            if (logFloor < 700)
+            {
+                errors[i] = Math.Max(errors[i], Math.Exp(logFloor));
+            }
+        }
+        for (var j = 1; 2 * j < edges.Length && j < closed.Length; j++)
+        {
+            int lower = 2 * j - 1, upper = 2 * j;
+            var middle = 0.5 * (edges[lower] + edges[upper]);
+            var width = edges[upper] - edges[lower];
+            var roundingOfTrace = ulps * Math.Exp(Math.Min(transfer.LogRoundingAmplification(middle), 700));
+            var atMiddle = transfer.Dispersion(middle);
+            var excess = Math.Abs(atMiddle.Trace) - 2;
+            if (!closed[j] && excess > roundingOfTrace && width > errors[lower] + errors[upper])
+            {
+                continue; // a resolved open gap
+            }
+            // Degenerate within rounding: one edge, known to √(2δD/|D″|) plus half the width seen.
+            var h = Math.Max(width, 1e-9 * Math.Max(Math.Abs(middle), 1e-3));
+            var curvature = Math.Abs(transfer.Dispersion(middle + h).TraceDerivativePerElectronVolt
+                - transfer.Dispersion(middle - h).TraceDerivativePerElectronVolt) / (2 * h);
+            var spread = curvature > 0 ? Math.Sqrt(2 * roundingOfTrace / curvature) : 0;
+            var error = Math.Max(Math.Max(errors[lower], errors[upper]), 0.5 * width + (double.IsFinite(spread) ? spread : 0));
+            edges[lower] = edges[upper] = middle;
+            errors[lower] = errors[upper] = error;
+            closed[j] = true;
+        }
+    }
+
+    /// <summary>max |(M ∓ I)_ij| at an edge; +∞ when M is beyond the double range.</summary>
+    private static double ShiftedNorm(CellTransfer transfer, double energy, double target)
+    {
+        var m = transfer.Evaluate(energy);
+        if (m.LogScale > 600)
+        {
+            return double.PositiveInfinity;
+        }
+        var scale = Math.Exp(m.LogScale);
+        var sign = target > 0 ? 1.0 : -1.0;
+        var mantissa = m.Mantissa;
+        return new Transfer.TransferMatrix(mantissa.M11 * scale - sign, mantissa.M12 * scale, mantissa.M21 * scale, mantissa.M22 * scale - sign).MaxAbsEntry;
     }
 
     /// <summary>Checks the oscillation count at the middle of every band (2n − 1) and open gap (2n).</summary>
