@@ -4,6 +4,7 @@
 using System.CommandLine;
 using Periodic.Bands;
 using Periodic.Cli.Output;
+using Periodic.Cli.Physics;
 using Periodic.Properties;
 using Periodic.Serialization;
 
@@ -36,7 +37,8 @@ internal static class BandsCommand
 
     public static string Render(StructureDefinition structure, int count, OutputFormat format)
     {
-        var bands = BandStructure.Compute(structure.Cell, count);
+        var solved = Solver.Compute(structure.Cell, count);
+        var bands = solved.Bands;
         var properties = BandProperties.Create(bands);
         var masses = bands.Bands.Select(b => (Bottom: properties.BottomMass(b.Index).ElectronMasses, Top: properties.TopMass(b.Index).ElectronMasses)).ToArray();
         if (format == OutputFormat.Json)
@@ -72,8 +74,14 @@ internal static class BandsCommand
                 }
                 w.WriteEndArray();
                 w.WriteStartObject("accuracy");
-                w.Number("maxEdgeError", bands.MaxEdgeErrorElectronVolts);
+                w.Number("maxEdgeError", solved.MaxEdgeErrorElectronVolts);
                 w.WriteNumber("countChecks", bands.CountChecks);
+                if (solved.Refined)
+                {
+                    // Smooth segments: edges from step-halving refinement (RefinedBandStructure).
+                    w.WriteBoolean("converged", solved.Converged);
+                    w.WriteNumber("magnusSteps", solved.MagnusSteps);
+                }
                 w.WriteEndObject();
             });
         }

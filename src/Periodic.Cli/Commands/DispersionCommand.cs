@@ -5,6 +5,7 @@ using System.CommandLine;
 using System.Globalization;
 using Periodic.Bands;
 using Periodic.Cli.Output;
+using Periodic.Cli.Physics;
 using Periodic.Serialization;
 
 namespace Periodic.Cli.Commands;
@@ -64,7 +65,7 @@ internal static class DispersionCommand
 
     public static string Render(StructureDefinition structure, int count, int points, OutputFormat format)
     {
-        var bands = BandStructure.Compute(structure.Cell, count);
+        var bands = Solver.Compute(structure.Cell, count).Bands;
         var (k, e) = Compute(bands, points);
         if (format == OutputFormat.Json)
         {

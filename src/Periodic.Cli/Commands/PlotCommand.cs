@@ -5,6 +5,7 @@ using System.CommandLine;
 using System.Globalization;
 using Periodic.Bands;
 using Periodic.Cli.Output;
+using Periodic.Cli.Physics;
 using Periodic.Serialization;
 using Periodic.Structures;
 using ScottPlot;
@@ -142,7 +143,7 @@ internal static class PlotCommand
 
     private static Plot Dispersion(StructureDefinition structure, int count)
     {
-        var bands = BandStructure.Compute(structure.Cell, count);
+        var bands = Solver.Compute(structure.Cell, count).Bands;
         var (k, e) = DispersionCommand.Compute(bands, 201);
         var zone = Math.PI / bands.PeriodNanometres;
         var (low, high) = EnergyWindow(bands);
@@ -168,7 +169,7 @@ internal static class PlotCommand
 
     private static Plot Dos(StructureDefinition structure, int count, double[]? energies)
     {
-        var bands = BandStructure.Compute(structure.Cell, count);
+        var bands = Solver.Compute(structure.Cell, count).Bands;
         var (low, high) = EnergyWindow(bands);
         if (energies is not null)
         {
@@ -222,7 +223,7 @@ internal static class PlotCommand
 
     private static Plot Transmission(StructureDefinition structure, int count, int periods, double[]? energies)
     {
-        var bands = BandStructure.Compute(structure.Cell, count);
+        var bands = Solver.Compute(structure.Cell, count).Bands;
         var (low, high) = EnergyWindow(bands);
         energies ??= Enumerable.Range(0, 3001).Select(i => low + (high - low) * i / 3000.0).ToArray();
         low = energies.Min();
@@ -260,9 +261,21 @@ internal static class PlotCommand
         return plot;
     }
 
+    /// <summary>Samples a smooth segment's V(x) (x from the segment start) for the profile picture.</summary>
+    private static void Sample(List<double> xs, List<double> vs, double start, double width, Func<double, double> potential)
+    {
+        const int points = 200;
+        for (var i = 0; i <= points; i++)
+        {
+            var local = width * i / points;
+            xs.Add(start + local);
+            vs.Add(potential(local));
+        }
+    }
+
     private static Plot Profile(StructureDefinition structure, int count, int periods)
     {
-        var bands = BandStructure.Compute(structure.Cell, count);
+        var bands = Solver.Compute(structure.Cell, count).Bands;
         var cell = structure.Cell;
         var d = cell.Period.Nanometres;
         var xs = new List<double>();
@@ -285,6 +298,14 @@ internal static class PlotCommand
                     case DeltaBarrier delta:
                         deltas.Add((x, delta.StrengthElectronVoltNanometres));
                         break;
+                    case FourierSegment fourier:
+                        Sample(xs, vs, x, fourier.Width.Nanometres, fourier.PotentialAt);
+                        x += fourier.Width.Nanometres;
+                        break;
+                    case SampledSegment sampled:
+                        Sample(xs, vs, x, sampled.Width.Nanometres, sampled.PotentialAt);
+                        x += sampled.Width.Nanometres;
+                        break;
                 }
             }
         }
@@ -293,7 +314,8 @@ internal static class PlotCommand
         var plot = NewPlot($"Potential and minibands: {structure.Name}", "Position x (nm)", "Energy (eV)");
         foreach (var band in bands.Bands)
         {
-            Shade(plot, 0, periods * d, band.BottomElectronVolts, Math.Max(band.TopElectronVolts, band.BottomElectronVolts + 1e-4 * (high - low)), BandColor);
+            // A band narrower than the line width is drawn at a visible minimum thickness (its label gives the width).
+            Shade(plot, 0, periods * d, band.BottomElectronVolts, Math.Max(band.TopElectronVolts, band.BottomElectronVolts + 0.006 * (high - low)), BandColor.WithAlpha(0.8));
             var label = plot.Add.Text(string.Create(CultureInfo.InvariantCulture, $"band {band.Index}: {band.WidthElectronVolts * 1e3:G4} meV wide"),
                 periods * d * 1.005, 0.5 * (band.BottomElectronVolts + band.TopElectronVolts));
             label.LabelFontSize = 11;

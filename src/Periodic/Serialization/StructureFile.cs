@@ -159,7 +159,7 @@ public static partial class StructureFile
             for (var i = 0; i < elements.Length; i++)
             {
                 (elements[i], labels[i]) = ReadElement(array.Items[i], string.Create(CultureInfo.InvariantCulture, $"cell[{i}]"));
-                hasWidth |= elements[i] is Layer;
+                hasWidth |= elements[i].Width.Nanometres > 0;
             }
             if (!hasWidth)
             {
@@ -324,6 +324,16 @@ public static partial class StructureFile
         private (CellElement Element, string? Label) ReadElement(JsonTreeNode node, string path)
         {
             var obj = ExpectObject(node, path);
+            if (obj.Properties.Exists(p => p.Name == "fourier"))
+            {
+                var f = Fields(obj, path, ["fourier", "label"]);
+                return (ReadFourier(f["fourier"].Value, path + ".fourier"), f.TryGetValue("label", out var fl) ? ReadString(fl.Value, path + ".label") : null);
+            }
+            if (obj.Properties.Exists(p => p.Name == "profile"))
+            {
+                var f = Fields(obj, path, ["profile", "label"]);
+                return (ReadProfile(f["profile"].Value, path + ".profile"), f.TryGetValue("label", out var pl) ? ReadString(pl.Value, path + ".label") : null);
+            }
             var isDelta = obj.Properties.Exists(p => p.Name == "delta");
             var fields = isDelta
                 ? Fields(obj, path, ["delta", "label"])
@@ -364,6 +374,79 @@ public static partial class StructureFile
             {
                 throw Error(obj, path, e.Message, e);
             }
+        }
+
+        /// <summary><c>{"period": L, "constant": V0, "cosine": [a1, …], "sine": [b1, …], "mass": m}</c>: V0 + Σ a_n cos(2πnx/d) + b_n sin(2πnx/d).</summary>
+        private FourierSegment ReadFourier(JsonTreeNode node, string path)
+        {
+            var obj = ExpectObject(node, path);
+            var fields = Fields(obj, path, ["period", "constant", "cosine", "sine", "mass"]);
+            var periodNode = Required(fields, obj, path, "period");
+            var period = ReadQuantity(periodNode, path + ".period", LengthUnits, "nm", "nm, Å, pm, µm");
+            if (period <= 0)
+            {
+                throw Error(periodNode, path + ".period", $"must be positive; got {Format(period)} nm.");
+            }
+            var constant = fields.TryGetValue("constant", out var c) ? ReadQuantity(c.Value, path + ".constant", EnergyUnits, "eV", "eV, meV") : 0.0;
+            var cosine = fields.TryGetValue("cosine", out var co) ? ReadQuantities(co.Value, path + ".cosine", EnergyUnits, "eV", "eV, meV") : [];
+            var sine = fields.TryGetValue("sine", out var si) ? ReadQuantities(si.Value, path + ".sine", EnergyUnits, "eV", "eV, meV") : [];
+            var mass = ReadMass(fields, obj, path);
+            return Apply(obj, path, () => FourierSegment.Create(Length.FromNanometres(period), Energy.FromElectronVolts(constant), cosine, sine, EffectiveMass.FromElectronMasses(mass)));
+        }
+
+        /// <summary><c>{"positions": [x0, …], "potentials": [V0, …], "mass": m | "masses": [m0, …]}</c>: piecewise-linear samples.</summary>
+        private SampledSegment ReadProfile(JsonTreeNode node, string path)
+        {
+            var obj = ExpectObject(node, path);
+            var fields = Fields(obj, path, ["positions", "potentials", "mass", "masses"]);
+            var positions = ReadQuantities(Required(fields, obj, path, "positions"), path + ".positions", LengthUnits, "nm", "nm, Å, pm, µm");
+            var potentials = ReadQuantities(Required(fields, obj, path, "potentials"), path + ".potentials", EnergyUnits, "eV", "eV, meV");
+            // Only the spacing matters inside a cell: positions are taken from the first sample, so the
+            // segment's coordinate runs from 0 to its width like every other element's.
+            if (positions.Length > 0)
+            {
+                var origin = positions[0];
+                for (var i = 0; i < positions.Length; i++)
+                {
+                    positions[i] -= origin;
+                }
+            }
+            if (fields.TryGetValue("masses", out var ms))
+            {
+                if (fields.ContainsKey("mass"))
+                {
+                    throw ErrorAt(ms.NameOffset, path + ".masses", "give either mass or masses, not both.");
+                }
+                var masses = ReadQuantities(ms.Value, path + ".masses", MassUnits, "m0", "m0");
+                return Apply(obj, path, () => SampledSegment.Create(positions, potentials, masses));
+            }
+            var mass = ReadMass(fields, obj, path);
+            return Apply(obj, path, () => SampledSegment.Create(positions, potentials, EffectiveMass.FromElectronMasses(mass)));
+        }
+
+        private double ReadMass(Dictionary<string, JsonTreeProperty> fields, JsonTreeObject obj, string path)
+        {
+            var massNode = Required(fields, obj, path, "mass");
+            var mass = ReadQuantity(massNode, path + ".mass", MassUnits, "m0", "m0");
+            if (mass <= 0)
+            {
+                throw Error(massNode, path + ".mass", $"must be positive; got {Format(mass)} m0.");
+            }
+            return mass;
+        }
+
+        private double[] ReadQuantities(JsonTreeNode node, string path, Dictionary<string, double> units, string defaultUnit, string allowed)
+        {
+            if (node is not JsonTreeArray array)
+            {
+                throw Error(node, path, $"must be an array of values ({defaultUnit}, or strings with units {allowed}); got {node.KindName}.");
+            }
+            var values = new double[array.Items.Count];
+            for (var i = 0; i < values.Length; i++)
+            {
+                values[i] = ReadQuantity(array.Items[i], string.Create(CultureInfo.InvariantCulture, $"{path}[{i}]"), units, defaultUnit, allowed);
+            }
+            return values;
         }
 
         private const string StrengthUnitsText = "eV nm, meV nm, eV Å";

@@ -114,4 +114,44 @@ public sealed class BandsCommandTest
         }
         Assert.Equal(string.Empty, run.Stderr);
     }
+
+    [Fact]
+    public void Help_NamesTheToolAndEveryCommand()
+    {
+        var run = ToolRunner.Invoke("--help");
+        Assert.Equal(0, run.ExitCode);
+        Assert.Contains("periodic [command] [options]", run.Stdout, StringComparison.Ordinal);
+        foreach (var command in new[] { "bands", "dispersion", "dos", "transmission", "plot", "example" })
+        {
+            Assert.Contains("  " + command + " ", run.Stdout, StringComparison.Ordinal);
+        }
+    }
+}
+
+public sealed class BandsSmoothTest
+{
+    [Fact]
+    public void Bands_CosineLattice_AreMathieuCharacteristicValues()
+    {
+        // -C/m psi'' + V0 cos(2 pi x / d) psi = E psi becomes Mathieu's y'' + (a - 2q cos 2z) y = 0 with
+        // z = pi x / d, a = E / eps, q = V0 / (2 eps), eps = (C/m)(pi/d)^2. Band edges are eps times the
+        // characteristic values; for q = 1: a0 = -0.45513860, b1 = -0.11024882, a1 = 1.85910807,
+        // b2 = 3.91702477 (Abramowitz and Stegun, Table 20.1; from memory).
+        const double d = 4.0, m = 0.067;
+        var eps = Periodic.Units.PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2 / m * Math.Pow(Math.PI / d, 2);
+        var v0 = 2 * eps;
+        var file = ToolRunner.TempFile(System.FormattableString.Invariant(
+            $$$"""{"name": "mathieu q=1", "cell": [{"fourier": {"period": {{{d}}}, "cosine": [{{{v0:R}}}], "mass": {{{m}}} } }]}"""));
+        var run = ToolRunner.Invoke("bands", file, "--count", "2", "--json");
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        var bands = run.Json().GetProperty("bands");
+        // Tolerance: the table's 8 decimals (half a unit: 5e-9 in a) plus the tool's step-halving refinement
+        // of the smooth segment (1e-11 relative): 1e-8 * eps. (Without refinement, at the default 64 Magnus
+        // steps, a0 is off by ~9e-7 relative: this test fails.)
+        Assert.Equal(-0.45513860 * eps, bands[0].GetProperty("bottom").GetDouble(), 1e-8 * eps);
+        Assert.Equal(-0.11024882 * eps, bands[0].GetProperty("top").GetDouble(), 1e-8 * eps);
+        Assert.Equal(1.85910807 * eps, bands[1].GetProperty("bottom").GetDouble(), 1e-8 * eps);
+        Assert.Equal(3.91702477 * eps, bands[1].GetProperty("top").GetDouble(), 1e-8 * eps);
+        Assert.True(run.Json().GetProperty("accuracy").GetProperty("converged").GetBoolean());
+    }
 }

@@ -173,3 +173,53 @@ public sealed class StructureFileStackTest
         Assert.Equal(field, e.Field);
     }
 }
+
+public sealed class StructureFileSmoothTest
+{
+    [Fact]
+    public void Parse_Fourier_IsTheLibrarySegment()
+    {
+        var s = StructureFile.Parse("""
+            {"name": "f", "cell": [{"fourier": {"period": "40 Å", "constant": "10 meV", "cosine": [0.2, "50 meV"], "sine": [0, 0.01], "mass": 0.067}}]}
+            """, "f.json");
+        var segment = Assert.IsType<FourierSegment>(s.Cell.Elements[0]);
+        Assert.Equal(4.0, segment.Width.Nanometres, 1e-15);
+        Assert.Equal(0.01, segment.ConstantElectronVolts, 1e-17);
+        Assert.Equal(new[] { 0.2, 0.05 }, segment.CosineElectronVolts.ToArray(), new ToleranceComparer(1e-17));
+        Assert.Equal(new[] { 0.0, 0.01 }, segment.SineElectronVolts.ToArray());
+        // The potential at x = 0 is constant + sum of cosines (cos 0 = 1).
+        Assert.Equal(0.01 + 0.2 + 0.05, segment.PotentialAt(0), 1e-15);
+    }
+
+    [Fact]
+    public void Parse_Profile_StartsAtZeroAndInterpolatesLinearly()
+    {
+        var s = StructureFile.Parse("""
+            {"name": "p", "cell": [{"profile": {"positions": [10, 11, 13], "potentials": [0.3, 0.1, "300 meV"], "mass": 0.067}}]}
+            """, "p.json");
+        var segment = Assert.IsType<SampledSegment>(s.Cell.Elements[0]);
+        Assert.Equal(3.0, segment.Width.Nanometres);
+        // Linear interpolation halfway between the samples at 1 and 3 nm (from the first sample).
+        Assert.Equal(0.2, segment.PotentialAt(2.0), 1e-15);
+    }
+
+    [Theory]
+    [InlineData("""{"fourier": {"period": 0, "mass": 1}}""", "cell[0].fourier.period")]
+    [InlineData("""{"fourier": {"period": 4, "cosine": ["1 V"], "mass": 1}}""", "cell[0].fourier.cosine[0]")]
+    [InlineData("""{"fourier": {"period": 4}}""", "cell[0].fourier.mass")]
+    [InlineData("""{"profile": {"positions": [0, 1], "potentials": [0], "mass": 1}}""", "cell[0].profile")]
+    [InlineData("""{"profile": {"positions": [0, 2, 1], "potentials": [0, 0, 0], "mass": 1}}""", "cell[0].profile")]
+    [InlineData("""{"profile": {"positions": 3, "potentials": [0], "mass": 1}}""", "cell[0].profile.positions")]
+    public void Parse_BadSmoothSegment_NamesTheField(string element, string field)
+    {
+        var e = Assert.Throws<StructureFileException>(() => StructureFile.Parse("""{"name": "s", "cell": [""" + element + "]}", "s.json"));
+        Assert.Equal(field, e.Field);
+    }
+
+    private sealed class ToleranceComparer(double tolerance) : IEqualityComparer<double>
+    {
+        public bool Equals(double x, double y) => Math.Abs(x - y) <= tolerance;
+
+        public int GetHashCode(double obj) => 0;
+    }
+}
