@@ -331,19 +331,7 @@ public sealed class CellTransfer
         product.Reset();
         for (var i = 0; i < _kinds.Length; i++)
         {
-            switch (_kinds[i])
-            {
-                case ElementKind.Layer:
-                    LayerMatrix(i, e, out var m11, out var m12, out var m21, out var m22, out var d11, out var d12, out var d21, out var d22, out var l, out _, out _);
-                    product.ApplyLeft(m11, m12, m21, m22, d11, d12, d21, d22, l);
-                    break;
-                case ElementKind.Delta:
-                    product.ApplyLeft(1, 0, _deltaJumps[i], 1, 0, 0, 0, 0, 0);
-                    break;
-                default:
-                    _segments[i]!.Propagate(e, ref product);
-                    break;
-            }
+            ApplyElement(i, e, ref product);
         }
         return product;
     }
@@ -365,19 +353,7 @@ public sealed class CellTransfer
         {
             var single = new Product();
             single.Reset();
-            switch (_kinds[i])
-            {
-                case ElementKind.Layer:
-                    LayerMatrix(i, e, out var m11, out var m12, out var m21, out var m22, out var d11, out var d12, out var d21, out var d22, out var l, out _, out _);
-                    single.ApplyLeft(m11, m12, m21, m22, d11, d12, d21, d22, l);
-                    break;
-                case ElementKind.Delta:
-                    single.ApplyLeft(1, 0, _deltaJumps[i], 1, 0, 0, 0, 0, 0);
-                    break;
-                default:
-                    _segments[i]!.Propagate(e, ref single);
-                    break;
-            }
+            ApplyElement(i, e, ref single);
             matrices[i, 0] = single.P11; matrices[i, 1] = single.P12; matrices[i, 2] = single.P21; matrices[i, 3] = single.P22;
             scales[i] = single.LogScale;
         }
@@ -427,6 +403,25 @@ public sealed class CellTransfer
         m21 = Math.ScaleB(m21, -exponent); m22 = Math.ScaleB(m22, -exponent);
         logScale += exponent * Math.Log(2.0);
         return Math.Log(Math.Max(Math.Max(Math.Abs(m11), Math.Abs(m12)), Math.Max(Math.Abs(m21), Math.Abs(m22)))) + logScale;
+    }
+
+    /// <summary>Applies element <paramref name="i"/> (matrix and energy derivative) to the running product.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private void ApplyElement(int i, double e, ref Product product)
+    {
+        switch (_kinds[i])
+        {
+            case ElementKind.Layer:
+                LayerMatrix(i, e, out var m11, out var m12, out var m21, out var m22, out var d11, out var d12, out var d21, out var d22, out var l, out _, out _);
+                product.ApplyLeft(m11, m12, m21, m22, d11, d12, d21, d22, l);
+                break;
+            case ElementKind.Delta:
+                product.ApplyLeft(1, 0, _deltaJumps[i], 1, 0, 0, 0, 0, 0);
+                break;
+            default:
+                _segments[i]!.Propagate(e, ref product);
+                break;
+        }
     }
 
     /// <summary>Scaled matrix and exact energy derivative of uniform layer <paramref name="i"/>.</summary>
