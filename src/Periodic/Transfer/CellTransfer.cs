@@ -17,8 +17,9 @@ namespace Periodic.Transfer;
 /// the (ψ, ψ′/m) basis (BenDaniel–Duke matching); each delta contributes a jump of ψ′/m. The exact
 /// energy derivative dM/dE is carried alongside by the product rule. The product is held as a mantissa
 /// times e^LogScale: evanescent layers are divided by their growing exponential e^(κw) analytically and
-/// the running product is renormalised by powers of two, so that no entry overflows or loses the band
-/// structure, whatever the barrier thickness or number of layers.</para>
+/// the running product is renormalised by powers of two, so that no entry overflows, whatever the barrier
+/// thickness or number of layers. D itself is limited by cancellation when a period holds several thick
+/// barriers (its rounding grows like e^(Σκw)); the band finder's error bounds account for it (docs/core.md).</para>
 /// <para>The Bloch condition for the infinite crystal is cos(kd) = D(E)/2 with D = Tr M
 /// (F. Bloch, Z. Phys. 52, 555 (1929); Kronig and Penney 1931).</para>
 /// </remarks>
