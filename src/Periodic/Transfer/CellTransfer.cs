@@ -343,47 +343,50 @@ public sealed class CellTransfer
     /// product is a few ulps of this (forward error analysis of a matrix product; N. J. Higham, Accuracy
     /// and Stability of Numerical Algorithms, 2nd ed., §3.5). It exceeds ‖M‖ greatly in a cell with several
     /// thick barriers, whose partial products grow like e^(Σκw) and cancel back to an O(1) trace in a band.
-    /// For error bounds only: it allocates and takes logarithms, so it stays off the hot path.
+    /// For error bounds only: it takes logarithms (and allocates for cells of over 200 elements), so it stays off the hot path.
     /// </summary>
     internal double LogRoundingAmplification(double e)
     {
         var n = _kinds.Length;
-        var matrices = new double[n, 4];
-        var scales = new double[n];
+        // 10 doubles per element; on the stack for cells of up to 200 elements (16 KB), so sweeps of small
+        // cells do not allocate here.
+        var buffer = n <= 200 ? stackalloc double[10 * n] : new double[10 * n];
+        var matrices = buffer[..(4 * n)];
+        var scales = buffer.Slice(4 * n, n);
         for (var i = 0; i < n; i++)
         {
             var single = new Product();
             single.Reset();
             ApplyElement(i, e, ref single);
-            matrices[i, 0] = single.P11; matrices[i, 1] = single.P12; matrices[i, 2] = single.P21; matrices[i, 3] = single.P22;
+            matrices[4 * i + 0] = single.P11; matrices[4 * i + 1] = single.P12; matrices[4 * i + 2] = single.P21; matrices[4 * i + 3] = single.P22;
             scales[i] = single.LogScale;
         }
         // Forward: R_j = M_j⋯M_0 (normalised mantissas and their log scales); backward: L_j = M_{n-1}⋯M_{j+1}.
-        var right = new double[n, 4];
-        var rightScale = new double[n];
+        var right = buffer.Slice(5 * n, 4 * n);
+        var rightScale = buffer.Slice(9 * n, n);
         double r11 = 1, r12 = 0, r21 = 0, r22 = 1, rScale = 0;
         for (var i = 0; i < n; i++)
         {
-            double a11 = matrices[i, 0], a12 = matrices[i, 1], a21 = matrices[i, 2], a22 = matrices[i, 3];
+            double a11 = matrices[4 * i + 0], a12 = matrices[4 * i + 1], a21 = matrices[4 * i + 2], a22 = matrices[4 * i + 3];
             (r11, r12, r21, r22) = (a11 * r11 + a12 * r21, a11 * r12 + a12 * r22, a21 * r11 + a22 * r21, a21 * r12 + a22 * r22);
             rScale += scales[i];
             LogNormalised(ref r11, ref r12, ref r21, ref r22, ref rScale);
-            right[i, 0] = r11; right[i, 1] = r12; right[i, 2] = r21; right[i, 3] = r22;
+            right[4 * i + 0] = r11; right[4 * i + 1] = r12; right[4 * i + 2] = r21; right[4 * i + 3] = r22;
             rightScale[i] = rScale;
         }
         // The trace's rounding at boundary j is governed by tr(|L_j|·|R_j|) = Σ |L_ak|·|R_ka|, which is
         // dimensionless (the entries of M carry different units, so a max-entry norm would not be).
-        var peak = Math.Log(Math.Abs(right[n - 1, 0]) + Math.Abs(right[n - 1, 3])) + rightScale[n - 1];
+        var peak = Math.Log(Math.Abs(right[4 * (n - 1) + 0]) + Math.Abs(right[4 * (n - 1) + 3])) + rightScale[n - 1];
         double l11 = 1, l12 = 0, l21 = 0, l22 = 1, lScale = 0;
         for (var i = n - 1; i >= 1; i--)
         {
-            double a11 = matrices[i, 0], a12 = matrices[i, 1], a21 = matrices[i, 2], a22 = matrices[i, 3];
+            double a11 = matrices[4 * i + 0], a12 = matrices[4 * i + 1], a21 = matrices[4 * i + 2], a22 = matrices[4 * i + 3];
             (l11, l12, l21, l22) = (l11 * a11 + l12 * a21, l11 * a12 + l12 * a22, l21 * a11 + l22 * a21, l21 * a12 + l22 * a22);
             lScale += scales[i];
             LogNormalised(ref l11, ref l12, ref l21, ref l22, ref lScale);
             var j = i - 1;
-            var sum = Math.Abs(l11) * Math.Abs(right[j, 0]) + Math.Abs(l12) * Math.Abs(right[j, 2])
-                + Math.Abs(l21) * Math.Abs(right[j, 1]) + Math.Abs(l22) * Math.Abs(right[j, 3]);
+            var sum = Math.Abs(l11) * Math.Abs(right[4 * j + 0]) + Math.Abs(l12) * Math.Abs(right[4 * j + 2])
+                + Math.Abs(l21) * Math.Abs(right[4 * j + 1]) + Math.Abs(l22) * Math.Abs(right[4 * j + 3]);
             if (sum > 0)
             {
                 peak = Math.Max(peak, Math.Log(sum) + lScale + rightScale[j]);
