@@ -6,6 +6,8 @@ using System.Runtime.CompilerServices;
 using Periodic.Structures;
 using Periodic.Units;
 
+using Periodic.Transfer;
+
 namespace Periodic.Properties;
 
 /// <summary>
@@ -34,24 +36,8 @@ internal static class DispersionDerivatives
 {
     private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
     private const int SeriesTerms = 18;
-    private static readonly double[] CSeries = Series(0);
-    private static readonly double[] SSeries = Series(1);
-
-    private static double[] Series(int offset)
-    {
-        // cSeries[j] = (-1)^j / (2j)!, sSeries[j] = (-1)^j / (2j+1)!.
-        var coefficients = new double[SeriesTerms + 1];
-        for (var j = 0; j <= SeriesTerms; j++)
-        {
-            double factorial = 1;
-            for (var n = 2; n <= 2 * j + offset; n++)
-            {
-                factorial *= n;
-            }
-            coefficients[j] = (j % 2 == 0 ? 1.0 : -1.0) / factorial;
-        }
-        return coefficients;
-    }
+    private static readonly double[] CSeries = UniformLayerPropagator.BuildSeries(0, SeriesTerms);
+    private static readonly double[] SSeries = UniformLayerPropagator.BuildSeries(1, SeriesTerms);
 
     /// <summary>True when every element of the cell is a uniform layer or a delta barrier.</summary>
     internal static bool Supports(UnitCell cell)

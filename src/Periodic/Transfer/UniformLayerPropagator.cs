@@ -22,18 +22,19 @@ internal static class UniformLayerPropagator
     private const int SeriesTerms = 13;
 
     // cSeries[j] = (-1)^j / (2j)!, sSeries[j] = (-1)^j / (2j+1)!.
-    private static readonly double[] CSeries = BuildSeries(0);
-    private static readonly double[] SSeries = BuildSeries(1);
+    private static readonly double[] CSeries = BuildSeries(0, SeriesTerms);
+    private static readonly double[] SSeries = BuildSeries(1, SeriesTerms);
 
-    private static double[] BuildSeries(int offset)
+    /// <summary>Taylor coefficients in z = s·w²: (−1)^j/(2j + offset)! for j = 0 … terms (offset 0: c, 1: S/w).</summary>
+    internal static double[] BuildSeries(int offset, int terms)
     {
-        var coefficients = new double[SeriesTerms + 1];
+        var coefficients = new double[terms + 1];
         double factorial = 1;
         for (var n = 1; n <= offset; n++)
         {
             factorial *= n;
         }
-        for (var j = 0; j <= SeriesTerms; j++)
+        for (var j = 0; j <= terms; j++)
         {
             coefficients[j] = (j % 2 == 0 ? 1.0 : -1.0) / factorial;
             var next = 2 * j + offset;
