@@ -34,19 +34,22 @@ internal sealed class BandEdgeFinder
     internal static double TargetTrace(int edgeIndex) => ((edgeIndex + 1) / 2) % 2 == 0 ? 2.0 : -2.0;
 
     /// <summary>
-    /// Finds edges 0 … <paramref name="edgeCount"/> − 1. Returns their energies, error bounds and
-    /// whether each odd-even gap pair (e_{2j−1}, e_{2j}) is closed.
+    /// Finds edges 0 … edges.Length − 1 into <paramref name="edges"/> with their error bounds in
+    /// <paramref name="errors"/> (same length), and marks in <paramref name="closedAbove"/>
+    /// (length (edges.Length + 1) / 2 + 1, cleared) whether each odd-even gap pair (e_{2j−1}, e_{2j}) is closed.
+    /// The caller supplies the buffers so that a small search allocates nothing.
     /// </summary>
-    internal (double[] Edges, double[] Errors, bool[] ClosedGapAbove) FindEdges(int edgeCount)
+    internal void FindEdges(Span<double> edges, Span<double> errors, Span<bool> closedAbove)
     {
-        var edges = new double[edgeCount];
-        var errors = new double[edgeCount];
-        var found = new bool[edgeCount];
-        var closedAbove = new bool[(edgeCount + 1) / 2 + 1];
+        var edgeCount = edges.Length;
+        errors.Fill(double.NaN); // NaN: not found yet (a stored bound is never NaN)
+        var sink = new EdgeSink(edges, errors);
 
         var (low, high) = InitialInterval(edgeCount);
-        var stack = new Stack<(double A, int CountA, double B, int CountB)>();
-        stack.Push((low, 0, high, _transfer.CountBandEdgesBelow(high)));
+        // Depth-first bisection; the pending intervals fit on the stack for any realistic search (one per
+        // bisection level), and spill to the heap only beyond that.
+        var stack = new IntervalStack(stackalloc Interval[64]);
+        stack.Push(new Interval(low, 0, high, _transfer.CountBandEdgesBelow(high)));
         while (stack.Count > 0)
         {
             var (a, ca, b, cb) = stack.Pop();
@@ -62,7 +65,7 @@ internal sealed class BandEdgeFinder
                 var mid = 0.5 * (a + b);
                 for (var i = ca; i < cb && i < edgeCount; i++)
                 {
-                    Store(i, mid, width);
+                    sink.Store(i, mid, width);
                     if (i % 2 == 1 && i + 1 < cb)
                     {
                         closedAbove[(i + 1) / 2] = true;
@@ -72,13 +75,13 @@ internal sealed class BandEdgeFinder
             }
             if (cb - ca == 1)
             {
-                RefineInto(ca, a, b);
+                RefineInto(ref sink, ca, a, b);
                 continue;
             }
             if (cb - ca == 2 && ca % 2 == 0)
             {
-                RefineInto(ca, a, b);
-                RefineInto(ca + 1, a, b);
+                RefineInto(ref sink, ca, a, b);
+                RefineInto(ref sink, ca + 1, a, b);
                 continue;
             }
             if (cb - ca == 2 && TrySeparateGapPair(ca, a, b, out var extremum, out var closed, out var closedError))
@@ -86,19 +89,19 @@ internal sealed class BandEdgeFinder
                 if (closed)
                 {
                     var error = closedError;
-                    Store(ca, extremum, error);
-                    Store(ca + 1, extremum, error);
+                    sink.Store(ca, extremum, error);
+                    sink.Store(ca + 1, extremum, error);
                     closedAbove[(ca + 1) / 2] = true;
                 }
                 else if (TryRefineNarrowPair(ca, a, extremum, b, out var lowerRoot, out var upperRoot))
                 {
-                    Store(ca, lowerRoot.Root, lowerRoot.ErrorBound);
-                    Store(ca + 1, upperRoot.Root, upperRoot.ErrorBound);
+                    sink.Store(ca, lowerRoot.Root, lowerRoot.ErrorBound);
+                    sink.Store(ca + 1, upperRoot.Root, upperRoot.ErrorBound);
                 }
                 else
                 {
-                    RefineInto(ca, a, extremum);
-                    RefineInto(ca + 1, extremum, b);
+                    RefineInto(ref sink, ca, a, extremum);
+                    RefineInto(ref sink, ca + 1, extremum, b);
                 }
                 continue;
             }
@@ -106,41 +109,71 @@ internal sealed class BandEdgeFinder
             var cm = _transfer.CountBandEdgesBelow(middle);
             // The count is monotone; rounding right at an edge can only shift it by one, so keep it in range.
             cm = Math.Clamp(cm, ca, cb);
-            stack.Push((middle, cm, b, cb));
-            stack.Push((a, ca, middle, cm));
+            stack.Push(new Interval(middle, cm, b, cb));
+            stack.Push(new Interval(a, ca, middle, cm));
         }
         for (var i = 0; i < edgeCount; i++)
         {
-            if (!found[i])
+            if (double.IsNaN(errors[i]))
             {
                 throw new BandSearchException(string.Create(CultureInfo.InvariantCulture,
                     $"band edge {i} was not located in [{low:R}, {high:R}] eV; the oscillation count and the edge search disagree."));
             }
         }
         // Rounding can leave a coincident pair in the wrong order; edges are sorted by definition.
-        Array.Sort(edges, errors);
-        return (edges, errors, closedAbove);
+        edges.Sort(errors);
+    }
 
-        void Store(int index, double energy, double error)
+    private void RefineInto(ref EdgeSink sink, int index, double lower, double upper)
+    {
+        if (index >= sink.Count)
         {
-            if (index >= edgeCount)
+            return;
+        }
+        var result = RefineEdge(index, lower, upper);
+        sink.Store(index, result.Root, result.ErrorBound);
+    }
+
+    /// <summary>Where found edges go: energies and error bounds by edge index; indices beyond the count are ignored.</summary>
+    private readonly ref struct EdgeSink(Span<double> edges, Span<double> errors)
+    {
+        private readonly Span<double> _edges = edges;
+        private readonly Span<double> _errors = errors;
+
+        public int Count => _edges.Length;
+
+        public void Store(int index, double energy, double error)
+        {
+            if (index < _edges.Length)
             {
-                return;
+                _edges[index] = energy;
+                _errors[index] = error;
             }
-            edges[index] = energy;
-            errors[index] = error;
-            found[index] = true;
+        }
+    }
+
+    /// <summary>An energy interval [A, B] with the oscillation counts at its ends.</summary>
+    internal readonly record struct Interval(double A, int CountA, double B, int CountB);
+
+    /// <summary>A last-in-first-out store of intervals on a caller-supplied buffer, moved to the heap when full.</summary>
+    internal ref struct IntervalStack(Span<Interval> buffer)
+    {
+        private Span<Interval> _items = buffer;
+
+        public int Count { get; private set; }
+
+        public void Push(Interval item)
+        {
+            if (Count == _items.Length)
+            {
+                var larger = new Interval[2 * _items.Length];
+                _items.CopyTo(larger);
+                _items = larger;
+            }
+            _items[Count++] = item;
         }
 
-        void RefineInto(int index, double lower, double upper)
-        {
-            if (index >= edgeCount)
-            {
-                return;
-            }
-            var result = RefineEdge(index, lower, upper);
-            Store(index, result.Root, result.ErrorBound);
-        }
+        public Interval Pop() => _items[--Count];
     }
 
     /// <summary>An interval [low, high] with no edge below low and at least <paramref name="edgeCount"/> edges below high.</summary>

@@ -28,6 +28,8 @@ public sealed class BandStructure
     private readonly Band[] _bands;
     private readonly Gap[] _gaps;
     private readonly BandSearchOptions _options;
+    private ReadOnlyCollection<Band>? _bandView;
+    private ReadOnlyCollection<Gap>? _gapView;
 
     private BandStructure(CellTransfer transfer, Band[] bands, Gap[] gaps, BandSearchOptions options, int countChecks)
     {
@@ -35,8 +37,6 @@ public sealed class BandStructure
         _bands = bands;
         _gaps = gaps;
         _options = options;
-        Bands = new ReadOnlyCollection<Band>(bands);
-        Gaps = new ReadOnlyCollection<Gap>(gaps);
         CountChecks = countChecks;
     }
 
@@ -47,10 +47,10 @@ public sealed class BandStructure
     public CellTransfer Transfer { get; }
 
     /// <summary>The bands found, lowest first; <c>Bands[n - 1]</c> is band n.</summary>
-    public IReadOnlyList<Band> Bands { get; }
+    public IReadOnlyList<Band> Bands => _bandView ??= new ReadOnlyCollection<Band>(_bands); // made on first use: sweeps of many cells rarely need it
 
     /// <summary>The gaps above each band found; <c>Gaps[n - 1]</c> lies between band n and n + 1.</summary>
-    public IReadOnlyList<Gap> Gaps { get; }
+    public IReadOnlyList<Gap> Gaps => _gapView ??= new ReadOnlyCollection<Gap>(_gaps);
 
     /// <summary>The period d, nm.</summary>
     public double PeriodNanometres => Transfer.PeriodNanometres;
@@ -134,7 +134,14 @@ public sealed class BandStructure
     {
         // Edges 0 … 2N: the extra one is the bottom of band N + 1, so the gap above band N is known.
         var finder = new BandEdgeFinder(transfer, options);
-        var (edges, errors, closed) = finder.FindEdges(2 * count + 1);
+        var edgeCount = 2 * count + 1;
+        // Scratch on the stack for a few bands (sweeps of many small cells then allocate only their results).
+        var small = edgeCount <= 65;
+        var edges = small ? stackalloc double[edgeCount] : new double[edgeCount];
+        var errors = small ? stackalloc double[edgeCount] : new double[edgeCount];
+        var closed = small ? stackalloc bool[count + 2] : new bool[count + 2];
+        closed.Clear();
+        finder.FindEdges(edges, errors, closed);
         ApplyRoundingFloor(transfer, edges, errors, closed);
         var bands = new Band[count];
         var gaps = new Gap[count];
@@ -160,7 +167,7 @@ public sealed class BandStructure
     /// changes; for cells with several thick barriers per period it can grow to 1e-5 and more
     /// (docs/core.md, "Resolution limits"), and the bounds say so.
     /// </remarks>
-    private static void ApplyRoundingFloor(CellTransfer transfer, double[] edges, double[] errors, bool[] closed)
+    private static void ApplyRoundingFloor(CellTransfer transfer, Span<double> edges, Span<double> errors, Span<bool> closed)
     {
         // Rounding accumulates over the elements; √n is its statistical growth (Higham §2.8).
         var ulps = 8 * 2.220446049250313e-16 * Math.Sqrt(transfer.Cell.Elements.Count);

@@ -54,9 +54,11 @@ public static class BandSweep
         }
         else
         {
-            // Contiguous ranges (about eight per thread) keep the per-cell scheduling cost negligible.
+            // Contiguous ranges handed out on demand: about 64 per thread, so that the thread finishing last
+            // idles for at most ~1/64 of the run (cells differ in cost), while scheduling stays negligible
+            // (one hand-out per range). Measured on 2 cores, 10^4 cells: 8 ranges per thread gave 1.64x, 64 gave 1.76-1.93x.
             var threads = maxDegreeOfParallelism == -1 ? Environment.ProcessorCount : maxDegreeOfParallelism;
-            var rangeSize = Math.Max(1, results.Length / (8 * threads));
+            var rangeSize = Math.Clamp(results.Length / (64 * threads), 1, 256);
             Parallel.ForEach(Partitioner.Create(0, results.Length, rangeSize), new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism }, range =>
             {
                 for (var i = range.Item1; i < range.Item2; i++)

@@ -29,16 +29,11 @@ public sealed class CellTransfer
     private const double RenormaliseAbove = 1e120;
     private const double RenormaliseBelow = 1e-120;
 
-    // Packed element data (structure of arrays): kind, width (nm), potential (eV), mass (m0),
-    // mass slope dm/dE (m0/eV), delta jump (strength / C, 1/nm per unit ψ·m0... see Delta).
+    // Packed element data: a kind per element and ElementData.Stride doubles per element in one array
+    // (one allocation, and the numbers of an element side by side); propagators only for smooth segments.
     private readonly ElementKind[] _kinds;
-    private readonly double[] _widths;
-    private readonly double[] _potentials;
-    private readonly double[] _masses;
-    private readonly double[] _massSlopes;
-    private readonly double[] _deltaJumps;
-    private readonly ISegmentPropagator?[] _segments;
-    private readonly TraceKernel? _traceKernel;
+    private readonly double[] _data;
+    private readonly ISegmentPropagator?[]? _segments;
 
     private CellTransfer(UnitCell cell)
     {
@@ -46,12 +41,7 @@ public sealed class CellTransfer
         var elements = cell.ElementSpan;
         var n = elements.Length;
         _kinds = new ElementKind[n];
-        _widths = new double[n];
-        _potentials = new double[n];
-        _masses = new double[n];
-        _massSlopes = new double[n];
-        _deltaJumps = new double[n];
-        _segments = new ISegmentPropagator?[n];
+        _data = new double[ElementData.Stride * n];
         var domain = double.NegativeInfinity;
         for (var i = 0; i < n; i++)
         {
@@ -59,18 +49,17 @@ public sealed class CellTransfer
             {
                 case Layer layer:
                     _kinds[i] = ElementKind.Layer;
-                    _widths[i] = layer.Width.Nanometres;
-                    _potentials[i] = layer.Potential.ElectronVolts;
-                    _masses[i] = layer.Mass.ElectronMasses;
-                    _massSlopes[i] = layer.Mass.ElectronMasses * layer.NonParabolicityPerElectronVolt;
+                    ElementData.StoreLayer(_data, i, layer.Width.Nanometres, layer.Potential.ElectronVolts,
+                        layer.Mass.ElectronMasses, layer.Mass.ElectronMasses * layer.NonParabolicityPerElectronVolt);
                     domain = Math.Max(domain, layer.LowestValidEnergyElectronVolts());
                     break;
                 case DeltaBarrier delta:
                     _kinds[i] = ElementKind.Delta;
-                    _deltaJumps[i] = delta.StrengthElectronVoltNanometres / C;
+                    _data[ElementData.Stride * i + ElementData.Jump] = delta.StrengthElectronVoltNanometres / C;
                     break;
                 case IMeshedSegment smooth:
                     _kinds[i] = ElementKind.Segment;
+                    _segments ??= new ISegmentPropagator?[n];
                     _segments[i] = new MagnusSegmentPropagator(smooth.Mesh);
                     break;
                 default:
@@ -81,14 +70,6 @@ public sealed class CellTransfer
         }
         LowestValidEnergyElectronVolts = domain;
         PeriodNanometres = cell.Period.Nanometres;
-        _traceKernel = TraceKernel.TryCreate(cell);
-    }
-
-    private enum ElementKind : byte
-    {
-        Layer,
-        Delta,
-        Segment,
     }
 
     /// <summary>The cell this transfer matrix describes.</summary>
@@ -149,9 +130,9 @@ public sealed class CellTransfer
     public double Trace(double energyElectronVolts)
     {
         CheckEnergy(energyElectronVolts);
-        if (_traceKernel is not null)
+        if (_segments is null)
         {
-            return _traceKernel.Trace(energyElectronVolts);
+            return TraceKernel.Trace(_kinds, _data, energyElectronVolts);
         }
         var p = Accumulate(energyElectronVolts);
         var mantissa = p.P11 + p.P22;
@@ -194,7 +175,7 @@ public sealed class CellTransfer
     /// <exception cref="ArgumentOutOfRangeException">An energy is not finite or not above <see cref="LowestValidEnergyElectronVolts"/>.</exception>
     public void TracesVectorized(ReadOnlySpan<double> energiesElectronVolts, Span<double> destination)
     {
-        if (_traceKernel is null)
+        if (_segments is not null)
         {
             Traces(energiesElectronVolts, destination);
             return;
@@ -204,7 +185,7 @@ public sealed class CellTransfer
         {
             CheckEnergy(energiesElectronVolts[i], i); // all checked before any output is written
         }
-        _traceKernel.Traces(energiesElectronVolts, destination);
+        TraceKernel.Traces(_kinds, _data, energiesElectronVolts, destination);
     }
 
     /// <summary>
@@ -265,18 +246,21 @@ public sealed class CellTransfer
                     LayerMatrix(i, e, out var m11, out var m12, out var m21, out var m22, out var d11, out var d12, out var d21, out var d22, out var l, out var s, out var mass);
                     var u1 = m11 * u + m12 * w;
                     var w1 = m21 * u + m22 * w;
-                    zeros += LayerZeros(u, w, u1, w1, s, _widths[i], mass);
+                    zeros += LayerZeros(u, w, u1, w1, s, _data[ElementData.Stride * i + ElementData.Width], mass);
                     u = u1;
                     w = w1;
                     product.ApplyLeft(m11, m12, m21, m22, d11, d12, d21, d22, l);
                     break;
                 }
                 case ElementKind.Delta:
-                    w += _deltaJumps[i] * u;
-                    product.ApplyLeft(1, 0, _deltaJumps[i], 1, 0, 0, 0, 0, 0);
+                {
+                    var jump = _data[ElementData.Stride * i + ElementData.Jump];
+                    w += jump * u;
+                    product.ApplyLeft(1, 0, jump, 1, 0, 0, 0, 0, 0);
                     break;
+                }
                 default:
-                    zeros += _segments[i]!.PropagateCounting(e, ref u, ref w, ref product);
+                    zeros += _segments![i]!.PropagateCounting(e, ref u, ref w, ref product);
                     break;
             }
             RenormaliseVector(ref u, ref w);
@@ -420,10 +404,10 @@ public sealed class CellTransfer
                 product.ApplyLeft(m11, m12, m21, m22, d11, d12, d21, d22, l);
                 break;
             case ElementKind.Delta:
-                product.ApplyLeft(1, 0, _deltaJumps[i], 1, 0, 0, 0, 0, 0);
+                product.ApplyLeft(1, 0, _data[ElementData.Stride * i + ElementData.Jump], 1, 0, 0, 0, 0, 0);
                 break;
             default:
-                _segments[i]!.Propagate(e, ref product);
+                _segments![i]!.Propagate(e, ref product);
                 break;
         }
     }
@@ -433,12 +417,13 @@ public sealed class CellTransfer
     private void LayerMatrix(int i, double e, out double m11, out double m12, out double m21, out double m22,
         out double d11, out double d12, out double d21, out double d22, out double logScale, out double s, out double mass)
     {
-        var excess = e - _potentials[i];
-        var slope = _massSlopes[i];
-        mass = _masses[i] + slope * excess;
+        var at = ElementData.Stride * i;
+        var excess = e - _data[at + ElementData.Potential];
+        var slope = _data[at + ElementData.MassSlope];
+        mass = _data[at + ElementData.Mass] + slope * excess;
         s = mass * excess / C;
         var dsde = (mass + slope * excess) / C;
-        var width = _widths[i];
+        var width = _data[at + ElementData.Width];
         UniformLayerPropagator.Evaluate(s, width, out var c, out var sinc, out var dcds, out var dSds, out logScale);
         // M = [[c, m S], [-(s/m) S, c]]; dM/dE = (ds/dE) dM/ds + (dm/dE) dM/dm.
         m11 = c;
@@ -536,6 +521,43 @@ public sealed class CellTransfer
                 LogScale += exponent * Math.Log(2.0);
             }
         }
+    }
+}
+
+/// <summary>The kind of one packed cell element.</summary>
+internal enum ElementKind : byte
+{
+    Layer,
+    Delta,
+    Segment,
+}
+
+/// <summary>
+/// Layout of the packed per-element numbers of <see cref="CellTransfer"/>: <see cref="Stride"/> doubles per
+/// element. A layer stores width (nm), potential (eV), band-edge mass (m0), mass slope dm/dE (m0/eV) and,
+/// for the trace-only kernel, m/C and 1/m (C = ħ²/2m0 in eV·nm²); a delta stores its jump of ψ′/m
+/// (strength / C) in <see cref="Jump"/>.
+/// </summary>
+internal static class ElementData
+{
+    internal const int Stride = 6;
+    internal const int Width = 0;
+    internal const int Potential = 1;
+    internal const int Mass = 2;
+    internal const int MassSlope = 3;
+    internal const int MassOverC = 4;
+    internal const int InverseMass = 5;
+    internal const int Jump = 0;
+
+    internal static void StoreLayer(double[] data, int index, double width, double potential, double mass, double massSlope)
+    {
+        var at = Stride * index;
+        data[at + Width] = width;
+        data[at + Potential] = potential;
+        data[at + Mass] = mass;
+        data[at + MassSlope] = massSlope;
+        data[at + MassOverC] = mass / PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
+        data[at + InverseMass] = 1 / mass;
     }
 }
 

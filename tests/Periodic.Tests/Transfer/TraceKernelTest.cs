@@ -143,6 +143,8 @@ public sealed class TraceKernelTest
             // Tolerance: the terms are O(10) here (κb ≤ 1.7, |ξ − 1/ξ| ≤ 40 near E = 0); both sides round at
             // ~1e-15 of them, and the closed form loses a few more digits to 1/ξ at the lowest energies.
             Assert.Equal(expected, batch[i], 1e-11 * Math.Max(1, Math.Abs(expected)));
+            // The scalar trace-only path (one division per layer), same closed form and tolerance.
+            Assert.Equal(expected, transfer.Trace(e), 1e-11 * Math.Max(1, Math.Abs(expected)));
         }
     }
 
