@@ -163,12 +163,13 @@ public sealed class CellTransfer
 
     /// <summary>
     /// Effectively computes <c>destination[i] = D(energiesElectronVolts[i])</c> = Tr M without the energy
-    /// derivative, vectorised across energies for cells of layers and deltas (TensorPrimitives over chunks
-    /// of 256 energies on the stack); ±∞ beyond the double range, never NaN. Does not allocate. Every
-    /// energy is checked before anything is written.
+    /// derivative, vectorised across energies for cells of layers and deltas (SIMD lanes of
+    /// <see cref="System.Numerics.Vector{T}"/>, several energies per instruction, the product kept in registers);
+    /// cells with smooth segments take the exact path <see cref="Traces"/>. ±∞ beyond the double range, never NaN.
+    /// Does not allocate. Every energy is checked before anything is written.
     /// </summary>
     /// <remarks>Agrees with <see cref="Traces"/> to within 1e-13 × (number of elements) × the largest entry
-    /// of M(E): the vectorised sin, cos and expm1 differ from the scalar ones by a few ulps, which the product
+    /// of M(E): the vectorised sin, cos and exp differ from the scalar ones by a few ulps, which the product
     /// carries. Where D is much smaller than the entries it cancels from (deep in a band of a thick-barrier
     /// cell) only this bound on the difference applies, not a relative one.</remarks>
     /// <exception cref="ArgumentException"><paramref name="destination"/> is shorter than the input.</exception>

@@ -39,12 +39,26 @@ public sealed class TraceKernelTest
         return UnitCell.Create(layers);
     }
 
-    public static TheoryData<string> Cells => new() { "kronig-penney", "graded", "thick" };
+    // Barriers with κw from about 31 at E = 0 down through 20 (where the kernel switches from cosh/sinh to the
+    // scaled form) and 1 (series) to oscillating above 1 eV, so every regime and every switch is crossed.
+    private static UnitCell VeryThickBarriers()
+    {
+        var layers = new List<CellElement>();
+        for (var i = 0; i < 3; i++)
+        {
+            layers.Add(Layer.Create(Length.FromNanometres(4), default, EffectiveMass.FromElectronMasses(0.067)));
+            layers.Add(Layer.Create(Length.FromNanometres(20), Energy.FromElectronVolts(1.0), EffectiveMass.FromElectronMasses(0.09)));
+        }
+        return UnitCell.Create(layers);
+    }
+
+    public static TheoryData<string> Cells => new() { "kronig-penney", "graded", "thick", "very-thick" };
 
     private static UnitCell Build(string name) => name switch
     {
         "kronig-penney" => KronigPenney(),
         "graded" => Graded(),
+        "very-thick" => VeryThickBarriers(),
         _ => ThickBarriers(),
     };
 
