@@ -269,4 +269,27 @@ public sealed partial class BlochFunctionTest
         Assert.InRange(order1, 1.7, 2.3);
         Assert.InRange(order2, 1.7, 2.3);
     }
+
+    [Fact]
+    public void Create_SmoothCellArgumentsAreCheckedAndResultsFinite()
+    {
+        // House rules: bad input names its parameter; no NaN leaves a public method (every band and zone point here).
+        var structure = BandStructure.Compute(MixedSmoothCell(), 2);
+        var d = structure.PeriodNanometres;
+        Assert.Equal("bandIndex", Assert.Throws<ArgumentOutOfRangeException>(() => BlochFunction.Create(structure, 3, 0)).ParamName);
+        Assert.Equal("wavevectorPerNanometre", Assert.Throws<ArgumentOutOfRangeException>(() => BlochFunction.Create(structure, 1, 1.1 * Math.PI / d)).ParamName);
+        var props = BandProperties.Create(structure);
+        foreach (var fraction in new[] { -1.0, 0.0, 0.5, 1.0 })
+        {
+            for (var n = 1; n <= 2; n++)
+            {
+                var psi = BlochFunction.Create(structure, n, fraction * Math.PI / d);
+                Assert.True(double.IsFinite(psi.DiscretisationErrorEstimate) && psi.DiscretisationErrorEstimate >= 0);
+                var value = psi.ValueAt(0.37 * d);
+                Assert.True(double.IsFinite(value.Real) && double.IsFinite(value.Imaginary));
+                Assert.False(double.IsNaN(props.CurvatureMassElectronMasses(n, fraction * Math.PI / d)));
+            }
+        }
+        Assert.Equal("positionNanometres", Assert.Throws<ArgumentOutOfRangeException>(() => BlochFunction.Create(structure, 1, 0).ValueAt(double.NaN)).ParamName);
+    }
 }
