@@ -256,7 +256,8 @@ public sealed class RefinedBandStructure
         return errors;
     }
 
-    private static UnitCell Refine(UnitCell cell)
+    /// <summary>The cell with every smooth segment's steps halved; the same instance when every segment is at its step limit.</summary>
+    internal static UnitCell Refine(UnitCell cell)
     {
         var changed = false;
         var elements = new CellElement[cell.Elements.Count];

@@ -129,7 +129,6 @@ public sealed partial class BandProperties
         }
         if (NearClosedEdge(index, energy, ClosedGapWindowFromTrace, out var edge, out var offset))
         {
-            ThrowIfNoCrossing(edge, "The density of states");
             return 2 / (Math.PI * (edge.CrossingSlope + 2 * edge.CrossingCurvature * offset / edge.CrossingSlope));
         }
         var value = _transfer.Dispersion(energy);

@@ -121,7 +121,6 @@ public sealed partial class BandProperties
             {
                 return 0.0;
             }
-            ThrowIfNoCrossing(edge, "The group velocity");
             return parity * edge.CrossingSlope;
         }
         EdgeData closed;
@@ -138,7 +137,6 @@ public sealed partial class BandProperties
         }
         if (near)
         {
-            ThrowIfNoCrossing(closed, "The group velocity");
             // dE/dq = a + 2bq along the smooth extended-zone crossing, with q ≈ δ/a from the energy offset δ.
             return parity * (closed.CrossingSlope + 2 * closed.CrossingCurvature * offset / closed.CrossingSlope);
         }
@@ -182,7 +180,6 @@ public sealed partial class BandProperties
         double mass;
         if (edge.Closed)
         {
-            ThrowIfNoCrossing(edge, "The effective mass");
             mass = edge.CrossingCurvature == 0 ? double.PositiveInfinity : C / edge.CrossingCurvature;
         }
         else
@@ -203,10 +200,17 @@ public sealed partial class BandProperties
     /// propagation of the cell's transfer matrix, see the user guide). At a zone point this reduces to the
     /// band-edge mass (<see cref="BottomMass"/>); at a closed gap, to the mass of the smooth crossing, which is
     /// also returned within 1e-4 in kd of a closed gap, where E(k) itself is too ill-conditioned for the formula
-    /// (accuracy there ≈ 1e-4 relative). Supported for cells of uniform layers and delta barriers.
+    /// (accuracy there ≈ 1e-4 relative).
+    /// <para>Cells with smooth segments (<see cref="Periodic.Structures.FourierSegment"/>,
+    /// <see cref="Periodic.Structures.FunctionSegment"/>, <see cref="Periodic.Structures.SampledSegment"/>): D′ and D″ are
+    /// the exact derivatives of the fourth-order Magnus discretisation at the segments' current step counts, so the mass
+    /// is that of the same discrete model as the band structure's E(k), and its error falls like h⁴ with the step h, as
+    /// the band energies' does. Build the structure with <see cref="RefinedBandStructure"/> for a stated accuracy: at its
+    /// default tolerance (1e-11) the curvature masses of the cosine and optical lattices in the tests agree with an
+    /// independent plane-wave calculation to 5e-11 relative; on the default 64-step mesh of an s = 5 lattice to about
+    /// 1e-6 (docs/properties.md).</para>
     /// </remarks>
     /// <exception cref="ArgumentOutOfRangeException">No such band, or k outside the first zone.</exception>
-    /// <exception cref="NotSupportedException">The cell holds an element other than a uniform layer or a delta barrier.</exception>
     public double CurvatureMassElectronMasses(int bandIndex, double wavevectorPerNanometre)
     {
         CheckBand(bandIndex);
@@ -224,19 +228,13 @@ public sealed partial class BandProperties
             var edge = (phase == 0) == (bandIndex % 2 == 1) ? _bottoms[bandIndex - 1] : _tops[bandIndex - 1];
             if (edge.Closed)
             {
-                ThrowIfNoCrossing(edge, "The curvature mass");
                 return 2 * edge.CrossingCurvature;
             }
             return -2 * _d * _d * edge.Sigma / edge.TraceSlope;
         }
         if (NearClosedZonePoint(bandIndex, phase, out var closed, out _))
         {
-            ThrowIfNoCrossing(closed, "The curvature mass");
             return 2 * closed.CrossingCurvature;
-        }
-        if (!DispersionDerivatives.Supports(_structure.Cell))
-        {
-            throw DispersionDerivatives.Unsupported("The curvature mass");
         }
         var jet = DispersionDerivatives.Evaluate(_structure.Cell, energy);
         var scale = jet.Scale;

@@ -128,10 +128,6 @@ public sealed partial class BandProperties
         {
             return new EdgeData(energy, sigma, slope, false, 0, 0);
         }
-        if (!DispersionDerivatives.Supports(_structure.Cell))
-        {
-            return new EdgeData(energy, sigma, slope, true, double.NaN, double.NaN);
-        }
         // Near a closed gap D − 2σ = (D″/2)δ² + (D‴/6)δ³ and D/2 = σ cos(qd) with q the extended-zone
         // offset; matching orders with δ = a q + b q² gives a² = −2σd²/D″ and b = σ D‴ d² / (3 D″²).
         var jet = DispersionDerivatives.Evaluate(_structure.Cell, energy);
@@ -170,17 +166,7 @@ public sealed partial class BandProperties
 
     private string TopMassText(int n) => MassText(() => TopMass(n).ElectronMasses);
 
-    private static string MassText(Func<double> mass)
-    {
-        try
-        {
-            return mass().ToString("G8", CultureInfo.InvariantCulture);
-        }
-        catch (NotSupportedException)
-        {
-            return "n/a";
-        }
-    }
+    private static string MassText(Func<double> mass) => mass().ToString("G8", CultureInfo.InvariantCulture);
 
     /// <summary>Where an energy lies: band n (1-based) or gap n (0 below the first band).</summary>
     /// <summary>Checks every energy of a span before anything is written (no partial output).</summary>
@@ -281,14 +267,6 @@ public sealed partial class BandProperties
         return HasCrossing(edge) && distance <= ClosedGapPhaseWindow;
     }
 
-    /// <summary>A closed gap whose crossing slope is usable (or unknown, NaN, so that the caller reports it); a zero slope (D″ = 0 too) falls back to the general formulas.</summary>
+    /// <summary>A closed gap whose crossing slope is usable; a zero slope (D″ = 0 too) falls back to the general formulas.</summary>
     private static bool HasCrossing(EdgeData edge) => edge.Closed && edge.CrossingSlope != 0;
-
-    private static void ThrowIfNoCrossing(EdgeData edge, string what)
-    {
-        if (double.IsNaN(edge.CrossingSlope))
-        {
-            throw DispersionDerivatives.Unsupported(what + " at a closed gap");
-        }
-    }
 }

@@ -20,28 +20,44 @@ namespace Periodic.Properties;
 /// with eigenvalue e^(ikd) (Bloch's theorem; F. Bloch, Z. Phys. 52, 555 (1929)), E = E_n(k); it is carried
 /// through the cell with the closed-form layer matrices and the delta jumps, and ψ inside a layer follows
 /// from the layer's state at its left interface. The norm is integrated in closed form per layer.</para>
+/// <para>Smooth segments (<see cref="FourierSegment"/>, <see cref="FunctionSegment"/>, <see cref="SampledSegment"/>)
+/// are crossed with the same fourth-order Magnus steps as the transfer matrix, so ψ belongs to the same discrete
+/// model as the band structure's E(k). Inside a step ψ is the cubic Hermite interpolant of ψ and ψ′ = m·(ψ′/m) at
+/// the step ends (C. de Boor, A Practical Guide to Splines, ch. 4), whose error h⁴|ψ⁗|/384 is of the scheme's
+/// own order; with a position-dependent mass the end masses are extrapolated from the step's Gauss nodes, which
+/// lowers the interpolation inside a step to O(h³). The norm over a step is the 4-point Gauss–Legendre rule,
+/// exact for the interpolant. The discretisation error is measured by one step halving and reported as
+/// <see cref="DiscretisationErrorEstimate"/>; build the structure with <see cref="RefinedBandStructure"/> to
+/// make it small.</para>
 /// <para>Phase convention: ψ(0) is real and positive at the cell origin x = 0 (the left end of the first
 /// element); when |ψ(0)|·√d &lt; 1e-6, ψ′(0)/m is made real and positive instead. Positions outside [0, d]
 /// use ψ(x + jd) = e^(ikjd)ψ(x). At a zone point of an open gap ψ is real. At a closed gap the two
 /// degenerate states of a zone point are not fixed by k: the lower band gets the standing wave with
 /// ψ′(0) = 0, the upper band the one with ψ(0) = 0.</para>
-/// <para>Accuracy: relative rounding grows like ε·e^(Σκw) over the evanescent layers of the cell (decay κ,
+/// <para>Accuracy: relative rounding grows like ε·e^(Σκw) over the evanescent layers and steps of the cell (decay κ,
 /// width w: the decaying and growing parts of the state cancel); it is reported as
 /// <see cref="RelativeErrorEstimate"/>. When it would exceed 1e-6 (Σκw ≳ 22), the thickest barrier is bridged
 /// instead: ψ inside it is interpolated between its two interface values, reached forwards from the origin and
 /// backwards from the Bloch-shifted end state, so only the other barriers count; cells still above the limit
-/// are refused. With non-parabolic layers the states of different
+/// are refused. Only uniform layers are bridged; a barrier inside a smooth segment always counts. With non-parabolic layers the states of different
 /// energies are not orthogonal in the plain inner product (the mass depends on energy).</para>
 /// </remarks>
 public sealed class BlochFunction
 {
     private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
+
+    // Pieces of the cell in order: uniform layers (closed form inside) and the Magnus steps of smooth segments
+    // (cubic Hermite inside). Left-end states in _u/_w; steps also keep their right-end state and end masses.
     private readonly double[] _starts;
     private readonly double[] _widths;
     private readonly double[] _s;
     private readonly double[] _masses;
+    private readonly double[] _massesRight;
+    private readonly bool[] _isStep;
     private readonly Complex[] _u;
     private readonly Complex[] _w;
+    private readonly Complex[] _uRight;
+    private readonly Complex[] _wRight;
     private readonly Complex _end;
     private readonly Complex _endW;
     private readonly int _bridged;
@@ -52,7 +68,10 @@ public sealed class BlochFunction
     /// <summary>The largest relative rounding error accepted: the amplification e^(Σκw) of evanescent layers times ε.</summary>
     private const double MaxRelativeErrorEstimate = 1e-6;
 
-    private BlochFunction(double errorEstimate, int bandIndex, double k, double energy, double period, double[] starts, double[] widths, double[] s, double[] masses, Complex[] u, Complex[] w, Complex end, Complex endW, Complex origin, Complex originW, int bridged, Complex bridgeRight)
+    /// <summary>Safety factor on the change under one step halving: the error of a fourth-order result is 16/15 of it.</summary>
+    private const double HalvingSafetyFactor = 2.0;
+
+    private BlochFunction(double errorEstimate, int bandIndex, double k, double energy, double period, Pieces pieces, Complex end, Complex endW, Complex origin, Complex originW, int bridged, Complex bridgeRight)
     {
         _bridged = bridged;
         _bridgeRight = bridgeRight;
@@ -62,12 +81,16 @@ public sealed class BlochFunction
         WavevectorPerNanometre = k;
         EnergyElectronVolts = energy;
         PeriodNanometres = period;
-        _starts = starts;
-        _widths = widths;
-        _s = s;
-        _masses = masses;
-        _u = u;
-        _w = w;
+        _starts = pieces.Starts;
+        _widths = pieces.Widths;
+        _s = pieces.S;
+        _masses = pieces.Masses;
+        _massesRight = pieces.MassesRight;
+        _isStep = pieces.IsStep;
+        _u = pieces.U;
+        _w = pieces.W;
+        _uRight = pieces.URight;
+        _wRight = pieces.WRight;
         _end = end;
         _endW = endW;
     }
@@ -85,60 +108,189 @@ public sealed class BlochFunction
     public double PeriodNanometres { get; }
 
     /// <summary>
-    /// Estimated relative rounding error of ψ: ε·e^(Σκw) over the evanescent layers of the cell (κ the decay
+    /// Estimated relative rounding error of ψ: ε·e^(Σκw) over the evanescent layers and steps of the cell (κ the decay
     /// constant at this energy, w the width) — without the thickest barrier when that one is bridged. At most 1e-6.
     /// </summary>
     public double RelativeErrorEstimate { get; }
 
+    /// <summary>
+    /// Estimated discretisation error of ψ for a cell with smooth segments, as max |ψ − ψ_exact|·√d (relative to the
+    /// unit-norm state): twice the largest change of ψ·√d when every segment's step is halved (the energy re-solved on
+    /// the finer mesh), at every step end and step middle. 0 for cells of layers and deltas only (closed form, no
+    /// discretisation); +∞ when the segments are already at their step limit, so no halving is possible. Like
+    /// <see cref="RefinedBandStructure"/>, it covers the segments as given (a <see cref="Periodic.Structures.SampledSegment"/>
+    /// as its piecewise-linear interpolant).
+    /// </summary>
+    public double DiscretisationErrorEstimate { get; private set; }
+
     /// <summary>Builds the normalised Bloch function of band <paramref name="bandIndex"/> at <paramref name="wavevectorPerNanometre"/> ∈ [−π/d, π/d].</summary>
+    /// <remarks>
+    /// For cells with smooth segments this also builds the state once more with every step halved, to measure
+    /// <see cref="DiscretisationErrorEstimate"/>: about three times the work of the propagation alone.
+    /// </remarks>
     /// <exception cref="ArgumentNullException"><paramref name="structure"/> is null.</exception>
     /// <exception cref="ArgumentOutOfRangeException">No such band, or k outside the first zone.</exception>
-    /// <exception cref="NotSupportedException">The cell holds an element other than a uniform layer or a delta barrier.</exception>
-    /// <exception cref="ArgumentException">The barriers are too opaque at this energy: even with the thickest barrier
-    /// bridged the estimated relative error would exceed 1e-6, or the transfer matrix exceeds the double range.</exception>
+    /// <exception cref="ArgumentException">The barriers are too opaque at this energy: even with the thickest uniform
+    /// barrier bridged the estimated relative error would exceed 1e-6 (smooth segments are not bridged), or the transfer
+    /// matrix exceeds the double range.</exception>
     public static BlochFunction Create(BandStructure structure, int bandIndex, double wavevectorPerNanometre)
     {
         ArgumentNullException.ThrowIfNull(structure);
         var energy = structure.EnergyAt(bandIndex, wavevectorPerNanometre); // validates band and k
         var cell = structure.Cell;
-        if (!DispersionDerivatives.Supports(cell))
+        var function = Build(structure, cell, structure.Transfer, bandIndex, wavevectorPerNanometre, energy);
+        if (!HasSegments(cell))
         {
-            throw new NotSupportedException("Bloch functions are implemented for cells of uniform layers and delta barriers only.");
+            return function;
         }
+        var refinedCell = RefinedBandStructure.Refine(cell);
+        if (ReferenceEquals(refinedCell, cell))
+        {
+            function.DiscretisationErrorEstimate = double.PositiveInfinity;
+            return function;
+        }
+        var refinedTransfer = CellTransfer.Create(refinedCell);
+        var band = structure.GetBand(bandIndex);
+        var refinedEnergy = SolveBlochCondition(refinedTransfer, wavevectorPerNanometre * structure.PeriodNanometres, energy, band.WidthElectronVolts)
+            ?? BandStructure.Compute(refinedCell, bandIndex, structure.Options).EnergyAt(bandIndex, wavevectorPerNanometre);
+        var fine = Build(structure, refinedCell, refinedTransfer, bandIndex, wavevectorPerNanometre, refinedEnergy);
+        var estimate = HalvingSafetyFactor * function.LargestDifference(fine) * Math.Sqrt(structure.PeriodNanometres);
+        function.DiscretisationErrorEstimate = double.IsNaN(estimate) ? double.PositiveInfinity : estimate;
+        return function;
+    }
+
+    private static bool HasSegments(UnitCell cell)
+    {
+        foreach (var element in cell.ElementSpan)
+        {
+            if (element is IMeshedSegment)
+            {
+                return true;
+            }
+        }
+        return false;
+    }
+
+    /// <summary>
+    /// E with D(E) = 2cos θ on the finer mesh by Newton's method from the coarse energy (the two differ by the
+    /// discretisation error only); null when Newton does not settle within 1e-2 of the band width, so the caller
+    /// falls back to a band search.
+    /// </summary>
+    private static double? SolveBlochCondition(CellTransfer transfer, double phase, double start, double bandWidth)
+    {
+        var target = 2 * Math.Cos(phase);
+        var e = start;
+        for (var iteration = 0; iteration < 40; iteration++)
+        {
+            var value = transfer.Dispersion(e);
+            var step = (value.Trace - target) / value.TraceDerivativePerElectronVolt;
+            if (!double.IsFinite(step) || Math.Abs(e - step - start) > 1e-2 * bandWidth)
+            {
+                return null;
+            }
+            e -= step;
+            if (Math.Abs(step) <= 4 * Epsilon * Math.Max(Math.Abs(e), bandWidth))
+            {
+                return e;
+            }
+        }
+        return null;
+    }
+
+    /// <summary>The largest |ψ − ψ_other| over the start and middle of every piece of this function.</summary>
+    private double LargestDifference(BlochFunction other)
+    {
+        var largest = 0.0;
+        for (var i = 0; i < _starts.Length; i++)
+        {
+            foreach (var x in (ReadOnlySpan<double>)[_starts[i], _starts[i] + 0.5 * _widths[i]])
+            {
+                largest = Math.Max(largest, (StateAt(x).Psi - other.StateAt(x).Psi).Magnitude);
+            }
+        }
+        return Math.Max(largest, (_end - other._end).Magnitude);
+    }
+
+    /// <summary>Per-piece storage while a Bloch function is built.</summary>
+    private sealed class Pieces(int count)
+    {
+        internal double[] Starts { get; } = new double[count];
+        internal double[] Widths { get; } = new double[count];
+        internal double[] S { get; } = new double[count];
+        internal double[] Masses { get; } = new double[count];
+        internal double[] MassesRight { get; } = new double[count];
+        internal bool[] IsStep { get; } = new bool[count];
+        internal Complex[] U { get; } = new Complex[count];
+        internal Complex[] W { get; } = new Complex[count];
+        internal Complex[] URight { get; } = new Complex[count];
+        internal Complex[] WRight { get; } = new Complex[count];
+
+        /// <summary>Step matrices exp Ω (4 per piece, steps only).</summary>
+        internal double[] Matrices { get; } = new double[4 * count];
+    }
+
+    private static BlochFunction Build(BandStructure structure, UnitCell cell, CellTransfer transfer, int bandIndex, double wavevectorPerNanometre, double energy)
+    {
         var d = structure.PeriodNanometres;
-        var m = structure.Transfer.Evaluate(energy).Matrix;
+        var m = transfer.Evaluate(energy).Matrix;
         if (!double.IsFinite(m.MaxAbsEntry))
         {
             throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
                 $"the transfer matrix of the cell at {energy:R} eV exceeds the double range; the Bloch function cannot be propagated through barriers this opaque."), nameof(structure));
         }
-        // Per-layer data; the opacity Σκw of the evanescent layers sets the rounding of forward propagation.
+        // Per-piece data; the opacity Σκw of the evanescent layers and steps sets the rounding of forward propagation.
         var elements = cell.ElementSpan;
-        var layerCount = 0;
+        var pieceCount = 0;
         foreach (var element in elements)
         {
-            if (element is Layer)
+            pieceCount += element switch
             {
-                layerCount++;
-            }
+                Layer => 1,
+                IMeshedSegment smooth => smooth.Mesh.StepCount,
+                _ => 0,
+            };
         }
-        var starts = new double[layerCount];
-        var widths = new double[layerCount];
-        var s = new double[layerCount];
-        var masses = new double[layerCount];
-        double opacity = 0, thickest = 0, x = 0;
+        var pieces = new Pieces(pieceCount);
+        var starts = pieces.Starts;
+        var widths = pieces.Widths;
+        var s = pieces.S;
+        var masses = pieces.Masses;
+        var matrices = pieces.Matrices;
+        double opacity = 0, thickest = 0, x = 0, massLength = 0; // massLength = ∫m dx = m̄d
         var thickIndex = -1;
         var index = 0;
         foreach (var element in elements)
         {
+            if (element is IMeshedSegment smooth)
+            {
+                var mesh = smooth.Mesh;
+                for (var j = 0; j < mesh.StepCount; j++, index++)
+                {
+                    MagnusSegmentPropagator.StepMatrix(mesh, j, energy,
+                        out matrices[4 * index], out matrices[4 * index + 1], out matrices[4 * index + 2], out matrices[4 * index + 3], out var zeta);
+                    pieces.IsStep[index] = true;
+                    (masses[index], pieces.MassesRight[index]) = mesh.EndMasses(j);
+                    widths[index] = mesh.StepWidth(j);
+                    massLength += 0.5 * (masses[index] + pieces.MassesRight[index]) * widths[index];
+                    starts[index] = x;
+                    x += widths[index];
+                    if (zeta < 0)
+                    {
+                        opacity += Math.Sqrt(-zeta); // κh of the step; smooth barriers are never bridged
+                    }
+                }
+                continue;
+            }
             if (element is not Layer layer)
             {
                 continue;
             }
             var excess = energy - layer.Potential.ElectronVolts;
             masses[index] = layer.Mass.ElectronMasses * (1 + layer.NonParabolicityPerElectronVolt * excess);
+            pieces.MassesRight[index] = masses[index];
             s[index] = masses[index] * excess / C;
             widths[index] = layer.Width.Nanometres;
+            massLength += masses[index] * widths[index];
             starts[index] = x;
             x += widths[index];
             if (s[index] < 0)
@@ -162,7 +314,7 @@ public sealed class BlochFunction
             if (!(errorEstimate <= MaxRelativeErrorEstimate))
             {
                 throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
-                    $"the barriers of the cell are too opaque at {energy:R} eV for a propagated Bloch function: the summed decay exponent outside the thickest barrier is {opacity - thickest:G4}, so the relative rounding error would reach {errorEstimate:G3} (the limit is {MaxRelativeErrorEstimate:G1})."), nameof(structure));
+                    $"the barriers of the cell are too opaque at {energy:R} eV for a propagated Bloch function: the summed decay exponent outside the thickest uniform barrier is {opacity - thickest:G4}, so the relative rounding error would reach {errorEstimate:G3} (the limit is {MaxRelativeErrorEstimate:G1})."), nameof(structure));
             }
         }
         else
@@ -170,42 +322,73 @@ public sealed class BlochFunction
             thickIndex = -1;
         }
         var lambda = Complex.FromPolarCoordinates(1, wavevectorPerNanometre * d);
-        var (u0, w0) = Eigenvector(structure, bandIndex, m, lambda);
+        var (u0, w0) = Eigenvector(structure, bandIndex, m, lambda, massLength / Math.PI);
 
-        // Forward from the origin (up to the bridged barrier, if any), recording each layer's left-interface state.
-        var us = new Complex[layerCount];
-        var ws = new Complex[layerCount];
+        // Forward from the origin (up to the bridged barrier, if any), recording each piece's end states.
+        var us = pieces.U;
+        var ws = pieces.W;
         Complex u = u0, w = w0, right = Complex.Zero;
         index = 0;
         foreach (var element in elements)
         {
-            if (element is DeltaBarrier delta)
+            if (index == thickIndex && element is Layer)
             {
-                w += delta.StrengthElectronVoltNanometres / C * u;
-                continue;
-            }
-            us[index] = u;
-            ws[index] = w;
-            if (index == thickIndex)
-            {
+                us[index] = u;
+                ws[index] = w;
                 break;
             }
-            var (c, sinc) = Functions(s[index], widths[index]);
-            (u, w) = (c * u + masses[index] * sinc * w, -s[index] / masses[index] * sinc * u + c * w);
-            index++;
+            switch (element)
+            {
+                case DeltaBarrier delta:
+                    w += delta.StrengthElectronVoltNanometres / C * u;
+                    break;
+                case Layer:
+                {
+                    us[index] = u;
+                    ws[index] = w;
+                    var (c, sinc) = Functions(s[index], widths[index]);
+                    (u, w) = (c * u + masses[index] * sinc * w, -s[index] / masses[index] * sinc * u + c * w);
+                    index++;
+                    break;
+                }
+                case IMeshedSegment smooth:
+                    for (var j = 0; j < smooth.Mesh.StepCount; j++, index++)
+                    {
+                        us[index] = u;
+                        ws[index] = w;
+                        var at = 4 * index;
+                        (u, w) = (matrices[at] * u + matrices[at + 1] * w, matrices[at + 2] * u + matrices[at + 3] * w);
+                        pieces.URight[index] = u;
+                        pieces.WRight[index] = w;
+                    }
+                    break;
+            }
         }
         var end = (U: u, W: w);
         if (thickIndex >= 0)
         {
-            // Backwards from ψ(d) = e^{ikd}ψ(0) with the inverse layer matrices [[c, −mS], [(s/m)S, c]].
+            // Backwards from ψ(d) = e^{ikd}ψ(0) with the inverse matrices (unimodular: [[m22, −m12], [−m21, m11]]).
             Complex ub = lambda * u0, wb = lambda * w0;
             end = (ub, wb);
-            var li = layerCount - 1;
+            var li = pieceCount - 1;
             for (var e = elements.Length - 1; e >= 0; e--)
             {
                 if (elements[e] is DeltaBarrier delta)
                 {
                     wb -= delta.StrengthElectronVoltNanometres / C * ub;
+                    continue;
+                }
+                if (elements[e] is IMeshedSegment smooth)
+                {
+                    for (var j = smooth.Mesh.StepCount - 1; j >= 0; j--, li--)
+                    {
+                        pieces.URight[li] = ub;
+                        pieces.WRight[li] = wb;
+                        var at = 4 * li;
+                        (ub, wb) = (matrices[at + 3] * ub - matrices[at + 1] * wb, -matrices[at + 2] * ub + matrices[at] * wb);
+                        us[li] = ub;
+                        ws[li] = wb;
+                    }
                     continue;
                 }
                 if (li == thickIndex)
@@ -221,31 +404,71 @@ public sealed class BlochFunction
             }
         }
         var norm = 0.0;
-        for (var i = 0; i < layerCount; i++)
+        for (var i = 0; i < pieceCount; i++)
         {
+            if (pieces.IsStep[i])
+            {
+                // |Hermite cubic|² is a polynomial of degree 6: the 4-point Gauss–Legendre rule integrates it exactly.
+                for (var g = 0; g < HermiteNodes.Length; g++)
+                {
+                    var psi = Hermite(HermiteNodes[g], widths[i], us[i], ws[i] * masses[i], pieces.URight[i], pieces.WRight[i] * pieces.MassesRight[i], out _);
+                    norm += HermiteWeights[g] * widths[i] * (psi.Real * psi.Real + psi.Imaginary * psi.Imaginary);
+                }
+                continue;
+            }
             if (i == thickIndex)
             {
                 var (i11, i12) = BridgeIntegrals(Math.Sqrt(-s[i]), widths[i]);
                 norm += (us[i].Magnitude * us[i].Magnitude + right.Magnitude * right.Magnitude) * i11 + 2 * (us[i] * Complex.Conjugate(right)).Real * i12;
                 continue;
             }
-            var (c, sinc) = Functions(s[i], widths[i]);
+            var (cl, sl) = Functions(s[i], widths[i]);
             var mass = masses[i];
-            norm += us[i].Magnitude * us[i].Magnitude * 0.5 * (widths[i] + c * sinc)
-                + 2 * mass * (us[i] * Complex.Conjugate(ws[i])).Real * 0.5 * sinc * sinc
-                + mass * mass * ws[i].Magnitude * ws[i].Magnitude * IntegralOfSincSquared(s[i], widths[i], c, sinc);
+            norm += us[i].Magnitude * us[i].Magnitude * 0.5 * (widths[i] + cl * sl)
+                + 2 * mass * (us[i] * Complex.Conjugate(ws[i])).Real * 0.5 * sl * sl
+                + mass * mass * ws[i].Magnitude * ws[i].Magnitude * IntegralOfSincSquared(s[i], widths[i], cl, sl);
         }
         // Normalise and fix the phase.
         var scale = 1 / Math.Sqrt(norm);
         var phase = u0.Magnitude * scale * Math.Sqrt(d) >= 1e-6 ? Complex.Conjugate(u0) / u0.Magnitude : Complex.Conjugate(w0) / w0.Magnitude;
         var factor = scale * phase;
-        for (var i = 0; i < layerCount; i++)
+        for (var i = 0; i < pieceCount; i++)
         {
             us[i] *= factor;
             ws[i] *= factor;
+            pieces.URight[i] *= factor;
+            pieces.WRight[i] *= factor;
         }
-        return new BlochFunction(errorEstimate, bandIndex, wavevectorPerNanometre, energy, d, starts, widths, s, masses, us, ws,
+        return new BlochFunction(errorEstimate, bandIndex, wavevectorPerNanometre, energy, d, pieces,
             end.U * factor, end.W * factor, u0 * factor, w0 * factor, thickIndex, right * factor);
+    }
+
+    /// <summary>Nodes of the 4-point Gauss–Legendre rule on [0, 1] (Abramowitz and Stegun, Table 25.4).</summary>
+    private static readonly double[] HermiteNodes =
+    [
+        0.5 - 0.5 * 0.86113631159405257522, 0.5 - 0.5 * 0.33998104358485626480,
+        0.5 + 0.5 * 0.33998104358485626480, 0.5 + 0.5 * 0.86113631159405257522,
+    ];
+
+    /// <summary>Weights of the 4-point Gauss–Legendre rule on [0, 1].</summary>
+    private static readonly double[] HermiteWeights =
+    [
+        0.5 * 0.34785484513745385737, 0.5 * 0.65214515486254614263,
+        0.5 * 0.65214515486254614263, 0.5 * 0.34785484513745385737,
+    ];
+
+    /// <summary>
+    /// The cubic Hermite interpolant at τ ∈ [0, 1] of a step of width h from ψ and ψ′ at both ends, and its
+    /// derivative dψ/dx. Its error is h⁴·max|ψ⁗|/384, the order of the Magnus scheme itself.
+    /// </summary>
+    private static Complex Hermite(double tau, double h, Complex psiLeft, Complex slopeLeft, Complex psiRight, Complex slopeRight, out Complex derivative)
+    {
+        var t2 = tau * tau;
+        var t3 = t2 * tau;
+        double h00 = 2 * t3 - 3 * t2 + 1, h10 = t3 - 2 * t2 + tau, h01 = -2 * t3 + 3 * t2, h11 = t3 - t2;
+        double d00 = 6 * t2 - 6 * tau, d10 = 3 * t2 - 4 * tau + 1, d01 = -6 * t2 + 6 * tau, d11 = 3 * t2 - 2 * tau;
+        derivative = (d00 * psiLeft + d01 * psiRight) / h + d10 * slopeLeft + d11 * slopeRight;
+        return h00 * psiLeft + h10 * h * slopeLeft + h01 * psiRight + h11 * h * slopeRight;
     }
 
     /// <summary>
@@ -262,17 +485,25 @@ public sealed class BlochFunction
         return (coth / (2 * kappa) - 0.5 * w * inverseSinhSquared, 0.5 * w * coth * inverseSinh - inverseSinh / (2 * kappa));
     }
 
-    private static (Complex U, Complex W) Eigenvector(BandStructure structure, int bandIndex, TransferMatrix m, Complex lambda)
+    private static (Complex U, Complex W) Eigenvector(BandStructure structure, int bandIndex, TransferMatrix m, Complex lambda, double sigma)
     {
+        // M12 (mass × length) and M21 (its inverse) carry units: compare entries in the state (ψ, σ·ψ′/m) with
+        // σ = m̄d/π (m̄ the cell's mean mass), the ratio |M12/M21| of a free particle at the zone boundary, so that the
+        // choice and the threshold do not depend on the mass and length scales (an atom of 1e5 m0 in a 500 nm lattice
+        // has |M12| ~ 1e8 and |M21| ~ 1e-8). A fixed scale, not one from M itself, whose off-diagonal entries may be
+        // rounding noise at a band edge.
+        double b12 = m.M12 / sigma, b21 = m.M21 * sigma;
         // (M − λ) v = 0: v = (M12, λ − M11) or (λ − M22, M21); take the better conditioned.
-        var a = (new Complex(m.M12, 0), lambda - m.M11);
-        var b = (lambda - m.M22, new Complex(m.M21, 0));
+        var a = (new Complex(b12, 0), lambda - m.M11);
+        var b = (lambda - m.M22, new Complex(b21, 0));
         var na = a.Item1.Magnitude + a.Item2.Magnitude;
         var nb = b.Item1.Magnitude + b.Item2.Magnitude;
-        var threshold = 64 * 2.220446049250313e-16 * (m.MaxAbsEntry + 1);
+        var largest = Math.Max(Math.Max(Math.Abs(m.M11), Math.Abs(m.M22)), Math.Max(Math.Abs(b12), Math.Abs(b21)));
+        var threshold = 64 * 2.220446049250313e-16 * (largest + 1);
         if (Math.Max(na, nb) > threshold)
         {
-            return na >= nb ? a : b;
+            var v = na >= nb ? a : b;
+            return (v.Item1, v.Item2 / sigma);
         }
         // M = λI: a closed gap at a zone point; split the degenerate pair by parity at the origin.
         var band = structure.GetBand(bandIndex);
@@ -445,6 +676,14 @@ public sealed class BlochFunction
             }
         }
         var t = Math.Clamp(x - _starts[lo], 0, _widths[lo]);
+        if (_isStep[lo])
+        {
+            // ψ′ = m·(ψ′/m) at the step ends; the mass in between is linear in x (the mesh's Gauss-node masses).
+            var h = _widths[lo];
+            var tau = t / h;
+            var psi = Hermite(tau, h, _u[lo], _w[lo] * _masses[lo], _uRight[lo], _wRight[lo] * _massesRight[lo], out var slope);
+            return (psi, slope / (_masses[lo] + tau * (_massesRight[lo] - _masses[lo])));
+        }
         if (lo == _bridged)
         {
             // ψ = u_L·sinh(κ(w − t))/sinh(κw) + u_R·sinh(κt)/sinh(κw), in decaying exponentials.

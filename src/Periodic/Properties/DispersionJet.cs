@@ -30,7 +30,9 @@ internal readonly record struct DispersionJet(double D0, double D1, double D2, d
 /// Chosen over finite differences of the exact D′(E) because it has no step size to tune and keeps
 /// full precision at closed gaps, where D′ vanishes and the third derivative decides the mass.
 /// Rounding is that of the core's first-derivative product (a few ulps of the largest entry).
-/// Supports uniform layers (with non-parabolicity) and delta barriers.
+/// Supports uniform layers (with non-parabolicity), delta barriers and smooth segments; for the latter the
+/// derivatives are those of the fourth-order Magnus discretisation at the segments' step counts, which converge
+/// to the exact ones like the band energies (h⁴).
 /// </remarks>
 internal static class DispersionDerivatives
 {
@@ -39,22 +41,6 @@ internal static class DispersionDerivatives
     private static readonly double[] CSeries = UniformLayerPropagator.BuildSeries(0, SeriesTerms);
     private static readonly double[] SSeries = UniformLayerPropagator.BuildSeries(1, SeriesTerms);
 
-    /// <summary>True when every element of the cell is a uniform layer or a delta barrier.</summary>
-    internal static bool Supports(UnitCell cell)
-    {
-        foreach (var element in cell.ElementSpan)
-        {
-            if (element is not Layer and not DeltaBarrier)
-            {
-                return false;
-            }
-        }
-        return true;
-    }
-
-    internal static NotSupportedException Unsupported(string what) => new(string.Create(CultureInfo.InvariantCulture,
-        $"{what} needs the exact higher energy derivatives of D(E), which are implemented for cells of uniform layers and delta barriers only."));
-
     internal static DispersionJet Evaluate(UnitCell cell, double e)
     {
         // P = identity; each entry a jet.
@@ -62,37 +48,76 @@ internal static class DispersionDerivatives
         double logScale = 0;
         foreach (var element in cell.ElementSpan)
         {
-            Jet m11, m12, m21, m22;
-            double l;
             switch (element)
             {
                 case Layer layer:
-                    LayerJets(layer, e, out m11, out m12, out m21, out m22, out l);
+                {
+                    LayerJets(layer, e, out var m11, out var m12, out var m21, out var m22, out var l);
+                    ApplyLeft(m11, m12, m21, m22, l, ref p11, ref p12, ref p21, ref p22, ref logScale);
                     break;
+                }
                 case DeltaBarrier delta:
-                    m11 = Jet.Constant(1); m12 = default; m21 = Jet.Constant(delta.StrengthElectronVoltNanometres / C); m22 = Jet.Constant(1);
-                    l = 0;
+                    ApplyLeft(Jet.Constant(1), default, Jet.Constant(delta.StrengthElectronVoltNanometres / C), Jet.Constant(1), 0,
+                        ref p11, ref p12, ref p21, ref p22, ref logScale);
                     break;
+                case IMeshedSegment smooth:
+                {
+                    var mesh = smooth.Mesh;
+                    for (var j = 0; j < mesh.StepCount; j++)
+                    {
+                        StepJets(mesh, j, e, out var m11, out var m12, out var m21, out var m22, out var l);
+                        ApplyLeft(m11, m12, m21, m22, l, ref p11, ref p12, ref p21, ref p22, ref logScale);
+                    }
+                    break;
+                }
                 default:
-                    throw Unsupported("This quantity");
+                    throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
+                        $"cell element of unsupported type {element.GetType().Name}."), nameof(cell));
             }
-            var q11 = m11 * p11 + m12 * p21;
-            var q12 = m11 * p12 + m12 * p22;
-            var q21 = m21 * p11 + m22 * p21;
-            var q22 = m21 * p12 + m22 * p22;
-            logScale += l;
-            var max = Math.Max(Math.Max(q11.MaxAbs, q12.MaxAbs), Math.Max(q21.MaxAbs, q22.MaxAbs));
-            if (max > 1e120 || (max < 1e-120 && max > 0))
-            {
-                var exponent = Math.ILogB(max);
-                q11 = q11.ScaleB(-exponent); q12 = q12.ScaleB(-exponent); q21 = q21.ScaleB(-exponent); q22 = q22.ScaleB(-exponent);
-                logScale += exponent * Math.Log(2.0);
-            }
-            p11 = q11; p12 = q12; p21 = q21; p22 = q22;
         }
         var trace = p11 + p22;
         // Taylor coefficients to derivatives: f'' = 2 a2, f''' = 6 a3.
         return new DispersionJet(trace.A0, trace.A1, 2 * trace.A2, 6 * trace.A3, logScale);
+    }
+
+    /// <summary>P ← M·P for jets, renormalised by powers of two (exact) so that long products do not overflow.</summary>
+    private static void ApplyLeft(Jet m11, Jet m12, Jet m21, Jet m22, double l, ref Jet p11, ref Jet p12, ref Jet p21, ref Jet p22, ref double logScale)
+    {
+        var q11 = m11 * p11 + m12 * p21;
+        var q12 = m11 * p12 + m12 * p22;
+        var q21 = m21 * p11 + m22 * p21;
+        var q22 = m21 * p12 + m22 * p22;
+        logScale += l;
+        var max = Math.Max(Math.Max(q11.MaxAbs, q12.MaxAbs), Math.Max(q21.MaxAbs, q22.MaxAbs));
+        if (max > 1e120 || (max < 1e-120 && max > 0))
+        {
+            var exponent = Math.ILogB(max);
+            q11 = q11.ScaleB(-exponent); q12 = q12.ScaleB(-exponent); q21 = q21.ScaleB(-exponent); q22 = q22.ScaleB(-exponent);
+            logScale += exponent * Math.Log(2.0);
+        }
+        p11 = q11; p12 = q12; p21 = q21; p22 = q22;
+    }
+
+    /// <summary>
+    /// Jets of one fourth-order Magnus step M = exp Ω = c(ζ)·I + S(ζ)·Ω of a smooth segment (see
+    /// <see cref="MagnusSegmentPropagator"/>): Ω = [[α, β], [γ, −α]] is linear in E (α = α₀ − α₁E,
+    /// γ = γ₀ − γ₁E), so ζ = −(α² + βγ) is an exact quadratic in δE and c, S are composed with it by
+    /// Faà di Bruno's formula. These are the exact derivatives of the discretised model.
+    /// </summary>
+    private static void StepJets(SegmentMesh mesh, int j, double e, out Jet m11, out Jet m12, out Jet m21, out Jet m22, out double logScale)
+    {
+        var alpha = new Jet(mesh.Alpha0[j] - mesh.Alpha1[j] * e, -mesh.Alpha1[j], 0, 0);
+        var gamma = new Jet(mesh.Gamma0[j] - mesh.Gamma1[j] * e, -mesh.Gamma1[j], 0, 0);
+        var beta = mesh.Beta[j];
+        var zeta = -1.0 * (alpha * alpha + beta * gamma);
+        Derivatives(zeta.A0, 1.0, out var c, out var sinc, out logScale);
+        var cJet = Compose(c, zeta);
+        var sJet = Compose(sinc, zeta);
+        var sAlpha = sJet * alpha;
+        m11 = cJet + sAlpha;
+        m22 = cJet + -1.0 * sAlpha;
+        m12 = beta * sJet;
+        m21 = sJet * gamma;
     }
 
     private static void LayerJets(Layer layer, double e, out Jet m11, out Jet m12, out Jet m21, out Jet m22, out double logScale)

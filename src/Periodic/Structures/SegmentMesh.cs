@@ -60,6 +60,23 @@ internal sealed class SegmentMesh
     internal double[] Gamma1 { get; }
 
     internal int StepCount => Beta.Length;
+
+    /// <summary>The width h of step <paramref name="j"/> in nm (γ₁ = h/C).</summary>
+    internal double StepWidth(int j) => Gamma1[j] * C;
+
+    /// <summary>
+    /// The masses at the two ends of step <paramref name="j"/>, linearly extrapolated from its Gauss-node masses
+    /// m₁ + m₂ = 2β/h and m₂ − m₁ = α₁C/(√3/12·h²): exact for a constant or linear mass, O(h²) otherwise.
+    /// </summary>
+    internal (double Left, double Right) EndMasses(int j)
+    {
+        var h = StepWidth(j);
+        var sum = 2 * Beta[j] / h;
+        var difference = Alpha1[j] * C / (CommutatorWeight * h * h);
+        // m(τ) = m̄ + (m₂ − m₁)(τ − 1/2)/(Node2 − Node1), Node2 − Node1 = √3/3: at τ = 0 and 1, ∓(√3/2)(m₂ − m₁).
+        var half = 0.86602540378443864676 * difference;
+        return (0.5 * sum - half, 0.5 * sum + half);
+    }
 }
 
 /// <summary>A smooth segment that the transfer layer propagates with the Magnus scheme over <see cref="Mesh"/>.</summary>

@@ -114,6 +114,29 @@ internal sealed class MagnusSegmentPropagator : ISegmentPropagator
         return (int)k1 - k0;
     }
 
+    /// <summary>
+    /// The unscaled matrix exp Ω of step <paramref name="j"/> of <paramref name="mesh"/> at energy <paramref name="e"/>
+    /// (for state propagation, e.g. Bloch functions) and ζ = −(α² + βγ): √(−ζ) is the step's decay exponent κh where ζ &lt; 0.
+    /// </summary>
+    internal static void StepMatrix(SegmentMesh mesh, int j, double e, out double m11, out double m12, out double m21, out double m22, out double zeta)
+    {
+        var alpha = mesh.Alpha0[j] - mesh.Alpha1[j] * e;
+        var beta = mesh.Beta[j];
+        var gamma = mesh.Gamma0[j] - mesh.Gamma1[j] * e;
+        zeta = -(alpha * alpha + beta * gamma);
+        UniformLayerPropagator.Evaluate(zeta, 1.0, out var c, out var s, out _, out _, out var logScale);
+        if (logScale != 0)
+        {
+            var grow = Math.Exp(logScale);
+            c *= grow;
+            s *= grow;
+        }
+        m11 = c + s * alpha;
+        m22 = c - s * alpha;
+        m12 = s * beta;
+        m21 = s * gamma;
+    }
+
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private void Step(int j, double e, out double m11, out double m12, out double m21, out double m22,
         out double d11, out double d12, out double d21, out double d22, out double logScale, out double zeta, out double alpha, out double beta)

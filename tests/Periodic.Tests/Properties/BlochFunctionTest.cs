@@ -10,7 +10,7 @@ using Xunit.Abstractions;
 
 namespace Periodic.Tests.Properties;
 
-public sealed class BlochFunctionTest(ITestOutputHelper output)
+public sealed partial class BlochFunctionTest(ITestOutputHelper output)
 {
     private static UnitCell CellFor(int index) => index switch
     {
@@ -20,6 +20,8 @@ public sealed class BlochFunctionTest(ITestOutputHelper output)
     };
 
     private static readonly double[] Fractions = [0, 0.23, 0.5, 0.91, 1];
+
+    private ITestOutputHelper Output => output;
 
     /// <summary>∫₀^d f(x) dx by 64-point Gauss–Legendre per layer (MathNet.Numerics GaussLegendreRule).</summary>
     private static Complex IntegrateOverCell(UnitCell cell, Func<double, Complex> f)
