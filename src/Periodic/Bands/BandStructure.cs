@@ -132,6 +132,18 @@ public sealed class BandStructure
 
     private static BandStructure Compute(CellTransfer transfer, int count, BandSearchOptions options)
     {
+        try
+        {
+            return Search(transfer, count, options);
+        }
+        catch (BandSearchException failure) when (transfer.Cell.RepeatCount() > 1)
+        {
+            throw SupercellHint(transfer.Cell, failure);
+        }
+    }
+
+    private static BandStructure Search(CellTransfer transfer, int count, BandSearchOptions options)
+    {
         // Edges 0 … 2N: the extra one is the bottom of band N + 1, so the gap above band N is known.
         var finder = new BandEdgeFinder(transfer, options);
         var edgeCount = 2 * count + 1;
@@ -253,6 +265,18 @@ public sealed class BandStructure
             }
         }
         return checks;
+    }
+
+    /// <summary>
+    /// The search failed on a cell that is N copies of a shorter period: its N − 1 folded gaps per band are exactly
+    /// closed, which thick barriers put below the resolution of double precision (docs/core.md). Says so and what to do.
+    /// </summary>
+    private static BandSearchException SupercellHint(UnitCell cell, BandSearchException failure)
+    {
+        var repeats = cell.RepeatCount();
+        return new BandSearchException(string.Create(CultureInfo.InvariantCulture,
+            $"{failure.Message} The cell is {repeats} identical copies of a period of {cell.Elements.Count / repeats} elements: its folded gaps are exactly closed and here below the resolution of double precision (docs/core.md, cells with several thick barriers). Compute the bands of the shorter period instead; each of its bands is {repeats} bands of this cell, folded."),
+            failure);
     }
 
     private static void Expect(CellTransfer transfer, double energy, int expected, string what, int index)

@@ -64,6 +64,41 @@ public sealed class UnitCell
 
     internal ReadOnlySpan<CellElement> ElementSpan => _elements;
 
+    /// <summary>
+    /// How many identical copies of a shorter period this cell is made of (1 when it is not a repetition): the
+    /// largest N such that the elements are N copies of their first n/N, layers and deltas compared by value,
+    /// smooth segments by identity.
+    /// </summary>
+    internal int RepeatCount()
+    {
+        var n = _elements.Length;
+        for (var length = 1; length <= n / 2; length++)
+        {
+            if (n % length != 0)
+            {
+                continue;
+            }
+            var repeats = true;
+            for (var i = length; i < n && repeats; i++)
+            {
+                repeats = SameElement(_elements[i], _elements[i - length]);
+            }
+            if (repeats)
+            {
+                return n / length;
+            }
+        }
+        return 1;
+    }
+
+    private static bool SameElement(CellElement a, CellElement b) => (a, b) switch
+    {
+        (Layer x, Layer y) => x.Width == y.Width && x.Potential == y.Potential && x.Mass == y.Mass
+            && x.NonParabolicityPerElectronVolt == y.NonParabolicityPerElectronVolt,
+        (DeltaBarrier x, DeltaBarrier y) => x.StrengthElectronVoltNanometres == y.StrengthElectronVoltNanometres,
+        _ => ReferenceEquals(a, b),
+    };
+
     /// <summary>Creates a cell from its elements in order.</summary>
     /// <exception cref="ArgumentNullException"><paramref name="elements"/> is null.</exception>
     /// <exception cref="ArgumentException">An element is null, or no element has positive width.</exception>

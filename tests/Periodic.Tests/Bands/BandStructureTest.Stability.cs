@@ -163,3 +163,67 @@ public sealed partial class BandStructureTest
         }
     }
 }
+
+public sealed class SupercellTest
+{
+    private static readonly EffectiveMass WellMass = EffectiveMass.FromElectronMasses(0.067);
+    private static readonly EffectiveMass BarrierMass = EffectiveMass.FromElectronMasses(0.092);
+
+    // Demo numbers of our own (GaAs-like well, 0.25 eV barrier), not a material model.
+    private static UnitCell Copies(int copies, double barrierNanometres)
+    {
+        var elements = new List<CellElement>();
+        for (var i = 0; i < copies; i++)
+        {
+            elements.Add(Layer.Create(Length.FromNanometres(6), default, WellMass));
+            elements.Add(Layer.Create(Length.FromNanometres(barrierNanometres), Energy.FromElectronVolts(0.25), BarrierMass));
+        }
+        return UnitCell.Create(elements);
+    }
+
+    [Theory]
+    [InlineData(4.0)]   // Σκw ≈ 8: resolved
+    [InlineData(20.0)]  // Σκw ≈ 42: folded gaps far below double-precision resolution (docs/core.md)
+    public void Compute_ThreeCopiesOfAPeriod_FoldsThePrimitiveBandsOrSaysWhatToDo(double barrierNanometres)
+    {
+        // Zone folding (common practice, e.g. Ashcroft & Mermin ch. 8): a cell of N identical periods has, for every band
+        // of the short period, N bands spanning the same energies with N − 1 exactly closed gaps between them, so
+        // the lowest and highest edge of each group of N are the primitive band's bottom and top.
+        var primitive = BandStructure.Compute(Copies(1, barrierNanometres), 1);
+        var supercell = Copies(3, barrierNanometres);
+        try
+        {
+            var folded = BandStructure.Compute(supercell, 3);
+            var bottom = folded.GetBand(1);
+            var top = folded.GetBand(3);
+            // Tolerance: the reported error bounds of both edges plus 1e-12 relative (the edge search's own
+            // tolerance; the folded search reaches it where it resolves anything).
+            Assert.Equal(primitive.GetBand(1).BottomElectronVolts, bottom.BottomElectronVolts,
+                bottom.BottomErrorElectronVolts + 1e-12 * bottom.BottomElectronVolts);
+            Assert.Equal(primitive.GetBand(1).TopElectronVolts, top.TopElectronVolts,
+                top.TopErrorElectronVolts + 1e-12 * top.TopElectronVolts);
+            Assert.True(folded.Gaps[0].IsClosed && folded.Gaps[1].IsClosed);
+        }
+        catch (BandSearchException failure)
+        {
+            // Where the search cannot resolve the folding it must say why and what to do instead.
+            Assert.Contains("3 identical copies of a period of 2 elements", failure.Message);
+            Assert.Contains("Compute the bands of the shorter period", failure.Message);
+        }
+    }
+
+    [Fact]
+    public void RepeatCount_RecognisesRepetitionsByValue()
+    {
+        Assert.Equal(3, Copies(3, 5).RepeatCount());
+        Assert.Equal(1, Copies(1, 5).RepeatCount());
+        // Not a repetition: one barrier differs by one part in 1e15 of its width.
+        var elements = Copies(2, 5).Elements.ToList();
+        elements[3] = Layer.Create(Length.FromNanometres(5 * (1 + 1e-15)), Energy.FromElectronVolts(0.25), BarrierMass);
+        Assert.Equal(1, UnitCell.Create(elements).RepeatCount());
+        // Deltas by strength.
+        var comb = UnitCell.Create(DeltaBarrier.Create(0.1), Layer.Create(Length.FromNanometres(1), default, WellMass),
+            DeltaBarrier.Create(0.1), Layer.Create(Length.FromNanometres(1), default, WellMass));
+        Assert.Equal(2, comb.RepeatCount());
+    }
+}
