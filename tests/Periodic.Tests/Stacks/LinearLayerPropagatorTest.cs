@@ -125,11 +125,12 @@ public sealed class LinearLayerPropagatorTest(ITestOutputHelper output)
     [Fact]
     public void Evaluate_AcrossTheSwitch_IsContinuous()
     {
-        // Both forms are exact; where Evaluate switches between them (|z| = 40 at an end, or span βw = 0.25) they
-        // must agree. Measured over a grid of energies and fields straddling both switches: the worst relative
+        // Both forms are exact; where Evaluate switches between them (|z| = 40 at an end, span βw = 0.25, or 64
+        // sublayers) they must agree. Measured over a grid of energies and fields straddling both switches: the worst relative
         // difference of the matrices is the jump a caller could see. Acceptance 1e-12 (the brief's target;
         // the Airy functions themselves are good to ~4e-14 at |z| = 40 against 40-digit values).
         var worst = 0.0;
+        var airyChosen = 0;
         const double mass = 0.067, width = 6.0;
         foreach (var slope in new[] { -0.002, -0.005, -0.01, -0.03, 0.01, 0.05 })
         {
@@ -165,7 +166,26 @@ public sealed class LinearLayerPropagatorTest(ITestOutputHelper output)
                     Run(LinearLayerPropagator.EvaluateSeries, e, 0.1, slope, width, mass), width, mass));
             }
         }
-        output.WriteLine($"worst Airy/series difference at the switches {worst:E3}");
+        // The cost switch (series up to 64 sublayers): thick layers in strong fields, βw from 5 to 40, with the
+        // arguments at both ends spread over [−40, 40].
+        foreach (var span in new[] { 5.0, 9.5, 10.5, 20.0, 40.0 })
+        {
+            const double thick = 50.0;
+            var slope = -C * Math.Pow(span / thick, 3) / mass;
+            var eps0 = Math.Cbrt(C * slope * slope / mass);
+            foreach (var z in new[] { -40.0 + span, -20.0, -5.0, 0.0, 3.0, 17.0, 40.0 })
+            {
+                var e = 0.1 - z * eps0;
+                if (LinearLayerPropagator.Choose(e, 0.1, slope, thick, mass) == LinearLayerPropagator.Method.Airy)
+                {
+                    airyChosen++;
+                }
+                worst = Math.Max(worst, Difference(Run(LinearLayerPropagator.EvaluateAiry, e, 0.1, slope, thick, mass),
+                    Run(LinearLayerPropagator.EvaluateSeries, e, 0.1, slope, thick, mass), thick, mass));
+            }
+        }
+        output.WriteLine($"worst Airy/series difference at the switches {worst:E3}; Airy chosen at {airyChosen} of the thick-layer points");
+        Assert.True(airyChosen > 5);
         Assert.True(worst < 1e-12, $"{worst}");
     }
 
