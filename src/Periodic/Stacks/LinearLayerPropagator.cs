@@ -46,6 +46,9 @@ internal static class LinearLayerPropagator
 
     private const int MaxSeriesTerms = 60;
 
+    /// <summary>Most sublayers one layer may need (about 0.2 s); energies needing more are rejected by the callers.</summary>
+    internal const int MaxSublayers = 1_000_000;
+
     internal enum Method
     {
         Airy,

@@ -238,7 +238,7 @@ public sealed class StackTransmission
     }
 
     /// <summary>Transmission, reflection and their amplitudes at <paramref name="energyElectronVolts"/>.</summary>
-    /// <exception cref="ArgumentOutOfRangeException">The energy is not finite, or not above <see cref="LowestValidEnergyElectronVolts"/>.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">The energy is not finite, or not above <see cref="LowestValidEnergyElectronVolts"/>, or (under bias) so far from a layer's potential that its exact propagation would need more than 10⁶ sublayers (|E − V| of order 1e7 eV for 100 nm).</exception>
     public TransmissionResult Evaluate(double energyElectronVolts)
     {
         CheckEnergy(energyElectronVolts, "energyElectronVolts");
@@ -250,7 +250,7 @@ public sealed class StackTransmission
     /// range is returned as 0 (see <see cref="Log10Transmissions"/>), never NaN. Does not allocate.
     /// </summary>
     /// <exception cref="ArgumentException"><paramref name="destination"/> is shorter than the input.</exception>
-    /// <exception cref="ArgumentOutOfRangeException">An energy is not finite or not above <see cref="LowestValidEnergyElectronVolts"/> (the message names its index); destination is then unchanged.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">An energy is not finite or not above <see cref="LowestValidEnergyElectronVolts"/>, or (under bias) absurdly far from the layer potentials (the message names its index); destination is then unchanged.</exception>
     public void Transmissions(ReadOnlySpan<double> energiesElectronVolts, Span<double> destination)
     {
         Preconditions.CheckDestination(energiesElectronVolts.Length, destination.Length, nameof(energiesElectronVolts), nameof(destination));
@@ -266,7 +266,7 @@ public sealed class StackTransmission
     /// closed, finite otherwise, never NaN. Does not allocate.
     /// </summary>
     /// <exception cref="ArgumentException"><paramref name="destination"/> is shorter than the input.</exception>
-    /// <exception cref="ArgumentOutOfRangeException">An energy is not finite or not above <see cref="LowestValidEnergyElectronVolts"/>; destination is then unchanged.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">An energy is not finite or not above <see cref="LowestValidEnergyElectronVolts"/>, or (under bias) absurdly far from the layer potentials; destination is then unchanged.</exception>
     public void Log10Transmissions(ReadOnlySpan<double> energiesElectronVolts, Span<double> destination)
     {
         Preconditions.CheckDestination(energiesElectronVolts.Length, destination.Length, nameof(energiesElectronVolts), nameof(destination));
@@ -335,7 +335,7 @@ public sealed class StackTransmission
     /// result carries its own error bound. Peaks at the window ends are not reported. The window is raised
     /// to the higher lead band edge when it starts below it.
     /// </remarks>
-    /// <exception cref="ArgumentOutOfRangeException">A bound is not finite, or <paramref name="upperElectronVolts"/> is not above <paramref name="lowerElectronVolts"/>, or an option is out of range.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">A bound is not finite, or <paramref name="upperElectronVolts"/> is not above <paramref name="lowerElectronVolts"/>, or an option is out of range, or (under bias) a bound is absurdly far from the layer potentials (see <see cref="Evaluate"/>).</exception>
     public ResonanceSpectrum FindResonances(double lowerElectronVolts, double upperElectronVolts, ResonanceSearchOptions? options = null)
     {
         Preconditions.CheckFinite(lowerElectronVolts);
@@ -347,6 +347,9 @@ public sealed class StackTransmission
         }
         options ??= ResonanceSearchOptions.Default;
         options.Validate(nameof(options));
+        // The cost of a biased layer grows with |E − V|, largest at an end of the window.
+        CheckBiasedCost(lowerElectronVolts, nameof(lowerElectronVolts), nameof(lowerElectronVolts));
+        CheckBiasedCost(upperElectronVolts, nameof(upperElectronVolts), nameof(upperElectronVolts));
         return ResonanceFinder.Find(this, lowerElectronVolts, upperElectronVolts, options);
     }
 
@@ -372,13 +375,18 @@ public sealed class StackTransmission
     /// <param name="fermiLevelElectronVolts">Fermi level μ of the left lead, eV, on the same scale as the energies.</param>
     /// <param name="temperatureKelvin">Temperature of both leads, K; positive and finite.</param>
     /// <param name="options">Tolerances and budget (null: <see cref="CurrentDensityOptions.Default"/>).</param>
-    /// <exception cref="ArgumentOutOfRangeException">The Fermi level is not finite, the temperature not positive and finite, or an option is out of range.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">The Fermi level is not finite, the temperature not positive and finite, or an option is out of range; or the integral would reach energies absurdly far from the layer potentials (see <see cref="Evaluate"/>; a temperature of millions of kelvin).</exception>
     public CurrentDensityResult CurrentDensity(double fermiLevelElectronVolts, double temperatureKelvin, CurrentDensityOptions? options = null)
     {
         Preconditions.CheckFinite(fermiLevelElectronVolts);
         Preconditions.CheckPositiveFinite(temperatureKelvin);
         options ??= CurrentDensityOptions.Default;
         options.Validate(nameof(options));
+        // The integral reaches at most 700 k_BT above the higher Fermi level (and starts at the higher lead edge).
+        var kT = PhysicalConstants.BoltzmannElectronVoltsPerKelvin * temperatureKelvin;
+        var top = Math.Max(Math.Max(Stack.LeftLead.PotentialElectronVolts, RightLead.PotentialElectronVolts),
+            Math.Max(fermiLevelElectronVolts, fermiLevelElectronVolts - Bias.ElectronVolts)) + 700 * kT;
+        CheckBiasedCost(top, "the top of the energy integral (Fermi level + 700 kT)", nameof(temperatureKelvin));
         return TsuEsakiIntegrator.Compute(this, fermiLevelElectronVolts, temperatureKelvin, options);
     }
 
@@ -396,6 +404,30 @@ public sealed class StackTransmission
             throw new ArgumentOutOfRangeException(paramName, energyElectronVolts,
                 $"{name} must exceed {Preconditions.Format(LowestValidEnergyElectronVolts)} eV, below which a non-parabolic mass m(E) = m(1 + a(E - V)) would not be positive; got {Preconditions.Format(energyElectronVolts)}.");
         }
+        CheckBiasedCost(energyElectronVolts, name, paramName);
+    }
+
+    /// <summary>
+    /// Under bias, the cost of a layer grows as k_max·w (sublayers of the exact series): an energy absurdly far from
+    /// the potentials (|E − V| ≳ C(10⁶/w)²/m, ~1e7 eV for 100 nm) is rejected instead of taking hours.
+    /// </summary>
+    private void CheckBiasedCost(double energyElectronVolts, string name, string paramName)
+    {
+        for (var i = 0; i < _biased.Length; i++)
+        {
+            var element = _biased[i];
+            if (element.IsDelta)
+            {
+                continue;
+            }
+            var count = LinearLayerPropagator.SublayerCount(energyElectronVolts, element.PotentialAtLeft, element.Slope, element.Width, element.Mass);
+            if (count > LinearLayerPropagator.MaxSublayers)
+            {
+                throw new ArgumentOutOfRangeException(paramName, energyElectronVolts,
+                    string.Create(CultureInfo.InvariantCulture,
+                        $"{name} = {Preconditions.Format(energyElectronVolts)} eV is too far from the potential of element {i} of the biased stack: its exact propagation would need {count} sublayers (k_max times width), at most {LinearLayerPropagator.MaxSublayers} are allowed."));
+            }
+        }
     }
 
     private void CheckEnergies(ReadOnlySpan<double> energies)
@@ -403,7 +435,7 @@ public sealed class StackTransmission
         for (var i = 0; i < energies.Length; i++)
         {
             var e = energies[i];
-            if (!double.IsFinite(e) || e <= LowestValidEnergyElectronVolts)
+            if (!double.IsFinite(e) || e <= LowestValidEnergyElectronVolts || _biased.Length > 0)
             {
                 CheckEnergy(e, string.Create(CultureInfo.InvariantCulture, $"energiesElectronVolts[{i}]"), "energiesElectronVolts");
             }

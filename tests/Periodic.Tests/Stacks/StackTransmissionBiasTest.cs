@@ -322,6 +322,27 @@ public sealed class StackTransmissionBiasTest(ITestOutputHelper output)
     }
 
     [Fact]
+    public void Evaluate_AbsurdEnergyUnderBias_IsRejectedNotSlow()
+    {
+        // The exact series costs k_max·w sublayers; 1e12 eV in a 10 nm layer would need ~5e7 of them. Rejected with
+        // the parameter, the element and the limit named, from every entry point; ordinary energies pass.
+        var stack = LayerStack.Create(Ground, Ground, Slab(10, 0.2), Slab(10, 0));
+        var transmission = StackTransmission.Create(stack, Ev(0.1));
+        var single = Assert.Throws<ArgumentOutOfRangeException>(() => transmission.Evaluate(1e12));
+        Assert.Equal("energyElectronVolts", single.ParamName);
+        Assert.Contains("element 0", single.Message, StringComparison.Ordinal);
+        Assert.Contains("1000000", single.Message, StringComparison.Ordinal);
+        var destination = new double[3];
+        var batch = Assert.Throws<ArgumentOutOfRangeException>(() => transmission.Transmissions([0.1, 1e12, 0.2], destination));
+        Assert.Equal("energiesElectronVolts", batch.ParamName);
+        Assert.Contains("energiesElectronVolts[1]", batch.Message, StringComparison.Ordinal);
+        Assert.Equal(0.0, destination[0]); // nothing written before the check
+        Assert.Equal("upperElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.FindResonances(0, 1e12)).ParamName);
+        Assert.Equal("temperatureKelvin", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(0.05, 1e13)).ParamName);
+        Assert.True(double.IsFinite(transmission.Evaluate(1e4).LogTransmission)); // 10 keV: a few thousand sublayers
+    }
+
+    [Fact]
     public void Create_Biased_ReportsBiasAndShiftedLead()
     {
         var stack = LayerStack.Create(Ground, Lead.Create(Ev(0.05), GaAs), Slab(5, 0.2));
