@@ -37,7 +37,7 @@ internal static class ResonanceFinder
 
     internal static ResonanceSpectrum Find(StackTransmission transmission, double lower, double upper, ResonanceSearchOptions options)
     {
-        var edge = Math.Max(transmission.Stack.LeftLead.PotentialElectronVolts, transmission.Stack.RightLead.PotentialElectronVolts);
+        var edge = Math.Max(transmission.Stack.LeftLead.PotentialElectronVolts, transmission.RightLead.PotentialElectronVolts);
         edge = Math.Max(edge, transmission.LowestValidEnergyElectronVolts);
         // Start just above the higher lead edge (k = 0 there: no current, no peak).
         var lo = Math.Max(lower, edge + EdgeMargin * Math.Max(1, Math.Abs(edge)));

@@ -29,6 +29,7 @@ public sealed class StackTransmission
     private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
 
     private readonly CompiledPart[] _parts;
+    private readonly BiasedElement[] _biased; // under bias: every element written out; empty at zero bias
 
     // Distinct layer materials (potential, mass, mass slope) for choosing the reference impedance.
     private readonly double[] _potentials;
@@ -38,6 +39,7 @@ public sealed class StackTransmission
     private StackTransmission(LayerStack stack)
     {
         Stack = stack;
+        RightLead = stack.RightLead;
         var parts = stack.PartSpan;
         _parts = new CompiledPart[parts.Length];
         var materials = new List<(double V, double M, double Slope)>();
@@ -78,7 +80,53 @@ public sealed class StackTransmission
         _potentials = materials.Select(m => m.V).ToArray();
         _masses = materials.Select(m => m.M).ToArray();
         _slopes = materials.Select(m => m.Slope).ToArray();
+        _biased = [];
         LowestValidEnergyElectronVolts = lowest;
+    }
+
+    private StackTransmission(LayerStack stack, double drop)
+    {
+        Stack = stack;
+        Bias = Energy.FromElectronVolts(drop);
+        RightLead = Lead.Create(Energy.FromElectronVolts(stack.RightLead.PotentialElectronVolts - drop), EffectiveMass.FromElectronMasses(stack.RightLead.MassElectronMasses));
+        _parts = [];
+        var field = drop / stack.ThicknessNanometres; // eV/nm; V(x) = V_layer − field·x
+        _biased = new BiasedElement[stack.ElementCount];
+        var materials = new List<(double V, double M)>();
+        var i = 0;
+        double x = 0;
+        foreach (var part in stack.PartSpan)
+        {
+            var elements = part.Cell is null ? [part.Element!] : part.Cell.Elements.ToArray();
+            for (var r = 0; r < part.Repetitions; r++)
+            {
+                foreach (var element in elements)
+                {
+                    if (element is DeltaBarrier delta)
+                    {
+                        // Zero width: nothing drops across it, and its jump of ψ′/m does not depend on the potential.
+                        _biased[i] = new BiasedElement(0, 0, 0, 0, delta.StrengthElectronVoltNanometres / C, IsDelta: true);
+                    }
+                    else
+                    {
+                        var layer = (Layer)element; // checked by Create
+                        var width = layer.Width.Nanometres;
+                        _biased[i] = new BiasedElement(width, layer.Potential.ElectronVolts - field * x, -field, layer.Mass.ElectronMasses, 0, IsDelta: false);
+                        var material = (layer.Potential.ElectronVolts, layer.Mass.ElectronMasses);
+                        if (!materials.Contains(material))
+                        {
+                            materials.Add(material);
+                        }
+                        x += width;
+                    }
+                    i++;
+                }
+            }
+        }
+        _potentials = materials.Select(m => m.V).ToArray();
+        _masses = materials.Select(m => m.M).ToArray();
+        _slopes = new double[materials.Count];
+        LowestValidEnergyElectronVolts = double.NegativeInfinity;
     }
 
     /// <summary>The stack.</summary>
@@ -90,7 +138,25 @@ public sealed class StackTransmission
     /// </summary>
     public double LowestValidEnergyElectronVolts { get; }
 
-    /// <summary>Compiles the transmission calculation of <paramref name="stack"/>.</summary>
+    /// <summary>
+    /// The potential drop eU across the stack (positive: the right lead's band edge lies lower); zero for an unbiased
+    /// stack.
+    /// </summary>
+    public Energy Bias { get; }
+
+    /// <summary>
+    /// The right lead as the calculation sees it: the stack's right lead with its band edge shifted by −eU
+    /// (<see cref="Bias"/>); the stack's own right lead when unbiased.
+    /// </summary>
+    public Lead RightLead { get; }
+
+    /// <summary>
+    /// The largest number of elements (repeated cells written out) of a stack under bias: a field breaks the
+    /// periodicity, so every element costs one scattering matrix per energy.
+    /// </summary>
+    public const long MaxBiasedElements = 100_000;
+
+    /// <summary>Compiles the transmission calculation of <paramref name="stack"/> at zero bias.</summary>
     /// <exception cref="ArgumentNullException"><paramref name="stack"/> is null.</exception>
     public static StackTransmission Create(LayerStack stack)
     {
@@ -98,8 +164,81 @@ public sealed class StackTransmission
         return new StackTransmission(stack);
     }
 
+    /// <summary>
+    /// Compiles the transmission calculation of <paramref name="stack"/> under an applied bias: a uniform electric
+    /// field across the layers, so that the potential drops linearly by <paramref name="bias"/> (= eU) from the left
+    /// lead's interface (x = 0) to the right lead's (x = L). The leads stay flat; the right lead's band edge is
+    /// shifted by −eU (<see cref="RightLead"/>). Energies are measured on the scale of the unshifted left lead.
+    /// </summary>
+    /// <remarks>
+    /// <para>Each layer then has a linear potential; its exact transfer matrix comes from Airy functions (the
+    /// Airy-function transfer-matrix method, K. F. Brennan and C. J. Summers, J. Appl. Phys. 61, 614 (1987);
+    /// M. Abramowitz and I. A. Stegun, Handbook of Mathematical Functions, §10.4), exponentially scaled so
+    /// that nothing overflows, or, where Airy functions of large argument or small span would lose digits
+    /// (small fields), from an exact power series on sublayers. Delta barriers keep their strength (nothing
+    /// drops across zero width). The elements are composed with the same scattering-matrix star product as at
+    /// zero bias.</para>
+    /// <para><b>Cost.</b> A field breaks the periodicity: repeated cells are written out, and each evaluation costs
+    /// one scattering matrix per element (O(elements), not O(log N)), at most <see cref="MaxBiasedElements"/>.
+    /// A zero bias gives exactly <see cref="Create(LayerStack)"/>.</para>
+    /// <para>The field is that of an ideal capacitor: no charge, no space charge and no self-consistent potential
+    /// are modelled. Results under bias are a guide; check them against measurement.</para>
+    /// </remarks>
+    /// <param name="stack">The stack.</param>
+    /// <param name="bias">The potential drop eU across the stack; finite, either sign.</param>
+    /// <exception cref="ArgumentNullException"><paramref name="stack"/> is null.</exception>
+    /// <exception cref="ArgumentOutOfRangeException"><paramref name="bias"/> is not zero for a stack of zero thickness (no layer for the field to act in).</exception>
+    /// <exception cref="ArgumentException">Under a non-zero bias: the stack has more than <see cref="MaxBiasedElements"/> elements
+    /// when written out, or holds an element other than a parabolic layer or a delta barrier (the message names it).</exception>
+    public static StackTransmission Create(LayerStack stack, Energy bias)
+    {
+        ArgumentNullException.ThrowIfNull(stack);
+        var drop = bias.ElectronVolts;
+        if (drop == 0)
+        {
+            return new StackTransmission(stack);
+        }
+        if (!(stack.ThicknessNanometres > 0))
+        {
+            throw new ArgumentOutOfRangeException(nameof(bias), drop,
+                $"bias must be 0 eV for a stack of zero thickness (a uniform field needs layers to drop across); got {Preconditions.Format(drop)} eV.");
+        }
+        if (stack.ElementCount > MaxBiasedElements)
+        {
+            throw new ArgumentException(
+                string.Create(CultureInfo.InvariantCulture,
+                    $"stack has {stack.ElementCount} elements when its repeated cells are written out; under bias every element is evaluated separately (cost O(elements) per energy), so at most {MaxBiasedElements} are accepted."),
+                nameof(stack));
+        }
+        var parts = stack.PartSpan;
+        for (var i = 0; i < parts.Length; i++)
+        {
+            var elements = parts[i].Cell is null ? [parts[i].Element!] : parts[i].Cell!.Elements.ToArray();
+            for (var j = 0; j < elements.Length; j++)
+            {
+                var problem = elements[j] switch
+                {
+                    DeltaBarrier => null,
+                    Layer { NonParabolicityPerElectronVolt: > 0 } => "is a non-parabolic layer (its mass would vary with position in a field, which the Airy-function form does not cover)",
+                    Layer => null,
+                    var other => $"is a {other.GetType().Name} (only layers and delta barriers can be put under bias)",
+                };
+                if (problem is not null)
+                {
+                    var where = parts[i].Cell is null
+                        ? string.Create(CultureInfo.InvariantCulture, $"part {i}")
+                        : string.Create(CultureInfo.InvariantCulture, $"element {j} of the cell of part {i}");
+                    throw new ArgumentException(
+                        $"stack {where} {problem}; bias must be 0 eV for such a stack, got {Preconditions.Format(drop)} eV.",
+                        nameof(stack));
+                }
+            }
+        }
+        return new StackTransmission(stack, drop);
+    }
+
     /// <summary>Transmission, reflection and their amplitudes at <paramref name="energyElectronVolts"/>.</summary>
-    /// <exception cref="ArgumentOutOfRangeException">The energy is not finite, or not above <see cref="LowestValidEnergyElectronVolts"/>.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">The energy is not finite, or not above <see cref="LowestValidEnergyElectronVolts"/>, or (under bias) so far from a layer's potential that its exact propagation would need more than 10⁶ sublayers (|E − V| of order 1e7 eV for 100 nm).</exception>
     public TransmissionResult Evaluate(double energyElectronVolts)
     {
         CheckEnergy(energyElectronVolts, "energyElectronVolts");
@@ -111,7 +250,7 @@ public sealed class StackTransmission
     /// range is returned as 0 (see <see cref="Log10Transmissions"/>), never NaN. Does not allocate.
     /// </summary>
     /// <exception cref="ArgumentException"><paramref name="destination"/> is shorter than the input.</exception>
-    /// <exception cref="ArgumentOutOfRangeException">An energy is not finite or not above <see cref="LowestValidEnergyElectronVolts"/> (the message names its index); destination is then unchanged.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">An energy is not finite or not above <see cref="LowestValidEnergyElectronVolts"/>, or (under bias) absurdly far from the layer potentials (the message names its index); destination is then unchanged.</exception>
     public void Transmissions(ReadOnlySpan<double> energiesElectronVolts, Span<double> destination)
     {
         Preconditions.CheckDestination(energiesElectronVolts.Length, destination.Length, nameof(energiesElectronVolts), nameof(destination));
@@ -127,7 +266,7 @@ public sealed class StackTransmission
     /// closed, finite otherwise, never NaN. Does not allocate.
     /// </summary>
     /// <exception cref="ArgumentException"><paramref name="destination"/> is shorter than the input.</exception>
-    /// <exception cref="ArgumentOutOfRangeException">An energy is not finite or not above <see cref="LowestValidEnergyElectronVolts"/>; destination is then unchanged.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">An energy is not finite or not above <see cref="LowestValidEnergyElectronVolts"/>, or (under bias) absurdly far from the layer potentials; destination is then unchanged.</exception>
     public void Log10Transmissions(ReadOnlySpan<double> energiesElectronVolts, Span<double> destination)
     {
         Preconditions.CheckDestination(energiesElectronVolts.Length, destination.Length, nameof(energiesElectronVolts), nameof(destination));
@@ -196,7 +335,7 @@ public sealed class StackTransmission
     /// result carries its own error bound. Peaks at the window ends are not reported. The window is raised
     /// to the higher lead band edge when it starts below it.
     /// </remarks>
-    /// <exception cref="ArgumentOutOfRangeException">A bound is not finite, or <paramref name="upperElectronVolts"/> is not above <paramref name="lowerElectronVolts"/>, or an option is out of range.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">A bound is not finite, or <paramref name="upperElectronVolts"/> is not above <paramref name="lowerElectronVolts"/>, or an option is out of range, or (under bias) a bound is absurdly far from the layer potentials (see <see cref="Evaluate"/>).</exception>
     public ResonanceSpectrum FindResonances(double lowerElectronVolts, double upperElectronVolts, ResonanceSearchOptions? options = null)
     {
         Preconditions.CheckFinite(lowerElectronVolts);
@@ -208,7 +347,47 @@ public sealed class StackTransmission
         }
         options ??= ResonanceSearchOptions.Default;
         options.Validate(nameof(options));
+        // The cost of a biased layer grows with |E − V|, largest at an end of the window.
+        CheckBiasedCost(lowerElectronVolts, nameof(lowerElectronVolts), nameof(lowerElectronVolts));
+        CheckBiasedCost(upperElectronVolts, nameof(upperElectronVolts), nameof(upperElectronVolts));
         return ResonanceFinder.Find(this, lowerElectronVolts, upperElectronVolts, options);
+    }
+
+    /// <summary>
+    /// The Tsu–Esaki current density through the stack at its <see cref="Bias"/>, for a left lead with Fermi level
+    /// <paramref name="fermiLevelElectronVolts"/> (the right lead's is μ − eU) at <paramref name="temperatureKelvin"/>:
+    /// J = (e m_L k_BT/(2π²ħ³)) ∫ T(E) ln[(1 + e^((μ−E)/k_BT))/(1 + e^((μ−eU−E)/k_BT))] dE
+    /// (R. Tsu and L. Esaki, Appl. Phys. Lett. 22, 562 (1973)), m_L the left lead's mass.
+    /// </summary>
+    /// <remarks>
+    /// <para>Method: globally adaptive Gauss–Kronrod (7/15) quadrature (R. Piessens et al., QUADPACK, Springer 1983) from
+    /// the higher lead band edge upwards, split at both Fermi levels and at every transmission peak
+    /// (<see cref="FindResonances"/>) and its points ±Γ, ±4Γ, ±16Γ, so sharp resonances are resolved; the interval with
+    /// the largest |Kronrod − Gauss| is halved until the sum of these estimates falls below
+    /// <see cref="CurrentDensityOptions.RelativeTolerance"/>·|J|. The upper limit rises in steps of 40 k_BT until the
+    /// bound k_BT·e^((μ_max − E_max)/k_BT) on the rest (T ≤ 1) is negligible; that bound is part of the reported error.</para>
+    /// <para>Model: the transverse motion is free with the left lead's mass in every layer (the energy separates), the
+    /// contacts are in equilibrium at their Fermi levels, transport is coherent, and the field is uniform with no
+    /// charge in the stack (see <see cref="Create(LayerStack, Energy)"/>). Use the result to compare designs and read
+    /// trends; check it against measured I–V curves.</para>
+    /// <para>Zero bias gives J = 0 exactly (the supply function vanishes).</para>
+    /// </remarks>
+    /// <param name="fermiLevelElectronVolts">Fermi level μ of the left lead, eV, on the same scale as the energies.</param>
+    /// <param name="temperatureKelvin">Temperature of both leads, K; positive and finite.</param>
+    /// <param name="options">Tolerances and budget (null: <see cref="CurrentDensityOptions.Default"/>).</param>
+    /// <exception cref="ArgumentOutOfRangeException">The Fermi level is not finite, the temperature not positive and finite, or an option is out of range; or the integral would reach energies absurdly far from the layer potentials (see <see cref="Evaluate"/>; a temperature of millions of kelvin).</exception>
+    public CurrentDensityResult CurrentDensity(double fermiLevelElectronVolts, double temperatureKelvin, CurrentDensityOptions? options = null)
+    {
+        Preconditions.CheckFinite(fermiLevelElectronVolts);
+        Preconditions.CheckPositiveFinite(temperatureKelvin);
+        options ??= CurrentDensityOptions.Default;
+        options.Validate(nameof(options));
+        // The integral reaches at most 700 k_BT above the higher Fermi level (and starts at the higher lead edge).
+        var kT = PhysicalConstants.BoltzmannElectronVoltsPerKelvin * temperatureKelvin;
+        var top = Math.Max(Math.Max(Stack.LeftLead.PotentialElectronVolts, RightLead.PotentialElectronVolts),
+            Math.Max(fermiLevelElectronVolts, fermiLevelElectronVolts - Bias.ElectronVolts)) + 700 * kT;
+        CheckBiasedCost(top, "the top of the energy integral (Fermi level + 700 kT)", nameof(temperatureKelvin));
+        return TsuEsakiIntegrator.Compute(this, fermiLevelElectronVolts, temperatureKelvin, options);
     }
 
     internal void CheckEnergy(double energyElectronVolts, string name, string? paramName = null)
@@ -225,6 +404,30 @@ public sealed class StackTransmission
             throw new ArgumentOutOfRangeException(paramName, energyElectronVolts,
                 $"{name} must exceed {Preconditions.Format(LowestValidEnergyElectronVolts)} eV, below which a non-parabolic mass m(E) = m(1 + a(E - V)) would not be positive; got {Preconditions.Format(energyElectronVolts)}.");
         }
+        CheckBiasedCost(energyElectronVolts, name, paramName);
+    }
+
+    /// <summary>
+    /// Under bias, the cost of a layer grows as k_max·w (sublayers of the exact series): an energy absurdly far from
+    /// the potentials (|E − V| ≳ C(10⁶/w)²/m, ~1e7 eV for 100 nm) is rejected instead of taking hours.
+    /// </summary>
+    private void CheckBiasedCost(double energyElectronVolts, string name, string paramName)
+    {
+        for (var i = 0; i < _biased.Length; i++)
+        {
+            var element = _biased[i];
+            if (element.IsDelta)
+            {
+                continue;
+            }
+            var count = LinearLayerPropagator.SublayerCount(energyElectronVolts, element.PotentialAtLeft, element.Slope, element.Width, element.Mass);
+            if (count > LinearLayerPropagator.MaxSublayers)
+            {
+                throw new ArgumentOutOfRangeException(paramName, energyElectronVolts,
+                    string.Create(CultureInfo.InvariantCulture,
+                        $"{name} = {Preconditions.Format(energyElectronVolts)} eV is too far from the potential of element {i} of the biased stack: its exact propagation would need {count} sublayers (k_max times width), at most {LinearLayerPropagator.MaxSublayers} are allowed."));
+            }
+        }
     }
 
     private void CheckEnergies(ReadOnlySpan<double> energies)
@@ -232,7 +435,7 @@ public sealed class StackTransmission
         for (var i = 0; i < energies.Length; i++)
         {
             var e = energies[i];
-            if (!double.IsFinite(e) || e <= LowestValidEnergyElectronVolts)
+            if (!double.IsFinite(e) || e <= LowestValidEnergyElectronVolts || _biased.Length > 0)
             {
                 CheckEnergy(e, string.Create(CultureInfo.InvariantCulture, $"energiesElectronVolts[{i}]"), "energiesElectronVolts");
             }
@@ -252,14 +455,14 @@ public sealed class StackTransmission
             max = Math.Max(max, Impedance(e, _potentials[i], _masses[i], _slopes[i]));
         }
         max = Math.Max(max, Impedance(e, Stack.LeftLead.PotentialElectronVolts, Stack.LeftLead.MassElectronMasses, 0));
-        max = Math.Max(max, Impedance(e, Stack.RightLead.PotentialElectronVolts, Stack.RightLead.MassElectronMasses, 0));
+        max = Math.Max(max, Impedance(e, RightLead.PotentialElectronVolts, RightLead.MassElectronMasses, 0));
         if (!(max > 0) || !double.IsFinite(max))
         {
             return 1.0;
         }
         var floor = 1e-3 * max;
         double sumLog = Math.Log(Math.Max(floor, Impedance(e, Stack.LeftLead.PotentialElectronVolts, Stack.LeftLead.MassElectronMasses, 0)))
-            + Math.Log(Math.Max(floor, Impedance(e, Stack.RightLead.PotentialElectronVolts, Stack.RightLead.MassElectronMasses, 0)));
+            + Math.Log(Math.Max(floor, Impedance(e, RightLead.PotentialElectronVolts, RightLead.MassElectronMasses, 0)));
         for (var i = 0; i < _potentials.Length; i++)
         {
             sumLog += Math.Log(Math.Max(floor, Impedance(e, _potentials[i], _masses[i], _slopes[i])));
@@ -278,6 +481,10 @@ public sealed class StackTransmission
     internal ScatteringMatrix Interior(double e, double q)
     {
         var total = ScatteringMatrix.Identity;
+        foreach (var element in _biased)
+        {
+            total = ScatteringMatrix.Compose(total, element.Scattering(e, q));
+        }
         foreach (var part in _parts)
         {
             var s = ScatteringMatrix.Identity;
@@ -297,7 +504,7 @@ public sealed class StackTransmission
     internal TransmissionResult EvaluateCore(double e)
     {
         var left = Stack.LeftLead;
-        var right = Stack.RightLead;
+        var right = RightLead;
         var kLeft = left.WavenumberPerNanometre(e);
         if (kLeft == 0)
         {
@@ -320,6 +527,20 @@ public sealed class StackTransmission
         s = ScatteringMatrix.Compose(s, ScatteringMatrix.Interface(q, qRight));
         var logT = Math.Log(qRight / qLeft) + 2 * (Math.Log(s.T.Magnitude) + s.LogScale);
         return new TransmissionResult(e, LeadChannels.Open, logT, s.R, s.T, s.LogScale);
+    }
+
+    /// <summary>A layer under bias, V(x) = V₀ + slope·(x − x_left), or a delta barrier.</summary>
+    private readonly record struct BiasedElement(double Width, double PotentialAtLeft, double Slope, double Mass, double DeltaJump, bool IsDelta)
+    {
+        internal ScatteringMatrix Scattering(double e, double q)
+        {
+            if (IsDelta)
+            {
+                return ScatteringMatrix.FromTransfer(1, 0, DeltaJump, 1, 0, q);
+            }
+            LinearLayerPropagator.Evaluate(e, PotentialAtLeft, Slope, Width, Mass, out var m11, out var m12, out var m21, out var m22, out var logScale);
+            return ScatteringMatrix.FromTransfer(m11, m12, m21, m22, logScale, q);
+        }
     }
 
     private readonly record struct CompiledPart(CompiledElement[] Elements, int Repetitions, CellTransfer? Cell);
@@ -371,5 +592,5 @@ public sealed class StackTransmission
 
     /// <inheritdoc />
     public override string ToString() => string.Create(CultureInfo.InvariantCulture,
-        $"StackTransmission of {Stack.ElementCount} element(s), {Stack.ThicknessNanometres:G6} nm, S-matrix composition");
+        $"StackTransmission of {Stack.ElementCount} element(s), {Stack.ThicknessNanometres:G6} nm, bias {Bias.ElectronVolts:G6} eV, S-matrix composition");
 }

@@ -1,0 +1,148 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using MathNet.Numerics.Integration;
+using Periodic.Stacks;
+using Periodic.Structures;
+using Periodic.Units;
+using Xunit.Abstractions;
+
+namespace Periodic.Tests.Stacks;
+
+/// <summary>The Tsu–Esaki current density (<see cref="StackTransmission.CurrentDensity"/>).</summary>
+public sealed class StackTransmissionCurrentTest(ITestOutputHelper output)
+{
+    private static readonly EffectiveMass GaAs = EffectiveMass.FromElectronMasses(0.067);
+    private static readonly Lead Ground = Lead.Create(default, GaAs);
+
+    // CODATA 2018 (exact SI values for e, h, k_B; m_e from CODATA), written out here independently of the library.
+    private const double Charge = 1.602176634e-19;
+    private const double Hbar = 6.62607015e-34 / (2 * Math.PI);
+    private const double ElectronMass = 9.1093837015e-31;
+    private const double Boltzmann = 1.380649e-23;
+
+    private static Layer Slab(double widthNm, double potentialEv) =>
+        Layer.Create(Length.FromNanometres(widthNm), Energy.FromElectronVolts(potentialEv), GaAs);
+
+    /// <summary>
+    /// Independent evaluation of the Tsu–Esaki integral: T(E) from the library (checked elsewhere), the supply
+    /// function and prefactor written out here, E = a + s² so the √(E − a) edge is smooth, and composite 8-point
+    /// Gauss–Legendre (MathNet) on <paramref name="pieces"/> equal pieces in s up to E = μ_max + 60 k_BT.
+    /// </summary>
+    private static double ReferenceAmperesPerSquareMetre(StackTransmission transmission, double mu, double temperature, int pieces)
+    {
+        var kT = Boltzmann * temperature / Charge;
+        var u = transmission.Bias.ElectronVolts;
+        var a = Math.Max(transmission.Stack.LeftLead.PotentialElectronVolts, transmission.RightLead.PotentialElectronVolts);
+        var b = Math.Max(a, Math.Max(mu, mu - u)) + 60 * kT;
+        double Supply(double e) => Math.Log((1 + Math.Exp((mu - e) / kT)) / (1 + Math.Exp((mu - u - e) / kT)));
+        double F(double s) => 2 * s * transmission.Evaluate(a + s * s).Transmission * Supply(a + s * s);
+        var top = Math.Sqrt(b - a);
+        double integral = 0;
+        for (var i = 0; i < pieces; i++)
+        {
+            integral += GaussLegendreRule.Integrate(F, top * i / pieces, top * (i + 1) / pieces, 8);
+        }
+        var mass = transmission.Stack.LeftLead.MassElectronMasses * ElectronMass;
+        return Charge * mass * Boltzmann * temperature / (2 * Math.PI * Math.PI * Hbar * Hbar * Hbar) * Charge * integral;
+    }
+
+    [Fact]
+    public void Prefactor_OverTemperature_IsTheRichardsonConstant()
+    {
+        // e m₀ k_B²/(2π²ħ³) = 4π e m₀ k_B²/h³ = 1.20173e6 A m⁻² K⁻² (the Richardson constant; e.g. S. M. Sze, Physics of
+        // Semiconductor Devices, 3rd ed., §3.2, 120 A cm⁻² K⁻²). Checks the constants this test uses; 1e-5 relative (6 digits quoted).
+        var richardson = Charge * ElectronMass * Boltzmann * Boltzmann / (2 * Math.PI * Math.PI * Hbar * Hbar * Hbar);
+        Assert.Equal(1.20173e6, richardson, 1.20173e6 * 1e-5);
+    }
+
+    [Fact]
+    public void CurrentDensity_ZeroBias_IsExactlyZero()
+    {
+        // No bias, no net supply: ln(1) = 0 for every energy (Tsu and Esaki 1973, eq. for J).
+        var stack = LayerStack.Create(Ground, Ground, Slab(3, 0.3), Slab(6, 0), Slab(3, 0.3));
+        var result = StackTransmission.Create(stack).CurrentDensity(0.05, 300);
+        Assert.Equal(0.0, result.AmperesPerSquareMetre);
+        Assert.True(result.IsConverged);
+    }
+
+    [Theory]
+    [InlineData(0.1, 300.0, 0.05)]
+    [InlineData(0.3, 77.0, 0.02)]
+    [InlineData(-0.2, 300.0, 0.01)]
+    public void CurrentDensity_SingleBarrier_MatchesIndependentQuadrature(double bias, double temperature, double mu)
+    {
+        // Same integral by an independent quadrature (above). Tolerance: the library's own error estimate (its target
+        // is 1e-6 relative) plus 1e-9 relative for the reference (8-point Gauss–Legendre on 400 pieces of a smooth
+        // integrand: converged, checked against 200 pieces below). The estimate must also cover the actual error.
+        var stack = LayerStack.Create(Ground, Ground, Slab(4, 0.25));
+        var transmission = StackTransmission.Create(stack, Energy.FromElectronVolts(bias));
+        var result = transmission.CurrentDensity(mu, temperature);
+        var reference = ReferenceAmperesPerSquareMetre(transmission, mu, temperature, 400);
+        var coarse = ReferenceAmperesPerSquareMetre(transmission, mu, temperature, 200);
+        var error = Math.Abs(result.AmperesPerSquareMetre - reference);
+        output.WriteLine($"{result}; reference {reference:G10} A/m2, actual relative error {error / Math.Abs(reference):E3}, estimate {result.ErrorEstimateAmperesPerSquareMetre / Math.Abs(reference):E3}, reference self-check {Math.Abs(coarse / reference - 1):E3}");
+        Assert.True(Math.Abs(coarse / reference - 1) < 1e-9);
+        Assert.True(result.IsConverged);
+        Assert.Equal(Math.Sign(bias), Math.Sign(result.AmperesPerSquareMetre));
+        Assert.True(error <= result.ErrorEstimateAmperesPerSquareMetre + 1e-9 * Math.Abs(reference), $"{error}");
+        Assert.True(result.ErrorEstimateAmperesPerSquareMetre <= 1e-6 * Math.Abs(result.AmperesPerSquareMetre));
+        Assert.Equal(result.AmperesPerSquareMetre * 1e-4, result.AmperesPerSquareCentimetre);
+    }
+
+    [Fact]
+    public void CurrentDensity_ResonantDoubleBarrier_MatchesIndependentQuadrature()
+    {
+        // A resonant-tunnelling double barrier at 77 K, its resonance (width ~1 meV) inside the supply window. The
+        // reference uses 1000 pieces in s (about 2e-4 eV each, several per resonance width; checked against 500); tolerance as above.
+        var stack = LayerStack.Create(Ground, Ground, Slab(3, 0.3), Slab(6, 0), Slab(3, 0.3));
+        var transmission = StackTransmission.Create(stack, Energy.FromElectronVolts(0.08));
+        var result = transmission.CurrentDensity(0.05, 77);
+        var reference = ReferenceAmperesPerSquareMetre(transmission, 0.05, 77, 1000);
+        var coarse = ReferenceAmperesPerSquareMetre(transmission, 0.05, 77, 500);
+        var error = Math.Abs(result.AmperesPerSquareMetre - reference);
+        output.WriteLine($"{result}; reference {reference:G10} A/m2, actual relative error {error / reference:E3}, estimate {result.ErrorEstimateAmperesPerSquareMetre / reference:E3}, reference self-check {Math.Abs(coarse / reference - 1):E3}");
+        Assert.True(Math.Abs(coarse / reference - 1) < 1e-9);
+        Assert.True(result.IsConverged && result.ResonanceCount >= 1);
+        Assert.True(error <= result.ErrorEstimateAmperesPerSquareMetre + 1e-9 * reference, $"{error}");
+    }
+
+    [Fact]
+    public void CurrentDensity_MirroredStackAndBias_ReversesTheCurrent()
+    {
+        // Reciprocity (T unchanged by the mirror image, see the bias tests) with equal lead masses: the mirrored device,
+        // its energies measured from its own left lead, carries the same electron flux the other way. Tolerance: the
+        // two error estimates.
+        var stack = LayerStack.Create(Ground, Lead.Create(Energy.FromElectronVolts(0.02), GaAs), Slab(2, 0.2), Slab(5, 0), Slab(3, 0.35));
+        var forward = StackTransmission.Create(stack, Energy.FromElectronVolts(0.15)).CurrentDensity(0.04, 150);
+        var backward = StackTransmission.Create(stack.Reverse(), Energy.FromElectronVolts(-0.15)).CurrentDensity(0.04, 150);
+        var difference = Math.Abs(forward.AmperesPerSquareMetre + backward.AmperesPerSquareMetre);
+        output.WriteLine($"{forward}; mirrored {backward}; relative difference {difference / forward.AmperesPerSquareMetre:E3}");
+        Assert.True(difference <= forward.ErrorEstimateAmperesPerSquareMetre + backward.ErrorEstimateAmperesPerSquareMetre, $"{difference}");
+    }
+
+    [Fact]
+    public void CurrentDensity_Validation_NamesTheParameter()
+    {
+        var transmission = StackTransmission.Create(LayerStack.Create(Ground, Ground, Slab(3, 0.3)), Energy.FromElectronVolts(0.1));
+        Assert.Equal("fermiLevelElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(double.NaN, 300)).ParamName);
+        var temperature = Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(0.05, 0));
+        Assert.Equal("temperatureKelvin", temperature.ParamName);
+        Assert.Contains("got 0", temperature.Message, StringComparison.Ordinal);
+        var options = Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(0.05, 300, new CurrentDensityOptions { RelativeTolerance = 0 }));
+        Assert.Equal("options", options.ParamName);
+        Assert.Contains("RelativeTolerance", options.Message, StringComparison.Ordinal);
+        Assert.Equal("options", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(0.05, 300, new CurrentDensityOptions { MaxEvaluations = 3 })).ParamName);
+    }
+
+    [Fact]
+    public void CurrentDensity_SmallBudget_SaysNotConverged()
+    {
+        // A budget of one rule per piece cannot reach 1e-12: the result must say so rather than pretend.
+        var transmission = StackTransmission.Create(LayerStack.Create(Ground, Ground, Slab(3, 0.3), Slab(6, 0), Slab(3, 0.3)), Energy.FromElectronVolts(0.08));
+        var result = transmission.CurrentDensity(0.05, 77, new CurrentDensityOptions { RelativeTolerance = 1e-12, MaxEvaluations = 200 });
+        Assert.False(result.IsConverged);
+        Assert.True(double.IsFinite(result.AmperesPerSquareMetre) && result.ErrorEstimateAmperesPerSquareMetre > 0);
+        Assert.Contains("NOT converged", result.ToString(), StringComparison.Ordinal);
+    }
+}
