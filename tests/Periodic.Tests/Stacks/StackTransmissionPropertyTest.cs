@@ -6,6 +6,7 @@ using FsCheck.Fluent;
 using Periodic.Stacks;
 using Periodic.Structures;
 using Periodic.Transfer;
+using Periodic.Tests.Support;
 using Periodic.Units;
 using Xunit.Abstractions;
 
@@ -24,23 +25,7 @@ public sealed class StackTransmissionPropertyTest(ITestOutputHelper output)
     {
         var random = new Random(seed);
         double Between(double a, double b) => a + (b - a) * random.NextDouble();
-        CellElement Element() => random.Next(5) == 0
-            ? DeltaBarrier.Create(Between(-0.05, 0.3))
-            : Slab(Between(0.3, 8), Between(-0.1, 0.8), Between(0.04, 0.15));
-        var parts = new List<StackPart>();
-        var count = random.Next(1, 6);
-        for (var i = 0; i < count; i++)
-        {
-            if (random.Next(3) == 0)
-            {
-                var cell = UnitCell.Create(Slab(Between(0.5, 6), Between(-0.1, 0.2), Between(0.04, 0.15)), Element());
-                parts.Add(StackPart.Repeat(cell, random.Next(1, 60)));
-            }
-            else
-            {
-                parts.Add(Element());
-            }
-        }
+        var parts = RandomStacks.Parts(random, 60);
         var left = Lead.Create(Energy.FromElectronVolts(Between(-0.1, 0.1)), EffectiveMass.FromElectronMasses(Between(0.04, 0.15)));
         var right = equalLeads ? left : Lead.Create(Energy.FromElectronVolts(Between(-0.1, 0.1)), EffectiveMass.FromElectronMasses(Between(0.04, 0.15)));
         var energy = Between(0.101, 1.2); // above both leads' band edges
