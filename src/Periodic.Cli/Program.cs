@@ -11,7 +11,7 @@ using Periodic.Serialization;
 // stderr; --verbose adds the exception detail.
 var verbose = new Option<bool>("--verbose") { Description = "On failure, print the full error detail.", Recursive = true };
 // A plain command named "periodic" rather than RootCommand, whose name would be the assembly's (Periodic.Cli).
-var root = new Command("periodic", "periodic: bands, dispersion, density of states, transmission and plots of one-dimensional periodic structures. "
+var root = new Command("periodic", "periodic: bands, dispersion, density of states, transmission, current under bias and plots of one-dimensional periodic structures. "
     + "Without arguments, prints the band table of a built-in example superlattice.");
 root.Options.Add(new System.CommandLine.Help.HelpOption());
 root.Options.Add(new VersionOption());
@@ -20,6 +20,7 @@ root.Subcommands.Add(BandsCommand.Create());
 root.Subcommands.Add(DispersionCommand.Create());
 root.Subcommands.Add(DosCommand.Create());
 root.Subcommands.Add(TransmissionCommand.Create());
+root.Subcommands.Add(CurrentCommand.Create());
 root.Subcommands.Add(PlotCommand.Create());
 root.Subcommands.Add(ExampleCommand.Create());
 root.SetAction(_ =>

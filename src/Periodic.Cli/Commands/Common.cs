@@ -35,6 +35,32 @@ internal static class Common
         DefaultValueFactory = _ => defaultCount,
     };
 
+    /// <summary>
+    /// An optional number with a unit fixed by the option (e.g. eV, K). Parsed here rather than by the parser's default,
+    /// so that a bad value is reported with the option, the text given and what is allowed.
+    /// </summary>
+    public static Option<double?> NumberOption(string name, string unit, string example, string description) => new(name)
+    {
+        Description = description,
+        CustomParser = argument =>
+        {
+            var text = argument.Tokens.Count > 0 ? argument.Tokens[0].Value : string.Empty;
+            if (double.TryParse(text, NumberStyles.Float, CultureInfo.InvariantCulture, out var value) && double.IsFinite(value))
+            {
+                return value + 0.0; // -0 becomes 0, so "-0" is written as 0
+            }
+            argument.AddError($"{name} \"{text}\" is not a number; give a finite number in {unit} (e.g. {name} {example}).");
+            return null;
+        },
+    };
+
+    /// <summary>The message of a library argument error without the runtime's "(Parameter 'x')" suffix.</summary>
+    public static string Describe(ArgumentException e)
+    {
+        var cut = e.Message.IndexOf(" (Parameter '", StringComparison.Ordinal);
+        return cut >= 0 ? e.Message[..cut] : e.Message;
+    }
+
     public static OutputFormat Format(ParseResult result, Option<bool> json, Option<bool> csv)
     {
         var isJson = result.GetValue(json);

@@ -38,6 +38,7 @@ internal static class PlotCommand
         var count = Common.CountOption(3);
         var periods = new Option<int>("--periods", "-N") { Description = "Periods drawn in the profile (default 3) or stacked for transmission (default 10).", DefaultValueFactory = _ => 0 };
         var grid = new EnergyGridOptions();
+        var bias = TransmissionCommand.BiasOption();
         var width = new Option<int>("--width") { Description = "Image width, pixels.", DefaultValueFactory = _ => 900 };
         var height = new Option<int>("--height") { Description = "Image height, pixels.", DefaultValueFactory = _ => 600 };
         var command = new Command("plot", "Draw E(k), the DOS, the potential profile with its minibands, or T(E) to a PNG or SVG file.");
@@ -47,6 +48,7 @@ internal static class PlotCommand
         command.Options.Add(count);
         command.Options.Add(periods);
         grid.AddTo(command);
+        command.Options.Add(bias);
         command.Options.Add(width);
         command.Options.Add(height);
         command.SetAction(result =>
@@ -72,13 +74,18 @@ internal static class PlotCommand
             {
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--periods must be between 1 and 100000; got {p}."));
             }
+            var u = result.GetValue(bias);
+            if (u is not null && kind != "transmission")
+            {
+                throw new UsageException($"--bias applies only to --show transmission; got --show {kind}.");
+            }
             var structure = Common.Load(result.GetValue(file)!);
             var plot = kind switch
             {
                 "dispersion" => Dispersion(structure, n),
                 "dos" => Dos(structure, n, energies),
                 "profile" => Profile(structure, n, p == 0 ? 3 : p),
-                _ => Transmission(structure, n, p == 0 ? structure.Stack?.Parts[0].Repetitions ?? 10 : p, energies),
+                _ => Transmission(structure, n, p == 0 ? structure.Stack?.Parts[0].Repetitions ?? 10 : p, energies, TransmissionCommand.ChooseBias(u, structure)),
             };
             Save(plot, path, extension, w, h);
             Console.Error.WriteLine($"wrote {path}");
@@ -221,20 +228,20 @@ internal static class PlotCommand
         return plot;
     }
 
-    private static Plot Transmission(StructureDefinition structure, int count, int periods, double[]? energies)
+    private static Plot Transmission(StructureDefinition structure, int count, int periods, double[]? energies, (double ElectronVolts, string Source) bias)
     {
         var bands = Solver.Compute(structure.Cell, count).Bands;
         var (low, high) = EnergyWindow(bands);
         energies ??= Enumerable.Range(0, 3001).Select(i => low + (high - low) * i / 3000.0).ToArray();
         low = energies.Min();
         high = energies.Max();
-        var (stack, results) = TransmissionCommand.Compute(structure, periods, energies, null, null);
+        var (stack, results) = TransmissionCommand.Compute(structure, periods, energies, null, null, bias);
         // log10 T, with closed leads (T = 0 exactly) left out rather than drawn at -infinity.
         var open = results.Where(r => r.IsOpen && double.IsFinite(r.Log10Transmission)).ToArray();
         var x = open.Select(r => r.EnergyElectronVolts).ToArray();
         var y = open.Select(r => r.Log10Transmission).ToArray();
         var floor = y.Length == 0 ? -10 : Math.Max(Math.Floor(y.Min()) - 0.5, -300);
-        var plot = NewPlot(string.Create(CultureInfo.InvariantCulture, $"Transmission of {periods} periods: {structure.Name}"), "Energy E (eV)", "Transmission T (log scale)");
+        var plot = NewPlot(string.Create(CultureInfo.InvariantCulture, $"Transmission of {periods} periods{(bias.ElectronVolts == 0 ? "" : string.Create(CultureInfo.InvariantCulture, $" at eU = {bias.ElectronVolts:G4} eV"))}: {structure.Name}"), "Energy E (eV)", "Transmission T (log scale)");
         foreach (var band in bands.Bands)
         {
             var strip = plot.Add.Rectangle(band.BottomElectronVolts, Math.Max(band.TopElectronVolts, band.BottomElectronVolts + 1e-4 * (high - low)), floor, 0.5);

@@ -21,6 +21,7 @@ internal static class TransmissionCommand
         var grid = new EnergyGridOptions();
         var leadPotential = new Option<double?>("--lead-potential") { Description = "Potential of both leads, eV (default: the first layer's)." };
         var leadMass = new Option<double?>("--lead-mass") { Description = "Effective mass in both leads, m0 (default: the first layer's)." };
+        var bias = BiasOption();
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
         var command = new Command("transmission", "Transmission and reflection of a finite stack of N periods between two uniform leads.");
@@ -29,6 +30,7 @@ internal static class TransmissionCommand
         grid.AddTo(command);
         command.Options.Add(leadPotential);
         command.Options.Add(leadMass);
+        command.Options.Add(bias);
         command.Options.Add(json);
         command.Options.Add(csv);
         command.SetAction(result =>
@@ -51,11 +53,55 @@ internal static class TransmissionCommand
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--lead-mass must be a positive mass in m0; got {m:R}."));
             }
             var structure = Common.Load(result.GetValue(file)!);
-            Common.Emit(Render(structure, n ?? structure.Stack?.Parts[0].Repetitions
-                ?? throw new UsageException("give --periods N (the structure file has no \"stack\" with periods)."), energies, potential, mass, format), null);
+            var periodCount = n ?? structure.Stack?.Parts[0].Repetitions
+                ?? throw new UsageException("give --periods N (the structure file has no \"stack\" with periods).");
+            Common.Emit(Render(structure, periodCount, energies, potential, mass, ChooseBias(result.GetValue(bias), structure), format), null);
             return 0;
         });
         return command;
+    }
+
+    /// <summary>The <c>--bias</c> option of <c>transmission</c> and <c>plot</c>: one energy eU in eV.</summary>
+    public static Option<double?> BiasOption() => Common.NumberOption("--bias", "eV", "0.1",
+        "Applied bias eU across the stack, eV: a uniform field, the right lead's band edge lowered by eU (default: the file's stack.bias, else 0). No space charge: a design guide.");
+
+    /// <summary>The bias to apply and where it came from (for messages): <c>--bias</c> if given, else the file's <c>stack.bias</c> (0 without one).</summary>
+    public static (double ElectronVolts, string Source) ChooseBias(double? option, StructureDefinition structure) =>
+        option is { } u ? (u, "--bias") : (structure.StackBias.ElectronVolts + 0.0, $"stack.bias of {structure.SourceName}");
+
+    /// <summary>
+    /// Compiles <paramref name="stack"/> under <paramref name="bias"/>; the library's refusal (too many elements written
+    /// out, an element that cannot be put under bias) becomes a usage error naming the option, the value and what is allowed.
+    /// </summary>
+    public static StackTransmission Compile(LayerStack stack, double bias, string source)
+    {
+        try
+        {
+            return StackTransmission.Create(stack, Energy.FromElectronVolts(bias));
+        }
+        catch (ArgumentException e)
+        {
+            var allowed = stack.ElementCount > StackTransmission.MaxBiasedElements && stack.Parts.Count == 1 && stack.Parts[0].Cell is { } cell
+                ? string.Create(CultureInfo.InvariantCulture,
+                    $" Allowed: at most {StackTransmission.MaxBiasedElements / cell.Elements.Count} periods of this {cell.Elements.Count}-element cell (--periods) under a non-zero bias, or bias 0.")
+                : " Allowed: bias 0 for this stack.";
+            throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"{source} {bias:R} eV cannot be applied: {Common.Describe(e)}{allowed}"));
+        }
+    }
+
+    /// <summary>N periods of the cell between leads: the command-line lead options, else the file's stack, else the cell's first layer.</summary>
+    public static LayerStack BuildStack(StructureDefinition structure, int periods, double? potential, double? mass)
+    {
+        Lead left, right;
+        if (structure.Stack is { } given && potential is null && mass is null)
+        {
+            (left, right) = (given.LeftLead, given.RightLead);
+        }
+        else
+        {
+            left = right = DefaultLead(structure.Cell, potential, mass);
+        }
+        return LayerStack.Periodic(left, structure.Cell, periods, right);
     }
 
     /// <summary>Leads like the cell's first layer unless overridden.</summary>
@@ -71,19 +117,10 @@ internal static class TransmissionCommand
         return Lead.Create(Energy.FromElectronVolts(v.Value), EffectiveMass.FromElectronMasses(m.Value));
     }
 
-    public static (StackTransmission Stack, TransmissionResult[] Results) Compute(StructureDefinition structure, int periods, double[] energies, double? potential, double? mass)
+    public static (StackTransmission Stack, TransmissionResult[] Results) Compute(StructureDefinition structure, int periods, double[] energies, double? potential, double? mass,
+        (double ElectronVolts, string Source) bias)
     {
-        // Leads: the command-line options, else the file's stack, else the cell's first layer.
-        Lead left, right;
-        if (structure.Stack is { } given && potential is null && mass is null)
-        {
-            (left, right) = (given.LeftLead, given.RightLead);
-        }
-        else
-        {
-            left = right = DefaultLead(structure.Cell, potential, mass);
-        }
-        var transmission = StackTransmission.Create(LayerStack.Periodic(left, structure.Cell, periods, right));
+        var transmission = Compile(BuildStack(structure, periods, potential, mass), bias.ElectronVolts, bias.Source);
         var results = new TransmissionResult[energies.Length];
         using var progress = new Progress("transmission", energies.Length);
         for (var i = 0; i < energies.Length; i++)
@@ -97,19 +134,21 @@ internal static class TransmissionCommand
         return (transmission, results);
     }
 
-    public static string Render(StructureDefinition structure, int periods, double[] energies, double? potential, double? mass, OutputFormat format)
+    public static string Render(StructureDefinition structure, int periods, double[] energies, double? potential, double? mass,
+        (double ElectronVolts, string Source) bias, OutputFormat format)
     {
-        var (stack, results) = Compute(structure, periods, energies, potential, mass);
+        var (stack, results) = Compute(structure, periods, energies, potential, mass, bias);
         var lead = stack.Stack.LeftLead;
         if (format == OutputFormat.Json)
         {
             return Common.Json(w =>
             {
                 Common.StructureHeader(w, structure);
-                Common.Units(w, ("energy", "eV"), ("transmission", "1"), ("reflection", "1"), ("potential", "eV"), ("mass", "m0"), ("thickness", "nm"), ("period", "nm"));
+                Common.Units(w, ("energy", "eV"), ("transmission", "1"), ("reflection", "1"), ("potential", "eV"), ("mass", "m0"), ("thickness", "nm"), ("period", "nm"), ("bias", "eV"));
                 w.WriteStartObject("stack");
                 w.WriteNumber("periods", periods);
                 w.WriteNumber("thickness", stack.Stack.ThicknessNanometres);
+                w.WriteNumber("bias", stack.Bias.ElectronVolts);
                 foreach (var (name, l) in new[] { ("leftLead", stack.Stack.LeftLead), ("rightLead", stack.Stack.RightLead) })
                 {
                     w.WriteStartObject(name);
@@ -142,7 +181,7 @@ internal static class TransmissionCommand
             return table.ToCsv();
         }
         var title = Common.TableTitle(structure) + string.Create(CultureInfo.InvariantCulture,
-            $"{periods} period(s), {stack.Stack.ThicknessNanometres:G6} nm, leads V = {lead.PotentialElectronVolts:G6} eV, m = {lead.MassElectronMasses:G6} m0\n");
+            $"{periods} period(s), {stack.Stack.ThicknessNanometres:G6} nm, leads V = {lead.PotentialElectronVolts:G6} eV, m = {lead.MassElectronMasses:G6} m0, bias eU = {stack.Bias.ElectronVolts:G6} eV\n");
         return title + "\n" + table.ToText();
     }
 }

@@ -7,13 +7,14 @@ using System.Text;
 using Periodic.Materials;
 using Periodic.Stacks;
 using Periodic.Structures;
+using Periodic.Units;
 
 namespace Periodic.Serialization;
 
 /// <summary>A structure read from a structure file: its name, optional description and unit cell.</summary>
 public sealed class StructureDefinition
 {
-    internal StructureDefinition(string name, string? description, UnitCell cell, string?[] labels, string sourceName, BuiltStructure? materials, LayerStack? stack)
+    internal StructureDefinition(string name, string? description, UnitCell cell, string?[] labels, string sourceName, BuiltStructure? materials, LayerStack? stack, Energy stackBias)
     {
         Name = name;
         Description = description;
@@ -22,6 +23,7 @@ public sealed class StructureDefinition
         SourceName = sourceName;
         Materials = materials;
         Stack = stack;
+        StackBias = stackBias;
     }
 
     /// <summary>
@@ -29,6 +31,13 @@ public sealed class StructureDefinition
     /// or null when the file describes only the infinite crystal.
     /// </summary>
     public LayerStack? Stack { get; }
+
+    /// <summary>
+    /// The bias eU across <see cref="Stack"/> (the stack's <c>bias</c> field; positive: the right lead's band edge
+    /// lies lower), for <see cref="StackTransmission.Create(LayerStack, Energy)"/>; zero when the file gives none or
+    /// has no stack. A non-zero value has been checked to be allowed for the stack.
+    /// </summary>
+    public Energy StackBias { get; }
 
     /// <summary>
     /// For a cell of material layers: the structure built from the material table, with its validity

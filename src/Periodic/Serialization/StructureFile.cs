@@ -174,18 +174,23 @@ public static partial class StructureFile
             {
                 throw Error(array, "cell", e.Message, e);
             }
-            return new StructureDefinition(name, description, cell, labels, sourceName, null, ReadStack(fields, cell));
+            var (stack, bias) = ReadStack(fields, cell);
+            return new StructureDefinition(name, description, cell, labels, sourceName, null, stack, bias);
         }
 
-        /// <summary>The optional finite stack: <c>"stack": {"periods": N, "leads": {...}}</c> or separate leftLead/rightLead.</summary>
-        private LayerStack? ReadStack(Dictionary<string, JsonTreeProperty> fields, UnitCell cell)
+        /// <summary>
+        /// The optional finite stack: <c>"stack": {"periods": N, "leads": {...}, "bias": eU}</c> or separate leftLead/rightLead.
+        /// A non-zero bias is checked against what a stack under bias allows (parabolic layers and deltas, at most
+        /// <see cref="StackTransmission.MaxBiasedElements"/> elements) here, so the error names the field.
+        /// </summary>
+        private (LayerStack? Stack, Energy Bias) ReadStack(Dictionary<string, JsonTreeProperty> fields, UnitCell cell)
         {
             if (!fields.TryGetValue("stack", out var property))
             {
-                return null;
+                return (null, default);
             }
             var obj = ExpectObject(property.Value, "stack");
-            var stackFields = Fields(obj, "stack", ["periods", "leads", "leftLead", "rightLead"]);
+            var stackFields = Fields(obj, "stack", ["periods", "leads", "leftLead", "rightLead", "bias"]);
             var periodsNode = Required(stackFields, obj, "stack", "periods");
             if (periodsNode is not JsonTreeNumber { Value: var periods } || periods != Math.Floor(periods) || periods < 1 || periods > 1_000_000)
             {
@@ -199,7 +204,17 @@ public static partial class StructureFile
             var fallback = Lead.Create(first.Potential, first.Mass);
             var left = both is not null ? ReadLead(both.Value, "stack.leads") : stackFields.TryGetValue("leftLead", out var l) ? ReadLead(l.Value, "stack.leftLead") : fallback;
             var right = both is not null ? left : stackFields.TryGetValue("rightLead", out var r) ? ReadLead(r.Value, "stack.rightLead") : fallback;
-            return Apply(obj, "stack", () => LayerStack.Periodic(left, cell, (int)periods, right));
+            var stack = Apply(obj, "stack", () => LayerStack.Periodic(left, cell, (int)periods, right));
+            var bias = Energy.FromElectronVolts(0);
+            if (stackFields.TryGetValue("bias", out var b))
+            {
+                bias = Energy.FromElectronVolts(ReadQuantity(b.Value, "stack.bias", EnergyUnits, "eV", "eV, meV"));
+                if (bias.ElectronVolts != 0)
+                {
+                    Apply(b.Value, "stack.bias", () => StackTransmission.Create(stack, bias));
+                }
+            }
+            return (stack, bias);
         }
 
         private Lead ReadLead(JsonTreeNode node, string path)
@@ -294,7 +309,8 @@ public static partial class StructureFile
                 recipe = recipe.Add(layer);
             }
             var built = Apply(array, "cell", recipe.Build);
-            return new StructureDefinition(name, description, built.Cell, labels, sourceName, built, ReadStack(fields, built.Cell));
+            var (stack, bias) = ReadStack(fields, built.Cell);
+            return new StructureDefinition(name, description, built.Cell, labels, sourceName, built, stack, bias);
         }
 
         private Material ReadMaterial(JsonTreeNode node, string path)

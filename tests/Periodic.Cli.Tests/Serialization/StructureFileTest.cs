@@ -172,6 +172,44 @@ public sealed class StructureFileStackTest
             """{"name": "s", "cell": [{"width": 4, "potential": 0, "mass": 0.067}], "stack": """ + stack + "}", "s.json"));
         Assert.Equal(field, e.Field);
     }
+
+    [Fact]
+    public void Parse_StackBias_ReadsMilliElectronVoltsAndDefaultsToZero()
+    {
+        var biased = StructureFile.Parse("""
+            {"name": "s", "cell": [{"width": 4, "potential": 0, "mass": 0.067}, {"width": 1.5, "potential": 0.3, "mass": 0.092}],
+             "stack": {"periods": 3, "bias": "-120 meV"}}
+            """, "s.json");
+        Assert.Equal(-0.12, biased.StackBias.ElectronVolts, 1e-17); // 120 meV = 0.12 eV, one rounding
+        var unbiased = StructureFile.Parse("""{"name": "s", "cell": [{"width": 4, "potential": 0, "mass": 0.067}], "stack": {"periods": 3}}""", "s.json");
+        Assert.Equal(0.0, unbiased.StackBias.ElectronVolts);
+        Assert.Equal(0.0, StructureFile.Parse("""{"name": "s", "cell": [{"width": 4, "potential": 0, "mass": 0.067}]}""", "s.json").StackBias.ElectronVolts);
+    }
+
+    [Theory]
+    [InlineData("""{"periods": 3, "bias": "0.1 V"}""", "unknown unit")]
+    [InlineData("""{"periods": 3, "bias": "0.1"}""", "needs a unit")]
+    [InlineData("""{"periods": 3, "bias": true}""", "must be a number")]
+    // 200000 elements written out under bias: more than StackTransmission.MaxBiasedElements (1e5).
+    [InlineData("""{"periods": 100000, "bias": 0.1}""", "100000")]
+    public void Parse_BadStackBias_NamesTheFieldAndTheRule(string stack, string problem)
+    {
+        var e = Assert.Throws<StructureFileException>(() => StructureFile.Parse(
+            """{"name": "s", "cell": [{"width": 4, "potential": 0, "mass": 0.067}, {"width": 1.5, "potential": 0.3, "mass": 0.092}], "stack": """ + stack + "}", "s.json"));
+        Assert.Equal("stack.bias", e.Field);
+        Assert.Contains(problem, e.Problem, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void Parse_StackBias_ZeroIsAllowedOnAnyStack()
+    {
+        // A zero bias is the unbiased calculation: no element limit applies (1e6 periods, 2e6 elements).
+        var s = StructureFile.Parse("""
+            {"name": "s", "cell": [{"width": 4, "potential": 0, "mass": 0.067}, {"width": 1.5, "potential": 0.3, "mass": 0.092}],
+             "stack": {"periods": 1000000, "bias": "0 meV"}}
+            """, "s.json");
+        Assert.Equal(0.0, s.StackBias.ElectronVolts);
+    }
 }
 
 public sealed class StructureFileSmoothTest

@@ -1,0 +1,209 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.CommandLine;
+using System.Globalization;
+using Periodic.Cli.Output;
+using Periodic.Serialization;
+using Periodic.Stacks;
+
+namespace Periodic.Cli.Commands;
+
+/// <summary>
+/// <c>current FILE --bias … --temperature K --fermi-level E</c>: the Tsu–Esaki current density of the file's stack at
+/// each bias, with the quadrature's error estimate and convergence per row.
+/// </summary>
+internal static class CurrentCommand
+{
+    private const int MaxBiases = 10_000;
+
+    // The range of the material table (materials.md); far above it the Fermi tails reach thousands of eV and the
+    // integral under bias runs for hours without telling the user anything useful.
+    private const double MaxTemperatureKelvin = 1000;
+
+    public static Command Create()
+    {
+        var file = Common.FileArgument();
+        var biases = new Option<string?>("--bias") { Description = "Comma-separated list of biases eU across the stack, eV (positive lowers the right lead), instead of --bias-from/--bias-to/--bias-points." };
+        var from = Common.NumberOption("--bias-from", "eV", "0", "First bias of an evenly spaced range, eV.");
+        var to = Common.NumberOption("--bias-to", "eV", "0.3", "Last bias of the range, eV.");
+        var points = new Option<int?>("--bias-points") { Description = "Number of biases in the range (2 to 10,000), ends included." };
+        var temperature = Common.NumberOption("--temperature", "K", "77", "Temperature of both contacts, K, above 0 and at most 1000 (default: the file's temperature for a cell of material layers).");
+        var fermi = Common.NumberOption("--fermi-level", "eV", "0.02", "Fermi level of the left contact, eV, on the scale of the file's potentials (the right contact's is this minus eU).");
+        var periods = new Option<int?>("--periods", "-N") { Description = "Number of unit cells in the stack (1 to 1,000,000; under a non-zero bias at most 100,000 elements in all); default: the file's stack.periods." };
+        var leadPotential = new Option<double?>("--lead-potential") { Description = "Potential of both leads, eV (default: the file's stack, else the first layer's)." };
+        var leadMass = new Option<double?>("--lead-mass") { Description = "Effective mass in both leads, m0 (default: the file's stack, else the first layer's)." };
+        var output = new Option<string?>("--out", "-o") { Description = "Write to this file (atomically) instead of stdout." };
+        var json = Common.JsonOption();
+        var csv = Common.CsvOption();
+        var command = new Command("current", "Current density through the file's stack at each bias (Tsu-Esaki: coherent transport, uniform field, no space charge).");
+        command.Arguments.Add(file);
+        foreach (var option in new Option[] { biases, from, to, points, temperature, fermi, periods, leadPotential, leadMass, output, json, csv })
+        {
+            command.Options.Add(option);
+        }
+        command.SetAction(result =>
+        {
+            var format = Common.Format(result, json, csv);
+            var biasList = ReadBiases(result.GetValue(biases), result.GetValue(from), result.GetValue(to), result.GetValue(points));
+            if (result.GetValue(periods) is { } count)
+            {
+                Common.CheckCount(count, "--periods", 1_000_000);
+            }
+            var potential = result.GetValue(leadPotential);
+            var mass = result.GetValue(leadMass);
+            if (potential is { } v && !double.IsFinite(v))
+            {
+                throw new UsageException("--lead-potential must be a finite energy in eV.");
+            }
+            if (mass is { } m && !(double.IsFinite(m) && m > 0))
+            {
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--lead-mass must be a positive mass in m0; got {m:R}."));
+            }
+            var mu = result.GetValue(fermi) ?? throw new UsageException("give --fermi-level E: the Fermi level of the left contact in eV, on the scale of the file's potentials.");
+            var t = result.GetValue(temperature);
+            if (t is { } given && !(given > 0 && given <= MaxTemperatureKelvin))
+            {
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                    $"--temperature must be above 0 K and at most {MaxTemperatureKelvin} K; got {given:R}."));
+            }
+            var structure = Common.Load(result.GetValue(file)!);
+            var kelvin = t ?? structure.Materials?.TemperatureKelvin
+                ?? throw new UsageException("give --temperature K (the structure file has no material temperature to take it from).");
+            if (!(kelvin > 0))
+            {
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                    $"the file's temperature {kelvin:R} K cannot be used for the current; give --temperature in K, above 0 and at most {MaxTemperatureKelvin}."));
+            }
+            var n = result.GetValue(periods) ?? structure.Stack?.Parts[0].Repetitions
+                ?? throw new UsageException("give --periods N (the structure file has no \"stack\" with periods).");
+            var stack = TransmissionCommand.BuildStack(structure, n, potential, mass);
+            var rows = Compute(stack, biasList, mu, kelvin);
+            Common.Emit(Render(structure, stack, n, mu, kelvin, rows, format), result.GetValue(output));
+            return 0;
+        });
+        return command;
+    }
+
+    public static double[] ReadBiases(string? list, double? from, double? to, int? points)
+    {
+        if (list is not null)
+        {
+            if (from is not null || to is not null || points is not null)
+            {
+                throw new UsageException("give either --bias or --bias-from/--bias-to/--bias-points, not both.");
+            }
+            var parts = list.Split(',', StringSplitOptions.TrimEntries);
+            if (parts.Length > MaxBiases)
+            {
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--bias: at most {MaxBiases} biases; got {parts.Length}."));
+            }
+            var values = new double[parts.Length];
+            for (var i = 0; i < parts.Length; i++)
+            {
+                if (!double.TryParse(parts[i], NumberStyles.Float, CultureInfo.InvariantCulture, out values[i]) || !double.IsFinite(values[i]))
+                {
+                    throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                        $"--bias: item {i + 1} \"{parts[i]}\" is not a finite number (biases eU in eV, separated by commas, e.g. --bias 0,0.05,0.1)."));
+                }
+                values[i] += 0.0; // -0 is written as 0
+            }
+            return values;
+        }
+        if (from is null || to is null || points is null)
+        {
+            throw new UsageException("give the biases: --bias u1,u2,... or --bias-from U --bias-to U --bias-points N (eV).");
+        }
+        if (points.Value < 2 || points.Value > MaxBiases)
+        {
+            throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--bias-points must be between 2 and {MaxBiases}; got {points.Value}."));
+        }
+        if (from.Value == to.Value)
+        {
+            throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--bias-to must differ from --bias-from; both are {from.Value:R} eV."));
+        }
+        var grid = new double[points.Value];
+        for (var i = 0; i < grid.Length; i++)
+        {
+            var s = (double)i / (grid.Length - 1);
+            grid[i] = (i == grid.Length - 1 ? to.Value : from.Value * (1 - s) + to.Value * s) + 0.0;
+        }
+        return grid;
+    }
+
+    public static CurrentDensityResult[] Compute(LayerStack stack, double[] biases, double fermiLevel, double kelvin)
+    {
+        var rows = new CurrentDensityResult[biases.Length];
+        using var progress = new Progress("current", biases.Length);
+        for (var i = 0; i < biases.Length; i++)
+        {
+            var transmission = TransmissionCommand.Compile(stack, biases[i], "--bias");
+            try
+            {
+                rows[i] = transmission.CurrentDensity(fermiLevel, kelvin);
+            }
+            catch (ArgumentOutOfRangeException e) when (e.ParamName == "temperatureKelvin")
+            {
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--temperature {kelvin:R} K is too high for this stack under bias: {Common.Describe(e)}"));
+            }
+            progress.Report(i + 1);
+        }
+        return rows;
+    }
+
+    public static string Render(StructureDefinition structure, LayerStack stack, int periods, double fermiLevel, double kelvin, CurrentDensityResult[] rows, OutputFormat format)
+    {
+        if (format == OutputFormat.Json)
+        {
+            return Common.Json(w =>
+            {
+                Common.StructureHeader(w, structure);
+                Common.Units(w, ("bias", "eV"), ("fermiLevel", "eV"), ("temperature", "K"), ("currentDensity", "A/m2"), ("currentDensityPerCm2", "A/cm2"),
+                    ("errorEstimate", "A/m2"), ("potential", "eV"), ("mass", "m0"), ("thickness", "nm"), ("period", "nm"));
+                w.WriteStartObject("stack");
+                w.WriteNumber("periods", periods);
+                w.WriteNumber("thickness", stack.ThicknessNanometres);
+                foreach (var (name, l) in new[] { ("leftLead", stack.LeftLead), ("rightLead", stack.RightLead) })
+                {
+                    w.WriteStartObject(name);
+                    w.WriteNumber("potential", l.PotentialElectronVolts);
+                    w.WriteNumber("mass", l.MassElectronMasses);
+                    w.WriteEndObject();
+                }
+                w.WriteEndObject();
+                w.WriteNumber("fermiLevel", fermiLevel);
+                w.WriteNumber("temperature", kelvin);
+                w.WriteString("model", "Tsu-Esaki; coherent transport, uniform field, no space charge or self-consistency");
+                w.WriteStartArray("points");
+                foreach (var r in rows)
+                {
+                    w.WriteStartObject();
+                    w.Number("bias", r.BiasElectronVolts);
+                    w.Number("currentDensity", r.AmperesPerSquareMetre);
+                    w.Number("currentDensityPerCm2", r.AmperesPerSquareCentimetre);
+                    w.Number("errorEstimate", r.ErrorEstimateAmperesPerSquareMetre);
+                    w.WriteBoolean("converged", r.IsConverged);
+                    w.WriteNumber("resonances", r.ResonanceCount);
+                    w.WriteNumber("evaluations", r.Evaluations);
+                    w.WriteEndObject();
+                }
+                w.WriteEndArray();
+            });
+        }
+        var table = new Table("bias (eV)", "J (A/cm2)", "error (A/cm2)", "converged", "resonances", "evaluations");
+        foreach (var r in rows)
+        {
+            table.Add(Table.Number(r.BiasElectronVolts, "G6"), Table.Number(r.AmperesPerSquareCentimetre, "G8"), Table.Number(r.ErrorEstimateAmperesPerSquareMetre * 1e-4, "G3"),
+                r.IsConverged ? "true" : "false", Table.Integer(r.ResonanceCount), Table.Integer(r.Evaluations));
+        }
+        if (format == OutputFormat.Csv)
+        {
+            return table.ToCsv();
+        }
+        var lead = stack.LeftLead;
+        var title = Common.TableTitle(structure) + string.Create(CultureInfo.InvariantCulture,
+            $"{periods} period(s), {stack.ThicknessNanometres:G6} nm, leads V = {lead.PotentialElectronVolts:G6} eV, m = {lead.MassElectronMasses:G6} m0; Fermi level {fermiLevel:G6} eV (left contact), T = {kelvin:G6} K\n")
+            + "Tsu-Esaki current, coherent, uniform field, no space charge or self-consistency: a design guide, check against measurement.\n";
+        return title + "\n" + table.ToText();
+    }
+}
