@@ -30,6 +30,7 @@ public sealed class StackTransmission
 
     private readonly CompiledPart[] _parts;
     private readonly BiasedElement[] _biased; // under bias: every element written out; empty at zero bias
+    private readonly PhaseGuide[] _guides; // under bias: the repeated cells and the energy shift of each copy
 
     // Distinct layer materials (potential, mass, mass slope) for choosing the reference impedance.
     private readonly double[] _potentials;
@@ -81,6 +82,7 @@ public sealed class StackTransmission
         _masses = materials.Select(m => m.M).ToArray();
         _slopes = materials.Select(m => m.Slope).ToArray();
         _biased = [];
+        _guides = [];
         LowestValidEnergyElectronVolts = lowest;
     }
 
@@ -93,13 +95,24 @@ public sealed class StackTransmission
         var field = drop / stack.ThicknessNanometres; // eV/nm; V(x) = V_layer − field·x
         _biased = new BiasedElement[stack.ElementCount];
         var materials = new List<(double V, double M)>();
+        var guides = new List<PhaseGuide>();
         var i = 0;
         double x = 0;
         foreach (var part in stack.PartSpan)
         {
             var elements = part.Cell is null ? [part.Element!] : part.Cell.Elements.ToArray();
+            var shifts = part.Cell is null || part.Repetitions == 1 ? null : new double[part.Repetitions];
+            if (shifts is not null)
+            {
+                guides.Add(new PhaseGuide(CellTransfer.Create(part.Cell!), shifts));
+            }
             for (var r = 0; r < part.Repetitions; r++)
             {
+                if (shifts is not null)
+                {
+                    // Copy r sees the cell's potential lowered by field·x at its middle: E there is E + field·x in the cell's terms.
+                    shifts[r] = field * (x + 0.5 * part.Cell!.Period.Nanometres);
+                }
                 foreach (var element in elements)
                 {
                     if (element is DeltaBarrier delta)
@@ -126,6 +139,7 @@ public sealed class StackTransmission
         _potentials = materials.Select(m => m.V).ToArray();
         _masses = materials.Select(m => m.M).ToArray();
         _slopes = new double[materials.Count];
+        _guides = [.. guides];
         LowestValidEnergyElectronVolts = double.NegativeInfinity;
     }
 
@@ -545,36 +559,55 @@ public sealed class StackTransmission
 
     private readonly record struct CompiledPart(CompiledElement[] Elements, int Repetitions, CellTransfer? Cell);
 
+    /// <summary>A repeated cell of a biased stack and, per copy, the energy shift field·x of the copy's middle.</summary>
+    private readonly record struct PhaseGuide(CellTransfer Cell, double[] Shifts);
+
     /// <summary>
     /// Σ over repeated parts of N·θ(E), θ the Bloch phase kd of the part's cell unfolded into the extended
     /// zone (band n: θ from (n − 1)π to nπ; constant in gaps), from the core's band-edge count. It rises by
     /// π between consecutive zeros of sin(N kd), i.e. between the transmission peaks a repeated cell makes.
     /// </summary>
+    /// <remarks>
+    /// Under bias the cells are no longer periodic; the guide is then the local version, Σ over the copies of each repeated
+    /// cell of θ(E + field·x), x the copy's middle: the count of local miniband states below E, which rises by about π per
+    /// resonance while the field changes the potential little across one period (a semiclassical count, used only to add
+    /// samples, never to remove them).
+    /// </remarks>
     internal double UnfoldedBlochPhase(double e)
     {
         double total = 0;
         foreach (var part in _parts)
         {
-            if (part.Cell is null)
+            if (part.Cell is not null)
             {
-                continue;
+                total += part.Repetitions * UnfoldedPhase(part.Cell, e);
             }
-            var edges = part.Cell.CountBandEdgesBelow(e);
-            double theta;
-            if ((edges & 1) == 0)
+        }
+        foreach (var guide in _guides)
+        {
+            foreach (var shift in guide.Shifts)
             {
-                theta = edges / 2 * Math.PI; // in the gap above band edges/2
+                total += UnfoldedPhase(guide.Cell, e + shift);
             }
-            else
-            {
-                var band = (edges + 1) / 2;
-                var kd = part.Cell.Dispersion(e).Wavevector.PhasePerPeriod; // in [0, π]
-                var within = (band & 1) == 1 ? kd : Math.PI - kd;
-                theta = (band - 1) * Math.PI + within;
-            }
-            total += part.Repetitions * theta;
         }
         return total;
+    }
+
+    private static double UnfoldedPhase(CellTransfer cell, double e)
+    {
+        if (!(e > cell.LowestValidEnergyElectronVolts))
+        {
+            return 0;
+        }
+        var edges = cell.CountBandEdgesBelow(e);
+        if ((edges & 1) == 0)
+        {
+            return edges / 2 * Math.PI; // in the gap above band edges/2
+        }
+        var band = (edges + 1) / 2;
+        var kd = cell.Dispersion(e).Wavevector.PhasePerPeriod; // in [0, π]
+        var within = (band & 1) == 1 ? kd : Math.PI - kd;
+        return (band - 1) * Math.PI + within;
     }
 
     private readonly record struct CompiledElement(CellTransfer? Layer, double DeltaJump)

@@ -255,6 +255,39 @@ public sealed class StackTransmissionBiasTest(ITestOutputHelper output)
     }
 
     [Fact]
+    public void FindResonances_SuperlatticeUnderSmallBias_FindsEveryPeak()
+    {
+        // 100 periods give 100 transmission peaks per miniband (Chebyshev form of M^N, Yeh ch. 6); at the bottom of the
+        // first miniband they are micro-electronvolts wide and closer together than a coarse scan step, so two of them in
+        // one step can cancel their turns of arg t. Under a tiny bias the local Bloch-phase guide must still split those
+        // steps. Reference, independent of the search: the maxima of T on a 20,000-point grid over the window (step
+        // 1e-7 eV; the peaks there are ≥ 1e-6 eV apart and at least 3e-7 eV wide, so the grid resolves each one).
+        var cell = UnitCell.Create(Slab(4, 0), Slab(2, 0.3));
+        var stack = LayerStack.Periodic(Ground, cell, 100, Ground);
+        var transmission = StackTransmission.Create(stack, Ev(1e-6));
+        const double lower = 0.0790, upper = 0.0810;
+        var found = transmission.FindResonances(lower, upper, ResonanceSearchOptions.Default with { ScanPoints = 20 });
+        var energies = new double[20_000];
+        for (var i = 0; i < energies.Length; i++)
+        {
+            energies[i] = lower + (upper - lower) * i / (energies.Length - 1.0);
+        }
+        var t = new double[energies.Length];
+        transmission.Transmissions(energies, t);
+        var maxima = 0;
+        for (var i = 1; i < t.Length - 1; i++)
+        {
+            if (t[i] > t[i - 1] && t[i] >= t[i + 1] && t[i] > 0.5)
+            {
+                maxima++;
+            }
+        }
+        output.WriteLine($"found {found.Resonances.Count} peaks, grid maxima {maxima}, {found.Evaluations} evaluations");
+        Assert.True(maxima >= 5, $"grid maxima {maxima}"); // the scenario really is dense
+        Assert.Equal(maxima, found.Resonances.Count(p => p.PeakTransmission > 0.5));
+    }
+
+    [Fact]
     public void Evaluate_AtTurningPoints_IsContinuous()
     {
         // Energies exactly at a layer's potential at an interface (z = 0 there) or with the turning point inside a
