@@ -19,7 +19,8 @@ internal static class CurrentCommand
 
     // The range of the material table (materials.md); far above it the Fermi tails reach thousands of eV and the
     // integral under bias runs for hours without telling the user anything useful.
-    private const double MaxTemperatureKelvin = 1000;
+    private const double MinTemperatureKelvin = StackTransmission.MinCurrentTemperatureKelvin;
+    private const double MaxTemperatureKelvin = StackTransmission.MaxCurrentTemperatureKelvin;
 
     public static Command Create()
     {
@@ -28,7 +29,7 @@ internal static class CurrentCommand
         var from = Common.NumberOption("--bias-from", "eV", "0", "First bias of an evenly spaced range, eV.");
         var to = Common.NumberOption("--bias-to", "eV", "0.3", "Last bias of the range, eV.");
         var points = new Option<int?>("--bias-points") { Description = "Number of biases in the range (2 to 10,000), ends included." };
-        var temperature = Common.NumberOption("--temperature", "K", "77", "Temperature of both contacts, K, above 0 and at most 1000 (default: the file's temperature for a cell of material layers).");
+        var temperature = Common.NumberOption("--temperature", "K", "77", "Temperature of both contacts, K, from 0.1 to 1000 (default: the file's temperature for a cell of material layers).");
         var fermi = Common.NumberOption("--fermi-level", "eV", "0.02", "Fermi level of the left contact, eV, on the scale of the file's potentials (the right contact's is this minus eU).");
         var periods = new Option<int?>("--periods", "-N") { Description = "Number of unit cells in the stack (1 to 1,000,000; under a non-zero bias at most 100,000 elements in all); default: the file's stack.periods." };
         var leadPotential = new Option<double?>("--lead-potential") { Description = "Potential of both leads, eV (default: the file's stack, else the first layer's)." };
@@ -62,18 +63,18 @@ internal static class CurrentCommand
             }
             var mu = result.GetValue(fermi) ?? throw new UsageException("give --fermi-level E: the Fermi level of the left contact in eV, on the scale of the file's potentials.");
             var t = result.GetValue(temperature);
-            if (t is { } given && !(given > 0 && given <= MaxTemperatureKelvin))
+            if (t is { } given && !(given >= MinTemperatureKelvin && given <= MaxTemperatureKelvin))
             {
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture,
-                    $"--temperature must be above 0 K and at most {MaxTemperatureKelvin} K; got {given:R}."));
+                    $"--temperature must be between {MinTemperatureKelvin} K and {MaxTemperatureKelvin} K; got {given:R}."));
             }
             var structure = Common.Load(result.GetValue(file)!);
             var kelvin = t ?? structure.Materials?.TemperatureKelvin
                 ?? throw new UsageException("give --temperature K (the structure file has no material temperature to take it from).");
-            if (!(kelvin > 0))
+            if (!(kelvin >= MinTemperatureKelvin && kelvin <= MaxTemperatureKelvin))
             {
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture,
-                    $"the file's temperature {kelvin:R} K cannot be used for the current; give --temperature in K, above 0 and at most {MaxTemperatureKelvin}."));
+                    $"the file's temperature {kelvin:R} K cannot be used for the current; give --temperature in K, between {MinTemperatureKelvin} and {MaxTemperatureKelvin}."));
             }
             var n = result.GetValue(periods) ?? structure.Stack?.Parts[0].Repetitions
                 ?? throw new UsageException("give --periods N (the structure file has no \"stack\" with periods).");
@@ -142,9 +143,9 @@ internal static class CurrentCommand
             {
                 rows[i] = transmission.CurrentDensity(fermiLevel, kelvin);
             }
-            catch (ArgumentOutOfRangeException e) when (e.ParamName == "temperatureKelvin")
+            catch (ArgumentOutOfRangeException e) when (e.ParamName == "fermiLevelElectronVolts")
             {
-                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--temperature {kelvin:R} K is too high for this stack under bias: {Common.Describe(e)}"));
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--fermi-level {fermiLevel:R} eV cannot be used at --bias {biases[i]:R} eV: {Common.Describe(e)}"));
             }
             progress.Report(i + 1);
         }

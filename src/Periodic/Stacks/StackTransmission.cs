@@ -387,22 +387,41 @@ public sealed class StackTransmission
     /// <para>Zero bias gives J = 0 exactly (the supply function vanishes).</para>
     /// </remarks>
     /// <param name="fermiLevelElectronVolts">Fermi level μ of the left lead, eV, on the same scale as the energies.</param>
-    /// <param name="temperatureKelvin">Temperature of both leads, K; positive and finite.</param>
+    /// <param name="temperatureKelvin">Temperature of both leads, K; from <see cref="MinCurrentTemperatureKelvin"/> to <see cref="MaxCurrentTemperatureKelvin"/>.</param>
     /// <param name="options">Tolerances and budget (null: <see cref="CurrentDensityOptions.Default"/>).</param>
-    /// <exception cref="ArgumentOutOfRangeException">The Fermi level is not finite, the temperature not positive and finite, or an option is out of range; or the integral would reach energies absurdly far from the layer potentials (see <see cref="Evaluate"/>; a temperature of millions of kelvin).</exception>
+    /// <exception cref="ArgumentOutOfRangeException">The Fermi level is not finite or puts the higher Fermi level more than
+    /// <see cref="MaxFermiLevelAboveEdgeElectronVolts"/> above the higher lead edge, the temperature is outside
+    /// [<see cref="MinCurrentTemperatureKelvin"/>, <see cref="MaxCurrentTemperatureKelvin"/>], or an option is out of range; or
+    /// the integral would reach energies too far from the layer potentials for the biased propagation (see <see cref="Evaluate"/>).</exception>
     public CurrentDensityResult CurrentDensity(double fermiLevelElectronVolts, double temperatureKelvin, CurrentDensityOptions? options = null)
     {
         Preconditions.CheckFinite(fermiLevelElectronVolts);
-        Preconditions.CheckPositiveFinite(temperatureKelvin);
+        Preconditions.CheckRange(temperatureKelvin, MinCurrentTemperatureKelvin, MaxCurrentTemperatureKelvin);
         options ??= CurrentDensityOptions.Default;
         options.Validate(nameof(options));
+        var edge = Math.Max(Stack.LeftLead.PotentialElectronVolts, RightLead.PotentialElectronVolts);
+        var highestFermiLevel = Math.Max(fermiLevelElectronVolts, fermiLevelElectronVolts - Bias.ElectronVolts);
+        if (highestFermiLevel - edge > MaxFermiLevelAboveEdgeElectronVolts)
+        {
+            throw new ArgumentOutOfRangeException(nameof(fermiLevelElectronVolts), fermiLevelElectronVolts,
+                string.Create(CultureInfo.InvariantCulture,
+                    $"fermiLevelElectronVolts = {Preconditions.Format(fermiLevelElectronVolts)} eV puts the higher Fermi level (μ or μ − eU = {Preconditions.Format(highestFermiLevel)} eV) more than {MaxFermiLevelAboveEdgeElectronVolts} eV above the higher lead band edge ({Preconditions.Format(edge)} eV); the energy window of the integral, and its cost, grow with that distance."));
+        }
         // The integral reaches at most 700 k_BT above the higher Fermi level (and starts at the higher lead edge).
         var kT = PhysicalConstants.BoltzmannElectronVoltsPerKelvin * temperatureKelvin;
-        var top = Math.Max(Math.Max(Stack.LeftLead.PotentialElectronVolts, RightLead.PotentialElectronVolts),
-            Math.Max(fermiLevelElectronVolts, fermiLevelElectronVolts - Bias.ElectronVolts)) + 700 * kT;
-        CheckBiasedCost(top, "the top of the energy integral (Fermi level + 700 kT)", nameof(temperatureKelvin));
+        CheckBiasedCost(Math.Max(edge, highestFermiLevel) + 740 * kT, "the top of the energy integral (the higher Fermi level or lead edge + 740 kT)", nameof(fermiLevelElectronVolts));
         return TsuEsakiIntegrator.Compute(this, fermiLevelElectronVolts, temperatureKelvin, options);
     }
+
+    /// <summary>Lowest temperature <see cref="CurrentDensity"/> accepts, K: below it k_BT approaches the resolution of the energies.</summary>
+    public const double MinCurrentTemperatureKelvin = 0.1;
+
+    /// <summary>Highest temperature <see cref="CurrentDensity"/> accepts, K: the integral's window grows like 40 k_BT, and no
+    /// heterostructure survives far above it.</summary>
+    public const double MaxCurrentTemperatureKelvin = 1000;
+
+    /// <summary>How far the higher Fermi level may lie above the higher lead band edge in <see cref="CurrentDensity"/>, eV.</summary>
+    public const double MaxFermiLevelAboveEdgeElectronVolts = 20;
 
     internal void CheckEnergy(double energyElectronVolts, string name, string? paramName = null)
     {

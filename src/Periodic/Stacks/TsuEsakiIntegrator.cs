@@ -67,7 +67,10 @@ internal static class TsuEsakiIntegrator
         var converged = true;
         while (true)
         {
-            AddWindow(transmission, windowLower, upper, mu, bias, kT, options, intervals, ref evaluations, ref resonances);
+            // Resonance breakpoints only where the supply function matters: the first window reaches 40 k_BT above the
+            // higher Fermi level, beyond which the integrand is below e^(−40) of its scale and plain bisection suffices
+            // (this also bounds the cost of the peak search by that window).
+            AddWindow(transmission, windowLower, upper, mu, bias, kT, options, searchResonances: windowLower == lower, intervals, ref evaluations, ref resonances);
             converged = Refine(transmission, mu, bias, kT, options, intervals, ref evaluations);
             var total = Sum(intervals, out _);
             // |S(E)| ≤ e^((μ_max − E)/k_BT) and T ≤ 1, so the tail beyond the upper limit is at most k_BT·e^((μ_max − upper)/k_BT).
@@ -77,8 +80,13 @@ internal static class TsuEsakiIntegrator
             {
                 break;
             }
+            var next = upper + TailStepThermalEnergies * kT;
+            if (!(next > upper))
+            {
+                break; // 40 k_BT is below the resolution of the energies: the tail bound stands in the error
+            }
             windowLower = upper;
-            upper += TailStepThermalEnergies * kT;
+            upper = next;
         }
         var integral = Sum(intervals, out var error);
         error += tailBound;
@@ -100,10 +108,10 @@ internal static class TsuEsakiIntegrator
 
     /// <summary>Splits [a, b] at the Fermi levels and the transmission peaks (±Γ, ±4Γ, ±16Γ) and integrates each piece once.</summary>
     private static void AddWindow(StackTransmission transmission, double a, double b, double mu, double bias, double kT,
-        CurrentDensityOptions options, List<Interval> intervals, ref int evaluations, ref int resonances)
+        CurrentDensityOptions options, bool searchResonances, List<Interval> intervals, ref int evaluations, ref int resonances)
     {
         var points = new List<double> { a, b, mu, mu - bias };
-        if (options.UseResonanceBreakpoints)
+        if (options.UseResonanceBreakpoints && searchResonances)
         {
             foreach (var peak in transmission.FindResonances(a, b, options.ResonanceSearch).Resonances)
             {
@@ -194,11 +202,40 @@ internal static class TsuEsakiIntegrator
     /// <summary>T(E) times the supply function ln[(1 + e^x)/(1 + e^(x − u))], x = (μ − E)/k_BT, u = eU/k_BT.</summary>
     internal static double Integrand(StackTransmission transmission, double e, double mu, double bias, double kT)
     {
-        var x = (mu - e) / kT;
-        var supply = Softplus(x) - Softplus(x - bias / kT);
+        var supply = Supply((mu - e) / kT, bias / kT);
         return supply == 0 ? 0 : transmission.EvaluateCore(e).Transmission * supply;
     }
 
+    /// <summary>
+    /// ln[(1 + e^x)/(1 + e^(x − u))]. For |u| ≤ 1 as log1p(expm1(u)·σ(x − u)), σ the logistic function (the ratio
+    /// is 1 + (e^u − 1)e^(x−u)/(1 + e^(x−u))), which keeps full relative accuracy as u → 0 where the difference of two
+    /// softplus terms would lose log₂(1/|u|) bits (linear response); beyond, the difference, which has no cancellation.
+    /// </summary>
+    internal static double Supply(double x, double u)
+    {
+        if (Math.Abs(u) > 1)
+        {
+            return Softplus(x) - Softplus(x - u);
+        }
+        var y = x - u;
+        var logistic = y >= 0 ? 1 / (1 + Math.Exp(-y)) : Math.Exp(y) / (1 + Math.Exp(y));
+        return LogOnePlus(ExpMinusOne(u) * logistic);
+    }
+
+    /// <summary>e^u − 1 to full relative accuracy for |u| ≤ 1: 2t/(1 − t) with t = tanh(u/2) (exact identity).</summary>
+    private static double ExpMinusOne(double u)
+    {
+        var t = Math.Tanh(0.5 * u);
+        return 2 * t / (1 - t);
+    }
+
+    /// <summary>ln(1 + z) to full relative accuracy for z &gt; −1 (D. Goldberg, ACM Comput. Surv. 23, 5 (1991), Thm 4).</summary>
+    private static double LogOnePlus(double z)
+    {
+        var w = 1 + z;
+        return w == 1 ? z : Math.Log(w) * z / (w - 1);
+    }
+
     /// <summary>ln(1 + e^x) without overflow.</summary>
-    internal static double Softplus(double x) => x > 0 ? x + double.LogP1(Math.Exp(-x)) : double.LogP1(Math.Exp(x));
+    internal static double Softplus(double x) => x > 0 ? x + LogOnePlus(Math.Exp(-x)) : LogOnePlus(Math.Exp(x));
 }

@@ -144,7 +144,7 @@ public sealed class CurrentCommandTest
     }
 
     [Theory]
-    [InlineData(new[] { "--bias", "0.1", "--temperature", "-5", "--fermi-level", "0.02" }, new[] { "--temperature", "-5", "above 0 K and at most 1000 K" })]
+    [InlineData(new[] { "--bias", "0.1", "--temperature", "-5", "--fermi-level", "0.02" }, new[] { "--temperature", "-5", "between 0.1 K and 1000 K" })]
     [InlineData(new[] { "--bias", "0.1", "--temperature", "warm", "--fermi-level", "0.02" }, new[] { "--temperature", "\"warm\"", "finite number in K" })]
     [InlineData(new[] { "--bias", "0.1,high", "--temperature", "77", "--fermi-level", "0.02" }, new[] { "--bias", "\"high\"", "finite number", "eV" })]
     [InlineData(new[] { "--bias", "0.1", "--temperature", "77", "--fermi-level", "x" }, new[] { "--fermi-level", "\"x\"", "eV" })]

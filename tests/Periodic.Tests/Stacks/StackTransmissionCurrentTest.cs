@@ -47,6 +47,49 @@ public sealed class StackTransmissionCurrentTest(ITestOutputHelper output)
         return Charge * mass * Boltzmann * temperature / (2 * Math.PI * Math.PI * Hbar * Hbar * Hbar) * Charge * integral;
     }
 
+    /// <summary>
+    /// The linear-response limit of the same integral, J/U as U → 0: d/du of ln[(1 + e^x)/(1 + e^(x−u))] at u = 0 is the
+    /// Fermi function 1/(1 + e^(−x)) (differentiate the Tsu–Esaki supply function), so J/U → (e m k_BT/(2π²ħ³))·(1/k_BT)
+    /// ∫ T(E) f(E) dE. T(E) from the library at the given (tiny) bias; quadrature as above.
+    /// </summary>
+    private static double ReferenceConductance(StackTransmission transmission, double mu, double temperature, int pieces)
+    {
+        var kT = Boltzmann * temperature / Charge;
+        var a = Math.Max(transmission.Stack.LeftLead.PotentialElectronVolts, transmission.RightLead.PotentialElectronVolts);
+        var b = Math.Max(a, mu) + 60 * kT;
+        double F(double s) => 2 * s * transmission.Evaluate(a + s * s).Transmission / (1 + Math.Exp((a + s * s - mu) / kT));
+        var top = Math.Sqrt(b - a);
+        double integral = 0;
+        for (var i = 0; i < pieces; i++)
+        {
+            integral += GaussLegendreRule.Integrate(F, top * i / pieces, top * (i + 1) / pieces, 8);
+        }
+        var mass = transmission.Stack.LeftLead.MassElectronMasses * ElectronMass;
+        return Charge * mass * Boltzmann * temperature / (2 * Math.PI * Math.PI * Hbar * Hbar * Hbar) * Charge * integral / kT;
+    }
+
+    [Theory]
+    [InlineData(1e-9)]
+    [InlineData(1e-12)]
+    public void CurrentDensity_TinyBias_ApproachesTheLinearResponse(double bias)
+    {
+        // At u = eU/k_BT ~ 1e-10 a difference of two ln(1 + e^x) terms would keep only ~6 digits; the supply function
+        // must keep full relative accuracy, so the integral converges to its 1e-6 target with a modest budget. Tolerance:
+        // the library's error estimate (≤ 1e-6 relative) plus 1e-7 relative for the O(u) and O(U) differences from the
+        // linear limit (u/2 ≤ 2e-8 here) and the reference quadrature (checked against half the pieces).
+        var stack = LayerStack.Create(Ground, Ground, Slab(4, 0.25));
+        var transmission = StackTransmission.Create(stack, Energy.FromElectronVolts(bias));
+        var result = transmission.CurrentDensity(0.05, 300);
+        var conductance = ReferenceConductance(transmission, 0.05, 300, 400);
+        var coarse = ReferenceConductance(transmission, 0.05, 300, 200);
+        var perBias = result.AmperesPerSquareMetre / bias;
+        output.WriteLine($"{result}; J/U {perBias:G12}, linear response {conductance:G12}, relative {Math.Abs(perBias / conductance - 1):E3}");
+        Assert.True(Math.Abs(coarse / conductance - 1) < 1e-9);
+        Assert.True(result.IsConverged, result.ToString());
+        Assert.True(Math.Abs(perBias - conductance) <= result.ErrorEstimateAmperesPerSquareMetre / bias + 1e-7 * conductance,
+            $"{perBias} vs {conductance}");
+    }
+
     [Fact]
     public void Prefactor_OverTemperature_IsTheRichardsonConstant()
     {
@@ -88,6 +131,21 @@ public sealed class StackTransmissionCurrentTest(ITestOutputHelper output)
         Assert.True(error <= result.ErrorEstimateAmperesPerSquareMetre + 1e-9 * Math.Abs(reference), $"{error}");
         Assert.True(result.ErrorEstimateAmperesPerSquareMetre <= 1e-6 * Math.Abs(result.AmperesPerSquareMetre));
         Assert.Equal(result.AmperesPerSquareMetre * 1e-4, result.AmperesPerSquareCentimetre);
+    }
+
+    [Fact]
+    public void CurrentDensity_UnequalLeadMasses_UsesTheLeftLeadMass()
+    {
+        // The transverse motion is free with the emitting (left) lead's mass (the model stated in the XML docs and
+        // stacks.md): with a right lead 1.34 times heavier the result must match the reference built with m_L (one built
+        // with m_R would be 34 % higher). Tolerance as in the single-barrier check.
+        var heavy = Lead.Create(default, EffectiveMass.FromElectronMasses(0.09));
+        var transmission = StackTransmission.Create(LayerStack.Create(Ground, heavy, Slab(4, 0.25)), Energy.FromElectronVolts(0.1));
+        var result = transmission.CurrentDensity(0.05, 300);
+        var reference = ReferenceAmperesPerSquareMetre(transmission, 0.05, 300, 400);
+        var error = Math.Abs(result.AmperesPerSquareMetre - reference);
+        Assert.True(result.IsConverged);
+        Assert.True(error <= result.ErrorEstimateAmperesPerSquareMetre + 1e-9 * Math.Abs(reference), $"{error}");
     }
 
     [Fact]
@@ -133,6 +191,14 @@ public sealed class StackTransmissionCurrentTest(ITestOutputHelper output)
         Assert.Equal("options", options.ParamName);
         Assert.Contains("RelativeTolerance", options.Message, StringComparison.Ordinal);
         Assert.Equal("options", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(0.05, 300, new CurrentDensityOptions { MaxEvaluations = 3 })).ParamName);
+        // Allowed ranges (their limits are public constants): temperature, and the higher Fermi level above the lead edge.
+        Assert.Equal("temperatureKelvin", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(0.05, 0.05)).ParamName);
+        var hot = Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(0.05, 1e9));
+        Assert.Equal("temperatureKelvin", hot.ParamName);
+        Assert.Contains("between 0.1 and 1000", hot.Message, StringComparison.Ordinal);
+        var high = Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(1e9, 300));
+        Assert.Equal("fermiLevelElectronVolts", high.ParamName);
+        Assert.Contains("more than 20 eV above the higher lead band edge", high.Message, StringComparison.Ordinal);
     }
 
     [Fact]
