@@ -306,9 +306,15 @@ public sealed class StackTransmissionBiasTest(ITestOutputHelper output)
         }
         output.WriteLine($"worst second difference {worst:E3}");
         Assert.True(worst < 1e-12, $"{worst}");
-        // At the right lead's shifted edge (−U) the channel closes: T = 0 there, R = 1 (same rule as at zero bias).
-        Assert.Equal(LeadChannels.LeftLeadClosed, transmission.Evaluate(-0.1).Channels);
+        // The right lead's edge moves to −U: under +U it is open wherever the left one is (below the left edge the
+        // left lead is closed, the same rule as at zero bias); under −U it lies at +|U|, and between the two edges the
+        // wave is totally reflected: T = 0, |r| = 1 (current conservation with no transmitted current).
         Assert.Equal(-0.1, transmission.RightLead.PotentialElectronVolts, 15);
+        Assert.Equal(LeadChannels.LeftLeadClosed, transmission.Evaluate(-0.05).Channels);
+        var reversed = StackTransmission.Create(stack, Ev(-0.1)).Evaluate(0.05);
+        Assert.Equal(LeadChannels.RightLeadClosed, reversed.Channels);
+        Assert.Equal(0.0, reversed.Transmission);
+        Assert.Equal(1.0, reversed.ReflectionAmplitude.Magnitude, 1e-12); // |r| = 1 to rounding of the product
     }
 
     [Fact]
