@@ -35,7 +35,8 @@ internal static class ResonanceFinder
             transmission.EvaluateCore(x + step).LogTransmission - transmission.EvaluateCore(x - step).LogTransmission;
     }
 
-    internal static ResonanceSpectrum Find(StackTransmission transmission, double lower, double upper, ResonanceSearchOptions options)
+    internal static ResonanceSpectrum Find(StackTransmission transmission, double lower, double upper, ResonanceSearchOptions options,
+        CancellationToken cancellationToken = default)
     {
         var edge = Math.Max(transmission.Stack.LeftLead.PotentialElectronVolts, transmission.RightLead.PotentialElectronVolts);
         edge = Math.Max(edge, transmission.LowestValidEnergyElectronVolts);
@@ -52,6 +53,7 @@ internal static class ResonanceFinder
         var slopeStep = 1e-6 * (upper - lo) / (n - 1);
         Sample Eval(double e)
         {
+            cancellationToken.ThrowIfCancellationRequested();
             evaluations += 2;
             var r = transmission.EvaluateCore(e);
             var ahead = transmission.EvaluateCore(e + slopeStep);

@@ -350,7 +350,10 @@ public sealed class StackTransmission
     /// to the higher lead band edge when it starts below it.
     /// </remarks>
     /// <exception cref="ArgumentOutOfRangeException">A bound is not finite, or <paramref name="upperElectronVolts"/> is not above <paramref name="lowerElectronVolts"/>, or an option is out of range, or (under bias) a bound is absurdly far from the layer potentials (see <see cref="Evaluate"/>).</exception>
-    public ResonanceSpectrum FindResonances(double lowerElectronVolts, double upperElectronVolts, ResonanceSearchOptions? options = null)
+    /// <exception cref="OperationCanceledException"><paramref name="cancellationToken"/> was cancelled (checked between transmission
+    /// evaluations; under bias each costs O(elements)); nothing is returned.</exception>
+    public ResonanceSpectrum FindResonances(double lowerElectronVolts, double upperElectronVolts, ResonanceSearchOptions? options = null,
+        CancellationToken cancellationToken = default)
     {
         Preconditions.CheckFinite(lowerElectronVolts);
         Preconditions.CheckFinite(upperElectronVolts);
@@ -364,7 +367,7 @@ public sealed class StackTransmission
         // The cost of a biased layer grows with |E − V|, largest at an end of the window.
         CheckBiasedCost(lowerElectronVolts, nameof(lowerElectronVolts), nameof(lowerElectronVolts));
         CheckBiasedCost(upperElectronVolts, nameof(upperElectronVolts), nameof(upperElectronVolts));
-        return ResonanceFinder.Find(this, lowerElectronVolts, upperElectronVolts, options);
+        return ResonanceFinder.Find(this, lowerElectronVolts, upperElectronVolts, options, cancellationToken);
     }
 
     /// <summary>
@@ -389,11 +392,15 @@ public sealed class StackTransmission
     /// <param name="fermiLevelElectronVolts">Fermi level μ of the left lead, eV, on the same scale as the energies.</param>
     /// <param name="temperatureKelvin">Temperature of both leads, K; from <see cref="MinCurrentTemperatureKelvin"/> to <see cref="MaxCurrentTemperatureKelvin"/>.</param>
     /// <param name="options">Tolerances and budget (null: <see cref="CurrentDensityOptions.Default"/>).</param>
+    /// <param name="cancellationToken">Cancels the integral between quadrature rules.</param>
     /// <exception cref="ArgumentOutOfRangeException">The Fermi level is not finite or puts the higher Fermi level more than
     /// <see cref="MaxFermiLevelAboveEdgeElectronVolts"/> above the higher lead edge, the temperature is outside
     /// [<see cref="MinCurrentTemperatureKelvin"/>, <see cref="MaxCurrentTemperatureKelvin"/>], or an option is out of range; or
     /// the integral would reach energies too far from the layer potentials for the biased propagation (see <see cref="Evaluate"/>).</exception>
-    public CurrentDensityResult CurrentDensity(double fermiLevelElectronVolts, double temperatureKelvin, CurrentDensityOptions? options = null)
+    /// <exception cref="OperationCanceledException"><paramref name="cancellationToken"/> was cancelled (checked between quadrature
+    /// rules and the peak search's evaluations); nothing is returned.</exception>
+    public CurrentDensityResult CurrentDensity(double fermiLevelElectronVolts, double temperatureKelvin, CurrentDensityOptions? options = null,
+        CancellationToken cancellationToken = default)
     {
         Preconditions.CheckFinite(fermiLevelElectronVolts);
         Preconditions.CheckRange(temperatureKelvin, MinCurrentTemperatureKelvin, MaxCurrentTemperatureKelvin);
@@ -410,7 +417,7 @@ public sealed class StackTransmission
         // The integral reaches at most 700 k_BT above the higher Fermi level (and starts at the higher lead edge).
         var kT = PhysicalConstants.BoltzmannElectronVoltsPerKelvin * temperatureKelvin;
         CheckBiasedCost(Math.Max(edge, highestFermiLevel) + 740 * kT, "the top of the energy integral (the higher Fermi level or lead edge + 740 kT)", nameof(fermiLevelElectronVolts));
-        return TsuEsakiIntegrator.Compute(this, fermiLevelElectronVolts, temperatureKelvin, options);
+        return TsuEsakiIntegrator.Compute(this, fermiLevelElectronVolts, temperatureKelvin, options, cancellationToken);
     }
 
     /// <summary>Lowest temperature <see cref="CurrentDensity"/> accepts, K: below it k_BT approaches the resolution of the energies.</summary>

@@ -42,7 +42,8 @@ internal static class TsuEsakiIntegrator
 
     private readonly record struct Interval(double Lower, double Upper, double Value, double Error);
 
-    internal static CurrentDensityResult Compute(StackTransmission transmission, double mu, double temperature, CurrentDensityOptions options)
+    internal static CurrentDensityResult Compute(StackTransmission transmission, double mu, double temperature, CurrentDensityOptions options,
+        CancellationToken cancellationToken)
     {
         var bias = transmission.Bias.ElectronVolts;
         var kT = PhysicalConstants.BoltzmannElectronVoltsPerKelvin * temperature;
@@ -70,8 +71,8 @@ internal static class TsuEsakiIntegrator
             // Resonance breakpoints only where the supply function matters: the first window reaches 40 k_BT above the
             // higher Fermi level, beyond which the integrand is below e^(−40) of its scale and plain bisection suffices
             // (this also bounds the cost of the peak search by that window).
-            AddWindow(transmission, windowLower, upper, mu, bias, kT, options, searchResonances: windowLower == lower, intervals, ref evaluations, ref resonances);
-            converged = Refine(transmission, mu, bias, kT, options, intervals, ref evaluations);
+            AddWindow(transmission, windowLower, upper, mu, bias, kT, options, searchResonances: windowLower == lower, intervals, ref evaluations, ref resonances, cancellationToken);
+            converged = Refine(transmission, mu, bias, kT, options, intervals, ref evaluations, cancellationToken);
             var total = Sum(intervals, out _);
             // |S(E)| ≤ e^((μ_max − E)/k_BT) and T ≤ 1, so the tail beyond the upper limit is at most k_BT·e^((μ_max − upper)/k_BT).
             tailBound = kT * Math.Exp((muMax - upper) / kT);
@@ -108,12 +109,12 @@ internal static class TsuEsakiIntegrator
 
     /// <summary>Splits [a, b] at the Fermi levels and the transmission peaks (±Γ, ±4Γ, ±16Γ) and integrates each piece once.</summary>
     private static void AddWindow(StackTransmission transmission, double a, double b, double mu, double bias, double kT,
-        CurrentDensityOptions options, bool searchResonances, List<Interval> intervals, ref int evaluations, ref int resonances)
+        CurrentDensityOptions options, bool searchResonances, List<Interval> intervals, ref int evaluations, ref int resonances, CancellationToken cancellationToken)
     {
         var points = new List<double> { a, b, mu, mu - bias };
         if (options.UseResonanceBreakpoints && searchResonances)
         {
-            foreach (var peak in transmission.FindResonances(a, b, options.ResonanceSearch).Resonances)
+            foreach (var peak in transmission.FindResonances(a, b, options.ResonanceSearch, cancellationToken).Resonances)
             {
                 resonances++;
                 points.Add(peak.EnergyElectronVolts);
@@ -135,6 +136,7 @@ internal static class TsuEsakiIntegrator
         {
             if (points[i] - previous > minimumGap || (i == points.Count - 1 && points[i] > previous))
             {
+                cancellationToken.ThrowIfCancellationRequested();
                 intervals.Add(Rule(transmission, previous, points[i], mu, bias, kT, ref evaluations));
                 previous = points[i];
             }
@@ -143,7 +145,7 @@ internal static class TsuEsakiIntegrator
 
     /// <summary>Bisects the interval of largest error until the total error meets the tolerance or the budget runs out.</summary>
     private static bool Refine(StackTransmission transmission, double mu, double bias, double kT, CurrentDensityOptions options,
-        List<Interval> intervals, ref int evaluations)
+        List<Interval> intervals, ref int evaluations, CancellationToken cancellationToken)
     {
         var queue = new PriorityQueue<int, double>();
         for (var i = 0; i < intervals.Count; i++)
@@ -161,6 +163,7 @@ internal static class TsuEsakiIntegrator
             {
                 return false;
             }
+            cancellationToken.ThrowIfCancellationRequested();
             var index = queue.Dequeue();
             var worst = intervals[index];
             var middle = 0.5 * (worst.Lower + worst.Upper);

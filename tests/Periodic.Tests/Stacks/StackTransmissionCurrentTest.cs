@@ -202,6 +202,17 @@ public sealed class StackTransmissionCurrentTest(ITestOutputHelper output)
     }
 
     [Fact]
+    public void CurrentDensityAndPeakSearch_CancelledToken_Throw()
+    {
+        // Long computations under bias can be cancelled; a token cancelled before the call stops it at the first check.
+        var transmission = StackTransmission.Create(LayerStack.Create(Ground, Ground, Slab(3, 0.3), Slab(6, 0), Slab(3, 0.3)), Energy.FromElectronVolts(0.08));
+        using var source = new CancellationTokenSource();
+        source.Cancel();
+        Assert.ThrowsAny<OperationCanceledException>(() => transmission.CurrentDensity(0.05, 77, null, source.Token));
+        Assert.ThrowsAny<OperationCanceledException>(() => transmission.FindResonances(0.01, 0.3, null, source.Token));
+    }
+
+    [Fact]
     public void CurrentDensity_SmallBudget_SaysNotConverged()
     {
         // A budget of one rule per piece cannot reach 1e-12: the result must say so rather than pretend.
