@@ -19,8 +19,8 @@ internal static class TransmissionCommand
         var file = Common.FileArgument();
         var periods = new Option<int?>("--periods", "-N") { Description = "Number of unit cells in the finite stack (1 to 1,000,000); default: the file's stack.periods." };
         var grid = new EnergyGridOptions();
-        var leadPotential = new Option<double?>("--lead-potential") { Description = "Potential of both leads, eV (default: the first layer's)." };
-        var leadMass = new Option<double?>("--lead-mass") { Description = "Effective mass in both leads, m0 (default: the first layer's)." };
+        var leadPotential = new Option<double?>("--lead-potential") { Description = "Potential of both leads, eV (default: the file's stack, else the first layer's)." };
+        var leadMass = new Option<double?>("--lead-mass") { Description = "Effective mass in both leads, m0 (default: the file's stack, else the first layer's)." };
         var bias = BiasOption();
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
@@ -93,9 +93,10 @@ internal static class TransmissionCommand
     public static LayerStack BuildStack(StructureDefinition structure, int periods, double? potential, double? mass)
     {
         Lead left, right;
-        if (structure.Stack is { } given && potential is null && mass is null)
+        if (structure.Stack is { } given)
         {
-            (left, right) = (given.LeftLead, given.RightLead);
+            // Each option replaces its own quantity on both of the file's leads; the other keeps the file's value.
+            (left, right) = (Override(given.LeftLead, potential, mass), Override(given.RightLead, potential, mass));
         }
         else
         {
@@ -103,6 +104,11 @@ internal static class TransmissionCommand
         }
         return LayerStack.Periodic(left, structure.Cell, periods, right);
     }
+
+    private static Lead Override(Lead lead, double? potential, double? mass) =>
+        potential is null && mass is null
+            ? lead
+            : Lead.Create(Energy.FromElectronVolts(potential ?? lead.PotentialElectronVolts), EffectiveMass.FromElectronMasses(mass ?? lead.MassElectronMasses));
 
     /// <summary>Leads like the cell's first layer unless overridden.</summary>
     public static Lead DefaultLead(UnitCell cell, double? potential, double? mass)

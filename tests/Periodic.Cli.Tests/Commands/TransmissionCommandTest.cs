@@ -113,4 +113,26 @@ public sealed class TransmissionFromFileStackTest
             Assert.Equal(reference.Evaluate(p.GetProperty("energy").GetDouble()).Transmission, p.GetProperty("transmission").GetDouble());
         }
     }
+
+    [Fact]
+    public void Transmission_LeadMassOption_KeepsTheFileLeadPotential()
+    {
+        // --lead-mass replaces the mass of both of the file's leads and nothing else (docs/cli.md): the file's −20 meV
+        // lead edge stays, and T equals the library's for those leads.
+        var file = ToolRunner.Example("filter-stack.json");
+        var run = ToolRunner.Invoke("transmission", file, "--energies", "0.05,0.1", "--lead-mass", "0.08", "--json");
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        var json = run.Json();
+        var lead = json.GetProperty("stack").GetProperty("leftLead");
+        Assert.Equal(-0.02, lead.GetProperty("potential").GetDouble(), 1e-17);
+        Assert.Equal(0.08, lead.GetProperty("mass").GetDouble());
+        var fileStack = Periodic.Serialization.StructureFile.Load(file).Stack!;
+        var mass = Periodic.Units.EffectiveMass.FromElectronMasses(0.08);
+        var stack = fileStack.WithLeads(Periodic.Stacks.Lead.Create(Periodic.Units.Energy.FromElectronVolts(fileStack.LeftLead.PotentialElectronVolts), mass), Periodic.Stacks.Lead.Create(Periodic.Units.Energy.FromElectronVolts(fileStack.RightLead.PotentialElectronVolts), mass));
+        var reference = Periodic.Stacks.StackTransmission.Create(stack);
+        foreach (var p in json.GetProperty("points").EnumerateArray())
+        {
+            Assert.Equal(reference.Evaluate(p.GetProperty("energy").GetDouble()).Transmission, p.GetProperty("transmission").GetDouble());
+        }
+    }
 }
