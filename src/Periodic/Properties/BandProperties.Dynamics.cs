@@ -197,7 +197,7 @@ public sealed partial class BandProperties
     /// <remarks>
     /// Method: differentiating dE/dk = −2d sin(kd)/D′ once more gives, exactly,
     /// d²E/dk² = −2d² cos(kd)/D′ − 4d² sin²(kd)·D″/D′³, with D′ and D″ exact (Taylor-mode
-    /// propagation of the cell's transfer matrix, see the user guide). At a zone point this reduces to the
+    /// propagation of the cell's transfer matrix, docs/properties.md). At a zone point this reduces to the
     /// band-edge mass (<see cref="BottomMass"/>); at a closed gap, to the mass of the smooth crossing, which is
     /// also returned within 1e-4 in kd of a closed gap, where E(k) itself is too ill-conditioned for the formula
     /// (accuracy there ≈ 1e-4 relative).
@@ -206,9 +206,9 @@ public sealed partial class BandProperties
     /// the exact derivatives of the fourth-order Magnus discretisation at the segments' current step counts, so the mass
     /// is that of the same discrete model as the band structure's E(k), and its error falls like h⁴ with the step h, as
     /// the band energies' does. Build the structure with <see cref="RefinedBandStructure"/> for a stated accuracy: at its
-    /// default tolerance (1e-11) the curvature masses of the cosine and optical lattices in the tests agree with an
-    /// independent plane-wave calculation to 5e-11 relative; on the default 64-step mesh of an s = 5 lattice to about
-    /// 1e-6 (docs/properties.md).</para>
+    /// default tolerance (1e-11) the curvature masses of the optical lattices in the tests (s = 1, 5, 10) agree with an
+    /// independent central-equation calculation to 4.5e-11 relative; on the default 64-step mesh of an s = 5 lattice to
+    /// 2e-7 (band 1) and 7.5e-7 (band 2) (docs/properties.md).</para>
     /// </remarks>
     /// <exception cref="ArgumentOutOfRangeException">No such band, or k outside the first zone.</exception>
     public double CurvatureMassElectronMasses(int bandIndex, double wavevectorPerNanometre)

@@ -65,7 +65,8 @@ public sealed class BoundStateSpectrum
 
     /// <summary>Finds every bound state of <paramref name="stack"/> (energies below both lead band edges).</summary>
     /// <exception cref="ArgumentNullException"><paramref name="stack"/> is null.</exception>
-    /// <exception cref="ArgumentException">The stack has more written-out elements than <see cref="BoundStateOptions.MaxElements"/>.</exception>
+    /// <exception cref="ArgumentException">The stack has more written-out elements than <see cref="BoundStateOptions.MaxElements"/>,
+    /// or holds an element other than a layer or a delta barrier (a smooth segment; the message names it).</exception>
     /// <exception cref="ArgumentOutOfRangeException">An option is out of range.</exception>
     public static BoundStateSpectrum Find(LayerStack stack, BoundStateOptions? options = null)
     {
