@@ -158,6 +158,18 @@ internal static class Common
         writer.WriteEndObject();
     }
 
+    /// <summary>The stack's two leads as <c>leftLead</c> and <c>rightLead</c> objects (<c>potential</c> in eV, <c>mass</c> in m0), as given (unshifted by a bias).</summary>
+    public static void Leads(Utf8JsonWriter writer, Periodic.Stacks.LayerStack stack)
+    {
+        foreach (var (name, lead) in new[] { ("leftLead", stack.LeftLead), ("rightLead", stack.RightLead) })
+        {
+            writer.WriteStartObject(name);
+            writer.WriteNumber("potential", lead.PotentialElectronVolts);
+            writer.WriteNumber("mass", lead.MassElectronMasses);
+            writer.WriteEndObject();
+        }
+    }
+
     public static void Units(Utf8JsonWriter writer, params (string Name, string Unit)[] units)
     {
         writer.WriteStartObject("units");

@@ -164,13 +164,7 @@ internal static class CurrentCommand
                 w.WriteStartObject("stack");
                 w.WriteNumber("periods", periods);
                 w.WriteNumber("thickness", stack.ThicknessNanometres);
-                foreach (var (name, l) in new[] { ("leftLead", stack.LeftLead), ("rightLead", stack.RightLead) })
-                {
-                    w.WriteStartObject(name);
-                    w.WriteNumber("potential", l.PotentialElectronVolts);
-                    w.WriteNumber("mass", l.MassElectronMasses);
-                    w.WriteEndObject();
-                }
+                Common.Leads(w, stack);
                 w.WriteEndObject();
                 w.WriteNumber("fermiLevel", fermiLevel);
                 w.WriteNumber("temperature", kelvin);

@@ -155,13 +155,7 @@ internal static class TransmissionCommand
                 w.WriteNumber("periods", periods);
                 w.WriteNumber("thickness", stack.Stack.ThicknessNanometres);
                 w.WriteNumber("bias", stack.Bias.ElectronVolts);
-                foreach (var (name, l) in new[] { ("leftLead", stack.Stack.LeftLead), ("rightLead", stack.Stack.RightLead) })
-                {
-                    w.WriteStartObject(name);
-                    w.WriteNumber("potential", l.PotentialElectronVolts);
-                    w.WriteNumber("mass", l.MassElectronMasses);
-                    w.WriteEndObject();
-                }
+                Common.Leads(w, stack.Stack);
                 w.WriteEndObject();
                 w.WriteStartArray("points");
                 foreach (var r in results)
