@@ -87,6 +87,7 @@ internal static class Common
         {
             throw new UsageException($"structure file {path} does not exist.");
         }
+        OutputFile.RegisterInput(path);
         var structure = StructureFile.Load(path);
         if (structure.Materials is { } built)
         {
