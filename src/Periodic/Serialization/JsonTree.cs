@@ -101,7 +101,7 @@ internal static class JsonTreeReader
                 while (reader.Read() && reader.TokenType != JsonTokenType.EndObject)
                 {
                     var nameOffset = reader.TokenStartIndex;
-                    var name = reader.GetString()!;
+                    var name = GetString(ref reader);
                     reader.Read();
                     obj.Properties.Add(new JsonTreeProperty(name, nameOffset, ReadValue(ref reader)));
                 }
@@ -114,13 +114,27 @@ internal static class JsonTreeReader
                 }
                 return array;
             case JsonTokenType.String:
-                return new JsonTreeString(offset, reader.GetString()!);
+                return new JsonTreeString(offset, GetString(ref reader));
             case JsonTokenType.Number:
                 var text = Encoding.UTF8.GetString(reader.HasValueSequence ? System.Buffers.BuffersExtensions.ToArray(reader.ValueSequence) : reader.ValueSpan);
                 var value = reader.TryGetDouble(out var d) ? d : double.PositiveInfinity;
                 return new JsonTreeNumber(offset, value, text);
             default:
                 return new JsonTreeLiteral(offset, reader.TokenType);
+        }
+    }
+
+    /// <summary>The string token's value; an escape that is not a valid character (a lone surrogate such as \ud800) is located.</summary>
+    private static string GetString(ref Utf8JsonReader reader)
+    {
+        try
+        {
+            return reader.GetString()!;
+        }
+        catch (InvalidOperationException e)
+        {
+            throw new JsonTreeStringException(reader.TokenStartIndex,
+                "a string holds an escape that is not a valid character (a lone surrogate such as \\ud800 without its pair); write the character itself or a complete pair.", e);
         }
     }
 
@@ -144,4 +158,10 @@ internal static class JsonTreeReader
         }
         return (line, column);
     }
+}
+
+/// <summary>A string value that is not valid Unicode, with the byte offset where it starts.</summary>
+internal sealed class JsonTreeStringException(long offset, string message, Exception inner) : Exception(message, inner)
+{
+    public long Offset { get; } = offset;
 }
