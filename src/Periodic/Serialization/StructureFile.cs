@@ -128,7 +128,8 @@ public static partial class StructureFile
         {
             utf8Json = utf8Json[3..];
         }
-        if (System.Text.Unicode.Utf8.ToUtf16(utf8Json, new char[utf8Json.Length], out var valid, out _, replaceInvalidSequences: false) != System.Buffers.OperationStatus.Done)
+        if (!System.Text.Unicode.Utf8.IsValid(utf8Json)
+            && System.Text.Unicode.Utf8.ToUtf16(utf8Json, new char[utf8Json.Length], out var valid, out _, replaceInvalidSequences: false) != System.Buffers.OperationStatus.Done)
         {
             var (badLine, badColumn) = JsonTreeReader.Position(utf8Json, valid);
             throw new StructureFileException(sourceName, badLine, badColumn, string.Empty,
@@ -579,7 +580,7 @@ public static partial class StructureFile
                 case JsonTreeNumber number:
                     if (!double.IsFinite(number.Value))
                     {
-                        throw Error(node, path, $"must be a finite number; got {number.Text}.");
+                        throw Error(node, path, $"must be a finite number; got {number.Text ?? Format(number.Value)}.");
                     }
                     return number.Value;
                 case JsonTreeString text:
