@@ -82,11 +82,16 @@ internal static class CurrentCommand
             }
             var n = result.GetValue(periods) ?? structure.Stack?.Parts[0].Repetitions
                 ?? throw new UsageException("give --periods N (the structure file has no \"stack\" with periods).");
+            var stack = TransmissionCommand.BuildStack(structure, n, potential, mass);
+            // The library's own bound on a biased stack (elements written out) is named first: building it costs no evaluation.
+            if (Array.Find(biasList, u => u != 0) is var firstBias && firstBias != 0)
+            {
+                TransmissionCommand.Compile(stack, firstBias, "--bias");
+            }
             var elements = Limits.Product(n, structure.Cell.Elements.Count);
             Limits.CheckWork("(stack elements)² × biases", Limits.Product(Limits.Product(elements, elements), biasList.Length), Limits.MaxCurrentWork,
                 string.Create(CultureInfo.InvariantCulture,
                     $"one bias costs about 6e-5 s × elements² of CPU (about 100 evaluations per period, each walking every element); here {n} periods × {structure.Cell.Elements.Count} elements × {biasList.Length} biases"));
-            var stack = TransmissionCommand.BuildStack(structure, n, potential, mass);
             var rows = Compute(stack, biasList, mu, kelvin);
             Common.Emit(Render(structure, stack, n, mu, kelvin, rows, format), result.GetValue(output));
             return 0;
