@@ -20,9 +20,9 @@ public static class StructureFileLimits
 
     /// <summary>
     /// Most harmonics of one Fourier segment. The default mesh has 32 Magnus steps per harmonic and every energy
-    /// evaluation walks it, so a band table costs about N × 3 ms of CPU (measured, N = 3,000: about 10 s).
+    /// evaluation walks it (measured: a band table of N = 3,000 took about 10 s; N = 10,000 had not finished after 57 s of CPU).
     /// </summary>
-    public const int MaxHarmonics = 10_000;
+    public const int MaxHarmonics = 4_000;
 
     /// <summary>Most samples of one profile segment (one Magnus step per interval, halved by refinement up to 4·10⁶ steps).</summary>
     public const int MaxSamples = 200_000;
