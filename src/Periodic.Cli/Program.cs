@@ -33,10 +33,19 @@ root.SetAction(_ =>
     return 0;
 });
 
+// An option given an empty value ("--out ''") is named here: the parser would report it as an unknown argument.
+for (var i = 0; i + 1 < args.Length; i++)
+{
+    if (args[i].StartsWith('-') && args[i].Length > 1 && args[i + 1].Length == 0)
+    {
+        Console.Error.WriteLine($"periodic: error: {Common.Printable(args[i])} needs a value; got an empty string (see periodic --help).");
+        return 2;
+    }
+}
 var parsed = root.Parse(args);
 if (parsed.Errors.Count > 0)
 {
-    Console.Error.WriteLine($"periodic: error: {OneLine(parsed.Errors[0].Message)} (see periodic --help)");
+    Console.Error.WriteLine($"periodic: error: {Common.Printable(OneLine(parsed.Errors[0].Message))} (see periodic --help)");
     return 2;
 }
 try
@@ -57,7 +66,7 @@ catch (Exception e)
         IOException or UnauthorizedAccessException => "",
         _ => "computation failed: ",
     };
-    Console.Error.WriteLine($"periodic: error: {what}{OneLine(Describe(e))}");
+    Console.Error.WriteLine($"periodic: error: {what}{Common.Printable(OneLine(Describe(e)))}");
     if (parsed.GetValue(verbose))
     {
         Console.Error.WriteLine(e.ToString());
