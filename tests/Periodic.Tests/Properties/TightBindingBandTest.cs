@@ -118,7 +118,7 @@ public sealed class TightBindingBandTest(ITestOutputHelper output)
     [Fact]
     public void NearestNeighbourHopping_DeepStaircaseCosineLatticeTrendsToZwerger()
     {
-        // Zwerger, J. Opt. B 5, S9 (2003) [read in secondary texts, REFERENCES.md]: for V = s·E_R·sin²(πx/d),
+        // Zwerger, J. Opt. B 5, S9 (2003) [read in secondary texts, docs/references.md]: for V = s·E_R·sin²(πx/d),
         // J/E_R ≈ (4/√π) s^{3/4} e^{−2√s}, asymptotic in s, about 8 % high at s = 40. Trend check: the ratio
         // formula/J falls towards 1 as s grows. The lattice here is a 120-layer midpoint staircase of the smooth
         // potential (uniform layers only; the smooth-segment version awaits the smooth-potential work): the
@@ -148,14 +148,14 @@ public sealed class TightBindingBandTest(ITestOutputHelper output)
             Assert.True(ratio > 1 && ratio < previous, $"s = {depth}: ratio {ratio}");
             previous = ratio;
         }
-        // At s = 40 the asymptotic form is about 8 % high (REFERENCES.md): accept 1.02 … 1.15.
+        // At s = 40 the asymptotic form is about 8 % high (docs/references.md): accept 1.02 … 1.15.
         Assert.InRange(previous, 1.02, 1.15);
     }
 
     [Fact]
     public void NearestNeighbourHopping_DeepOpticalLatticeTrendsToZwerger()
     {
-        // Zwerger, J. Opt. B 5, S9 (2003) [read in secondary texts, REFERENCES.md]: for V = s·E_R·sin²(πx/d),
+        // Zwerger, J. Opt. B 5, S9 (2003) [read in secondary texts, docs/references.md]: for V = s·E_R·sin²(πx/d),
         // J/E_R ≈ (4/√π) s^{3/4} e^{−2√s}, asymptotic, about 8 % high at s = 40. Trend on the smooth potential
         // (Fourier segment, Magnus propagation refined to 1e-11 of the energy scale): the ratio formula/J falls
         // towards 1 as s grows. Scenario of our own: d = 400 nm, a 40 u atom expressed in electron masses
@@ -175,7 +175,7 @@ public sealed class TightBindingBandTest(ITestOutputHelper output)
             Assert.True(ratio > 1 && ratio < previous, $"s = {depth}: ratio {ratio}");
             previous = ratio;
         }
-        // At s = 40 the asymptotic form is about 8 % high (REFERENCES.md): accept 1.02 … 1.15.
+        // At s = 40 the asymptotic form is about 8 % high (docs/references.md): accept 1.02 … 1.15.
         Assert.InRange(previous, 1.02, 1.15);
     }
 }

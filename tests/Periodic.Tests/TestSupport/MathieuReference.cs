@@ -45,7 +45,7 @@ internal static class MathieuReference
         return values[index];
     }
 
-    /// <summary>Edges of bands 1 … n of V0 cos(2πx/d) in units of E_R, in order: band n = [a_{n−1}, b_n] (REFERENCES.md mapping).</summary>
+    /// <summary>Edges of bands 1 … n of V0 cos(2πx/d) in units of E_R, in order: band n = [a_{n−1}, b_n] (docs/references.md mapping).</summary>
     public static double[] BandEdges(int bands, double q)
     {
         var edges = new double[2 * bands];

@@ -10,7 +10,7 @@ using Periodic.Units;
 namespace Periodic.Tests.Transfer.Smooth;
 
 /// <summary>
-/// The cosine potential V0 cos(2πx/d) through the Mathieu mapping of REFERENCES.md: a = E/E_R, q = V0/(2E_R),
+/// The cosine potential V0 cos(2πx/d) through the Mathieu mapping of docs/references.md: a = E/E_R, q = V0/(2E_R),
 /// E_R = ħ²π²/(2md²); band n = [E_R a_{n−1}, E_R b_n] for q &gt; 0.
 /// </summary>
 public sealed class CosineLatticeTest
@@ -110,7 +110,7 @@ public sealed class CosineLatticeTest
     [InlineData(25.0)]
     public void Compute_CharacteristicValues_AreOrdered(double q)
     {
-        // For q > 0: a0 < b1 < a1 < b2 < a2 < b3 < a3 (Abramowitz & Stegun §20.2, from memory; REFERENCES.md).
+        // For q > 0: a0 < b1 < a1 < b2 < a2 < b3 < a3 (Abramowitz & Stegun §20.2, from memory; docs/references.md).
         var bands = RefinedBandStructure.Compute(Cell(q), 4, 1e-10).Bands;
         var edges = bands.Bands.SelectMany(b => new[] { b.BottomElectronVolts, b.TopElectronVolts }).ToArray();
         for (var i = 1; i < edges.Length; i++)

@@ -28,7 +28,7 @@ public sealed class OpticalLatticeTest
     [InlineData(40.0)]
     public void Edges_MatchMathieuMapping(double s)
     {
-        // E/E_R = a_r(s/4) + s/2 (REFERENCES.md, derived: s·E_R·sin²(πx/d) = s·E_R/2 − (s·E_R/2)·cos(2πx/d) is the
+        // E/E_R = a_r(s/4) + s/2 (docs/references.md, derived: s·E_R·sin²(πx/d) = s·E_R/2 − (s·E_R/2)·cos(2πx/d) is the
         // cosine lattice of q = s/4 shifted by d/2, which leaves the spectrum unchanged, plus the constant s/2).
         // Independent tridiagonal reference; 1e-10 relative as for the cosine.
         var result = Bands(s, 3);
