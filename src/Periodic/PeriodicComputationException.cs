@@ -10,26 +10,27 @@ namespace Periodic;
 /// the value and what is allowed) before any work is done.
 /// </summary>
 /// <remarks>
-/// Catch this type to handle every numerical failure of the library at once; derived types (for example
-/// <see cref="Bands.BandSearchException"/>) say which algorithm failed. The <c>periodic</c> tool reports it with exit
-/// code 1, and an <see cref="ArgumentException"/> with exit code 2.
+/// Catch this type to handle every numerical failure of the library at once; the sealed derived types say what
+/// kind of failure it was (<see cref="Bands.BandSearchException"/>: a band search could not finish or verify itself;
+/// <see cref="PrecisionLimitException"/>: double precision cannot hold or resolve the result). The <c>periodic</c>
+/// tool reports it with exit code 1, and an <see cref="ArgumentException"/> with exit code 2.
 /// </remarks>
-public class PeriodicComputationException : Exception
+public abstract class PeriodicComputationException : Exception
 {
     /// <summary>Creates the exception.</summary>
-    public PeriodicComputationException(string message)
+    private protected PeriodicComputationException(string message)
         : base(message)
     {
     }
 
     /// <summary>Creates the exception with an inner cause.</summary>
-    public PeriodicComputationException(string message, Exception innerException)
+    private protected PeriodicComputationException(string message, Exception innerException)
         : base(message, innerException)
     {
     }
 
     /// <summary>Creates the exception with no message.</summary>
-    public PeriodicComputationException()
+    private protected PeriodicComputationException()
     {
     }
 }

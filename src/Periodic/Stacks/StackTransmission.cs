@@ -206,11 +206,21 @@ public sealed class StackTransmission
     /// when written out, or holds an element other than a parabolic layer or a delta barrier (the message names it).</exception>
     public static StackTransmission Create(LayerStack stack, Energy bias)
     {
+        CheckBias(stack, bias);
+        return bias.ElectronVolts == 0 ? new StackTransmission(stack) : new StackTransmission(stack, bias.ElectronVolts);
+    }
+
+    /// <summary>
+    /// Throws what <see cref="Create(LayerStack, Energy)"/> would throw for this stack and bias, without compiling or
+    /// evaluating anything (the structure file validates its <c>stack.bias</c> with it).
+    /// </summary>
+    internal static void CheckBias(LayerStack stack, Energy bias)
+    {
         ArgumentNullException.ThrowIfNull(stack);
         var drop = bias.ElectronVolts;
         if (drop == 0)
         {
-            return new StackTransmission(stack);
+            return;
         }
         if (!(stack.ThicknessNanometres > 0))
         {
@@ -248,7 +258,6 @@ public sealed class StackTransmission
                 }
             }
         }
-        return new StackTransmission(stack, drop);
     }
 
     /// <summary>Transmission, reflection and their amplitudes at <paramref name="energyElectronVolts"/>.</summary>

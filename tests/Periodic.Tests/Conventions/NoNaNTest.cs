@@ -451,7 +451,7 @@ public sealed class NoNaNTest(ITestOutputHelper output)
             }
             Finite(bands.Bands[0].BottomElectronVolts, "E1");
             Finite(built.ToAbsoluteElectronVolts(bands.Bands[0].BottomElectronVolts), "absolute E1");
-            foreach (var w in built.CheckBands(bands))
+            foreach (var w in built.CheckEnergies([.. bands.Bands.SelectMany(b => new[] { b.BottomElectronVolts, b.TopElectronVolts })]))
             {
                 Finite(w.Value, "warning value");
                 NotNaN(w.Limit, "warning limit");

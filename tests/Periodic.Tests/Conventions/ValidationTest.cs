@@ -270,11 +270,10 @@ public sealed class ValidationTest
         AssertRejects(() => RecipeLayer.Create(Material.GaAs, Length.FromNanometres(-1)), "width", -1.0);
         AssertRejects(() => StructureRecipe.Create(300).WithPeriods(0), "periods", 0);
         AssertRejects(() => StructureRecipe.Create(300).AddRepeated(0, RecipeLayer.FromMonolayers(Material.GaAs, 3)), "repetitions", 0);
-        var bands = BandStructure.Compute(Fixtures.Cell, 1);
         var built = StructureRecipe.Create(300).Add(Material.GaAs, Length.FromNanometres(5)).Add(TernaryAlloy.AlGaAs.At(0.3), Length.FromNanometres(2)).Build();
         AssertRejects(() => built.ToAbsoluteElectronVolts(double.NaN), "energyElectronVolts", double.NaN);
         AssertRejects(() => built.CheckEnergies([0.1, double.NaN]), "energiesElectronVolts", double.NaN);
-        Assert.Equal("bands", Assert.ThrowsAny<ArgumentException>(() => built.CheckBands(bands)).ParamName);
+        AssertRejects(() => built.LayerOf(Material.GaAs, Length.FromNanometres(-1)), "width", -1.0);
     }
 
     [Fact]
