@@ -2,7 +2,6 @@
 // Copyright (c) 2026 Periodic contributors
 
 using Periodic.Bands;
-using Periodic.Tests.Support;
 
 namespace Periodic.Tests.Bands;
 

@@ -8,7 +8,6 @@ using Periodic.Materials;
 using Periodic.Properties;
 using Periodic.Stacks;
 using Periodic.Structures;
-using Periodic.Tests.Support;
 using Periodic.Transfer;
 using Periodic.Units;
 using Xunit.Abstractions;

@@ -3,7 +3,6 @@
 
 using Periodic.PlaneWaves;
 using Periodic.Structures;
-using Periodic.Tests.TestSupport;
 using Periodic.Units;
 
 namespace Periodic.Tests.PlaneWaves;

@@ -9,7 +9,7 @@ using Xunit.Abstractions;
 namespace Periodic.Tests.Properties;
 
 /// <summary>Carrier densities and Fermi levels of <see cref="BandProperties"/>.</summary>
-public sealed class CarrierDensityTest(ITestOutputHelper output)
+public sealed partial class CarrierDensityTest(ITestOutputHelper output)
 {
     private const double C = Cells.C;
     private const double KB = PhysicalConstants.BoltzmannElectronVoltsPerKelvin;

@@ -8,7 +8,7 @@ using Xunit.Abstractions;
 
 namespace Periodic.Tests.Properties;
 
-public sealed class TightBindingBandTest(ITestOutputHelper output)
+public sealed partial class TightBindingBandTest(ITestOutputHelper output)
 {
     [Fact]
     public void Fit_CoefficientsMatchIndependentQuadrature()

@@ -6,7 +6,6 @@ using FsCheck;
 using FsCheck.Fluent;
 using Periodic.Stacks;
 using Periodic.Structures;
-using Periodic.Tests.Support;
 using Periodic.Units;
 using Xunit.Abstractions;
 

@@ -4,7 +4,7 @@
 using System.Numerics;
 using Periodic.Units;
 
-namespace Periodic.Tests.Support;
+namespace Periodic.Tests.TestHelpers;
 
 /// <summary>
 /// Published dispersion relations, written out independently of the library (only the constant

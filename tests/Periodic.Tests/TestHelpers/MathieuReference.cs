@@ -3,7 +3,7 @@
 
 using MathNet.Numerics.LinearAlgebra;
 
-namespace Periodic.Tests.TestSupport;
+namespace Periodic.Tests.TestHelpers;
 
 /// <summary>
 /// Mathieu characteristic values a_r(q), b_r(q) computed independently of the library: as eigenvalues of

@@ -4,10 +4,9 @@
 using Periodic.Bands;
 using Periodic.PlaneWaves;
 using Periodic.Structures;
-using Periodic.Tests.TestSupport;
 using Periodic.Units;
 
-namespace Periodic.Tests.Transfer.Smooth;
+namespace Periodic.Tests.Transfer;
 
 /// <summary>The optical lattice s·E_R·sin²(πx/d), s = 1 … 40 (a ⁸⁷Rb-like scenario of our own: d = 532 nm, mass in m₀ units).</summary>
 public sealed class OpticalLatticeTest

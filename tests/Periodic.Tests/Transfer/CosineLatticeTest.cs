@@ -4,10 +4,9 @@
 using Periodic.Bands;
 using Periodic.PlaneWaves;
 using Periodic.Structures;
-using Periodic.Tests.TestSupport;
 using Periodic.Units;
 
-namespace Periodic.Tests.Transfer.Smooth;
+namespace Periodic.Tests.Transfer;
 
 /// <summary>
 /// The cosine potential V0 cos(2πx/d) through the Mathieu mapping of docs/references.md: a = E/E_R, q = V0/(2E_R),

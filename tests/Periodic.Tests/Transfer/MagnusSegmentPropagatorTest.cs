@@ -9,7 +9,7 @@ using Periodic.Structures;
 using Periodic.Transfer;
 using Periodic.Units;
 
-namespace Periodic.Tests.Transfer.Smooth;
+namespace Periodic.Tests.Transfer;
 
 public sealed class MagnusSegmentPropagatorTest
 {

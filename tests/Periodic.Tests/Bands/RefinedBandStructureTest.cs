@@ -5,7 +5,7 @@ using Periodic.Bands;
 using Periodic.Structures;
 using Periodic.Units;
 
-namespace Periodic.Tests.Transfer.Smooth;
+namespace Periodic.Tests.Bands;
 
 /// <summary>The tolerance-driven driver (step halving with Richardson's estimate). Lives with the smooth-transfer tests it serves.</summary>
 public sealed class RefinedBandStructureTest

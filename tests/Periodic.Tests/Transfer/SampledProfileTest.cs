@@ -5,7 +5,7 @@ using Periodic.Bands;
 using Periodic.Structures;
 using Periodic.Units;
 
-namespace Periodic.Tests.Transfer.Smooth;
+namespace Periodic.Tests.Transfer;
 
 /// <summary>A square-well cell given as a sampled profile converges to the exact layered (Kronig–Penney) result.</summary>
 public sealed class SampledProfileTest
