@@ -381,7 +381,7 @@ public sealed class StackTransmission
 
     /// <summary>
     /// The Tsu–Esaki current density through the stack at its <see cref="Bias"/>, for a left lead with Fermi level
-    /// <paramref name="fermiLevelElectronVolts"/> (the right lead's is μ − eU) at <paramref name="temperatureKelvin"/>:
+    /// <paramref name="fermiLevel"/> (the right lead's is μ − eU) at <paramref name="temperature"/>:
     /// J = (e m_L k_BT/(2π²ħ³)) ∫ T(E) ln[(1 + e^((μ−E)/k_BT))/(1 + e^((μ−eU−E)/k_BT))] dE
     /// (R. Tsu and L. Esaki, Appl. Phys. Lett. 22, 562 (1973)), m_L the left lead's mass.
     /// </summary>
@@ -398,8 +398,8 @@ public sealed class StackTransmission
     /// trends; check it against measured I–V curves.</para>
     /// <para>Zero bias gives J = 0 exactly (the supply function vanishes).</para>
     /// </remarks>
-    /// <param name="fermiLevelElectronVolts">Fermi level μ of the left lead, eV, on the same scale as the energies.</param>
-    /// <param name="temperatureKelvin">Temperature of both leads, K; from <see cref="MinCurrentTemperatureKelvin"/> to <see cref="MaxCurrentTemperatureKelvin"/>.</param>
+    /// <param name="fermiLevel">Fermi level μ of the left lead, on the same scale as the energies.</param>
+    /// <param name="temperature">Temperature of both leads; from <see cref="MinCurrentTemperatureKelvin"/> to <see cref="MaxCurrentTemperatureKelvin"/>.</param>
     /// <param name="options">Tolerances and budget (null: <see cref="CurrentDensityOptions.Default"/>).</param>
     /// <param name="cancellationToken">Cancels the integral between quadrature rules.</param>
     /// <exception cref="ArgumentOutOfRangeException">The Fermi level is not finite or puts the higher Fermi level more than
@@ -408,24 +408,24 @@ public sealed class StackTransmission
     /// the integral would reach energies too far from the layer potentials for the biased propagation (see <see cref="Evaluate"/>).</exception>
     /// <exception cref="OperationCanceledException"><paramref name="cancellationToken"/> was cancelled (checked between quadrature
     /// rules and the peak search's evaluations); nothing is returned.</exception>
-    public CurrentDensityResult CurrentDensity(double fermiLevelElectronVolts, double temperatureKelvin, CurrentDensityOptions? options = null,
+    public CurrentDensityResult CurrentDensity(Energy fermiLevel, Temperature temperature, CurrentDensityOptions? options = null,
         CancellationToken cancellationToken = default)
     {
-        Preconditions.CheckFinite(fermiLevelElectronVolts);
-        Preconditions.CheckRange(temperatureKelvin, MinCurrentTemperatureKelvin, MaxCurrentTemperatureKelvin);
+        var fermiLevelElectronVolts = fermiLevel.ElectronVolts;
+        var temperatureKelvin = Preconditions.CheckRange(temperature.Kelvin, MinCurrentTemperatureKelvin, MaxCurrentTemperatureKelvin, nameof(temperature));
         options ??= CurrentDensityOptions.Default;
         options.Validate(nameof(options));
         var edge = Math.Max(Stack.LeftLead.PotentialElectronVolts, RightLead.PotentialElectronVolts);
         var highestFermiLevel = Math.Max(fermiLevelElectronVolts, fermiLevelElectronVolts - Bias.ElectronVolts);
         if (highestFermiLevel - edge > MaxFermiLevelAboveEdgeElectronVolts)
         {
-            throw new ArgumentOutOfRangeException(nameof(fermiLevelElectronVolts), fermiLevelElectronVolts,
+            throw new ArgumentOutOfRangeException(nameof(fermiLevel), fermiLevelElectronVolts,
                 string.Create(CultureInfo.InvariantCulture,
-                    $"fermiLevelElectronVolts = {Preconditions.Format(fermiLevelElectronVolts)} eV puts the higher Fermi level (μ or μ − eU = {Preconditions.Format(highestFermiLevel)} eV) more than {MaxFermiLevelAboveEdgeElectronVolts} eV above the higher lead band edge ({Preconditions.Format(edge)} eV); the energy window of the integral, and its cost, grow with that distance."));
+                    $"fermiLevel = {Preconditions.Format(fermiLevelElectronVolts)} eV puts the higher Fermi level (μ or μ − eU = {Preconditions.Format(highestFermiLevel)} eV) more than {MaxFermiLevelAboveEdgeElectronVolts} eV above the higher lead band edge ({Preconditions.Format(edge)} eV); the energy window of the integral, and its cost, grow with that distance."));
         }
         // The integral reaches at most 700 k_BT above the higher Fermi level (and starts at the higher lead edge).
         var kT = PhysicalConstants.BoltzmannElectronVoltsPerKelvin * temperatureKelvin;
-        CheckBiasedCost(Math.Max(edge, highestFermiLevel) + 740 * kT, "the top of the energy integral (the higher Fermi level or lead edge + 740 kT)", nameof(fermiLevelElectronVolts));
+        CheckBiasedCost(Math.Max(edge, highestFermiLevel) + 740 * kT, "the top of the energy integral (the higher Fermi level or lead edge + 740 kT)", nameof(fermiLevel));
         return TsuEsakiIntegrator.Compute(this, fermiLevelElectronVolts, temperatureKelvin, options, cancellationToken);
     }
 

@@ -573,7 +573,7 @@ public sealed partial class BandPropertiesTest(ITestOutputHelper output)
         var period = Periodic.Units.Length.FromNanometres(2);
         var mass = EffectiveMass.FromElectronMasses(0.1);
         var cell = Periodic.Structures.UnitCell.Create(Periodic.Structures.FourierSegment.OpticalLattice(period, 8, mass));
-        var structure = RefinedBandStructure.Compute(cell, 2).Bands;
+        var structure = RefinedBandStructure.Compute(cell, 2).Structure;
         var props = BandProperties.Create(structure);
         var d = structure.PeriodNanometres;
         var h = 0.002 * Math.PI / d;

@@ -31,7 +31,7 @@ public sealed partial class CarrierDensityTest
             var previous = -1.0;
             foreach (var mu in new[] { e1 - 0.3, e1 - 0.01, e1, e1 + 0.02, 0.2, 0.5 })
             {
-                var n = p.LinearCarrierDensity(mu, t);
+                var n = p.LinearCarrierDensity(Energy.FromElectronVolts(mu), Temperature.FromKelvin(t));
                 Finite(n.DensityPerNanometre, $"n({mu}, {t} K)");
                 Finite(n.ErrorEstimatePerNanometre, "error");
                 Assert.True(n.DensityPerNanometre >= 0);
@@ -43,18 +43,18 @@ public sealed partial class CarrierDensityTest
                     // Documented: at T = 0 the occupation is a step and n = N(μ); the quadrature is exact up to rounding (1e-12 relative).
                     Assert.Equal(p.IntegratedDensityOfStatesPerNanometre(mu), n.DensityPerNanometre, 1e-12 * Math.Max(1, n.DensityPerNanometre));
                 }
-                var v = p.SuperlatticeCarrierDensity(mu, t, EffectiveMass.FromElectronMasses(0.067));
+                var v = p.SuperlatticeCarrierDensity(Energy.FromElectronVolts(mu), Temperature.FromKelvin(t), EffectiveMass.FromElectronMasses(0.067));
                 Finite(v.DensityPerCubicNanometre, "n3D");
                 Assert.True(v.DensityPerCubicNanometre >= 0);
                 cases++;
             }
             // Round trip through the Fermi-level search (Brent): n(μ*) reproduces the target to the reported residual.
-            var target = p.LinearCarrierDensity(e1 + 0.02, t).DensityPerNanometre;
-            var solution = p.FermiLevelForLinearDensity(target, t);
+            var target = p.LinearCarrierDensity(Energy.FromElectronVolts(e1 + 0.02), Temperature.FromKelvin(t)).DensityPerNanometre;
+            var solution = p.FermiLevelForLinearDensity(target, Temperature.FromKelvin(t));
             Finite(solution.FermiLevelElectronVolts, "mu*");
             Finite(solution.RelativeDensityResidual, "residual");
             Assert.True(solution.Converged, solution.ToString());
-            var back = p.LinearCarrierDensity(solution.FermiLevelElectronVolts, t).DensityPerNanometre;
+            var back = p.LinearCarrierDensity(Energy.FromElectronVolts(solution.FermiLevelElectronVolts), Temperature.FromKelvin(t)).DensityPerNanometre;
             // 1e-9 relative: the tolerance 1e-12 eV times dn/dμ / n, which is at most ~1e3 /eV near the band bottom.
             Assert.Equal(target, back, 1e-9 * target);
         }
@@ -67,17 +67,17 @@ public sealed partial class CarrierDensityTest
         var p = Fixtures.Properties;
         foreach (var bad in new[] { double.NaN, double.PositiveInfinity, -1.0 })
         {
-            Assert.Equal("temperatureKelvin", Assert.ThrowsAny<ArgumentException>(() => p.LinearCarrierDensity(0.05, bad)).ParamName);
-            Assert.Equal("temperatureKelvin", Assert.ThrowsAny<ArgumentException>(() => p.SuperlatticeCarrierDensity(0.05, bad, EffectiveMass.FromElectronMasses(0.067))).ParamName);
-            Assert.Equal("densityPerNanometre", Assert.ThrowsAny<ArgumentException>(() => p.FermiLevelForLinearDensity(bad, 300)).ParamName);
-            Assert.Equal("densityPerCubicNanometre", Assert.ThrowsAny<ArgumentException>(() => p.FermiLevelForSuperlatticeDensity(bad, 300, EffectiveMass.FromElectronMasses(0.067))).ParamName);
+            Assert.Equal("kelvin", Assert.ThrowsAny<ArgumentException>(() => p.LinearCarrierDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(bad))).ParamName);
+            Assert.Equal("kelvin", Assert.ThrowsAny<ArgumentException>(() => p.SuperlatticeCarrierDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(bad), EffectiveMass.FromElectronMasses(0.067))).ParamName);
+            Assert.Equal("densityPerNanometre", Assert.ThrowsAny<ArgumentException>(() => p.FermiLevelForLinearDensity(bad, Temperature.FromKelvin(300))).ParamName);
+            Assert.Equal("densityPerCubicNanometre", Assert.ThrowsAny<ArgumentException>(() => p.FermiLevelForSuperlatticeDensity(bad, Temperature.FromKelvin(300), EffectiveMass.FromElectronMasses(0.067))).ParamName);
         }
-        Assert.Equal("fermiLevelElectronVolts", Assert.ThrowsAny<ArgumentException>(() => p.LinearCarrierDensity(double.NaN, 300)).ParamName);
-        Assert.Equal("inPlaneMass", Assert.ThrowsAny<ArgumentException>(() => p.SuperlatticeCarrierDensity(0.05, 300, default)).ParamName);
-        Assert.Equal("absoluteToleranceElectronVolts", Assert.ThrowsAny<ArgumentException>(() => p.FermiLevelForLinearDensity(0.1, 300, 0)).ParamName);
+        Assert.Equal("electronVolts", Assert.ThrowsAny<ArgumentException>(() => p.LinearCarrierDensity(Energy.FromElectronVolts(double.NaN), Temperature.FromKelvin(300))).ParamName);
+        Assert.Equal("inPlaneMass", Assert.ThrowsAny<ArgumentException>(() => p.SuperlatticeCarrierDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(300), default)).ParamName);
+        Assert.Equal("absoluteToleranceElectronVolts", Assert.ThrowsAny<ArgumentException>(() => p.FermiLevelForLinearDensity(0.1, Temperature.FromKelvin(300), 0)).ParamName);
         // Very high T needs bands that were not computed: a documented ArgumentOutOfRangeException, not a wrong number.
-        Assert.ThrowsAny<ArgumentOutOfRangeException>(() => p.LinearCarrierDensity(0.05, 1e5));
+        Assert.ThrowsAny<ArgumentOutOfRangeException>(() => p.LinearCarrierDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(1e5)));
         // A density above what the computed bands can hold.
-        Assert.ThrowsAny<ArgumentOutOfRangeException>(() => p.FermiLevelForLinearDensity(1e6, 300));
+        Assert.ThrowsAny<ArgumentOutOfRangeException>(() => p.FermiLevelForLinearDensity(1e6, Temperature.FromKelvin(300)));
     }
 }

@@ -168,7 +168,7 @@ public sealed partial class TightBindingBandTest(ITestOutputHelper output)
         {
             var cell = Periodic.Structures.UnitCell.Create(Periodic.Structures.FourierSegment.OpticalLattice(period, depth, mass));
             var refined = RefinedBandStructure.Compute(cell, 1);
-            var hopping = TightBindingBand.Fit(refined.Bands, 1).NearestNeighbourHoppingElectronVolts / recoil;
+            var hopping = TightBindingBand.Fit(refined.Structure, 1).NearestNeighbourHoppingElectronVolts / recoil;
             var zwerger = 4 / Math.Sqrt(Math.PI) * Math.Pow(depth, 0.75) * Math.Exp(-2 * Math.Sqrt(depth));
             var ratio = zwerger / hopping;
             output.WriteLine($"smooth s = {depth}: J/E_R = {hopping:E6}, Zwerger {zwerger:E4}, ratio {ratio:F4}, edge error {refined.MaxEdgeErrorElectronVolts / recoil:E1} E_R");

@@ -361,7 +361,7 @@ public sealed class StackTransmissionBiasTest(ITestOutputHelper output)
         Assert.Contains("energiesElectronVolts[1]", batch.Message, StringComparison.Ordinal);
         Assert.Equal(0.0, destination[0]); // nothing written before the check
         Assert.Equal("upperElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.FindResonances(0, 1e12)).ParamName);
-        Assert.Equal("temperatureKelvin", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(0.05, 1e13)).ParamName);
+        Assert.Equal("temperature", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(1e13))).ParamName);
         Assert.True(double.IsFinite(transmission.Evaluate(1e4).LogTransmission)); // 10 keV: a few thousand sublayers
     }
 

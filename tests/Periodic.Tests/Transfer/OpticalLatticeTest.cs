@@ -34,7 +34,7 @@ public sealed class OpticalLatticeTest
         var reference = MathieuReference.BandEdges(3, s / 4);
         for (var n = 1; n <= 3; n++)
         {
-            var band = result.Bands.GetBand(n);
+            var band = result.Structure.GetBand(n);
             double expectedBottom = (reference[2 * n - 2] + s / 2) * Recoil, expectedTop = (reference[2 * n - 1] + s / 2) * Recoil;
             Assert.True(Math.Abs(band.BottomElectronVolts - expectedBottom) <= 1e-10 * Math.Max(Recoil, expectedBottom), $"s = {s}, band {n} bottom");
             Assert.True(Math.Abs(band.TopElectronVolts - expectedTop) <= 1e-10 * Math.Max(Recoil, expectedTop), $"s = {s}, band {n} top");
@@ -51,7 +51,7 @@ public sealed class OpticalLatticeTest
     public void PlaneWaveAndTransfer_AgreeOnEveryEdge(double s)
     {
         // Acceptance: two independent methods agree to 1e-9 relative on every edge returned (4 bands).
-        var transfer = Bands(s, 4).Bands;
+        var transfer = Bands(s, 4).Structure;
         var solver = PlaneWaveSolver.Create(FourierSegment.OpticalLattice(Period, s, AtomMass));
         var centre = solver.EnergiesAt(0, 4);
         var boundary = solver.EnergiesAt(Math.PI / Period.Nanometres, 4);
@@ -75,7 +75,7 @@ public sealed class OpticalLatticeTest
         double previousRatio = 0, previousWidth = double.PositiveInfinity;
         foreach (var s in new[] { 10.0, 15.0, 20.0, 30.0, 40.0 })
         {
-            var width = Bands(s, 1).Bands.GetBand(1).WidthElectronVolts / Recoil;
+            var width = Bands(s, 1).Structure.GetBand(1).WidthElectronVolts / Recoil;
             var zwerger = 4 * (4 / Math.Sqrt(Math.PI)) * Math.Pow(s, 0.75) * Math.Exp(-2 * Math.Sqrt(s));
             var ratio = width / zwerger;
             Assert.True(width < previousWidth, $"s = {s}: width {width:G6} not below {previousWidth:G6}");
