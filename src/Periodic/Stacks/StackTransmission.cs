@@ -372,7 +372,6 @@ public sealed class StackTransmission
                 $"upperElectronVolts must exceed lowerElectronVolts ({Preconditions.Format(lowerElectronVolts)} eV); got {Preconditions.Format(upperElectronVolts)}.");
         }
         options ??= ResonanceSearchOptions.Default;
-        options.Validate(nameof(options));
         // The cost of a biased layer grows with |E − V|, largest at an end of the window.
         CheckBiasedCost(lowerElectronVolts, nameof(lowerElectronVolts), nameof(lowerElectronVolts));
         CheckBiasedCost(upperElectronVolts, nameof(upperElectronVolts), nameof(upperElectronVolts));
@@ -414,7 +413,6 @@ public sealed class StackTransmission
         var fermiLevelElectronVolts = fermiLevel.ElectronVolts;
         var temperatureKelvin = Preconditions.CheckRange(temperature.Kelvin, MinCurrentTemperatureKelvin, MaxCurrentTemperatureKelvin, nameof(temperature));
         options ??= CurrentDensityOptions.Default;
-        options.Validate(nameof(options));
         var edge = Math.Max(Stack.LeftLead.PotentialElectronVolts, RightLead.PotentialElectronVolts);
         var highestFermiLevel = Math.Max(fermiLevelElectronVolts, fermiLevelElectronVolts - Bias.ElectronVolts);
         if (highestFermiLevel - edge > MaxFermiLevelAboveEdgeElectronVolts)

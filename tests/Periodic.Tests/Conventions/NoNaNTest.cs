@@ -339,7 +339,7 @@ public sealed class NoNaNTest(ITestOutputHelper output)
             var cell = input.Spec.Build();
             // Leads 0.2 eV above the highest layer: a confining stack.
             var lead = Lead.Create(Energy.FromElectronVolts(input.Spec.MaximumPotential + 0.2), EffectiveMass.FromElectronMasses(0.1));
-            var spectrum = BoundStateSpectrum.Find(LayerStack.Periodic(lead, cell, input.Periods, lead), new BoundStateOptions { MaxLevels = 6 });
+            var spectrum = BoundStateSpectrum.Find(LayerStack.Periodic(lead, cell, input.Periods, lead), BoundStateOptions.Create(maxLevels: 6));
             spectra++;
             Finite(spectrum.ContinuumEdgeElectronVolts, "continuum edge");
             Finite(spectrum.LowerBoundElectronVolts, "lower bound");

@@ -265,7 +265,7 @@ public sealed class StackTransmissionBiasTest(ITestOutputHelper output)
         var stack = LayerStack.Periodic(Ground, cell, 100, Ground);
         var transmission = StackTransmission.Create(stack, Ev(1e-6));
         const double lower = 0.0790, upper = 0.0810;
-        var found = transmission.FindResonances(lower, upper, ResonanceSearchOptions.Default with { ScanPoints = 20 });
+        var found = transmission.FindResonances(lower, upper, ResonanceSearchOptions.Create(scanPoints: 20));
         var energies = new double[20_000];
         for (var i = 0; i < energies.Length; i++)
         {

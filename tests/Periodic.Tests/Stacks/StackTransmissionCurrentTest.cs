@@ -187,10 +187,11 @@ public sealed class StackTransmissionCurrentTest(ITestOutputHelper output)
         var temperature = Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(0)));
         Assert.Equal("temperature", temperature.ParamName);
         Assert.Contains("got 0", temperature.Message, StringComparison.Ordinal);
-        var options = Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(300), new CurrentDensityOptions { RelativeTolerance = 0 }));
-        Assert.Equal("options", options.ParamName);
-        Assert.Contains("RelativeTolerance", options.Message, StringComparison.Ordinal);
-        Assert.Equal("options", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(300), new CurrentDensityOptions { MaxEvaluations = 3 })).ParamName);
+        // Options are validated when created, naming the option, its value and the range.
+        var options = Assert.Throws<ArgumentOutOfRangeException>(() => CurrentDensityOptions.Create(relativeTolerance: 0));
+        Assert.Equal("relativeTolerance", options.ParamName);
+        Assert.Contains("got 0", options.Message, StringComparison.Ordinal);
+        Assert.Equal("maxEvaluations", Assert.Throws<ArgumentOutOfRangeException>(() => CurrentDensityOptions.Create(maxEvaluations: 3)).ParamName);
         // Allowed ranges (their limits are public constants): temperature, and the higher Fermi level above the lead edge.
         Assert.Equal("temperature", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(0.05))).ParamName);
         var hot = Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(1e9)));
@@ -217,7 +218,7 @@ public sealed class StackTransmissionCurrentTest(ITestOutputHelper output)
     {
         // A budget of one rule per piece cannot reach 1e-12: the result must say so rather than pretend.
         var transmission = StackTransmission.Create(LayerStack.Create(Ground, Ground, Slab(3, 0.3), Slab(6, 0), Slab(3, 0.3)), Energy.FromElectronVolts(0.08));
-        var result = transmission.CurrentDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(77), new CurrentDensityOptions { RelativeTolerance = 1e-12, MaxEvaluations = 200 });
+        var result = transmission.CurrentDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(77), CurrentDensityOptions.Create(relativeTolerance: 1e-12, maxEvaluations: 200));
         Assert.False(result.IsConverged);
         Assert.True(double.IsFinite(result.AmperesPerSquareMetre) && result.ErrorEstimateAmperesPerSquareMetre > 0);
         Assert.Contains("NOT converged", result.ToString(), StringComparison.Ordinal);
