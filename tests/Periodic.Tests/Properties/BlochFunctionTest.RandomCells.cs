@@ -6,11 +6,6 @@ using FsCheck.Fluent;
 using MathNet.Numerics.Integration;
 using Periodic.Bands;
 using Periodic.Properties;
-using Periodic.Serialization;
-using Periodic.Structures;
-using Periodic.Transfer;
-using Periodic.Units;
-using Xunit.Abstractions;
 using static Periodic.Tests.TestHelpers.Checks;
 
 namespace Periodic.Tests.Properties;
