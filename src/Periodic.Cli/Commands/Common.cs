@@ -175,8 +175,8 @@ internal static class Common
         foreach (var (name, lead) in new[] { ("leftLead", stack.LeftLead), ("rightLead", stack.RightLead) })
         {
             writer.WriteStartObject(name);
-            writer.WriteNumber("potential", lead.PotentialElectronVolts);
-            writer.WriteNumber("mass", lead.MassElectronMasses);
+            writer.WriteNumber("potential", lead.Potential.ElectronVolts);
+            writer.WriteNumber("mass", lead.Mass.ElectronMasses);
             writer.WriteEndObject();
         }
     }
