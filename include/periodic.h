@@ -144,8 +144,8 @@ int32_t periodic_stack_create(const periodic_cell *cell, int32_t periods, double
 /** Releases a stack (NULL allowed). */
 int32_t periodic_stack_destroy(periodic_stack *stack);
 
-/** Transmission probability T(E) at `count` energies (eV) above both leads' potentials, with a bias
- *  (eV, 0 for none) dropped linearly across the stack. */
+/** Transmission probability T(E) at `count` energies (eV), with a bias (eV, 0 for none) dropped linearly
+ *  across the stack. T = 0 where a lead carries no propagating state (below its potential). */
 int32_t periodic_stack_transmission(const periodic_stack *stack, double bias_ev, const double *energies_ev,
                                     double *transmission, size_t count);
 

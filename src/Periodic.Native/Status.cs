@@ -25,7 +25,8 @@ internal static class Status
 
     public static int Fail(int status, string message)
     {
-        s_lastError = message;
+        // One line, as C callers print it: .NET's "(Parameter 'x')" and "Actual value was" suffixes join the line.
+        s_lastError = string.Join(' ', message.Split(['\r', '\n'], StringSplitOptions.RemoveEmptyEntries | StringSplitOptions.TrimEntries));
         return status;
     }
 
