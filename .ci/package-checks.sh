@@ -148,8 +148,7 @@ for name, kind in sorted(expected.items()):
         checks["no binaries"] = not any(n.endswith((".dll", ".so", ".dylib")) for n in names)
     else:
         rid = name[len("Periodic.Cli."):-len(f".{version}.nupkg")]
-        natives = [n for n in names if n.endswith((".so", ".dylib")) or (n.endswith(".dll") and "Skia" not in n and "HarfBuzz" in n)]
-        skia = [n for n in names if re.search(r"(lib)?SkiaSharp\.(so|dylib|dll)$", n) and "/runtimes/" not in n]
+        skia = [n for n in names if re.search(r"/libSkiaSharp\.(so|dylib|dll)$", n)]
         checks[f"platform tool package (DotnetToolRidPackage) for {rid}"] = '<packageType name="DotnetToolRidPackage"' in nuspec
         checks["its own native binaries only (no runtimes/ folder of other platforms)"] = not any("/runtimes/" in n for n in names) and len(skia) == 1
     size = os.path.getsize(path)
