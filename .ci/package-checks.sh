@@ -70,7 +70,12 @@ git -C "$WORK/clone" tag -l | grep -q . && fail "the tagless clone has tags"
 head_version="$(version_of "$WORK/clone")"
 head_hash="$(git -C "$WORK/clone" rev-parse --short=8 HEAD)"
 echo "  tagless clone at HEAD ($head_hash): $head_version"
-[[ "$head_version" =~ ^1\.0\.0-alpha\.0\.[0-9]+\.g${head_hash}$ ]] || fail "untagged HEAD should be 1.0.0-alpha.0.<height>.g$head_hash, got $head_version"
+if [ "$(git rev-parse --is-shallow-repository)" = true ]; then
+  # The repository under test is itself shallow, so its clone is too: the shallow form is the right answer.
+  [[ "$head_version" =~ ^1\.0\.0-alpha\.0\.shallow\.[0-9]{14}(\.[0-9]+)?\.g${head_hash}$ ]] || fail "untagged HEAD of a shallow clone should be 1.0.0-alpha.0.shallow.<time>[.<height>].g$head_hash, got $head_version"
+else
+  [[ "$head_version" =~ ^1\.0\.0-alpha\.0\.[0-9]+\.g${head_hash}$ ]] || fail "untagged HEAD should be 1.0.0-alpha.0.<height>.g$head_hash, got $head_version"
+fi
 if git -C "$WORK/clone" rev-parse -q --verify HEAD~1 >/dev/null; then
   git -C "$WORK/clone" checkout -q HEAD~1
   parent_version="$(version_of "$WORK/clone")"

@@ -53,7 +53,8 @@ class BandsTest(unittest.TestCase):
         self.assertGreater(b.count_checks, 0)
 
     def test_energies_zoneCentreAndBoundaryAreEdges(self):
-        # Band 1 has its bottom at k = 0 and its top at k = π/d (Kronig–Penney, any textbook on Bloch bands).
+        # In a cell whose lowest band comes from a single well, band 1 has its bottom at k = 0 and its top at
+        # k = π/d (common practice, no single source).
         e = self.bands.energies(1, [0.0, math.pi / 7.0])
         self.assertEqual(float(e[0]), float(self.bands.bottom_ev[0]))
         self.assertAlmostEqual(float(e[1]), float(self.bands.top_ev[0]), delta=1e-12)
