@@ -10,8 +10,8 @@
  * confirm design-critical numbers by measurement.
  *
  * Conventions (every function):
- *  - Returns a periodic_status; PERIODIC_OK (0) is success. On any other code the outputs are left
- *    unwritten (arrays may be partly written only where stated) and periodic_last_error() gives a
+ *  - Returns a periodic_status; PERIODIC_OK (0) is success. On any other code handles and scalar
+ *    outputs are left unwritten, output arrays may be partly written, and periodic_last_error() gives a
  *    one-line message naming the argument, its value and what is allowed.
  *  - No exception or signal crosses the boundary; null pointers, short buffers and invalid values are
  *    reported as codes, never as crashes. (A pointer that is not null but points to freed or foreign
