@@ -34,7 +34,7 @@ step() {
 }
 fail() { echo "package-checks: FAILED: $*" >&2; exit 1; }
 
-for tool in gcc gfortran git "$PY"; do command -v "$tool" >/dev/null || fail "$tool is not installed (.ci/run installs it)"; done
+for tool in gcc g++ gfortran git "$PY"; do command -v "$tool" >/dev/null || fail "$tool is not installed (.ci/run installs it)"; done
 "$PY" -c "import numpy, nbclient, ipykernel" 2>/dev/null || fail "Debian's python3-numpy, python3-nbclient and python3-ipykernel are needed (.ci/run installs them)"
 command -v jupyter >/dev/null || fail "jupyter-nbconvert is not installed (.ci/run installs it)"
 
@@ -234,25 +234,27 @@ step "C ABI tests (null pointers, short buffers, invalid layers, threads)"
 gcc -std=c11 -Wall -Wextra -Werror -pthread -Iinclude tests/native/abi_test.c -L"$NATIVE" -lperiodic -lm -Wl,-rpath,'$ORIGIN' -o "$NATIVE/abi_test"
 "$NATIVE/abi_test"
 
-step "C and Fortran examples"
+step "C, C++ and Fortran examples"
 gcc -std=c11 -Wall -Wextra -Werror -Iinclude docs/embedding/c/example.c -L"$NATIVE" -lperiodic -Wl,-rpath,'$ORIGIN' -o "$NATIVE/example"
 "$NATIVE/example" | tee "$WORK/c.txt"
 gfortran -std=f2008 -Wall -Werror -J "$NATIVE" docs/embedding/fortran/example.f90 -L"$NATIVE" -lperiodic -Wl,-rpath,'$ORIGIN' -o "$NATIVE/example-fortran"
 "$NATIVE/example-fortran" | tee "$WORK/fortran.txt"
+g++ -std=c++17 -Wall -Wextra -Werror -Iinclude docs/embedding/cpp/example.cpp -L"$NATIVE" -lperiodic -Wl,-rpath,'$ORIGIN' -o "$NATIVE/example-cpp"
+"$NATIVE/example-cpp" | tee "$WORK/cpp.txt"
 
 step "Python module tests (with NumPy, and with plain lists)"
 "$PY" -m unittest discover -s python/tests
 python3 -c "import numpy" 2>/dev/null && echo "  (the default python3 has NumPy: plain-list run skipped)" || python3 -m unittest discover -s python/tests
 
-step "bitwise agreement: band edges of the superlattice from C, Fortran and Python equal the .NET tool's"
-"$PY" - "$WORK/dotnet-bands.json" "$WORK/c.txt" "$WORK/fortran.txt" <<'PY' || fail "bitwise agreement"
+step "bitwise agreement: band edges of the superlattice from C, Fortran, C++ and Python equal the .NET tool's"
+"$PY" - "$WORK/dotnet-bands.json" "$WORK/c.txt" "$WORK/fortran.txt" "$WORK/cpp.txt" <<'PY' || fail "bitwise agreement"
 import json, re, struct, sys
 sys.path.insert(0, "python")
 import periodic
 bits = lambda x: struct.pack("<d", x).hex()
 dotnet = {(b["index"], key): b[key] for b in json.load(open(sys.argv[1]))["bands"] for key in ("bottom", "top", "massAtBottom", "massAtTop")}
 sources = {}
-for label, path in (("C", sys.argv[2]), ("Fortran", sys.argv[3])):
+for label, path in (("C", sys.argv[2]), ("Fortran", sys.argv[3]), ("C++", sys.argv[4])):
     values = {}
     for line in open(path):
         if line.startswith("band "):
