@@ -12,7 +12,7 @@
 #    executes the Python notebook headless with the command docs/periodic-tour.ipynb gives.
 # Needs gcc, gfortran and Debian's python3-numpy, python3-nbclient, jupyter-nbconvert, python3-ipykernel
 # (.ci/run installs them). Exits non-zero on the first failure.
-# Usage: bash .ci/package-checks.sh            (from anywhere; about 10-15 minutes on 2 cores)
+# Usage: bash .ci/package-checks.sh            (from anywhere; about 10-20 minutes on 2 cores)
 set -euo pipefail
 cd "$(dirname "$0")/.."
 ROOT="$PWD"
