@@ -5,6 +5,7 @@ using System.Globalization;
 using Periodic.Bands;
 using Periodic.Transfer;
 using Periodic.Units;
+using Periodic.Numerics;
 
 namespace Periodic.Properties;
 
@@ -228,7 +229,7 @@ public sealed partial class BandProperties
     private double Phase(double k, string parameter, int element = -1)
     {
         var phase = Math.Abs(k) * _d;
-        if (!(phase <= Math.PI * (1 + 8 * 2.220446049250313e-16)))
+        if (!(phase <= Math.PI * (1 + 8 * FloatingPoint.MachineEpsilon)))
         {
             var paramName = element < 0 ? parameter : ElementName(parameter, element);
             throw new ArgumentOutOfRangeException(parameter, k,

@@ -7,6 +7,7 @@ using Periodic.Bands;
 using Periodic.Structures;
 using Periodic.Transfer;
 using Periodic.Units;
+using Periodic.Numerics;
 
 namespace Periodic.Properties;
 
@@ -63,7 +64,7 @@ public sealed class BlochFunction
     private readonly int _bridged;
     private readonly Complex _bridgeRight;
 
-    private const double Epsilon = 2.220446049250313e-16;
+    private const double Epsilon = FloatingPoint.MachineEpsilon;
 
     /// <summary>The largest relative rounding error accepted: the amplification e^(Σκw) of evanescent layers times ε.</summary>
     private const double MaxRelativeErrorEstimate = 1e-6;
@@ -409,10 +410,11 @@ public sealed class BlochFunction
             if (pieces.IsStep[i])
             {
                 // |Hermite cubic|² is a polynomial of degree 6: the 4-point Gauss–Legendre rule integrates it exactly.
-                for (var g = 0; g < HermiteNodes.Length; g++)
+                var rule = GaussLegendre.Four;
+                for (var g = 0; g < rule.Order; g++)
                 {
-                    var psi = Hermite(HermiteNodes[g], widths[i], us[i], ws[i] * masses[i], pieces.URight[i], pieces.WRight[i] * pieces.MassesRight[i], out _);
-                    norm += HermiteWeights[g] * widths[i] * (psi.Real * psi.Real + psi.Imaginary * psi.Imaginary);
+                    var psi = Hermite(0.5 + 0.5 * rule.Nodes[g], widths[i], us[i], ws[i] * masses[i], pieces.URight[i], pieces.WRight[i] * pieces.MassesRight[i], out _);
+                    norm += 0.5 * rule.Weights[g] * widths[i] * (psi.Real * psi.Real + psi.Imaginary * psi.Imaginary);
                 }
                 continue;
             }
@@ -442,20 +444,6 @@ public sealed class BlochFunction
         return new BlochFunction(errorEstimate, bandIndex, wavevectorPerNanometre, energy, d, pieces,
             end.U * factor, end.W * factor, u0 * factor, w0 * factor, thickIndex, right * factor);
     }
-
-    /// <summary>Nodes of the 4-point Gauss–Legendre rule on [0, 1] (Abramowitz and Stegun, Table 25.4).</summary>
-    private static readonly double[] HermiteNodes =
-    [
-        0.5 - 0.5 * 0.86113631159405257522, 0.5 - 0.5 * 0.33998104358485626480,
-        0.5 + 0.5 * 0.33998104358485626480, 0.5 + 0.5 * 0.86113631159405257522,
-    ];
-
-    /// <summary>Weights of the 4-point Gauss–Legendre rule on [0, 1].</summary>
-    private static readonly double[] HermiteWeights =
-    [
-        0.5 * 0.34785484513745385737, 0.5 * 0.65214515486254614263,
-        0.5 * 0.65214515486254614263, 0.5 * 0.34785484513745385737,
-    ];
 
     /// <summary>
     /// The cubic Hermite interpolant at τ ∈ [0, 1] of a step of width h from ψ and ψ′ at both ends, and its
@@ -499,7 +487,7 @@ public sealed class BlochFunction
         var na = a.Item1.Magnitude + a.Item2.Magnitude;
         var nb = b.Item1.Magnitude + b.Item2.Magnitude;
         var largest = Math.Max(Math.Max(Math.Abs(m.M11), Math.Abs(m.M22)), Math.Max(Math.Abs(b12), Math.Abs(b21)));
-        var threshold = 64 * 2.220446049250313e-16 * (largest + 1);
+        var threshold = 64 * FloatingPoint.MachineEpsilon * (largest + 1);
         if (Math.Max(na, nb) > threshold)
         {
             var v = na >= nb ? a : b;

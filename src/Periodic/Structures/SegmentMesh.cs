@@ -1,6 +1,7 @@
 // SPDX-License-Identifier: MIT
 // Copyright (c) 2026 Periodic contributors
 
+using Periodic.Numerics;
 using Periodic.Units;
 
 namespace Periodic.Structures;
@@ -22,10 +23,10 @@ internal sealed class SegmentMesh
     private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
 
     /// <summary>Lower Gauss–Legendre node on [0, 1].</summary>
-    internal const double Node1 = 0.5 - 0.28867513459481288225; // 1/2 − √3/6
+    internal const double Node1 = 0.5 - GaussLegendre.TwoPointOffsetOnUnitInterval; // 1/2 − √3/6
 
     /// <summary>Upper Gauss–Legendre node on [0, 1].</summary>
-    internal const double Node2 = 0.5 + 0.28867513459481288225;
+    internal const double Node2 = 0.5 + GaussLegendre.TwoPointOffsetOnUnitInterval;
 
     private const double CommutatorWeight = 0.14433756729740644113; // √3/12
 
