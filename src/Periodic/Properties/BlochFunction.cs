@@ -425,10 +425,11 @@ public sealed class BlochFunction
                 continue;
             }
             var (cl, sl) = Functions(s[i], widths[i]);
+            UniformLayerPropagator.SquareIntegrals(s[i], widths[i], cl, sl, out var cc, out var cs, out var ss);
             var mass = masses[i];
-            norm += us[i].Magnitude * us[i].Magnitude * 0.5 * (widths[i] + cl * sl)
-                + 2 * mass * (us[i] * Complex.Conjugate(ws[i])).Real * 0.5 * sl * sl
-                + mass * mass * ws[i].Magnitude * ws[i].Magnitude * IntegralOfSincSquared(s[i], widths[i], cl, sl);
+            norm += us[i].Magnitude * us[i].Magnitude * cc
+                + 2 * mass * (us[i] * Complex.Conjugate(ws[i])).Real * cs
+                + mass * mass * ws[i].Magnitude * ws[i].Magnitude * ss;
         }
         // Normalise and fix the phase.
         var scale = 1 / Math.Sqrt(norm);
@@ -503,48 +504,8 @@ public sealed class BlochFunction
     /// <summary>c = cos(√s·t) and S = sin(√s·t)/√s (hyperbolic for s &lt; 0), unscaled.</summary>
     private static (double C, double S) Functions(double s, double t)
     {
-        UniformLayerPropagator.Evaluate(s, t, out var c, out var sinc, out _, out _, out var logScale);
-        if (logScale != 0)
-        {
-            var grow = Math.Exp(logScale);
-            c *= grow;
-            sinc *= grow;
-        }
+        UniformLayerPropagator.UnscaledValues(s, t, out var c, out var sinc);
         return (c, sinc);
-    }
-
-    /// <summary>∫₀^w S(t)² dt = (w − c S)/(2s), by its power series in z = s w² where that difference cancels.</summary>
-    private static double IntegralOfSincSquared(double s, double w, double c, double sinc)
-    {
-        var z = s * w * w;
-        if (Math.Abs(z) >= 1)
-        {
-            return (w - c * sinc) / (2 * s);
-        }
-        // S(t)² = t² Σ_j b_j (s t²)^j with b the Cauchy square of (−1)^j/(2j+1)!; integrate term by term.
-        const int terms = 20;
-        Span<double> a = stackalloc double[terms];
-        double factorial = 1;
-        for (var j = 0; j < terms; j++)
-        {
-            if (j > 0)
-            {
-                factorial *= (2 * j) * (2 * j + 1);
-            }
-            a[j] = (j % 2 == 0 ? 1 : -1) / factorial;
-        }
-        double sum = 0, power = 1;
-        for (var j = 0; j < terms; j++)
-        {
-            double b = 0;
-            for (var i = 0; i <= j; i++)
-            {
-                b += a[i] * a[j - i];
-            }
-            sum += b * power / (2 * j + 3);
-            power *= z;
-        }
-        return w * w * w * sum;
     }
 
     /// <summary>ψ(x) in nm^(−1/2) at <paramref name="positionNanometres"/> (any real x).</summary>

@@ -199,12 +199,12 @@ public sealed class BoundWavefunction
         _profile.LayerCoefficients(i, _energy, out var mass, out var s);
         if (i < _leftPiece)
         {
-            UniformLayerPropagator.Evaluate(s, x - boundaries[i], out var c, out var sinc, out _, out _, out var logScale);
+            UniformLayerPropagator.Values(s, x - boundaries[i], out var c, out var sinc, out var logScale);
             return (c * _u[i] + mass * sinc * _w[i]) * Math.Exp(_log[i] + logScale);
         }
         else
         {
-            UniformLayerPropagator.Evaluate(s, boundaries[i + 1] - x, out var c, out var sinc, out _, out _, out var logScale);
+            UniformLayerPropagator.Values(s, boundaries[i + 1] - x, out var c, out var sinc, out var logScale);
             return (c * _u[i + 1] - mass * sinc * _w[i + 1]) * Math.Exp(_log[i + 1] + logScale);
         }
     }

@@ -116,7 +116,7 @@ internal sealed class StackProfile
             return 0;
         }
         LayerCoefficients(i, e, out var mass, out var s);
-        UniformLayerPropagator.Evaluate(s, Widths[i], out var c, out var sinc, out _, out _, out var logScale);
+        UniformLayerPropagator.Values(s, Widths[i], out var c, out var sinc, out var logScale);
         var u1 = c * u + mass * sinc * w;
         var w1 = -(s / mass) * sinc * u + c * w;
         var zeros = CellTransfer.LayerZeros(u, w, u1, w1, s, Widths[i], mass);
@@ -136,7 +136,7 @@ internal sealed class StackProfile
             return;
         }
         LayerCoefficients(i, e, out var mass, out var s);
-        UniformLayerPropagator.Evaluate(s, Widths[i], out var c, out var sinc, out _, out _, out var logScale);
+        UniformLayerPropagator.Values(s, Widths[i], out var c, out var sinc, out var logScale);
         var u0 = c * u - mass * sinc * w;
         var w0 = (s / mass) * sinc * u + c * w;
         u = u0;
@@ -205,24 +205,9 @@ internal sealed class StackProfile
         }
         else
         {
-            UniformLayerPropagator.Evaluate(s, width, out var c, out var sinc, out _, out _, out _);
-            double sincSquared;
-            if (Math.Abs(z) < 1)
-            {
-                // ∫₀ʷ S² = w³ Σ_{n≥1} (−1)^{n+1} 2^{2n−1} z^{n−1} / (2n+1)!  (series of sin²; avoids 0/0 at s → 0).
-                double sum = 0, term = 1.0 / 3.0;
-                for (var n = 1; n <= 16; n++)
-                {
-                    sum += term;
-                    term *= -4.0 * z / ((2 * n + 2) * (2.0 * n + 3));
-                }
-                sincSquared = width * width * width * sum;
-            }
-            else
-            {
-                sincSquared = (width - c * sinc) / (2 * s);
-            }
-            integral = a * a * 0.5 * (width + c * sinc) + a * b * sinc * sinc + b * b * sincSquared;
+            UniformLayerPropagator.UnscaledValues(s, width, out var c, out var sinc);
+            UniformLayerPropagator.SquareIntegrals(s, width, c, sinc, out var cc, out var cs, out var ss);
+            integral = a * a * cc + 2 * a * b * cs + b * b * ss;
         }
         return integral > 0 ? Math.Log(integral) + logExtra : double.NegativeInfinity;
     }

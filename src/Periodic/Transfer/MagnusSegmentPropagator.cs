@@ -124,13 +124,7 @@ internal sealed class MagnusSegmentPropagator : ISegmentPropagator
         var beta = mesh.Beta[j];
         var gamma = mesh.Gamma0[j] - mesh.Gamma1[j] * e;
         zeta = -(alpha * alpha + beta * gamma);
-        UniformLayerPropagator.Evaluate(zeta, 1.0, out var c, out var s, out _, out _, out var logScale);
-        if (logScale != 0)
-        {
-            var grow = Math.Exp(logScale);
-            c *= grow;
-            s *= grow;
-        }
+        UniformLayerPropagator.UnscaledValues(zeta, 1.0, out var c, out var s);
         m11 = c + s * alpha;
         m22 = c - s * alpha;
         m12 = s * beta;
