@@ -443,10 +443,7 @@ internal sealed class BandEdgeFinder
                 derivative = double.PositiveInfinity;
                 return double.PositiveInfinity; // far outside any narrow gap: only the sign matters
             }
-            var s = Math.Exp(p.LogScale);
-            double e11 = p.P11 * s - sign, e22 = p.P22 * s - sign, m12 = p.P12 * s, m21 = p.P21 * s;
-            derivative = (p.D11 * e22 + e11 * p.D22 - p.D12 * m21 - m12 * p.D21) * s;
-            return e11 * e22 - m12 * m21;
+            return p.DeterminantOffIdentity(Math.Exp(p.LogScale), sign, out derivative);
         }
     }
 
@@ -455,7 +452,7 @@ internal sealed class BandEdgeFinder
         public double Evaluate(double x, out double derivative)
         {
             var p = transfer.Accumulate(x);
-            var trace = p.P11 + p.P22;
+            var trace = p.TraceMantissa;
             if (p.LogScale > 700)
             {
                 // |D| is astronomically far from ±2 here: only the sign matters to the bracket.
@@ -468,7 +465,7 @@ internal sealed class BandEdgeFinder
                 derivative = slope;
                 return value;
             }
-            derivative = (p.D11 + p.D22) * scale;
+            derivative = p.TraceDerivativeMantissa * scale;
             return trace * scale - target;
         }
     }
@@ -480,7 +477,7 @@ internal sealed class BandEdgeFinder
         public double Evaluate(double x)
         {
             var p = transfer.Accumulate(x);
-            return p.D11 + p.D22; // the sign of dD/dE is that of its mantissa
+            return p.TraceDerivativeMantissa; // the sign of dD/dE is that of its mantissa
         }
     }
 }

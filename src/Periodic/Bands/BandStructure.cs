@@ -395,8 +395,8 @@ public sealed class BandStructure
         {
             var p = transfer.Accumulate(x);
             var scale = Math.Exp(p.LogScale);
-            derivative = (p.D11 + p.D22) * scale;
-            return (p.P11 + p.P22) * scale - value;
+            derivative = p.TraceDerivativeMantissa * scale;
+            return p.TraceMantissa * scale - value;
         }
     }
 

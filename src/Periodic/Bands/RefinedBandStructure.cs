@@ -193,7 +193,7 @@ public sealed class RefinedBandStructure
                 return root * Math.Max(n, FloatingPoint.MachineEpsilon) / Math.Abs(detSlope);
             }
         }
-        var slope = Math.Abs(product.D11 + product.D22);
+        var slope = Math.Abs(product.TraceDerivativeMantissa);
         // Unit-balanced size of M: M12 and M21 carry reciprocal units.
         var entries = Math.Max(Math.Max(Math.Abs(product.P11), Math.Abs(product.P22)), Math.Sqrt(Math.Abs(product.P12 * product.P21)));
         if (!(slope > 0))
@@ -280,7 +280,7 @@ public sealed class RefinedBandStructure
     }
 
     private static long StepCount(UnitCell cell) =>
-        cell.Elements.OfType<IMeshedSegment>().Sum(s => (long)s.Mesh.StepCount);
+        cell.Elements.OfType<IMeshedSegment>().Sum(s => (long)s.Samples.StepCount);
 
     /// <inheritdoc />
     public override string ToString()

@@ -131,7 +131,7 @@ public sealed partial class BandProperties
         }
         // Near a closed gap D − 2σ = (D″/2)δ² + (D‴/6)δ³ and D/2 = σ cos(qd) with q the extended-zone
         // offset; matching orders with δ = a q + b q² gives a² = −2σd²/D″ and b = σ D‴ d² / (3 D″²).
-        var jet = DispersionDerivatives.Evaluate(_structure.Cell, energy);
+        var jet = DispersionDerivatives.Evaluate(_structure.Transfer.Compiled, energy);
         var d2 = jet.D2; // the common scale cancels in both ratios below
         var d3 = jet.D3;
         var a2 = -2 * sigma * _d * _d / (d2 * jet.Scale);

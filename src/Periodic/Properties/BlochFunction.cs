@@ -240,16 +240,11 @@ public sealed class BlochFunction
                 $"the transfer matrix of the cell at {energy:R} eV exceeds the double range; the Bloch function cannot be propagated through barriers this opaque."), nameof(structure));
         }
         // Per-piece data; the opacity Σκw of the evanescent layers and steps sets the rounding of forward propagation.
-        var elements = cell.ElementSpan;
+        var compiled = transfer.Compiled;
         var pieceCount = 0;
-        foreach (var element in elements)
+        for (var el = 0; el < compiled.Count; el++)
         {
-            pieceCount += element switch
-            {
-                Layer => 1,
-                IMeshedSegment smooth => smooth.Mesh.StepCount,
-                _ => 0,
-            };
+            pieceCount += compiled.IsLayer(el) ? 1 : compiled.IsDelta(el) ? 0 : compiled.Segment(el).Mesh.StepCount;
         }
         var pieces = new Pieces(pieceCount);
         var starts = pieces.Starts;
@@ -260,11 +255,15 @@ public sealed class BlochFunction
         double opacity = 0, thickest = 0, x = 0, massLength = 0; // massLength = ∫m dx = m̄d
         var thickIndex = -1;
         var index = 0;
-        foreach (var element in elements)
+        for (var el = 0; el < compiled.Count; el++)
         {
-            if (element is IMeshedSegment smooth)
+            if (compiled.IsDelta(el))
             {
-                var mesh = smooth.Mesh;
+                continue;
+            }
+            if (!compiled.IsLayer(el))
+            {
+                var mesh = compiled.Segment(el).Mesh;
                 for (var j = 0; j < mesh.StepCount; j++, index++)
                 {
                     MagnusSegmentPropagator.StepMatrix(mesh, j, energy,
@@ -282,15 +281,9 @@ public sealed class BlochFunction
                 }
                 continue;
             }
-            if (element is not Layer layer)
-            {
-                continue;
-            }
-            var excess = energy - layer.Potential.ElectronVolts;
-            masses[index] = layer.Mass.ElectronMasses * (1 + layer.NonParabolicityPerElectronVolt * excess);
+            compiled.LayerCoefficients(el, energy, out masses[index], out s[index]);
             pieces.MassesRight[index] = masses[index];
-            s[index] = masses[index] * excess / C;
-            widths[index] = layer.Width.Nanometres;
+            widths[index] = compiled.LayerData(el).Width;
             massLength += masses[index] * widths[index];
             starts[index] = x;
             x += widths[index];
@@ -330,20 +323,20 @@ public sealed class BlochFunction
         var ws = pieces.W;
         Complex u = u0, w = w0, right = Complex.Zero;
         index = 0;
-        foreach (var element in elements)
+        for (var el = 0; el < compiled.Count; el++)
         {
-            if (index == thickIndex && element is Layer)
+            if (index == thickIndex && compiled.IsLayer(el))
             {
                 us[index] = u;
                 ws[index] = w;
                 break;
             }
-            switch (element)
+            switch (compiled.IsDelta(el) ? 0 : compiled.IsLayer(el) ? 1 : 2)
             {
-                case DeltaBarrier delta:
-                    w += delta.StrengthElectronVoltNanometres / C * u;
+                case 0:
+                    w += compiled.DeltaJump(el) * u;
                     break;
-                case Layer:
+                case 1:
                 {
                     us[index] = u;
                     ws[index] = w;
@@ -352,8 +345,8 @@ public sealed class BlochFunction
                     index++;
                     break;
                 }
-                case IMeshedSegment smooth:
-                    for (var j = 0; j < smooth.Mesh.StepCount; j++, index++)
+                default:
+                    for (var j = 0; j < compiled.Segment(el).Mesh.StepCount; j++, index++)
                     {
                         us[index] = u;
                         ws[index] = w;
@@ -372,16 +365,16 @@ public sealed class BlochFunction
             Complex ub = lambda * u0, wb = lambda * w0;
             end = (ub, wb);
             var li = pieceCount - 1;
-            for (var e = elements.Length - 1; e >= 0; e--)
+            for (var el = compiled.Count - 1; el >= 0; el--)
             {
-                if (elements[e] is DeltaBarrier delta)
+                if (compiled.IsDelta(el))
                 {
-                    wb -= delta.StrengthElectronVoltNanometres / C * ub;
+                    wb -= compiled.DeltaJump(el) * ub;
                     continue;
                 }
-                if (elements[e] is IMeshedSegment smooth)
+                if (!compiled.IsLayer(el))
                 {
-                    for (var j = smooth.Mesh.StepCount - 1; j >= 0; j--, li--)
+                    for (var j = compiled.Segment(el).Mesh.StepCount - 1; j >= 0; j--, li--)
                     {
                         pieces.URight[li] = ub;
                         pieces.WRight[li] = wb;
@@ -446,18 +439,12 @@ public sealed class BlochFunction
             end.U * factor, end.W * factor, u0 * factor, w0 * factor, thickIndex, right * factor);
     }
 
-    /// <summary>
-    /// The cubic Hermite interpolant at τ ∈ [0, 1] of a step of width h from ψ and ψ′ at both ends, and its
-    /// derivative dψ/dx. Its error is h⁴·max|ψ⁗|/384, the order of the Magnus scheme itself.
-    /// </summary>
+    /// <summary>The cubic Hermite interpolant of a step (the kernel's basis, <see cref="MagnusSegmentPropagator.Hermite"/>) and its derivative dψ/dx.</summary>
     private static Complex Hermite(double tau, double h, Complex psiLeft, Complex slopeLeft, Complex psiRight, Complex slopeRight, out Complex derivative)
     {
-        var t2 = tau * tau;
-        var t3 = t2 * tau;
-        double h00 = 2 * t3 - 3 * t2 + 1, h10 = t3 - 2 * t2 + tau, h01 = -2 * t3 + 3 * t2, h11 = t3 - t2;
-        double d00 = 6 * t2 - 6 * tau, d10 = 3 * t2 - 4 * tau + 1, d01 = -6 * t2 + 6 * tau, d11 = 3 * t2 - 2 * tau;
-        derivative = (d00 * psiLeft + d01 * psiRight) / h + d10 * slopeLeft + d11 * slopeRight;
-        return h00 * psiLeft + h10 * h * slopeLeft + h01 * psiRight + h11 * h * slopeRight;
+        var b = MagnusSegmentPropagator.Hermite(tau);
+        derivative = (b.D00 * psiLeft + b.D01 * psiRight) / h + b.D10 * slopeLeft + b.D11 * slopeRight;
+        return b.H00 * psiLeft + b.H10 * h * slopeLeft + b.H01 * psiRight + b.H11 * h * slopeRight;
     }
 
     /// <summary>

@@ -38,42 +38,37 @@ internal static class DispersionDerivatives
 {
     private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
 
-    internal static DispersionJet Evaluate(UnitCell cell, double e)
+    internal static DispersionJet Evaluate(UnitCell cell, double e) => Evaluate(new CompiledCell(cell.ElementSpan, nameof(cell)), e);
+
+    internal static DispersionJet Evaluate(CompiledCell cell, double e)
     {
         // P = identity; each entry a jet.
         Jet p11 = Jet.Constant(1), p12 = default, p21 = default, p22 = Jet.Constant(1);
         double logScale = 0;
-        foreach (var element in cell.ElementSpan)
+        for (var i = 0; i < cell.Count; i++)
         {
-            switch (element)
+            if (cell.IsLayer(i))
             {
-                case Layer layer:
+                LayerJets(cell, i, e, out var m11, out var m12, out var m21, out var m22, out var l);
+                ApplyLeft(m11, m12, m21, m22, l, ref p11, ref p12, ref p21, ref p22, ref logScale);
+            }
+            else if (cell.IsDelta(i))
+            {
+                ApplyLeft(Jet.Constant(1), default, Jet.Constant(cell.DeltaJump(i)), Jet.Constant(1), 0,
+                    ref p11, ref p12, ref p21, ref p22, ref logScale);
+            }
+            else
+            {
+                var mesh = cell.Segment(i).Mesh;
+                for (var j = 0; j < mesh.StepCount; j++)
                 {
-                    LayerJets(layer, e, out var m11, out var m12, out var m21, out var m22, out var l);
+                    StepJets(mesh, j, e, out var m11, out var m12, out var m21, out var m22, out var l);
                     ApplyLeft(m11, m12, m21, m22, l, ref p11, ref p12, ref p21, ref p22, ref logScale);
-                    break;
                 }
-                case DeltaBarrier delta:
-                    ApplyLeft(Jet.Constant(1), default, Jet.Constant(delta.StrengthElectronVoltNanometres / C), Jet.Constant(1), 0,
-                        ref p11, ref p12, ref p21, ref p22, ref logScale);
-                    break;
-                case IMeshedSegment smooth:
-                {
-                    var mesh = smooth.Mesh;
-                    for (var j = 0; j < mesh.StepCount; j++)
-                    {
-                        StepJets(mesh, j, e, out var m11, out var m12, out var m21, out var m22, out var l);
-                        ApplyLeft(m11, m12, m21, m22, l, ref p11, ref p12, ref p21, ref p22, ref logScale);
-                    }
-                    break;
-                }
-                default:
-                    throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
-                        $"cell element of unsupported type {element.GetType().Name}."), nameof(cell));
             }
         }
         var trace = p11 + p22;
-        // Taylor coefficients to derivatives: f'' = 2 a2, f''' = 6 a3.
+        // Taylor coefficients to derivatives: D'' = 2 a2, the third derivative = 6 a3.
         return new DispersionJet(trace.A0, trace.A1, 2 * trace.A2, 6 * trace.A3, logScale);
     }
 
@@ -117,13 +112,12 @@ internal static class DispersionDerivatives
         m21 = sJet * gamma;
     }
 
-    private static void LayerJets(Layer layer, double e, out Jet m11, out Jet m12, out Jet m21, out Jet m22, out double logScale)
+    private static void LayerJets(CompiledCell cell, int i, double e, out Jet m11, out Jet m12, out Jet m21, out Jet m22, out double logScale)
     {
-        var excess = e - layer.Potential.ElectronVolts;
-        var slope = layer.Mass.ElectronMasses * layer.NonParabolicityPerElectronVolt;
-        var mass = new Jet(layer.Mass.ElectronMasses + slope * excess, slope, 0, 0);
+        var (width, potential, bandEdgeMass, slope) = cell.LayerData(i);
+        var excess = e - potential;
+        var mass = new Jet(bandEdgeMass + slope * excess, slope, 0, 0);
         var s = (1.0 / C) * (mass * new Jet(excess, 1, 0, 0));
-        var width = layer.Width.Nanometres;
         UniformLayerPropagator.Taylor3(s.A0, width, out var c, out var sinc, out logScale);
         var cJet = Compose(c, s);
         var sJet = Compose(sinc, s);

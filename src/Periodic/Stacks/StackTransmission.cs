@@ -49,31 +49,18 @@ public sealed class StackTransmission
         {
             var part = parts[i];
             var elements = part.Cell is null ? [part.Element!] : part.Cell.Elements.ToArray();
-            var compiled = new CompiledElement[elements.Length];
-            for (var j = 0; j < elements.Length; j++)
+            // The kernel compiles every element kind it can propagate (layers, deltas, smooth segments) and rejects the rest.
+            var compiled = new CompiledCell(elements, nameof(stack));
+            lowest = Math.Max(lowest, compiled.LowestValidEnergyElectronVolts);
+            foreach (var element in elements)
             {
-                switch (elements[j])
+                if (element is Layer layer)
                 {
-                    case Layer layer:
-                        var transfer = CellTransfer.Create(UnitCell.Create(layer));
-                        lowest = Math.Max(lowest, transfer.LowestValidEnergyElectronVolts);
-                        compiled[j] = new CompiledElement(transfer, 0);
-                        var material = (layer.Potential.ElectronVolts, layer.Mass.ElectronMasses, layer.Mass.ElectronMasses * layer.NonParabolicityPerElectronVolt);
-                        if (!materials.Contains(material))
-                        {
-                            materials.Add(material);
-                        }
-                        break;
-                    case DeltaBarrier delta:
-                        compiled[j] = new CompiledElement(null, delta.StrengthElectronVoltNanometres / C);
-                        break;
-                    default:
-                        // Any other element of positive width (a smooth segment) propagates through its own
-                        // one-element cell; the core rejects kinds it cannot propagate.
-                        var segment = CellTransfer.Create(UnitCell.Create(elements[j]));
-                        lowest = Math.Max(lowest, segment.LowestValidEnergyElectronVolts);
-                        compiled[j] = new CompiledElement(segment, 0);
-                        break;
+                    var material = (layer.Potential.ElectronVolts, layer.Mass.ElectronMasses, layer.Mass.ElectronMasses * layer.NonParabolicityPerElectronVolt);
+                    if (!materials.Contains(material))
+                    {
+                        materials.Add(material);
+                    }
                 }
             }
             _parts[i] = new CompiledPart(compiled, part.Repetitions, part.Cell is null || part.Repetitions == 1 ? null : CellTransfer.Create(part.Cell));
@@ -528,9 +515,10 @@ public sealed class StackTransmission
         foreach (var part in _parts)
         {
             var s = ScatteringMatrix.Identity;
-            foreach (var element in part.Elements)
+            for (var i = 0; i < part.Elements.Count; i++)
             {
-                s = ScatteringMatrix.Compose(s, element.Scattering(e, q));
+                part.Elements.ElementMatrix(i, e, out var m11, out var m12, out var m21, out var m22, out var logScale);
+                s = ScatteringMatrix.Compose(s, ScatteringMatrix.FromTransfer(m11, m12, m21, m22, logScale, q));
             }
             if (part.Repetitions > 1)
             {
@@ -583,7 +571,7 @@ public sealed class StackTransmission
         }
     }
 
-    private readonly record struct CompiledPart(CompiledElement[] Elements, int Repetitions, CellTransfer? Cell);
+    private readonly record struct CompiledPart(CompiledCell Elements, int Repetitions, CellTransfer? Cell);
 
     /// <summary>A repeated cell of a biased stack and, per copy, the energy shift field·x of the copy's middle.</summary>
     private readonly record struct PhaseGuide(CellTransfer Cell, double[] Shifts);
@@ -634,19 +622,6 @@ public sealed class StackTransmission
         var kd = cell.Dispersion(e).Wavevector.PhasePerPeriod; // in [0, π]
         var within = (band & 1) == 1 ? kd : Math.PI - kd;
         return (band - 1) * Math.PI + within;
-    }
-
-    private readonly record struct CompiledElement(CellTransfer? Layer, double DeltaJump)
-    {
-        internal ScatteringMatrix Scattering(double e, double q)
-        {
-            if (Layer is null)
-            {
-                return ScatteringMatrix.FromTransfer(1, 0, DeltaJump, 1, 0, q);
-            }
-            var p = Layer.Accumulate(e);
-            return ScatteringMatrix.FromTransfer(p.P11, p.P12, p.P21, p.P22, p.LogScale, q);
-        }
     }
 
     /// <inheritdoc />

@@ -41,7 +41,7 @@ public sealed class FourierSegment : CellElement, IMeshedSegment
         Mass = mass;
         StepCount = stepCount;
         (MinimumPotentialElectronVolts, MaximumPotentialElectronVolts) = ScanRange();
-        Mesh = BuildMesh();
+        Samples = BuildSamples();
     }
 
     /// <summary>The length d of the segment (one period of its harmonics).</summary>
@@ -73,9 +73,9 @@ public sealed class FourierSegment : CellElement, IMeshedSegment
 
     double IPotentialSegment.MinimumMassElectronMasses => Mass.ElectronMasses;
 
-    SegmentMesh IMeshedSegment.Mesh => Mesh;
+    SegmentSamples IMeshedSegment.Samples => Samples;
 
-    internal SegmentMesh Mesh { get; }
+    internal SegmentSamples Samples { get; }
 
     /// <summary>The recoil energy E_R = ħ²π²/(2·m·d²) = ħ²k_L²/2m of a lattice of period d = λ/2, k_L = π/d.</summary>
     /// <exception cref="ArgumentOutOfRangeException">The period is not positive, or the mass is the default.</exception>
@@ -251,7 +251,7 @@ public sealed class FourierSegment : CellElement, IMeshedSegment
         return best;
     }
 
-    private SegmentMesh BuildMesh()
+    private SegmentSamples BuildSamples()
     {
         var n = StepCount;
         var h = Width.Nanometres / n;
@@ -262,10 +262,10 @@ public sealed class FourierSegment : CellElement, IMeshedSegment
         for (var j = 0; j < n; j++)
         {
             widths[j] = h;
-            v1[j] = Evaluate((j + SegmentMesh.Node1) * h, out _, out _);
-            v2[j] = Evaluate((j + SegmentMesh.Node2) * h, out _, out _);
+            v1[j] = Evaluate((j + SegmentSamples.Node1) * h, out _, out _);
+            v2[j] = Evaluate((j + SegmentSamples.Node2) * h, out _, out _);
             m[j] = Mass.ElectronMasses;
         }
-        return new SegmentMesh(widths, v1, v2, m, m);
+        return new SegmentSamples(widths, v1, v2, m, m);
     }
 }
