@@ -53,6 +53,8 @@ public sealed class BlochFunction
     private readonly double[] _widths;
     private readonly double[] _s;
     private readonly double[] _masses;
+    private readonly CompiledCell _kernel;
+    private readonly int[] _elements;
     private readonly double[] _massesRight;
     private readonly bool[] _isStep;
     private readonly Complex[] _u;
@@ -72,8 +74,10 @@ public sealed class BlochFunction
     /// <summary>Safety factor on the change under one step halving: the error of a fourth-order result is 16/15 of it.</summary>
     private const double HalvingSafetyFactor = 2.0;
 
-    private BlochFunction(double errorEstimate, int bandIndex, double k, double energy, double period, Pieces pieces, Complex end, Complex endW, Complex origin, Complex originW, int bridged, Complex bridgeRight)
+    private BlochFunction(CompiledCell kernel, double errorEstimate, int bandIndex, double k, double energy, double period, Pieces pieces, Complex end, Complex endW, Complex origin, Complex originW, int bridged, Complex bridgeRight)
     {
+        _kernel = kernel;
+        _elements = pieces.Elements;
         _bridged = bridged;
         _bridgeRight = bridgeRight;
         StateAtOrigin = (origin, originW);
@@ -216,6 +220,9 @@ public sealed class BlochFunction
     private sealed class Pieces(int count)
     {
         internal double[] Starts { get; } = new double[count];
+
+        /// <summary>The kernel element each piece belongs to.</summary>
+        internal int[] Elements { get; } = new int[count];
         internal double[] Widths { get; } = new double[count];
         internal double[] S { get; } = new double[count];
         internal double[] Masses { get; } = new double[count];
@@ -269,6 +276,7 @@ public sealed class BlochFunction
                     MagnusSegmentPropagator.StepMatrix(mesh, j, energy,
                         out matrices[4 * index], out matrices[4 * index + 1], out matrices[4 * index + 2], out matrices[4 * index + 3], out var zeta);
                     pieces.IsStep[index] = true;
+                    pieces.Elements[index] = el;
                     (masses[index], pieces.MassesRight[index]) = mesh.EndMasses(j);
                     widths[index] = mesh.StepWidth(j);
                     massLength += 0.5 * (masses[index] + pieces.MassesRight[index]) * widths[index];
@@ -282,6 +290,7 @@ public sealed class BlochFunction
                 continue;
             }
             compiled.LayerCoefficients(el, energy, out masses[index], out s[index]);
+            pieces.Elements[index] = el;
             pieces.MassesRight[index] = masses[index];
             widths[index] = compiled.LayerData(el).Width;
             massLength += masses[index] * widths[index];
@@ -340,8 +349,7 @@ public sealed class BlochFunction
                 {
                     us[index] = u;
                     ws[index] = w;
-                    var (c, sinc) = Functions(s[index], widths[index]);
-                    (u, w) = (c * u + masses[index] * sinc * w, -s[index] / masses[index] * sinc * u + c * w);
+                    (u, w) = LayerState(compiled, el, energy, u, w, widths[index]);
                     index++;
                     break;
                 }
@@ -390,8 +398,7 @@ public sealed class BlochFunction
                     right = ub;
                     break;
                 }
-                var (c, sinc) = Functions(s[li], widths[li]);
-                (ub, wb) = (c * ub - masses[li] * sinc * wb, s[li] / masses[li] * sinc * ub + c * wb);
+                (ub, wb) = LayerState(compiled, el, energy, ub, wb, -widths[li]); // M(−w) = M(w)⁻¹
                 us[li] = ub;
                 ws[li] = wb;
                 li--;
@@ -417,7 +424,7 @@ public sealed class BlochFunction
                 norm += (us[i].Magnitude * us[i].Magnitude + right.Magnitude * right.Magnitude) * i11 + 2 * (us[i] * Complex.Conjugate(right)).Real * i12;
                 continue;
             }
-            var (cl, sl) = Functions(s[i], widths[i]);
+            UniformLayerPropagator.UnscaledValues(s[i], widths[i], out var cl, out var sl);
             UniformLayerPropagator.SquareIntegrals(s[i], widths[i], cl, sl, out var cc, out var cs, out var ss);
             var mass = masses[i];
             norm += us[i].Magnitude * us[i].Magnitude * cc
@@ -435,7 +442,7 @@ public sealed class BlochFunction
             pieces.URight[i] *= factor;
             pieces.WRight[i] *= factor;
         }
-        return new BlochFunction(errorEstimate, bandIndex, wavevectorPerNanometre, energy, d, pieces,
+        return new BlochFunction(compiled, errorEstimate, bandIndex, wavevectorPerNanometre, energy, d, pieces,
             end.U * factor, end.W * factor, u0 * factor, w0 * factor, thickIndex, right * factor);
     }
 
@@ -488,11 +495,15 @@ public sealed class BlochFunction
         return isTop ? (Complex.One, Complex.Zero) : (Complex.Zero, Complex.One);
     }
 
-    /// <summary>c = cos(√s·t) and S = sin(√s·t)/√s (hyperbolic for s &lt; 0), unscaled.</summary>
-    private static (double C, double S) Functions(double s, double t)
+    /// <summary>
+    /// The complex state (u, w) = (ψ, ψ′/m) carried by <paramref name="t"/> through layer <paramref name="element"/> by the
+    /// kernel (backwards for t &lt; 0); its matrix is real, so the real and imaginary parts propagate separately.
+    /// </summary>
+    private static (Complex U, Complex W) LayerState(CompiledCell kernel, int element, double e, Complex u, Complex w, double t)
     {
-        UniformLayerPropagator.UnscaledValues(s, t, out var c, out var sinc);
-        return (c, sinc);
+        var (ur, wr) = kernel.LayerStateAt(element, e, u.Real, w.Real, t);
+        var (ui, wi) = kernel.LayerStateAt(element, e, u.Imaginary, w.Imaginary, t);
+        return (new Complex(ur, ui), new Complex(wr, wi));
     }
 
     /// <summary>ψ(x) in nm^(−1/2) at <paramref name="positionNanometres"/> (any real x).</summary>
@@ -635,11 +646,7 @@ public sealed class BlochFunction
             var left = _u[lo];
             return (left * g1 + _bridgeRight * g2, (left * g1Prime + _bridgeRight * g2Prime) / _masses[lo]);
         }
-        var (c, sinc) = Functions(_s[lo], t);
-        var u = _u[lo];
-        var w = _w[lo];
-        var mass = _masses[lo];
-        return (c * u + mass * sinc * w, -_s[lo] / mass * sinc * u + c * w);
+        return LayerState(_kernel, _elements[lo], EnergyElectronVolts, _u[lo], _w[lo], t);
     }
 
     /// <summary>(ψ, ψ′/m) at the right end of the cell after every element (deltas included): equals e^(ikd) times the state at 0.</summary>

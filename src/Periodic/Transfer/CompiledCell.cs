@@ -393,7 +393,10 @@ internal sealed class CompiledCell
         return t >= 0 ? c * u + mass * sinc * w : c * u - mass * sinc * w;
     }
 
-    /// <summary>(ψ, ψ′/m) at offset <paramref name="t"/> ∈ [0, w] inside layer <paramref name="i"/>, from the state (u, w) at its left end (unscaled).</summary>
+    /// <summary>
+    /// (ψ, ψ′/m) at offset <paramref name="t"/> inside layer <paramref name="i"/> from the state (u, w) at its left end, unscaled;
+    /// a negative t propagates backwards (the layer matrix M(−t) is M(t)⁻¹, c being even and S odd in t).
+    /// </summary>
     internal (double Psi, double DerivativeOverMass) LayerStateAt(int i, double e, double u, double w, double t)
     {
         LayerCoefficients(i, e, out var mass, out var s);

@@ -88,7 +88,7 @@ internal static class UniformLayerPropagator
         else
         {
             var kappa = Math.Sqrt(-s);
-            var theta = kappa * width; // ≥ 1 here
+            var theta = kappa * width; // |θ| ≥ 1 here; a negative width (propagating backwards) takes the direct form
             if (theta < DirectBarrierLimit)
             {
                 var grow = Math.Exp(theta);
