@@ -89,6 +89,32 @@ internal sealed class CompiledCell
         LowestValidEnergyElectronVolts = domain;
     }
 
+    /// <summary>
+    /// Compiles <paramref name="elements"/> under a uniform field: every layer gets the potential V(x) = V − field·x (x from the
+    /// start of the sequence), propagated exactly by <see cref="LinearLayerPropagator"/> (Airy functions or a sublayer series);
+    /// deltas keep their strength. Parabolic layers and deltas only (the caller checks); such a compiled sequence offers
+    /// <see cref="ElementMatrix"/> (and <see cref="LinearLayerData"/>) only.
+    /// </summary>
+    internal CompiledCell(ReadOnlySpan<CellElement> elements, double fieldElectronVoltsPerNanometre, string paramName)
+        : this(elements, paramName)
+    {
+        for (var i = 0; i < _kinds.Length; i++)
+        {
+            if (_kinds[i] != ElementKind.Layer)
+            {
+                continue;
+            }
+            var at = ElementData.Stride * i;
+            _kinds[i] = ElementKind.LinearLayer;
+            _data[at + ElementData.Potential] -= fieldElectronVoltsPerNanometre * _starts[i];
+            _data[at + ElementData.PotentialSlope] = -fieldElectronVoltsPerNanometre;
+        }
+        IsBiased = true;
+    }
+
+    /// <summary>True when the layers carry a linear potential (<see cref="ElementMatrix"/> only).</summary>
+    internal bool IsBiased { get; }
+
     /// <summary>Number of elements.</summary>
     internal int Count => _kinds.Length;
 
@@ -112,6 +138,14 @@ internal sealed class CompiledCell
 
     /// <summary>True when element <paramref name="i"/> is a delta barrier.</summary>
     internal bool IsDelta(int i) => _kinds[i] == ElementKind.Delta;
+
+    /// <summary>Width (nm), potential at the left end (eV), potential slope (eV/nm) and mass (m₀) of linear layer <paramref name="i"/>; false for a delta.</summary>
+    internal bool LinearLayerData(int i, out double width, out double potentialAtLeft, out double slope, out double mass)
+    {
+        var at = ElementData.Stride * i;
+        (width, potentialAtLeft, slope, mass) = (_data[at + ElementData.Width], _data[at + ElementData.Potential], _data[at + ElementData.PotentialSlope], _data[at + ElementData.Mass]);
+        return _kinds[i] == ElementKind.LinearLayer;
+    }
 
     /// <summary>True when element <paramref name="i"/> is a uniform layer.</summary>
     internal bool IsLayer(int i) => _kinds[i] == ElementKind.Layer;
@@ -190,6 +224,13 @@ internal sealed class CompiledCell
             case ElementKind.Delta:
                 (m11, m12, m21, m22, logScale) = (1, 0, _data[ElementData.Stride * i + ElementData.Jump], 1, 0);
                 return;
+            case ElementKind.LinearLayer:
+            {
+                var at = ElementData.Stride * i;
+                LinearLayerPropagator.Evaluate(e, _data[at + ElementData.Potential], _data[at + ElementData.PotentialSlope], _data[at + ElementData.Width],
+                    _data[at + ElementData.Mass], out m11, out m12, out m21, out m22, out logScale);
+                return;
+            }
             default:
             {
                 var product = ScaledProduct.Identity;
@@ -529,13 +570,16 @@ internal enum ElementKind : byte
     Layer,
     Delta,
     Segment,
+
+    /// <summary>A layer with a linear potential (a stack under bias).</summary>
+    LinearLayer,
 }
 
 /// <summary>
 /// Layout of the packed per-element numbers of <see cref="CompiledCell"/>: <see cref="Stride"/> doubles per
 /// element. A layer stores width (nm), potential (eV), band-edge mass (m0), mass slope dm/dE (m0/eV) and,
-/// for the trace-only kernel, m/C and 1/m (C = ħ²/2m0 in eV·nm²); a delta stores its jump of ψ′/m
-/// (strength / C) in <see cref="Jump"/>.
+/// for the trace-only kernel, m/C and 1/m (C = ħ²/2m0 in eV·nm²); a linear layer (under bias) its potential
+/// slope in <see cref="PotentialSlope"/> instead of m/C; a delta stores its jump of ψ′/m (strength / C) in <see cref="Jump"/>.
 /// </summary>
 internal static class ElementData
 {
@@ -547,6 +591,9 @@ internal static class ElementData
     internal const int MassOverC = 4;
     internal const int InverseMass = 5;
     internal const int Jump = 0;
+
+    /// <summary>The potential slope dV/dx (eV/nm) of a linear layer, in the slot the trace-only kernel's m/C takes in a uniform one.</summary>
+    internal const int PotentialSlope = 4;
 
     internal static void StoreLayer(double[] data, int index, double width, double potential, double mass, double massSlope)
     {

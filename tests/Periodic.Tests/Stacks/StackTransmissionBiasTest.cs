@@ -7,6 +7,7 @@ using FsCheck.Fluent;
 using Periodic.Stacks;
 using Periodic.Structures;
 using Periodic.Tests.Support;
+using Periodic.Transfer;
 using Periodic.Units;
 using Xunit.Abstractions;
 
