@@ -47,7 +47,10 @@ internal sealed class CompiledCell
     private readonly ElementKind[] _kinds;
     private readonly double[] _data;
     private readonly MagnusSegmentPropagator?[]? _segments;
-    private readonly double[] _starts;
+
+    // Element boundaries, built on first use: the band-structure paths never need them, so a cell compiled for bands
+    // (a sweep compiles thousands) does not pay for them. Idempotent, so a race only builds the same array twice.
+    private double[]? _starts;
 
     /// <summary>Compiles <paramref name="elements"/>; an unsupported element kind is an <see cref="ArgumentException"/> naming <paramref name="paramName"/>.</summary>
     internal CompiledCell(ReadOnlySpan<CellElement> elements, string paramName)
@@ -55,12 +58,9 @@ internal sealed class CompiledCell
         var n = elements.Length;
         _kinds = new ElementKind[n];
         _data = new double[ElementData.Stride * n];
-        _starts = new double[n + 1];
         var domain = double.NegativeInfinity;
-        double x = 0;
         for (var i = 0; i < n; i++)
         {
-            _starts[i] = x;
             switch (elements[i])
             {
                 case Layer layer:
@@ -77,15 +77,14 @@ internal sealed class CompiledCell
                     _kinds[i] = ElementKind.Segment;
                     _segments ??= new MagnusSegmentPropagator?[n];
                     _segments[i] = new MagnusSegmentPropagator(SegmentMesh.Of(smooth));
+                    _data[ElementData.Stride * i + ElementData.Width] = elements[i].Width.Nanometres;
                     break;
                 default:
                     throw new ArgumentException(
                         string.Create(CultureInfo.InvariantCulture, $"element {i} is of unsupported type {elements[i].GetType().Name}."),
                         paramName);
             }
-            x += elements[i].Width.Nanometres;
         }
-        _starts[n] = x;
         LowestValidEnergyElectronVolts = domain;
     }
 
@@ -106,7 +105,7 @@ internal sealed class CompiledCell
             }
             var at = ElementData.Stride * i;
             _kinds[i] = ElementKind.LinearLayer;
-            _data[at + ElementData.Potential] -= fieldElectronVoltsPerNanometre * _starts[i];
+            _data[at + ElementData.Potential] -= fieldElectronVoltsPerNanometre * Boundaries[i];
             _data[at + ElementData.PotentialSlope] = -fieldElectronVoltsPerNanometre;
         }
         IsBiased = true;
@@ -131,10 +130,24 @@ internal sealed class CompiledCell
     internal double LowestValidEnergyElectronVolts { get; }
 
     /// <summary>Position of the left end of element <paramref name="i"/> (nm from the start); Start(Count) is the total thickness.</summary>
-    internal double Start(int i) => _starts[i];
+    internal double Start(int i) => Boundaries[i];
 
     /// <summary>The element boundaries: Boundaries[i] = left end of element i, Boundaries[Count] = thickness.</summary>
-    internal double[] Boundaries => _starts;
+    internal double[] Boundaries => _starts ??= BuildBoundaries();
+
+    private double[] BuildBoundaries()
+    {
+        var n = _kinds.Length;
+        var starts = new double[n + 1];
+        double x = 0;
+        for (var i = 0; i < n; i++)
+        {
+            starts[i] = x;
+            x += _kinds[i] == ElementKind.Delta ? 0 : _data[ElementData.Stride * i + ElementData.Width];
+        }
+        starts[n] = x;
+        return starts;
+    }
 
     /// <summary>True when element <paramref name="i"/> is a delta barrier.</summary>
     internal bool IsDelta(int i) => _kinds[i] == ElementKind.Delta;
@@ -530,7 +543,7 @@ internal sealed class CompiledCell
                     (u, w) = LayerStateAt(i, e, u, w, _data[ElementData.Stride * i + ElementData.Width]);
                     break;
                 default:
-                    moments[i] = _segments![i]!.PropagateWithMoments(e, ref u, ref w, _starts[i]);
+                    moments[i] = _segments![i]!.PropagateWithMoments(e, ref u, ref w, Start(i));
                     break;
             }
             psi[i + 1] = u;
@@ -556,7 +569,7 @@ internal sealed class CompiledCell
                 var square = value * value;
                 var weight = 0.5 * h * rule.Weights[g];
                 norm += weight * square;
-                first += weight * (_starts[i] + t) * square;
+                first += weight * (Start(i) + t) * square;
                 quartic += weight * square * square;
             }
         }
@@ -577,7 +590,7 @@ internal enum ElementKind : byte
 
 /// <summary>
 /// Layout of the packed per-element numbers of <see cref="CompiledCell"/>: <see cref="Stride"/> doubles per
-/// element. A layer stores width (nm), potential (eV), band-edge mass (m0), mass slope dm/dE (m0/eV) and,
+/// element. Every element of positive width stores its width (nm) in <see cref="Width"/>; a layer also stores potential (eV), band-edge mass (m0), mass slope dm/dE (m0/eV) and,
 /// for the trace-only kernel, m/C and 1/m (C = ħ²/2m0 in eV·nm²); a linear layer (under bias) its potential
 /// slope in <see cref="PotentialSlope"/> instead of m/C; a delta stores its jump of ψ′/m (strength / C) in <see cref="Jump"/>.
 /// </summary>
