@@ -119,7 +119,10 @@ internal static partial class TraceKernel
             inverseMass = 1 / mass;
         }
         UniformLayerPropagator.Values(s, Unsafe.Add(ref element, ElementData.Width), out c, out var sinc, out var logScale);
-        log += logScale;
+        if (logScale != 0)
+        {
+            log += logScale; // rare (barriers beyond κw = 20): no store to the caller's scale on the common path
+        }
         m12 = mass * sinc;
         m21 = -(s * inverseMass) * sinc;
     }
