@@ -38,7 +38,7 @@ internal static class BandsCommand
     public static string Render(StructureDefinition structure, int count, OutputFormat format)
     {
         var solved = Solver.Compute(structure.Cell, count);
-        var bands = solved.Bands;
+        var bands = solved.Structure;
         var properties = BandProperties.Create(bands);
         var masses = bands.Bands.Select(b => (Bottom: properties.BottomMass(b.Index).ElectronMasses, Top: properties.TopMass(b.Index).ElectronMasses)).ToArray();
         if (format == OutputFormat.Json)
@@ -76,11 +76,13 @@ internal static class BandsCommand
                 w.WriteStartObject("accuracy");
                 w.Number("maxEdgeError", solved.MaxEdgeErrorElectronVolts);
                 w.WriteNumber("countChecks", bands.CountChecks);
-                if (solved.Refined)
+                if (solved.Method == BandSolverMethod.Refined)
                 {
                     // Smooth segments: edges from step-halving refinement (RefinedBandStructure).
                     w.WriteBoolean("converged", solved.Converged);
-                    w.WriteNumber("magnusSteps", solved.MagnusSteps);
+                    w.WriteNumber("magnusSteps", solved.MagnusStepCount);
+                    w.Number("maxRootFindingError", solved.MaxRootFindingErrorElectronVolts);
+                    w.Number("maxDiscretisationError", solved.MaxDiscretisationErrorElectronVolts);
                 }
                 w.WriteEndObject();
             });

@@ -63,7 +63,7 @@ internal static class DispersionCommand
 
     public static string Render(StructureDefinition structure, int count, int points, OutputFormat format)
     {
-        var bands = Solver.Compute(structure.Cell, count).Bands;
+        var bands = Solver.Compute(structure.Cell, count).Structure;
         var (k, e) = Compute(bands, points);
         if (format == OutputFormat.Json)
         {

@@ -153,7 +153,7 @@ internal static class PlotCommand
 
     private static Plot Dispersion(StructureDefinition structure, int count)
     {
-        var bands = Solver.Compute(structure.Cell, count).Bands;
+        var bands = Solver.Compute(structure.Cell, count).Structure;
         var (k, e) = DispersionCommand.Compute(bands, 201);
         var zone = Math.PI / bands.PeriodNanometres;
         var (low, high) = EnergyWindow(bands);
@@ -179,7 +179,7 @@ internal static class PlotCommand
 
     private static Plot Dos(StructureDefinition structure, int count, double[]? energies)
     {
-        var bands = Solver.Compute(structure.Cell, count).Bands;
+        var bands = Solver.Compute(structure.Cell, count).Structure;
         var (low, high) = EnergyWindow(bands);
         if (energies is not null)
         {
@@ -233,7 +233,7 @@ internal static class PlotCommand
 
     private static Plot Transmission(StructureDefinition structure, int count, int periods, double[]? energies, (double ElectronVolts, string Source) bias)
     {
-        var bands = Solver.Compute(structure.Cell, count).Bands;
+        var bands = Solver.Compute(structure.Cell, count).Structure;
         var (low, high) = EnergyWindow(bands);
         energies ??= Enumerable.Range(0, 3001).Select(i => low + (high - low) * i / 3000.0).ToArray();
         low = energies.Min();
@@ -285,7 +285,7 @@ internal static class PlotCommand
 
     private static Plot Profile(StructureDefinition structure, int count, int periods)
     {
-        var bands = Solver.Compute(structure.Cell, count).Bands;
+        var bands = Solver.Compute(structure.Cell, count).Structure;
         var cell = structure.Cell;
         var d = cell.Period.Nanometres;
         var xs = new List<double>();

@@ -18,7 +18,7 @@ internal static class PointQuantities
 
     /// <summary>Band properties valid up to (and beyond) <paramref name="highestEnergyElectronVolts"/>.</summary>
     public static BandProperties PropertiesUpTo(UnitCell cell, double highestEnergyElectronVolts) =>
-        BandProperties.Create(Solver.ComputeBelow(cell, highestEnergyElectronVolts).Bands);
+        BandProperties.Create(Solver.ComputeBelow(cell, highestEnergyElectronVolts).Structure);
 
     public static Values At(BandProperties properties, double energyElectronVolts)
     {

@@ -57,7 +57,7 @@ internal sealed class SweepRunner(SweepSpec spec)
             }
             var structure = StructureFile.Parse(Encoding.UTF8.GetBytes(document.ToJsonString()), string.Create(CultureInfo.InvariantCulture, $"design {index}"));
             var solved = Solver.Compute(structure.Cell, spec.Bands, quiet: true);
-            var bands = solved.Bands;
+            var bands = solved.Structure;
             var properties = BandProperties.Create(bands);
             var k = parameters.Length;
             for (var n = 1; n <= spec.Bands; n++)

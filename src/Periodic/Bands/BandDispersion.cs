@@ -3,6 +3,7 @@
 
 using System.Globalization;
 using System.Numerics.Tensors;
+using Periodic.Numerics;
 
 namespace Periodic.Bands;
 
@@ -42,7 +43,7 @@ public sealed class BandDispersion
     /// <summary>Largest number of pieces; once reached, unresolved pieces keep the root search.</summary>
     public const int MaxPieces = 256;
 
-    private const double Epsilon = 2.220446049250313e-16;
+    private const double Epsilon = FloatingPoint.MachineEpsilon;
 
     private readonly BandStructure _bands;
     private readonly double[] _breaks;

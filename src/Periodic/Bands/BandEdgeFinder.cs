@@ -58,7 +58,7 @@ internal sealed class BandEdgeFinder
                 continue;
             }
             var width = b - a;
-            var resolution = 4 * Math.Max(_options.AbsoluteToleranceElectronVolts, 2.220446049250313e-16 * Math.Max(Math.Abs(a), Math.Abs(b)));
+            var resolution = 4 * Math.Max(_options.AbsoluteToleranceElectronVolts, FloatingPoint.MachineEpsilon * Math.Max(Math.Abs(a), Math.Abs(b)));
             if (width <= resolution)
             {
                 // Several edges closer together than double precision resolves: a degenerate cluster.
@@ -288,7 +288,7 @@ internal sealed class BandEdgeFinder
             // No usable linear model (entries beyond the double range, or a degenerate derivative): fall back
             // on the value, whose rounding level is a few ulps of the largest entry that enters the trace.
             var scale = matrix.Mantissa.MaxAbsEntry * Math.Exp(matrix.LogScale);
-            closed = excessOverTarget <= 64 * 2.220446049250313e-16 * Math.Max(scale, 2.0);
+            closed = excessOverTarget <= 64 * FloatingPoint.MachineEpsilon * Math.Max(scale, 2.0);
             closedError = Math.Max(Math.Abs(extremum) * 1e-12, _options.AbsoluteToleranceElectronVolts);
             return true;
         }
@@ -321,7 +321,7 @@ internal sealed class BandEdgeFinder
         var m = matrix.Mantissa;
         // Floor: a few ulps of the largest entry that enters the trace (the rounding of the final sum).
         var noise = Math.Max(8 * Math.Abs((m.M11 * m.M22 - m.M12 * m.M21) * centreScale * centreScale - 1),
-            64 * 2.220446049250313e-16 * Math.Max(m.MaxAbsEntry * centreScale, 2.0));
+            64 * FloatingPoint.MachineEpsilon * Math.Max(m.MaxAbsEntry * centreScale, 2.0));
         var centreTrace = m.Trace * centreScale;
         var centreExcess = target > 0 ? centreTrace - 2 : -2 - centreTrace;
         if (width <= tolerance)
@@ -443,10 +443,7 @@ internal sealed class BandEdgeFinder
                 derivative = double.PositiveInfinity;
                 return double.PositiveInfinity; // far outside any narrow gap: only the sign matters
             }
-            var s = Math.Exp(p.LogScale);
-            double e11 = p.P11 * s - sign, e22 = p.P22 * s - sign, m12 = p.P12 * s, m21 = p.P21 * s;
-            derivative = (p.D11 * e22 + e11 * p.D22 - p.D12 * m21 - m12 * p.D21) * s;
-            return e11 * e22 - m12 * m21;
+            return p.DeterminantOffIdentity(Math.Exp(p.LogScale), sign, out derivative);
         }
     }
 
@@ -455,7 +452,7 @@ internal sealed class BandEdgeFinder
         public double Evaluate(double x, out double derivative)
         {
             var p = transfer.Accumulate(x);
-            var trace = p.P11 + p.P22;
+            var trace = p.TraceMantissa;
             if (p.LogScale > 700)
             {
                 // |D| is astronomically far from ±2 here: only the sign matters to the bracket.
@@ -468,7 +465,7 @@ internal sealed class BandEdgeFinder
                 derivative = slope;
                 return value;
             }
-            derivative = (p.D11 + p.D22) * scale;
+            derivative = p.TraceDerivativeMantissa * scale;
             return trace * scale - target;
         }
     }
@@ -480,7 +477,7 @@ internal sealed class BandEdgeFinder
         public double Evaluate(double x)
         {
             var p = transfer.Accumulate(x);
-            return p.D11 + p.D22; // the sign of dD/dE is that of its mantissa
+            return p.TraceDerivativeMantissa; // the sign of dD/dE is that of its mantissa
         }
     }
 }

@@ -182,7 +182,7 @@ public sealed class BandStructure
     private static void ApplyRoundingFloor(CellTransfer transfer, Span<double> edges, Span<double> errors, Span<bool> closed)
     {
         // Rounding accumulates over the elements; √n is its statistical growth (Higham §2.8).
-        var ulps = 8 * 2.220446049250313e-16 * Math.Sqrt(transfer.Cell.Elements.Count);
+        var ulps = 8 * FloatingPoint.MachineEpsilon * Math.Sqrt(transfer.Cell.Elements.Count);
         for (var i = 0; i < edges.Length; i++)
         {
             var gapOfEdge = (i + 1) / 2; // edges 2j − 1 and 2j bound gap j
@@ -350,7 +350,7 @@ public sealed class BandStructure
         var d = PeriodNanometres;
         var phase = Math.Abs(k) * d;
         // A wavevector computed as π/d by the caller may differ from ours by an ulp or two.
-        if (!(phase <= Math.PI * (1 + 8 * 2.220446049250313e-16)))
+        if (!(phase <= Math.PI * (1 + 8 * FloatingPoint.MachineEpsilon)))
         {
             // ParamName is the real parameter; the message names the element of a span.
             var paramName = index < 0 ? "wavevectorPerNanometre" : "wavevectorsPerNanometre";
@@ -395,8 +395,8 @@ public sealed class BandStructure
         {
             var p = transfer.Accumulate(x);
             var scale = Math.Exp(p.LogScale);
-            derivative = (p.D11 + p.D22) * scale;
-            return (p.P11 + p.P22) * scale - value;
+            derivative = p.TraceDerivativeMantissa * scale;
+            return p.TraceMantissa * scale - value;
         }
     }
 

@@ -6,6 +6,7 @@ using System.Globalization;
 using System.Text;
 using Periodic.Structures;
 using Periodic.Units;
+using Periodic.Numerics;
 
 namespace Periodic.Bands;
 
@@ -178,7 +179,7 @@ public sealed class RefinedBandStructure
     private static double RoundingFloor(Periodic.Transfer.CellTransfer transfer, int edgeIndex, double edge, long steps, double searchError)
     {
         var product = transfer.Accumulate(edge);
-        var root = 4 * 2.220446049250313e-16 * Math.Sqrt(steps + 1.0);
+        var root = 4 * FloatingPoint.MachineEpsilon * Math.Sqrt(steps + 1.0);
         if (product.LogScale < 700)
         {
             var scale = Math.Exp(product.LogScale);
@@ -189,10 +190,10 @@ public sealed class RefinedBandStructure
                 var sign = target > 0 ? 1.0 : -1.0;
                 var n = Math.Max(Math.Max(Math.Abs(product.P11 * scale - sign), Math.Abs(product.P22 * scale - sign)),
                     Math.Sqrt(Math.Abs(product.P12 * product.P21)) * scale);
-                return root * Math.Max(n, 2.220446049250313e-16) / Math.Abs(detSlope);
+                return root * Math.Max(n, FloatingPoint.MachineEpsilon) / Math.Abs(detSlope);
             }
         }
-        var slope = Math.Abs(product.D11 + product.D22);
+        var slope = Math.Abs(product.TraceDerivativeMantissa);
         // Unit-balanced size of M: M12 and M21 carry reciprocal units.
         var entries = Math.Max(Math.Max(Math.Abs(product.P11), Math.Abs(product.P22)), Math.Sqrt(Math.Abs(product.P12 * product.P21)));
         if (!(slope > 0))
@@ -222,7 +223,7 @@ public sealed class RefinedBandStructure
             var slopeBelow = bands.Transfer.Dispersion(centre - h).TraceDerivativePerElectronVolt;
             var curvature = Math.Abs(slopeAbove - slopeBelow) / (4 * h);
             var matrix = bands.Transfer.Evaluate(centre);
-            var threshold = 64 * 2.220446049250313e-16 * Math.Max(matrix.Mantissa.MaxAbsEntry * Math.Exp(matrix.LogScale), 2.0); // as the edge finder's closed-gap test
+            var threshold = 64 * FloatingPoint.MachineEpsilon * Math.Max(matrix.Mantissa.MaxAbsEntry * Math.Exp(matrix.LogScale), 2.0); // as the edge finder's closed-gap test
             var bound = curvature > 0 ? 2 * Math.Sqrt(threshold / curvature) : Math.Abs(gap.UpperElectronVolts - gap.LowerElectronVolts) + h;
             foreach (var i in new[] { 2 * n - 1, 2 * n })
             {
@@ -279,7 +280,7 @@ public sealed class RefinedBandStructure
     }
 
     private static long StepCount(UnitCell cell) =>
-        cell.Elements.OfType<IMeshedSegment>().Sum(s => (long)s.Mesh.StepCount);
+        cell.Elements.OfType<IMeshedSegment>().Sum(s => (long)s.Samples.StepCount);
 
     /// <inheritdoc />
     public override string ToString()

@@ -20,7 +20,7 @@ internal enum RootStatus
 internal readonly record struct RootResult(double Root, double Lower, double Upper, double LastStep, int Iterations, RootStatus Status)
 {
     /// <summary>A bound on the error of <see cref="Root"/>: the last step or the final bracket width.</summary>
-    public double ErrorBound => Math.Max(Math.Min(LastStep, Upper - Lower), 2.220446049250313e-16 * Math.Abs(Root));
+    public double ErrorBound => Math.Max(Math.Min(LastStep, Upper - Lower), FloatingPoint.MachineEpsilon * Math.Abs(Root));
 }
 
 /// <summary>A function with its derivative, evaluated without allocation (a struct, so calls specialise).</summary>

@@ -6,6 +6,7 @@ using System.Numerics;
 using MathNet.Numerics.LinearAlgebra;
 using Periodic.Structures;
 using Periodic.Units;
+using Periodic.Numerics;
 
 namespace Periodic.PlaneWaves;
 
@@ -161,7 +162,7 @@ public sealed class PlaneWaveSolver
             // larger basis only adds noise.
             var kMax = Math.Abs(wavevectorPerNanometre) + next * 2 * Math.PI / _period;
             var norm = C * kMax * kMax * _etaMax + _vSpread;
-            var rounding = 4 * 2.220446049250313e-16 * norm;
+            var rounding = 4 * FloatingPoint.MachineEpsilon * norm;
             var converged = true;
             var roundingLimited = true;
             for (var i = 0; i < bandCount; i++)

@@ -236,7 +236,7 @@ public sealed partial class BandProperties
         {
             return 2 * closed.CrossingCurvature;
         }
-        var jet = DispersionDerivatives.Evaluate(_structure.Cell, energy);
+        var jet = DispersionDerivatives.Evaluate(_structure.Transfer.Compiled, energy);
         var scale = jet.Scale;
         var (sin, cos) = Math.SinCos(phase);
         var d1 = jet.D1;

@@ -5,6 +5,7 @@ using System.Globalization;
 using Periodic.Bands;
 using Periodic.Transfer;
 using Periodic.Units;
+using Periodic.Numerics;
 
 namespace Periodic.Properties;
 
@@ -130,7 +131,7 @@ public sealed partial class BandProperties
         }
         // Near a closed gap D − 2σ = (D″/2)δ² + (D‴/6)δ³ and D/2 = σ cos(qd) with q the extended-zone
         // offset; matching orders with δ = a q + b q² gives a² = −2σd²/D″ and b = σ D‴ d² / (3 D″²).
-        var jet = DispersionDerivatives.Evaluate(_structure.Cell, energy);
+        var jet = DispersionDerivatives.Evaluate(_structure.Transfer.Compiled, energy);
         var d2 = jet.D2; // the common scale cancels in both ratios below
         var d3 = jet.D3;
         var a2 = -2 * sigma * _d * _d / (d2 * jet.Scale);
@@ -228,7 +229,7 @@ public sealed partial class BandProperties
     private double Phase(double k, string parameter, int element = -1)
     {
         var phase = Math.Abs(k) * _d;
-        if (!(phase <= Math.PI * (1 + 8 * 2.220446049250313e-16)))
+        if (!(phase <= Math.PI * (1 + 8 * FloatingPoint.MachineEpsilon)))
         {
             var paramName = element < 0 ? parameter : ElementName(parameter, element);
             throw new ArgumentOutOfRangeException(parameter, k,

@@ -7,6 +7,7 @@ using Periodic.Bands;
 using Periodic.Structures;
 using Periodic.Transfer;
 using Periodic.Units;
+using Periodic.Numerics;
 
 namespace Periodic.Properties;
 
@@ -52,6 +53,8 @@ public sealed class BlochFunction
     private readonly double[] _widths;
     private readonly double[] _s;
     private readonly double[] _masses;
+    private readonly CompiledCell _kernel;
+    private readonly int[] _elements;
     private readonly double[] _massesRight;
     private readonly bool[] _isStep;
     private readonly Complex[] _u;
@@ -63,7 +66,7 @@ public sealed class BlochFunction
     private readonly int _bridged;
     private readonly Complex _bridgeRight;
 
-    private const double Epsilon = 2.220446049250313e-16;
+    private const double Epsilon = FloatingPoint.MachineEpsilon;
 
     /// <summary>The largest relative rounding error accepted: the amplification e^(Σκw) of evanescent layers times ε.</summary>
     private const double MaxRelativeErrorEstimate = 1e-6;
@@ -71,8 +74,10 @@ public sealed class BlochFunction
     /// <summary>Safety factor on the change under one step halving: the error of a fourth-order result is 16/15 of it.</summary>
     private const double HalvingSafetyFactor = 2.0;
 
-    private BlochFunction(double errorEstimate, int bandIndex, double k, double energy, double period, Pieces pieces, Complex end, Complex endW, Complex origin, Complex originW, int bridged, Complex bridgeRight)
+    private BlochFunction(CompiledCell kernel, double errorEstimate, int bandIndex, double k, double energy, double period, Pieces pieces, Complex end, Complex endW, Complex origin, Complex originW, int bridged, Complex bridgeRight)
     {
+        _kernel = kernel;
+        _elements = pieces.Elements;
         _bridged = bridged;
         _bridgeRight = bridgeRight;
         StateAtOrigin = (origin, originW);
@@ -215,6 +220,9 @@ public sealed class BlochFunction
     private sealed class Pieces(int count)
     {
         internal double[] Starts { get; } = new double[count];
+
+        /// <summary>The kernel element each piece belongs to.</summary>
+        internal int[] Elements { get; } = new int[count];
         internal double[] Widths { get; } = new double[count];
         internal double[] S { get; } = new double[count];
         internal double[] Masses { get; } = new double[count];
@@ -239,16 +247,11 @@ public sealed class BlochFunction
                 $"the transfer matrix of the cell at {energy:R} eV exceeds the double range; the Bloch function cannot be propagated through barriers this opaque."));
         }
         // Per-piece data; the opacity Σκw of the evanescent layers and steps sets the rounding of forward propagation.
-        var elements = cell.ElementSpan;
+        var compiled = transfer.Compiled;
         var pieceCount = 0;
-        foreach (var element in elements)
+        for (var el = 0; el < compiled.Count; el++)
         {
-            pieceCount += element switch
-            {
-                Layer => 1,
-                IMeshedSegment smooth => smooth.Mesh.StepCount,
-                _ => 0,
-            };
+            pieceCount += compiled.IsLayer(el) ? 1 : compiled.IsDelta(el) ? 0 : compiled.Segment(el).Mesh.StepCount;
         }
         var pieces = new Pieces(pieceCount);
         var starts = pieces.Starts;
@@ -259,16 +262,21 @@ public sealed class BlochFunction
         double opacity = 0, thickest = 0, x = 0, massLength = 0; // massLength = ∫m dx = m̄d
         var thickIndex = -1;
         var index = 0;
-        foreach (var element in elements)
+        for (var el = 0; el < compiled.Count; el++)
         {
-            if (element is IMeshedSegment smooth)
+            if (compiled.IsDelta(el))
             {
-                var mesh = smooth.Mesh;
+                continue;
+            }
+            if (!compiled.IsLayer(el))
+            {
+                var mesh = compiled.Segment(el).Mesh;
                 for (var j = 0; j < mesh.StepCount; j++, index++)
                 {
                     MagnusSegmentPropagator.StepMatrix(mesh, j, energy,
                         out matrices[4 * index], out matrices[4 * index + 1], out matrices[4 * index + 2], out matrices[4 * index + 3], out var zeta);
                     pieces.IsStep[index] = true;
+                    pieces.Elements[index] = el;
                     (masses[index], pieces.MassesRight[index]) = mesh.EndMasses(j);
                     widths[index] = mesh.StepWidth(j);
                     massLength += 0.5 * (masses[index] + pieces.MassesRight[index]) * widths[index];
@@ -281,15 +289,10 @@ public sealed class BlochFunction
                 }
                 continue;
             }
-            if (element is not Layer layer)
-            {
-                continue;
-            }
-            var excess = energy - layer.Potential.ElectronVolts;
-            masses[index] = layer.Mass.ElectronMasses * (1 + layer.NonParabolicityPerElectronVolt * excess);
+            compiled.LayerCoefficients(el, energy, out masses[index], out s[index]);
+            pieces.Elements[index] = el;
             pieces.MassesRight[index] = masses[index];
-            s[index] = masses[index] * excess / C;
-            widths[index] = layer.Width.Nanometres;
+            widths[index] = compiled.LayerData(el).Width;
             massLength += masses[index] * widths[index];
             starts[index] = x;
             x += widths[index];
@@ -329,30 +332,29 @@ public sealed class BlochFunction
         var ws = pieces.W;
         Complex u = u0, w = w0, right = Complex.Zero;
         index = 0;
-        foreach (var element in elements)
+        for (var el = 0; el < compiled.Count; el++)
         {
-            if (index == thickIndex && element is Layer)
+            if (index == thickIndex && compiled.IsLayer(el))
             {
                 us[index] = u;
                 ws[index] = w;
                 break;
             }
-            switch (element)
+            switch (compiled.IsDelta(el) ? 0 : compiled.IsLayer(el) ? 1 : 2)
             {
-                case DeltaBarrier delta:
-                    w += delta.StrengthElectronVoltNanometres / C * u;
+                case 0:
+                    w += compiled.DeltaJump(el) * u;
                     break;
-                case Layer:
+                case 1:
                 {
                     us[index] = u;
                     ws[index] = w;
-                    var (c, sinc) = Functions(s[index], widths[index]);
-                    (u, w) = (c * u + masses[index] * sinc * w, -s[index] / masses[index] * sinc * u + c * w);
+                    (u, w) = LayerState(compiled, el, energy, u, w, widths[index]);
                     index++;
                     break;
                 }
-                case IMeshedSegment smooth:
-                    for (var j = 0; j < smooth.Mesh.StepCount; j++, index++)
+                default:
+                    for (var j = 0; j < compiled.Segment(el).Mesh.StepCount; j++, index++)
                     {
                         us[index] = u;
                         ws[index] = w;
@@ -371,16 +373,16 @@ public sealed class BlochFunction
             Complex ub = lambda * u0, wb = lambda * w0;
             end = (ub, wb);
             var li = pieceCount - 1;
-            for (var e = elements.Length - 1; e >= 0; e--)
+            for (var el = compiled.Count - 1; el >= 0; el--)
             {
-                if (elements[e] is DeltaBarrier delta)
+                if (compiled.IsDelta(el))
                 {
-                    wb -= delta.StrengthElectronVoltNanometres / C * ub;
+                    wb -= compiled.DeltaJump(el) * ub;
                     continue;
                 }
-                if (elements[e] is IMeshedSegment smooth)
+                if (!compiled.IsLayer(el))
                 {
-                    for (var j = smooth.Mesh.StepCount - 1; j >= 0; j--, li--)
+                    for (var j = compiled.Segment(el).Mesh.StepCount - 1; j >= 0; j--, li--)
                     {
                         pieces.URight[li] = ub;
                         pieces.WRight[li] = wb;
@@ -396,8 +398,7 @@ public sealed class BlochFunction
                     right = ub;
                     break;
                 }
-                var (c, sinc) = Functions(s[li], widths[li]);
-                (ub, wb) = (c * ub - masses[li] * sinc * wb, s[li] / masses[li] * sinc * ub + c * wb);
+                (ub, wb) = LayerState(compiled, el, energy, ub, wb, -widths[li]); // M(−w) = M(w)⁻¹
                 us[li] = ub;
                 ws[li] = wb;
                 li--;
@@ -409,10 +410,11 @@ public sealed class BlochFunction
             if (pieces.IsStep[i])
             {
                 // |Hermite cubic|² is a polynomial of degree 6: the 4-point Gauss–Legendre rule integrates it exactly.
-                for (var g = 0; g < HermiteNodes.Length; g++)
+                var rule = GaussLegendre.Four;
+                for (var g = 0; g < rule.Order; g++)
                 {
-                    var psi = Hermite(HermiteNodes[g], widths[i], us[i], ws[i] * masses[i], pieces.URight[i], pieces.WRight[i] * pieces.MassesRight[i], out _);
-                    norm += HermiteWeights[g] * widths[i] * (psi.Real * psi.Real + psi.Imaginary * psi.Imaginary);
+                    var psi = Hermite(0.5 + 0.5 * rule.Nodes[g], widths[i], us[i], ws[i] * masses[i], pieces.URight[i], pieces.WRight[i] * pieces.MassesRight[i], out _);
+                    norm += 0.5 * rule.Weights[g] * widths[i] * (psi.Real * psi.Real + psi.Imaginary * psi.Imaginary);
                 }
                 continue;
             }
@@ -422,11 +424,12 @@ public sealed class BlochFunction
                 norm += (us[i].Magnitude * us[i].Magnitude + right.Magnitude * right.Magnitude) * i11 + 2 * (us[i] * Complex.Conjugate(right)).Real * i12;
                 continue;
             }
-            var (cl, sl) = Functions(s[i], widths[i]);
+            UniformLayerPropagator.UnscaledValues(s[i], widths[i], out var cl, out var sl);
+            UniformLayerPropagator.SquareIntegrals(s[i], widths[i], cl, sl, out var cc, out var cs, out var ss);
             var mass = masses[i];
-            norm += us[i].Magnitude * us[i].Magnitude * 0.5 * (widths[i] + cl * sl)
-                + 2 * mass * (us[i] * Complex.Conjugate(ws[i])).Real * 0.5 * sl * sl
-                + mass * mass * ws[i].Magnitude * ws[i].Magnitude * IntegralOfSincSquared(s[i], widths[i], cl, sl);
+            norm += us[i].Magnitude * us[i].Magnitude * cc
+                + 2 * mass * (us[i] * Complex.Conjugate(ws[i])).Real * cs
+                + mass * mass * ws[i].Magnitude * ws[i].Magnitude * ss;
         }
         // Normalise and fix the phase.
         var scale = 1 / Math.Sqrt(norm);
@@ -439,36 +442,16 @@ public sealed class BlochFunction
             pieces.URight[i] *= factor;
             pieces.WRight[i] *= factor;
         }
-        return new BlochFunction(errorEstimate, bandIndex, wavevectorPerNanometre, energy, d, pieces,
+        return new BlochFunction(compiled, errorEstimate, bandIndex, wavevectorPerNanometre, energy, d, pieces,
             end.U * factor, end.W * factor, u0 * factor, w0 * factor, thickIndex, right * factor);
     }
 
-    /// <summary>Nodes of the 4-point Gauss–Legendre rule on [0, 1] (Abramowitz and Stegun, Table 25.4).</summary>
-    private static readonly double[] HermiteNodes =
-    [
-        0.5 - 0.5 * 0.86113631159405257522, 0.5 - 0.5 * 0.33998104358485626480,
-        0.5 + 0.5 * 0.33998104358485626480, 0.5 + 0.5 * 0.86113631159405257522,
-    ];
-
-    /// <summary>Weights of the 4-point Gauss–Legendre rule on [0, 1].</summary>
-    private static readonly double[] HermiteWeights =
-    [
-        0.5 * 0.34785484513745385737, 0.5 * 0.65214515486254614263,
-        0.5 * 0.65214515486254614263, 0.5 * 0.34785484513745385737,
-    ];
-
-    /// <summary>
-    /// The cubic Hermite interpolant at τ ∈ [0, 1] of a step of width h from ψ and ψ′ at both ends, and its
-    /// derivative dψ/dx. Its error is h⁴·max|ψ⁗|/384, the order of the Magnus scheme itself.
-    /// </summary>
+    /// <summary>The cubic Hermite interpolant of a step (the kernel's basis, <see cref="MagnusSegmentPropagator.Hermite"/>) and its derivative dψ/dx.</summary>
     private static Complex Hermite(double tau, double h, Complex psiLeft, Complex slopeLeft, Complex psiRight, Complex slopeRight, out Complex derivative)
     {
-        var t2 = tau * tau;
-        var t3 = t2 * tau;
-        double h00 = 2 * t3 - 3 * t2 + 1, h10 = t3 - 2 * t2 + tau, h01 = -2 * t3 + 3 * t2, h11 = t3 - t2;
-        double d00 = 6 * t2 - 6 * tau, d10 = 3 * t2 - 4 * tau + 1, d01 = -6 * t2 + 6 * tau, d11 = 3 * t2 - 2 * tau;
-        derivative = (d00 * psiLeft + d01 * psiRight) / h + d10 * slopeLeft + d11 * slopeRight;
-        return h00 * psiLeft + h10 * h * slopeLeft + h01 * psiRight + h11 * h * slopeRight;
+        var b = MagnusSegmentPropagator.Hermite(tau);
+        derivative = (b.D00 * psiLeft + b.D01 * psiRight) / h + b.D10 * slopeLeft + b.D11 * slopeRight;
+        return b.H00 * psiLeft + b.H10 * h * slopeLeft + b.H01 * psiRight + b.H11 * h * slopeRight;
     }
 
     /// <summary>
@@ -499,7 +482,7 @@ public sealed class BlochFunction
         var na = a.Item1.Magnitude + a.Item2.Magnitude;
         var nb = b.Item1.Magnitude + b.Item2.Magnitude;
         var largest = Math.Max(Math.Max(Math.Abs(m.M11), Math.Abs(m.M22)), Math.Max(Math.Abs(b12), Math.Abs(b21)));
-        var threshold = 64 * 2.220446049250313e-16 * (largest + 1);
+        var threshold = 64 * FloatingPoint.MachineEpsilon * (largest + 1);
         if (Math.Max(na, nb) > threshold)
         {
             var v = na >= nb ? a : b;
@@ -512,51 +495,15 @@ public sealed class BlochFunction
         return isTop ? (Complex.One, Complex.Zero) : (Complex.Zero, Complex.One);
     }
 
-    /// <summary>c = cos(√s·t) and S = sin(√s·t)/√s (hyperbolic for s &lt; 0), unscaled.</summary>
-    private static (double C, double S) Functions(double s, double t)
+    /// <summary>
+    /// The complex state (u, w) = (ψ, ψ′/m) carried by <paramref name="t"/> through layer <paramref name="element"/> by the
+    /// kernel (backwards for t &lt; 0); its matrix is real, so the real and imaginary parts propagate separately.
+    /// </summary>
+    private static (Complex U, Complex W) LayerState(CompiledCell kernel, int element, double e, Complex u, Complex w, double t)
     {
-        UniformLayerPropagator.Evaluate(s, t, out var c, out var sinc, out _, out _, out var logScale);
-        if (logScale != 0)
-        {
-            var grow = Math.Exp(logScale);
-            c *= grow;
-            sinc *= grow;
-        }
-        return (c, sinc);
-    }
-
-    /// <summary>∫₀^w S(t)² dt = (w − c S)/(2s), by its power series in z = s w² where that difference cancels.</summary>
-    private static double IntegralOfSincSquared(double s, double w, double c, double sinc)
-    {
-        var z = s * w * w;
-        if (Math.Abs(z) >= 1)
-        {
-            return (w - c * sinc) / (2 * s);
-        }
-        // S(t)² = t² Σ_j b_j (s t²)^j with b the Cauchy square of (−1)^j/(2j+1)!; integrate term by term.
-        const int terms = 20;
-        Span<double> a = stackalloc double[terms];
-        double factorial = 1;
-        for (var j = 0; j < terms; j++)
-        {
-            if (j > 0)
-            {
-                factorial *= (2 * j) * (2 * j + 1);
-            }
-            a[j] = (j % 2 == 0 ? 1 : -1) / factorial;
-        }
-        double sum = 0, power = 1;
-        for (var j = 0; j < terms; j++)
-        {
-            double b = 0;
-            for (var i = 0; i <= j; i++)
-            {
-                b += a[i] * a[j - i];
-            }
-            sum += b * power / (2 * j + 3);
-            power *= z;
-        }
-        return w * w * w * sum;
+        var (ur, wr) = kernel.LayerStateAt(element, e, u.Real, w.Real, t);
+        var (ui, wi) = kernel.LayerStateAt(element, e, u.Imaginary, w.Imaginary, t);
+        return (new Complex(ur, ui), new Complex(wr, wi));
     }
 
     /// <summary>ψ(x) in nm^(−1/2) at <paramref name="positionNanometres"/> (any real x).</summary>
@@ -699,11 +646,7 @@ public sealed class BlochFunction
             var left = _u[lo];
             return (left * g1 + _bridgeRight * g2, (left * g1Prime + _bridgeRight * g2Prime) / _masses[lo]);
         }
-        var (c, sinc) = Functions(_s[lo], t);
-        var u = _u[lo];
-        var w = _w[lo];
-        var mass = _masses[lo];
-        return (c * u + mass * sinc * w, -_s[lo] / mass * sinc * u + c * w);
+        return LayerState(_kernel, _elements[lo], EnergyElectronVolts, _u[lo], _w[lo], t);
     }
 
     /// <summary>(ψ, ψ′/m) at the right end of the cell after every element (deltas included): equals e^(ikd) times the state at 0.</summary>

@@ -37,46 +37,38 @@ internal readonly record struct DispersionJet(double D0, double D1, double D2, d
 internal static class DispersionDerivatives
 {
     private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
-    private const int SeriesTerms = 18;
-    private static readonly double[] CSeries = UniformLayerPropagator.BuildSeries(0, SeriesTerms);
-    private static readonly double[] SSeries = UniformLayerPropagator.BuildSeries(1, SeriesTerms);
 
-    internal static DispersionJet Evaluate(UnitCell cell, double e)
+    internal static DispersionJet Evaluate(UnitCell cell, double e) => Evaluate(new CompiledCell(cell.ElementSpan, nameof(cell)), e);
+
+    internal static DispersionJet Evaluate(CompiledCell cell, double e)
     {
         // P = identity; each entry a jet.
         Jet p11 = Jet.Constant(1), p12 = default, p21 = default, p22 = Jet.Constant(1);
         double logScale = 0;
-        foreach (var element in cell.ElementSpan)
+        for (var i = 0; i < cell.Count; i++)
         {
-            switch (element)
+            if (cell.IsLayer(i))
             {
-                case Layer layer:
+                LayerJets(cell, i, e, out var m11, out var m12, out var m21, out var m22, out var l);
+                ApplyLeft(m11, m12, m21, m22, l, ref p11, ref p12, ref p21, ref p22, ref logScale);
+            }
+            else if (cell.IsDelta(i))
+            {
+                ApplyLeft(Jet.Constant(1), default, Jet.Constant(cell.DeltaJump(i)), Jet.Constant(1), 0,
+                    ref p11, ref p12, ref p21, ref p22, ref logScale);
+            }
+            else
+            {
+                var mesh = cell.Segment(i).Mesh;
+                for (var j = 0; j < mesh.StepCount; j++)
                 {
-                    LayerJets(layer, e, out var m11, out var m12, out var m21, out var m22, out var l);
+                    StepJets(mesh, j, e, out var m11, out var m12, out var m21, out var m22, out var l);
                     ApplyLeft(m11, m12, m21, m22, l, ref p11, ref p12, ref p21, ref p22, ref logScale);
-                    break;
                 }
-                case DeltaBarrier delta:
-                    ApplyLeft(Jet.Constant(1), default, Jet.Constant(delta.StrengthElectronVoltNanometres / C), Jet.Constant(1), 0,
-                        ref p11, ref p12, ref p21, ref p22, ref logScale);
-                    break;
-                case IMeshedSegment smooth:
-                {
-                    var mesh = smooth.Mesh;
-                    for (var j = 0; j < mesh.StepCount; j++)
-                    {
-                        StepJets(mesh, j, e, out var m11, out var m12, out var m21, out var m22, out var l);
-                        ApplyLeft(m11, m12, m21, m22, l, ref p11, ref p12, ref p21, ref p22, ref logScale);
-                    }
-                    break;
-                }
-                default:
-                    throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
-                        $"cell element of unsupported type {element.GetType().Name}."), nameof(cell));
             }
         }
         var trace = p11 + p22;
-        // Taylor coefficients to derivatives: f'' = 2 a2, f''' = 6 a3.
+        // Taylor coefficients to derivatives: D'' = 2 a2, the third derivative = 6 a3.
         return new DispersionJet(trace.A0, trace.A1, 2 * trace.A2, 6 * trace.A3, logScale);
     }
 
@@ -110,7 +102,7 @@ internal static class DispersionDerivatives
         var gamma = new Jet(mesh.Gamma0[j] - mesh.Gamma1[j] * e, -mesh.Gamma1[j], 0, 0);
         var beta = mesh.Beta[j];
         var zeta = -1.0 * (alpha * alpha + beta * gamma);
-        Derivatives(zeta.A0, 1.0, out var c, out var sinc, out logScale);
+        UniformLayerPropagator.Taylor3(zeta.A0, 1.0, out var c, out var sinc, out logScale);
         var cJet = Compose(c, zeta);
         var sJet = Compose(sinc, zeta);
         var sAlpha = sJet * alpha;
@@ -120,71 +112,19 @@ internal static class DispersionDerivatives
         m21 = sJet * gamma;
     }
 
-    private static void LayerJets(Layer layer, double e, out Jet m11, out Jet m12, out Jet m21, out Jet m22, out double logScale)
+    private static void LayerJets(CompiledCell cell, int i, double e, out Jet m11, out Jet m12, out Jet m21, out Jet m22, out double logScale)
     {
-        var excess = e - layer.Potential.ElectronVolts;
-        var slope = layer.Mass.ElectronMasses * layer.NonParabolicityPerElectronVolt;
-        var mass = new Jet(layer.Mass.ElectronMasses + slope * excess, slope, 0, 0);
+        var (width, potential, bandEdgeMass, slope) = cell.LayerData(i);
+        var excess = e - potential;
+        var mass = new Jet(bandEdgeMass + slope * excess, slope, 0, 0);
         var s = (1.0 / C) * (mass * new Jet(excess, 1, 0, 0));
-        var width = layer.Width.Nanometres;
-        Derivatives(s.A0, width, out var c, out var sinc, out logScale);
+        UniformLayerPropagator.Taylor3(s.A0, width, out var c, out var sinc, out logScale);
         var cJet = Compose(c, s);
         var sJet = Compose(sinc, s);
         m11 = cJet;
         m22 = cJet;
         m12 = mass * sJet;
         m21 = -1.0 * (s * sJet * Reciprocal(mass));
-    }
-
-    /// <summary>
-    /// Taylor coefficients g⁽ⁿ⁾(s)/n!, n ≤ 3, of c(s) = cos(√s·w) and S(s) = sin(√s·w)/√s, divided by
-    /// e^logScale (the growing exponential of an evanescent layer).
-    /// </summary>
-    private static void Derivatives(double s, double w, out (double, double, double, double) c, out (double, double, double, double) sinc, out double logScale)
-    {
-        var z = s * w * w;
-        if (Math.Abs(z) < 1.0)
-        {
-            // Power series in z = s·w²: c = Σ cS[j] z^j, S = w Σ sS[j] z^j; differentiate term by term.
-            double c0 = 0, c1 = 0, c2 = 0, c3 = 0, s0 = 0, s1 = 0, s2 = 0, s3 = 0;
-            for (var j = SeriesTerms; j >= 0; j--)
-            {
-                c0 = c0 * z + CSeries[j];
-                s0 = s0 * z + SSeries[j];
-                if (j >= 1) { c1 = c1 * z + j * CSeries[j]; s1 = s1 * z + j * SSeries[j]; }
-                if (j >= 2) { c2 = c2 * z + j * (j - 1) * CSeries[j]; s2 = s2 * z + j * (j - 1) * SSeries[j]; }
-                if (j >= 3) { c3 = c3 * z + j * (j - 1) * (j - 2) * CSeries[j]; s3 = s3 * z + j * (j - 1) * (j - 2) * SSeries[j]; }
-            }
-            double w2 = w * w, w4 = w2 * w2, w6 = w4 * w2;
-            c = (c0, c1 * w2, c2 * w4 / 2, c3 * w6 / 6);
-            sinc = (s0 * w, s1 * w2 * w, s2 * w4 * w / 2, s3 * w6 * w / 6);
-            logScale = 0;
-            return;
-        }
-        double cv, sv;
-        if (s > 0)
-        {
-            var k = Math.Sqrt(s);
-            var (sin, cos) = Math.SinCos(k * w);
-            cv = cos;
-            sv = sin / k;
-            logScale = 0;
-        }
-        else
-        {
-            var kappa = Math.Sqrt(-s);
-            var theta = kappa * w;
-            var q = Math.Exp(-2 * theta);
-            cv = 0.5 * (1 + q);
-            sv = 0.5 * (1 - q) / kappa;
-            logScale = theta;
-        }
-        // c' = −wS/2; 2sS' = wc − S; 2sS'' = −w²S/2 − 3S'; 2sS''' = −w²S'/2 − 5S''; c⁽ⁿ⁺¹⁾ = −wS⁽ⁿ⁾/2.
-        var sd1 = (w * cv - sv) / (2 * s);
-        var sd2 = -(0.5 * w * w * sv + 3 * sd1) / (2 * s);
-        var sd3 = -(0.5 * w * w * sd1 + 5 * sd2) / (2 * s);
-        c = (cv, -0.5 * w * sv, -0.5 * w * sd1 / 2, -0.5 * w * sd2 / 6);
-        sinc = (sv, sd1, sd2 / 2, sd3 / 6);
     }
 
     /// <summary>g(s(E)) for g given by Taylor coefficients at s0 = s.A0 (Faà di Bruno to order 3).</summary>

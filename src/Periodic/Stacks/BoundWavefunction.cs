@@ -50,14 +50,14 @@ public sealed class BoundWavefunction
         uL[0] = u; wL[0] = w; lL[0] = log;
         for (var i = 0; i < n; i++)
         {
-            profile.StepForward(i, e, ref u, ref w, ref log);
+            profile.Kernel.StepForward(i, e, ref u, ref w, ref log);
             uL[i + 1] = u; wL[i + 1] = w; lL[i + 1] = log;
         }
         u = 1; w = -kappaRight / mRight; log = 0;
         uR[n] = u; wR[n] = w; lR[n] = log;
         for (var i = n - 1; i >= 0; i--)
         {
-            profile.StepBackward(i, e, ref u, ref w, ref log);
+            profile.Kernel.StepBackward(i, e, ref u, ref w, ref log);
             uR[i] = u; wR[i] = w; lR[i] = log;
         }
 
@@ -97,15 +97,15 @@ public sealed class BoundWavefunction
         logs[n + 1] = 2 * (Math.Log(Math.Abs(_u[n])) + _log[n]) - Math.Log(2 * kappaRight);
         for (var i = 0; i < n; i++)
         {
-            if (profile.IsDelta[i])
+            if (profile.IsDelta(i))
             {
                 logs[i + 1] = double.NegativeInfinity;
                 continue;
             }
-            profile.LayerCoefficients(i, e, out var mass, out _);
+            profile.Kernel.LayerCoefficients(i, e, out var mass, out _);
             logs[i + 1] = i < j
-                ? profile.LogLayerIntegral(i, e, uL[i], mass * wL[i]) + 2 * lL[i]
-                : profile.LogLayerIntegral(i, e, uR[i + 1], -mass * wR[i + 1]) + 2 * (lR[i + 1] + logLambda);
+                ? profile.Kernel.LogLayerIntegral(i, e, uL[i], mass * wL[i]) + 2 * lL[i]
+                : profile.Kernel.LogLayerIntegral(i, e, uR[i + 1], -mass * wR[i + 1]) + 2 * (lR[i + 1] + logLambda);
         }
         var max = logs.Max();
         double sum = 0;
@@ -188,24 +188,23 @@ public sealed class BoundWavefunction
         // The layer containing x: the last boundary at or below x that starts a layer of positive width.
         var i = Array.BinarySearch(boundaries, x);
         i = i >= 0 ? i : ~i - 1;
-        while (i < n - 1 && (_profile.IsDelta[i] || boundaries[i + 1] <= x))
+        while (i < n - 1 && (_profile.IsDelta(i) || boundaries[i + 1] <= x))
         {
             i++;
         }
-        while (i > 0 && _profile.IsDelta[i])
+        while (i > 0 && _profile.IsDelta(i))
         {
             i--;
         }
-        _profile.LayerCoefficients(i, _energy, out var mass, out var s);
         if (i < _leftPiece)
         {
-            UniformLayerPropagator.Evaluate(s, x - boundaries[i], out var c, out var sinc, out _, out _, out var logScale);
-            return (c * _u[i] + mass * sinc * _w[i]) * Math.Exp(_log[i] + logScale);
+            var value = _profile.Kernel.ScaledLayerValue(i, _energy, _u[i], _w[i], x - boundaries[i], out var logScale);
+            return value * Math.Exp(_log[i] + logScale);
         }
         else
         {
-            UniformLayerPropagator.Evaluate(s, boundaries[i + 1] - x, out var c, out var sinc, out _, out _, out var logScale);
-            return (c * _u[i + 1] - mass * sinc * _w[i + 1]) * Math.Exp(_log[i + 1] + logScale);
+            var value = _profile.Kernel.ScaledLayerValue(i, _energy, _u[i + 1], _w[i + 1], -(boundaries[i + 1] - x), out var logScale);
+            return value * Math.Exp(_log[i + 1] + logScale);
         }
     }
 

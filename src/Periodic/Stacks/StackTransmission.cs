@@ -29,7 +29,7 @@ public sealed class StackTransmission
     private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
 
     private readonly CompiledPart[] _parts;
-    private readonly BiasedElement[] _biased; // under bias: every element written out; empty at zero bias
+    private readonly CompiledCell? _biased; // under bias: every element written out, layers with a linear potential; null at zero bias
     private readonly PhaseGuide[] _guides; // under bias: the repeated cells and the energy shift of each copy
 
     // Distinct layer materials (potential, mass, mass slope) for choosing the reference impedance.
@@ -49,31 +49,18 @@ public sealed class StackTransmission
         {
             var part = parts[i];
             var elements = part.Cell is null ? [part.Element!] : part.Cell.Elements.ToArray();
-            var compiled = new CompiledElement[elements.Length];
-            for (var j = 0; j < elements.Length; j++)
+            // The kernel compiles every element kind it can propagate (layers, deltas, smooth segments) and rejects the rest.
+            var compiled = new CompiledCell(elements, nameof(stack));
+            lowest = Math.Max(lowest, compiled.LowestValidEnergyElectronVolts);
+            foreach (var element in elements)
             {
-                switch (elements[j])
+                if (element is Layer layer)
                 {
-                    case Layer layer:
-                        var transfer = CellTransfer.Create(UnitCell.Create(layer));
-                        lowest = Math.Max(lowest, transfer.LowestValidEnergyElectronVolts);
-                        compiled[j] = new CompiledElement(transfer, 0);
-                        var material = (layer.Potential.ElectronVolts, layer.Mass.ElectronMasses, layer.Mass.ElectronMasses * layer.NonParabolicityPerElectronVolt);
-                        if (!materials.Contains(material))
-                        {
-                            materials.Add(material);
-                        }
-                        break;
-                    case DeltaBarrier delta:
-                        compiled[j] = new CompiledElement(null, delta.StrengthElectronVoltNanometres / C);
-                        break;
-                    default:
-                        // Any other element of positive width (a smooth segment) propagates through its own
-                        // one-element cell; the core rejects kinds it cannot propagate.
-                        var segment = CellTransfer.Create(UnitCell.Create(elements[j]));
-                        lowest = Math.Max(lowest, segment.LowestValidEnergyElectronVolts);
-                        compiled[j] = new CompiledElement(segment, 0);
-                        break;
+                    var material = (layer.Potential.ElectronVolts, layer.Mass.ElectronMasses, layer.Mass.ElectronMasses * layer.NonParabolicityPerElectronVolt);
+                    if (!materials.Contains(material))
+                    {
+                        materials.Add(material);
+                    }
                 }
             }
             _parts[i] = new CompiledPart(compiled, part.Repetitions, part.Cell is null || part.Repetitions == 1 ? null : CellTransfer.Create(part.Cell));
@@ -81,7 +68,7 @@ public sealed class StackTransmission
         _potentials = materials.Select(m => m.V).ToArray();
         _masses = materials.Select(m => m.M).ToArray();
         _slopes = materials.Select(m => m.Slope).ToArray();
-        _biased = [];
+        _biased = null;
         _guides = [];
         LowestValidEnergyElectronVolts = lowest;
     }
@@ -93,7 +80,7 @@ public sealed class StackTransmission
         RightLead = Lead.Create(Energy.FromElectronVolts(stack.RightLead.PotentialElectronVolts - drop), EffectiveMass.FromElectronMasses(stack.RightLead.MassElectronMasses));
         _parts = [];
         var field = drop / stack.ThicknessNanometres; // eV/nm; V(x) = V_layer − field·x
-        _biased = new BiasedElement[stack.ElementCount];
+        var written = new CellElement[stack.ElementCount];
         var materials = new List<(double V, double M)>();
         var guides = new List<PhaseGuide>();
         var i = 0;
@@ -115,27 +102,21 @@ public sealed class StackTransmission
                 }
                 foreach (var element in elements)
                 {
-                    if (element is DeltaBarrier delta)
+                    // Deltas have zero width: nothing drops across them, and their jump of ψ′/m does not depend on the potential.
+                    if (element is Layer layer) // the only other kind (checked by Create)
                     {
-                        // Zero width: nothing drops across it, and its jump of ψ′/m does not depend on the potential.
-                        _biased[i] = new BiasedElement(0, 0, 0, 0, delta.StrengthElectronVoltNanometres / C, IsDelta: true);
-                    }
-                    else
-                    {
-                        var layer = (Layer)element; // checked by Create
-                        var width = layer.Width.Nanometres;
-                        _biased[i] = new BiasedElement(width, layer.Potential.ElectronVolts - field * x, -field, layer.Mass.ElectronMasses, 0, IsDelta: false);
                         var material = (layer.Potential.ElectronVolts, layer.Mass.ElectronMasses);
                         if (!materials.Contains(material))
                         {
                             materials.Add(material);
                         }
-                        x += width;
+                        x += layer.Width.Nanometres;
                     }
-                    i++;
+                    written[i++] = element;
                 }
             }
         }
+        _biased = new CompiledCell(written, field, nameof(stack));
         _potentials = materials.Select(m => m.V).ToArray();
         _masses = materials.Select(m => m.M).ToArray();
         _slopes = new double[materials.Count];
@@ -460,14 +441,13 @@ public sealed class StackTransmission
     /// </summary>
     private void CheckBiasedCost(double energyElectronVolts, string name, string paramName)
     {
-        for (var i = 0; i < _biased.Length; i++)
+        for (var i = 0; i < (_biased?.Count ?? 0); i++)
         {
-            var element = _biased[i];
-            if (element.IsDelta)
+            if (!_biased!.LinearLayerData(i, out var width, out var potentialAtLeft, out var slope, out var mass))
             {
                 continue;
             }
-            var count = LinearLayerPropagator.SublayerCount(energyElectronVolts, element.PotentialAtLeft, element.Slope, element.Width, element.Mass);
+            var count = LinearLayerPropagator.SublayerCount(energyElectronVolts, potentialAtLeft, slope, width, mass);
             if (count > LinearLayerPropagator.MaxSublayers)
             {
                 throw new ArgumentOutOfRangeException(paramName, energyElectronVolts,
@@ -482,7 +462,7 @@ public sealed class StackTransmission
         for (var i = 0; i < energies.Length; i++)
         {
             var e = energies[i];
-            if (!double.IsFinite(e) || e <= LowestValidEnergyElectronVolts || _biased.Length > 0)
+            if (!double.IsFinite(e) || e <= LowestValidEnergyElectronVolts || _biased is not null)
             {
                 CheckEnergy(e, string.Create(CultureInfo.InvariantCulture, $"energiesElectronVolts[{i}]"), "energiesElectronVolts");
             }
@@ -528,16 +508,16 @@ public sealed class StackTransmission
     internal ScatteringMatrix Interior(double e, double q)
     {
         var total = ScatteringMatrix.Identity;
-        foreach (var element in _biased)
+        for (var i = 0; i < (_biased?.Count ?? 0); i++)
         {
-            total = ScatteringMatrix.Compose(total, element.Scattering(e, q));
+            total = ScatteringMatrix.Compose(total, ElementScattering(_biased!, i, e, q));
         }
         foreach (var part in _parts)
         {
             var s = ScatteringMatrix.Identity;
-            foreach (var element in part.Elements)
+            for (var i = 0; i < part.Elements.Count; i++)
             {
-                s = ScatteringMatrix.Compose(s, element.Scattering(e, q));
+                s = ScatteringMatrix.Compose(s, ElementScattering(part.Elements, i, e, q));
             }
             if (part.Repetitions > 1)
             {
@@ -576,21 +556,14 @@ public sealed class StackTransmission
         return new TransmissionResult(e, LeadChannels.Open, logT, s.R, s.T, s.LogScale);
     }
 
-    /// <summary>A layer under bias, V(x) = V₀ + slope·(x − x_left), or a delta barrier.</summary>
-    private readonly record struct BiasedElement(double Width, double PotentialAtLeft, double Slope, double Mass, double DeltaJump, bool IsDelta)
+    /// <summary>The scattering matrix of element <paramref name="i"/> of a compiled sequence, in the reference basis q.</summary>
+    private static ScatteringMatrix ElementScattering(CompiledCell elements, int i, double e, double q)
     {
-        internal ScatteringMatrix Scattering(double e, double q)
-        {
-            if (IsDelta)
-            {
-                return ScatteringMatrix.FromTransfer(1, 0, DeltaJump, 1, 0, q);
-            }
-            LinearLayerPropagator.Evaluate(e, PotentialAtLeft, Slope, Width, Mass, out var m11, out var m12, out var m21, out var m22, out var logScale);
-            return ScatteringMatrix.FromTransfer(m11, m12, m21, m22, logScale, q);
-        }
+        elements.ElementMatrix(i, e, out var m11, out var m12, out var m21, out var m22, out var logScale);
+        return ScatteringMatrix.FromTransfer(m11, m12, m21, m22, logScale, q);
     }
 
-    private readonly record struct CompiledPart(CompiledElement[] Elements, int Repetitions, CellTransfer? Cell);
+    private readonly record struct CompiledPart(CompiledCell Elements, int Repetitions, CellTransfer? Cell);
 
     /// <summary>A repeated cell of a biased stack and, per copy, the energy shift field·x of the copy's middle.</summary>
     private readonly record struct PhaseGuide(CellTransfer Cell, double[] Shifts);
@@ -641,19 +614,6 @@ public sealed class StackTransmission
         var kd = cell.Dispersion(e).Wavevector.PhasePerPeriod; // in [0, π]
         var within = (band & 1) == 1 ? kd : Math.PI - kd;
         return (band - 1) * Math.PI + within;
-    }
-
-    private readonly record struct CompiledElement(CellTransfer? Layer, double DeltaJump)
-    {
-        internal ScatteringMatrix Scattering(double e, double q)
-        {
-            if (Layer is null)
-            {
-                return ScatteringMatrix.FromTransfer(1, 0, DeltaJump, 1, 0, q);
-            }
-            var p = Layer.Accumulate(e);
-            return ScatteringMatrix.FromTransfer(p.P11, p.P12, p.P21, p.P22, p.LogScale, q);
-        }
     }
 
     /// <inheritdoc />

@@ -2,6 +2,7 @@
 // Copyright (c) 2026 Periodic contributors
 
 using MathNet.Numerics;
+using Periodic.Numerics;
 using Periodic.Units;
 
 namespace Periodic.Stacks;
@@ -20,34 +21,17 @@ namespace Periodic.Stacks;
 /// </remarks>
 internal static class TsuEsakiIntegrator
 {
-    // Kronrod 15-point abscissae (positive half, last = 0) and weights; Gauss 7-point weights at the odd-indexed abscissae (QUADPACK qk15).
-    private static readonly double[] Xk =
-    [
-        0.991455371120812639206854697526329, 0.949107912342758524526189684047851, 0.864864423359769072789712788640926,
-        0.741531185599394439863864773280788, 0.586087235467691130294144845693013, 0.405845151377397166906606412076961,
-        0.207784955007898467600689403773245, 0.0,
-    ];
-
-    private static readonly double[] Wk =
-    [
-        0.022935322010529224963732008058970, 0.063092092629978553290700663189204, 0.104790010322250183839876322541518,
-        0.140653259715525918745189590510238, 0.169004726639267902826583426598550, 0.190350578064785409913256402421014,
-        0.204432940075298892414161999234649, 0.209482141084727828012999174891714,
-    ];
-
-    private static readonly double[] Wg =
-    [
-        0.129484966168869693270611432679082, 0.279705391489276667901467771423780, 0.381830050505118944950369775488975,
-        0.417959183673469387755102040816327,
-    ];
-
     /// <summary>Width of one extension of the upper limit, in k_BT; the tail beyond is bounded by k_BT·e^(−this).</summary>
     private const double TailStepThermalEnergies = 40.0;
 
     /// <summary>Beyond μ + 700 k_BT the supply function underflows relative to anything representable.</summary>
     private const double MaxTailThermalEnergies = 700.0;
 
-    private readonly record struct Interval(double Lower, double Upper, double Value, double Error);
+    /// <summary>The integrand T(E)·supply(E) at fixed μ, eU and k_BT.</summary>
+    private readonly struct CurrentIntegrand(StackTransmission transmission, double mu, double bias, double kT) : IRealFunction
+    {
+        public double Evaluate(double x) => Integrand(transmission, x, mu, bias, kT);
+    }
 
     internal static CurrentDensityResult Compute(StackTransmission transmission, double mu, double temperature, CurrentDensityOptions options,
         CancellationToken cancellationToken)
@@ -69,7 +53,7 @@ internal static class TsuEsakiIntegrator
 
         var evaluations = 0;
         var resonances = 0;
-        var intervals = new List<Interval>();
+        var intervals = new List<QuadratureInterval>();
         var windowLower = lower;
         double tailBound;
         var converged = true;
@@ -79,12 +63,13 @@ internal static class TsuEsakiIntegrator
             // higher Fermi level, beyond which the integrand is below e^(−40) of its scale and plain bisection suffices
             // (this also bounds the cost of the peak search by that window).
             AddWindow(transmission, windowLower, upper, mu, bias, kT, options, searchResonances: windowLower == lower, intervals, ref evaluations, ref resonances, cancellationToken);
-            converged = Refine(transmission, mu, bias, kT, options, intervals, ref evaluations, cancellationToken);
-            var total = Sum(intervals, out _);
+            var integrand = new CurrentIntegrand(transmission, mu, bias, kT);
+            converged = GaussKronrod.Refine(ref integrand, intervals, options.RelativeTolerance, options.MaxEvaluations, ref evaluations, cancellationToken);
+            var total = GaussKronrod.Sum(intervals, out _);
             // |S(E)| ≤ e^((μ_max − E)/k_BT) and T ≤ 1, so the tail beyond the upper limit is at most k_BT·e^((μ_max − upper)/k_BT).
             tailBound = kT * Math.Exp((muMax - upper) / kT);
             if (tailBound <= 0.1 * options.RelativeTolerance * Math.Abs(total) || upper - muMax >= MaxTailThermalEnergies * kT
-                || evaluations + 15 > options.MaxEvaluations)
+                || evaluations + GaussKronrod.PointsPerRule > options.MaxEvaluations)
             {
                 break;
             }
@@ -96,27 +81,15 @@ internal static class TsuEsakiIntegrator
             windowLower = upper;
             upper = next;
         }
-        var integral = Sum(intervals, out var error);
+        var integral = GaussKronrod.Sum(intervals, out var error);
         error += tailBound;
         converged &= error <= options.RelativeTolerance * Math.Abs(integral) || error == 0;
         return new CurrentDensityResult(prefactor * integral, prefactor * error, bias, mu, temperature, lower, upper, evaluations, resonances, converged);
     }
 
-    private static double Sum(List<Interval> intervals, out double error)
-    {
-        double total = 0;
-        error = 0;
-        foreach (var interval in intervals)
-        {
-            total += interval.Value;
-            error += interval.Error;
-        }
-        return total;
-    }
-
     /// <summary>Splits [a, b] at the Fermi levels and the transmission peaks (±Γ, ±4Γ, ±16Γ) and integrates each piece once.</summary>
     private static void AddWindow(StackTransmission transmission, double a, double b, double mu, double bias, double kT,
-        CurrentDensityOptions options, bool searchResonances, List<Interval> intervals, ref int evaluations, ref int resonances, CancellationToken cancellationToken)
+        CurrentDensityOptions options, bool searchResonances, List<QuadratureInterval> intervals, ref int evaluations, ref int resonances, CancellationToken cancellationToken)
     {
         var points = new List<double> { a, b, mu, mu - bias };
         if (options.UseResonanceBreakpoints && searchResonances)
@@ -144,69 +117,12 @@ internal static class TsuEsakiIntegrator
             if (points[i] - previous > minimumGap || (i == points.Count - 1 && points[i] > previous))
             {
                 cancellationToken.ThrowIfCancellationRequested();
-                intervals.Add(Rule(transmission, previous, points[i], mu, bias, kT, ref evaluations));
+                var integrand = new CurrentIntegrand(transmission, mu, bias, kT);
+                intervals.Add(GaussKronrod.Rule(ref integrand, previous, points[i]));
+                evaluations += GaussKronrod.PointsPerRule;
                 previous = points[i];
             }
         }
-    }
-
-    /// <summary>Bisects the interval of largest error until the total error meets the tolerance or the budget runs out.</summary>
-    private static bool Refine(StackTransmission transmission, double mu, double bias, double kT, CurrentDensityOptions options,
-        List<Interval> intervals, ref int evaluations, CancellationToken cancellationToken)
-    {
-        var queue = new PriorityQueue<int, double>();
-        for (var i = 0; i < intervals.Count; i++)
-        {
-            queue.Enqueue(i, -intervals[i].Error);
-        }
-        while (true)
-        {
-            var total = Sum(intervals, out var error);
-            if (error <= options.RelativeTolerance * Math.Abs(total) || error == 0)
-            {
-                return true;
-            }
-            if (evaluations + 30 > options.MaxEvaluations || queue.Count == 0)
-            {
-                return false;
-            }
-            cancellationToken.ThrowIfCancellationRequested();
-            var index = queue.Dequeue();
-            var worst = intervals[index];
-            var middle = 0.5 * (worst.Lower + worst.Upper);
-            if (!(middle > worst.Lower && middle < worst.Upper))
-            {
-                continue; // cannot be split further in double precision; its error stays in the estimate
-            }
-            var left = Rule(transmission, worst.Lower, middle, mu, bias, kT, ref evaluations);
-            var right = Rule(transmission, middle, worst.Upper, mu, bias, kT, ref evaluations);
-            intervals[index] = left;
-            intervals.Add(right);
-            queue.Enqueue(index, -left.Error);
-            queue.Enqueue(intervals.Count - 1, -right.Error);
-        }
-    }
-
-    /// <summary>One Gauss–Kronrod 7/15 rule on [a, b]: the Kronrod value and |Kronrod − Gauss| as its error.</summary>
-    private static Interval Rule(StackTransmission transmission, double a, double b, double mu, double bias, double kT, ref int evaluations)
-    {
-        var center = 0.5 * (a + b);
-        var half = 0.5 * (b - a);
-        var fc = Integrand(transmission, center, mu, bias, kT);
-        var kronrod = Wk[7] * fc;
-        var gauss = Wg[3] * fc;
-        for (var j = 0; j < 7; j++)
-        {
-            var f1 = Integrand(transmission, center - half * Xk[j], mu, bias, kT);
-            var f2 = Integrand(transmission, center + half * Xk[j], mu, bias, kT);
-            kronrod += Wk[j] * (f1 + f2);
-            if (j % 2 == 1)
-            {
-                gauss += Wg[j / 2] * (f1 + f2);
-            }
-        }
-        evaluations += 15;
-        return new Interval(a, b, kronrod * half, Math.Abs((kronrod - gauss) * half));
     }
 
     /// <summary>T(E) times the supply function ln[(1 + e^x)/(1 + e^(x − u))], x = (μ − E)/k_BT, u = eU/k_BT.</summary>

@@ -41,7 +41,7 @@ public sealed class FourierSegment : CellElement, IMeshedSegment
         Mass = mass;
         StepCount = stepCount;
         (MinimumPotentialElectronVolts, MaximumPotentialElectronVolts) = ScanRange();
-        Mesh = BuildMesh();
+        Samples = BuildSamples();
     }
 
     /// <summary>The length d of the segment (one period of its harmonics).</summary>
@@ -73,9 +73,9 @@ public sealed class FourierSegment : CellElement, IMeshedSegment
 
     double IPotentialSegment.MinimumMassElectronMasses => Mass.ElectronMasses;
 
-    SegmentMesh IMeshedSegment.Mesh => Mesh;
+    SegmentSamples IMeshedSegment.Samples => Samples;
 
-    internal SegmentMesh Mesh { get; }
+    internal SegmentSamples Samples { get; }
 
     /// <summary>The recoil energy E_R = ħ²π²/(2·m·d²) = ħ²k_L²/2m of a lattice of period d = λ/2, k_L = π/d.</summary>
     /// <exception cref="ArgumentOutOfRangeException">The period is not positive, or the mass is the default.</exception>
@@ -285,7 +285,7 @@ public sealed class FourierSegment : CellElement, IMeshedSegment
         return best;
     }
 
-    private SegmentMesh BuildMesh()
+    private SegmentSamples BuildSamples()
     {
         var n = StepCount;
         var h = Width.Nanometres / n;
@@ -293,7 +293,7 @@ public sealed class FourierSegment : CellElement, IMeshedSegment
         var m = new double[n];
         Array.Fill(widths, h);
         Array.Fill(m, Mass.ElectronMasses);
-        var (v1, v2) = SampleUniform(n, SegmentMesh.Node1, SegmentMesh.Node2);
-        return new SegmentMesh(widths, v1, v2, m, m);
+        var (v1, v2) = SampleUniform(n, SegmentSamples.Node1, SegmentSamples.Node2);
+        return new SegmentSamples(widths, v1, v2, m, m);
     }
 }

@@ -38,7 +38,7 @@ public sealed class FunctionSegment : CellElement, IMeshedSegment
         _mass = mass;
         _constantMass = constantMass;
         StepCount = stepCount;
-        Mesh = BuildMesh(out var vMin, out var vMax, out var mMin);
+        Samples = BuildSamples(out var vMin, out var vMax, out var mMin);
         MinimumPotentialElectronVolts = vMin;
         MaximumPotentialElectronVolts = vMax;
         MinimumMassElectronMasses = mMin;
@@ -62,9 +62,9 @@ public sealed class FunctionSegment : CellElement, IMeshedSegment
     /// <summary>Smallest mass seen at the scan and quadrature points, in m₀.</summary>
     public double MinimumMassElectronMasses { get; }
 
-    SegmentMesh IMeshedSegment.Mesh => Mesh;
+    SegmentSamples IMeshedSegment.Samples => Samples;
 
-    internal SegmentMesh Mesh { get; }
+    internal SegmentSamples Samples { get; }
 
     /// <summary>Creates a segment with potential <paramref name="potentialElectronVolts"/>(x) and a constant mass.</summary>
     /// <param name="width">Width; positive.</param>
@@ -163,7 +163,7 @@ public sealed class FunctionSegment : CellElement, IMeshedSegment
         return m;
     }
 
-    private SegmentMesh BuildMesh(out double vMin, out double vMax, out double mMin)
+    private SegmentSamples BuildSamples(out double vMin, out double vMax, out double mMin)
     {
         var n = StepCount;
         var d = Width.Nanometres;
@@ -179,7 +179,7 @@ public sealed class FunctionSegment : CellElement, IMeshedSegment
         for (var j = 0; j < n; j++)
         {
             widths[j] = h;
-            double xa = (j + SegmentMesh.Node1) * h, xb = (j + SegmentMesh.Node2) * h;
+            double xa = (j + SegmentSamples.Node1) * h, xb = (j + SegmentSamples.Node2) * h;
             v1[j] = Potential(xa);
             v2[j] = Potential(xb);
             m1[j] = MassAt(xa);
@@ -196,6 +196,6 @@ public sealed class FunctionSegment : CellElement, IMeshedSegment
             vMax = Math.Max(vMax, v);
             mMin = Math.Min(mMin, MassAt(x));
         }
-        return new SegmentMesh(widths, v1, v2, m1, m2);
+        return new SegmentSamples(widths, v1, v2, m1, m2);
     }
 }

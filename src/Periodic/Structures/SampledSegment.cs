@@ -44,7 +44,7 @@ public sealed class SampledSegment : CellElement, IMeshedSegment
         MinimumPotentialElectronVolts = vMin;
         MaximumPotentialElectronVolts = vMax;
         MinimumMassElectronMasses = masses is null ? constantMass : masses.Min();
-        Mesh = BuildMesh();
+        Samples = BuildSamples();
     }
 
     /// <summary>x_N − x₀.</summary>
@@ -74,9 +74,9 @@ public sealed class SampledSegment : CellElement, IMeshedSegment
     /// <summary>True when masses were sampled too.</summary>
     public bool HasPositionDependentMass => _masses is not null;
 
-    SegmentMesh IMeshedSegment.Mesh => Mesh;
+    SegmentSamples IMeshedSegment.Samples => Samples;
 
-    internal SegmentMesh Mesh { get; }
+    internal SegmentSamples Samples { get; }
 
     /// <summary>Creates a sampled profile with a constant mass, one Magnus step per interval (see <see cref="WithStepsPerInterval"/>).</summary>
     /// <param name="positionsNanometres">At least two finite positions, strictly increasing.</param>
@@ -191,7 +191,7 @@ public sealed class SampledSegment : CellElement, IMeshedSegment
         return (x, v);
     }
 
-    private SegmentMesh BuildMesh()
+    private SegmentSamples BuildSamples()
     {
         var k = StepsPerInterval;
         var n = StepCount;
@@ -209,7 +209,7 @@ public sealed class SampledSegment : CellElement, IMeshedSegment
             for (var s = 0; s < k; s++)
             {
                 var j = i * k + s;
-                double ta = (s + SegmentMesh.Node1) / k, tb = (s + SegmentMesh.Node2) / k;
+                double ta = (s + SegmentSamples.Node1) / k, tb = (s + SegmentSamples.Node2) / k;
                 widths[j] = h;
                 v1[j] = va + ta * dv;
                 v2[j] = va + tb * dv;
@@ -217,6 +217,6 @@ public sealed class SampledSegment : CellElement, IMeshedSegment
                 m2[j] = ma + tb * dm;
             }
         }
-        return new SegmentMesh(widths, v1, v2, m1, m2);
+        return new SegmentSamples(widths, v1, v2, m1, m2);
     }
 }

@@ -25,52 +25,18 @@ namespace Periodic.Transfer;
 /// </remarks>
 public sealed class CellTransfer
 {
-    private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
-    private const double RenormaliseAbove = 1e120;
-    private const double RenormaliseBelow = 1e-120;
-
-    // Packed element data: a kind per element and ElementData.Stride doubles per element in one array
-    // (one allocation, and the numbers of an element side by side); propagators only for smooth segments.
-    private readonly ElementKind[] _kinds;
-    private readonly double[] _data;
-    private readonly ISegmentPropagator?[]? _segments;
+    private readonly CompiledCell _compiled;
 
     private CellTransfer(UnitCell cell)
     {
         Cell = cell;
-        var elements = cell.ElementSpan;
-        var n = elements.Length;
-        _kinds = new ElementKind[n];
-        _data = new double[ElementData.Stride * n];
-        var domain = double.NegativeInfinity;
-        for (var i = 0; i < n; i++)
-        {
-            switch (elements[i])
-            {
-                case Layer layer:
-                    _kinds[i] = ElementKind.Layer;
-                    ElementData.StoreLayer(_data, i, layer.Width.Nanometres, layer.Potential.ElectronVolts,
-                        layer.Mass.ElectronMasses, layer.Mass.ElectronMasses * layer.NonParabolicityPerElectronVolt);
-                    domain = Math.Max(domain, layer.LowestValidEnergyElectronVolts());
-                    break;
-                case DeltaBarrier delta:
-                    _kinds[i] = ElementKind.Delta;
-                    _data[ElementData.Stride * i + ElementData.Jump] = delta.StrengthElectronVoltNanometres / C;
-                    break;
-                case IMeshedSegment smooth:
-                    _kinds[i] = ElementKind.Segment;
-                    _segments ??= new ISegmentPropagator?[n];
-                    _segments[i] = new MagnusSegmentPropagator(smooth.Mesh);
-                    break;
-                default:
-                    throw new ArgumentException(
-                        string.Create(CultureInfo.InvariantCulture, $"cell element {i} is of unsupported type {elements[i].GetType().Name}."),
-                        nameof(cell));
-            }
-        }
-        LowestValidEnergyElectronVolts = domain;
+        _compiled = new CompiledCell(cell.ElementSpan, nameof(cell));
+        LowestValidEnergyElectronVolts = _compiled.LowestValidEnergyElectronVolts;
         PeriodNanometres = cell.Period.Nanometres;
     }
+
+    /// <summary>The compiled elements and propagation kernel of the cell.</summary>
+    internal CompiledCell Compiled => _compiled;
 
     /// <summary>The cell this transfer matrix describes.</summary>
     public UnitCell Cell { get; }
@@ -130,9 +96,9 @@ public sealed class CellTransfer
     public double Trace(double energyElectronVolts)
     {
         CheckEnergy(energyElectronVolts);
-        if (_segments is null)
+        if (!_compiled.HasSegments)
         {
-            return TraceKernel.Trace(_kinds, _data, energyElectronVolts);
+            return TraceKernel.Trace(_compiled.Kinds, _compiled.Data, energyElectronVolts);
         }
         var p = Accumulate(energyElectronVolts);
         var mantissa = p.P11 + p.P22;
@@ -176,7 +142,7 @@ public sealed class CellTransfer
     /// <exception cref="ArgumentOutOfRangeException">An energy is not finite or not above <see cref="LowestValidEnergyElectronVolts"/>.</exception>
     public void TracesVectorized(ReadOnlySpan<double> energiesElectronVolts, Span<double> destination)
     {
-        if (_segments is not null)
+        if (_compiled.HasSegments)
         {
             Traces(energiesElectronVolts, destination);
             return;
@@ -186,7 +152,7 @@ public sealed class CellTransfer
         {
             CheckEnergy(energiesElectronVolts[i], i); // all checked before any output is written
         }
-        TraceKernel.Traces(_kinds, _data, energiesElectronVolts, destination);
+        TraceKernel.Traces(_compiled.Kinds, _compiled.Data, energiesElectronVolts, destination);
     }
 
     /// <summary>
@@ -231,95 +197,28 @@ public sealed class CellTransfer
     internal int CountDirichletEigenvaluesBelow(double e, out double traceMantissa, out double traceLogScale) =>
         CountDirichletEigenvaluesBelow(e, out traceMantissa, out traceLogScale, out _);
 
-    private int CountDirichletEigenvaluesBelow(double e, out double traceMantissa, out double traceLogScale, out Product cellProduct)
+    private int CountDirichletEigenvaluesBelow(double e, out double traceMantissa, out double traceLogScale, out ScaledProduct cellProduct)
     {
-        // The state vector (u, w) = (ψ, ψ'/m) from (0, 1); zeros of u are counted per element.
-        double u = 0, w = 1;
-        var zeros = 0;
-        var product = new Product();
-        product.Reset();
-        for (var i = 0; i < _kinds.Length; i++)
-        {
-            switch (_kinds[i])
-            {
-                case ElementKind.Layer:
-                {
-                    LayerMatrix(i, e, out var m11, out var m12, out var m21, out var m22, out var d11, out var d12, out var d21, out var d22, out var l, out var s, out var mass);
-                    var u1 = m11 * u + m12 * w;
-                    var w1 = m21 * u + m22 * w;
-                    zeros += LayerZeros(u, w, u1, w1, s, _data[ElementData.Stride * i + ElementData.Width], mass);
-                    u = u1;
-                    w = w1;
-                    product.ApplyLeft(m11, m12, m21, m22, d11, d12, d21, d22, l);
-                    break;
-                }
-                case ElementKind.Delta:
-                {
-                    var jump = _data[ElementData.Stride * i + ElementData.Jump];
-                    w += jump * u;
-                    product.ApplyLeft(1, 0, jump, 1, 0, 0, 0, 0, 0);
-                    break;
-                }
-                default:
-                    zeros += _segments![i]!.PropagateCounting(e, ref u, ref w, ref product);
-                    break;
-            }
-            RenormaliseVector(ref u, ref w);
-        }
-        if (u == 0)
-        {
-            zeros--; // the far end itself is not in the open interval (0, d)
-        }
-        traceMantissa = product.P11 + product.P22;
-        traceLogScale = product.LogScale;
-        cellProduct = product;
+        var zeros = _compiled.CountDirichletZeros(e, out cellProduct);
+        traceMantissa = cellProduct.TraceMantissa;
+        traceLogScale = cellProduct.LogScale;
         return zeros;
     }
 
+    /// <summary>The scaled product over the cell and its exact energy derivative at <paramref name="e"/> (not checked).</summary>
+    internal ScaledProduct Accumulate(double e) => _compiled.Accumulate(e);
+
     /// <summary>
-    /// Zeros of ψ in (0, width] of a uniform layer with wavenumber squared <paramref name="s"/> and mass
-    /// <paramref name="mass"/>, given the state (u, w) at its start and (u1, w1) at its end (a zero at the far
-    /// end counts, one at the start does not).
+    /// ∂D/∂p at fixed energy for parameter <paramref name="parameter"/> of layer <paramref name="layerIndex"/>, as
+    /// mantissa × e^logScale, with D's own mantissa: the numerator of dE/dp = −(∂D/∂p)/(∂D/∂E).
     /// </summary>
-    internal static int LayerZeros(double u, double w, double u1, double w1, double s, double width, double mass)
+    internal double TraceParameterDerivative(double e, int layerIndex, LayerParameter parameter, out double traceMantissa, out double logScale)
     {
-        var theta = s > 0 ? Math.Sqrt(s) * width : 0;
-        if (theta < Math.PI)
-        {
-            // At most one zero in (0, w]: a sign change of u (a zero at the far end counts).
-            return u != 0 && (u1 == 0 || (u1 < 0) != (u < 0)) ? 1 : 0;
-        }
-        var k = Math.Sqrt(s);
-        var phi0 = Math.Atan2(u, mass * w / k);
-        var phiEnd = Math.Atan2(u1, mass * w1 / k);
-        var turns = Math.Round((phi0 + theta - phiEnd) / (2 * Math.PI));
-        return FloorQuadrant(u1, w1) + 2 * (int)turns - FloorQuadrant(u, w);
-    }
-
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static int FloorQuadrant(double u, double w) => u < 0 ? -1 : u > 0 ? 0 : w >= 0 ? 0 : 1;
-
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static void RenormaliseVector(ref double u, ref double w)
-    {
-        var max = Math.Max(Math.Abs(u), Math.Abs(w));
-        if (max > RenormaliseAbove || max < RenormaliseBelow)
-        {
-            var exponent = Math.ILogB(max);
-            u = Math.ScaleB(u, -exponent);
-            w = Math.ScaleB(w, -exponent);
-        }
-    }
-
-    internal Product Accumulate(double e)
-    {
-        var product = new Product();
-        product.Reset();
-        for (var i = 0; i < _kinds.Length; i++)
-        {
-            ApplyElement(i, e, ref product);
-        }
-        return product;
+        CheckEnergy(e);
+        var p = _compiled.AccumulateParameterDerivative(e, layerIndex, parameter);
+        traceMantissa = p.TraceMantissa;
+        logScale = p.LogScale;
+        return p.TraceDerivativeMantissa;
     }
 
     /// <summary>
@@ -332,7 +231,7 @@ public sealed class CellTransfer
     /// </summary>
     internal double LogRoundingAmplification(double e)
     {
-        var n = _kinds.Length;
+        var n = _compiled.Count;
         // 10 doubles per element; on the stack for cells of up to 200 elements (16 KB), so sweeps of small
         // cells do not allocate here.
         var buffer = n <= 200 ? stackalloc double[10 * n] : new double[10 * n];
@@ -340,9 +239,8 @@ public sealed class CellTransfer
         var scales = buffer.Slice(4 * n, n);
         for (var i = 0; i < n; i++)
         {
-            var single = new Product();
-            single.Reset();
-            ApplyElement(i, e, ref single);
+            var single = ScaledProduct.Identity;
+            _compiled.ApplyElement(i, e, ref single);
             matrices[4 * i + 0] = single.P11; matrices[4 * i + 1] = single.P12; matrices[4 * i + 2] = single.P21; matrices[4 * i + 3] = single.P22;
             scales[i] = single.LogScale;
         }
@@ -394,49 +292,6 @@ public sealed class CellTransfer
         return Math.Log(Math.Max(Math.Max(Math.Abs(m11), Math.Abs(m12)), Math.Max(Math.Abs(m21), Math.Abs(m22)))) + logScale;
     }
 
-    /// <summary>Applies element <paramref name="i"/> (matrix and energy derivative) to the running product.</summary>
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private void ApplyElement(int i, double e, ref Product product)
-    {
-        switch (_kinds[i])
-        {
-            case ElementKind.Layer:
-                LayerMatrix(i, e, out var m11, out var m12, out var m21, out var m22, out var d11, out var d12, out var d21, out var d22, out var l, out _, out _);
-                product.ApplyLeft(m11, m12, m21, m22, d11, d12, d21, d22, l);
-                break;
-            case ElementKind.Delta:
-                product.ApplyLeft(1, 0, _data[ElementData.Stride * i + ElementData.Jump], 1, 0, 0, 0, 0, 0);
-                break;
-            default:
-                _segments![i]!.Propagate(e, ref product);
-                break;
-        }
-    }
-
-    /// <summary>Scaled matrix and exact energy derivative of uniform layer <paramref name="i"/>.</summary>
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private void LayerMatrix(int i, double e, out double m11, out double m12, out double m21, out double m22,
-        out double d11, out double d12, out double d21, out double d22, out double logScale, out double s, out double mass)
-    {
-        var at = ElementData.Stride * i;
-        var excess = e - _data[at + ElementData.Potential];
-        var slope = _data[at + ElementData.MassSlope];
-        mass = _data[at + ElementData.Mass] + slope * excess;
-        s = mass * excess / C;
-        var dsde = (mass + slope * excess) / C;
-        var width = _data[at + ElementData.Width];
-        UniformLayerPropagator.Evaluate(s, width, out var c, out var sinc, out var dcds, out var dSds, out logScale);
-        // M = [[c, m S], [-(s/m) S, c]]; dM/dE = (ds/dE) dM/ds + (dm/dE) dM/dm.
-        m11 = c;
-        m22 = c;
-        m12 = mass * sinc;
-        m21 = -s * sinc / mass;
-        d11 = dsde * dcds;
-        d22 = d11;
-        d12 = dsde * mass * dSds + slope * sinc;
-        d21 = -dsde * (sinc + s * dSds) / mass + slope * s * sinc / (mass * mass);
-    }
-
     private void CheckEnergy(double energyElectronVolts, int index = -1)
     {
         if (double.IsFinite(energyElectronVolts) && energyElectronVolts > LowestValidEnergyElectronVolts)
@@ -454,120 +309,4 @@ public sealed class CellTransfer
         throw new ArgumentOutOfRangeException(paramName, energyElectronVolts,
             $"{name} must exceed {Preconditions.Format(LowestValidEnergyElectronVolts)} eV, below which a non-parabolic mass m(E) = m(1 + a(E - V)) would not be positive; got {Preconditions.Format(energyElectronVolts)}.");
     }
-
-    /// <summary>
-    /// Running product P = M_n ⋯ M_1 and its energy derivative, as mantissas times e^LogScale.
-    /// A mutable accumulator used only on the stack of one evaluation.
-    /// </summary>
-    internal struct Product
-    {
-        internal double P11, P12, P21, P22, D11, D12, D21, D22, LogScale;
-
-        /// <summary>
-        /// Near M = ±I (the edges of a narrow gap) D ∓ 2 is a difference of nearly equal numbers with an error
-        /// ε|M| that moves an edge by ε|M|/|D′|, and |D′| shrinks with the gap. Since det M = 1,
-        /// D ∓ 2 = ∓det(M ∓ I) exactly; the determinant of the small matrix N = M ∓ I has an error of only
-        /// ε|N|, which keeps the edges of a narrow gap as accurate as those of a wide one.
-        /// Used when |N11|, |N22| and √|N12·N21| are at most 1e-3: there the trace would lose more than three digits; elsewhere it is as good.
-        /// </summary>
-        internal readonly bool TryShiftedTrace(double scale, double target, out double value, out double derivative)
-        {
-            var sign = target > 0 ? 1.0 : -1.0;
-            double n11 = P11 * scale - sign, n22 = P22 * scale - sign, n12 = P12 * scale, n21 = P21 * scale;
-            // M12 and M21 carry reciprocal units (mass × length and its inverse): compare their geometric mean.
-            if (Math.Max(Math.Max(Math.Abs(n11), Math.Abs(n22)), Math.Sqrt(Math.Abs(n12 * n21))) > 1e-3)
-            {
-                value = 0;
-                derivative = 0;
-                return false;
-            }
-            double d11 = D11 * scale, d12 = D12 * scale, d21 = D21 * scale, d22 = D22 * scale;
-            value = -sign * (n11 * n22 - n12 * n21);
-            derivative = -sign * (d11 * n22 + n11 * d22 - d12 * n21 - n12 * d21);
-            return true;
-        }
-
-        internal void Reset()
-        {
-            P11 = 1; P12 = 0; P21 = 0; P22 = 1;
-            D11 = 0; D12 = 0; D21 = 0; D22 = 0;
-            LogScale = 0;
-        }
-
-        /// <summary>P ← M·P, dP ← dM·P + M·dP, with M and dM scaled by e^logScale.</summary>
-        [MethodImpl(MethodImplOptions.AggressiveInlining)]
-        internal void ApplyLeft(double m11, double m12, double m21, double m22, double d11, double d12, double d21, double d22, double logScale)
-        {
-            var q11 = m11 * P11 + m12 * P21;
-            var q12 = m11 * P12 + m12 * P22;
-            var q21 = m21 * P11 + m22 * P21;
-            var q22 = m21 * P12 + m22 * P22;
-            var e11 = d11 * P11 + d12 * P21 + m11 * D11 + m12 * D21;
-            var e12 = d11 * P12 + d12 * P22 + m11 * D12 + m12 * D22;
-            var e21 = d21 * P11 + d22 * P21 + m21 * D11 + m22 * D21;
-            var e22 = d21 * P12 + d22 * P22 + m21 * D12 + m22 * D22;
-            P11 = q11; P12 = q12; P21 = q21; P22 = q22;
-            D11 = e11; D12 = e12; D21 = e21; D22 = e22;
-            LogScale += logScale;
-            var max = Math.Max(Math.Max(Math.Max(Math.Abs(q11), Math.Abs(q12)), Math.Max(Math.Abs(q21), Math.Abs(q22))),
-                               Math.Max(Math.Max(Math.Abs(e11), Math.Abs(e12)), Math.Max(Math.Abs(e21), Math.Abs(e22))));
-            if (max > RenormaliseAbove || (max < RenormaliseBelow && max > 0))
-            {
-                // Powers of two rescale exactly, without rounding.
-                var exponent = Math.ILogB(max);
-                P11 = Math.ScaleB(P11, -exponent); P12 = Math.ScaleB(P12, -exponent);
-                P21 = Math.ScaleB(P21, -exponent); P22 = Math.ScaleB(P22, -exponent);
-                D11 = Math.ScaleB(D11, -exponent); D12 = Math.ScaleB(D12, -exponent);
-                D21 = Math.ScaleB(D21, -exponent); D22 = Math.ScaleB(D22, -exponent);
-                LogScale += exponent * Math.Log(2.0);
-            }
-        }
-    }
-}
-
-/// <summary>The kind of one packed cell element.</summary>
-internal enum ElementKind : byte
-{
-    Layer,
-    Delta,
-    Segment,
-}
-
-/// <summary>
-/// Layout of the packed per-element numbers of <see cref="CellTransfer"/>: <see cref="Stride"/> doubles per
-/// element. A layer stores width (nm), potential (eV), band-edge mass (m0), mass slope dm/dE (m0/eV) and,
-/// for the trace-only kernel, m/C and 1/m (C = ħ²/2m0 in eV·nm²); a delta stores its jump of ψ′/m
-/// (strength / C) in <see cref="Jump"/>.
-/// </summary>
-internal static class ElementData
-{
-    internal const int Stride = 6;
-    internal const int Width = 0;
-    internal const int Potential = 1;
-    internal const int Mass = 2;
-    internal const int MassSlope = 3;
-    internal const int MassOverC = 4;
-    internal const int InverseMass = 5;
-    internal const int Jump = 0;
-
-    internal static void StoreLayer(double[] data, int index, double width, double potential, double mass, double massSlope)
-    {
-        var at = Stride * index;
-        data[at + Width] = width;
-        data[at + Potential] = potential;
-        data[at + Mass] = mass;
-        data[at + MassSlope] = massSlope;
-        data[at + MassOverC] = mass / PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
-        data[at + InverseMass] = 1 / mass;
-    }
-}
-
-/// <summary>Propagation through one smooth segment at a given energy (an extension point for non-uniform potentials).</summary>
-internal interface ISegmentPropagator
-{
-    /// <summary>Applies the segment's scaled matrix and energy derivative to the running product.</summary>
-    void Propagate(double energyElectronVolts, ref CellTransfer.Product product);
-
-    /// <summary>As <see cref="Propagate"/>, and also propagates the state (u, w) = (ψ, ψ′/m), returning the number of zeros of ψ inside the segment (its far end included).</summary>
-    int PropagateCounting(double energyElectronVolts, ref double u, ref double w, ref CellTransfer.Product product);
 }

@@ -15,16 +15,15 @@ namespace Periodic.Transfer;
 /// <remarks>
 /// <para>Method: every element's matrix has the form [[c, m12], [m21, c]]. A layer with wavenumber squared
 /// s = m(E − V)/C has c = cos(√s w), m12 = m·S, m21 = −(s/m)·S with S = sin(√s w)/√s, continued to s &lt; 0 as
-/// c = cosh κw, S = sinh(κw)/κ; a delta has c = 1, m12 = 0, m21 = its jump. Three regimes keep every
-/// digit: |s|w² &lt; 1, Taylor series of c and S/w in z = s·w² (no cancellation near s = 0, where the exp-minus-one
-/// forms of .NET lose digits: <c>double.ExpM1</c> is computed as exp(x) − 1); s &gt; 0, sin and cos; s &lt; 0, cosh and
-/// sinh from e^κw for κw &lt; 20 and, beyond, scaled by e^(−κw) with κw added to a log scale, so that no barrier
-/// overflows (the scaled transfer-matrix form of e.g. P. Yeh, Optical Waves in Layered Media, ch. 5, applied to
-/// the BenDaniel–Duke envelope equation). The first element's matrix is the running product itself and of the
+/// c = cosh κw, S = sinh(κw)/κ (<see cref="UniformLayerPropagator.Values"/>: series near s = 0, sin and cos, cosh and
+/// sinh direct below κw = 20 and scaled beyond, so that no barrier overflows; the scaled transfer-matrix form of e.g.
+/// P. Yeh, Optical Waves in Layered Media, ch. 5, applied to the BenDaniel–Duke envelope equation); a delta has c = 1,
+/// m12 = 0, m21 = its jump. The first element's matrix is the running product itself and of the
 /// last only the trace of the product is formed. Products are renormalised by exact powers of two.</para>
-/// <para>The batch path (TraceKernel.Lanes.cs) runs the same formulas on <see cref="System.Numerics.Vector{T}"/>
-/// lanes, several energies at once with the whole product in registers; an element whose lanes straddle regimes
-/// is evaluated lane by lane with the scalar formula.</para>
+/// <para>The batch path (TraceKernel.Lanes.cs) is a documented specialisation kept for speed (several energies per
+/// instruction, the whole product in registers): it repeats the regimes of <see cref="UniformLayerPropagator.Values"/>
+/// on <see cref="System.Numerics.Vector{T}"/> lanes, and an element whose lanes straddle regimes is evaluated lane by
+/// lane with the scalar formula. TraceKernelTest pins it to the scalar path and to <see cref="CellTransfer.Dispersion"/>.</para>
 /// <para>Results agree with the derivative-carrying path of <see cref="CellTransfer.Dispersion"/> to
 /// rounding: the vectorised sin, cos and exp differ from the scalar ones by a few ulps, which the
 /// product carries as a relative error of order (number of layers)·ε on the largest matrix entry.</para>
@@ -35,16 +34,11 @@ internal static partial class TraceKernel
     private const double RenormaliseAbove = 1e120;
     private const double RenormaliseBelow = 1e-120;
 
-    /// <summary>Below κw = 20 a barrier's cosh and sinh are formed directly (≤ e^20 ≈ 5e8, far inside the
-    /// renormalisation headroom); thicker barriers use the scaled form and the log scale.</summary>
-    private const double DirectBarrierLimit = 20;
-
-    /// <summary>Terms of the series in z = s·w², |z| &lt; 1: the first omitted term of c is below 1/20! ≈ 4e-19.</summary>
-    private const int SeriesTerms = 9;
-
-    // CSeries[j] = (−1)^j/(2j)!, SSeries[j] = (−1)^j/(2j + 1)!: c = Σ CSeries[j] z^j, S/w = Σ SSeries[j] z^j.
-    private static readonly double[] CSeries = UniformLayerPropagator.BuildSeries(0, SeriesTerms);
-    private static readonly double[] SSeries = UniformLayerPropagator.BuildSeries(1, SeriesTerms);
+    // The lanes repeat the closed form of UniformLayerPropagator.Values on vectors, with its constants.
+    private const double DirectBarrierLimit = UniformLayerPropagator.DirectBarrierLimit;
+    private const int SeriesTerms = UniformLayerPropagator.ValueSeriesTerms;
+    private static readonly double[] CSeries = UniformLayerPropagator.CSeries;
+    private static readonly double[] SSeries = UniformLayerPropagator.SSeries;
 
     /// <summary>
     /// D(E) by the scalar trace-only product over the packed elements of a cell of layers and deltas
@@ -124,52 +118,13 @@ internal static partial class TraceKernel
             s = mass * excess / C;
             inverseMass = 1 / mass;
         }
-        var width = Unsafe.Add(ref element, ElementData.Width);
-        var z = s * width * width;
-        if (Math.Abs(z) < 1)
+        UniformLayerPropagator.Values(s, Unsafe.Add(ref element, ElementData.Width), out c, out var sinc, out var logScale);
+        if (logScale != 0)
         {
-            double cSum = CSeries[SeriesTerms], sSum = SSeries[SeriesTerms];
-            for (var j = SeriesTerms - 1; j >= 0; j--)
-            {
-                cSum = cSum * z + CSeries[j];
-                sSum = sSum * z + SSeries[j];
-            }
-            var sinc = sSum * width;
-            c = cSum;
-            m12 = mass * sinc;
-            m21 = -(s * inverseMass) * sinc;
+            log += logScale; // rare (barriers beyond κw = 20): no store to the caller's scale on the common path
         }
-        else if (s > 0)
-        {
-            var k = Math.Sqrt(s);
-            var (sin, cos) = Math.SinCos(k * width);
-            c = cos;
-            m12 = mass / k * sin;
-            m21 = -(k * inverseMass) * sin;
-        }
-        else
-        {
-            var kappa = Math.Sqrt(-s);
-            var theta = kappa * width; // ≥ 1 here
-            double sinh;
-            if (theta < DirectBarrierLimit)
-            {
-                var grow = Math.Exp(theta);
-                var decay = 1 / grow;
-                c = 0.5 * (grow + decay);
-                sinh = 0.5 * (grow - decay); // no cancellation for θ ≥ 1 (loses at most a factor 1.3)
-            }
-            else
-            {
-                // Scaled by e^(−κw): cosh → (1 + e^(−2κw))/2, sinh → (1 − e^(−2κw))/2; log += κw.
-                var q = Math.Exp(-2 * theta);
-                c = 0.5 * (1 + q);
-                sinh = 0.5 * (1 - q);
-                log += theta;
-            }
-            m12 = mass / kappa * sinh;
-            m21 = kappa * inverseMass * sinh;
-        }
+        m12 = mass * sinc;
+        m21 = -(s * inverseMass) * sinc;
     }
 
     /// <summary>

@@ -6,6 +6,7 @@ using FsCheck;
 using FsCheck.Fluent;
 using Periodic.Stacks;
 using Periodic.Structures;
+using Periodic.Transfer;
 using Periodic.Units;
 using Xunit.Abstractions;
 

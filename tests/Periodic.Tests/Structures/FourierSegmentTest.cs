@@ -110,17 +110,15 @@ public sealed class FourierSegmentTest
             sine[i] = random.NextDouble() - 0.5;
         }
         var segment = FourierSegment.Create(Period, Energy.FromElectronVolts(0.3), cosine, sine, EffectiveMass.FreeElectron, steps);
-        var mesh = segment.Mesh;
+        var samples = segment.Samples;
         var scale = cosine.Sum(Math.Abs) + sine.Sum(Math.Abs);
-        const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
         var h = Period.Nanometres / steps;
         for (var j = 0; j < steps; j++)
         {
-            double x1 = (j + SegmentMesh.Node1) * h, x2 = (j + SegmentMesh.Node2) * h;
-            double v1 = Direct(x1), v2 = Direct(x2);
-            // Γ₀ = h(V₁ + V₂)/(2C) and, for a constant mass m, α₀ = (√3/12)h²m(V₁ − V₂)/C (SegmentMesh's definitions).
-            Assert.Equal(v1 + v2, mesh.Gamma0[j] * 2 * C / h, 1e-12 * scale);
-            Assert.Equal(v1 - v2, mesh.Alpha0[j] * C / (0.14433756729740644113 * h * h), 1e-12 * scale);
+            double x1 = (j + SegmentSamples.Node1) * h, x2 = (j + SegmentSamples.Node2) * h;
+            // The samples at the two Gauss–Legendre nodes of each step, which the Magnus mesh is built from.
+            Assert.Equal(Direct(x1), samples.V1[j], 1e-12 * scale);
+            Assert.Equal(Direct(x2), samples.V2[j], 1e-12 * scale);
         }
 
         double Direct(double x)

@@ -4,7 +4,7 @@
 using MathNet.Numerics;
 using Periodic.Units;
 
-namespace Periodic.Stacks;
+namespace Periodic.Transfer;
 
 /// <summary>
 /// Exact transfer matrix of a layer of constant mass whose potential varies linearly,

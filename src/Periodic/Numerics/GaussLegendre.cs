@@ -1,7 +1,7 @@
 // SPDX-License-Identifier: MIT
 // Copyright (c) 2026 Periodic contributors
 
-namespace Periodic.Properties;
+namespace Periodic.Numerics;
 
 /// <summary>
 /// Gauss–Legendre nodes and weights on [−1, 1], computed once by Newton's method on the Legendre
@@ -42,6 +42,18 @@ internal sealed class GaussLegendre
         }
     }
 
+    /// <summary>
+    /// Distance of the nodes of the 2-point rule on [0, 1] from the middle, √3/6 (the nodes 1/2 ∓ √3/6 are the
+    /// zeros of the shifted P₂; Abramowitz and Stegun, Table 25.4): the nodes of the Magnus steps.
+    /// </summary>
+    internal const double TwoPointOffsetOnUnitInterval = 0.28867513459481288225;
+
+    /// <summary>The 4-point rule (exact for degree 7: the square of a cubic Hermite piece and its first moment).</summary>
+    internal static GaussLegendre Four { get; } = new(4);
+
+    /// <summary>The 8-point rule (exact for degree 15: the fourth power of a cubic Hermite piece times a linear weight).</summary>
+    internal static GaussLegendre Eight { get; } = new(8);
+
     /// <summary>The 10-point rule (the error estimate's companion).</summary>
     internal static GaussLegendre Ten { get; } = new(10);
 
@@ -51,4 +63,21 @@ internal sealed class GaussLegendre
     internal double[] Nodes { get; }
 
     internal double[] Weights { get; }
+
+    /// <summary>Number of nodes n (exact for polynomials of degree 2n − 1).</summary>
+    internal int Order => Nodes.Length;
+
+    /// <summary>The rule on [<paramref name="lower"/>, <paramref name="upper"/>]: Σ wᵢ f(xᵢ) with nodes and weights mapped affinely.</summary>
+    internal double Integrate<TFunction>(ref TFunction function, double lower, double upper)
+        where TFunction : struct, IRealFunction
+    {
+        var middle = 0.5 * (lower + upper);
+        var half = 0.5 * (upper - lower);
+        double sum = 0;
+        for (var i = 0; i < Nodes.Length; i++)
+        {
+            sum += Weights[i] * function.Evaluate(middle + half * Nodes[i]);
+        }
+        return sum * half;
+    }
 }

@@ -1,13 +1,15 @@
 // SPDX-License-Identifier: MIT
 // Copyright (c) 2026 Periodic contributors
 
+using System.Runtime.CompilerServices;
+using Periodic.Structures;
 using Periodic.Units;
 
-namespace Periodic.Structures;
+namespace Periodic.Transfer;
 
 /// <summary>
 /// The step data of a smooth segment for the fourth-order Magnus propagator: per step j of width h,
-/// the potential V and mass m at the two Gauss–Legendre nodes x_j + (1/2 ∓ √3/6)h, reduced to the
+/// the potential V and mass m at the two Gauss–Legendre nodes x_j + (1/2 ∓ √3/6)h (<see cref="SegmentSamples"/>), reduced to the
 /// coefficients of the traceless step exponent Ω(E) = [[α, β], [γ, −α]] with
 /// α = α₀ − α₁E, β fixed, γ = γ₀ − γ₁E (linear in E because the mass does not depend on E).
 /// Immutable after construction; shared by every evaluation.
@@ -21,13 +23,14 @@ internal sealed class SegmentMesh
 {
     private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
 
-    /// <summary>Lower Gauss–Legendre node on [0, 1].</summary>
-    internal const double Node1 = 0.5 - 0.28867513459481288225; // 1/2 − √3/6
-
-    /// <summary>Upper Gauss–Legendre node on [0, 1].</summary>
-    internal const double Node2 = 0.5 + 0.28867513459481288225;
+    // Compiled once per segment and shared by every transfer calculation of it (the samples are immutable).
+    private static readonly ConditionalWeakTable<SegmentSamples, SegmentMesh> Compiled = new();
 
     private const double CommutatorWeight = 0.14433756729740644113; // √3/12
+
+    /// <summary>The mesh of <paramref name="segment"/>'s samples, compiled on first use.</summary>
+    internal static SegmentMesh Of(IMeshedSegment segment) =>
+        Compiled.GetValue(segment.Samples, static samples => new SegmentMesh(samples.Widths, samples.V1, samples.V2, samples.M1, samples.M2));
 
     internal SegmentMesh(ReadOnlySpan<double> widths, ReadOnlySpan<double> v1, ReadOnlySpan<double> v2, ReadOnlySpan<double> m1, ReadOnlySpan<double> m2)
     {
@@ -79,30 +82,3 @@ internal sealed class SegmentMesh
     }
 }
 
-/// <summary>A smooth segment that the transfer layer propagates with the Magnus scheme over <see cref="Mesh"/>.</summary>
-internal interface IMeshedSegment : IPotentialSegment
-{
-    SegmentMesh Mesh { get; }
-
-    /// <summary>A copy with every step split in two (for step halving and Richardson extrapolation).</summary>
-    CellElement Refined();
-}
-
-/// <summary>Shared argument checks and range scans of the smooth segment types.</summary>
-internal static class SegmentChecks
-{
-    /// <summary>Largest step count of one segment (keeps the mesh below ~200 MB).</summary>
-    internal const int MaxStepCount = 4_000_000;
-
-    internal static void CheckStepCount(int stepCount, string paramName) =>
-        Preconditions.CheckRange(stepCount, 1, MaxStepCount, paramName);
-
-    internal static void CheckMass(EffectiveMass mass, string paramName)
-    {
-        if (!(mass.ElectronMasses > 0))
-        {
-            throw new ArgumentOutOfRangeException(paramName, mass.ElectronMasses,
-                $"{paramName} must be positive and finite; got the default (zero) mass. Create it with EffectiveMass.FromElectronMasses.");
-        }
-    }
-}

@@ -3,11 +3,11 @@
 
 using FsCheck;
 using FsCheck.Fluent;
-using Periodic.Stacks;
+using Periodic.Transfer;
 using Periodic.Units;
 using Xunit.Abstractions;
 
-namespace Periodic.Tests.Stacks;
+namespace Periodic.Tests.Transfer;
 
 /// <summary>The exact transfer matrix of a layer with a linear potential (Airy form and sublayer series).</summary>
 public sealed class LinearLayerPropagatorTest(ITestOutputHelper output)
