@@ -9,7 +9,7 @@ using Periodic.Serialization;
 
 // Exit codes: 0 success, 1 a computation failed, 2 bad input or usage. Errors are one line on
 // stderr; --verbose adds the exception detail.
-var verbose = new Option<bool>("--verbose") { Description = "On failure, print the full error detail.", Recursive = true };
+var verbose = Common.Verbose;
 // A plain command named "periodic" rather than RootCommand, whose name would be the assembly's (Periodic.Cli).
 var root = new Command("periodic", "periodic: bands, dispersion, density of states, transmission, current under bias and plots of one-dimensional periodic structures. "
     + "Without arguments, prints the band table of a built-in example superlattice.");
@@ -22,6 +22,8 @@ root.Subcommands.Add(DosCommand.Create());
 root.Subcommands.Add(TransmissionCommand.Create());
 root.Subcommands.Add(CurrentCommand.Create());
 root.Subcommands.Add(PlotCommand.Create());
+root.Subcommands.Add(SweepCommand.Create());
+root.Subcommands.Add(MergeCommand.Create());
 root.Subcommands.Add(ExampleCommand.Create());
 root.SetAction(_ =>
 {

@@ -20,6 +20,9 @@ internal enum OutputFormat
 /// <summary>Options and helpers shared by the commands.</summary>
 internal static class Common
 {
+    /// <summary>--verbose on every command: on failure the full error detail; some commands add where the time went.</summary>
+    public static Option<bool> Verbose { get; } = new("--verbose") { Description = "On failure, print the full error detail (sweep: also where the time went).", Recursive = true };
+
     public static Argument<string> FileArgument() => new("file")
     {
         Description = "Structure file (JSON, see docs/structure.schema.json).",
@@ -87,6 +90,7 @@ internal static class Common
         {
             throw new UsageException($"structure file {path} does not exist.");
         }
+        OutputFile.RegisterInput(path);
         var structure = StructureFile.Load(path);
         if (structure.Materials is { } built)
         {
