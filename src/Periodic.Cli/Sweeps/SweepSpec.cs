@@ -85,31 +85,7 @@ internal sealed class SweepSpec
     /// <summary>Reads and checks a sweep file; every error names the field and what is allowed.</summary>
     public static SweepSpec Load(string path)
     {
-        if (Directory.Exists(path))
-        {
-            throw new UsageException($"sweep file {Printable.Quote(path)} is a directory; give a sweep file (JSON).");
-        }
-        if (!File.Exists(path))
-        {
-            throw new UsageException($"sweep file {Printable.Quote(path)} does not exist.");
-        }
-        const long MaximumBytes = 16 << 20;
-        if (new FileInfo(path).Length > MaximumBytes)
-        {
-            throw new UsageException($"sweep file {Printable.Quote(path)} is larger than 16 MiB; a sweep file lists parameters, not data.");
-        }
-        OutputFile.RegisterInput(path);
-        var bytes = File.ReadAllBytes(path);
-        JsonObject root;
-        try
-        {
-            root = JsonNode.Parse(bytes, documentOptions: new JsonDocumentOptions { CommentHandling = JsonCommentHandling.Skip, AllowTrailingCommas = true }) as JsonObject
-                ?? throw Bad(path, "", "must be a JSON object with \"structure\", \"parameters\" and \"outputs\".");
-        }
-        catch (JsonException e)
-        {
-            throw new UsageException($"{Printable.Quote(path)}: invalid JSON: {e.Message}");
-        }
+        var (root, bytes) = ReadRoot(path, "sweep file", "\"structure\", \"parameters\" and \"outputs\"");
         foreach (var (name, _) in root)
         {
             if (name is not ("$schema" or "structure" or "parameters" or "design" or "outputs" or "description"))
@@ -135,7 +111,37 @@ internal sealed class SweepSpec
         return new SweepSpec(path, structure, structureSource, parameters, plan, bands, sensitivities, fingerprint);
     }
 
-    private static (JsonObject Structure, string Source, byte[] Bytes) ReadStructure(string path, JsonNode? node)
+    /// <summary>Reads a JSON file of the tool's own (sweep or design file) as an object, within a size bound.</summary>
+    internal static (JsonObject Root, byte[] Bytes) ReadRoot(string path, string what, string fields)
+    {
+        if (Directory.Exists(path))
+        {
+            throw new UsageException($"{what} {Printable.Quote(path)} is a directory; give a {what} (JSON).");
+        }
+        if (!File.Exists(path))
+        {
+            throw new UsageException($"{what} {Printable.Quote(path)} does not exist.");
+        }
+        const long MaximumBytes = 16 << 20;
+        if (new FileInfo(path).Length > MaximumBytes)
+        {
+            throw new UsageException($"{what} {Printable.Quote(path)} is larger than 16 MiB; it lists parameters, not data.");
+        }
+        OutputFile.RegisterInput(path);
+        var bytes = File.ReadAllBytes(path);
+        try
+        {
+            var root = JsonNode.Parse(bytes, documentOptions: new JsonDocumentOptions { CommentHandling = JsonCommentHandling.Skip, AllowTrailingCommas = true }) as JsonObject
+                ?? throw Bad(path, "", $"must be a JSON object with {fields}.");
+            return (root, bytes);
+        }
+        catch (JsonException e)
+        {
+            throw new UsageException($"{Printable.Quote(path)}: invalid JSON: {e.Message}");
+        }
+    }
+
+    internal static (JsonObject Structure, string Source, byte[] Bytes) ReadStructure(string path, JsonNode? node)
     {
         switch (node)
         {
@@ -257,7 +263,7 @@ internal sealed class SweepSpec
     }
 
     /// <summary>The cell element and layer quantity a path such as <c>cell[2].width</c> names, or null.</summary>
-    private static (int Element, Periodic.Design.LayerQuantity Quantity)? LayerField(string field)
+    internal static (int Element, Periodic.Design.LayerQuantity Quantity)? LayerField(string field)
     {
         var match = System.Text.RegularExpressions.Regex.Match(field, @"^cell\[(\d+)\]\.(width|potential|mass)$", System.Text.RegularExpressions.RegexOptions.CultureInvariant);
         if (!match.Success)
@@ -274,7 +280,7 @@ internal sealed class SweepSpec
     }
 
     // A layer of the structure file (numbers or a material), not a delta or smooth segment.
-    private static bool IsUniformLayer(JsonObject structure, string field)
+    internal static bool IsUniformLayer(JsonObject structure, string field)
     {
         var element = LayerField(field)!.Value.Element;
         return structure["cell"] is JsonArray cell && element < cell.Count && cell[element] is JsonObject layer
