@@ -24,6 +24,7 @@ root.Subcommands.Add(CurrentCommand.Create());
 root.Subcommands.Add(PlotCommand.Create());
 root.Subcommands.Add(SweepCommand.Create());
 root.Subcommands.Add(MergeCommand.Create());
+root.Subcommands.Add(DesignCommand.Create());
 root.Subcommands.Add(ExampleCommand.Create());
 root.SetAction(_ =>
 {

@@ -13,12 +13,7 @@ namespace Periodic.Cli.Physics;
 /// </summary>
 internal static class Solver
 {
-    /// <summary>The lowest <paramref name="count"/> bands; <paramref name="quiet"/> leaves the non-convergence warning to the caller.</summary>
-    public static BandSolution Compute(UnitCell cell, int count, bool quiet = false)
-    {
-        var solution = BandSolver.Compute(cell, count);
-        return quiet ? solution : Warn(solution);
-    }
+    public static BandSolution Compute(UnitCell cell, int count) => Warn(BandSolver.Compute(cell, count));
 
     /// <summary>Every band whose bottom lies below <paramref name="energyElectronVolts"/> (at least one).</summary>
     public static BandSolution ComputeBelow(UnitCell cell, double energyElectronVolts) =>

@@ -3,7 +3,8 @@
 
 using System.Globalization;
 using System.Text;
-using Periodic.Cli.Physics;
+using Periodic.Bands;
+using Periodic.Design;
 using Periodic.Properties;
 using Periodic.Serialization;
 
@@ -12,7 +13,8 @@ namespace Periodic.Cli.Sweeps;
 /// <summary>
 /// Evaluates the designs of a sweep: each design is the sweep's structure with its parameter values written in,
 /// read by the same structure-file reader as every command (so a design that makes an invalid layer fails the way
-/// a file would), and solved by the same band solver as <c>periodic bands</c>.
+/// a file would), and solved by the library's band solver as <c>periodic bands</c> is. With sensitivities on, each band
+/// edge's exact derivative with respect to each varied layer field (<see cref="EdgeSensitivities"/>) follows.
 /// </summary>
 internal sealed class SweepRunner(SweepSpec spec)
 {
@@ -35,6 +37,18 @@ internal sealed class SweepRunner(SweepSpec spec)
             columns.Add((band + ".massTop", "m0"));
             columns.Add((string.Create(CultureInfo.InvariantCulture, $"gap{n}.width"), "eV"));
         }
+        if (spec.Sensitivities)
+        {
+            for (var n = 1; n <= spec.Bands; n++)
+            {
+                foreach (var parameter in spec.Parameters)
+                {
+                    var per = "eV/" + parameter.Unit;
+                    columns.Add((string.Create(CultureInfo.InvariantCulture, $"dBand{n}.bottom/d{parameter.Field}"), per));
+                    columns.Add((string.Create(CultureInfo.InvariantCulture, $"dBand{n}.top/d{parameter.Field}"), per));
+                }
+            }
+        }
         return columns;
     }
 
@@ -56,7 +70,7 @@ internal sealed class SweepRunner(SweepSpec spec)
                 FieldPath.Set(document, spec.Parameters[j].Field, parameters[j]);
             }
             var structure = StructureFile.Parse(Encoding.UTF8.GetBytes(document.ToJsonString()), string.Create(CultureInfo.InvariantCulture, $"design {index}"));
-            var solved = Solver.Compute(structure.Cell, spec.Bands, quiet: true);
+            var solved = BandSolver.Compute(structure.Cell, spec.Bands);
             var bands = solved.Structure;
             var properties = BandProperties.Create(bands);
             var k = parameters.Length;
@@ -69,6 +83,18 @@ internal sealed class SweepRunner(SweepSpec spec)
                 values[k++] = Finite(properties.BottomMass(n).ElectronMasses);
                 values[k++] = Finite(properties.TopMass(n).ElectronMasses);
                 values[k++] = bands.Gaps[n - 1].WidthElectronVolts;
+            }
+            if (spec.Sensitivities)
+            {
+                var exact = EdgeSensitivities.Compute(bands);
+                for (var n = 1; n <= spec.Bands; n++)
+                {
+                    foreach (var (element, quantity) in spec.SensitivityTargets)
+                    {
+                        values[k++] = exact.Bottom(n, element, quantity);
+                        values[k++] = exact.Top(n, element, quantity);
+                    }
+                }
             }
             var error = solved.Converged ? null : string.Create(CultureInfo.InvariantCulture, $"not converged: edge errors up to {solved.MaxEdgeErrorElectronVolts:G3} eV");
             return new SweepRow(index, values, error);

@@ -39,8 +39,10 @@ internal sealed class SweepSpec
     public const int MaximumBands = 50;
 
     private SweepSpec(string source, JsonObject structure, string structureSource, IReadOnlyList<SweepParameter> parameters,
-        DesignPlan plan, int bands, string fingerprint)
+        DesignPlan plan, int bands, bool sensitivities, string fingerprint)
     {
+        Sensitivities = sensitivities;
+        SensitivityTargets = sensitivities ? parameters.Select(p => LayerField(p.Field)!.Value).ToArray() : [];
         Source = source;
         Structure = structure;
         StructureSource = structureSource;
@@ -68,6 +70,12 @@ internal sealed class SweepSpec
     /// <summary>Number of bands whose edges, widths, masses and gaps each design reports.</summary>
     public int Bands { get; }
 
+    /// <summary>True when each band edge's exact derivatives with respect to the varied fields are reported.</summary>
+    public bool Sensitivities { get; }
+
+    /// <summary>For sensitivities: the cell element and layer quantity of each parameter, in parameter order.</summary>
+    public IReadOnlyList<(int Element, Periodic.Design.LayerQuantity Quantity)> SensitivityTargets { get; }
+
     /// <summary>A hash of everything that decides the rows (the sweep file and the structure's content).</summary>
     public string Fingerprint { get; }
 
@@ -77,31 +85,7 @@ internal sealed class SweepSpec
     /// <summary>Reads and checks a sweep file; every error names the field and what is allowed.</summary>
     public static SweepSpec Load(string path)
     {
-        if (Directory.Exists(path))
-        {
-            throw new UsageException($"sweep file {Printable.Quote(path)} is a directory; give a sweep file (JSON).");
-        }
-        if (!File.Exists(path))
-        {
-            throw new UsageException($"sweep file {Printable.Quote(path)} does not exist.");
-        }
-        const long MaximumBytes = 16 << 20;
-        if (new FileInfo(path).Length > MaximumBytes)
-        {
-            throw new UsageException($"sweep file {Printable.Quote(path)} is larger than 16 MiB; a sweep file lists parameters, not data.");
-        }
-        OutputFile.RegisterInput(path);
-        var bytes = File.ReadAllBytes(path);
-        JsonObject root;
-        try
-        {
-            root = JsonNode.Parse(bytes, documentOptions: new JsonDocumentOptions { CommentHandling = JsonCommentHandling.Skip, AllowTrailingCommas = true }) as JsonObject
-                ?? throw Bad(path, "", "must be a JSON object with \"structure\", \"parameters\" and \"outputs\".");
-        }
-        catch (JsonException e)
-        {
-            throw new UsageException($"{Printable.Quote(path)}: invalid JSON: {e.Message}");
-        }
+        var (root, bytes) = ReadRoot(path, "sweep file", "\"structure\", \"parameters\" and \"outputs\"");
         foreach (var (name, _) in root)
         {
             if (name is not ("$schema" or "structure" or "parameters" or "design" or "outputs" or "description"))
@@ -112,12 +96,52 @@ internal sealed class SweepSpec
         var (structure, structureSource, structureBytes) = ReadStructure(path, root["structure"]);
         var parameters = ReadParameters(path, root["parameters"], structure);
         var plan = DesignPlan.Read(path, root["design"], parameters);
-        var bands = ReadOutputs(path, root["outputs"]);
+        var (bands, sensitivities) = ReadOutputs(path, root["outputs"]);
+        if (sensitivities)
+        {
+            for (var j = 0; j < parameters.Count; j++)
+            {
+                if (LayerField(parameters[j].Field) is null || !IsUniformLayer(structure, parameters[j].Field))
+                {
+                    throw Bad(path, "outputs.sensitivities", $"needs every parameter to be the width, potential or mass of a uniform layer (cell[I].width, .potential, .mass); parameters[{j}] varies {Printable.Quote(parameters[j].Field)}.");
+                }
+            }
+        }
         var fingerprint = Convert.ToHexString(SHA256.HashData([.. bytes, 0, .. structureBytes]))[..16].ToLowerInvariant();
-        return new SweepSpec(path, structure, structureSource, parameters, plan, bands, fingerprint);
+        return new SweepSpec(path, structure, structureSource, parameters, plan, bands, sensitivities, fingerprint);
     }
 
-    private static (JsonObject Structure, string Source, byte[] Bytes) ReadStructure(string path, JsonNode? node)
+    /// <summary>Reads a JSON file of the tool's own (sweep or design file) as an object, within a size bound.</summary>
+    internal static (JsonObject Root, byte[] Bytes) ReadRoot(string path, string what, string fields)
+    {
+        if (Directory.Exists(path))
+        {
+            throw new UsageException($"{what} {Printable.Quote(path)} is a directory; give a {what} (JSON).");
+        }
+        if (!File.Exists(path))
+        {
+            throw new UsageException($"{what} {Printable.Quote(path)} does not exist.");
+        }
+        const long MaximumBytes = 16 << 20;
+        if (new FileInfo(path).Length > MaximumBytes)
+        {
+            throw new UsageException($"{what} {Printable.Quote(path)} is larger than 16 MiB; it lists parameters, not data.");
+        }
+        OutputFile.RegisterInput(path);
+        var bytes = File.ReadAllBytes(path);
+        try
+        {
+            var root = JsonNode.Parse(bytes, documentOptions: new JsonDocumentOptions { CommentHandling = JsonCommentHandling.Skip, AllowTrailingCommas = true }) as JsonObject
+                ?? throw Bad(path, "", $"must be a JSON object with {fields}.");
+            return (root, bytes);
+        }
+        catch (JsonException e)
+        {
+            throw new UsageException($"{Printable.Quote(path)}: invalid JSON: {e.Message}");
+        }
+    }
+
+    internal static (JsonObject Structure, string Source, byte[] Bytes) ReadStructure(string path, JsonNode? node)
     {
         switch (node)
         {
@@ -211,23 +235,56 @@ internal sealed class SweepSpec
         return parameters;
     }
 
-    private static int ReadOutputs(string path, JsonNode? node)
+    private static (int Bands, bool Sensitivities) ReadOutputs(string path, JsonNode? node)
     {
         if (node is not JsonObject outputs)
         {
             throw Bad(path, "outputs", "is required: e.g. {\"bands\": 3} (edges, widths, edge masses and gaps of the lowest 3 bands).");
         }
         var bands = 0;
+        var sensitivities = false;
         foreach (var (name, value) in outputs)
         {
-            if (name != "bands")
+            switch (name)
             {
-                throw Bad(path, $"outputs.{name}", "is not an output; allowed: bands.");
+                case "bands":
+                    bands = value is JsonValue v && v.TryGetValue<int>(out var n) && n is >= 1 and <= MaximumBands ? n
+                        : throw Bad(path, "outputs.bands", string.Create(CultureInfo.InvariantCulture, $"must be a whole number from 1 to {MaximumBands}; got {value?.ToJsonString() ?? "null"}."));
+                    break;
+                case "sensitivities":
+                    sensitivities = value is JsonValue b && b.TryGetValue<bool>(out var on) ? on
+                        : throw Bad(path, "outputs.sensitivities", $"must be true or false; got {value?.ToJsonString() ?? "null"}.");
+                    break;
+                default:
+                    throw Bad(path, $"outputs.{name}", "is not an output; allowed: bands, sensitivities.");
             }
-            bands = value is JsonValue v && v.TryGetValue<int>(out var n) && n is >= 1 and <= MaximumBands ? n
-                : throw Bad(path, "outputs.bands", string.Create(CultureInfo.InvariantCulture, $"must be a whole number from 1 to {MaximumBands}; got {value?.ToJsonString() ?? "null"}."));
         }
-        return bands > 0 ? bands : throw Bad(path, "outputs", "names no output; e.g. {\"bands\": 3}.");
+        return bands > 0 ? (bands, sensitivities) : throw Bad(path, "outputs", "names no bands; e.g. {\"bands\": 3}.");
+    }
+
+    /// <summary>The cell element and layer quantity a path such as <c>cell[2].width</c> names, or null.</summary>
+    internal static (int Element, Periodic.Design.LayerQuantity Quantity)? LayerField(string field)
+    {
+        var match = System.Text.RegularExpressions.Regex.Match(field, @"^cell\[(\d+)\]\.(width|potential|mass)$", System.Text.RegularExpressions.RegexOptions.CultureInvariant);
+        if (!match.Success)
+        {
+            return null;
+        }
+        var quantity = match.Groups[2].Value switch
+        {
+            "width" => Periodic.Design.LayerQuantity.Width,
+            "potential" => Periodic.Design.LayerQuantity.Potential,
+            _ => Periodic.Design.LayerQuantity.Mass,
+        };
+        return (int.Parse(match.Groups[1].Value, CultureInfo.InvariantCulture), quantity);
+    }
+
+    // A layer of the structure file (numbers or a material), not a delta or smooth segment.
+    internal static bool IsUniformLayer(JsonObject structure, string field)
+    {
+        var element = LayerField(field)!.Value.Element;
+        return structure["cell"] is JsonArray cell && element < cell.Count && cell[element] is JsonObject layer
+            && (layer["width"] is not null || layer["material"] is not null) && layer["delta"] is null;
     }
 
     internal static double Number(string path, string field, JsonNode? node) =>

@@ -182,6 +182,38 @@ public sealed class SweepCommandTest
     }
 
     [Fact]
+    public void Sweep_Sensitivities_EqualTheLibrarysExactDerivativesBitForBit()
+    {
+        var folder = Folder();
+        var structure = ToolRunner.Example("superlattice.json").Replace("\\", "/", StringComparison.Ordinal);
+        var spec = Path.Combine(folder, "sweep.json");
+        File.WriteAllText(spec, $$"""{"structure": "{{structure}}", "parameters": [{"field": "cell[0].width", "values": [4.5]}, {"field": "cell[1].potential", "values": [0.22]}], "outputs": {"bands": 2, "sensitivities": true} """ + "}");
+        var output = Path.Combine(folder, "o.csv");
+        var run = ToolRunner.Invoke("sweep", spec, "--out", output);
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        var header = File.ReadLines(output).First().Split(',');
+        var row = Rows(output)[0];
+        var cell = StructureFile.Parse("""{"name": "x", "cell": [{"width": 4.5, "potential": 0, "mass": 0.067}, {"width": 2, "potential": 0.22, "mass": 0.092}]}""", "t").Cell;
+        var exact = Periodic.Design.EdgeSensitivities.Compute(BandStructure.Compute(cell, 2));
+        double Cell(string name) => double.Parse(row[Array.IndexOf(header, name)], CultureInfo.InvariantCulture);
+        Assert.Equal(exact.Bottom(1, 0, Periodic.Design.LayerQuantity.Width)!.Value, Cell("dBand1.bottom/dcell[0].width (eV/nm)"));
+        Assert.Equal(exact.Top(2, 1, Periodic.Design.LayerQuantity.Potential)!.Value, Cell("dBand2.top/dcell[1].potential (eV/eV)"));
+    }
+
+    [Fact]
+    public void Sweep_SensitivitiesOfACompositionField_AreRefused()
+    {
+        var folder = Folder();
+        var structure = ToolRunner.Example("gaas-algaas.json").Replace("\\", "/", StringComparison.Ordinal);
+        var spec = Path.Combine(folder, "sweep.json");
+        File.WriteAllText(spec, $$"""{"structure": "{{structure}}", "parameters": [{"field": "cell[1].composition", "values": [0.2]}], "outputs": {"bands": 1, "sensitivities": true} """ + "}");
+        var run = ToolRunner.Invoke("sweep", spec, "--out", Path.Combine(folder, "o.csv"));
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("outputs.sensitivities", run.Stderr);
+        Assert.Contains("cell[1].composition", run.Stderr);
+    }
+
+    [Fact]
     public void Sweep_UnknownField_ListsTheAllowedOnes()
     {
         var folder = Folder();
