@@ -125,6 +125,19 @@ public sealed class BandDispersion
         ArgumentNullException.ThrowIfNull(bands);
         var band = bands.GetBand(bandIndex);
         Preconditions.CheckRange(absoluteToleranceElectronVolts, 1e-15, 1e-3);
+        return CreateCore(bands, bandIndex, band, absoluteToleranceElectronVolts);
+    }
+
+    /// <summary>
+    /// Inverts band <paramref name="bandIndex"/> to the accuracy of the structure's own root search (no
+    /// requested tolerance, so cells whose energies lie far below 1 eV, cold atoms at 1e-11 eV, keep their
+    /// relative accuracy): the default path of <see cref="BandStructure.EnergiesAt"/>.
+    /// </summary>
+    internal static BandDispersion CreateAtSearchAccuracy(BandStructure bands, int bandIndex) =>
+        CreateCore(bands, bandIndex, bands.GetBand(bandIndex), 0.0);
+
+    private static BandDispersion CreateCore(BandStructure bands, int bandIndex, Band band, double absoluteToleranceElectronVolts)
+    {
         // Never ask the series to be better than the root search that supplies its nodes (its options'
         // tolerances), nor than rounding: otherwise noise in the nodes would force endless splitting.
         var magnitude = Math.Max(Math.Abs(band.BottomElectronVolts), Math.Abs(band.TopElectronVolts));
