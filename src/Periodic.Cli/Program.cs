@@ -25,7 +25,7 @@ root.Subcommands.Add(PlotCommand.Create());
 root.Subcommands.Add(ExampleCommand.Create());
 root.SetAction(_ =>
 {
-    Console.Out.Write(BandsCommand.Render(BuiltInExample.Load(), 4, OutputFormat.Table));
+    BandsCommand.Write(BuiltInExample.Load(), 4, OutputFormat.Table, null);
     Console.Out.WriteLine();
     Console.Out.WriteLine("(built-in example; try: periodic example > my.json && periodic bands my.json --json)");
     return 0;

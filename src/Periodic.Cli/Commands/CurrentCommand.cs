@@ -34,7 +34,7 @@ internal static class CurrentCommand
         var periods = new Option<int?>("--periods", "-N") { Description = "Number of unit cells in the stack (1 to 1,000,000; under a non-zero bias at most 100,000 elements in all); default: the file's stack.periods." };
         var leadPotential = new Option<double?>("--lead-potential") { Description = "Potential of both leads, eV (default: the file's stack, else the first layer's)." };
         var leadMass = new Option<double?>("--lead-mass") { Description = "Effective mass in both leads, m0 (default: the file's stack, else the first layer's)." };
-        var output = new Option<string?>("--out", "-o") { Description = "Write to this file (atomically) instead of stdout." };
+        var output = Common.OutOption();
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
         var command = new Command("current", "Current density through the file's stack at each bias (Tsu-Esaki: coherent transport, uniform field, no space charge).");
@@ -79,8 +79,13 @@ internal static class CurrentCommand
             var n = result.GetValue(periods) ?? structure.Stack?.Parts[0].Repetitions
                 ?? throw new UsageException("give --periods N (the structure file has no \"stack\" with periods).");
             var stack = TransmissionCommand.BuildStack(structure, n, potential, mass);
+            var below = FermiLevelWarnings(stack, mu);
+            foreach (var line in below)
+            {
+                Console.Error.WriteLine("periodic: warning: " + line);
+            }
             var rows = Compute(stack, biasList, mu, kelvin);
-            Common.Emit(Render(structure, stack, n, mu, kelvin, rows, format), result.GetValue(output));
+            Write(structure, stack, n, mu, kelvin, rows, below, format, result.GetValue(output));
             return 0;
         });
         return command;
@@ -152,11 +157,31 @@ internal static class CurrentCommand
         return rows;
     }
 
-    public static string Render(StructureDefinition structure, LayerStack stack, int periods, double fermiLevel, double kelvin, CurrentDensityResult[] rows, OutputFormat format)
+    /// <summary>
+    /// A Fermi level below a lead's band edge leaves that contact (nearly) empty: the current is then set by the
+    /// thermal tail alone and comes out tiny (1e-11 A/cm2 and less), which is rarely what was meant. The right contact's
+    /// level and band edge both move by eU, so one comparison per lead holds at every bias.
+    /// </summary>
+    public static List<string> FermiLevelWarnings(LayerStack stack, double fermiLevel)
+    {
+        var lines = new List<string>();
+        foreach (var (name, lead) in new[] { ("left", stack.LeftLead), ("right", stack.RightLead) })
+        {
+            if (fermiLevel < lead.PotentialElectronVolts)
+            {
+                lines.Add(string.Create(CultureInfo.InvariantCulture,
+                    $"--fermi-level {fermiLevel:R} eV lies {lead.PotentialElectronVolts - fermiLevel:G4} eV below the {name} lead's band edge ({lead.PotentialElectronVolts:R} eV): that contact holds almost no carriers and the current is only its thermal tail; give a Fermi level above {lead.PotentialElectronVolts:R} eV for a degenerate contact."));
+            }
+        }
+        return lines;
+    }
+
+    public static void Write(StructureDefinition structure, LayerStack stack, int periods, double fermiLevel, double kelvin, CurrentDensityResult[] rows,
+        List<string> fermiWarnings, OutputFormat format, string? outPath)
     {
         if (format == OutputFormat.Json)
         {
-            return Common.Json(w =>
+            Common.Emit(Common.Json(w =>
             {
                 Common.StructureHeader(w, structure);
                 Common.Units(w, ("bias", "eV"), ("fermiLevel", "eV"), ("temperature", "K"), ("currentDensity", "A/m2"), ("currentDensityPerCm2", "A/cm2"),
@@ -168,6 +193,12 @@ internal static class CurrentCommand
                 w.WriteEndObject();
                 w.WriteNumber("fermiLevel", fermiLevel);
                 w.WriteNumber("temperature", kelvin);
+                w.WriteStartArray("warnings");
+                foreach (var line in fermiWarnings)
+                {
+                    w.WriteStringValue(line);
+                }
+                w.WriteEndArray();
                 w.WriteString("model", "Tsu-Esaki; coherent transport, uniform field, no space charge or self-consistency");
                 w.WriteStartArray("points");
                 foreach (var r in rows)
@@ -183,22 +214,20 @@ internal static class CurrentCommand
                     w.WriteEndObject();
                 }
                 w.WriteEndArray();
-            });
+            }), outPath);
+            return;
         }
-        var table = new Table("bias (eV)", "J (A/cm2)", "error (A/cm2)", "converged", "resonances", "evaluations");
+        var table = new Table(new Column("bias", "eV", Format: "G8"), new Column("J", "A/cm2", Format: "G8"), new Column("error", "A/cm2", Format: "G3"),
+            new Column("converged"), new Column("resonances"), new Column("evaluations"));
         foreach (var r in rows)
         {
-            table.Add(Table.Number(r.BiasElectronVolts, "G6"), Table.Number(r.AmperesPerSquareCentimetre, "G8"), Table.Number(r.ErrorEstimateAmperesPerSquareMetre * 1e-4, "G3"),
-                r.IsConverged ? "true" : "false", Table.Integer(r.ResonanceCount), Table.Integer(r.Evaluations));
-        }
-        if (format == OutputFormat.Csv)
-        {
-            return table.ToCsv();
+            table.Add(r.BiasElectronVolts, r.AmperesPerSquareCentimetre, r.ErrorEstimateAmperesPerSquareMetre * 1e-4, r.IsConverged, r.ResonanceCount, r.Evaluations);
         }
         var lead = stack.LeftLead;
         var title = Common.TableTitle(structure) + string.Create(CultureInfo.InvariantCulture,
-            $"{periods} period(s), {stack.ThicknessNanometres:G6} nm, leads V = {lead.PotentialElectronVolts:G6} eV, m = {lead.MassElectronMasses:G6} m0; Fermi level {fermiLevel:G6} eV (left contact), T = {kelvin:G6} K\n")
-            + "Tsu-Esaki current, coherent, uniform field, no space charge or self-consistency: a design guide, check against measurement.\n";
-        return title + "\n" + table.ToText();
+            $"{Common.Plural(periods, "period")}, {stack.ThicknessNanometres:G6} nm, leads V = {lead.PotentialElectronVolts:G6} eV, m = {lead.MassElectronMasses:G6} m0; Fermi level {fermiLevel:G6} eV (left contact), T = {kelvin:G6} K\n")
+            + "Tsu-Esaki current, coherent, uniform field, no space charge or self-consistency: a design guide, check against measurement.\n"
+            + string.Concat(fermiWarnings.Select(line => "warning: " + line + "\n"));
+        Common.EmitTable(table, format, title, outPath);
     }
 }

@@ -17,17 +17,19 @@ internal static class DosCommand
         var grid = new EnergyGridOptions();
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
+        var output = Common.OutOption();
         var command = new Command("dos", "Density of states (spin included), Bloch wavevector, decay constant and dE/dk at each energy.");
         command.Arguments.Add(file);
         grid.AddTo(command);
         command.Options.Add(json);
         command.Options.Add(csv);
+        command.Options.Add(output);
         command.SetAction(result =>
         {
             var format = Common.Format(result, json, csv);
             var energies = grid.Read(result);
             var structure = Common.Load(result.GetValue(file)!);
-            Common.Emit(Render(structure, energies, format), null);
+            Write(structure, energies, format, result.GetValue(output));
             return 0;
         });
         return command;
@@ -49,14 +51,15 @@ internal static class DosCommand
         return values;
     }
 
-    public static string Render(StructureDefinition structure, double[] energies, OutputFormat format)
+    public static void Write(StructureDefinition structure, double[] energies, OutputFormat format, string? outPath)
     {
         var values = Compute(structure, energies);
+        var warnings = Common.CheckEnergies(structure, energies);
         if (format == OutputFormat.Json)
         {
-            return Common.Json(w =>
+            Common.Emit(Common.Json(w =>
             {
-                Common.StructureHeader(w, structure);
+                Common.StructureHeader(w, structure, warnings);
                 Common.Units(w, ("energy", "eV"), ("dos", "1/(eV nm)"), ("wavevector", "1/nm"), ("decay", "1/nm"), ("slope", "eV nm"), ("period", "nm"));
                 w.WriteStartArray("points");
                 foreach (var p in values)
@@ -70,13 +73,16 @@ internal static class DosCommand
                     w.WriteEndObject();
                 }
                 w.WriteEndArray();
-            });
+            }), outPath);
+            return;
         }
-        var table = new Table("energy (eV)", "dos (1/(eV nm))", "Re k (1/nm)", "Im k (1/nm)", "dE/dk (eV nm)");
+        var unit = DisplayUnits.Energy(structure.Cell, energies);
+        var table = new Table(Column.Energy("energy", unit), new Column("dos", "1/(eV nm)", Format: "G8"), new Column("Re k", "1/nm", Format: "G8"),
+            new Column("Im k", "1/nm", Format: "G8"), new Column("dE/dk", "eV nm", Format: "G8"));
         foreach (var p in values)
         {
-            table.Add(Table.Number(p.Energy, "F6"), Table.Number(p.Dos, "G8"), Table.Number(p.Wavevector, "G8"), Table.Number(p.Decay, "G8"), Table.Number(p.Slope, "G8"));
+            table.Add(p.Energy, p.Dos, p.Wavevector, p.Decay, p.Slope);
         }
-        return format == OutputFormat.Csv ? table.ToCsv() : Common.TableTitle(structure) + "\n" + table.ToText();
+        Common.EmitTable(table, format, Common.TableTitle(structure, unit), outPath);
     }
 }

@@ -24,6 +24,7 @@ internal static class TransmissionCommand
         var bias = BiasOption();
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
+        var output = Common.OutOption();
         var command = new Command("transmission", "Transmission and reflection of a finite stack of N periods between two uniform leads.");
         command.Arguments.Add(file);
         command.Options.Add(periods);
@@ -33,6 +34,7 @@ internal static class TransmissionCommand
         command.Options.Add(bias);
         command.Options.Add(json);
         command.Options.Add(csv);
+        command.Options.Add(output);
         command.SetAction(result =>
         {
             var format = Common.Format(result, json, csv);
@@ -55,7 +57,7 @@ internal static class TransmissionCommand
             var structure = Common.Load(result.GetValue(file)!);
             var periodCount = n ?? structure.Stack?.Parts[0].Repetitions
                 ?? throw new UsageException("give --periods N (the structure file has no \"stack\" with periods).");
-            Common.Emit(Render(structure, periodCount, energies, potential, mass, ChooseBias(result.GetValue(bias), structure), format), null);
+            Write(structure, periodCount, energies, potential, mass, ChooseBias(result.GetValue(bias), structure), format, result.GetValue(output));
             return 0;
         });
         return command;
@@ -140,16 +142,17 @@ internal static class TransmissionCommand
         return (transmission, results);
     }
 
-    public static string Render(StructureDefinition structure, int periods, double[] energies, double? potential, double? mass,
-        (double ElectronVolts, string Source) bias, OutputFormat format)
+    public static void Write(StructureDefinition structure, int periods, double[] energies, double? potential, double? mass,
+        (double ElectronVolts, string Source) bias, OutputFormat format, string? outPath)
     {
         var (stack, results) = Compute(structure, periods, energies, potential, mass, bias);
         var lead = stack.Stack.LeftLead;
+        var warnings = Common.CheckEnergies(structure, energies);
         if (format == OutputFormat.Json)
         {
-            return Common.Json(w =>
+            Common.Emit(Common.Json(w =>
             {
-                Common.StructureHeader(w, structure);
+                Common.StructureHeader(w, structure, warnings);
                 Common.Units(w, ("energy", "eV"), ("transmission", "1"), ("reflection", "1"), ("potential", "eV"), ("mass", "m0"), ("thickness", "nm"), ("period", "nm"), ("bias", "eV"));
                 w.WriteStartObject("stack");
                 w.WriteNumber("periods", periods);
@@ -169,19 +172,18 @@ internal static class TransmissionCommand
                     w.WriteEndObject();
                 }
                 w.WriteEndArray();
-            });
+            }), outPath);
+            return;
         }
-        var table = new Table("energy (eV)", "transmission", "reflection", "log10 T");
+        var unit = DisplayUnits.Energy(structure.Cell, energies);
+        var table = new Table(Column.Energy("energy", unit), new Column("transmission", Format: "G8"), new Column("reflection", Format: "G8"), new Column("log10 T", Format: "F3"));
         foreach (var r in results)
         {
-            table.Add(Table.Number(r.EnergyElectronVolts, "F6"), Table.Number(r.Transmission, "G8"), Table.Number(r.Reflection, "G8"), Table.Number(r.Log10Transmission, "F3"));
+            table.Add(r.EnergyElectronVolts, r.Transmission, r.Reflection, r.Log10Transmission);
         }
-        if (format == OutputFormat.Csv)
-        {
-            return table.ToCsv();
-        }
-        var title = Common.TableTitle(structure) + string.Create(CultureInfo.InvariantCulture,
-            $"{periods} period(s), {stack.Stack.ThicknessNanometres:G6} nm, leads V = {lead.PotentialElectronVolts:G6} eV, m = {lead.MassElectronMasses:G6} m0, bias eU = {stack.Bias.ElectronVolts:G6} eV\n");
-        return title + "\n" + table.ToText();
+        var title = Common.TableTitle(structure, unit) + string.Create(CultureInfo.InvariantCulture,
+            $"{Common.Plural(periods, "period")}, {stack.Stack.ThicknessNanometres:G6} nm, leads V = {lead.PotentialElectronVolts:G6} eV, m = {lead.MassElectronMasses:G6} m0, bias eU = {stack.Bias.ElectronVolts:G6} eV\n")
+            + "log10 T: empty in CSV (null in JSON) where T = 0 (a lead closed).\n";
+        Common.EmitTable(table, format, title, outPath);
     }
 }

@@ -3,6 +3,7 @@
 
 using System.Globalization;
 using System.Numerics.Tensors;
+using System.Runtime.CompilerServices;
 
 namespace Periodic.Bands;
 
@@ -175,6 +176,8 @@ public sealed class BandDispersion
     /// at the same address.
     /// </summary>
     /// <exception cref="ArgumentException">The destination is shorter than the input, or a wavevector is outside the first zone.</exception>
+    // Straight to optimised code: a short-lived process (the command-line tool) evaluates millions of points before tiered compilation would promote it.
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public void EnergiesAt(ReadOnlySpan<double> wavevectorsPerNanometre, Span<double> destination)
     {
         Preconditions.CheckDestination(wavevectorsPerNanometre.Length, destination.Length, nameof(wavevectorsPerNanometre), nameof(destination));
@@ -236,6 +239,7 @@ public sealed class BandDispersion
 
     private double EnergyAtCosine(double x) => EnergyInPiece(PieceOf(x), x);
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private int PieceOf(double x)
     {
         int low = 0, high = _degrees.Length - 1;
@@ -266,6 +270,7 @@ public sealed class BandDispersion
         return Clenshaw(_offsets[piece], degree, t);
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private double Clenshaw(int offset, int degree, double t)
     {
         var c = _coefficients.AsSpan(offset, degree + 1);
@@ -281,6 +286,7 @@ public sealed class BandDispersion
     }
 
     /// <summary>Clenshaw's recurrence for four arguments at once (per argument the arithmetic of <see cref="Clenshaw"/>).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private void ClenshawQuad(int offset, int degree, double t0, double t1, double t2, double t3, Span<double> destination)
     {
         var c = _coefficients.AsSpan(offset, degree + 1);
