@@ -21,6 +21,8 @@ root.Subcommands.Add(DispersionCommand.Create());
 root.Subcommands.Add(DosCommand.Create());
 root.Subcommands.Add(TransmissionCommand.Create());
 root.Subcommands.Add(CurrentCommand.Create());
+root.Subcommands.Add(LevelsCommand.Create());
+root.Subcommands.Add(ResonancesCommand.Create());
 root.Subcommands.Add(PlotCommand.Create());
 root.Subcommands.Add(ExampleCommand.Create());
 root.SetAction(_ =>

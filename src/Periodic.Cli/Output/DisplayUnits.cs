@@ -65,4 +65,20 @@ internal static class DisplayUnits
         }
         return largest == 0 ? Prefixed[0] : Prefixed[^1];
     }
+
+    private static readonly (string Symbol, double Seconds)[] Times = [("s", 1), ("ms", 1e-3), ("µs", 1e-6), ("ns", 1e-9), ("ps", 1e-12), ("fs", 1e-15)];
+
+    /// <summary>The time unit (s … fs) that puts the largest of <paramref name="seconds"/> between 1 and 1000.</summary>
+    public static (string Symbol, double Seconds) Time(IEnumerable<double> seconds)
+    {
+        var largest = seconds.Where(double.IsFinite).Select(Math.Abs).DefaultIfEmpty(0).Max();
+        foreach (var unit in Times)
+        {
+            if (largest >= unit.Seconds)
+            {
+                return unit;
+            }
+        }
+        return largest == 0 ? Times[0] : Times[^1];
+    }
 }
