@@ -23,6 +23,8 @@ root.Subcommands.Add(TransmissionCommand.Create());
 root.Subcommands.Add(CurrentCommand.Create());
 root.Subcommands.Add(LevelsCommand.Create());
 root.Subcommands.Add(ResonancesCommand.Create());
+root.Subcommands.Add(CarriersCommand.Create());
+root.Subcommands.Add(BlochCommand.Create());
 root.Subcommands.Add(PlotCommand.Create());
 root.Subcommands.Add(ExampleCommand.Create());
 root.SetAction(_ =>

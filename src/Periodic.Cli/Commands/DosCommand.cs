@@ -18,26 +18,37 @@ internal static class DosCommand
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
         var output = Common.OutOption();
-        var command = new Command("dos", "Density of states (spin included), Bloch wavevector, decay constant and dE/dk at each energy.");
+        var volume = new Option<bool>("--volume") { Description = "Add the superlattice's 3D density of states and its integral (free in-plane motion, see --in-plane-mass)." };
+        var mass = CarriersCommand.InPlaneMassOption();
+        var command = new Command("dos", "Density of states (spin included) and its integral, Bloch wavevector, decay constant and dE/dk at each energy; with --volume the superlattice's 3D density of states.");
         command.Arguments.Add(file);
         grid.AddTo(command);
         command.Options.Add(json);
         command.Options.Add(csv);
         command.Options.Add(output);
+        command.Options.Add(volume);
+        command.Options.Add(mass);
         command.SetAction(result =>
         {
             var format = Common.Format(result, json, csv);
             var energies = grid.Read(result);
+            CarriersCommand.CheckMass(result.GetValue(mass));
+            if (result.GetValue(mass) is not null && !result.GetValue(volume))
+            {
+                throw new UsageException("--in-plane-mass applies only with --volume.");
+            }
             var structure = Common.Load(result.GetValue(file)!);
-            Write(structure, energies, format, result.GetValue(output));
+            var inPlane = result.GetValue(volume) ? CarriersCommand.InPlaneMass(structure.Cell, result.GetValue(mass)) : (Periodic.Units.EffectiveMass?)null;
+            Write(structure, energies, inPlane, format, result.GetValue(output));
             return 0;
         });
         return command;
     }
 
-    public static PointQuantities.Values[] Compute(StructureDefinition structure, double[] energies)
+    public static PointQuantities.Values[] Compute(StructureDefinition structure, double[] energies) => Compute(PointQuantities.PropertiesUpTo(structure.Cell, energies.Max()), energies);
+
+    public static PointQuantities.Values[] Compute(Periodic.Properties.BandProperties properties, double[] energies)
     {
-        var properties = PointQuantities.PropertiesUpTo(structure.Cell, energies.Max());
         var values = new PointQuantities.Values[energies.Length];
         using var progress = new Progress("dos", energies.Length);
         for (var i = 0; i < energies.Length; i++)
@@ -51,22 +62,45 @@ internal static class DosCommand
         return values;
     }
 
-    public static void Write(StructureDefinition structure, double[] energies, OutputFormat format, string? outPath)
+    public static void Write(StructureDefinition structure, double[] energies, Periodic.Units.EffectiveMass? inPlane, OutputFormat format, string? outPath)
     {
-        var values = Compute(structure, energies);
+        var properties = PointQuantities.PropertiesUpTo(structure.Cell, energies.Max());
+        var values = Compute(properties, energies);
+        var integrated = new double[energies.Length];
+        properties.IntegratedDensitiesOfStates(energies, integrated);
+        double[]? dos3 = null, states3 = null;
+        if (inPlane is { } m)
+        {
+            dos3 = new double[energies.Length];
+            properties.SuperlatticeDensitiesOfStates(energies, m, dos3);
+            // The integral of g3 up to E is the density of a filled Fermi sea at E (T = 0).
+            states3 = energies.Select(e => properties.SuperlatticeCarrierDensity(e, 0, m).DensityPerCubicNanometre).ToArray();
+        }
         var warnings = Common.CheckEnergies(structure, energies);
         if (format == OutputFormat.Json)
         {
             Common.Emit(Common.Json(w =>
             {
                 Common.StructureHeader(w, structure, warnings);
-                Common.Units(w, ("energy", "eV"), ("dos", "1/(eV nm)"), ("wavevector", "1/nm"), ("decay", "1/nm"), ("slope", "eV nm"), ("period", "nm"));
-                w.WriteStartArray("points");
-                foreach (var p in values)
+                Common.Units(w, ("energy", "eV"), ("dos", "1/(eV nm)"), ("integrated", "1/nm"), ("dos3d", "1/(eV nm3)"), ("integrated3d", "1/nm3"),
+                    ("wavevector", "1/nm"), ("decay", "1/nm"), ("slope", "eV nm"), ("period", "nm"), ("inPlaneMass", "m0"));
+                if (inPlane is { } m)
                 {
+                    w.WriteNumber("inPlaneMass", m.ElectronMasses);
+                }
+                w.WriteStartArray("points");
+                for (var i = 0; i < values.Length; i++)
+                {
+                    var p = values[i];
                     w.WriteStartObject();
                     w.Number("energy", p.Energy);
                     w.Number("dos", p.Dos);
+                    w.Number("integrated", integrated[i]);
+                    if (dos3 is not null)
+                    {
+                        w.Number("dos3d", dos3[i]);
+                        w.Number("integrated3d", states3![i]);
+                    }
                     w.Number("wavevector", p.Wavevector);
                     w.Number("decay", p.Decay);
                     w.Number("slope", p.Slope);
@@ -77,11 +111,20 @@ internal static class DosCommand
             return;
         }
         var unit = DisplayUnits.Energy(structure.Cell, energies);
-        var table = new Table(Column.Energy("energy", unit), new Column("dos", "1/(eV nm)", Format: "G8"), new Column("Re k", "1/nm", Format: "G8"),
-            new Column("Im k", "1/nm", Format: "G8"), new Column("dE/dk", "eV nm", Format: "G8"));
-        foreach (var p in values)
+        var columns = new List<Column> { Column.Energy("energy", unit), new("dos", "1/(eV nm)", Format: "G8"), new("integrated", "1/nm", Format: "G8") };
+        if (dos3 is not null)
         {
-            table.Add(p.Energy, p.Dos, p.Wavevector, p.Decay, p.Slope);
+            columns.Add(new("dos3d", "1/(eV nm3)", Format: "G8"));
+            columns.Add(new("integrated3d", "1/nm3", Format: "G8"));
+        }
+        columns.AddRange([new("Re k", "1/nm", Format: "G8"), new("Im k", "1/nm", Format: "G8"), new("dE/dk", "eV nm", Format: "G8")]);
+        var table = new Table([.. columns]);
+        for (var i = 0; i < values.Length; i++)
+        {
+            var p = values[i];
+            table.Add(dos3 is null
+                ? [p.Energy, p.Dos, integrated[i], p.Wavevector, p.Decay, p.Slope]
+                : [p.Energy, p.Dos, integrated[i], dos3[i], states3![i], p.Wavevector, p.Decay, p.Slope]);
         }
         Common.EmitTable(table, format, Common.TableTitle(structure, unit), outPath);
     }
