@@ -31,7 +31,7 @@ internal static class CurrentCommand
         var points = new Option<int?>("--bias-points") { Description = "Number of biases in the range (2 to 10,000), ends included." };
         var temperature = Common.NumberOption("--temperature", "K", "77", "Temperature of both contacts, K, from 0.1 to 1000 (default: the file's temperature for a cell of material layers).");
         var fermi = Common.NumberOption("--fermi-level", "eV", "0.02", "Fermi level of the left contact, eV, on the scale of the file's potentials (the right contact's is this minus eU).");
-        var periods = new Option<int?>("--periods", "-N") { Description = "Number of unit cells in the stack (1 to 1,000,000; under a non-zero bias at most 100,000 elements in all); default: the file's stack.periods." };
+        var periods = new Option<int?>("--periods", "-N") { Description = "Use N periods of the cell (1 to 1,000,000; under a non-zero bias at most 100,000 elements in all) instead of the file's stack." };
         var leadPotential = new Option<double?>("--lead-potential") { Description = "Potential of both leads, eV (default: the file's stack, else the first layer's)." };
         var leadMass = new Option<double?>("--lead-mass") { Description = "Effective mass in both leads, m0 (default: the file's stack, else the first layer's)." };
         var output = Common.OutOption();
@@ -76,16 +76,14 @@ internal static class CurrentCommand
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture,
                     $"the file's temperature {kelvin:R} K cannot be used for the current; give --temperature in K, between {MinTemperatureKelvin} and {MaxTemperatureKelvin}."));
             }
-            var n = result.GetValue(periods) ?? structure.Stack?.Parts[0].Repetitions
-                ?? throw new UsageException("give --periods N (the structure file has no \"stack\" with periods).");
-            var stack = TransmissionCommand.BuildStack(structure, n, potential, mass);
+            var (stack, source) = Physics.StackOptions.Choose(structure, result.GetValue(periods), potential, mass);
             var below = FermiLevelWarnings(stack, mu);
             foreach (var line in below)
             {
                 Console.Error.WriteLine("periodic: warning: " + line);
             }
             var rows = Compute(stack, biasList, mu, kelvin);
-            Write(structure, stack, n, mu, kelvin, rows, below, format, result.GetValue(output));
+            Write(structure, stack, source, mu, kelvin, rows, below, format, result.GetValue(output));
             return 0;
         });
         return command;
@@ -176,7 +174,7 @@ internal static class CurrentCommand
         return lines;
     }
 
-    public static void Write(StructureDefinition structure, LayerStack stack, int periods, double fermiLevel, double kelvin, CurrentDensityResult[] rows,
+    public static void Write(StructureDefinition structure, LayerStack stack, string source, double fermiLevel, double kelvin, CurrentDensityResult[] rows,
         List<string> fermiWarnings, OutputFormat format, string? outPath)
     {
         if (format == OutputFormat.Json)
@@ -187,7 +185,11 @@ internal static class CurrentCommand
                 Common.Units(w, ("bias", "eV"), ("fermiLevel", "eV"), ("temperature", "K"), ("currentDensity", "A/m2"), ("currentDensityPerCm2", "A/cm2"),
                     ("errorEstimate", "A/m2"), ("potential", "eV"), ("mass", "m0"), ("thickness", "nm"), ("period", "nm"));
                 w.WriteStartObject("stack");
-                w.WriteNumber("periods", periods);
+                w.WriteString("source", source);
+                if (stack.Parts.Count == 1 && stack.Parts[0].IsRepeatedCell)
+                {
+                    w.WriteNumber("periods", stack.Parts[0].Repetitions);
+                }
                 w.WriteNumber("thickness", stack.ThicknessNanometres);
                 Common.Leads(w, stack);
                 w.WriteEndObject();
@@ -225,7 +227,7 @@ internal static class CurrentCommand
         }
         var lead = stack.LeftLead;
         var title = Common.TableTitle(structure) + string.Create(CultureInfo.InvariantCulture,
-            $"{Common.Plural(periods, "period")}, {stack.ThicknessNanometres:G6} nm, leads V = {lead.PotentialElectronVolts:G6} eV, m = {lead.MassElectronMasses:G6} m0; Fermi level {fermiLevel:G6} eV (left contact), T = {kelvin:G6} K\n")
+            $"Stack: {source}: {Physics.StackOptions.Describe(stack)}; {stack.ThicknessNanometres:G6} nm, leads V = {lead.PotentialElectronVolts:G6} eV, m = {lead.MassElectronMasses:G6} m0; Fermi level {fermiLevel:G6} eV (left contact), T = {kelvin:G6} K\n")
             + "Tsu-Esaki current, coherent, uniform field, no space charge or self-consistency: a design guide, check against measurement.\n"
             + string.Concat(fermiWarnings.Select(line => "warning: " + line + "\n"));
         Common.EmitTable(table, format, title, outPath);

@@ -85,7 +85,7 @@ internal static class PlotCommand
                 "dispersion" => Dispersion(structure, n),
                 "dos" => Dos(structure, n, energies),
                 "profile" => Profile(structure, n, p == 0 ? 3 : p),
-                _ => Transmission(structure, n, p == 0 ? structure.Stack?.Parts[0].Repetitions ?? 10 : p, energies, TransmissionCommand.ChooseBias(u, structure)),
+                _ => Transmission(structure, n, p == 0 ? (structure.Stack is null ? 10 : null) : p, energies, TransmissionCommand.ChooseBias(u, structure)),
             };
             Save(plot, path, extension, w, h);
             Console.Error.WriteLine($"wrote {path}");
@@ -228,20 +228,21 @@ internal static class PlotCommand
         return plot;
     }
 
-    private static Plot Transmission(StructureDefinition structure, int count, int periods, double[]? energies, (double ElectronVolts, string Source) bias)
+    private static Plot Transmission(StructureDefinition structure, int count, int? periods, double[]? energies, (double ElectronVolts, string Source) bias)
     {
         var bands = Solver.Compute(structure.Cell, count).Bands;
         var (low, high) = EnergyWindow(bands);
         energies ??= Enumerable.Range(0, 3001).Select(i => low + (high - low) * i / 3000.0).ToArray();
         low = energies.Min();
         high = energies.Max();
-        var (stack, results) = TransmissionCommand.Compute(structure, periods, energies, null, null, bias);
+        var (layers, source) = StackOptions.Choose(structure, periods, null, null);
+        var (stack, results) = TransmissionCommand.Compute(layers, energies, bias);
         // log10 T, with closed leads (T = 0 exactly) left out rather than drawn at -infinity.
         var open = results.Where(r => r.IsOpen && double.IsFinite(r.Log10Transmission)).ToArray();
         var x = open.Select(r => r.EnergyElectronVolts).ToArray();
         var y = open.Select(r => r.Log10Transmission).ToArray();
         var floor = y.Length == 0 ? -10 : Math.Max(Math.Floor(y.Min()) - 0.5, -300);
-        var plot = NewPlot(string.Create(CultureInfo.InvariantCulture, $"Transmission of {periods} periods{(bias.ElectronVolts == 0 ? "" : string.Create(CultureInfo.InvariantCulture, $" at eU = {bias.ElectronVolts:G4} eV"))}: {structure.Name}"), "Energy E (eV)", "Transmission T (log scale)");
+        var plot = NewPlot(string.Create(CultureInfo.InvariantCulture, $"Transmission of {StackOptions.Describe(layers)}{(bias.ElectronVolts == 0 ? "" : string.Create(CultureInfo.InvariantCulture, $" at eU = {bias.ElectronVolts:G4} eV"))}: {structure.Name}"), "Energy E (eV)", "Transmission T (log scale)");
         foreach (var band in bands.Bands)
         {
             var strip = plot.Add.Rectangle(band.BottomElectronVolts, Math.Max(band.TopElectronVolts, band.BottomElectronVolts + 1e-4 * (high - low)), floor, 0.5);

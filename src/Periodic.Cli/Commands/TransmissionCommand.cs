@@ -17,7 +17,7 @@ internal static class TransmissionCommand
     public static Command Create()
     {
         var file = Common.FileArgument();
-        var periods = new Option<int?>("--periods", "-N") { Description = "Number of unit cells in the finite stack (1 to 1,000,000); default: the file's stack.periods." };
+        var periods = new Option<int?>("--periods", "-N") { Description = "Use N periods of the cell (1 to 1,000,000) instead of the file's stack." };
         var grid = new EnergyGridOptions();
         var leadPotential = new Option<double?>("--lead-potential") { Description = "Potential of both leads, eV (default: the file's stack, else the first layer's)." };
         var leadMass = new Option<double?>("--lead-mass") { Description = "Effective mass in both leads, m0 (default: the file's stack, else the first layer's)." };
@@ -55,9 +55,8 @@ internal static class TransmissionCommand
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--lead-mass must be a positive mass in m0; got {m:R}."));
             }
             var structure = Common.Load(result.GetValue(file)!);
-            var periodCount = n ?? structure.Stack?.Parts[0].Repetitions
-                ?? throw new UsageException("give --periods N (the structure file has no \"stack\" with periods).");
-            Write(structure, periodCount, energies, potential, mass, ChooseBias(result.GetValue(bias), structure), format, result.GetValue(output));
+            var (stack, source) = Physics.StackOptions.Choose(structure, n, potential, mass);
+            Write(structure, stack, source, energies, ChooseBias(result.GetValue(bias), structure), format, result.GetValue(output));
             return 0;
         });
         return command;
@@ -125,10 +124,9 @@ internal static class TransmissionCommand
         return Lead.Create(Energy.FromElectronVolts(v.Value), EffectiveMass.FromElectronMasses(m.Value));
     }
 
-    public static (StackTransmission Stack, TransmissionResult[] Results) Compute(StructureDefinition structure, int periods, double[] energies, double? potential, double? mass,
-        (double ElectronVolts, string Source) bias)
+    public static (StackTransmission Stack, TransmissionResult[] Results) Compute(LayerStack layers, double[] energies, (double ElectronVolts, string Source) bias)
     {
-        var transmission = Compile(BuildStack(structure, periods, potential, mass), bias.ElectronVolts, bias.Source);
+        var transmission = Compile(layers, bias.ElectronVolts, bias.Source);
         var results = new TransmissionResult[energies.Length];
         using var progress = new Progress("transmission", energies.Length);
         for (var i = 0; i < energies.Length; i++)
@@ -142,10 +140,10 @@ internal static class TransmissionCommand
         return (transmission, results);
     }
 
-    public static void Write(StructureDefinition structure, int periods, double[] energies, double? potential, double? mass,
+    public static void Write(StructureDefinition structure, LayerStack layers, string source, double[] energies,
         (double ElectronVolts, string Source) bias, OutputFormat format, string? outPath)
     {
-        var (stack, results) = Compute(structure, periods, energies, potential, mass, bias);
+        var (stack, results) = Compute(layers, energies, bias);
         var lead = stack.Stack.LeftLead;
         var warnings = Common.CheckEnergies(structure, energies);
         if (format == OutputFormat.Json)
@@ -155,7 +153,11 @@ internal static class TransmissionCommand
                 Common.StructureHeader(w, structure, warnings);
                 Common.Units(w, ("energy", "eV"), ("transmission", "1"), ("reflection", "1"), ("potential", "eV"), ("mass", "m0"), ("thickness", "nm"), ("period", "nm"), ("bias", "eV"));
                 w.WriteStartObject("stack");
-                w.WriteNumber("periods", periods);
+                w.WriteString("source", source);
+                if (layers.Parts.Count == 1 && layers.Parts[0].IsRepeatedCell)
+                {
+                    w.WriteNumber("periods", layers.Parts[0].Repetitions);
+                }
                 w.WriteNumber("thickness", stack.Stack.ThicknessNanometres);
                 w.WriteNumber("bias", stack.Bias.ElectronVolts);
                 Common.Leads(w, stack.Stack);
@@ -182,7 +184,7 @@ internal static class TransmissionCommand
             table.Add(r.EnergyElectronVolts, r.Transmission, r.Reflection, r.Log10Transmission);
         }
         var title = Common.TableTitle(structure, unit) + string.Create(CultureInfo.InvariantCulture,
-            $"{Common.Plural(periods, "period")}, {stack.Stack.ThicknessNanometres:G6} nm, leads V = {lead.PotentialElectronVolts:G6} eV, m = {lead.MassElectronMasses:G6} m0, bias eU = {stack.Bias.ElectronVolts:G6} eV\n")
+            $"Stack: {source}: {Physics.StackOptions.Describe(layers)}; {stack.Stack.ThicknessNanometres:G6} nm, leads V = {lead.PotentialElectronVolts:G6} eV, m = {lead.MassElectronMasses:G6} m0, bias eU = {stack.Bias.ElectronVolts:G6} eV\n")
             + "log10 T: empty in CSV (null in JSON) where T = 0 (a lead closed).\n";
         Common.EmitTable(table, format, title, outPath);
     }

@@ -44,10 +44,12 @@ internal sealed class StackOptions
     }
 
     /// <summary>The stack and a one-line description of where it came from.</summary>
-    public (LayerStack Stack, string Description) Build(ParseResult result, StructureDefinition structure)
+    public (LayerStack Stack, string Description) Build(ParseResult result, StructureDefinition structure) =>
+        Choose(structure, result.GetValue(Periods), result.GetValue(LeadPotential), result.GetValue(LeadMass));
+
+    /// <summary>N periods of the cell when <paramref name="periods"/> is given, else the file's stack; the lead options replace both leads' values.</summary>
+    public static (LayerStack Stack, string Description) Choose(StructureDefinition structure, int? periods, double? potential, double? mass)
     {
-        var periods = result.GetValue(Periods);
-        double? potential = result.GetValue(LeadPotential), mass = result.GetValue(LeadMass);
         if (periods is { } n)
         {
             var built = TransmissionCommand.BuildStack(structure, n, potential, mass);
