@@ -46,7 +46,7 @@ internal static class DisplayUnits
             var k = Math.PI / cell.Period.Nanometres;
             var recoil = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2 * k * k / cell.MinimumMass.ElectronMasses;
             return new EnergyUnit("E_R", recoil, string.Create(System.Globalization.CultureInfo.InvariantCulture,
-                $"energies in recoil units E_R = hbar^2 (pi/d)^2 / 2m = {recoil:G6} eV (d = {cell.Period.Nanometres:G6} nm, m = {cell.MinimumMass.ElectronMasses:G6} m0)"));
+                $"energies in recoil units E_R = hbar^2 (pi/d)^2 / 2m = {recoil:G6} eV"));
         }
         var largest = 0.0;
         foreach (var e in energiesElectronVolts)
