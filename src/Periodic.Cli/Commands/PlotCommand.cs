@@ -21,10 +21,12 @@ namespace Periodic.Cli.Commands;
 internal static class PlotCommand
 {
     private static readonly string[] Kinds = ["dispersion", "dos", "profile", "transmission", "stack", "iv"];
-    private static readonly Color GapColor = Color.FromHex("#F2C7C7").WithAlpha(0.55);
-    private static readonly Color BandColor = Color.FromHex("#9FC5E8").WithAlpha(0.55);
-    private static readonly Color LineColor = Color.FromHex("#1F4E79");
-    private static readonly Color ProfileColor = Color.FromHex("#404040");
+    // Properties, not static fields: a field of a ScottPlot type would load the plotting library whenever the
+    // command line is built, slowing every other command's start.
+    private static Color GapColor => Color.FromHex("#F2C7C7").WithAlpha(0.55);
+    private static Color BandColor => Color.FromHex("#9FC5E8").WithAlpha(0.55);
+    private static Color LineColor => Color.FromHex("#1F4E79");
+    private static Color ProfileColor => Color.FromHex("#404040");
 
     public static Command Create()
     {

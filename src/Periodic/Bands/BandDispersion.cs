@@ -185,22 +185,22 @@ public sealed class BandDispersion
         {
             return;
         }
-        var largest = TensorPrimitives.MaxMagnitude(wavevectorsPerNanometre);
-        if (!(Math.Abs(largest) * _period <= MaxPhase))
+        // Every wavevector is checked before anything is written (no partial output on a bad element).
+        for (var j = 0; j < wavevectorsPerNanometre.Length; j++)
         {
-            for (var j = 0; j < wavevectorsPerNanometre.Length; j++)
+            var k = wavevectorsPerNanometre[j];
+            if (!(Math.Abs(k) * _period <= MaxPhase))
             {
-                var k = wavevectorsPerNanometre[j];
-                if (!(Math.Abs(k) * _period <= MaxPhase))
-                {
-                    throw ZoneError(nameof(wavevectorsPerNanometre), string.Create(CultureInfo.InvariantCulture, $"wavevectorsPerNanometre[{j}]"), k);
-                }
+                throw ZoneError(nameof(wavevectorsPerNanometre), string.Create(CultureInfo.InvariantCulture, $"wavevectorsPerNanometre[{j}]"), k);
             }
         }
         var output = destination[..wavevectorsPerNanometre.Length];
-        // x = cos(|k| d), vectorised; cos is even, so |k| is not needed.
-        TensorPrimitives.Multiply(wavevectorsPerNanometre, _period, output);
-        TensorPrimitives.Cos(output, output);
+        // x = cos(|k| d); cos is even, so |k| is not needed. A scalar loop rather than TensorPrimitives: the vector
+        // kernels run unoptimised (tier 0) for their first calls, which in a short-lived process costs more than they save.
+        for (var j = 0; j < output.Length; j++)
+        {
+            output[j] = Math.Cos(wavevectorsPerNanometre[j] * _period);
+        }
         // Four points per step when they share a piece: their Clenshaw recurrences are independent
         // chains, which the processor overlaps (one chain alone is latency bound).
         var i = 0;
