@@ -11,7 +11,7 @@ using Periodic.Serialization;
 // stderr; --verbose adds the exception detail.
 var verbose = new Option<bool>("--verbose") { Description = "On failure, print the full error detail.", Recursive = true };
 // A plain command named "periodic" rather than RootCommand, whose name would be the assembly's (Periodic.Cli).
-var root = new Command("periodic", "periodic: bands, dispersion, density of states, transmission, current under bias and plots of one-dimensional periodic structures. "
+var root = new Command("periodic", "periodic: bands, dispersion, densities of states and carriers, Bloch functions, bound levels, resonances, transmission, current under bias and plots of one-dimensional periodic structures and stacks. "
     + "Without arguments, prints the band table of a built-in example superlattice.");
 root.Options.Add(new System.CommandLine.Help.HelpOption());
 root.Options.Add(new VersionOption());

@@ -277,6 +277,28 @@ internal static class Common
         }
     }
 
+    /// <summary>
+    /// The <c>stack</c> object: <c>source</c>, <c>periods</c> (a stack of one repeated cell), <c>thickness</c> (nm),
+    /// <c>elements</c> (written out), <c>bias</c> (eV, when given) and the two leads.
+    /// </summary>
+    public static void StackObject(Utf8JsonWriter writer, Periodic.Stacks.LayerStack stack, string source, double? bias = null)
+    {
+        writer.WriteStartObject("stack");
+        writer.WriteString("source", source);
+        if (stack.Parts.Count == 1 && stack.Parts[0].IsRepeatedCell)
+        {
+            writer.WriteNumber("periods", stack.Parts[0].Repetitions);
+        }
+        writer.WriteNumber("thickness", stack.ThicknessNanometres);
+        writer.WriteNumber("elements", stack.ElementCount);
+        if (bias is { } u)
+        {
+            writer.WriteNumber("bias", u);
+        }
+        Leads(writer, stack);
+        writer.WriteEndObject();
+    }
+
     public static void Units(Utf8JsonWriter writer, params (string Name, string Unit)[] units)
     {
         writer.WriteStartObject("units");

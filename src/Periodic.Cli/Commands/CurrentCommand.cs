@@ -184,15 +184,7 @@ internal static class CurrentCommand
                 Common.StructureHeader(w, structure);
                 Common.Units(w, ("bias", "eV"), ("fermiLevel", "eV"), ("temperature", "K"), ("currentDensity", "A/m2"), ("currentDensityPerCm2", "A/cm2"),
                     ("errorEstimate", "A/m2"), ("potential", "eV"), ("mass", "m0"), ("thickness", "nm"), ("period", "nm"));
-                w.WriteStartObject("stack");
-                w.WriteString("source", source);
-                if (stack.Parts.Count == 1 && stack.Parts[0].IsRepeatedCell)
-                {
-                    w.WriteNumber("periods", stack.Parts[0].Repetitions);
-                }
-                w.WriteNumber("thickness", stack.ThicknessNanometres);
-                Common.Leads(w, stack);
-                w.WriteEndObject();
+                Common.StackObject(w, stack, source);
                 w.WriteNumber("fermiLevel", fermiLevel);
                 w.WriteNumber("temperature", kelvin);
                 w.WriteStartArray("warnings");

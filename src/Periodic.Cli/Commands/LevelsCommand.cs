@@ -118,12 +118,7 @@ internal static class LevelsCommand
             {
                 Common.StructureHeader(w, structure, warnings);
                 Common.Units(w, ("energy", "eV"), ("error", "eV"), ("position", "nm"), ("wavefunction", "nm^-1/2"), ("potential", "eV"), ("mass", "m0"), ("thickness", "nm"));
-                w.WriteStartObject("stack");
-                w.WriteString("source", source);
-                w.WriteNumber("thickness", stack.ThicknessNanometres);
-                w.WriteNumber("elements", stack.ElementCount);
-                Common.Leads(w, stack);
-                w.WriteEndObject();
+                Common.StackObject(w, stack, source);
                 w.WriteNumber("totalCount", spectrum.TotalCount);
                 w.WriteNumber("continuumEdge", spectrum.ContinuumEdgeElectronVolts);
                 w.WriteStartArray("levels");

@@ -78,12 +78,7 @@ internal static class ResonancesCommand
             {
                 Common.StructureHeader(w, structure, warnings);
                 Common.Units(w, ("energy", "eV"), ("energyError", "eV"), ("peakTransmission", "1"), ("width", "eV"), ("lifetime", "s"), ("bias", "eV"), ("potential", "eV"), ("mass", "m0"), ("thickness", "nm"));
-                w.WriteStartObject("stack");
-                w.WriteString("source", source);
-                w.WriteNumber("thickness", stack.ThicknessNanometres);
-                w.WriteNumber("bias", transmission.Bias.ElectronVolts);
-                Common.Leads(w, stack);
-                w.WriteEndObject();
+                Common.StackObject(w, stack, source, transmission.Bias.ElectronVolts);
                 w.WriteStartObject("window");
                 w.WriteNumber("from", spectrum.LowerElectronVolts);
                 w.WriteNumber("to", spectrum.UpperElectronVolts);

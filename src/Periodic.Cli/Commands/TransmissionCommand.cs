@@ -152,16 +152,7 @@ internal static class TransmissionCommand
             {
                 Common.StructureHeader(w, structure, warnings);
                 Common.Units(w, ("energy", "eV"), ("transmission", "1"), ("reflection", "1"), ("potential", "eV"), ("mass", "m0"), ("thickness", "nm"), ("period", "nm"), ("bias", "eV"));
-                w.WriteStartObject("stack");
-                w.WriteString("source", source);
-                if (layers.Parts.Count == 1 && layers.Parts[0].IsRepeatedCell)
-                {
-                    w.WriteNumber("periods", layers.Parts[0].Repetitions);
-                }
-                w.WriteNumber("thickness", stack.Stack.ThicknessNanometres);
-                w.WriteNumber("bias", stack.Bias.ElectronVolts);
-                Common.Leads(w, stack.Stack);
-                w.WriteEndObject();
+                Common.StackObject(w, stack.Stack, source, stack.Bias.ElectronVolts);
                 w.WriteStartArray("points");
                 foreach (var r in results)
                 {
