@@ -23,10 +23,11 @@ internal static class Limits
     public const int MaxGridPoints = 1_000_000;
 
     /// <summary>
-    /// Most E(k) values of one dispersion run (--count × --points): measured 3.2 µs of CPU per value for a two-layer cell,
-    /// so 10⁷ values take about half a minute; the output is streamed, so memory does not grow with it.
+    /// Most E(k) values of one dispersion run (--count × --points): long grids go through the band's Chebyshev inversion
+    /// (tens of ns per value) and are streamed, so memory does not grow; 5·10⁷ values (10⁷ points of 5 bands) write about
+    /// 1.3 GB of CSV, which is the real cost. A per-point root search (about 3 µs per value) is taken only for short grids.
     /// </summary>
-    public const long MaxDispersionValues = 10_000_000;
+    public const long MaxDispersionValues = 50_000_000;
 
     /// <summary>
     /// Largest (stack elements)² × biases of one current run. Under bias each evaluation walks every element and the

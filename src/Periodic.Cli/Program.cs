@@ -11,7 +11,7 @@ using Periodic.Serialization;
 // stderr; --verbose adds the exception detail.
 var verbose = Common.Verbose;
 // A plain command named "periodic" rather than RootCommand, whose name would be the assembly's (Periodic.Cli).
-var root = new Command("periodic", "periodic: bands, dispersion, density of states, transmission, current under bias and plots of one-dimensional periodic structures. "
+var root = new Command("periodic", "periodic: bands, dispersion, densities of states and carriers, Bloch functions, bound levels, resonances, transmission, current under bias and plots of one-dimensional periodic structures and stacks. "
     + "Without arguments, prints the band table of a built-in example superlattice.");
 root.Options.Add(new System.CommandLine.Help.HelpOption());
 root.Options.Add(new VersionOption());
@@ -21,6 +21,10 @@ root.Subcommands.Add(DispersionCommand.Create());
 root.Subcommands.Add(DosCommand.Create());
 root.Subcommands.Add(TransmissionCommand.Create());
 root.Subcommands.Add(CurrentCommand.Create());
+root.Subcommands.Add(LevelsCommand.Create());
+root.Subcommands.Add(ResonancesCommand.Create());
+root.Subcommands.Add(CarriersCommand.Create());
+root.Subcommands.Add(BlochCommand.Create());
 root.Subcommands.Add(PlotCommand.Create());
 root.Subcommands.Add(SweepCommand.Create());
 root.Subcommands.Add(MergeCommand.Create());
@@ -28,7 +32,7 @@ root.Subcommands.Add(DesignCommand.Create());
 root.Subcommands.Add(ExampleCommand.Create());
 root.SetAction(_ =>
 {
-    Console.Out.Write(BandsCommand.Render(BuiltInExample.Load(), 4, OutputFormat.Table));
+    BandsCommand.Write(BuiltInExample.Load(), 4, OutputFormat.Table, null);
     Console.Out.WriteLine();
     Console.Out.WriteLine("(built-in example; try: periodic example > my.json && periodic bands my.json --json)");
     return 0;

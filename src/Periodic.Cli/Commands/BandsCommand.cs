@@ -19,33 +19,38 @@ internal static class BandsCommand
         var count = Common.CountOption(4);
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
+        var output = Common.OutOption();
         var command = new Command("bands", "List the lowest minibands: edges, widths, band-edge masses, and the gaps between them.");
         command.Arguments.Add(file);
         command.Options.Add(count);
         command.Options.Add(json);
         command.Options.Add(csv);
+        command.Options.Add(output);
         command.SetAction(result =>
         {
             var format = Common.Format(result, json, csv);
             var n = Common.CheckCount(result.GetValue(count));
             var structure = Common.Load(result.GetValue(file)!);
-            Common.Emit(Render(structure, n, format), null);
+            Write(structure, n, format, result.GetValue(output));
             return 0;
         });
         return command;
     }
 
-    public static string Render(StructureDefinition structure, int count, OutputFormat format)
+    public static void Write(StructureDefinition structure, int count, OutputFormat format, string? outPath)
     {
         var solved = Solver.Compute(structure.Cell, count);
         var bands = solved.Structure;
+        var warnings = structure.Materials is { } built
+            ? Common.ReportWarnings(structure, built.CheckEnergies(bands.Bands.SelectMany(b => new[] { b.BottomElectronVolts, b.TopElectronVolts }).ToArray()))
+            : [];
         var properties = BandProperties.Create(bands);
         var masses = bands.Bands.Select(b => (Bottom: properties.BottomMass(b.Index).ElectronMasses, Top: properties.TopMass(b.Index).ElectronMasses)).ToArray();
         if (format == OutputFormat.Json)
         {
-            return Common.Json(w =>
+            Common.Emit(Common.Json(w =>
             {
-                Common.StructureHeader(w, structure);
+                Common.StructureHeader(w, structure, warnings);
                 Common.Units(w, ("energy", "eV"), ("width", "eV"), ("mass", "m0"), ("period", "nm"));
                 w.WriteStartArray("bands");
                 foreach (var band in bands.Bands)
@@ -85,20 +90,17 @@ internal static class BandsCommand
                     w.Number("maxDiscretisationError", solved.MaxDiscretisationErrorElectronVolts);
                 }
                 w.WriteEndObject();
-            });
+            }), outPath);
+            return;
         }
-        var table = new Table("band", "bottom (eV)", "top (eV)", "width (meV)", "m* bottom (m0)", "m* top (m0)", "gap above (meV)");
+        var unit = DisplayUnits.Energy(structure.Cell, bands.Bands.SelectMany(b => new[] { b.BottomElectronVolts, b.TopElectronVolts }));
+        var table = new Table(new Column("band"), Column.Energy("bottom", unit), Column.Energy("top", unit), Column.Energy("width", unit),
+            new Column("m* bottom", "m0", Format: "G6"), new Column("m* top", "m0", Format: "G6"), Column.Energy("gap above", unit));
         foreach (var band in bands.Bands)
         {
             var (mb, mt) = masses[band.Index - 1];
-            table.Add(Table.Integer(band.Index), Table.Number(band.BottomElectronVolts, "F6"), Table.Number(band.TopElectronVolts, "F6"),
-                Table.Number(band.WidthElectronVolts * 1e3, "F4"), Table.Number(mb, "G5"), Table.Number(mt, "G5"),
-                Table.Number(bands.Gaps[band.Index - 1].WidthElectronVolts * 1e3, "F4"));
+            table.Add(band.Index, band.BottomElectronVolts, band.TopElectronVolts, band.WidthElectronVolts, mb, mt, bands.Gaps[band.Index - 1].WidthElectronVolts);
         }
-        if (format == OutputFormat.Csv)
-        {
-            return table.ToCsv();
-        }
-        return Common.TableTitle(structure) + "\n" + table.ToText();
+        Common.EmitTable(table, format, Common.TableTitle(structure, unit), outPath);
     }
 }

@@ -32,6 +32,12 @@ internal static class Common
 
     public static Option<bool> CsvOption() => new("--csv") { Description = "Write CSV (a header row with units)." };
 
+    public static Option<string?> OutOption() => new("--out", "-o") { Description = "Write to this file (atomically: nothing is left behind on failure) instead of stdout." };
+
+    /// <summary>"1 period", "3 periods": no "(s)" plurals in output.</summary>
+    public static string Plural(long count, string noun) =>
+        string.Create(CultureInfo.InvariantCulture, $"{count} {noun}{(count == 1 ? "" : "s")}");
+
     public static Option<int> CountOption(int defaultCount) => new("--count", "-n")
     {
         Description = "Number of bands, from the lowest.",
@@ -109,6 +115,58 @@ internal static class Common
     /// <summary>Text from a file or the command line as it may be printed (<see cref="Output.Printable.Escape"/>).</summary>
     public static string Printable(string text) => Output.Printable.Escape(text);
 
+    /// <summary>
+    /// Streams output to stdout, or atomically to <paramref name="outPath"/> (a failure part-way leaves no file).
+    /// </summary>
+    public static void Emit(Action<Stream> write, string? outPath)
+    {
+        if (outPath is null)
+        {
+            Console.Out.Flush();
+            using var stdout = Console.OpenStandardOutput();
+            write(stdout);
+            stdout.Flush();
+        }
+        else
+        {
+            OutputFile.WriteAtomically(outPath, write);
+        }
+    }
+
+    /// <summary>Writes a table as CSV or text (after <paramref name="title"/>), to stdout or <paramref name="outPath"/>.</summary>
+    public static void EmitTable(Table table, OutputFormat format, string title, string? outPath)
+    {
+        if (format == OutputFormat.Csv)
+        {
+            Emit(table.WriteCsv, outPath);
+        }
+        else
+        {
+            Emit(title + "\n" + table.ToText(), outPath);
+        }
+    }
+
+    /// <summary>
+    /// The model's warnings about results (e.g. a band far above a well's edge, where the single-band model is poor):
+    /// each on stderr, and returned for the JSON output. Null or empty for a cell not built from materials.
+    /// </summary>
+    public static IReadOnlyList<Periodic.Materials.ModelWarning> ReportWarnings(StructureDefinition structure, IReadOnlyList<Periodic.Materials.ModelWarning>? warnings)
+    {
+        if (warnings is null)
+        {
+            return [];
+        }
+        foreach (var warning in warnings)
+        {
+            Console.Error.WriteLine($"periodic: warning: {structure.SourceName}: {warning.Message}");
+        }
+        return warnings;
+    }
+
+    /// <summary>Model warnings for a set of result energies (band edges, levels, peaks) of a material cell; empty otherwise.</summary>
+    public static IReadOnlyList<Periodic.Materials.ModelWarning> CheckEnergies(StructureDefinition structure, ReadOnlySpan<double> energiesElectronVolts) =>
+        structure.Materials is { } built ? ReportWarnings(structure, built.CheckEnergies(energiesElectronVolts)) : [];
+
     /// <summary>Writes the finished text to stdout, or atomically to <paramref name="outPath"/>.</summary>
     public static void Emit(string text, string? outPath)
     {
@@ -148,7 +206,15 @@ internal static class Common
         }
     }
 
-    public static void StructureHeader(Utf8JsonWriter writer, StructureDefinition structure)
+    public static void StructureHeader(Utf8JsonWriter writer, StructureDefinition structure) =>
+        StructureHeader(writer, structure, []);
+
+    /// <summary>
+    /// The <c>structure</c> object: name, source, period, elements; for a material cell its temperature, reference
+    /// energy, the derived <c>layers</c> (material, width nm, potential eV, mass m0, nonParabolicity 1/eV, bandGap eV,
+    /// latticeMismatch) and every model warning (the structure's and <paramref name="resultWarnings"/>).
+    /// </summary>
+    public static void StructureHeader(Utf8JsonWriter writer, StructureDefinition structure, IReadOnlyList<Periodic.Materials.ModelWarning> resultWarnings)
     {
         writer.WriteStartObject("structure");
         writer.WriteString("name", structure.Name);
@@ -160,13 +226,54 @@ internal static class Common
             writer.WriteNumber("temperature", built.TemperatureKelvin);
             writer.WriteNumber("referenceEnergy", built.ReferenceElectronVolts);
             writer.WriteStartArray("warnings");
-            foreach (var warning in built.Warnings)
+            foreach (var warning in built.Warnings.Concat(resultWarnings))
             {
                 writer.WriteStringValue(warning.Message);
             }
             writer.WriteEndArray();
+            writer.WriteStartArray("layers");
+            foreach (var layer in built.Layers)
+            {
+                writer.WriteStartObject();
+                writer.WriteNumber("index", layer.Index);
+                if (structure.Labels[layer.Index] is { } label)
+                {
+                    writer.WriteString("label", label);
+                }
+                writer.WriteString("material", layer.Material.Name);
+                writer.WriteNumber("width", layer.WidthNanometres);
+                writer.WriteNumber("potential", layer.PotentialElectronVolts);
+                writer.WriteNumber("mass", layer.MassElectronMasses);
+                writer.WriteNumber("nonParabolicity", layer.NonParabolicityPerElectronVolt);
+                writer.WriteNumber("bandGap", layer.BandGapElectronVolts);
+                writer.WriteNumber("latticeMismatch", layer.LatticeMismatch);
+                writer.WriteEndObject();
+            }
+            writer.WriteEndArray();
         }
         writer.WriteEndObject();
+    }
+
+    /// <summary>
+    /// For a cell of material layers: the derived layer table (what the material model made of each layer), printed under
+    /// every text table so the numbers can be traced to their inputs; empty otherwise.
+    /// </summary>
+    public static string LayerTable(StructureDefinition structure)
+    {
+        if (structure.Materials is not { } built)
+        {
+            return string.Empty;
+        }
+        var table = new Table(new Column("layer"), new Column("label"), new Column("material"), new Column("width", "nm"), new Column("V", "eV"),
+            new Column("m*", "m0"), new Column("alpha", "1/eV"), new Column("Eg", "eV"), new Column("mismatch"));
+        foreach (var layer in built.Layers)
+        {
+            table.Add(layer.Index, structure.Labels[layer.Index] ?? "", layer.Material.Name, layer.WidthNanometres, layer.PotentialElectronVolts,
+                layer.MassElectronMasses, layer.NonParabolicityPerElectronVolt, layer.BandGapElectronVolts, layer.LatticeMismatch);
+        }
+        return string.Create(CultureInfo.InvariantCulture,
+            $"\nLayers from the material table at T = {built.TemperatureKelvin:G6} K, carrier {built.Carrier} (potentials relative to {built.ReferenceElectronVolts:G6} eV; alpha: non-parabolicity; mismatch: to the substrate):\n")
+            + table.ToText();
     }
 
     /// <summary>The stack's two leads as <c>leftLead</c> and <c>rightLead</c> objects (<c>potential</c> in eV, <c>mass</c> in m0), as given (unshifted by a bias).</summary>
@@ -181,6 +288,28 @@ internal static class Common
         }
     }
 
+    /// <summary>
+    /// The <c>stack</c> object: <c>source</c>, <c>periods</c> (a stack of one repeated cell), <c>thickness</c> (nm),
+    /// <c>elements</c> (written out), <c>bias</c> (eV, when given) and the two leads.
+    /// </summary>
+    public static void StackObject(Utf8JsonWriter writer, Periodic.Stacks.LayerStack stack, string source, double? bias = null)
+    {
+        writer.WriteStartObject("stack");
+        writer.WriteString("source", source);
+        if (stack.Parts.Count == 1 && stack.Parts[0].IsRepeatedCell)
+        {
+            writer.WriteNumber("periods", stack.Parts[0].Repetitions);
+        }
+        writer.WriteNumber("thickness", stack.ThicknessNanometres);
+        writer.WriteNumber("elements", stack.ElementCount);
+        if (bias is { } u)
+        {
+            writer.WriteNumber("bias", u);
+        }
+        Leads(writer, stack);
+        writer.WriteEndObject();
+    }
+
     public static void Units(Utf8JsonWriter writer, params (string Name, string Unit)[] units)
     {
         writer.WriteStartObject("units");
@@ -191,8 +320,11 @@ internal static class Common
         writer.WriteEndObject();
     }
 
-    public static string TableTitle(StructureDefinition structure) =>
-        string.Create(CultureInfo.InvariantCulture, $"{Printable(structure.Name)}  (period {structure.Cell.Period.Nanometres:G6} nm, {structure.Cell.Elements.Count} element(s))\n");
+    /// <summary>The title of a text table: the structure's name, period and elements, the note of an unusual energy unit, the layer table of a material cell.</summary>
+    public static string TableTitle(StructureDefinition structure, EnergyUnit? unit = null) =>
+        string.Create(CultureInfo.InvariantCulture, $"{Printable(structure.Name)}  (period {structure.Cell.Period.Nanometres:G6} nm, {Plural(structure.Cell.Elements.Count, "element")})\n")
+        + (unit?.Note is { } note ? note + "\n" : "")
+        + LayerTable(structure);
 }
 
 /// <summary>An energy grid given either as --from/--to/--points or as --energies e1,e2,….</summary>

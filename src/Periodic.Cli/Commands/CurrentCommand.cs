@@ -32,10 +32,10 @@ internal static class CurrentCommand
         var points = new Option<int?>("--bias-points") { Description = "Number of biases in the range (2 to 10,000), ends included." };
         var temperature = Common.NumberOption("--temperature", "K", "77", "Temperature of both contacts, K, from 0.1 to 1000 (default: the file's temperature for a cell of material layers).");
         var fermi = Common.NumberOption("--fermi-level", "eV", "0.02", "Fermi level of the left contact, eV, on the scale of the file's potentials (the right contact's is this minus eU).");
-        var periods = new Option<int?>("--periods", "-N") { Description = "Number of unit cells in the stack (1 to 1,000,000; under a non-zero bias at most 100,000 elements in all); default: the file's stack.periods." };
+        var periods = new Option<int?>("--periods", "-N") { Description = "Use N periods of the cell (1 to 1,000,000; under a non-zero bias at most 100,000 elements in all) instead of the file's stack." };
         var leadPotential = Common.NumberOption("--lead-potential", "eV", "0", "Potential of both leads, eV (default: the file's stack, else the first layer's).");
         var leadMass = Common.NumberOption("--lead-mass", "m0", "0.067", "Effective mass in both leads, m0 (default: the file's stack, else the first layer's).");
-        var output = new Option<string?>("--out", "-o") { Description = "Write to this file (atomically) instead of stdout." };
+        var output = Common.OutOption();
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
         var command = new Command("current", "Current density through the file's stack at each bias (Tsu-Esaki: coherent transport, uniform field, no space charge).");
@@ -81,20 +81,23 @@ internal static class CurrentCommand
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture,
                     $"the file's temperature {kelvin:R} K cannot be used for the current; give --temperature in K, between {MinTemperatureKelvin} and {MaxTemperatureKelvin}."));
             }
-            var n = result.GetValue(periods) ?? structure.Stack?.Parts[0].Repetitions
-                ?? throw new UsageException("give --periods N (the structure file has no \"stack\" with periods).");
-            var stack = TransmissionCommand.BuildStack(structure, n, potential, mass);
+            var (stack, source) = Physics.StackOptions.Choose(structure, result.GetValue(periods), potential, mass);
             // The library's own bound on a biased stack (elements written out) is named first: building it costs no evaluation.
             if (Array.Find(biasList, u => u != 0) is var firstBias && firstBias != 0)
             {
                 TransmissionCommand.Compile(stack, firstBias, "--bias");
             }
-            var elements = Limits.Product(n, structure.Cell.Elements.Count);
+            var elements = stack.ElementCount;
             Limits.CheckWork("(stack elements)² × biases", Limits.Product(Limits.Product(elements, elements), biasList.Length), Limits.MaxCurrentWork,
                 string.Create(CultureInfo.InvariantCulture,
-                    $"one bias costs about 6e-5 s × elements² of CPU (about 100 evaluations per period, each walking every element); here {n} periods × {structure.Cell.Elements.Count} elements × {biasList.Length} biases"));
+                    $"one bias costs about 6e-5 s × elements² of CPU (about 100 evaluations per period, each walking every element); here {elements} elements × {biasList.Length} biases"));
+            var below = FermiLevelWarnings(stack, mu);
+            foreach (var line in below)
+            {
+                Console.Error.WriteLine("periodic: warning: " + line);
+            }
             var rows = Compute(stack, biasList, mu, kelvin);
-            Common.Emit(Render(structure, stack, n, mu, kelvin, rows, format), result.GetValue(output));
+            Write(structure, stack, source, mu, kelvin, rows, below, format, result.GetValue(output));
             return 0;
         });
         return command;
@@ -166,22 +169,44 @@ internal static class CurrentCommand
         return rows;
     }
 
-    public static string Render(StructureDefinition structure, LayerStack stack, int periods, double fermiLevel, double kelvin, CurrentDensityResult[] rows, OutputFormat format)
+    /// <summary>
+    /// A Fermi level below a lead's band edge leaves that contact (nearly) empty: the current is then set by the
+    /// thermal tail alone and comes out tiny (1e-11 A/cm2 and less), which is rarely what was meant. The right contact's
+    /// level and band edge both move by eU, so one comparison per lead holds at every bias.
+    /// </summary>
+    public static List<string> FermiLevelWarnings(LayerStack stack, double fermiLevel)
+    {
+        var lines = new List<string>();
+        foreach (var (name, lead) in new[] { ("left", stack.LeftLead), ("right", stack.RightLead) })
+        {
+            if (fermiLevel < lead.Potential.ElectronVolts)
+            {
+                lines.Add(string.Create(CultureInfo.InvariantCulture,
+                    $"--fermi-level {fermiLevel:R} eV lies {lead.Potential.ElectronVolts - fermiLevel:G4} eV below the {name} lead's band edge ({lead.Potential.ElectronVolts:R} eV): that contact holds almost no carriers and the current is only its thermal tail; give a Fermi level above {lead.Potential.ElectronVolts:R} eV for a degenerate contact."));
+            }
+        }
+        return lines;
+    }
+
+    public static void Write(StructureDefinition structure, LayerStack stack, string source, double fermiLevel, double kelvin, CurrentDensityResult[] rows,
+        List<string> fermiWarnings, OutputFormat format, string? outPath)
     {
         if (format == OutputFormat.Json)
         {
-            return Common.Json(w =>
+            Common.Emit(Common.Json(w =>
             {
                 Common.StructureHeader(w, structure);
                 Common.Units(w, ("bias", "eV"), ("fermiLevel", "eV"), ("temperature", "K"), ("currentDensity", "A/m2"), ("currentDensityPerCm2", "A/cm2"),
                     ("errorEstimate", "A/m2"), ("potential", "eV"), ("mass", "m0"), ("thickness", "nm"), ("period", "nm"));
-                w.WriteStartObject("stack");
-                w.WriteNumber("periods", periods);
-                w.WriteNumber("thickness", stack.ThicknessNanometres);
-                Common.Leads(w, stack);
-                w.WriteEndObject();
+                Common.StackObject(w, stack, source);
                 w.WriteNumber("fermiLevel", fermiLevel);
                 w.WriteNumber("temperature", kelvin);
+                w.WriteStartArray("warnings");
+                foreach (var line in fermiWarnings)
+                {
+                    w.WriteStringValue(line);
+                }
+                w.WriteEndArray();
                 w.WriteString("model", "Tsu-Esaki; coherent transport, uniform field, no space charge or self-consistency");
                 w.WriteStartArray("points");
                 foreach (var r in rows)
@@ -197,22 +222,20 @@ internal static class CurrentCommand
                     w.WriteEndObject();
                 }
                 w.WriteEndArray();
-            });
+            }), outPath);
+            return;
         }
-        var table = new Table("bias (eV)", "J (A/cm2)", "error (A/cm2)", "converged", "resonances", "evaluations");
+        var table = new Table(new Column("bias", "eV", Format: "G8"), new Column("J", "A/cm2", Format: "G8"), new Column("error", "A/cm2", Format: "G3"),
+            new Column("converged"), new Column("resonances"), new Column("evaluations"));
         foreach (var r in rows)
         {
-            table.Add(Table.Number(r.BiasElectronVolts, "G6"), Table.Number(r.AmperesPerSquareCentimetre, "G8"), Table.Number(r.ErrorEstimateAmperesPerSquareMetre * 1e-4, "G3"),
-                r.IsConverged ? "true" : "false", Table.Integer(r.ResonanceCount), Table.Integer(r.Evaluations));
-        }
-        if (format == OutputFormat.Csv)
-        {
-            return table.ToCsv();
+            table.Add(r.BiasElectronVolts, r.AmperesPerSquareCentimetre, r.ErrorEstimateAmperesPerSquareMetre * 1e-4, r.IsConverged, r.ResonanceCount, r.Evaluations);
         }
         var lead = stack.LeftLead;
         var title = Common.TableTitle(structure) + string.Create(CultureInfo.InvariantCulture,
-            $"{periods} period(s), {stack.ThicknessNanometres:G6} nm, leads V = {lead.Potential.ElectronVolts:G6} eV, m = {lead.Mass.ElectronMasses:G6} m0; Fermi level {fermiLevel:G6} eV (left contact), T = {kelvin:G6} K\n")
-            + "Tsu-Esaki current, coherent, uniform field, no space charge or self-consistency: a design guide, check against measurement.\n";
-        return title + "\n" + table.ToText();
+            $"Stack: {source}: {Physics.StackOptions.Describe(stack)}; {stack.ThicknessNanometres:G6} nm, leads V = {lead.Potential.ElectronVolts:G6} eV, m = {lead.Mass.ElectronMasses:G6} m0; Fermi level {fermiLevel:G6} eV (left contact), T = {kelvin:G6} K\n")
+            + "Tsu-Esaki current, coherent, uniform field, no space charge or self-consistency: a design guide, check against measurement.\n"
+            + string.Concat(fermiWarnings.Select(line => "warning: " + line + "\n"));
+        Common.EmitTable(table, format, title, outPath);
     }
 }

@@ -116,29 +116,28 @@ internal static class DesignCommand
     {
         var text = new System.Text.StringBuilder();
         text.Append(CultureInfo.InvariantCulture, $"design: {spec.Source}  ({(report.Converged ? "targets reached" : "TARGETS NOT REACHED")}; {report.Iterations} iterations, optimiser exit: {report.Exit})\n\n");
-        var adjusted = new Table("field", "unit", "start", "reached", "lower bound", "upper bound");
+        var adjusted = new Table(new Column("field"), new Column("unit"), new Column("start", Format: "G8"), new Column("reached", Format: "G10"),
+            new Column("lower bound", Format: "G6"), new Column("upper bound", Format: "G6"));
         for (var j = 0; j < spec.Fields.Count; j++)
         {
-            adjusted.Add(spec.Fields[j], FieldUnits.Of(spec.Fields[j]), Table.Number(report.Start[j], "G8"), Table.Number(report.Reached[j], "G10"),
-                Table.Number(spec.Lower[j], "G6"), Table.Number(spec.Upper[j], "G6"));
+            adjusted.Add(spec.Fields[j], FieldUnits.Of(spec.Fields[j]), report.Start[j], report.Reached[j], spec.Lower[j], spec.Upper[j]);
         }
         text.Append(adjusted.ToText()).Append('\n');
-        var targets = new Table("target", "wanted (meV)", "reached (meV)", "residual (µeV)");
+        var targets = new Table(new Column("target"), new Column("wanted", "meV", Format: "F4"), new Column("reached", "meV", Format: "F4"), new Column("residual", "µeV", Format: "G4"));
         for (var i = 0; i < spec.Targets.Count; i++)
         {
-            targets.Add(spec.Targets[i].Name, Table.Number(spec.Targets[i].TargetElectronVolts * 1e3, "F4"), Table.Number(report.Values[i] * 1e3, "F4"),
-                Table.Number((report.Values[i] - spec.Targets[i].TargetElectronVolts) * 1e6, "G4"));
+            targets.Add(spec.Targets[i].Name, spec.Targets[i].TargetElectronVolts * 1e3, report.Values[i] * 1e3, (report.Values[i] - spec.Targets[i].TargetElectronVolts) * 1e6);
         }
         text.Append(targets.ToText()).Append('\n');
         if (report.ToleranceFields.Length > 0)
         {
             text.Append("growth tolerance: each layer one step thicker (+) and thinner (−), solved again; shifts in meV (first-order estimate in brackets)\n");
-            var headers = new List<string> { "layer", "step (nm)" };
-            headers.AddRange(spec.Targets.SelectMany(t => new[] { t.Name + " +", t.Name + " −" }));
+            var headers = new List<Column> { new("layer"), new("step", "nm", Format: "G4") };
+            headers.AddRange(spec.Targets.SelectMany(t => new[] { new Column(t.Name + " +"), new Column(t.Name + " −") }));
             var table = new Table([.. headers]);
             for (var f = 0; f < report.ToleranceFields.Length; f++)
             {
-                var cells = new List<string> { report.ToleranceFields[f], Table.Number(report.ToleranceSteps[f], "G4") };
+                var cells = new List<Cell> { report.ToleranceFields[f], report.ToleranceSteps[f] };
                 for (var i = 0; i < spec.Targets.Count; i++)
                 {
                     cells.Add(string.Create(CultureInfo.InvariantCulture, $"{report.PlusOne[f][i] * 1e3:F3} [{report.Linear[f][i] * 1e3:F3}]"));

@@ -7,6 +7,8 @@ using Periodic.Cli.Output;
 using Periodic.Cli.Physics;
 using Periodic.Serialization;
 
+using Periodic.Units;
+
 namespace Periodic.Cli.Commands;
 
 /// <summary><c>dos FILE</c>: density of states, complex wavevector and band slope on an energy grid.</summary>
@@ -18,35 +20,38 @@ internal static class DosCommand
         var grid = new EnergyGridOptions();
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
-        var command = new Command("dos", "Density of states (spin included), Bloch wavevector, decay constant and dE/dk at each energy.");
+        var output = Common.OutOption();
+        var volume = new Option<bool>("--volume") { Description = "Add the superlattice's 3D density of states and its integral (free in-plane motion, see --in-plane-mass)." };
+        var mass = CarriersCommand.InPlaneMassOption();
+        var command = new Command("dos", "Density of states (spin included) and its integral, Bloch wavevector, decay constant and dE/dk at each energy; with --volume the superlattice's 3D density of states.");
         command.Arguments.Add(file);
         grid.AddTo(command);
         command.Options.Add(json);
         command.Options.Add(csv);
+        command.Options.Add(output);
+        command.Options.Add(volume);
+        command.Options.Add(mass);
         command.SetAction(result =>
         {
             var format = Common.Format(result, json, csv);
             var energies = grid.Read(result);
+            CarriersCommand.CheckMass(result.GetValue(mass));
+            if (result.GetValue(mass) is not null && !result.GetValue(volume))
+            {
+                throw new UsageException("--in-plane-mass applies only with --volume.");
+            }
             var structure = Common.Load(result.GetValue(file)!);
-            Common.Emit(Render(structure, energies, format), null);
+            var inPlane = result.GetValue(volume) ? CarriersCommand.InPlaneMass(structure.Cell, result.GetValue(mass)) : (Periodic.Units.EffectiveMass?)null;
+            Write(structure, energies, inPlane, format, result.GetValue(output));
             return 0;
         });
         return command;
     }
 
-    public static PointQuantities.Values[] Compute(StructureDefinition structure, double[] energies)
+    public static PointQuantities.Values[] Compute(StructureDefinition structure, double[] energies) => Compute(PointQuantities.PropertiesUpTo(structure.Cell, energies.Max()), energies);
+
+    public static PointQuantities.Values[] Compute(Periodic.Properties.BandProperties properties, double[] energies)
     {
-        var highest = energies.Max();
-        Periodic.Properties.BandProperties properties;
-        try
-        {
-            properties = PointQuantities.PropertiesUpTo(structure.Cell, highest);
-        }
-        catch (ArgumentOutOfRangeException e)
-        {
-            throw new UsageException(string.Create(CultureInfo.InvariantCulture,
-                $"the highest energy asked for ({highest:R} eV, --to or --energies) lies above more bands than are computed at once (at most 10000): {Common.Describe(e).Replace("energyLimit", "the energy", StringComparison.Ordinal)} Choose a lower energy."));
-        }
         var values = new PointQuantities.Values[energies.Length];
         using var progress = new Progress("dos", energies.Length);
         for (var i = 0; i < energies.Length; i++)
@@ -68,34 +73,70 @@ internal static class DosCommand
         return values;
     }
 
-    public static string Render(StructureDefinition structure, double[] energies, OutputFormat format)
+    public static void Write(StructureDefinition structure, double[] energies, Periodic.Units.EffectiveMass? inPlane, OutputFormat format, string? outPath)
     {
-        var values = Compute(structure, energies);
+        var properties = PointQuantities.PropertiesUpTo(structure.Cell, energies.Max());
+        var values = Compute(properties, energies);
+        var integrated = new double[energies.Length];
+        properties.IntegratedDensitiesOfStates(energies, integrated);
+        double[]? dos3 = null, states3 = null;
+        if (inPlane is { } m)
+        {
+            dos3 = new double[energies.Length];
+            properties.SuperlatticeDensitiesOfStates(energies, m, dos3);
+            // The integral of g3 up to E is the density of a filled Fermi sea at E (T = 0).
+            states3 = energies.Select(e => properties.SuperlatticeCarrierDensity(Energy.FromElectronVolts(e), Temperature.FromKelvin(0), m).DensityPerCubicNanometre).ToArray();
+        }
+        var warnings = Common.CheckEnergies(structure, energies);
         if (format == OutputFormat.Json)
         {
-            return Common.Json(w =>
+            Common.Emit(Common.Json(w =>
             {
-                Common.StructureHeader(w, structure);
-                Common.Units(w, ("energy", "eV"), ("dos", "1/(eV nm)"), ("wavevector", "1/nm"), ("decay", "1/nm"), ("slope", "eV nm"), ("period", "nm"));
-                w.WriteStartArray("points");
-                foreach (var p in values)
+                Common.StructureHeader(w, structure, warnings);
+                Common.Units(w, ("energy", "eV"), ("dos", "1/(eV nm)"), ("integrated", "1/nm"), ("dos3d", "1/(eV nm3)"), ("integrated3d", "1/nm3"),
+                    ("wavevector", "1/nm"), ("decay", "1/nm"), ("slope", "eV nm"), ("period", "nm"), ("inPlaneMass", "m0"));
+                if (inPlane is { } m)
                 {
+                    w.WriteNumber("inPlaneMass", m.ElectronMasses);
+                }
+                w.WriteStartArray("points");
+                for (var i = 0; i < values.Length; i++)
+                {
+                    var p = values[i];
                     w.WriteStartObject();
                     w.Number("energy", p.Energy);
                     w.Number("dos", p.Dos);
+                    w.Number("integrated", integrated[i]);
+                    if (dos3 is not null)
+                    {
+                        w.Number("dos3d", dos3[i]);
+                        w.Number("integrated3d", states3![i]);
+                    }
                     w.Number("wavevector", p.Wavevector);
                     w.Number("decay", p.Decay);
                     w.Number("slope", p.Slope);
                     w.WriteEndObject();
                 }
                 w.WriteEndArray();
-            });
+            }), outPath);
+            return;
         }
-        var table = new Table("energy (eV)", "dos (1/(eV nm))", "Re k (1/nm)", "Im k (1/nm)", "dE/dk (eV nm)");
-        foreach (var p in values)
+        var unit = DisplayUnits.Energy(structure.Cell, energies);
+        var columns = new List<Column> { Column.Energy("energy", unit), new("dos", "1/(eV nm)", Format: "G8"), new("integrated", "1/nm", Format: "G8") };
+        if (dos3 is not null)
         {
-            table.Add(Table.Number(p.Energy, "F6"), Table.Number(p.Dos, "G8"), Table.Number(p.Wavevector, "G8"), Table.Number(p.Decay, "G8"), Table.Number(p.Slope, "G8"));
+            columns.Add(new("dos3d", "1/(eV nm3)", Format: "G8"));
+            columns.Add(new("integrated3d", "1/nm3", Format: "G8"));
         }
-        return format == OutputFormat.Csv ? table.ToCsv() : Common.TableTitle(structure) + "\n" + table.ToText();
+        columns.AddRange([new("Re k", "1/nm", Format: "G8"), new("Im k", "1/nm", Format: "G8"), new("dE/dk", "eV nm", Format: "G8")]);
+        var table = new Table([.. columns]);
+        for (var i = 0; i < values.Length; i++)
+        {
+            var p = values[i];
+            table.Add(dos3 is null
+                ? [p.Energy, p.Dos, integrated[i], p.Wavevector, p.Decay, p.Slope]
+                : [p.Energy, p.Dos, integrated[i], dos3[i], states3![i], p.Wavevector, p.Decay, p.Slope]);
+        }
+        Common.EmitTable(table, format, Common.TableTitle(structure, unit), outPath);
     }
 }

@@ -7,6 +7,7 @@ using Periodic.Bands;
 using Periodic.Cli.Output;
 using Periodic.Cli.Physics;
 using Periodic.Serialization;
+using Periodic.Stacks;
 using Periodic.Structures;
 using ScottPlot;
 
@@ -19,11 +20,13 @@ namespace Periodic.Cli.Commands;
 /// </summary>
 internal static class PlotCommand
 {
-    private static readonly string[] Kinds = ["dispersion", "dos", "profile", "transmission"];
-    private static readonly Color GapColor = Color.FromHex("#F2C7C7").WithAlpha(0.55);
-    private static readonly Color BandColor = Color.FromHex("#9FC5E8").WithAlpha(0.55);
-    private static readonly Color LineColor = Color.FromHex("#1F4E79");
-    private static readonly Color ProfileColor = Color.FromHex("#404040");
+    private static readonly string[] Kinds = ["dispersion", "dos", "profile", "transmission", "stack", "iv"];
+    // Properties, not static fields: a field of a ScottPlot type would load the plotting library whenever the
+    // command line is built, slowing every other command's start.
+    private static Color GapColor => Color.FromHex("#F2C7C7").WithAlpha(0.55);
+    private static Color BandColor => Color.FromHex("#9FC5E8").WithAlpha(0.55);
+    private static Color LineColor => Color.FromHex("#1F4E79");
+    private static Color ProfileColor => Color.FromHex("#404040");
 
     public static Command Create()
     {
@@ -31,12 +34,15 @@ internal static class PlotCommand
         var output = new Option<string>("--out", "-o") { Description = "Image file to write: .png or .svg.", Required = true };
         var show = new Option<string>("--show", "-s")
         {
-            Description = "What to draw: dispersion (E(k), gaps shaded), dos, profile (V(x) with the minibands) or transmission (T(E), log scale).",
+            Description = "What to draw: dispersion (E(k), gaps shaded), dos, profile (V(x) of the cell with the minibands), transmission (T(E), log scale), "
+                + "stack (the stack's V(x) under the bias, bound states with |psi|^2 and transmission peaks at their energies) or iv (current density from 0 to the bias).",
             DefaultValueFactory = _ => "dispersion",
         };
         show.AcceptOnlyFromAmong(Kinds);
         var count = Common.CountOption(3);
-        var periods = new Option<int>("--periods", "-N") { Description = "Periods drawn in the profile (default 3) or stacked for transmission (default 10).", DefaultValueFactory = _ => 0 };
+        var periods = new Option<int?>("--periods", "-N") { Description = "Periods drawn in the profile (default 3); for transmission, stack and iv: N periods of the cell instead of the file's stack (default: the file's stack, else 10 periods)." };
+        var fermi = Common.NumberOption("--fermi-level", "eV", "0.02", "For iv: Fermi level of the left contact, eV.");
+        var temperature = Common.NumberOption("--temperature", "K", "77", "For iv: temperature, K (default: the file's temperature for a cell of material layers).");
         var grid = new EnergyGridOptions();
         var bias = TransmissionCommand.BiasOption();
         var width = new Option<int>("--width") { Description = "Image width, pixels.", DefaultValueFactory = _ => 900 };
@@ -49,6 +55,8 @@ internal static class PlotCommand
         command.Options.Add(periods);
         grid.AddTo(command);
         command.Options.Add(bias);
+        command.Options.Add(fermi);
+        command.Options.Add(temperature);
         command.Options.Add(width);
         command.Options.Add(height);
         command.SetAction(result =>
@@ -66,35 +74,61 @@ internal static class PlotCommand
             var hasGrid = result.GetValue(grid.From) is not null || result.GetValue(grid.Energies) is not null || result.GetValue(grid.Points) is not null || result.GetValue(grid.To) is not null;
             var energies = hasGrid ? grid.Read(result) : null;
             var p = result.GetValue(periods);
-            if (p < 0 || p > 100_000)
+            if (p is { } given && (given < 1 || given > 100_000))
             {
-                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--periods must be between 1 and 100000; got {p}."));
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--periods must be between 1 and 100000; got {given}."));
             }
             var u = result.GetValue(bias);
-            if (u is not null && kind != "transmission")
+            if (u is not null && kind is not ("transmission" or "stack" or "iv"))
             {
-                throw new UsageException($"--bias applies only to --show transmission; got --show {kind}.");
+                throw new UsageException($"--bias applies only to --show transmission, stack or iv; got --show {kind}.");
+            }
+            var mu = result.GetValue(fermi);
+            var t = result.GetValue(temperature);
+            if ((mu is not null || t is not null) && kind != "iv")
+            {
+                throw new UsageException($"--fermi-level and --temperature apply only to --show iv; got --show {kind}.");
+            }
+            if (t is { } kelvin && !(kelvin >= StackTransmission.MinCurrentTemperatureKelvin && kelvin <= StackTransmission.MaxCurrentTemperatureKelvin))
+            {
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                    $"--temperature must be between {StackTransmission.MinCurrentTemperatureKelvin} K and {StackTransmission.MaxCurrentTemperatureKelvin} K; got {kelvin:R}."));
+            }
+            if (kind == "iv" && mu is null)
+            {
+                throw new UsageException("--show iv needs --fermi-level E (eV, the left contact's Fermi level).");
             }
             var structure = Common.Load(result.GetValue(file)!);
             if (kind == "profile")
             {
                 // Two points per layer, 201 per smooth segment and period.
                 var perPeriod = structure.Cell.Elements.Sum(e => e is Layer ? 2L : e is DeltaBarrier ? 0L : 201L);
-                Limits.CheckWork("--periods × points per period of the profile", Limits.Product(p == 0 ? 3 : p, perPeriod), Limits.MaxProfilePoints,
+                Limits.CheckWork("--periods × points per period of the profile", Limits.Product(p ?? 3, perPeriod), Limits.MaxProfilePoints,
                     "a picture at most 8000 pixels wide cannot show more points; draw fewer periods");
             }
+            var stackPeriods = p ?? (structure.Stack is null ? 10 : null);
             var plot = kind switch
             {
                 "dispersion" => Dispersion(structure, n),
                 "dos" => Dos(structure, n, energies),
-                "profile" => Profile(structure, n, p == 0 ? 3 : p),
-                _ => Transmission(structure, n, p == 0 ? structure.Stack?.Parts[0].Repetitions ?? 10 : p, energies, TransmissionCommand.ChooseBias(u, structure)),
+                "profile" => Profile(structure, n, p ?? 3),
+                "stack" => Stack(structure, stackPeriods, TransmissionCommand.ChooseBias(u, structure)),
+                "iv" => CurrentVoltage(structure, stackPeriods, IvBias(u, structure), mu!.Value,
+                    t ?? structure.Materials?.TemperatureKelvin ?? throw new UsageException("give --temperature K (the structure file has no material temperature).")),
+                _ => Transmission(structure, n, stackPeriods, energies, TransmissionCommand.ChooseBias(u, structure)),
             };
             Save(plot, path, extension, w, h);
             Console.Error.WriteLine($"wrote {Common.Printable(path)}");
             return 0;
         });
         return command;
+    }
+
+    /// <summary>The largest bias of the I–V curve: --bias, else the file's stack.bias; it must not be 0.</summary>
+    private static double IvBias(double? option, StructureDefinition structure)
+    {
+        var (u, source) = TransmissionCommand.ChooseBias(option, structure);
+        return u != 0 ? u : throw new UsageException($"--show iv draws J from 0 to the bias: give --bias U (eV); {source} is 0.");
     }
 
     private static void Save(Plot plot, string path, string extension, int width, int height)
@@ -113,31 +147,32 @@ internal static class PlotCommand
     private static Plot NewPlot(string title, string xLabel, string yLabel)
     {
         var plot = new Plot();
-        plot.Title(title, size: 16);
+        // Long titles (structure names are free text) are wrapped after the first ": " rather than cut off.
+        var colon = title.IndexOf(": ", StringComparison.Ordinal);
+        plot.Title(title.Length > 70 && colon > 0 ? title[..colon] + "\n" + title[(colon + 2)..] : title, size: title.Length > 70 ? 13 : 16);
         plot.XLabel(xLabel, size: 14);
         plot.YLabel(yLabel, size: 14);
         return plot;
     }
 
     /// <summary>The energy window shown: from the lowest potential to just above the highest band drawn.</summary>
-    private static (double Low, double High) EnergyWindow(BandStructure bands)
+    private static (double Low, double High) EnergyWindow(BandStructure bands, EnergyUnit unit)
     {
-        var low = Math.Min(bands.Cell.MinimumPotential.ElectronVolts, bands.Bands[0].BottomElectronVolts);
-        var high = bands.Bands[^1].TopElectronVolts;
+        var low = unit.From(Math.Min(bands.Cell.MinimumPotential.ElectronVolts, bands.Bands[0].BottomElectronVolts));
+        var high = unit.From(bands.Bands[^1].TopElectronVolts);
         var margin = 0.08 * (high - low);
         return (low - margin, high + margin);
     }
 
-    private static void ShadeGaps(Plot plot, BandStructure bands, double left, double right, double low, double high)
+    private static void ShadeGaps(Plot plot, (double Bottom, double Top)[] bands, double left, double right, double low, double high)
     {
         var lower = low;
-        for (var i = 0; i < bands.Bands.Count; i++)
+        foreach (var (bottom, top) in bands)
         {
-            var bottom = bands.Bands[i].BottomElectronVolts;
             Shade(plot, left, right, lower, bottom, GapColor);
-            lower = bands.Bands[i].TopElectronVolts;
+            lower = top;
         }
-        Shade(plot, left, right, lower, Math.Min(high, bands.Gaps[^1].UpperElectronVolts), GapColor);
+        Shade(plot, left, right, lower, high, GapColor);
     }
 
     private static void Shade(Plot plot, double left, double right, double bottom, double top, Color color)
@@ -151,14 +186,24 @@ internal static class PlotCommand
         rectangle.LineStyle.Width = 0;
     }
 
+    /// <summary>The energy unit of a plot's energy axis (DisplayUnits: meV for a superlattice, E_R for cold atoms), so ticks are readable at any magnitude.</summary>
+    private static EnergyUnit AxisUnit(StructureDefinition structure, BandStructure bands) =>
+        DisplayUnits.Energy(structure.Cell, bands.Bands.SelectMany(b => new[] { b.BottomElectronVolts, b.TopElectronVolts }));
+
+    /// <summary>A copy of <paramref name="bands"/>' edges in <paramref name="unit"/> for drawing.</summary>
+    private static (double Bottom, double Top)[] Edges(BandStructure bands, EnergyUnit unit) =>
+        bands.Bands.Select(b => (unit.From(b.BottomElectronVolts), unit.From(b.TopElectronVolts))).ToArray();
+
     private static Plot Dispersion(StructureDefinition structure, int count)
     {
         var bands = Solver.Compute(structure.Cell, count).Structure;
+        var unit = AxisUnit(structure, bands);
         var (k, e) = DispersionCommand.Compute(bands, 201);
+        e = e.Select(band => band.Select(unit.From).ToArray()).ToArray();
         var zone = Math.PI / bands.PeriodNanometres;
-        var (low, high) = EnergyWindow(bands);
-        var plot = NewPlot($"E(k): {structure.Name}", "Bloch wavevector k (1/nm)", "Energy E (eV)");
-        ShadeGaps(plot, bands, -zone, zone, low, high);
+        var (low, high) = EnergyWindow(bands, unit);
+        var plot = NewPlot($"E(k): {structure.Name}", "Bloch wavevector k (1/nm)", $"Energy E ({unit.Symbol})");
+        ShadeGaps(plot, Edges(bands, unit), -zone, zone, low, high);
         // Mirror the grid onto [−π/d, 0]: E(−k) = E(k).
         var mirrored = k.Reverse().Select(x => -x).Concat(k.Skip(1)).ToArray();
         for (var n = 0; n < e.Length; n++)
@@ -172,7 +217,7 @@ internal static class PlotCommand
         var edge2 = plot.Add.VerticalLine(zone);
         edge1.Color = edge2.Color = Colors.Gray;
         edge1.LinePattern = edge2.LinePattern = LinePattern.Dashed;
-        plot.Add.Text("gaps shaded", -0.97 * zone, high - 0.02 * (high - low)).LabelFontSize = 12;
+        plot.Add.Text("shaded: the gaps between the bands drawn" + (unit.Note is { } note ? "; " + note : ""), -0.97 * zone, high - 0.02 * (high - low)).LabelFontSize = 12;
         plot.Axes.SetLimits(-zone * 1.02, zone * 1.02, low, high);
         return plot;
     }
@@ -180,13 +225,14 @@ internal static class PlotCommand
     private static Plot Dos(StructureDefinition structure, int count, double[]? energies)
     {
         var bands = Solver.Compute(structure.Cell, count).Structure;
-        var (low, high) = EnergyWindow(bands);
+        var unit = AxisUnit(structure, bands);
+        var (low, high) = EnergyWindow(bands, unit);
         if (energies is not null)
         {
-            low = energies.Min();
-            high = energies.Max();
+            low = unit.From(energies.Min());
+            high = unit.From(energies.Max());
         }
-        var plot = NewPlot($"Density of states: {structure.Name}", "DOS g(E) (1/(eV nm), spin included)", "Energy E (eV)");
+        var plot = NewPlot($"Density of states: {structure.Name}", "DOS g(E) (1/(eV nm), spin included)", $"Energy E ({unit.Symbol})");
         // One curve per band, so nothing is drawn across a gap. Without a user grid, each band gets
         // Chebyshev-spaced points (dense near its edges, where g has its 1/sqrt(E - E_edge) divergence).
         var curves = new List<(double[] E, double[] G)>();
@@ -219,37 +265,44 @@ internal static class PlotCommand
                 cap = Math.Max(cap, 4 * centre);
             }
         }
-        ShadeGaps(plot, bands, 0, cap * 1.1, low, high);
+        ShadeGaps(plot, Edges(bands, unit), 0, cap * 1.1, low, high);
         foreach (var (e, g) in curves)
         {
-            var line = plot.Add.ScatterLine(g.Select(x => Math.Min(x, cap * 1.2)).ToArray(), e);
+            var line = plot.Add.ScatterLine(g.Select(x => Math.Min(x, cap * 1.2)).ToArray(), e.Select(unit.From).ToArray());
             line.LineWidth = 2;
             line.Color = LineColor;
         }
-        plot.Add.Text("gaps shaded; g diverges at every band edge (axis capped)", 0.02 * cap, high - 0.02 * (high - low)).LabelFontSize = 12;
+        plot.Add.Text("shaded: the gaps between the bands drawn; g diverges at every band edge (axis capped)", 0.02 * cap, high - 0.02 * (high - low)).LabelFontSize = 12;
         plot.Axes.SetLimits(0, cap, low, high);
         return plot;
     }
 
-    private static Plot Transmission(StructureDefinition structure, int count, int periods, double[]? energies, (double ElectronVolts, string Source) bias)
+    private static Plot Transmission(StructureDefinition structure, int count, int? periods, double[]? energies, (double ElectronVolts, string Source) bias)
     {
         var bands = Solver.Compute(structure.Cell, count).Structure;
-        var (low, high) = EnergyWindow(bands);
-        energies ??= Enumerable.Range(0, 3001).Select(i => low + (high - low) * i / 3000.0).ToArray();
-        low = energies.Min();
-        high = energies.Max();
-        var (stack, results) = TransmissionCommand.Compute(structure, periods, energies, null, null, bias);
+        var unit = AxisUnit(structure, bands);
+        var (lowUnit, highUnit) = EnergyWindow(bands, unit);
+        energies ??= Enumerable.Range(0, 3001).Select(i => (lowUnit + (highUnit - lowUnit) * i / 3000.0) * unit.ElectronVolts).ToArray();
+        var (layers, source) = StackOptions.Choose(structure, periods, null, null);
+        var (stack, results) = TransmissionCommand.Compute(layers, energies, bias);
+        var low = unit.From(energies.Min());
+        var high = unit.From(energies.Max());
         // log10 T, with closed leads (T = 0 exactly) left out rather than drawn at -infinity.
         var open = results.Where(r => r.IsOpen && double.IsFinite(r.Log10Transmission)).ToArray();
-        var x = open.Select(r => r.EnergyElectronVolts).ToArray();
+        var x = open.Select(r => unit.From(r.EnergyElectronVolts)).ToArray();
         var y = open.Select(r => r.Log10Transmission).ToArray();
         var floor = y.Length == 0 ? -10 : Math.Max(Math.Floor(y.Min()) - 0.5, -300);
-        var plot = NewPlot(string.Create(CultureInfo.InvariantCulture, $"Transmission of {periods} periods{(bias.ElectronVolts == 0 ? "" : string.Create(CultureInfo.InvariantCulture, $" at eU = {bias.ElectronVolts:G4} eV"))}: {structure.Name}"), "Energy E (eV)", "Transmission T (log scale)");
-        foreach (var band in bands.Bands)
+        var plot = NewPlot(string.Create(CultureInfo.InvariantCulture, $"Transmission of {StackOptions.Describe(layers)}{(bias.ElectronVolts == 0 ? "" : string.Create(CultureInfo.InvariantCulture, $" at eU = {bias.ElectronVolts:G4} eV"))}: {structure.Name}"), $"Energy E ({unit.Symbol})", "Transmission T (log scale)");
+        // Minibands belong to an infinite superlattice: shade them only for a stack of repeated cells at zero bias.
+        var periodic = layers.Parts.Count == 1 && layers.Parts[0].IsRepeatedCell && bias.ElectronVolts == 0;
+        if (periodic)
         {
-            var strip = plot.Add.Rectangle(band.BottomElectronVolts, Math.Max(band.TopElectronVolts, band.BottomElectronVolts + 1e-4 * (high - low)), floor, 0.5);
-            strip.FillStyle.Color = BandColor;
-            strip.LineStyle.Width = 0;
+            foreach (var (bottom, top) in Edges(bands, unit))
+            {
+                var strip = plot.Add.Rectangle(bottom, Math.Max(top, bottom + 1e-4 * (high - low)), floor, 0.5);
+                strip.FillStyle.Color = BandColor;
+                strip.LineStyle.Width = 0;
+            }
         }
         var line = plot.Add.ScatterLine(x, y.Select(v => Math.Max(v, floor)).ToArray());
         line.LineWidth = 1.5f;
@@ -262,12 +315,99 @@ internal static class PlotCommand
         };
         plot.Axes.Left.TickGenerator = ticks;
         var lead = stack.Stack.LeftLead;
-        var note = plot.Add.Text(string.Create(CultureInfo.InvariantCulture, $"minibands of the infinite crystal shaded; leads V = {lead.Potential.ElectronVolts:G4} eV, m = {lead.Mass.ElectronMasses:G4} m0"),
+        var note = plot.Add.Text(string.Create(CultureInfo.InvariantCulture,
+            $"{(periodic ? "shaded: minibands of the infinite superlattice of this cell" : "no shading: the stack is not a plain superlattice at zero bias")}; leads V = {lead.Potential.ElectronVolts:G4} eV, m = {lead.Mass.ElectronMasses:G4} m0"),
             high - 0.01 * (high - low), floor + 0.02 * (0.5 - floor));
         note.LabelFontSize = 11;
         note.LabelAlignment = Alignment.LowerRight;
         note.LabelBackgroundColor = Colors.White.WithAlpha(0.8);
         plot.Axes.SetLimits(low, high, floor, 0.5);
+        return plot;
+    }
+
+    /// <summary>
+    /// The file's stack (or N periods): V(x) under the bias, the bound states at zero bias drawn at their energies with
+    /// |ψ|² on top (scaled to a tenth of the potential range), and the transmission peaks as dashed lines across the stack.
+    /// </summary>
+    private static Plot Stack(StructureDefinition structure, int? periods, (double ElectronVolts, string Source) bias)
+    {
+        var (layers, source) = StackOptions.Choose(structure, periods, null, null);
+        var (xs, vs) = StackOptions.Profile(layers, bias.ElectronVolts);
+        var length = layers.ThicknessNanometres;
+        var leftEdge = layers.LeftLead.Potential.ElectronVolts;
+        var rightEdge = layers.RightLead.Potential.ElectronVolts - bias.ElectronVolts;
+        var all = vs.Append(leftEdge).Append(rightEdge).ToArray();
+        double vMin = all.Min(), vMax = all.Max();
+        var unit = DisplayUnits.Energy(structure.Cell, all);
+        var range = Math.Max(vMax - vMin, 1e-300);
+        var margin = 0.2 * length;
+        var x = new List<double> { -margin, 0 };
+        var v = new List<double> { leftEdge, leftEdge };
+        x.AddRange(xs);
+        v.AddRange(vs);
+        x.AddRange([length, length + margin]);
+        v.AddRange([rightEdge, rightEdge]);
+        var plot = NewPlot(string.Create(CultureInfo.InvariantCulture, $"{StackOptions.Describe(layers)}{(bias.ElectronVolts == 0 ? "" : $", eU = {bias.ElectronVolts:G4} eV")}: {structure.Name}"),
+            "Position x (nm)", $"Energy ({unit.Symbol})");
+        var profile = plot.Add.ScatterLine(x.ToArray(), v.Select(unit.From).ToArray());
+        profile.LineWidth = 2.5f;
+        profile.Color = ProfileColor;
+        var notes = new List<string>();
+        if (bias.ElectronVolts == 0)
+        {
+            var spectrum = LevelsCommand.Find(layers);
+            var grid = LevelsCommand.Grid(spectrum, 801, margin);
+            var peak = grid.Values.Select(psi => psi.Max(p => p * p)).DefaultIfEmpty(1).Max();
+            for (var n = 0; n < spectrum.Levels.Count && n < 40; n++)
+            {
+                var e = spectrum.Levels[n].EnergyElectronVolts;
+                var level = plot.Add.HorizontalLine(unit.From(e));
+                level.Color = Colors.Gray;
+                level.LinePattern = LinePattern.Dotted;
+                var density = grid.Values[n].Select(p => unit.From(e + 0.1 * range * p * p / peak)).ToArray();
+                var curve = plot.Add.ScatterLine(grid.Positions, density);
+                curve.Color = LineColor;
+                curve.LineWidth = 1.5f;
+            }
+            notes.Add(string.Create(CultureInfo.InvariantCulture, $"{Common.Plural(spectrum.Levels.Count, "bound state")}: |psi|^2 drawn at its energy"));
+        }
+        else
+        {
+            notes.Add("bound states not drawn under bias (the leads are open)");
+        }
+        var top = vMax + 0.5 * range;
+        var transmission = TransmissionCommand.Compile(layers, bias.ElectronVolts, bias.Source);
+        var peaks = transmission.FindResonances(vMin, top).Resonances;
+        foreach (var r in peaks.Take(40))
+        {
+            var line = plot.Add.HorizontalLine(unit.From(r.EnergyElectronVolts));
+            line.Color = Colors.DarkOrange;
+            line.LinePattern = LinePattern.Dashed;
+        }
+        notes.Add(string.Create(CultureInfo.InvariantCulture, $"{Common.Plural(peaks.Count, "transmission peak")} dashed"));
+        if (unit.Note is { } unitNote)
+        {
+            notes.Add(unitNote);
+        }
+        var text = plot.Add.Text(string.Join("; ", notes), -0.95 * margin, unit.From(top) - 0.02 * unit.From(range));
+        text.LabelFontSize = 11;
+        plot.Axes.SetLimits(-margin, length + margin, unit.From(vMin - 0.08 * range), unit.From(top));
+        return plot;
+    }
+
+    /// <summary>The current density J(U) from U = 0 to the bias, 41 points: the I–V curve of the stack.</summary>
+    private static Plot CurrentVoltage(StructureDefinition structure, int? periods, double bias, double fermiLevel, double kelvin)
+    {
+        var (layers, _) = StackOptions.Choose(structure, periods, null, null);
+        var biases = Enumerable.Range(0, 41).Select(i => bias * i / 40.0).ToArray();
+        var rows = CurrentCommand.Compute(layers, biases, fermiLevel, kelvin);
+        var plot = NewPlot(string.Create(CultureInfo.InvariantCulture, $"I-V at T = {kelvin:G4} K, Fermi level {fermiLevel:G4} eV: {structure.Name}"), "Bias eU (eV)", "Current density J (A/cm2)");
+        var line = plot.Add.ScatterLine(biases, rows.Select(r => r.AmperesPerSquareCentimetre).ToArray());
+        line.LineWidth = 2f;
+        line.Color = LineColor;
+        line.MarkerSize = 4;
+        var note = plot.Add.Text("Tsu-Esaki: coherent transport, uniform field, no space charge: a design guide", 0.02 * bias, rows.Max(r => r.AmperesPerSquareCentimetre));
+        note.LabelFontSize = 11;
         return plot;
     }
 
@@ -319,15 +459,21 @@ internal static class PlotCommand
                 }
             }
         }
-        var (low, high) = EnergyWindow(bands);
-        high = Math.Max(high, cell.MaximumPotential.ElectronVolts + 0.08 * (high - low));
-        var plot = NewPlot($"Potential and minibands: {structure.Name}", "Position x (nm)", "Energy (eV)");
+        var unit = AxisUnit(structure, bands);
+        var (low, high) = EnergyWindow(bands, unit);
+        high = Math.Max(high, unit.From(cell.MaximumPotential.ElectronVolts) + 0.08 * (high - low));
+        for (var i = 0; i < vs.Count; i++)
+        {
+            vs[i] = unit.From(vs[i]);
+        }
+        var plot = NewPlot($"Potential and minibands: {structure.Name}", "Position x (nm)", $"Energy ({unit.Symbol})");
         foreach (var band in bands.Bands)
         {
             // A band narrower than the line width is drawn at a visible minimum thickness (its label gives the width).
-            Shade(plot, 0, periods * d, band.BottomElectronVolts, Math.Max(band.TopElectronVolts, band.BottomElectronVolts + 0.006 * (high - low)), BandColor.WithAlpha(0.8));
-            var label = plot.Add.Text(string.Create(CultureInfo.InvariantCulture, $"band {band.Index}: {band.WidthElectronVolts * 1e3:G4} meV wide"),
-                periods * d * 1.005, 0.5 * (band.BottomElectronVolts + band.TopElectronVolts));
+            double bottom = unit.From(band.BottomElectronVolts), top = unit.From(band.TopElectronVolts);
+            Shade(plot, 0, periods * d, bottom, Math.Max(top, bottom + 0.006 * (high - low)), BandColor.WithAlpha(0.8));
+            var label = plot.Add.Text(string.Create(CultureInfo.InvariantCulture, $"band {band.Index}: {top - bottom:G4} {unit.Symbol} wide"),
+                periods * d * 1.005, 0.5 * (bottom + top));
             label.LabelFontSize = 11;
             label.LabelAlignment = Alignment.MiddleLeft;
         }
@@ -343,11 +489,11 @@ internal static class PlotCommand
         if (deltas.Count > 0)
         {
             var s0 = deltas[0].S;
-            var note = plot.Add.Text(string.Create(CultureInfo.InvariantCulture, $"delta {(s0 > 0 ? "barrier" : "well")} {s0:G4} eV nm"), deltas[0].X + 0.01 * periods * d, low + 0.1 * (high - low));
-            note.LabelFontSize = 11;
+            var deltaNote = plot.Add.Text(string.Create(CultureInfo.InvariantCulture, $"delta {(s0 > 0 ? "barrier" : "well")} {s0:G4} eV nm"), deltas[0].X + 0.01 * periods * d, low + 0.1 * (high - low));
+            deltaNote.LabelFontSize = 11;
         }
         plot.Axes.SetLimits(-0.02 * periods * d, periods * d * 1.3, low, high);
-        plot.Add.Text("minibands shaded", 0.01 * periods * d, high - 0.02 * (high - low)).LabelFontSize = 12;
+        plot.Add.Text("shaded: minibands of the infinite superlattice of this cell" + (unit.Note is { } note ? "; " + note : ""), 0.01 * periods * d, high - 0.02 * (high - low)).LabelFontSize = 12;
         return plot;
     }
 }

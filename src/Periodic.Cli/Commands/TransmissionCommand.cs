@@ -17,13 +17,14 @@ internal static class TransmissionCommand
     public static Command Create()
     {
         var file = Common.FileArgument();
-        var periods = new Option<int?>("--periods", "-N") { Description = "Number of unit cells in the finite stack (1 to 1,000,000); default: the file's stack.periods." };
+        var periods = new Option<int?>("--periods", "-N") { Description = "Use N periods of the cell (1 to 1,000,000) instead of the file's stack." };
         var grid = new EnergyGridOptions();
         var leadPotential = Common.NumberOption("--lead-potential", "eV", "0", "Potential of both leads, eV (default: the file's stack, else the first layer's).");
         var leadMass = Common.NumberOption("--lead-mass", "m0", "0.067", "Effective mass in both leads, m0 (default: the file's stack, else the first layer's).");
         var bias = BiasOption();
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
+        var output = Common.OutOption();
         var command = new Command("transmission", "Transmission and reflection of a finite stack of N periods between two uniform leads.");
         command.Arguments.Add(file);
         command.Options.Add(periods);
@@ -33,6 +34,7 @@ internal static class TransmissionCommand
         command.Options.Add(bias);
         command.Options.Add(json);
         command.Options.Add(csv);
+        command.Options.Add(output);
         command.SetAction(result =>
         {
             var format = Common.Format(result, json, csv);
@@ -53,9 +55,8 @@ internal static class TransmissionCommand
                 Limits.CheckMass("--lead-mass", m);
             }
             var structure = Common.Load(result.GetValue(file)!);
-            var periodCount = n ?? structure.Stack?.Parts[0].Repetitions
-                ?? throw new UsageException("give --periods N (the structure file has no \"stack\" with periods).");
-            Common.Emit(Render(structure, periodCount, energies, potential, mass, ChooseBias(result.GetValue(bias), structure), format), null);
+            var (stack, source) = Physics.StackOptions.Choose(structure, n, potential, mass);
+            Write(structure, stack, source, energies, ChooseBias(result.GetValue(bias), structure), format, result.GetValue(output));
             return 0;
         });
         return command;
@@ -123,15 +124,14 @@ internal static class TransmissionCommand
         return Lead.Create(Energy.FromElectronVolts(v.Value), EffectiveMass.FromElectronMasses(m.Value));
     }
 
-    public static (StackTransmission Stack, TransmissionResult[] Results) Compute(StructureDefinition structure, int periods, double[] energies, double? potential, double? mass,
-        (double ElectronVolts, string Source) bias)
+    public static (StackTransmission Stack, TransmissionResult[] Results) Compute(LayerStack layers, double[] energies, (double ElectronVolts, string Source) bias)
     {
         if (bias.ElectronVolts != 0)
         {
-            Limits.CheckWork("energies × stack elements under bias", Limits.Product(energies.Length, Limits.Product(periods, structure.Cell.Elements.Count)),
+            Limits.CheckWork("energies × stack elements under bias", Limits.Product(energies.Length, layers.ElementCount),
                 Limits.MaxBiasedTransmissionWork, "under bias every energy walks every element of the stack (about 1.1 µs each)");
         }
-        var transmission = Compile(BuildStack(structure, periods, potential, mass), bias.ElectronVolts, bias.Source);
+        var transmission = Compile(layers, bias.ElectronVolts, bias.Source);
         var results = new TransmissionResult[energies.Length];
         using var progress = new Progress("transmission", energies.Length);
         for (var i = 0; i < energies.Length; i++)
@@ -145,23 +145,19 @@ internal static class TransmissionCommand
         return (transmission, results);
     }
 
-    public static string Render(StructureDefinition structure, int periods, double[] energies, double? potential, double? mass,
-        (double ElectronVolts, string Source) bias, OutputFormat format)
+    public static void Write(StructureDefinition structure, LayerStack layers, string source, double[] energies,
+        (double ElectronVolts, string Source) bias, OutputFormat format, string? outPath)
     {
-        var (stack, results) = Compute(structure, periods, energies, potential, mass, bias);
+        var (stack, results) = Compute(layers, energies, bias);
         var lead = stack.Stack.LeftLead;
+        var warnings = Common.CheckEnergies(structure, energies);
         if (format == OutputFormat.Json)
         {
-            return Common.Json(w =>
+            Common.Emit(Common.Json(w =>
             {
-                Common.StructureHeader(w, structure);
+                Common.StructureHeader(w, structure, warnings);
                 Common.Units(w, ("energy", "eV"), ("transmission", "1"), ("reflection", "1"), ("potential", "eV"), ("mass", "m0"), ("thickness", "nm"), ("period", "nm"), ("bias", "eV"));
-                w.WriteStartObject("stack");
-                w.WriteNumber("periods", periods);
-                w.WriteNumber("thickness", stack.Stack.ThicknessNanometres);
-                w.WriteNumber("bias", stack.Bias.ElectronVolts);
-                Common.Leads(w, stack.Stack);
-                w.WriteEndObject();
+                Common.StackObject(w, stack.Stack, source, stack.Bias.ElectronVolts);
                 w.WriteStartArray("points");
                 foreach (var r in results)
                 {
@@ -174,19 +170,18 @@ internal static class TransmissionCommand
                     w.WriteEndObject();
                 }
                 w.WriteEndArray();
-            });
+            }), outPath);
+            return;
         }
-        var table = new Table("energy (eV)", "transmission", "reflection", "log10 T");
+        var unit = DisplayUnits.Energy(structure.Cell, energies);
+        var table = new Table(Column.Energy("energy", unit), new Column("transmission", Format: "G8"), new Column("reflection", Format: "G8"), new Column("log10 T", Format: "F3"));
         foreach (var r in results)
         {
-            table.Add(Table.Number(r.EnergyElectronVolts, "F6"), Table.Number(r.Transmission, "G8"), Table.Number(r.Reflection, "G8"), Table.Number(r.Log10Transmission, "F3"));
+            table.Add(r.EnergyElectronVolts, r.Transmission, r.Reflection, r.Log10Transmission);
         }
-        if (format == OutputFormat.Csv)
-        {
-            return table.ToCsv();
-        }
-        var title = Common.TableTitle(structure) + string.Create(CultureInfo.InvariantCulture,
-            $"{periods} period(s), {stack.Stack.ThicknessNanometres:G6} nm, leads V = {lead.Potential.ElectronVolts:G6} eV, m = {lead.Mass.ElectronMasses:G6} m0, bias eU = {stack.Bias.ElectronVolts:G6} eV\n");
-        return title + "\n" + table.ToText();
+        var title = Common.TableTitle(structure, unit) + string.Create(CultureInfo.InvariantCulture,
+            $"Stack: {source}: {Physics.StackOptions.Describe(layers)}; {stack.Stack.ThicknessNanometres:G6} nm, leads V = {lead.Potential.ElectronVolts:G6} eV, m = {lead.Mass.ElectronMasses:G6} m0, bias eU = {stack.Bias.ElectronVolts:G6} eV\n")
+            + "log10 T: empty in CSV (null in JSON) where T = 0 (a lead closed).\n";
+        Common.EmitTable(table, format, title, outPath);
     }
 }

@@ -1,10 +1,13 @@
 // SPDX-License-Identifier: MIT
 // Copyright (c) 2026 Periodic contributors
 
+using System.Globalization;
 using Periodic.Bands;
 using Periodic.Properties;
 using Periodic.Structures;
 using Periodic.Units;
+
+using Periodic.Cli.Commands;
 
 namespace Periodic.Cli.Physics;
 
@@ -17,8 +20,18 @@ internal static class PointQuantities
     public readonly record struct Values(double Energy, double Dos, double Wavevector, double Decay, double Slope);
 
     /// <summary>Band properties valid up to (and beyond) <paramref name="highestEnergyElectronVolts"/>.</summary>
-    public static BandProperties PropertiesUpTo(UnitCell cell, double highestEnergyElectronVolts) =>
-        BandProperties.Create(Solver.ComputeBelow(cell, highestEnergyElectronVolts).Structure);
+    public static BandProperties PropertiesUpTo(UnitCell cell, double highestEnergyElectronVolts)
+    {
+        try
+        {
+            return BandProperties.Create(Solver.ComputeBelow(cell, highestEnergyElectronVolts).Structure);
+        }
+        catch (ArgumentOutOfRangeException e)
+        {
+            throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                $"the highest energy asked for ({highestEnergyElectronVolts:R} eV, --to or --energies) lies above more bands than are computed at once (at most 10000): {Common.Describe(e).Replace("energyLimit", "the energy", StringComparison.Ordinal)} Choose a lower energy."));
+        }
+    }
 
     public static Values At(BandProperties properties, double energyElectronVolts)
     {

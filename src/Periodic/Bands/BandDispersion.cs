@@ -3,6 +3,7 @@
 
 using System.Globalization;
 using System.Numerics.Tensors;
+using System.Runtime.CompilerServices;
 using Periodic.Numerics;
 
 namespace Periodic.Bands;
@@ -126,6 +127,19 @@ public sealed class BandDispersion
         ArgumentNullException.ThrowIfNull(bands);
         var band = bands.GetBand(bandIndex);
         Preconditions.CheckRange(absoluteToleranceElectronVolts, 1e-15, 1e-3);
+        return CreateCore(bands, bandIndex, band, absoluteToleranceElectronVolts);
+    }
+
+    /// <summary>
+    /// Inverts band <paramref name="bandIndex"/> to the accuracy of the structure's own root search (no
+    /// requested tolerance, so cells whose energies lie far below 1 eV, cold atoms at 1e-11 eV, keep their
+    /// relative accuracy): the default path of <see cref="BandStructure.EnergiesAt"/>.
+    /// </summary>
+    internal static BandDispersion CreateAtSearchAccuracy(BandStructure bands, int bandIndex) =>
+        CreateCore(bands, bandIndex, bands.GetBand(bandIndex), 0.0);
+
+    private static BandDispersion CreateCore(BandStructure bands, int bandIndex, Band band, double absoluteToleranceElectronVolts)
+    {
         // Never ask the series to be better than the root search that supplies its nodes (its options'
         // tolerances), nor than rounding: otherwise noise in the nodes would force endless splitting.
         var magnitude = Math.Max(Math.Abs(band.BottomElectronVolts), Math.Abs(band.TopElectronVolts));
@@ -163,6 +177,8 @@ public sealed class BandDispersion
     /// at the same address.
     /// </summary>
     /// <exception cref="ArgumentException">The destination is shorter than the input, or a wavevector is outside the first zone.</exception>
+    // Straight to optimised code: a short-lived process (the command-line tool) evaluates millions of points before tiered compilation would promote it.
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public void EnergiesAt(ReadOnlySpan<double> wavevectorsPerNanometre, Span<double> destination)
     {
         Preconditions.CheckDestination(wavevectorsPerNanometre.Length, destination.Length, nameof(wavevectorsPerNanometre), nameof(destination));
@@ -170,22 +186,22 @@ public sealed class BandDispersion
         {
             return;
         }
-        var largest = TensorPrimitives.MaxMagnitude(wavevectorsPerNanometre);
-        if (!(Math.Abs(largest) * _period <= MaxPhase))
+        // Every wavevector is checked before anything is written (no partial output on a bad element).
+        for (var j = 0; j < wavevectorsPerNanometre.Length; j++)
         {
-            for (var j = 0; j < wavevectorsPerNanometre.Length; j++)
+            var k = wavevectorsPerNanometre[j];
+            if (!(Math.Abs(k) * _period <= MaxPhase))
             {
-                var k = wavevectorsPerNanometre[j];
-                if (!(Math.Abs(k) * _period <= MaxPhase))
-                {
-                    throw ZoneError(nameof(wavevectorsPerNanometre), string.Create(CultureInfo.InvariantCulture, $"wavevectorsPerNanometre[{j}]"), k);
-                }
+                throw ZoneError(nameof(wavevectorsPerNanometre), string.Create(CultureInfo.InvariantCulture, $"wavevectorsPerNanometre[{j}]"), k);
             }
         }
         var output = destination[..wavevectorsPerNanometre.Length];
-        // x = cos(|k| d), vectorised; cos is even, so |k| is not needed.
-        TensorPrimitives.Multiply(wavevectorsPerNanometre, _period, output);
-        TensorPrimitives.Cos(output, output);
+        // x = cos(|k| d); cos is even, so |k| is not needed. A scalar loop rather than TensorPrimitives: the vector
+        // kernels run unoptimised (tier 0) for their first calls, which in a short-lived process costs more than they save.
+        for (var j = 0; j < output.Length; j++)
+        {
+            output[j] = Math.Cos(wavevectorsPerNanometre[j] * _period);
+        }
         // Four points per step when they share a piece: their Clenshaw recurrences are independent
         // chains, which the processor overlaps (one chain alone is latency bound).
         var i = 0;
@@ -224,6 +240,7 @@ public sealed class BandDispersion
 
     private double EnergyAtCosine(double x) => EnergyInPiece(PieceOf(x), x);
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private int PieceOf(double x)
     {
         int low = 0, high = _degrees.Length - 1;
@@ -254,6 +271,7 @@ public sealed class BandDispersion
         return Clenshaw(_offsets[piece], degree, t);
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private double Clenshaw(int offset, int degree, double t)
     {
         var c = _coefficients.AsSpan(offset, degree + 1);
@@ -269,6 +287,7 @@ public sealed class BandDispersion
     }
 
     /// <summary>Clenshaw's recurrence for four arguments at once (per argument the arithmetic of <see cref="Clenshaw"/>).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private void ClenshawQuad(int offset, int degree, double t0, double t1, double t2, double t3, Span<double> destination)
     {
         var c = _coefficients.AsSpan(offset, degree + 1);

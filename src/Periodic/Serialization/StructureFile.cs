@@ -25,6 +25,9 @@ namespace Periodic.Serialization;
 /// </remarks>
 public static partial class StructureFile
 {
+    /// <summary>Most parts in a file's <c>stack.parts</c> (a part may itself repeat the cell a million times).</summary>
+    private const int MaxStackParts = 10_000;
+
     private static readonly Dictionary<string, double> LengthUnits = new(StringComparer.Ordinal)
     {
         ["nm"] = 1.0, ["Å"] = 0.1, ["A"] = 0.1, ["angstrom"] = 0.1, ["pm"] = 1e-3, ["um"] = 1e3, ["µm"] = 1e3,
@@ -237,18 +240,28 @@ public static partial class StructureFile
         /// <see cref="StackTransmission.MaxBiasedElements"/> elements) here, without computing anything, so the error
         /// names the field.
         /// </summary>
-        private (LayerStack? Stack, Energy Bias) ReadStack(Dictionary<string, JsonTreeProperty> fields, UnitCell cell)
+        private (LayerStack? Stack, Energy Bias) ReadStack(Dictionary<string, JsonTreeProperty> fields, UnitCell cell, BuiltStructure? built = null)
         {
             if (!fields.TryGetValue("stack", out var property))
             {
                 return (null, default);
             }
             var obj = ExpectObject(property.Value, "stack");
-            var stackFields = Fields(obj, "stack", ["periods", "leads", "leftLead", "rightLead", "bias"]);
-            var periodsNode = Required(stackFields, obj, "stack", "periods");
-            if (periodsNode is not JsonTreeNumber { Value: var periods } || periods != Math.Floor(periods) || periods < 1 || periods > 1_000_000)
+            var stackFields = Fields(obj, "stack", ["periods", "parts", "leads", "leftLead", "rightLead", "bias"]);
+            List<StackPart>? parts = null;
+            var periods = 0.0;
+            if (stackFields.TryGetValue("parts", out var partsProperty))
             {
-                throw Error(periodsNode, "stack.periods", "must be a whole number of periods from 1 to 1000000.");
+                parts = ReadStackParts(partsProperty.Value, stackFields, cell, built);
+            }
+            else
+            {
+                var periodsNode = Required(stackFields, obj, "stack", "periods", " (or \"parts\")");
+                if (periodsNode is not JsonTreeNumber { Value: var p } || p != Math.Floor(p) || p < 1 || p > 1_000_000)
+                {
+                    throw Error(periodsNode, "stack.periods", "must be a whole number of periods from 1 to 1000000.");
+                }
+                periods = p;
             }
             if (stackFields.TryGetValue("leads", out var both) && (stackFields.ContainsKey("leftLead") || stackFields.ContainsKey("rightLead")))
             {
@@ -261,9 +274,11 @@ public static partial class StructureFile
                     ?? throw ErrorAt(property.NameOffset, field, "is required: the cell has no uniform layer to take the lead's potential and mass from (give \"leads\": {\"potential\": ..., \"mass\": ...}).");
                 return Lead.Create(first.Potential, first.Mass);
             }
-            var left = both is not null ? ReadLead(both.Value, "stack.leads") : stackFields.TryGetValue("leftLead", out var l) ? ReadLead(l.Value, "stack.leftLead") : Fallback("stack.leftLead");
-            var right = both is not null ? left : stackFields.TryGetValue("rightLead", out var r) ? ReadLead(r.Value, "stack.rightLead") : Fallback("stack.rightLead");
-            var stack = Apply(obj, "stack", () => LayerStack.Periodic(left, cell, (int)periods, right));
+            var left = both is not null ? ReadLead(both.Value, "stack.leads", built) : stackFields.TryGetValue("leftLead", out var l) ? ReadLead(l.Value, "stack.leftLead", built) : Fallback("stack.leftLead");
+            var right = both is not null ? left : stackFields.TryGetValue("rightLead", out var r) ? ReadLead(r.Value, "stack.rightLead", built) : Fallback("stack.rightLead");
+            var stack = parts is not null
+                ? Apply(obj, "stack.parts", () => LayerStack.Create(left, parts, right))
+                : Apply(obj, "stack", () => LayerStack.Periodic(left, cell, (int)periods, right));
             var bias = Energy.FromElectronVolts(0);
             if (stackFields.TryGetValue("bias", out var b))
             {
@@ -276,9 +291,13 @@ public static partial class StructureFile
             return (stack, bias);
         }
 
-        private Lead ReadLead(JsonTreeNode node, string path)
+        private Lead ReadLead(JsonTreeNode node, string path, BuiltStructure? built)
         {
             var obj = ExpectObject(node, path);
+            if (obj.Properties.Exists(p => p.Name == "material"))
+            {
+                return ReadMaterialLead(obj, path, built);
+            }
             var leadFields = Fields(obj, path, ["potential", "mass"]);
             var potential = ReadQuantity(Required(leadFields, obj, path, "potential"), path + ".potential", EnergyUnits, "eV", "eV, meV");
             var massNode = Required(leadFields, obj, path, "mass");
@@ -288,6 +307,79 @@ public static partial class StructureFile
                 throw Error(massNode, path + ".mass", $"must be positive; got {Format(mass)} m0.");
             }
             return Apply(obj, path, () => Lead.Create(Energy.FromElectronVolts(potential), EffectiveMass.FromElectronMasses(mass)));
+        }
+
+        /// <summary>
+        /// <c>"parts": [...]</c>: the stack as a sequence of single layers or deltas (as in <c>cell</c>; for a cell of material
+        /// layers also <c>{"material": ..., "width": ...}</c>) and repeated cells <c>{"repeat": N}</c> (N periods of the file's cell),
+        /// for spacers, cap and emitter layers and defects. Not together with <c>periods</c>.
+        /// </summary>
+        private List<StackPart> ReadStackParts(JsonTreeNode node, Dictionary<string, JsonTreeProperty> stackFields, UnitCell cell, BuiltStructure? built)
+        {
+            if (stackFields.TryGetValue("periods", out var periods))
+            {
+                throw ErrorAt(periods.NameOffset, "stack.periods", "give either periods or parts, not both (the part {\"repeat\": N} repeats the cell N times).");
+            }
+            if (node is not JsonTreeArray array || array.Items.Count == 0 || array.Items.Count > MaxStackParts)
+            {
+                throw Error(node, "stack.parts", string.Create(CultureInfo.InvariantCulture,
+                    $"must be an array of 1 to {MaxStackParts} parts: layers, deltas or {{\"repeat\": N}}; got {(node is JsonTreeArray a ? a.Items.Count + " parts" : node.KindName)}."));
+            }
+            var parts = new List<StackPart>(array.Items.Count);
+            for (var i = 0; i < array.Items.Count; i++)
+            {
+                var path = string.Create(CultureInfo.InvariantCulture, $"stack.parts[{i}]");
+                var obj = ExpectObject(array.Items[i], path);
+                if (obj.Properties.Exists(p => p.Name == "repeat"))
+                {
+                    var f = Fields(obj, path, ["repeat", "label"]);
+                    if (f["repeat"].Value is not JsonTreeNumber { Value: var n } || n != Math.Floor(n) || n < 1 || n > 1_000_000)
+                    {
+                        throw Error(f["repeat"].Value, path + ".repeat", "must be a whole number of periods of the cell from 1 to 1000000.");
+                    }
+                    parts.Add(StackPart.Repeat(cell, (int)n));
+                }
+                else if (obj.Properties.Exists(p => p.Name == "material"))
+                {
+                    if (built is null)
+                    {
+                        throw Error(obj, path + ".material", "applies only to a cell of material layers; give width, potential and mass instead.");
+                    }
+                    var f = Fields(obj, path, ["material", "width", "label"]);
+                    var material = ReadMaterial(f["material"].Value, path + ".material");
+                    var widthNode = Required(f, obj, path, "width");
+                    var width = ReadQuantity(widthNode, path + ".width", LengthUnits, "nm", "nm, Å, pm, µm");
+                    if (width <= 0)
+                    {
+                        throw Error(widthNode, path + ".width", $"must be positive; got {Format(width)} nm.");
+                    }
+                    // The material's layer on the cell's energy reference, as the cell's own material layers are built.
+                    parts.Add(Apply(widthNode, path + ".width", () => StackPart.Single(built.LayerOf(material, Length.FromNanometres(width)))));
+                }
+                else
+                {
+                    var (element, _) = ReadElement(obj, path);
+                    parts.Add(Apply(obj, path, () => StackPart.Single(element)));
+                }
+            }
+            return parts;
+        }
+
+        /// <summary><c>{"material": "Al0.3Ga0.7As"}</c>: a lead of a material's band edge and band-edge mass, for a cell of material layers.</summary>
+        private Lead ReadMaterialLead(JsonTreeObject obj, string path, BuiltStructure? built)
+        {
+            var fields = Fields(obj, path, ["material"]);
+            if (built is null)
+            {
+                throw Error(fields["material"].Value, path + ".material", "applies only to a cell of material layers; give potential and mass instead.");
+            }
+            var material = ReadMaterial(fields["material"].Value, path + ".material");
+            // A lead of the material's band edge and band-edge mass (leads are parabolic), as a layer of it would have.
+            return Apply(fields["material"].Value, path + ".material", () =>
+            {
+                var layer = built.LayerOf(material, Length.FromNanometres(1));
+                return Lead.Create(layer.Potential, layer.Mass);
+            });
         }
 
         /// <summary>A cell of material layers, built by <see cref="StructureRecipe"/> (potentials and masses from the material table).</summary>
@@ -368,7 +460,7 @@ public static partial class StructureFile
                 recipe = recipe.Add(layer);
             }
             var built = Apply(array, "cell", recipe.Build);
-            var (stack, bias) = ReadStack(fields, built.Cell);
+            var (stack, bias) = ReadStack(fields, built.Cell, built);
             return new StructureDefinition(name, description, built.Cell, labels, sourceName, built, stack, bias);
         }
 

@@ -77,7 +77,9 @@ public sealed class BandsCommandTest
         var run = ToolRunner.Invoke("bands", ToolRunner.Example("superlattice.json"), "--count", "3");
         Assert.Equal(0, run.ExitCode);
         var lines = run.Stdout.Split('\n', StringSplitOptions.RemoveEmptyEntries);
-        var header = Array.FindIndex(lines, l => l.Contains("bottom (eV)", StringComparison.Ordinal));
+        // Edges from 54 meV to 1 eV: the table chooses meV for every energy column (widths and gaps too).
+        var header = Array.FindIndex(lines, l => l.Contains("bottom (meV)", StringComparison.Ordinal));
+        Assert.Contains("width (meV)", lines[header], StringComparison.Ordinal);
         Assert.True(header >= 0, run.Stdout);
         Assert.Contains("(m0)", lines[header], StringComparison.Ordinal);
         Assert.Equal(3, lines.Length - header - 2);
@@ -106,11 +108,16 @@ public sealed class BandsCommandTest
         var example = ToolRunner.Invoke("example");
         var bands = BandStructure.Compute(StructureFile.Parse(example.Stdout, "example").Cell, 4);
         var lines = run.Stdout.Split('\n');
+        // The table's energy unit, from its header (eV or meV, chosen by the magnitudes).
+        var scale = Array.Exists(lines, l => l.Contains("bottom (meV)", StringComparison.Ordinal)) ? 1e-3 : 1.0;
+        Assert.True(scale == 1e-3 || Array.Exists(lines, l => l.Contains("bottom (eV)", StringComparison.Ordinal)), run.Stdout);
         foreach (var band in bands.Bands)
         {
             var row = Array.Find(lines, l => l.TrimStart().StartsWith(band.Index.ToString(CultureInfo.InvariantCulture) + " ", StringComparison.Ordinal));
             Assert.NotNull(row);
-            Assert.Contains(band.BottomElectronVolts.ToString("F6", CultureInfo.InvariantCulture), row, StringComparison.Ordinal);
+            // The table shows 7 significant digits of the largest edge: 1e-6 eV covers the rounding.
+            var shown = double.Parse(row.Split(' ', StringSplitOptions.RemoveEmptyEntries)[1], CultureInfo.InvariantCulture);
+            Assert.Equal(band.BottomElectronVolts, shown * scale, 1e-6);
         }
         Assert.Equal(string.Empty, run.Stderr);
     }
@@ -153,5 +160,87 @@ public sealed class BandsSmoothTest
         Assert.Equal(1.85910807 * eps, bands[1].GetProperty("bottom").GetDouble(), 1e-8 * eps);
         Assert.Equal(3.91702477 * eps, bands[1].GetProperty("top").GetDouble(), 1e-8 * eps);
         Assert.True(run.Json().GetProperty("accuracy").GetProperty("converged").GetBoolean());
+    }
+
+    [Fact]
+    public void Bands_Csv_EqualsJsonBitForBit()
+    {
+        var file = ToolRunner.Example("superlattice.json");
+        var json = ToolRunner.Invoke("bands", file, "--count", "3", "--json").Json().GetProperty("bands");
+        var rows = ToolRunner.Invoke("bands", file, "--count", "3", "--csv").Stdout.Split('\n', StringSplitOptions.RemoveEmptyEntries);
+        Assert.Equal("band,bottom (eV),top (eV),width (eV),m* bottom (m0),m* top (m0),gap above (eV)", rows[0]);
+        for (var n = 0; n < 3; n++)
+        {
+            var cells = rows[n + 1].Split(',').Select(c => double.Parse(c, CultureInfo.InvariantCulture)).ToArray();
+            Assert.Equal(json[n].GetProperty("bottom").GetDouble(), cells[1]);
+            Assert.Equal(json[n].GetProperty("top").GetDouble(), cells[2]);
+            Assert.Equal(json[n].GetProperty("width").GetDouble(), cells[3]);
+            Assert.Equal(json[n].GetProperty("massAtBottom").GetDouble(), cells[4]);
+            Assert.Equal(json[n].GetProperty("massAtTop").GetDouble(), cells[5]);
+        }
+    }
+
+    [Fact]
+    public void Bands_MaterialCell_ShowsLayerTableAndWarningsEverywhere()
+    {
+        var file = ToolRunner.Example("gaas-algaas.json");
+        var table = ToolRunner.Invoke("bands", file);
+        Assert.Equal(0, table.ExitCode);
+        // The derived layer table: material, width, V, m*, non-parabolicity, band gap.
+        Assert.Contains("Al0.3Ga0.7As", table.Stdout, StringComparison.Ordinal);
+        Assert.Contains("Eg (eV)", table.Stdout, StringComparison.Ordinal);
+        Assert.Contains("T = 77 K", table.Stdout, StringComparison.Ordinal);
+        // The model's warnings on the band edges (single-band model poor far above the well's edge) reach stderr …
+        Assert.Contains("parabolic mass is no longer reliable", table.Stderr, StringComparison.Ordinal);
+        var json = ToolRunner.Invoke("bands", file, "--json").Json().GetProperty("structure");
+        // … and the JSON, with the layers.
+        Assert.Contains(json.GetProperty("warnings").EnumerateArray(), w => w.GetString()!.Contains("parabolic mass is no longer reliable", StringComparison.Ordinal));
+        var layers = json.GetProperty("layers").EnumerateArray().ToArray();
+        Assert.Equal(2, layers.Length);
+        Assert.Equal("GaAs", layers[0].GetProperty("material").GetString());
+        // Vurgaftman et al. (2001): GaAs band gap at 77 K from Varshni, Eg = 1.519 − 0.5405e-3·77²/(77 + 204) eV.
+        Assert.Equal(1.519 - 0.5405e-3 * 77 * 77 / (77 + 204), layers[0].GetProperty("bandGap").GetDouble(), 1e-12);
+    }
+
+    [Fact]
+    public void EveryCommand_WritesNoParenthesisedPlurals()
+    {
+        var file = ToolRunner.Example("double-barrier-diode.json");
+        foreach (var args in new[]
+        {
+            new[] { "bands", file }, ["transmission", file, "--from", "0.01", "--to", "0.3", "--points", "3"],
+            ["current", file, "--bias", "0.1", "--temperature", "77", "--fermi-level", "0.02"], ["levels", file, "--lead-potential", "0.3"],
+        })
+        {
+            var run = ToolRunner.Invoke(args);
+            Assert.True(run.ExitCode == 0, run.Stderr);
+            Assert.DoesNotContain("(s)", run.Stdout, StringComparison.Ordinal);
+        }
+    }
+
+    [Fact]
+    public void Bands_ColdAtomCell_TableInRecoilEnergiesIsReadable()
+    {
+        // ⁸⁷Rb (86.909 u, u/m_e = 1822.888 from CODATA 2018) in a 532 nm lattice (d = 266 nm), depth 5 E_R, as 64 sampled steps.
+        var mass = 86.909180 * 1822.888486;
+        var recoil = Math.Pow(6.62607015e-34 / (2 * Math.PI), 2) / (2 * 9.1093837015e-31) / 1.602176634e-19 * 1e18 * Math.Pow(Math.PI / 266, 2) / mass;
+        var layers = string.Join(",", Enumerable.Range(0, 64).Select(i =>
+            string.Create(CultureInfo.InvariantCulture, $"{{\"width\": {266.0 / 64:R}, \"potential\": {5 * recoil * Math.Pow(Math.Sin(Math.PI * (i + 0.5) / 64), 2):R}, \"mass\": {mass:R}}}")));
+        var file = ToolRunner.TempFile($"{{\"name\": \"rubidium lattice\", \"cell\": [{layers}]}}");
+        var run = ToolRunner.Invoke("bands", file, "--count", "3");
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        Assert.Contains("bottom (E_R)", run.Stdout, StringComparison.Ordinal);
+        Assert.Contains("recoil units", run.Stdout, StringComparison.Ordinal);
+        var json = ToolRunner.Invoke("bands", file, "--count", "3", "--json").Json().GetProperty("bands");
+        var lines = run.Stdout.Split('\n');
+        for (var n = 0; n < 3; n++)
+        {
+            var row = Array.Find(lines, l => l.TrimStart().StartsWith((n + 1).ToString(CultureInfo.InvariantCulture) + " ", StringComparison.Ordinal))!;
+            var shown = double.Parse(row.Split(' ', StringSplitOptions.RemoveEmptyEntries)[1], CultureInfo.InvariantCulture);
+            var bottom = json[n].GetProperty("bottom").GetDouble();
+            // Readable: the bottom in E_R to 7 significant digits of the column's largest value (a few E_R), not 0.000000.
+            Assert.True(shown > 0.1, row);
+            Assert.Equal(bottom / recoil, shown, 1e-5);
+        }
     }
 }

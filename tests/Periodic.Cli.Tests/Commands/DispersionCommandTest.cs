@@ -51,4 +51,64 @@ public sealed class DispersionCommandTest
         Assert.Contains("does not exist", run.Stderr, StringComparison.Ordinal);
         Assert.False(File.Exists(target));
     }
+
+    [Fact]
+    public void Dispersion_LongGrid_CsvEqualsJsonAndLibraryBitForBit()
+    {
+        // 1201 points: beyond BandStructure.FastPathMinimumPoints, so the Chebyshev inversion is used and reported.
+        var file = ToolRunner.Example("superlattice.json");
+        var json = ToolRunner.Invoke("dispersion", file, "--count", "3", "--points", "1201", "--json").Json();
+        Assert.Equal("chebyshev", json.GetProperty("accuracy").GetProperty("method").GetString());
+        var bands = BandStructure.Compute(StructureFile.Load(file).Cell, 3);
+        var k = json.GetProperty("wavevectors").EnumerateArray().Select(x => x.GetDouble()).ToArray();
+        var csv = ToolRunner.Invoke("dispersion", file, "--count", "3", "--points", "1201", "--csv").Stdout.Split('\n', StringSplitOptions.RemoveEmptyEntries);
+        Assert.Equal("k (1/nm),kd/pi,E1 (eV),E2 (eV),E3 (eV)", csv[0]);
+        Assert.Equal(1202, csv.Length);
+        for (var n = 1; n <= 3; n++)
+        {
+            var expected = new double[k.Length];
+            bands.EnergiesAt(n, k, expected);
+            var band = json.GetProperty("bands")[n - 1];
+            Assert.Equal(expected, band.GetProperty("energies").EnumerateArray().Select(x => x.GetDouble()).ToArray());
+            Assert.Equal(bands.DispersionOf(n).ErrorEstimateElectronVolts, band.GetProperty("errorEstimate").GetDouble());
+            for (var i = 0; i < k.Length; i += 97)
+            {
+                var cells = csv[i + 1].Split(',');
+                Assert.Equal(k[i], double.Parse(cells[0], System.Globalization.CultureInfo.InvariantCulture));
+                Assert.Equal(expected[i], double.Parse(cells[n + 1], System.Globalization.CultureInfo.InvariantCulture));
+            }
+        }
+    }
+
+    [Theory]
+    [InlineData("10000001", "--points must be between 2 and 10000000; got 10000001.")]
+    [InlineData("1", "--points must be between 2 and 10000000; got 1.")]
+    public void Dispersion_PointsOutOfRange_ExitsTwoWithoutFile(string points, string message)
+    {
+        var directory = Path.GetDirectoryName(ToolRunner.TempFile("{}"))!;
+        var target = Path.Combine(directory, "e.csv");
+        var run = ToolRunner.Invoke("dispersion", ToolRunner.Example("superlattice.json"), "--points", points, "--csv", "--out", target);
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains(message, run.Stderr, StringComparison.Ordinal);
+        Assert.False(File.Exists(target));
+    }
+
+    [Theory]
+    [InlineData("bands")]
+    [InlineData("dos", "--from", "0.01", "--to", "0.3", "--points", "5")]
+    [InlineData("transmission", "--from", "0.01", "--to", "0.3", "--points", "5", "--periods", "3")]
+    public void Out_EveryFormat_WritesWhatStdoutWould(string command, params string[] options)
+    {
+        var file = ToolRunner.Example("superlattice.json");
+        foreach (var format in new[] { "--csv", "--json", "" })
+        {
+            var directory = Path.GetDirectoryName(ToolRunner.TempFile("{}"))!;
+            var target = Path.Combine(directory, "out.txt");
+            string[] args = [command, file, .. options, .. format.Length > 0 ? new[] { format } : []];
+            var toFile = ToolRunner.Invoke([.. args, "--out", target]);
+            Assert.True(toFile.ExitCode == 0, toFile.Stderr);
+            Assert.Equal(string.Empty, toFile.Stdout);
+            Assert.Equal(ToolRunner.Invoke(args).Stdout, File.ReadAllText(target));
+        }
+    }
 }

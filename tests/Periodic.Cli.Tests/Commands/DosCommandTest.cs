@@ -93,7 +93,8 @@ public sealed class DosCommandTest
         var rows = run.Stdout.Split('\n', StringSplitOptions.RemoveEmptyEntries);
         Assert.Equal(51, rows.Length);
         Assert.StartsWith("energy (eV),dos (1/(eV nm))", rows[0], StringComparison.Ordinal);
-        Assert.StartsWith("0.010000,", rows[1], StringComparison.Ordinal);
-        Assert.StartsWith("0.500000,", rows[50], StringComparison.Ordinal);
+        // Full round-trip precision: the grid ends are written exactly as given.
+        Assert.StartsWith("0.01,", rows[1], StringComparison.Ordinal);
+        Assert.StartsWith("0.5,", rows[50], StringComparison.Ordinal);
     }
 }
