@@ -80,7 +80,14 @@ internal static class BandsCommand
                 {
                     // Smooth segments: edges from step-halving refinement (RefinedBandStructure).
                     w.WriteBoolean("converged", solved.Converged);
-                    w.WriteNumber("magnusSteps", solved.MagnusSteps);
+                    if (solved.PlaneWaves > 0)
+                    {
+                        w.WriteNumber("planeWaves", solved.PlaneWaves); // one Fourier segment: spectral edges
+                    }
+                    else
+                    {
+                        w.WriteNumber("magnusSteps", solved.MagnusSteps);
+                    }
                 }
                 w.WriteEndObject();
             });

@@ -94,7 +94,7 @@ internal static class PlotCommand
         return command;
     }
 
-    private static void Save(Plot plot, string path, string extension, int width, int height)
+    internal static void Save(Plot plot, string path, string extension, int width, int height)
     {
         if (extension == ".svg")
         {
@@ -107,7 +107,7 @@ internal static class PlotCommand
         }
     }
 
-    private static Plot NewPlot(string title, string xLabel, string yLabel)
+    internal static Plot NewPlot(string title, string xLabel, string yLabel)
     {
         var plot = new Plot();
         plot.Title(title, size: 16);

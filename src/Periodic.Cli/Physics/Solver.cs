@@ -3,6 +3,7 @@
 
 using System.Globalization;
 using Periodic.Bands;
+using Periodic.PlaneWaves;
 using Periodic.Structures;
 using Periodic.Units;
 
@@ -10,12 +11,17 @@ namespace Periodic.Cli.Physics;
 
 /// <summary>
 /// Chooses the band solver: cells of layers and deltas are solved exactly by <see cref="BandStructure"/>;
-/// cells with smooth segments go through <see cref="RefinedBandStructure"/>, which halves the Magnus steps
-/// until every edge meets the relative tolerance, so the tool never reports a discretised answer as exact.
+/// a cell of one Fourier-series segment goes to <see cref="SpectralBandStructure"/> (plane waves, chosen by
+/// <see cref="SpectralBandStructure.AppliesTo"/>); other cells with smooth segments go through <see cref="RefinedBandStructure"/>,
+/// which halves the Magnus steps until every edge meets the relative tolerance, so the tool never reports a discretised answer as exact.
 /// </summary>
 internal static class Solver
 {
-    public sealed record Result(BandStructure Bands, double MaxEdgeErrorElectronVolts, bool Refined, bool Converged, long MagnusSteps);
+    public sealed record Result(BandStructure Bands, double MaxEdgeErrorElectronVolts, bool Refined, bool Converged, long MagnusSteps)
+    {
+        /// <summary>Plane-wave basis size when the edges came from the spectral path (0 otherwise).</summary>
+        public int PlaneWaves { get; init; }
+    }
 
     public static bool HasSmoothSegments(UnitCell cell) => cell.Elements.Any(e => e is not Layer and not DeltaBarrier);
 
@@ -25,6 +31,17 @@ internal static class Solver
         {
             var exact = BandStructure.Compute(cell, count);
             return new Result(exact, exact.MaxEdgeErrorElectronVolts, false, true, 0);
+        }
+        if (SpectralBandStructure.AppliesTo(cell, count))
+        {
+            // One Fourier-series segment (optical and Mathieu lattices): exponentially convergent plane-wave edges.
+            var spectral = SpectralBandStructure.Compute(cell, count);
+            if (!spectral.Converged)
+            {
+                Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,
+                    $"periodic: warning: the plane-wave edges did not converge to {spectral.RelativeTolerance:G2} relative; edge errors up to {spectral.MaxEdgeErrorElectronVolts:G3} eV."));
+            }
+            return new Result(spectral.Bands, spectral.MaxEdgeErrorElectronVolts, true, spectral.Converged, 0) { PlaneWaves = spectral.BasisSize };
         }
         var refined = RefinedBandStructure.Compute(cell, count);
         if (!refined.Converged)
