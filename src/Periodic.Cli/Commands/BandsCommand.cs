@@ -92,6 +92,10 @@ internal static class BandsCommand
                 w.WriteEndObject();
             });
         }
+        if (structure.OpticalLattice is { } lattice)
+        {
+            return LatticeOutput.Bands(structure, lattice, bands, format); // recoil energies and atom masses
+        }
         var table = new Table("band", "bottom (eV)", "top (eV)", "width (meV)", "m* bottom (m0)", "m* top (m0)", "gap above (meV)");
         foreach (var band in bands.Bands)
         {

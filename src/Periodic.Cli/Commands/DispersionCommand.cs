@@ -96,6 +96,10 @@ internal static class DispersionCommand
                 w.WriteEndArray();
             });
         }
+        if (structure.OpticalLattice is { } lattice)
+        {
+            return LatticeOutput.Dispersion(structure, lattice, bands, k, e, format); // q/k_L and recoil energies
+        }
         var headers = new List<string> { "k (1/nm)", "kd/pi" };
         headers.AddRange(Enumerable.Range(1, e.Length).Select(n => string.Create(CultureInfo.InvariantCulture, $"E{n} (eV)")));
         var table = new Table([.. headers]);

@@ -82,7 +82,7 @@ internal static class PlotCommand
             var structure = Common.Load(result.GetValue(file)!);
             var plot = kind switch
             {
-                "dispersion" => Dispersion(structure, n),
+                "dispersion" => structure.OpticalLattice is { } lattice ? LatticeOutput.DispersionPlot(structure, lattice, n) : Dispersion(structure, n),
                 "dos" => Dos(structure, n, energies),
                 "profile" => Profile(structure, n, p == 0 ? 3 : p),
                 _ => Transmission(structure, n, p == 0 ? structure.Stack?.Parts[0].Repetitions ?? 10 : p, energies, TransmissionCommand.ChooseBias(u, structure)),
