@@ -281,7 +281,7 @@ internal static class HubbardCommand
             var j = r.Wannier.HoppingElectronVolts;
             table.Add(Table.Integer(r.BandIndex), Table.Number(j[0] * f, "G6"), Table.Number(j[1] * f, "G4"), Table.Number(j[2] * f, "G4"),
                 Table.Number(r.Wannier.OnSiteIntegralPerNanometre, "G8"), Table.Number(Math.Sqrt(r.Wannier.SpreadNanometresSquared), "G6"),
-                Table.Number(r.InteractionElectronVolts * f, "G6"), Table.Number(r.InteractionOverTunnelling, "G6"), Table.Number(r.RatioToCritical, "G4"),
+                Table.Number(r.InteractionElectronVolts * f, "G6"), Table.Number(r.InteractionToTunnellingRatio, "G6"), Table.Number(r.RatioToCritical, "G4"),
                 Table.Number(r.GapAboveElectronVolts * f, "G6"), Table.Number(r.AdiabaticTimeSeconds * 1e3, "G4"));
         }
         if (format == OutputFormat.Csv)
@@ -316,7 +316,7 @@ internal static class HubbardCommand
         foreach (var r in results)
         {
             table.Add(Table.Number(r.Lattice.DepthInRecoilEnergies, "G6"), Table.Number(r.TunnellingElectronVolts * f, "G6"), Table.Number(r.InteractionElectronVolts * f, "G6"),
-                Table.Number(r.InteractionOverTunnelling, "G6"), Table.Number(r.RatioToCritical, "G4"), Table.Number(r.GapAboveElectronVolts * f, "G6"),
+                Table.Number(r.InteractionToTunnellingRatio, "G6"), Table.Number(r.RatioToCritical, "G4"), Table.Number(r.GapAboveElectronVolts * f, "G6"),
                 Table.Number(r.AdiabaticTimeSeconds * 1e3, "G4"));
         }
         if (format == OutputFormat.Csv)
@@ -358,7 +358,7 @@ internal static class HubbardCommand
         w.Number("wannierIntegral", wannier.OnSiteIntegralPerNanometre);
         w.Number("spread", wannier.SpreadNanometresSquared);
         w.Number("interaction", r.InteractionElectronVolts);
-        w.Number("interactionOverTunnelling", r.InteractionOverTunnelling);
+        w.Number("interactionOverTunnelling", r.InteractionToTunnellingRatio);
         w.Number("ratioToCritical", r.RatioToCritical);
         w.Number("gapAbove", r.GapAboveElectronVolts);
         w.Number("adiabaticTime", r.AdiabaticTimeSeconds);

@@ -98,13 +98,13 @@ public sealed class HubbardParameters
     public double InteractionElectronVolts { get; }
 
     /// <summary>U/J.</summary>
-    public double InteractionOverTunnelling => InteractionElectronVolts / TunnellingElectronVolts;
+    public double InteractionToTunnellingRatio => InteractionElectronVolts / TunnellingElectronVolts;
 
     /// <summary>(U/J)_c of the geometry: <see cref="CriticalRatioCubic"/> or <see cref="CriticalRatioOneDimensional"/>.</summary>
     public double CriticalRatio => Confinement.IsCubicLattice ? CriticalRatioCubic : CriticalRatioOneDimensional;
 
     /// <summary>(U/J)/(U/J)_c: below 1 superfluid, above 1 Mott insulator (unit filling, lowest band).</summary>
-    public double RatioToCritical => InteractionOverTunnelling / CriticalRatio;
+    public double RatioToCritical => InteractionToTunnellingRatio / CriticalRatio;
 
     /// <summary>Where <see cref="CriticalRatio"/> comes from.</summary>
     public string CriticalRatioSource => Confinement.IsCubicLattice
@@ -184,5 +184,5 @@ public sealed class HubbardParameters
 
     /// <inheritdoc />
     public override string ToString() => string.Create(CultureInfo.InvariantCulture,
-        $"Hubbard band {BandIndex}, s = {Lattice.DepthInRecoilEnergies:G6}: J = {Lattice.ToRecoilEnergies(TunnellingElectronVolts):G6} E_R, U = {Lattice.ToRecoilEnergies(InteractionElectronVolts):G6} E_R, U/J = {InteractionOverTunnelling:G6} ({RatioToCritical:G4} of critical), gap {Lattice.ToRecoilEnergies(GapAboveElectronVolts):G6} E_R");
+        $"Hubbard band {BandIndex}, s = {Lattice.DepthInRecoilEnergies:G6}: J = {Lattice.ToRecoilEnergies(TunnellingElectronVolts):G6} E_R, U = {Lattice.ToRecoilEnergies(InteractionElectronVolts):G6} E_R, U/J = {InteractionToTunnellingRatio:G6} ({RatioToCritical:G4} of critical), gap {Lattice.ToRecoilEnergies(GapAboveElectronVolts):G6} E_R");
 }

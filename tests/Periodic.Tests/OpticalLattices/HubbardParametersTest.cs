@@ -29,7 +29,7 @@ public sealed class HubbardParametersTest(ITestOutputHelper output)
             var u = lattice.ToRecoilEnergies(hubbard.InteractionElectronVolts);
             var harmonic = Math.Sqrt(8 / Math.PI) * lattice.LatticeWavenumberPerNanometre * a.Nanometres * Math.Pow(s, 0.75);
             var deviation = harmonic / u - 1;
-            output.WriteLine($"s = {s}: U = {u:G8} E_R, harmonic {harmonic:G8}, high by {deviation:P2}; U/J = {hubbard.InteractionOverTunnelling:G6}");
+            output.WriteLine($"s = {s}: U = {u:G8} E_R, harmonic {harmonic:G8}, high by {deviation:P2}; U/J = {hubbard.InteractionToTunnellingRatio:G6}");
             Assert.InRange(deviation, 0, 0.5);
             Assert.True(deviation < previous);
             previous = deviation;
@@ -72,7 +72,7 @@ public sealed class HubbardParametersTest(ITestOutputHelper output)
         var a = HubbardParameters.BohrRadii(100);
         var scan = HubbardParameters.Scan(lattice, [5.0, 10.0, 15.0], TransverseConfinement.CubicLattice, a);
         Assert.Equal(3, scan.Count);
-        Assert.True(scan[0].InteractionOverTunnelling < scan[1].InteractionOverTunnelling && scan[1].InteractionOverTunnelling < scan[2].InteractionOverTunnelling);
+        Assert.True(scan[0].InteractionToTunnellingRatio < scan[1].InteractionToTunnellingRatio && scan[1].InteractionToTunnellingRatio < scan[2].InteractionToTunnellingRatio);
         var single = HubbardParameters.Compute(lattice.WithDepth(10), TransverseConfinement.CubicLattice, a);
         Assert.Equal(single.InteractionElectronVolts, scan[1].InteractionElectronVolts);
         // The 3D transition of 87Rb at 1064 nm with a_s ≈ 100 a0 lies between s = 10 and 15 (common practice:
