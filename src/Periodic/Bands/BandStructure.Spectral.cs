@@ -50,4 +50,20 @@ public sealed partial class BandStructure
         var checks = Reconcile(transfer, bands, gaps);
         return new BandStructure(transfer, bands, gaps, DefaultOptionsFor(transfer), checks);
     }
+
+    /// <summary>
+    /// The largest of <paramref name="edgeErrors"/> relative to max(|E|, <paramref name="scale"/>): entry 2(n − 1) is the
+    /// error of band n's bottom, entry 2n − 1 of its top (the layout of the refined and spectral results).
+    /// </summary>
+    internal double MaxRelativeEdgeError(IReadOnlyList<double> edgeErrors, double scale)
+    {
+        var max = 0.0;
+        for (var i = 0; i < edgeErrors.Count; i++)
+        {
+            var band = _bands[i / 2];
+            var e = i % 2 == 0 ? band.BottomElectronVolts : band.TopElectronVolts;
+            max = Math.Max(max, edgeErrors[i] / Math.Max(Math.Abs(e), scale));
+        }
+        return max;
+    }
 }
