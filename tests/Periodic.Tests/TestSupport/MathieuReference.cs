@@ -10,7 +10,8 @@ namespace Periodic.Tests.TestSupport;
 /// 20.2.5–20.2.11, from memory; the matrix form is the standard numerical method, e.g. S. Zhang and
 /// J. Jin, Computation of Special Functions, 1996, ch. 20). Solved by Sturm-count bisection in 28-digit
 /// decimal arithmetic — a method with nothing in common with the transfer matrix or the library's
-/// plane-wave code, and exact far below double rounding. Validated in the tests against the published
+/// plane-wave code, and exact far below double rounding. (MathNet.Numerics 5.0 offers no Mathieu functions — its
+/// API documentation has none — so the reference is computed here.) Validated in the tests against the published
 /// q = 25 (Zhang and Jin) and q = 5 (Abramowitz and Stegun, Table 20.1) values.
 /// </summary>
 internal static class MathieuReference
