@@ -3,7 +3,7 @@
 
 using Periodic.OpticalLattices;
 using Periodic.PlaneWaves;
-using Periodic.Tests.TestSupport;
+using Periodic.Tests.TestHelpers;
 using Periodic.Units;
 
 namespace Periodic.Tests.OpticalLattices;

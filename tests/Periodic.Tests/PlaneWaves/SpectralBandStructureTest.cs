@@ -3,7 +3,7 @@
 
 using Periodic.PlaneWaves;
 using Periodic.Structures;
-using Periodic.Tests.TestSupport;
+using Periodic.Tests.TestHelpers;
 using Periodic.Units;
 using Xunit.Abstractions;
 

@@ -4,7 +4,7 @@
 using System.Numerics;
 using MathNet.Numerics.LinearAlgebra;
 
-namespace Periodic.Tests.Properties;
+namespace Periodic.Tests.TestHelpers;
 
 /// <summary>
 /// An independent second method for a cosine potential V(x) = V₀ + V₁cos(2πx/d) with constant mass m: the central

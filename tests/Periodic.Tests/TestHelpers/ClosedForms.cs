@@ -4,7 +4,7 @@
 using System.Numerics;
 using Periodic.Units;
 
-namespace Periodic.Tests.Support;
+namespace Periodic.Tests.TestHelpers;
 
 /// <summary>
 /// Published dispersion relations, written out independently of the library (only the constant
@@ -17,7 +17,7 @@ internal static class ClosedForms
     /// <summary>
     /// cos kd of the two-layer Kronig–Penney cell with BenDaniel–Duke masses: well a (V = 0, mass mw),
     /// barrier b (height v0, mass mb). Kronig &amp; Penney, Proc. R. Soc. A 130, 499 (1931), with
-    /// BenDaniel–Duke matching (Phys. Rev. 152, 683 (1966)); the form of /work/shared/REFERENCES.md:
+    /// BenDaniel–Duke matching (Phys. Rev. 152, 683 (1966)); the form of docs/references.md:
     /// E &lt; V0: cos(kw a) cosh(κb) + ½(ξ − 1/ξ) sin(kw a) sinh(κb), ξ = (κ/mb)/(kw/mw);
     /// E &gt; V0: κ → i kb: cos cos − ½(ξ + 1/ξ) sin sin.
     /// For E &lt; 0 (both evanescent) the same derivation gives cosh cosh + ½(η + 1/η) sinh sinh,

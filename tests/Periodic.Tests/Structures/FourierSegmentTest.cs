@@ -4,7 +4,7 @@
 using Periodic.Structures;
 using Periodic.Units;
 
-namespace Periodic.Tests.Structures.Smooth;
+namespace Periodic.Tests.Structures;
 
 public sealed class FourierSegmentTest
 {
@@ -14,7 +14,7 @@ public sealed class FourierSegmentTest
     public void RecoilEnergy_MatchesDefinition()
     {
         // E_R = ħ²k_L²/2m with k_L = π/d (common practice for optical lattices, no single source);
-        // ħ²/2m0 = 0.03809982116 eV nm² (CODATA 2018, derived in REFERENCES.md), 1e-9 relative for its rounding.
+        // ħ²/2m0 = 0.03809982116 eV nm² (CODATA 2018, derived in docs/references.md), 1e-9 relative for its rounding.
         var expected = 0.03809982116 * Math.PI * Math.PI / (2.0 * 2.0) / 0.5;
         Assert.Equal(expected, FourierSegment.RecoilEnergy(Period, EffectiveMass.FromElectronMasses(0.5)).ElectronVolts, expected * 1e-9);
     }

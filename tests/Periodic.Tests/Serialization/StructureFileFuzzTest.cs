@@ -6,7 +6,7 @@ using System.Text.RegularExpressions;
 using Periodic.Serialization;
 using Xunit.Abstractions;
 
-namespace Periodic.Cli.Tests.Serialization;
+namespace Periodic.Tests.Serialization;
 
 /// <summary>
 /// Fuzz corpus of the structure-file reader: the example files mutated at random (fixed seed, so a failure replays) by
@@ -34,7 +34,7 @@ public sealed partial class StructureFileFuzzTest(ITestOutputHelper output)
     [Fact]
     public void Parse_MutatedExamples_LoadOrFailWithOneLocatedLine()
     {
-        var seeds = Directory.GetFiles(Path.Combine(ToolRunner.RepositoryRoot, "docs", "examples", "structures"), "*.json")
+        var seeds = Directory.GetFiles(Repository.ExampleStructures, "*.json")
             .Order(StringComparer.Ordinal).Select(File.ReadAllBytes).ToArray();
         var hostile = Hostile.Select(Encoding.UTF8.GetBytes).ToArray();
         var random = new Random(20261203);

@@ -5,7 +5,7 @@ using Periodic.Bands;
 using Periodic.Structures;
 using Periodic.Units;
 
-namespace Periodic.Tests.Transfer.Smooth;
+namespace Periodic.Tests.Bands;
 
 /// <summary>The tolerance-driven driver (step halving with Richardson's estimate). Lives with the smooth-transfer tests it serves.</summary>
 public sealed class RefinedBandStructureTest
@@ -29,8 +29,8 @@ public sealed class RefinedBandStructureTest
         for (var i = 0; i < 6; i++)
         {
             var band = i / 2 + 1;
-            double ea = i % 2 == 0 ? a.Bands.GetBand(band).BottomElectronVolts : a.Bands.GetBand(band).TopElectronVolts;
-            double eb = i % 2 == 0 ? b.Bands.GetBand(band).BottomElectronVolts : b.Bands.GetBand(band).TopElectronVolts;
+            double ea = i % 2 == 0 ? a.Structure.GetBand(band).BottomElectronVolts : a.Structure.GetBand(band).TopElectronVolts;
+            double eb = i % 2 == 0 ? b.Structure.GetBand(band).BottomElectronVolts : b.Structure.GetBand(band).TopElectronVolts;
             Assert.True(Math.Abs(ea - eb) <= a.EdgeErrorsElectronVolts[i] + b.EdgeErrorsElectronVolts[i] + 1e-12 * Math.Abs(ea), $"edge {i}: {ea:R} vs {eb:R}");
         }
         Assert.True(a.Refinements >= 1);

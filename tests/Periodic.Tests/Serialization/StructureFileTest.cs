@@ -4,12 +4,11 @@
 using Periodic.Serialization;
 using Periodic.Structures;
 
-namespace Periodic.Cli.Tests.Serialization;
+namespace Periodic.Tests.Serialization;
 
-// The reader lives in the library (Periodic.Serialization) but is tested here with the tool that is
-// its main user; unit conversions are checked against the SI definitions (1 Å = 0.1 nm, 1 meV = 1e-3 eV;
+// The structure-file reader of the library (Periodic.Serialization); unit conversions are checked against the SI definitions (1 Å = 0.1 nm, 1 meV = 1e-3 eV;
 // BIPM SI Brochure, 9th ed., non-SI units table).
-public sealed class StructureFileTest
+public sealed partial class StructureFileTest
 {
     private static Layer LayerAt(StructureDefinition s, int i) => Assert.IsType<Layer>(s.Cell.Elements[i]);
 
@@ -93,7 +92,7 @@ public sealed class StructureFileTest
     [Fact]
     public void Load_Examples_AllParse()
     {
-        var files = Directory.GetFiles(Path.Combine(ToolRunner.RepositoryRoot, "docs", "examples", "structures"), "*.json");
+        var files = Directory.GetFiles(Repository.ExampleStructures, "*.json");
         Assert.NotEmpty(files);
         foreach (var file in files)
         {

@@ -4,7 +4,7 @@
 using Periodic.Structures;
 using Periodic.Units;
 
-namespace Periodic.Tests.Structures.Smooth;
+namespace Periodic.Tests.Structures;
 
 public sealed class FunctionSegmentTest
 {

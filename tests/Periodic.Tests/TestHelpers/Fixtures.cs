@@ -8,7 +8,7 @@ using Periodic.Structures;
 using Periodic.Transfer;
 using Periodic.Units;
 
-namespace Periodic.Tests.Conventions;
+namespace Periodic.Tests.TestHelpers;
 
 /// <summary>
 /// Small, ordinary objects of every layer of the API, built once per test class: a 5 nm well / 2 nm

@@ -4,10 +4,9 @@
 using Periodic.Bands;
 using Periodic.PlaneWaves;
 using Periodic.Structures;
-using Periodic.Tests.TestSupport;
 using Periodic.Units;
 
-namespace Periodic.Tests.Transfer.Smooth;
+namespace Periodic.Tests.Transfer;
 
 /// <summary>The optical lattice s·E_R·sin²(πx/d), s = 1 … 40 (a ⁸⁷Rb-like scenario of our own: d = 532 nm, mass in m₀ units).</summary>
 public sealed class OpticalLatticeTest
@@ -28,14 +27,14 @@ public sealed class OpticalLatticeTest
     [InlineData(40.0)]
     public void Edges_MatchMathieuMapping(double s)
     {
-        // E/E_R = a_r(s/4) + s/2 (REFERENCES.md, derived: s·E_R·sin²(πx/d) = s·E_R/2 − (s·E_R/2)·cos(2πx/d) is the
+        // E/E_R = a_r(s/4) + s/2 (docs/references.md, derived: s·E_R·sin²(πx/d) = s·E_R/2 − (s·E_R/2)·cos(2πx/d) is the
         // cosine lattice of q = s/4 shifted by d/2, which leaves the spectrum unchanged, plus the constant s/2).
         // Independent tridiagonal reference; 1e-10 relative as for the cosine.
         var result = Bands(s, 3);
         var reference = MathieuReference.BandEdges(3, s / 4);
         for (var n = 1; n <= 3; n++)
         {
-            var band = result.Bands.GetBand(n);
+            var band = result.Structure.GetBand(n);
             double expectedBottom = (reference[2 * n - 2] + s / 2) * Recoil, expectedTop = (reference[2 * n - 1] + s / 2) * Recoil;
             Assert.True(Math.Abs(band.BottomElectronVolts - expectedBottom) <= 1e-10 * Math.Max(Recoil, expectedBottom), $"s = {s}, band {n} bottom");
             Assert.True(Math.Abs(band.TopElectronVolts - expectedTop) <= 1e-10 * Math.Max(Recoil, expectedTop), $"s = {s}, band {n} top");
@@ -52,7 +51,7 @@ public sealed class OpticalLatticeTest
     public void PlaneWaveAndTransfer_AgreeOnEveryEdge(double s)
     {
         // Acceptance: two independent methods agree to 1e-9 relative on every edge returned (4 bands).
-        var transfer = Bands(s, 4).Bands;
+        var transfer = Bands(s, 4).Structure;
         var solver = PlaneWaveSolver.Create(FourierSegment.OpticalLattice(Period, s, AtomMass));
         var centre = solver.EnergiesAt(0, 4);
         var boundary = solver.EnergiesAt(Math.PI / Period.Nanometres, 4);
@@ -76,7 +75,7 @@ public sealed class OpticalLatticeTest
         double previousRatio = 0, previousWidth = double.PositiveInfinity;
         foreach (var s in new[] { 10.0, 15.0, 20.0, 30.0, 40.0 })
         {
-            var width = Bands(s, 1).Bands.GetBand(1).WidthElectronVolts / Recoil;
+            var width = Bands(s, 1).Structure.GetBand(1).WidthElectronVolts / Recoil;
             var zwerger = 4 * (4 / Math.Sqrt(Math.PI)) * Math.Pow(s, 0.75) * Math.Exp(-2 * Math.Sqrt(s));
             var ratio = width / zwerger;
             Assert.True(width < previousWidth, $"s = {s}: width {width:G6} not below {previousWidth:G6}");

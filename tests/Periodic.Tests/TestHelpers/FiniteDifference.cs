@@ -3,7 +3,7 @@
 
 using MathNet.Numerics.LinearAlgebra;
 
-namespace Periodic.Tests.Support;
+namespace Periodic.Tests.TestHelpers;
 
 /// <summary>
 /// An independent eigenvalue solver for one period: the BenDaniel–Duke operator −C d/dx (1/m d/dx) + V

@@ -9,7 +9,7 @@ using Periodic.Structures;
 using Periodic.Transfer;
 using Periodic.Units;
 
-namespace Periodic.Tests.Transfer.Smooth;
+namespace Periodic.Tests.Transfer;
 
 public sealed class MagnusSegmentPropagatorTest
 {
@@ -110,7 +110,7 @@ public sealed class MagnusSegmentPropagatorTest
         var scale = transfer.EnergyScaleElectronVolts;
         for (var n = 1; n <= 3; n++)
         {
-            var band = transfer.Bands.GetBand(n);
+            var band = transfer.Structure.GetBand(n);
             double bottom = Math.Min(centre.Energies[n - 1], boundary.Energies[n - 1]);
             double top = Math.Max(centre.Energies[n - 1], boundary.Energies[n - 1]);
             Assert.True(Math.Abs(band.BottomElectronVolts - bottom) <= 1e-9 * Math.Max(scale, Math.Abs(bottom)), $"band {n} bottom {band.BottomElectronVolts:R} vs {bottom:R}");
@@ -126,8 +126,8 @@ public sealed class MagnusSegmentPropagatorTest
         var d = Length.FromNanometres(2);
         var sine = FourierSegment.Create(d, default, [], [0.3], EffectiveMass.FreeElectron);
         var cosine = FourierSegment.Cosine(d, Energy.FromElectronVolts(0.3), EffectiveMass.FreeElectron);
-        var a = RefinedBandStructure.Compute(UnitCell.Create(sine), 3, 1e-12).Bands;
-        var b = RefinedBandStructure.Compute(UnitCell.Create(cosine), 3, 1e-12).Bands;
+        var a = RefinedBandStructure.Compute(UnitCell.Create(sine), 3, 1e-12).Structure;
+        var b = RefinedBandStructure.Compute(UnitCell.Create(cosine), 3, 1e-12).Structure;
         for (var n = 1; n <= 3; n++)
         {
             Assert.Equal(b.GetBand(n).BottomElectronVolts, a.GetBand(n).BottomElectronVolts, 1e-10 * Math.Max(1, Math.Abs(b.GetBand(n).BottomElectronVolts)));

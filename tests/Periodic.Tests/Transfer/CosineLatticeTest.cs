@@ -4,13 +4,12 @@
 using Periodic.Bands;
 using Periodic.PlaneWaves;
 using Periodic.Structures;
-using Periodic.Tests.TestSupport;
 using Periodic.Units;
 
-namespace Periodic.Tests.Transfer.Smooth;
+namespace Periodic.Tests.Transfer;
 
 /// <summary>
-/// The cosine potential V0 cos(2πx/d) through the Mathieu mapping of REFERENCES.md: a = E/E_R, q = V0/(2E_R),
+/// The cosine potential V0 cos(2πx/d) through the Mathieu mapping of docs/references.md: a = E/E_R, q = V0/(2E_R),
 /// E_R = ħ²π²/(2md²); band n = [E_R a_{n−1}, E_R b_n] for q &gt; 0.
 /// </summary>
 public sealed class CosineLatticeTest
@@ -45,7 +44,7 @@ public sealed class CosineLatticeTest
         Assert.True(result.Converged, result.ToString());
         for (var n = 1; n <= 3; n++)
         {
-            var band = result.Bands.GetBand(n);
+            var band = result.Structure.GetBand(n);
             AssertRelative(published[2 * n - 2], band.BottomElectronVolts / Recoil, 1e-9);
             AssertRelative(published[2 * n - 1], band.TopElectronVolts / Recoil, 1e-9);
         }
@@ -61,9 +60,9 @@ public sealed class CosineLatticeTest
         var result = RefinedBandStructure.Compute(Cell(5), 3, 1e-12);
         double[] computed =
         [
-            result.Bands.GetBand(1).BottomElectronVolts, result.Bands.GetBand(1).TopElectronVolts,
-            result.Bands.GetBand(2).BottomElectronVolts, result.Bands.GetBand(2).TopElectronVolts,
-            result.Bands.GetBand(3).BottomElectronVolts,
+            result.Structure.GetBand(1).BottomElectronVolts, result.Structure.GetBand(1).TopElectronVolts,
+            result.Structure.GetBand(2).BottomElectronVolts, result.Structure.GetBand(2).TopElectronVolts,
+            result.Structure.GetBand(3).BottomElectronVolts,
         ];
         for (var i = 0; i < table.Length; i++)
         {
@@ -90,7 +89,7 @@ public sealed class CosineLatticeTest
         Assert.True(result.MaxRelativeError <= 1e-10, result.ToString());
         for (var n = 1; n <= 3; n++)
         {
-            var band = result.Bands.GetBand(n);
+            var band = result.Structure.GetBand(n);
             double bottom = band.BottomElectronVolts / Recoil, top = band.TopElectronVolts / Recoil;
             Assert.True(Math.Abs(bottom - reference[2 * n - 2]) <= 1e-10 * Math.Max(1, Math.Abs(reference[2 * n - 2])),
                 $"q = {q}, band {n} bottom {bottom:R} vs {reference[2 * n - 2]:R}");
@@ -110,8 +109,8 @@ public sealed class CosineLatticeTest
     [InlineData(25.0)]
     public void Compute_CharacteristicValues_AreOrdered(double q)
     {
-        // For q > 0: a0 < b1 < a1 < b2 < a2 < b3 < a3 (Abramowitz & Stegun §20.2, from memory; REFERENCES.md).
-        var bands = RefinedBandStructure.Compute(Cell(q), 4, 1e-10).Bands;
+        // For q > 0: a0 < b1 < a1 < b2 < a2 < b3 < a3 (Abramowitz & Stegun §20.2, from memory; docs/references.md).
+        var bands = RefinedBandStructure.Compute(Cell(q), 4, 1e-10).Structure;
         var edges = bands.Bands.SelectMany(b => new[] { b.BottomElectronVolts, b.TopElectronVolts }).ToArray();
         for (var i = 1; i < edges.Length; i++)
         {
@@ -129,7 +128,7 @@ public sealed class CosineLatticeTest
         // Two independent methods (Magnus transfer matrix, plane-wave central equation) must agree to 1e-9
         // relative (acceptance), relative to max(|E|, E_R) as above. Bands 1–3 (the acceptance range).
         var amplitude = Energy.FromElectronVolts(2 * q * Recoil);
-        var transfer = RefinedBandStructure.Compute(Cell(q), 3, 1e-12).Bands;
+        var transfer = RefinedBandStructure.Compute(Cell(q), 3, 1e-12).Structure;
         var solver = PlaneWaveSolver.Create(FourierSegment.Cosine(Period, amplitude, Mass));
         var centre = solver.EnergiesAt(0, 3);
         var boundary = solver.EnergiesAt(Math.PI / Period.Nanometres, 3);
@@ -150,7 +149,7 @@ public sealed class CosineLatticeTest
         // Abramowitz & Stegun §20.2, from memory), below what the trace resolves; the edge beside it may be placed at the centre of the gap,
         // and the reported error must then cover the distance to the true edge (independent reference).
         var result = RefinedBandStructure.Compute(Cell(0.1), 4, 1e-12);
-        var top = result.Bands.GetBand(4).TopElectronVolts;
+        var top = result.Structure.GetBand(4).TopElectronVolts;
         var reference = MathieuReference.B(4, 0.1) * Recoil;
         Assert.True(Math.Abs(top - reference) <= result.EdgeErrorsElectronVolts[7], $"true error {Math.Abs(top - reference):G3} eV, reported {result.EdgeErrorsElectronVolts[7]:G3} eV");
     }

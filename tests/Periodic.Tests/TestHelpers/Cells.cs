@@ -5,7 +5,7 @@ using Periodic.Bands;
 using Periodic.Structures;
 using Periodic.Units;
 
-namespace Periodic.Tests.Properties;
+namespace Periodic.Tests.TestHelpers;
 
 /// <summary>Cells shared by the property tests (scenarios of our own; parameters are illustrative, not data).</summary>
 internal static class Cells

@@ -5,7 +5,7 @@ using System.Reflection;
 using System.Runtime.CompilerServices;
 using Periodic.Units;
 
-namespace Periodic.Tests;
+namespace Periodic.Tests.Conventions;
 
 /// <summary>Reflection checks of the house conventions over the whole Periodic assembly (STYLE.md).</summary>
 public sealed class ConventionsTest

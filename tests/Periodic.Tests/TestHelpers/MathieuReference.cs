@@ -1,7 +1,7 @@
 // SPDX-License-Identifier: MIT
 // Copyright (c) 2026 Periodic contributors
 
-namespace Periodic.Tests.TestSupport;
+namespace Periodic.Tests.TestHelpers;
 
 /// <summary>
 /// Mathieu characteristic values a_r(q), b_r(q) computed independently of the library: as eigenvalues of
@@ -85,7 +85,7 @@ internal static class MathieuReference
         }
     }
 
-    /// <summary>Edges of bands 1 … n of V0 cos(2πx/d) in units of E_R, in order: band n = [a_{n−1}, b_n] (REFERENCES.md mapping).</summary>
+    /// <summary>Edges of bands 1 … n of V0 cos(2πx/d) in units of E_R, in order: band n = [a_{n−1}, b_n] (docs/references.md mapping).</summary>
     public static double[] BandEdges(int bands, double q)
     {
         var edges = new double[2 * bands];

@@ -7,7 +7,7 @@ using FsCheck.Fluent;
 using Periodic.Structures;
 using Periodic.Units;
 
-namespace Periodic.Tests.Support;
+namespace Periodic.Tests.TestHelpers;
 
 /// <summary>One element of a randomly drawn cell: a layer (width, potential, mass) or a delta (strength).</summary>
 internal sealed record ElementSpec(bool IsDelta, double WidthNanometres, double PotentialElectronVolts, double MassElectronMasses, double StrengthElectronVoltNanometres)

@@ -6,7 +6,7 @@ using Periodic.Serialization;
 using Periodic.Structures;
 using Periodic.Units;
 
-namespace Periodic.Cli.Tests.Serialization;
+namespace Periodic.Tests.Serialization;
 
 public sealed class StructureFileOpticalLatticeTest
 {

@@ -5,7 +5,7 @@ using Periodic.Stacks;
 using Periodic.Structures;
 using Periodic.Units;
 
-namespace Periodic.Tests.Support;
+namespace Periodic.Tests.TestHelpers;
 
 /// <summary>Random stack parts for property tests (sizes typical of semiconductor heterostructures; demo values, not materials).</summary>
 internal static class RandomStacks
