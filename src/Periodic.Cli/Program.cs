@@ -29,6 +29,7 @@ root.Subcommands.Add(PlotCommand.Create());
 root.Subcommands.Add(SweepCommand.Create());
 root.Subcommands.Add(MergeCommand.Create());
 root.Subcommands.Add(DesignCommand.Create());
+root.Subcommands.Add(HubbardCommand.Create());
 root.Subcommands.Add(ExampleCommand.Create());
 root.SetAction(_ =>
 {

@@ -88,9 +88,18 @@ internal static class BandsCommand
                     w.WriteNumber("magnusSteps", solved.MagnusStepCount);
                     w.Number("maxRootFindingError", solved.MaxRootFindingErrorElectronVolts);
                     w.Number("maxDiscretisationError", solved.MaxDiscretisationErrorElectronVolts);
+                    if (solved.Spectral is { } spectral)
+                    {
+                        w.WriteNumber("planeWaves", spectral.BasisSize); // one Fourier segment: spectral edges
+                    }
                 }
                 w.WriteEndObject();
             }), outPath);
+            return;
+        }
+        if (structure.OpticalLattice is { } lattice)
+        {
+            Common.Emit(LatticeOutput.Bands(structure, lattice, bands, format), outPath); // recoil energies and atom masses
             return;
         }
         var unit = DisplayUnits.Energy(structure.Cell, bands.Bands.SelectMany(b => new[] { b.BottomElectronVolts, b.TopElectronVolts }));

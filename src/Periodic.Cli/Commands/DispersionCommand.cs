@@ -130,6 +130,14 @@ internal static class DispersionCommand
             WriteJson(stream, structure, solved, grid, warnings, k, e[0], progress);
             return;
         }
+        if (structure.OpticalLattice is { } lattice)
+        {
+            // q/k_L and recoil energies; lattice grids are short, so they are computed whole rather than streamed.
+            var (kAll, eAll) = Compute(bands, grid.Points);
+            var text = LatticeOutput.Dispersion(structure, lattice, bands, kAll, eAll, format);
+            stream.Write(new System.Text.UTF8Encoding(false).GetBytes(text));
+            return;
+        }
         var d = bands.PeriodNanometres;
         if (format == OutputFormat.Csv)
         {

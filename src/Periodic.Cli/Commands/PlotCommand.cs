@@ -109,7 +109,7 @@ internal static class PlotCommand
             var stackPeriods = p ?? (structure.Stack is null ? 10 : null);
             var plot = kind switch
             {
-                "dispersion" => Dispersion(structure, n),
+                "dispersion" => structure.OpticalLattice is { } lattice ? LatticeOutput.DispersionPlot(structure, lattice, n) : Dispersion(structure, n),
                 "dos" => Dos(structure, n, energies),
                 "profile" => Profile(structure, n, p ?? 3),
                 "stack" => Stack(structure, stackPeriods, TransmissionCommand.ChooseBias(u, structure)),
@@ -131,7 +131,7 @@ internal static class PlotCommand
         return u != 0 ? u : throw new UsageException($"--show iv draws J from 0 to the bias: give --bias U (eV); {source} is 0.");
     }
 
-    private static void Save(Plot plot, string path, string extension, int width, int height)
+    internal static void Save(Plot plot, string path, string extension, int width, int height)
     {
         if (extension == ".svg")
         {
@@ -144,7 +144,7 @@ internal static class PlotCommand
         }
     }
 
-    private static Plot NewPlot(string title, string xLabel, string yLabel)
+    internal static Plot NewPlot(string title, string xLabel, string yLabel)
     {
         var plot = new Plot();
         // Long titles (structure names are free text) are wrapped after the first ": " rather than cut off.

@@ -71,6 +71,21 @@ internal readonly struct Cell
 /// </summary>
 internal sealed class Table(params Column[] columns)
 {
+    /// <summary>A table of preformatted text cells whose headers are written as "name (unit)".</summary>
+    public Table(params string[] headers)
+        : this(headers.Select(FromHeader).ToArray())
+    {
+    }
+
+    private static Column FromHeader(string header)
+    {
+        var open = header.LastIndexOf(" (", StringComparison.Ordinal);
+        return open > 0 && header.EndsWith(')') ? new Column(header[..open], header[(open + 2)..^1]) : new Column(header);
+    }
+
+    /// <summary>A whole number as a text cell.</summary>
+    public static string Integer(long value) => value.ToString(CultureInfo.InvariantCulture);
+
     private const int SignificantDigits = 7;
     private const int SmallestValueDigits = 3;
     private readonly List<Cell[]> _rows = [];

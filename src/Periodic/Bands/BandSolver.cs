@@ -15,6 +15,10 @@ public enum BandSolverMethod
 
     /// <summary>Smooth segments present: Magnus steps halved until the edges converge (<see cref="RefinedBandStructure"/>).</summary>
     Refined,
+
+    /// <summary>One Fourier-series segment (optical and Mathieu lattices): edges from an exponentially convergent plane-wave
+    /// basis with a Rayleigh–Ritz step (<see cref="SpectralBandStructure"/>).</summary>
+    Spectral,
 }
 
 /// <summary>
@@ -45,6 +49,16 @@ public static class BandSolver
             var exact = BandStructure.Compute(cell, count);
             return new BandSolution(exact, BandSolverMethod.Exact, exact.MaxEdgeErrorElectronVolts, 0, true, null);
         }
+        if (SpectralBandStructure.AppliesTo(cell, count))
+        {
+            // The truncation error of the basis is the discretisation error of this method; the edges are eigenvalues, so
+            // there is no separate root-finding error.
+            var spectral = SpectralBandStructure.Compute(cell, count);
+            return new BandSolution(spectral.Bands, BandSolverMethod.Spectral, 0, spectral.MaxEdgeErrorElectronVolts, spectral.Converged, null)
+            {
+                Spectral = spectral,
+            };
+        }
         var refined = RefinedBandStructure.Compute(cell, count, relativeTolerance);
         return FromRefined(refined);
     }
@@ -60,7 +74,7 @@ public static class BandSolver
         Preconditions.CheckRange(relativeTolerance, 1e-14, 1e-2);
         var coarse = BandStructure.ComputeBelow(cell, energyLimit);
         return HasSmoothSegments(cell)
-            ? FromRefined(RefinedBandStructure.Compute(cell, coarse.Bands.Count, relativeTolerance))
+            ? Compute(cell, coarse.Bands.Count, relativeTolerance)
             : new BandSolution(coarse, BandSolverMethod.Exact, coarse.MaxEdgeErrorElectronVolts, 0, true, null);
     }
 
@@ -125,13 +139,16 @@ public sealed class BandSolution
 
     /// <summary>A bound on the error of any edge, eV: for exact cells the search bound, for refined cells the largest summed
     /// edge error of the refinement (search, rounding and discretisation of the same edge).</summary>
-    public double MaxEdgeErrorElectronVolts => Refinement?.MaxEdgeErrorElectronVolts ?? MaxRootFindingErrorElectronVolts;
+    public double MaxEdgeErrorElectronVolts => Refinement?.MaxEdgeErrorElectronVolts ?? Spectral?.MaxEdgeErrorElectronVolts ?? MaxRootFindingErrorElectronVolts;
 
     /// <summary>True unless the refinement ran out of halvings or steps before every edge met its tolerance.</summary>
     public bool Converged { get; }
 
     /// <summary>The refinement record (levels, per-edge errors, Magnus steps) for <see cref="BandSolverMethod.Refined"/>; null otherwise.</summary>
     public RefinedBandStructure? Refinement { get; }
+
+    /// <summary>The plane-wave record (basis size, per-edge errors) for <see cref="BandSolverMethod.Spectral"/>; null otherwise.</summary>
+    public SpectralBandStructure? Spectral { get; internal init; }
 
     /// <summary>Total Magnus steps of the finest mesh; 0 for exact cells.</summary>
     public long MagnusStepCount => Refinement?.MagnusStepCount ?? 0;

@@ -23,7 +23,7 @@ namespace Periodic.Bands;
 /// matching. Its results are as good as its inputs: treat band offsets and masses as uncertain and confirm
 /// design-critical numbers against measurement.</para>
 /// </remarks>
-public sealed class BandStructure
+public sealed partial class BandStructure
 {
     private readonly Band[] _bands;
     private readonly Gap[] _gaps;

@@ -66,20 +66,7 @@ public sealed class RefinedBandStructure
     public double MaxEdgeErrorElectronVolts => _errors.Max();
 
     /// <summary>The largest estimated edge error relative to max(|E|, <see cref="EnergyScaleElectronVolts"/>).</summary>
-    public double MaxRelativeError
-    {
-        get
-        {
-            var max = 0.0;
-            for (var i = 0; i < _errors.Length; i++)
-            {
-                var band = Structure.GetBand(i / 2 + 1);
-                var e = i % 2 == 0 ? band.BottomElectronVolts : band.TopElectronVolts;
-                max = Math.Max(max, _errors[i] / Math.Max(Math.Abs(e), EnergyScaleElectronVolts));
-            }
-            return max;
-        }
-    }
+    public double MaxRelativeError => Structure.MaxRelativeEdgeError(_errors, EnergyScaleElectronVolts);
 
     /// <summary>The relative tolerance requested.</summary>
     public double RelativeTolerance { get; }

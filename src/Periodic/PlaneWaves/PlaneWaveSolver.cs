@@ -6,7 +6,6 @@ using System.Numerics;
 using MathNet.Numerics.LinearAlgebra;
 using Periodic.Structures;
 using Periodic.Units;
-using Periodic.Numerics;
 
 namespace Periodic.PlaneWaves;
 
@@ -18,12 +17,14 @@ namespace Periodic.PlaneWaves;
 /// <para>Method: with ψ = Σ c_G e^{i(k+G)x}, G = 2πn/d, n = −N … N, the equation −C(ψ′/m)′ + Vψ = Eψ becomes
 /// the Hermitian eigenproblem Σ_G′ [C (k+G) η_{G−G′} (k+G′) + V_{G−G′}] c_G′ = E c_G (the central equation;
 /// N. W. Ashcroft and N. D. Mermin, Solid State Physics, 1976, ch. 9), where V_G and η_G are the Fourier
-/// coefficients of V and of 1/m. It is solved with MathNet.Numerics' dense eigenvalue decomposition:
+/// coefficients of V and of 1/m. It is solved with MathNet.Numerics' dense eigenvalue decomposition, refined by one
+/// Rayleigh–Ritz step on the lowest eigenvectors:
 /// real symmetric when the potential and the inverse mass are even (cosine terms only), complex
 /// Hermitian otherwise.</para>
 /// <para>Basis size: N grows (by half, at least 8) until every requested energy changes by at most
 /// relativeTolerance × max(|E|, energy scale) between two sizes; that change is reported as the error
-/// estimate, floored at the eigensolver's rounding level 4ε·‖H‖. When the change reaches that floor
+/// estimate, floored at the rounding level 8ε·(|E| + S) of the energies (S the cell's energy scale; a dense
+/// eigensolve followed by a Rayleigh–Ritz step reaches that level, see the internal Solve). When the change reaches that floor
 /// first, the search stops there (a larger basis would only add rounding) and <see cref="PlaneWaveSpectrum.Converged"/>
 /// says whether the tolerance was met. For a finite Fourier series the energies converge faster than any power of 1/N, so the change
 /// bounds the error of the larger basis. The variational principle makes each energy decrease towards its
@@ -148,26 +149,20 @@ public sealed class PlaneWaveSolver
         Preconditions.CheckFinite(wavevectorPerNanometre);
         Preconditions.CheckRange(bandCount, 1, 200);
         Preconditions.CheckRange(relativeTolerance, 1e-15, 1e-2);
-        var harmonics = Math.Max(_vCos.Length, _etaCos.Length);
-        var n = Math.Max(Math.Max(8, 2 * harmonics), bandCount);
         // The matrix is solved in units of the energy scale (MathNet's iteration is tuned for entries of order one).
-        var previous = Solve(wavevectorPerNanometre, n, bandCount);
+        var n = InitialCutoff(bandCount);
+        var previous = Solve(wavevectorPerNanometre, n, bandCount, false).Energies;
         var errors = new double[bandCount];
         while (true)
         {
-            var next = Math.Min(MaxHarmonicCutoff, n + Math.Max(8, n / 2));
-            var current = Solve(wavevectorPerNanometre, next, bandCount);
-            // Rounding of a dense symmetric eigensolver: a small multiple of ε·‖H‖ (backward stable), and ‖H‖
-            // grows like the kinetic energy of the largest plane wave. Once the change between bases is at that level, a
-            // larger basis only adds noise.
-            var kMax = Math.Abs(wavevectorPerNanometre) + next * 2 * Math.PI / _period;
-            var norm = C * kMax * kMax * _etaMax + _vSpread;
-            var rounding = 4 * FloatingPoint.MachineEpsilon * norm;
+            var next = NextCutoff(n);
+            var current = Solve(wavevectorPerNanometre, next, bandCount, false).Energies;
             var converged = true;
             var roundingLimited = true;
             for (var i = 0; i < bandCount; i++)
             {
                 var change = Math.Abs(current[i] - previous[i]);
+                var rounding = RoundingFloor(current[i]);
                 errors[i] = Math.Max(change, rounding);
                 converged &= errors[i] <= relativeTolerance * Math.Max(Math.Abs(current[i]), _scale);
                 roundingLimited &= change <= rounding;
@@ -181,35 +176,123 @@ public sealed class PlaneWaveSolver
         }
     }
 
-    /// <summary>Lowest eigenvalues for the basis n = −cutoff … cutoff.</summary>
-    private double[] Solve(double k, int cutoff, int count)
+    /// <summary>The smallest N tried for <paramref name="bandCount"/> bands.</summary>
+    internal int InitialCutoff(int bandCount) => Math.Min(MaxHarmonicCutoff, Math.Max(Math.Max(8, 2 * Math.Max(_vCos.Length, _etaCos.Length)), bandCount));
+
+    /// <summary>The next N of the basis-size search: N grows by half, at least 8.</summary>
+    internal static int NextCutoff(int cutoff) => Math.Min(MaxHarmonicCutoff, cutoff + Math.Max(8, cutoff / 2));
+
+    /// <summary>The energy scale of the cell, eV: max(potential spread, C(π/d)²·max(1/m)).</summary>
+    internal double EnergyScaleElectronVolts => _scale;
+
+    /// <summary>
+    /// Rounding level of a Rayleigh–Ritz energy E, eV: the Ritz values carry errors of a few ε times the local energy
+    /// scale (|E| plus the cell's scale), not ε·‖H‖ as a dense eigensolver alone would (see <see cref="Solve"/>).
+    /// </summary>
+    internal double RoundingFloor(double energy) => RoundingUlps * 2.220446049250313e-16 * (Math.Abs(energy) + _scale);
+
+    /// <summary>Multiple of ε in <see cref="RoundingFloor"/>.</summary>
+    private const double RoundingUlps = 8;
+
+    /// <summary>
+    /// Lowest eigenvalues (and, when asked, eigenvectors) for the basis n = −cutoff … cutoff: a dense eigensolve
+    /// followed by one Rayleigh–Ritz step on the subspace of the lowest eigenvectors.
+    /// </summary>
+    /// <remarks>
+    /// A dense eigensolver is backward stable in norm: its eigenvalues carry errors of order ε·‖H‖, and ‖H‖ grows
+    /// like the kinetic energy of the largest plane wave, hundreds of times the energies of the low bands. The
+    /// eigenvectors it returns, however, span the low invariant subspace to order ε‖H‖/δ (δ the distance to the
+    /// rest of the spectrum), so the Ritz values of H on that subspace are exact to second order in that error, and
+    /// the rounding of the projection VᴴHV is componentwise: each term is weighted by the small high-momentum
+    /// components of the vectors. The Ritz values are then accurate to a few ε times the energies of the subspace
+    /// (B. N. Parlett, The Symmetric Eigenvalue Problem, 1998, ch. 11). Two vectors more than asked for are kept so
+    /// that a nearly degenerate pair is not split at the edge of the subspace.
+    /// </remarks>
+    internal (double[] Energies, Complex[][]? Vectors) Solve(double k, int cutoff, int count, bool vectors)
     {
         var size = 2 * cutoff + 1;
         var g = 2 * Math.PI / _period;
-        double[] result;
+        var kept = Math.Min(size, count + 2);
+        var h = Matrix<Complex>.Build.Dense(size, size, (r, c) =>
+        {
+            double kr = k + (r - cutoff) * g, kc = k + (c - cutoff) * g;
+            var j = r - c;
+            return IsRealSymmetric
+                ? (C * kr * kc * RealCoefficient(_etaConstant, _etaCos, j) + RealCoefficient(_vConstant, _vCos, j)) / _scale
+                : (C * kr * kc * ComplexCoefficient(_etaConstant, _etaCos, _etaSin, j) + ComplexCoefficient(_vConstant, _vCos, _vSin, j)) / _scale;
+        });
+        Matrix<Complex> basis;
         if (IsRealSymmetric)
         {
-            var h = Matrix<double>.Build.Dense(size, size, (r, c) =>
-            {
-                double kr = k + (r - cutoff) * g, kc = k + (c - cutoff) * g;
-                var j = r - c;
-                return (C * kr * kc * RealCoefficient(_etaConstant, _etaCos, j) + RealCoefficient(_vConstant, _vCos, j)) / _scale;
-            });
-            result = h.Evd(Symmetricity.Symmetric).EigenValues.Select(z => z.Real * _scale).ToArray();
+            // Real arithmetic where the matrix is real (half the work); the vectors are then widened for the projection.
+            var real = Matrix<double>.Build.Dense(size, size, (r, c) => h[r, c].Real);
+            var evd = real.Evd(Symmetricity.Symmetric);
+            var order = Lowest(evd.EigenValues.Select(z => z.Real).ToArray(), kept);
+            basis = Matrix<Complex>.Build.Dense(size, kept, (r, c) => evd.EigenVectors[r, order[c]]);
         }
         else
         {
-            var h = Matrix<Complex>.Build.Dense(size, size, (r, c) =>
-            {
-                double kr = k + (r - cutoff) * g, kc = k + (c - cutoff) * g;
-                var j = r - c;
-                return (C * kr * kc * ComplexCoefficient(_etaConstant, _etaCos, _etaSin, j) + ComplexCoefficient(_vConstant, _vCos, _vSin, j)) / _scale;
-            });
-            result = h.Evd(Symmetricity.Hermitian).EigenValues.Select(z => z.Real * _scale).ToArray();
+            var evd = h.Evd(Symmetricity.Hermitian);
+            var order = Lowest(evd.EigenValues.Select(z => z.Real).ToArray(), kept);
+            basis = Matrix<Complex>.Build.Dense(size, kept, (r, c) => evd.EigenVectors[r, order[c]]);
         }
-        Array.Sort(result);
-        return result[..count];
+        Orthonormalise(basis);
+        var projected = basis.ConjugateTranspose() * (h * basis);
+        projected = 0.5 * (projected + projected.ConjugateTranspose());
+        var small = projected.Evd(Symmetricity.Hermitian);
+        var ritzOrder = Lowest(small.EigenValues.Select(z => z.Real).ToArray(), count);
+        // The small eigensolve is accurate to ε times the largest Ritz value only; the Rayleigh quotient of each Ritz
+        // vector with H restores the componentwise accuracy (its error is second order in the vector's).
+        var ritzVectors = basis * small.EigenVectors; // orthonormal columns times a unitary matrix
+        var applied = h * ritzVectors;
+        var energies = new double[count];
+        var result = vectors ? new Complex[count][] : null;
+        for (var b = 0; b < count; b++)
+        {
+            var x = ritzVectors.Column(ritzOrder[b]);
+            var norm = x.L2Norm();
+            energies[b] = x.ConjugateDotProduct(applied.Column(ritzOrder[b])).Real / (norm * norm) * _scale;
+            if (result is not null)
+            {
+                result[b] = x.Select(z => z / norm).ToArray();
+            }
+        }
+        // Rayleigh quotients of nearly degenerate pairs may leave their order by a rounding.
+        if (result is null)
+        {
+            Array.Sort(energies);
+        }
+        else
+        {
+            Array.Sort(energies, result);
+        }
+        return (energies, result);
     }
+
+    /// <summary>
+    /// Modified Gram–Schmidt, twice (W. Kahan's "twice is enough"): the dense solver's vectors are orthonormal only to
+    /// about ε·size, which would shift the Ritz values by that fraction of themselves.
+    /// </summary>
+    private static void Orthonormalise(Matrix<Complex> basis)
+    {
+        for (var pass = 0; pass < 2; pass++)
+        {
+            for (var j = 0; j < basis.ColumnCount; j++)
+            {
+                var column = basis.Column(j);
+                for (var i = 0; i < j; i++)
+                {
+                    var previous = basis.Column(i);
+                    column -= previous * previous.ConjugateDotProduct(column);
+                }
+                basis.SetColumn(j, column / column.L2Norm());
+            }
+        }
+    }
+
+    /// <summary>Indices of the <paramref name="count"/> smallest values, ascending.</summary>
+    private static int[] Lowest(double[] values, int count) =>
+        Enumerable.Range(0, values.Length).OrderBy(i => values[i]).Take(count).ToArray();
 
     private static double RealCoefficient(double constant, double[] cosine, int j)
     {

@@ -12,7 +12,7 @@ using Periodic.Units;
 namespace Periodic.Serialization;
 
 /// <summary>A structure read from a structure file: its name, optional description and unit cell.</summary>
-public sealed class StructureDefinition
+public sealed partial class StructureDefinition
 {
     internal StructureDefinition(string name, string? description, UnitCell cell, string?[] labels, string sourceName, BuiltStructure? materials, LayerStack? stack, Energy stackBias)
     {

@@ -168,12 +168,12 @@ public static partial class StructureFile
     [GeneratedRegex(@"^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(.*?)\s*$", RegexOptions.CultureInvariant)]
     private static partial Regex QuantityPattern();
 
-    private sealed class Context(byte[] utf8, string sourceName)
+    private sealed partial class Context(byte[] utf8, string sourceName)
     {
         public StructureDefinition ReadDocument(JsonTreeNode root)
         {
             var obj = ExpectObject(root, "(document)");
-            var fields = Fields(obj, "", ["$schema", "name", "description", "cell", "temperature", "carrier", "nonParabolic", "substrate", "stack"]);
+            var fields = Fields(obj, "", ["$schema", "name", "description", "cell", "temperature", "carrier", "nonParabolic", "substrate", "stack", "opticalLattice"]);
             var name = ReadString(Required(fields, obj, "", "name"), "name");
             if (name.Trim().Length == 0)
             {
@@ -183,6 +183,10 @@ public static partial class StructureFile
             if (fields.TryGetValue("$schema", out var s))
             {
                 ReadString(s.Value, "$schema");
+            }
+            if (fields.ContainsKey("opticalLattice"))
+            {
+                return ReadOpticalLatticeDocument(fields, name, description);
             }
             var cellNode = Required(fields, obj, "", "cell");
             if (cellNode is not JsonTreeArray array)

@@ -42,6 +42,12 @@ public static class PhysicalConstants
         ReducedPlanckJouleSeconds * ReducedPlanckJouleSeconds
         / (2.0 * ElectronMassKilograms) / ElementaryChargeCoulombs * 1e18;
 
+    /// <summary>The unified atomic mass unit u in electron masses, m_u/m₀ (CODATA 2018, relative uncertainty 2.9e-11).</summary>
+    public const double AtomicMassUnitElectronMasses = 1822.888486209;
+
+    /// <summary>The Bohr radius a₀ in nm (CODATA 2018, 0.052 917 721 090 3 nm).</summary>
+    public const double BohrRadiusNanometres = 0.0529177210903;
+
     /// <summary>Metres per nanometre.</summary>
     public const double MetresPerNanometre = 1e-9;
 }

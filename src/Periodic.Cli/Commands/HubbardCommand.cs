@@ -1,0 +1,399 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.CommandLine;
+using System.Globalization;
+using Periodic.Cli.Output;
+using Periodic.OpticalLattices;
+using Periodic.Serialization;
+using Periodic.Units;
+using ScottPlot;
+
+namespace Periodic.Cli.Commands;
+
+/// <summary>
+/// <c>hubbard FILE</c>: Wannier functions and Bose–Hubbard parameters (J, U, U/J against the Mott transition, the gap
+/// and ħ/gap) of an optical-lattice file, at its depth or over a scan of depths; a plot of w(x) and |w(x)|².
+/// </summary>
+internal static class HubbardCommand
+{
+    private const int MaxScanDepths = 2000; // each depth is a full Wannier calculation (≈ 0.1 s): a bound on run time
+
+    internal enum DisplayUnit
+    {
+        Recoil,
+        Kilohertz,
+        ElectronVolt,
+    }
+
+    public static Command Create()
+    {
+        var file = Common.FileArgument();
+        var json = Common.JsonOption();
+        var csv = Common.CsvOption();
+        var output = new Option<string?>("--out", "-o") { Description = "Write to this file (atomically) instead of standard output." };
+        var scattering = new Option<string?>("--scattering-length", "-a")
+        {
+            Description = "s-wave scattering length: a number in Bohr radii, or with a unit (\"100 a0\", \"5.3 nm\"). Required.",
+        };
+        var geometry = new Option<string>("--geometry")
+        {
+            Description = "cubic: a 3D simple-cubic lattice of three equal standing waves (default); tubes: this 1D lattice with transverse harmonic confinement (give --transverse-frequency).",
+            DefaultValueFactory = _ => "cubic",
+        };
+        var transverse = Common.NumberOption("--transverse-frequency", "Hz", "30000", "Transverse trap frequency ω⊥/2π of --geometry tubes, Hz.");
+        var bands = new Option<int>("--bands") { Description = "Number of bands to describe, from the lowest (1 to 10); each must be isolated.", DefaultValueFactory = _ => 1 };
+        var depths = new Option<string?>("--depths")
+        {
+            Description = "Depth scan of the lowest band, in recoil energies: FROM:TO:STEP (e.g. 5:30:1) or a list 5,10,20. Replaces the file's depth.",
+        };
+        var unit = new Option<string>("--unit")
+        {
+            Description = "Energy unit of the table and CSV: recoil (E_R, default), kHz (E/h) or eV. JSON is always in eV.",
+            DefaultValueFactory = _ => "recoil",
+        };
+        var plot = new Option<string?>("--plot") { Description = "Also draw w(x) and |w(x)|² of the lowest band to this .png or .svg file." };
+        var sites = Common.NumberOption("--sites", "sites", "3", "Half-width of the --plot window in lattice sites (default 3).");
+        var command = new Command("hubbard",
+            "Wannier functions and Hubbard parameters of an optical lattice: tunnelling J1..J3, on-site integral, U, U/J against the superfluid-Mott transition, the gap to the next band and hbar/gap.");
+        command.Arguments.Add(file);
+        foreach (var option in new Option[] { scattering, geometry, transverse, bands, depths, unit, plot, sites, json, csv, output })
+        {
+            command.Options.Add(option);
+        }
+        command.SetAction(result =>
+        {
+            var format = Common.Format(result, json, csv);
+            var displayUnit = ParseUnit(result.GetValue(unit)!);
+            var count = Common.CheckCount(result.GetValue(bands), "--bands", 10);
+            var a = ParseScatteringLength(result.GetValue(scattering));
+            var confinement = ParseGeometry(result.GetValue(geometry)!, result.GetValue(transverse));
+            var scan = result.GetValue(depths) is { } text ? ParseDepths(text) : null;
+            var window = result.GetValue(sites) ?? 3;
+            if (!(window > 0 && window <= 50))
+            {
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--sites must be between 0 and 50 lattice sites; got {window:R}."));
+            }
+            var plotPath = result.GetValue(plot);
+            var extension = plotPath is null ? "" : Path.GetExtension(plotPath).ToLowerInvariant();
+            if (plotPath is not null && extension is not ".png" and not ".svg")
+            {
+                throw new UsageException($"--plot {plotPath}: the file name must end in .png or .svg.");
+            }
+            var structure = Common.Load(result.GetValue(file)!);
+            var lattice = structure.OpticalLattice ?? throw new UsageException(
+                $"{structure.SourceName} does not describe an optical lattice; hubbard needs a file with \"opticalLattice\": {{\"wavelength\": ..., \"depth\": ..., \"species\": ...}} (see docs/cold-atoms.md).");
+            var text2 = scan is null
+                ? Render(structure, lattice, Describe(lattice, confinement, a, count), format, displayUnit)
+                : RenderScan(structure, lattice, Scan(lattice, scan, confinement, a), format, displayUnit);
+            if (plotPath is not null)
+            {
+                var wannier = HubbardParameters.Compute(lattice, confinement, a).Wannier;
+                PlotCommand.Save(Draw(lattice, wannier, window), plotPath, extension, 900, 560);
+            }
+            Common.Emit(text2, result.GetValue(output));
+            if (plotPath is not null)
+            {
+                Console.Error.WriteLine($"wrote {plotPath}");
+            }
+            return 0;
+        });
+        return command;
+    }
+
+    private static DisplayUnit ParseUnit(string text) => text.ToLowerInvariant() switch
+    {
+        "recoil" or "er" or "e_r" => DisplayUnit.Recoil,
+        "khz" => DisplayUnit.Kilohertz,
+        "ev" => DisplayUnit.ElectronVolt,
+        _ => throw new UsageException($"--unit \"{text}\" is not known; use recoil, kHz or eV."),
+    };
+
+    private static Length ParseScatteringLength(string? text)
+    {
+        if (text is null)
+        {
+            throw new UsageException("--scattering-length is required (e.g. --scattering-length 100 for 100 Bohr radii, or \"5.3 nm\").");
+        }
+        var trimmed = text.Trim();
+        var factor = PhysicalConstants.BohrRadiusNanometres;
+        foreach (var (suffix, scale) in new[] { ("a0", PhysicalConstants.BohrRadiusNanometres), ("nm", 1.0) })
+        {
+            if (trimmed.EndsWith(suffix, StringComparison.OrdinalIgnoreCase))
+            {
+                trimmed = trimmed[..^suffix.Length].Trim();
+                factor = scale;
+                break;
+            }
+        }
+        if (!double.TryParse(trimmed, NumberStyles.Float, CultureInfo.InvariantCulture, out var value) || !double.IsFinite(value) || !double.IsFinite(value * factor))
+        {
+            throw new UsageException($"--scattering-length \"{text}\" is not a finite length; give a number of Bohr radii (100), or \"100 a0\" or \"5.3 nm\".");
+        }
+        return Length.FromNanometres(value * factor);
+    }
+
+    private static TransverseConfinement ParseGeometry(string text, double? frequency)
+    {
+        switch (text.ToLowerInvariant())
+        {
+            case "cubic":
+                if (frequency is not null)
+                {
+                    throw new UsageException("--transverse-frequency applies only to --geometry tubes (a cubic lattice is confined by its own standing waves).");
+                }
+                return TransverseConfinement.CubicLattice;
+            case "tubes":
+                if (frequency is not { } f || !(f > 0))
+                {
+                    throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                        $"--geometry tubes needs --transverse-frequency, a positive frequency in Hz; got {(frequency is null ? "none" : frequency.Value.ToString("R", CultureInfo.InvariantCulture))}."));
+                }
+                return TransverseConfinement.Harmonic(f);
+            default:
+                throw new UsageException($"--geometry \"{text}\" is not known; use cubic or tubes.");
+        }
+    }
+
+    /// <summary>FROM:TO:STEP (ends included) or a comma-separated list, each depth positive.</summary>
+    private static double[] ParseDepths(string text)
+    {
+        var parts = text.Split(':', StringSplitOptions.TrimEntries);
+        double[] values;
+        if (parts.Length == 3)
+        {
+            var numbers = parts.Select(p => double.TryParse(p, NumberStyles.Float, CultureInfo.InvariantCulture, out var v) && double.IsFinite(v) ? v : double.NaN).ToArray();
+            if (numbers.Any(double.IsNaN) || !(numbers[2] > 0) || !(numbers[1] >= numbers[0]))
+            {
+                throw new UsageException($"--depths \"{text}\": FROM:TO:STEP needs finite numbers with TO ≥ FROM and STEP > 0 (e.g. 5:30:1).");
+            }
+            var steps = Math.Floor((numbers[1] - numbers[0]) / numbers[2] * (1 + 1e-12)) + 1;
+            if (steps > MaxScanDepths)
+            {
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                    $"--depths \"{text}\" asks for {steps:R} depths; at most {MaxScanDepths} per call (each is a full Wannier calculation)."));
+            }
+            values = Enumerable.Range(0, (int)steps).Select(i => numbers[0] + i * numbers[2]).ToArray();
+        }
+        else
+        {
+            var items = text.Split(',', StringSplitOptions.TrimEntries);
+            if (items.Length > MaxScanDepths)
+            {
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--depths lists {items.Length} depths; at most {MaxScanDepths} per call."));
+            }
+            values = new double[items.Length];
+            for (var i = 0; i < items.Length; i++)
+            {
+                if (!double.TryParse(items[i], NumberStyles.Float, CultureInfo.InvariantCulture, out values[i]) || !double.IsFinite(values[i]))
+                {
+                    throw new UsageException($"--depths: item {i + 1} \"{items[i]}\" is not a number (depths in recoil energies: FROM:TO:STEP or a list 5,10,20).");
+                }
+            }
+        }
+        foreach (var s in values)
+        {
+            if (!(s > 0))
+            {
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--depths: every depth must be positive (s > 0, in recoil energies); got {s:R}."));
+            }
+        }
+        return values;
+    }
+
+    private static HubbardParameters[] Describe(OpticalLattice lattice, TransverseConfinement confinement, Length a, int count)
+    {
+        var results = new HubbardParameters[count];
+        for (var n = 1; n <= count; n++)
+        {
+            results[n - 1] = WithOption("--bands", () => HubbardParameters.Compute(lattice, confinement, a, n));
+        }
+        return results;
+    }
+
+    private static IReadOnlyList<HubbardParameters> Scan(OpticalLattice lattice, double[] depths, TransverseConfinement confinement, Length a)
+    {
+        using var progress = new Progress("hubbard", depths.Length);
+        var results = new HubbardParameters[depths.Length];
+        for (var i = 0; i < depths.Length; i++)
+        {
+            var s = depths[i];
+            results[i] = WithOption("--depths", () => HubbardParameters.Compute(lattice.WithDepth(s), confinement, a));
+            progress.Report(i + 1);
+        }
+        return results;
+    }
+
+    /// <summary>Names the option whose value led to a library argument error (e.g. a band that is not isolated).</summary>
+    private static T WithOption<T>(string option, Func<T> action)
+    {
+        try
+        {
+            return action();
+        }
+        catch (ArgumentException e)
+        {
+            throw new UsageException($"{option}: {Common.Describe(e)}");
+        }
+    }
+
+    private static (double Factor, string Name) Energy(OpticalLattice lattice, DisplayUnit unit) => unit switch
+    {
+        DisplayUnit.Recoil => (1 / lattice.RecoilEnergy.ElectronVolts, "E_R"),
+        DisplayUnit.Kilohertz => (OpticalLattice.ToHertz(1) / 1e3, "kHz"),
+        _ => (1.0, "eV"),
+    };
+
+    private static string Header(OpticalLattice lattice, HubbardParameters first)
+    {
+        var er = lattice.RecoilEnergy.ElectronVolts;
+        return string.Create(CultureInfo.InvariantCulture,
+            $"{lattice.Species.Name} ({lattice.Species.MassAtomicMassUnits:G10} u) in a {lattice.Wavelength.Nanometres:G8} nm lattice (period {lattice.LatticePeriod.Nanometres:G8} nm), E_R = h x {OpticalLattice.ToHertz(er) / 1e3:G6} kHz = {er:G6} eV\n"
+            + $"{first.Confinement}, a_s = {first.ScatteringLengthNanometres:G6} nm ({first.ScatteringLengthNanometres / PhysicalConstants.BohrRadiusNanometres:G6} a0); (U/J)c = {first.CriticalRatio:G4} ({first.CriticalRatioSource})\n");
+    }
+
+    private const string Limits =
+        "Single atom in a perfect lattice: no harmonic trap envelope; the one-band Hubbard model holds only when the gap is much larger than U and kT.\n";
+
+    public static string Render(StructureDefinition structure, OpticalLattice lattice, HubbardParameters[] results, OutputFormat format, DisplayUnit unit)
+    {
+        if (format == OutputFormat.Json)
+        {
+            return Common.Json(w =>
+            {
+                Common.StructureHeader(w, structure);
+                WriteLattice(w, lattice, results[0]);
+                w.WriteStartArray("bands");
+                foreach (var r in results)
+                {
+                    w.WriteStartObject();
+                    w.WriteNumber("index", r.BandIndex);
+                    WriteBand(w, r);
+                    w.WriteEndObject();
+                }
+                w.WriteEndArray();
+            });
+        }
+        var (f, name) = Energy(lattice, unit);
+        var table = new Table("band", $"J1 ({name})", $"J2 ({name})", $"J3 ({name})", "int |w|^4 dx (1/nm)", "spread (nm)", $"U ({name})", "U/J", "(U/J)/(U/J)c", $"gap above ({name})", "hbar/gap (ms)");
+        foreach (var r in results)
+        {
+            var j = r.Wannier.HoppingElectronVolts;
+            table.Add(Table.Integer(r.BandIndex), Table.Number(j[0] * f, "G6"), Table.Number(j[1] * f, "G4"), Table.Number(j[2] * f, "G4"),
+                Table.Number(r.Wannier.OnSiteIntegralPerNanometre, "G8"), Table.Number(Math.Sqrt(r.Wannier.SpreadNanometresSquared), "G6"),
+                Table.Number(r.InteractionElectronVolts * f, "G6"), Table.Number(r.InteractionToTunnellingRatio, "G6"), Table.Number(r.RatioToCritical, "G4"),
+                Table.Number(r.GapAboveElectronVolts * f, "G6"), Table.Number(r.AdiabaticTimeSeconds * 1e3, "G4"));
+        }
+        if (format == OutputFormat.Csv)
+        {
+            return table.ToCsv();
+        }
+        return Header(lattice, results[0]) + string.Create(CultureInfo.InvariantCulture, $"depth s = {lattice.DepthInRecoilEnergies:G6} E_R\n\n") + table.ToText() + "\n" + Limits;
+    }
+
+    public static string RenderScan(StructureDefinition structure, OpticalLattice lattice, IReadOnlyList<HubbardParameters> results, OutputFormat format, DisplayUnit unit)
+    {
+        if (format == OutputFormat.Json)
+        {
+            return Common.Json(w =>
+            {
+                Common.StructureHeader(w, structure);
+                WriteLattice(w, lattice, results[0]);
+                w.WriteStartArray("scan");
+                foreach (var r in results)
+                {
+                    w.WriteStartObject();
+                    w.WriteNumber("depth", r.Lattice.DepthInRecoilEnergies);
+                    w.WriteNumber("index", r.BandIndex);
+                    WriteBand(w, r);
+                    w.WriteEndObject();
+                }
+                w.WriteEndArray();
+            });
+        }
+        var (f, name) = Energy(lattice, unit);
+        var table = new Table("s (E_R)", $"J ({name})", $"U ({name})", "U/J", "(U/J)/(U/J)c", $"gap above ({name})", "hbar/gap (ms)");
+        foreach (var r in results)
+        {
+            table.Add(Table.Number(r.Lattice.DepthInRecoilEnergies, "G6"), Table.Number(r.TunnellingElectronVolts * f, "G6"), Table.Number(r.InteractionElectronVolts * f, "G6"),
+                Table.Number(r.InteractionToTunnellingRatio, "G6"), Table.Number(r.RatioToCritical, "G4"), Table.Number(r.GapAboveElectronVolts * f, "G6"),
+                Table.Number(r.AdiabaticTimeSeconds * 1e3, "G4"));
+        }
+        if (format == OutputFormat.Csv)
+        {
+            return table.ToCsv();
+        }
+        return Header(lattice, results[0]) + "lowest band\n\n" + table.ToText() + "\n" + Limits;
+    }
+
+    private static void WriteLattice(System.Text.Json.Utf8JsonWriter w, OpticalLattice lattice, HubbardParameters first)
+    {
+        Common.Units(w, ("energy", "eV"), ("wannierIntegral", "1/nm"), ("spread", "nm^2"), ("length", "nm"), ("time", "s"), ("frequency", "Hz"), ("mass", "u"));
+        w.WriteNumber("recoilEnergy", lattice.RecoilEnergy.ElectronVolts);
+        w.WriteNumber("recoilFrequency", OpticalLattice.ToHertz(lattice.RecoilEnergy.ElectronVolts));
+        w.WriteString("species", lattice.Species.Name);
+        w.WriteNumber("mass", lattice.Species.MassAtomicMassUnits);
+        w.WriteNumber("wavelength", lattice.Wavelength.Nanometres);
+        w.WriteNumber("depth", lattice.DepthInRecoilEnergies);
+        w.WriteString("geometry", first.Confinement.IsCubicLattice ? "cubic" : "tubes");
+        if (!first.Confinement.IsCubicLattice)
+        {
+            w.WriteNumber("transverseFrequency", first.Confinement.FrequencyHertz);
+        }
+        w.WriteNumber("scatteringLength", first.ScatteringLengthNanometres);
+        w.WriteNumber("criticalRatio", first.CriticalRatio);
+        w.WriteString("criticalRatioSource", first.CriticalRatioSource);
+    }
+
+    private static void WriteBand(System.Text.Json.Utf8JsonWriter w, HubbardParameters r)
+    {
+        var wannier = r.Wannier;
+        w.WriteStartArray("hopping");
+        foreach (var j in wannier.HoppingElectronVolts)
+        {
+            w.WriteNumberValue(j);
+        }
+        w.WriteEndArray();
+        w.Number("meanEnergy", wannier.MeanEnergyElectronVolts);
+        w.Number("wannierIntegral", wannier.OnSiteIntegralPerNanometre);
+        w.Number("spread", wannier.SpreadNanometresSquared);
+        w.Number("interaction", r.InteractionElectronVolts);
+        w.Number("interactionOverTunnelling", r.InteractionToTunnellingRatio);
+        w.Number("ratioToCritical", r.RatioToCritical);
+        w.Number("gapAbove", r.GapAboveElectronVolts);
+        w.Number("adiabaticTime", r.AdiabaticTimeSeconds);
+        w.WriteStartObject("accuracy");
+        w.WriteNumber("kPoints", wannier.KPointCount);
+        w.Number("normalisationError", wannier.NormalisationError);
+        w.Number("maxTranslateOverlap", wannier.MaxTranslateOverlap);
+        w.Number("tailRatio", wannier.TailRatio);
+        w.WriteEndObject();
+    }
+
+    private static Plot Draw(OpticalLattice lattice, WannierFunction wannier, double sites)
+    {
+        var d = wannier.PeriodNanometres;
+        var (x, w) = wannier.Window(sites);
+        var xs = x.Select(v => v / d).ToArray();
+        // w in units of 1/√d and |w|² in 1/d, so both are of order one whatever the wavelength.
+        var scaled = w.Select(v => v * Math.Sqrt(d)).ToArray();
+        var density = w.Select(v => v * v * d).ToArray();
+        var plot = PlotCommand.NewPlot(
+            string.Create(CultureInfo.InvariantCulture, $"Wannier function, band {wannier.BandIndex}: {lattice.Species.Name}, {lattice.Wavelength.Nanometres:G6} nm, s = {lattice.DepthInRecoilEnergies:G4} E_R"),
+            "position x / d (lattice sites)", "w(x) sqrt(d),  |w(x)|^2 d");
+        var line = plot.Add.ScatterLine(xs, scaled);
+        line.LegendText = "w(x)";
+        line.LineWidth = 2;
+        var dens = plot.Add.ScatterLine(xs, density);
+        dens.LegendText = "|w(x)|^2";
+        dens.LineWidth = 2;
+        for (var site = -(int)Math.Floor(sites); site <= (int)Math.Floor(sites); site++)
+        {
+            var marker = plot.Add.VerticalLine(site);
+            marker.Color = Colors.Gray.WithAlpha(0.4);
+            marker.LinePattern = LinePattern.Dotted;
+        }
+        plot.ShowLegend(Alignment.UpperRight);
+        return plot;
+    }
+}

@@ -1,0 +1,137 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using Periodic.Bands;
+using Periodic.OpticalLattices;
+using Periodic.Serialization;
+using Periodic.Units;
+
+namespace Periodic.Cli.Tests.Commands;
+
+public sealed class HubbardCommandTest
+{
+    private static string Lattice(string body) => ToolRunner.TempFile("{\"name\": \"test lattice\", \"opticalLattice\": {" + body + "}}");
+
+    [Fact]
+    public void Hubbard_Json_IsInElectronVoltsAndMatchesLibrary()
+    {
+        // eV in JSON whatever the display unit, doubles round-tripped bit for bit.
+        var file = ToolRunner.Example("rubidium-lattice.json");
+        var run = ToolRunner.Invoke("hubbard", file, "--scattering-length", "100 a0", "--unit", "kHz", "--json");
+        Assert.Equal(0, run.ExitCode);
+        var json = run.Json();
+        var lattice = StructureFile.Load(file).OpticalLattice!;
+        var expected = HubbardParameters.Compute(lattice, TransverseConfinement.CubicLattice, HubbardParameters.BohrRadii(100));
+        Assert.Equal(lattice.RecoilEnergy.ElectronVolts, json.GetProperty("recoilEnergy").GetDouble());
+        var band = json.GetProperty("bands")[0];
+        Assert.Equal(1, band.GetProperty("index").GetInt32());
+        var hopping = band.GetProperty("hopping");
+        Assert.Equal(3, hopping.GetArrayLength());
+        for (var n = 0; n < 3; n++)
+        {
+            Assert.Equal(expected.Wannier.HoppingElectronVolts[n], hopping[n].GetDouble());
+        }
+        Assert.Equal(expected.Wannier.OnSiteIntegralPerNanometre, band.GetProperty("wannierIntegral").GetDouble());
+        Assert.Equal(expected.InteractionElectronVolts, band.GetProperty("interaction").GetDouble());
+        Assert.Equal("eV", json.GetProperty("units").GetProperty("energy").GetString());
+        Assert.Equal(29.34, json.GetProperty("criticalRatio").GetDouble());
+    }
+
+    [Fact]
+    public void Hubbard_DepthScan_TableAndCsv()
+    {
+        var file = ToolRunner.Example("rubidium-lattice.json");
+        var csv = ToolRunner.Invoke("hubbard", file, "-a", "5.3 nm", "--geometry", "tubes", "--transverse-frequency", "25000", "--depths", "4:12:4", "--csv");
+        Assert.Equal(0, csv.ExitCode);
+        var lines = csv.Stdout.Trim().Split('\n');
+        Assert.Equal(4, lines.Length); // header + s = 4, 8, 12
+        Assert.StartsWith("s (E_R)", lines[0], StringComparison.Ordinal);
+        var table = ToolRunner.Invoke("hubbard", file, "-a", "100", "--depths", "5,10");
+        Assert.Equal(0, table.ExitCode);
+        Assert.Contains("(U/J)c = 29.34", table.Stdout, StringComparison.Ordinal);
+        Assert.Contains("harmonic trap", table.Stdout, StringComparison.Ordinal); // the model's limits are stated
+        Assert.DoesNotContain("0.000000", table.Stdout, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void Hubbard_Plot_WritesPng()
+    {
+        var file = ToolRunner.Example("rubidium-lattice.json");
+        var png = Path.Combine(Path.GetDirectoryName(ToolRunner.TempFile("{}"))!, "w.png");
+        var run = ToolRunner.Invoke("hubbard", file, "-a", "100", "--plot", png);
+        Assert.Equal(0, run.ExitCode);
+        var bytes = File.ReadAllBytes(png);
+        Assert.True(bytes.Length > 1000 && bytes[1] == (byte)'P' && bytes[2] == (byte)'N' && bytes[3] == (byte)'G');
+    }
+
+    [Theory]
+    [InlineData("\"wavelength\": 1064, \"depth\": 0, \"species\": \"87Rb\"", "opticalLattice.depth")]
+    [InlineData("\"wavelength\": 1064, \"depth\": -3, \"species\": \"87Rb\"", "opticalLattice.depth")]
+    [InlineData("\"wavelength\": 1064, \"depth\": 10, \"species\": \"Rb88\"", "known species are")]
+    [InlineData("\"wavelength\": 1064, \"depth\": 10", "species")]
+    [InlineData("\"wavelength\": 1064, \"depth\": 10, \"species\": \"87Rb\", \"secondWave\": {\"wavelength\": 752.3, \"depth\": 1}", "not commensurate")]
+    public void Hubbard_BadFile_ExitsTwoNamingTheField(string body, string expected)
+    {
+        var run = ToolRunner.Invoke("hubbard", Lattice(body), "-a", "100");
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains(expected, run.Stderr, StringComparison.Ordinal);
+        Assert.Equal(string.Empty, run.Stdout);
+    }
+
+    [Theory]
+    [InlineData("--scattering-length", "nan", "--scattering-length")]
+    [InlineData("--scattering-length", "1e400", "--scattering-length")]
+    [InlineData("--depths", "5:1:1", "--depths")]
+    [InlineData("--depths", "0,5", "--depths")]
+    [InlineData("--geometry", "tubes", "--transverse-frequency")]
+    [InlineData("--unit", "furlongs", "--unit")]
+    public void Hubbard_BadOption_ExitsTwoNamingTheOption(string option, string value, string expected)
+    {
+        var file = ToolRunner.Example("rubidium-lattice.json");
+        var run = option == "--scattering-length"
+            ? ToolRunner.Invoke("hubbard", file, option, value)
+            : ToolRunner.Invoke("hubbard", file, "-a", "100", option, value);
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains(expected, run.Stderr, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void Hubbard_BandNotIsolated_ExitsTwoNamingBands()
+    {
+        // λ₂ = 2λ with s₂ = 0: the two-site cell's bands 1 and 2 touch (folded band), so band 1 is not isolated.
+        var file = Lattice("\"wavelength\": 1064, \"depth\": 6, \"species\": \"87Rb\", \"secondWave\": {\"wavelength\": \"2128 nm\", \"depth\": 0}");
+        var run = ToolRunner.Invoke("hubbard", file, "-a", "100");
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("--bands", run.Stderr, StringComparison.Ordinal);
+        Assert.Contains("not isolated", run.Stderr, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void Hubbard_MissingScatteringLengthOrNotALattice_ExitsTwo()
+    {
+        var missing = ToolRunner.Invoke("hubbard", ToolRunner.Example("rubidium-lattice.json"));
+        Assert.Equal(2, missing.ExitCode);
+        Assert.Contains("--scattering-length", missing.Stderr, StringComparison.Ordinal);
+        var layers = ToolRunner.Invoke("hubbard", ToolRunner.Example("superlattice.json"), "-a", "100");
+        Assert.Equal(2, layers.ExitCode);
+        Assert.Contains("opticalLattice", layers.Stderr, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void Bands_LatticeFile_TableInRecoilEnergiesJsonInElectronVolts()
+    {
+        var file = ToolRunner.Example("rubidium-lattice.json");
+        var table = ToolRunner.Invoke("bands", file);
+        Assert.Equal(0, table.ExitCode);
+        Assert.Contains("bottom (E_R)", table.Stdout, StringComparison.Ordinal);
+        Assert.DoesNotContain("0.000000", table.Stdout, StringComparison.Ordinal);
+        var json = ToolRunner.Invoke("bands", file, "--json").Json();
+        Assert.True(json.GetProperty("accuracy").GetProperty("converged").GetBoolean());
+        var lattice = StructureFile.Load(file).OpticalLattice!;
+        var expected = Periodic.Bands.SpectralBandStructure.Compute(lattice.Cell, 4).Bands.GetBand(1);
+        Assert.Equal(expected.BottomElectronVolts, json.GetProperty("bands")[0].GetProperty("bottom").GetDouble());
+        var dispersion = ToolRunner.Invoke("dispersion", file, "-k", "3");
+        Assert.Equal(0, dispersion.ExitCode);
+        Assert.Contains("q/k_L", dispersion.Stdout, StringComparison.Ordinal);
+    }
+}
