@@ -90,7 +90,7 @@ internal static class CurrentCommand
             var elements = stack.ElementCount;
             Limits.CheckWork("(stack elements)² × biases", Limits.Product(Limits.Product(elements, elements), biasList.Length), Limits.MaxCurrentWork,
                 string.Create(CultureInfo.InvariantCulture,
-                    $"one bias costs about 6e-5 s × elements² of CPU (about 100 evaluations per period, each walking every element); here {elements} elements × {biasList.Length} biases"));
+                    $"one bias costs about 6e-5 s × elements² of CPU (about 100 evaluations per period, each walking every element); here {(stack.Parts is [{ IsRepeatedCell: true } only] ? $"{only.Repetitions} periods × {only.Cell!.Elements.Count} elements" : $"{elements} elements")} × {biasList.Length} biases"));
             var below = FermiLevelWarnings(stack, mu);
             foreach (var line in below)
             {

@@ -91,6 +91,10 @@ public sealed class EdgeSensitivities
     /// <exception cref="ArgumentOutOfRangeException">No such band, or the element is not a uniform layer.</exception>
     public double? Top(int bandIndex, int elementIndex, LayerQuantity quantity) => _tops[Index(bandIndex, elementIndex, quantity)];
 
+    /// <inheritdoc />
+    public override string ToString() => string.Create(CultureInfo.InvariantCulture,
+        $"EdgeSensitivities: {Bands.Bands.Count} band(s) × {_layers} element(s) × width, potential, mass");
+
     private int Index(int bandIndex, int elementIndex, LayerQuantity quantity)
     {
         Preconditions.CheckRange(bandIndex, 1, Bands.Bands.Count, nameof(bandIndex));
