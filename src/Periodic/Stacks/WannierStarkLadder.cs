@@ -24,7 +24,7 @@ namespace Periodic.Stacks;
 /// transmission calculation contains both.</para>
 /// <para>Set-up: <c>periods</c> copies of the cell between two leads of the first layer's mass, whose band edge lies below
 /// every energy of the ladder (so each rung can couple out), and a bias eU = eF·N·d across the periods. The rungs in the
-/// middle half of the ladder's energy window belong to states far from the contacts; their spacings are reported.</para>
+/// middle third of the ladder's energy window belong to states far from the contacts; their spacings are reported.</para>
 /// <para>Limits: the single-band envelope-function model; coherent transport; a uniform field with no space charge; no
 /// scattering (a real ladder is broadened by it, and observed only when eFd exceeds the scattering width ħ/τ).</para>
 /// </remarks>
@@ -78,17 +78,23 @@ public sealed class WannierStarkLadder
     /// <summary>Every transmission peak found in the ladder's energy window, ascending (rungs of this band and, where they overlap, of others).</summary>
     public IReadOnlyList<Resonance> Rungs { get; }
 
-    /// <summary>Lower end of the middle half of the window, eV (see <see cref="MiddleSpacingsElectronVolts"/>).</summary>
+    /// <summary>Lower end of the middle third of the window, eV (see <see cref="MiddleSpacingsElectronVolts"/>).</summary>
     public double MiddleLowerElectronVolts { get; }
 
-    /// <summary>Upper end of the middle half of the window, eV.</summary>
+    /// <summary>Upper end of the middle third of the window, eV.</summary>
     public double MiddleUpperElectronVolts { get; }
 
     /// <summary>
-    /// For each rung in the middle half of the window, the distance to the rung closest to one spacing eFd below it (when one
+    /// For each rung in the middle third of the window, the distance to the rung closest to one spacing eFd below it (when one
     /// lies within 10 % of eFd), ascending in energy, eV.
     /// </summary>
     public IReadOnlyList<double> MiddleSpacingsElectronVolts { get; }
+
+    /// <summary>
+    /// The spacing at the centre of the ladder: of the middle rungs with a partner one eFd below, the one closest to the centre
+    /// of the window (the state farthest from both contacts), eV; NaN is never returned: +∞ when there is none.
+    /// </summary>
+    public double CentralSpacingElectronVolts { get; private init; }
 
     /// <summary>The largest |spacing − eFd|/eFd over <see cref="MiddleSpacingsElectronVolts"/>; +∞ when there is none.</summary>
     public double LargestRelativeSpacingDeviation =>
@@ -138,8 +144,9 @@ public sealed class WannierStarkLadder
         var spectrum = transmission.FindResonances(lower, upper, options, cancellationToken);
         var rungs = spectrum.Resonances.OrderBy(r => r.EnergyElectronVolts).ToArray();
         var center = 0.5 * (lower + upper);
-        double middleLower = center - 0.25 * bias, middleUpper = center + 0.25 * bias;
+        double middleLower = center - bias / 6, middleUpper = center + bias / 6;
         var spacings = new List<double>();
+        double central = double.PositiveInfinity, closest = double.PositiveInfinity;
         foreach (var rung in rungs)
         {
             var e = rung.EnergyElectronVolts;
@@ -152,9 +159,16 @@ public sealed class WannierStarkLadder
             if (below.Length > 0)
             {
                 spacings.Add(e - below[0].EnergyElectronVolts);
+                if (Math.Abs(e - center) < closest)
+                {
+                    (closest, central) = (Math.Abs(e - center), e - below[0].EnergyElectronVolts);
+                }
             }
         }
-        return new WannierStarkLadder(bandIndex, d, periods, fieldVoltsPerMetre, bias, rungs, [.. spacings], middleLower, middleUpper, lead, band.GapAboveElectronVolts);
+        return new WannierStarkLadder(bandIndex, d, periods, fieldVoltsPerMetre, bias, rungs, [.. spacings], middleLower, middleUpper, lead, band.GapAboveElectronVolts)
+        {
+            CentralSpacingElectronVolts = central,
+        };
     }
 
     /// <inheritdoc />
