@@ -23,6 +23,8 @@ internal static class DispersionCommand
         var output = new Option<string?>("--out", "-o") { Description = "Write to this file (atomically) instead of stdout." };
         var command = new Command("dispersion", "Tabulate E(k) of the lowest bands over the first Brillouin zone, k from 0 to pi/d.");
         command.Arguments.Add(file);
+        var inPlane = Common.InPlaneWavevectorOption();
+        command.Options.Add(inPlane);
         command.Options.Add(count);
         command.Options.Add(points);
         command.Options.Add(json);
@@ -37,7 +39,7 @@ internal static class DispersionCommand
             {
                 throw new UsageException("--points must be between 2 and 100000; got 1.");
             }
-            var structure = Common.Load(result.GetValue(file)!);
+            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result.GetValue(file)!));
             Common.Emit(Render(structure, n, k, format), result.GetValue(output));
             return 0;
         });

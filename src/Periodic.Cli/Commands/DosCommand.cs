@@ -19,6 +19,8 @@ internal static class DosCommand
         var csv = Common.CsvOption();
         var command = new Command("dos", "Density of states (spin included), Bloch wavevector, decay constant and dE/dk at each energy.");
         command.Arguments.Add(file);
+        var inPlane = Common.InPlaneWavevectorOption();
+        command.Options.Add(inPlane);
         grid.AddTo(command);
         command.Options.Add(json);
         command.Options.Add(csv);
@@ -26,7 +28,7 @@ internal static class DosCommand
         {
             var format = Common.Format(result, json, csv);
             var energies = grid.Read(result);
-            var structure = Common.Load(result.GetValue(file)!);
+            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result.GetValue(file)!));
             Common.Emit(Render(structure, energies, format), null);
             return 0;
         });

@@ -19,7 +19,7 @@ namespace Periodic.Cli.Commands;
 /// </summary>
 internal static class PlotCommand
 {
-    private static readonly string[] Kinds = ["dispersion", "dos", "profile", "transmission"];
+    private static readonly string[] Kinds = ["dispersion", "dos", "profile", "transmission", "in-plane"];
     private static readonly Color GapColor = Color.FromHex("#F2C7C7").WithAlpha(0.55);
     private static readonly Color BandColor = Color.FromHex("#9FC5E8").WithAlpha(0.55);
     private static readonly Color LineColor = Color.FromHex("#1F4E79");
@@ -31,7 +31,7 @@ internal static class PlotCommand
         var output = new Option<string>("--out", "-o") { Description = "Image file to write: .png or .svg.", Required = true };
         var show = new Option<string>("--show", "-s")
         {
-            Description = "What to draw: dispersion (E(k), gaps shaded), dos, profile (V(x) with the minibands) or transmission (T(E), log scale).",
+            Description = "What to draw: dispersion (E(k), gaps shaded), dos, profile (V(x) with the minibands), transmission (T(E), log scale) or in-plane (miniband edges against k∥ up to --in-plane-wavevector, default 1 /nm).",
             DefaultValueFactory = _ => "dispersion",
         };
         show.AcceptOnlyFromAmong(Kinds);
@@ -43,6 +43,8 @@ internal static class PlotCommand
         var height = new Option<int>("--height") { Description = "Image height, pixels.", DefaultValueFactory = _ => 600 };
         var command = new Command("plot", "Draw E(k), the DOS, the potential profile with its minibands, or T(E) to a PNG or SVG file.");
         command.Arguments.Add(file);
+        var inPlane = Common.InPlaneWavevectorOption();
+        command.Options.Add(inPlane);
         command.Options.Add(output);
         command.Options.Add(show);
         command.Options.Add(count);
@@ -79,9 +81,12 @@ internal static class PlotCommand
             {
                 throw new UsageException($"--bias applies only to --show transmission; got --show {kind}.");
             }
-            var structure = Common.Load(result.GetValue(file)!);
+            var loaded = Common.Load(result.GetValue(file)!);
+            var atInPlane = Common.AtInPlaneWavevector(result, inPlane, loaded); // validates --in-plane-wavevector
+            var structure = kind == "in-plane" ? loaded : atInPlane; // there it is the end of the k∥ axis
             var plot = kind switch
             {
+                "in-plane" => InPlaneEdges(structure, n, result.GetValue(inPlane) ?? 1.0),
                 "dispersion" => Dispersion(structure, n),
                 "dos" => Dos(structure, n, energies),
                 "profile" => Profile(structure, n, p == 0 ? 3 : p),
@@ -92,6 +97,49 @@ internal static class PlotCommand
             return 0;
         });
         return command;
+    }
+
+    /// <summary>Miniband edges against k∥ (exact, per-layer masses), each band shaded between its bottom and top.</summary>
+    private static Plot InPlaneEdges(StructureDefinition structure, int count, double maxWavevector)
+    {
+        if (!(maxWavevector > 0))
+        {
+            throw new UsageException("--in-plane-wavevector must be above 0 for --show in-plane (it is the right end of the k∥ axis).");
+        }
+        const int points = 61;
+        var ks = new double[points];
+        var bottoms = new double[count][];
+        var tops = new double[count][];
+        for (var n = 0; n < count; n++)
+        {
+            bottoms[n] = new double[points];
+            tops[n] = new double[points];
+        }
+        for (var i = 0; i < points; i++)
+        {
+            ks[i] = maxWavevector * i / (points - 1);
+            var edges = Periodic.Properties.InPlaneDispersion.EdgesAt(structure.Cell, count, ks[i]);
+            for (var n = 0; n < count; n++)
+            {
+                bottoms[n][i] = edges[n].BottomElectronVolts;
+                tops[n][i] = edges[n].TopElectronVolts;
+            }
+        }
+        var plot = NewPlot($"{structure.Name}: miniband edges against k∥", "in-plane wavevector k∥ (1/nm)", "energy (eV)");
+        for (var n = 0; n < count; n++)
+        {
+            var polygon = plot.Add.Polygon(ks.Concat(ks.Reverse()).ToArray(), bottoms[n].Concat(tops[n].Reverse()).ToArray());
+            polygon.FillStyle.Color = BandColor;
+            polygon.LineStyle.Width = 0;
+            foreach (var edge in new[] { bottoms[n], tops[n] })
+            {
+                var line = plot.Add.ScatterLine(ks, edge);
+                line.LineWidth = 2;
+                line.Color = LineColor;
+            }
+        }
+        plot.Add.Text("minibands shaded; per-layer in-plane masses", 0.02 * maxWavevector, tops[count - 1].Max()).LabelFontSize = 12;
+        return plot;
     }
 
     private static void Save(Plot plot, string path, string extension, int width, int height)

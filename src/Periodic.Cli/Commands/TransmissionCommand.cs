@@ -26,6 +26,8 @@ internal static class TransmissionCommand
         var csv = Common.CsvOption();
         var command = new Command("transmission", "Transmission and reflection of a finite stack of N periods between two uniform leads.");
         command.Arguments.Add(file);
+        var inPlane = Common.InPlaneWavevectorOption();
+        command.Options.Add(inPlane);
         command.Options.Add(periods);
         grid.AddTo(command);
         command.Options.Add(leadPotential);
@@ -52,7 +54,7 @@ internal static class TransmissionCommand
             {
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--lead-mass must be a positive mass in m0; got {m:R}."));
             }
-            var structure = Common.Load(result.GetValue(file)!);
+            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result.GetValue(file)!));
             var periodCount = n ?? structure.Stack?.Parts[0].Repetitions
                 ?? throw new UsageException("give --periods N (the structure file has no \"stack\" with periods).");
             Common.Emit(Render(structure, periodCount, energies, potential, mass, ChooseBias(result.GetValue(bias), structure), format), null);
