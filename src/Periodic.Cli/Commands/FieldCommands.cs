@@ -91,7 +91,7 @@ internal static class FieldCommands
             velocities[i] = drift.VelocityAt(fields[i] * VoltsPerMetrePerKilovoltPerCentimetre);
         }
         double Bloch(double kvPerCm) => drift.BlochAngularFrequencyAt(kvPerCm * VoltsPerMetrePerKilovoltPerCentimetre) / (2 * Math.PI);
-        double Current(int i) => drift.CurrentDensityAt(fields[i] * VoltsPerMetrePerKilovoltPerCentimetre, density!.Value) * 1e-4; // A/cm2
+        double Current(int i) => drift.CurrentDensityAmperesPerSquareMetreAt(fields[i] * VoltsPerMetrePerKilovoltPerCentimetre, density!.Value) * 1e-4; // A/cm2
         if (format == OutputFormat.Json)
         {
             return Common.Json(w =>

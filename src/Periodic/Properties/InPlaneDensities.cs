@@ -46,7 +46,7 @@ public static class InPlaneDensities
     /// <exception cref="ArgumentNullException"><paramref name="cell"/> is null.</exception>
     /// <exception cref="ArgumentOutOfRangeException">The energy is not finite or more than 10,000 bands lie below it.</exception>
     /// <exception cref="ArgumentException">The cell holds a non-parabolic layer or an element not covered by <see cref="InPlaneMotion"/>.</exception>
-    public static InPlaneDensity DensityOfStates(UnitCell cell, double energyElectronVolts, EffectiveMass? singleInPlaneMass = null)
+    public static InPlaneDensityOfStates DensityOfStates(UnitCell cell, double energyElectronVolts, EffectiveMass? singleInPlaneMass = null)
     {
         var setup = Setup(cell, energyElectronVolts, nameof(energyElectronVolts), singleInPlaneMass);
         var e = energyElectronVolts;
@@ -72,7 +72,7 @@ public static class InPlaneDensities
             error += estimate;
         }
         var factor = 1 / (4 * Math.PI);
-        return new InPlaneDensity(e, double.NaN, factor * exact, factor * error, approximate, setup.Mass.ElectronMasses, evaluations);
+        return new InPlaneDensityOfStates(e, factor * exact, factor * error, approximate, setup.Mass.ElectronMasses, evaluations);
     }
 
     /// <summary>
@@ -86,7 +86,7 @@ public static class InPlaneDensities
     /// <exception cref="ArgumentNullException"><paramref name="cell"/> is null.</exception>
     /// <exception cref="ArgumentOutOfRangeException">μ or T is not finite, T is negative, or more than 10,000 bands are occupied.</exception>
     /// <exception cref="ArgumentException">The cell holds a non-parabolic layer or an element not covered by <see cref="InPlaneMotion"/>.</exception>
-    public static InPlaneDensity CarrierDensity(UnitCell cell, double fermiLevelElectronVolts, double temperatureKelvin, EffectiveMass? singleInPlaneMass = null)
+    public static InPlaneCarrierDensity CarrierDensity(UnitCell cell, double fermiLevelElectronVolts, double temperatureKelvin, EffectiveMass? singleInPlaneMass = null)
     {
         ArgumentNullException.ThrowIfNull(cell);
         Preconditions.CheckFinite(fermiLevelElectronVolts);
@@ -133,7 +133,7 @@ public static class InPlaneDensities
             error += estimate;
         }
         var factor = 1 / (4 * Math.PI);
-        return new InPlaneDensity(mu, temperatureKelvin, factor * exact, factor * error, approximate, setup.Mass.ElectronMasses, evaluations);
+        return new InPlaneCarrierDensity(mu, temperatureKelvin, factor * exact, factor * error, approximate, setup.Mass.ElectronMasses, evaluations);
     }
 
     private sealed record Context(BandStructure Bands, EffectiveMass Mass, double MinMass, double MaxMass);
@@ -208,45 +208,87 @@ public static class InPlaneDensities
     }
 }
 
-/// <summary>A density (of states or of carriers) per unit volume with exact in-plane motion, beside the single-in-plane-mass value.</summary>
-public readonly record struct InPlaneDensity
+/// <summary>The density of states per unit volume with exact in-plane motion, beside the single-in-plane-mass value.</summary>
+public readonly record struct InPlaneDensityOfStates
 {
-    internal InPlaneDensity(double energy, double temperature, double exact, double error, double single, double mass, int evaluations)
+    internal InPlaneDensityOfStates(double energy, double exact, double error, double single, double mass, int searches)
     {
         EnergyElectronVolts = energy;
-        TemperatureKelvin = temperature;
-        Exact = exact;
-        ErrorEstimate = error;
-        SingleMass = single;
+        ExactPerElectronVoltCubicNanometre = exact;
+        ErrorEstimatePerElectronVoltCubicNanometre = error;
+        SingleMassPerElectronVoltCubicNanometre = single;
         SingleMassElectronMasses = mass;
-        BandSearches = evaluations;
+        BandSearches = searches;
     }
 
-    /// <summary>The energy (density of states) or the Fermi level (carrier density), eV.</summary>
+    /// <summary>The energy, eV.</summary>
     public double EnergyElectronVolts { get; }
 
-    /// <summary>The temperature (carrier density), K; NaN for a density of states (no temperature).</summary>
-    public double TemperatureKelvin { get; }
+    /// <summary>The exact density of states (spin included), 1/(eV·nm³).</summary>
+    public double ExactPerElectronVoltCubicNanometre { get; }
 
-    /// <summary>The exact value: 1/(eV·nm³) for a density of states, 1/nm³ for a carrier density.</summary>
-    public double Exact { get; }
+    /// <summary>Estimated quadrature error of <see cref="ExactPerElectronVoltCubicNanometre"/>, 1/(eV·nm³).</summary>
+    public double ErrorEstimatePerElectronVoltCubicNanometre { get; }
 
-    /// <summary>Estimated error of <see cref="Exact"/> (quadrature), same unit.</summary>
-    public double ErrorEstimate { get; }
-
-    /// <summary>The value with one in-plane mass <see cref="SingleMassElectronMasses"/>, same unit.</summary>
-    public double SingleMass { get; }
+    /// <summary>The density of states with one in-plane mass <see cref="SingleMassElectronMasses"/>, 1/(eV·nm³).</summary>
+    public double SingleMassPerElectronVoltCubicNanometre { get; }
 
     /// <summary>The in-plane mass of the approximation, m₀.</summary>
     public double SingleMassElectronMasses { get; }
 
-    /// <summary>(single-mass − exact)/exact; 0 when both vanish.</summary>
-    public double RelativeErrorOfSingleMass => Exact == 0 ? (SingleMass == 0 ? 0 : double.PositiveInfinity) : (SingleMass - Exact) / Exact;
+    /// <summary>(single-mass − exact)/exact; 0 when both vanish, +∞ when only the exact value does.</summary>
+    public double RelativeErrorOfSingleMass => RelativeDifference(SingleMassPerElectronVoltCubicNanometre, ExactPerElectronVoltCubicNanometre);
+
+    /// <summary>Band searches spent (each on the cell at one k∥).</summary>
+    public int BandSearches { get; }
+
+    internal static double RelativeDifference(double single, double exact) =>
+        exact == 0 ? (single == 0 ? 0 : double.PositiveInfinity) : (single - exact) / exact;
+
+    /// <inheritdoc />
+    public override string ToString() => string.Create(CultureInfo.InvariantCulture,
+        $"g(E = {EnergyElectronVolts:G8} eV): exact {ExactPerElectronVoltCubicNanometre:G10} /(eV nm3) (± {ErrorEstimatePerElectronVoltCubicNanometre:G2}); one in-plane mass ({SingleMassElectronMasses:G6} m0): {SingleMassPerElectronVoltCubicNanometre:G10} ({RelativeErrorOfSingleMass:E2} relative)");
+}
+
+/// <summary>The carrier density per unit volume with exact in-plane motion, beside the single-in-plane-mass value.</summary>
+public readonly record struct InPlaneCarrierDensity
+{
+    internal InPlaneCarrierDensity(double mu, double temperature, double exact, double error, double single, double mass, int searches)
+    {
+        FermiLevelElectronVolts = mu;
+        TemperatureKelvin = temperature;
+        ExactPerCubicNanometre = exact;
+        ErrorEstimatePerCubicNanometre = error;
+        SingleMassPerCubicNanometre = single;
+        SingleMassElectronMasses = mass;
+        BandSearches = searches;
+    }
+
+    /// <summary>The Fermi level μ, eV.</summary>
+    public double FermiLevelElectronVolts { get; }
+
+    /// <summary>The temperature, K.</summary>
+    public double TemperatureKelvin { get; }
+
+    /// <summary>The exact carrier density (spin included), 1/nm³ (× 1e21 for 1/cm³).</summary>
+    public double ExactPerCubicNanometre { get; }
+
+    /// <summary>Estimated quadrature error of <see cref="ExactPerCubicNanometre"/>, 1/nm³.</summary>
+    public double ErrorEstimatePerCubicNanometre { get; }
+
+    /// <summary>The carrier density with one in-plane mass <see cref="SingleMassElectronMasses"/>, 1/nm³.</summary>
+    public double SingleMassPerCubicNanometre { get; }
+
+    /// <summary>The in-plane mass of the approximation, m₀.</summary>
+    public double SingleMassElectronMasses { get; }
+
+    /// <summary>(single-mass − exact)/exact; 0 when both vanish, +∞ when only the exact value does.</summary>
+    public double RelativeErrorOfSingleMass => InPlaneDensityOfStates.RelativeDifference(SingleMassPerCubicNanometre, ExactPerCubicNanometre);
 
     /// <summary>Band searches spent (each on the cell at one k∥).</summary>
     public int BandSearches { get; }
 
     /// <inheritdoc />
     public override string ToString() => string.Create(CultureInfo.InvariantCulture,
-        $"exact {Exact:G10} (± {ErrorEstimate:G2}); one in-plane mass ({SingleMassElectronMasses:G6} m0): {SingleMass:G10} ({RelativeErrorOfSingleMass:P3})");
+        $"n(mu = {FermiLevelElectronVolts:G8} eV, T = {TemperatureKelvin:G6} K): exact {ExactPerCubicNanometre:G10} /nm3 (± {ErrorEstimatePerCubicNanometre:G2}); one in-plane mass ({SingleMassElectronMasses:G6} m0): {SingleMassPerCubicNanometre:G10} ({RelativeErrorOfSingleMass:E2} relative)");
 }

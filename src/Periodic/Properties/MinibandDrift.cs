@@ -154,13 +154,23 @@ public sealed class MinibandDrift
         Preconditions.CheckDestination(fieldsVoltsPerMetre.Length, destinationMetresPerSecond.Length, nameof(fieldsVoltsPerMetre), nameof(destinationMetresPerSecond));
         for (var i = 0; i < fieldsVoltsPerMetre.Length; i++)
         {
+            // All fields are checked before any is written, so a bad one leaves the destination untouched.
+            var field = fieldsVoltsPerMetre[i];
+            if (!(field >= 0) || double.IsPositiveInfinity(field) || field > MaxFieldVoltsPerMetre)
+            {
+                throw new ArgumentOutOfRangeException(nameof(fieldsVoltsPerMetre), field, string.Create(CultureInfo.InvariantCulture,
+                    $"fieldsVoltsPerMetre[{i}] must be from 0 to {Preconditions.Format(MaxFieldVoltsPerMetre)} V/m (finite, |F|); got {Preconditions.Format(field)}."));
+            }
+        }
+        for (var i = 0; i < fieldsVoltsPerMetre.Length; i++)
+        {
             destinationMetresPerSecond[i] = VelocityAt(fieldsVoltsPerMetre[i]);
         }
     }
 
     /// <summary>The current density e·n·v_d at field F for a carrier density n (1/cm³), A/m².</summary>
     /// <exception cref="ArgumentOutOfRangeException">The field is out of range, or the density is negative or not finite.</exception>
-    public double CurrentDensityAt(double fieldVoltsPerMetre, double densityPerCubicCentimetre)
+    public double CurrentDensityAmperesPerSquareMetreAt(double fieldVoltsPerMetre, double densityPerCubicCentimetre)
     {
         Preconditions.CheckNonNegativeFinite(densityPerCubicCentimetre);
         return PhysicalConstants.ElementaryChargeCoulombs * densityPerCubicCentimetre * 1e6 * VelocityAt(fieldVoltsPerMetre);

@@ -97,7 +97,7 @@ public sealed class WannierStarkLadder
     public double CentralSpacingElectronVolts { get; private init; }
 
     /// <summary>The largest |spacing − eFd|/eFd over <see cref="MiddleSpacingsElectronVolts"/>; +∞ when there is none.</summary>
-    public double LargestRelativeSpacingDeviation =>
+    public double LargestRelativeSpacingError =>
         MiddleSpacingsElectronVolts.Count == 0 ? double.PositiveInfinity : MiddleSpacingsElectronVolts.Max(s => Math.Abs(s - SpacingElectronVolts)) / SpacingElectronVolts;
 
     /// <summary>

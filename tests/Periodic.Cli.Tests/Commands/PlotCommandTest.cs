@@ -10,6 +10,7 @@ public sealed class PlotCommandTest
     [InlineData("dos", "delta-comb.json", ".png")]
     [InlineData("profile", "superlattice.json", ".svg")]
     [InlineData("transmission", "gaas-algaas.json", ".png")]
+    [InlineData("in-plane", "superlattice.json", ".png")]
     public void Plot_WritesAnImage(string kind, string example, string extension)
     {
         var directory = Path.GetDirectoryName(ToolRunner.TempFile("{}"))!;

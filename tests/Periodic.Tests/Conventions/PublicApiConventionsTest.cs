@@ -147,7 +147,7 @@ public sealed class PublicApiConventionsTest
         string[] units =
         [
             "ElectronVolts", "ElectronVolt", "MillielectronVolts", "Nanometres", "Nanometre", "ElectronMasses", "Kelvin", "MetresPerSecond",
-            "Seconds", "Joules", "Centimetre", "RecoilEnergies", "PerElectronMass", "Metres", "Angstroms", "Kilograms", "Coulombs", "Radians", "PerKelvin", "Cubic", "AmperesPerSquareMetre",
+            "Seconds", "Joules", "Centimetre", "RecoilEnergies", "PerElectronMass", "Metres", "Angstroms", "Kilograms", "Coulombs", "Radians", "PerKelvin", "Cubic", "AmperesPerSquareMetre", "VoltsPerMetre", "Hertz",
         ];
         string[] dimensionless =
         [
