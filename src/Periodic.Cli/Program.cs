@@ -9,7 +9,7 @@ using Periodic.Serialization;
 
 // Exit codes: 0 success, 1 a computation failed, 2 bad input or usage. Errors are one line on
 // stderr; --verbose adds the exception detail.
-var verbose = new Option<bool>("--verbose") { Description = "On failure, print the full error detail.", Recursive = true };
+var verbose = Common.Verbose;
 // A plain command named "periodic" rather than RootCommand, whose name would be the assembly's (Periodic.Cli).
 var root = new Command("periodic", "periodic: bands, dispersion, density of states, transmission, current under bias and plots of one-dimensional periodic structures. "
     + "Without arguments, prints the band table of a built-in example superlattice.");
@@ -22,6 +22,8 @@ root.Subcommands.Add(DosCommand.Create());
 root.Subcommands.Add(TransmissionCommand.Create());
 root.Subcommands.Add(CurrentCommand.Create());
 root.Subcommands.Add(PlotCommand.Create());
+root.Subcommands.Add(SweepCommand.Create());
+root.Subcommands.Add(MergeCommand.Create());
 root.Subcommands.Add(FieldCommands.Drift());
 root.Subcommands.Add(FieldCommands.Ladder());
 root.Subcommands.Add(ExampleCommand.Create());
@@ -33,10 +35,19 @@ root.SetAction(_ =>
     return 0;
 });
 
+// An option given an empty value ("--out ''") is named here: the parser would report it as an unknown argument.
+for (var i = 0; i + 1 < args.Length; i++)
+{
+    if (args[i].StartsWith('-') && args[i].Length > 1 && args[i + 1].Length == 0)
+    {
+        Console.Error.WriteLine($"periodic: error: {Common.Printable(args[i])} needs a value; got an empty string (see periodic --help).");
+        return 2;
+    }
+}
 var parsed = root.Parse(args);
 if (parsed.Errors.Count > 0)
 {
-    Console.Error.WriteLine($"periodic: error: {OneLine(parsed.Errors[0].Message)} (see periodic --help)");
+    Console.Error.WriteLine($"periodic: error: {Common.Printable(OneLine(parsed.Errors[0].Message))} (see periodic --help)");
     return 2;
 }
 try
@@ -57,7 +68,7 @@ catch (Exception e)
         IOException or UnauthorizedAccessException => "",
         _ => "computation failed: ",
     };
-    Console.Error.WriteLine($"periodic: error: {what}{OneLine(Describe(e))}");
+    Console.Error.WriteLine($"periodic: error: {what}{Common.Printable(OneLine(Describe(e)))}");
     if (parsed.GetValue(verbose))
     {
         Console.Error.WriteLine(e.ToString());

@@ -20,6 +20,9 @@ internal enum OutputFormat
 /// <summary>Options and helpers shared by the commands.</summary>
 internal static class Common
 {
+    /// <summary>--verbose on every command: on failure the full error detail; some commands add where the time went.</summary>
+    public static Option<bool> Verbose { get; } = new("--verbose") { Description = "On failure, print the full error detail (sweep: also where the time went).", Recursive = true };
+
     public static Argument<string> FileArgument() => new("file")
     {
         Description = "Structure file (JSON, see docs/structure.schema.json).",
@@ -110,9 +113,13 @@ internal static class Common
 
     public static StructureDefinition Load(string path)
     {
+        if (Directory.Exists(path))
+        {
+            throw new UsageException($"structure file {Printable(path)} is a directory; give a structure file (JSON).");
+        }
         if (!File.Exists(path))
         {
-            throw new UsageException($"structure file {path} does not exist.");
+            throw new UsageException($"structure file {Printable(path)} does not exist.");
         }
         OutputFile.RegisterInput(path);
         var structure = StructureFile.Load(path);
@@ -120,10 +127,34 @@ internal static class Common
         {
             foreach (var warning in built.Warnings)
             {
-                Console.Error.WriteLine($"periodic: warning: {path}: {warning.Message}");
+                Console.Error.WriteLine($"periodic: warning: {Printable(path)}: {Printable(warning.Message)}");
             }
         }
         return structure;
+    }
+
+    /// <summary>
+    /// Text from a file or the command line as it may be printed: control characters (C0, DEL, C1), line and paragraph
+    /// separators and bidirectional controls become \uXXXX escapes, so a name cannot move the cursor, recolour or clear the terminal.
+    /// </summary>
+    public static string Printable(string text)
+    {
+        StringBuilder? builder = null;
+        for (var i = 0; i < text.Length; i++)
+        {
+            var c = text[i];
+            var unsafeChar = char.IsControl(c) || c is '\u2028' or '\u2029' || (c >= '\u202A' && c <= '\u202E') || (c >= '\u2066' && c <= '\u2069');
+            if (unsafeChar)
+            {
+                builder ??= new StringBuilder(text, 0, i, text.Length + 16);
+                builder.Append(string.Create(CultureInfo.InvariantCulture, $"\\u{(int)c:X4}"));
+            }
+            else
+            {
+                builder?.Append(c);
+            }
+        }
+        return builder?.ToString() ?? text;
     }
 
     /// <summary>Writes the finished text to stdout, or atomically to <paramref name="outPath"/>.</summary>
@@ -209,15 +240,15 @@ internal static class Common
     }
 
     public static string TableTitle(StructureDefinition structure) =>
-        string.Create(CultureInfo.InvariantCulture, $"{structure.Name}  (period {structure.Cell.Period.Nanometres:G6} nm, {structure.Cell.Elements.Count} element(s))\n");
+        string.Create(CultureInfo.InvariantCulture, $"{Printable(structure.Name)}  (period {structure.Cell.Period.Nanometres:G6} nm, {structure.Cell.Elements.Count} element(s))\n");
 }
 
 /// <summary>An energy grid given either as --from/--to/--points or as --energies e1,e2,….</summary>
 internal sealed class EnergyGridOptions
 {
-    public Option<double?> From { get; } = new("--from") { Description = "Lowest energy of the grid, eV." };
+    public Option<double?> From { get; } = Common.NumberOption("--from", "eV", "0", "Lowest energy of the grid, eV.");
 
-    public Option<double?> To { get; } = new("--to") { Description = "Highest energy of the grid, eV." };
+    public Option<double?> To { get; } = Common.NumberOption("--to", "eV", "0.5", "Highest energy of the grid, eV.");
 
     public Option<int?> Points { get; } = new("--points") { Description = "Number of grid points (2 to 1,000,000), evenly spaced, ends included." };
 
@@ -252,6 +283,10 @@ internal sealed class EnergyGridOptions
                         $"--energies: item {i + 1} \"{parts[i]}\" is not a finite number (energies in eV, separated by commas)."));
                 }
             }
+            foreach (var energy in energies)
+            {
+                Limits.CheckEnergy("--energies", energy);
+            }
             return energies;
         }
         if (from is null || to is null || points is null)
@@ -263,10 +298,9 @@ internal sealed class EnergyGridOptions
             throw new UsageException(string.Create(CultureInfo.InvariantCulture,
                 $"--to must be a finite energy above --from; got --from {from.Value:R} and --to {to.Value:R} eV."));
         }
-        if (points.Value < 2 || points.Value > 1_000_000)
-        {
-            throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--points must be between 2 and 1000000; got {points.Value}."));
-        }
+        Limits.CheckEnergy("--from", from.Value);
+        Limits.CheckEnergy("--to", to.Value);
+        Limits.CheckRange("--points", points.Value, Limits.MinGridPoints, Limits.MaxGridPoints);
         var grid = new double[points.Value];
         for (var i = 0; i < grid.Length; i++)
         {

@@ -32,8 +32,8 @@ internal static class CurrentCommand
         var temperature = Common.NumberOption("--temperature", "K", "77", "Temperature of both contacts, K, from 0.1 to 1000 (default: the file's temperature for a cell of material layers).");
         var fermi = Common.NumberOption("--fermi-level", "eV", "0.02", "Fermi level of the left contact, eV, on the scale of the file's potentials (the right contact's is this minus eU).");
         var periods = new Option<int?>("--periods", "-N") { Description = "Number of unit cells in the stack (1 to 1,000,000; under a non-zero bias at most 100,000 elements in all); default: the file's stack.periods." };
-        var leadPotential = new Option<double?>("--lead-potential") { Description = "Potential of both leads, eV (default: the file's stack, else the first layer's)." };
-        var leadMass = new Option<double?>("--lead-mass") { Description = "Effective mass in both leads, m0 (default: the file's stack, else the first layer's)." };
+        var leadPotential = Common.NumberOption("--lead-potential", "eV", "0", "Potential of both leads, eV (default: the file's stack, else the first layer's).");
+        var leadMass = Common.NumberOption("--lead-mass", "m0", "0.067", "Effective mass in both leads, m0 (default: the file's stack, else the first layer's).");
         var output = new Option<string?>("--out", "-o") { Description = "Write to this file (atomically) instead of stdout." };
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
@@ -53,15 +53,19 @@ internal static class CurrentCommand
             }
             var potential = result.GetValue(leadPotential);
             var mass = result.GetValue(leadMass);
-            if (potential is { } v && !double.IsFinite(v))
+            if (potential is { } v)
             {
-                throw new UsageException("--lead-potential must be a finite energy in eV.");
+                Limits.CheckEnergy("--lead-potential", v);
             }
-            if (mass is { } m && !(double.IsFinite(m) && m > 0))
+            if (mass is { } m)
             {
-                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--lead-mass must be a positive mass in m0; got {m:R}."));
+                Limits.CheckMass("--lead-mass", m);
             }
-            var mu = result.GetValue(fermi) ?? throw new UsageException("give --fermi-level E: the Fermi level of the left contact in eV, on the scale of the file's potentials.");
+            var mu = Limits.CheckEnergy("--fermi-level", result.GetValue(fermi) ?? throw new UsageException("give --fermi-level E: the Fermi level of the left contact in eV, on the scale of the file's potentials."));
+            foreach (var u in biasList)
+            {
+                Limits.CheckEnergy("--bias", u);
+            }
             var t = result.GetValue(temperature);
             if (t is { } given && !(given >= MinTemperatureKelvin && given <= MaxTemperatureKelvin))
             {
@@ -79,6 +83,15 @@ internal static class CurrentCommand
             var n = result.GetValue(periods) ?? structure.Stack?.Parts[0].Repetitions
                 ?? throw new UsageException("give --periods N (the structure file has no \"stack\" with periods).");
             var stack = TransmissionCommand.BuildStack(structure, n, potential, mass);
+            // The library's own bound on a biased stack (elements written out) is named first: building it costs no evaluation.
+            if (Array.Find(biasList, u => u != 0) is var firstBias && firstBias != 0)
+            {
+                TransmissionCommand.Compile(stack, firstBias, "--bias");
+            }
+            var elements = Limits.Product(n, structure.Cell.Elements.Count);
+            Limits.CheckWork("(stack elements)² × biases", Limits.Product(Limits.Product(elements, elements), biasList.Length), Limits.MaxCurrentWork,
+                string.Create(CultureInfo.InvariantCulture,
+                    $"one bias costs about 6e-5 s × elements² of CPU (about 100 evaluations per period, each walking every element); here {n} periods × {structure.Cell.Elements.Count} elements × {biasList.Length} biases"));
             var rows = Compute(stack, biasList, mu, kelvin);
             Common.Emit(Render(structure, stack, n, mu, kelvin, rows, format), result.GetValue(output));
             return 0;
@@ -145,7 +158,7 @@ internal static class CurrentCommand
             }
             catch (ArgumentOutOfRangeException e) when (e.ParamName == "fermiLevelElectronVolts")
             {
-                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--fermi-level {fermiLevel:R} eV cannot be used at --bias {biases[i]:R} eV: {Common.Describe(e)}"));
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--fermi-level {fermiLevel:R} eV cannot be used at --bias {biases[i]:R} eV: {Common.Describe(e).Replace("fermiLevelElectronVolts", "--fermi-level", StringComparison.Ordinal)}"));
             }
             progress.Report(i + 1);
         }

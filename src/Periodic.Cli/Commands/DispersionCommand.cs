@@ -34,11 +34,9 @@ internal static class DispersionCommand
         {
             var format = Common.Format(result, json, csv);
             var n = Common.CheckCount(result.GetValue(count));
-            var k = Common.CheckCount(result.GetValue(points), "--points", 100_000);
-            if (k < 2)
-            {
-                throw new UsageException("--points must be between 2 and 100000; got 1.");
-            }
+            var k = Limits.CheckRange("--points", result.GetValue(points), Limits.MinGridPoints, 100_000);
+            Limits.CheckWork("--count × --points", Limits.Product(n, k), Limits.MaxDispersionValues,
+                "each value is one E(k) root (about 3 µs of CPU for a two-layer cell)");
             var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result.GetValue(file)!));
             Common.Emit(Render(structure, n, k, format), result.GetValue(output));
             return 0;

@@ -2,6 +2,7 @@
 // Copyright (c) 2026 Periodic contributors
 
 using System.CommandLine;
+using System.Globalization;
 using Periodic.Cli.Output;
 using Periodic.Cli.Physics;
 using Periodic.Serialization;
@@ -37,12 +38,30 @@ internal static class DosCommand
 
     public static PointQuantities.Values[] Compute(StructureDefinition structure, double[] energies)
     {
-        var properties = PointQuantities.PropertiesUpTo(structure.Cell, energies.Max());
+        var highest = energies.Max();
+        Periodic.Properties.BandProperties properties;
+        try
+        {
+            properties = PointQuantities.PropertiesUpTo(structure.Cell, highest);
+        }
+        catch (ArgumentOutOfRangeException e)
+        {
+            throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                $"the highest energy asked for ({highest:R} eV, --to or --energies) lies above more bands than are computed at once (at most 10000): {Common.Describe(e).Replace("energyLimit", "the energy", StringComparison.Ordinal)} Choose a lower energy."));
+        }
         var values = new PointQuantities.Values[energies.Length];
         using var progress = new Progress("dos", energies.Length);
         for (var i = 0; i < energies.Length; i++)
         {
-            values[i] = PointQuantities.At(properties, energies[i]);
+            try
+            {
+                values[i] = PointQuantities.At(properties, energies[i]);
+            }
+            catch (ArgumentOutOfRangeException)
+            {
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                    $"--to/--energies {energies[i]:R} eV lies above the bands this cell's density of states reaches ({properties.Structure.Bands.Count} bands, up to {properties.Structure.Bands[^1].TopElectronVolts:R} eV); choose a lower energy."));
+            }
             if ((i & 255) == 0)
             {
                 progress.Report(i);

@@ -19,6 +19,8 @@ internal static class FieldCommands
 {
     private const double VoltsPerMetrePerKilovoltPerCentimetre = 1e5;
 
+    private const int MaxLadderPeriods = 400;
+
     private const string DriftLimits = "Model: one miniband, one relaxation time, non-degenerate carriers, uniform field, no space charge or field domains; a guide to compare designs.";
 
     private const string LadderLimits = "Model: coherent transmission of the biased stack (resonances), uniform field, no scattering or space charge; a guide, to be checked against measurement.";
@@ -157,7 +159,7 @@ internal static class FieldCommands
         var file = Common.FileArgument();
         var band = new Option<int>("--band") { Description = "The miniband, from 1.", DefaultValueFactory = _ => 1 };
         var field = Common.NumberOption("--field", "kV/cm", "10", "Uniform electric field, kV/cm (required; above 0, with eFd at most the gap above the band).");
-        var periods = new Option<int>("--periods", "-N") { Description = "Periods of the biased stack (default 30).", DefaultValueFactory = _ => 30 };
+        var periods = new Option<int>("--periods", "-N") { Description = "Periods of the biased stack (8 to 400, default 30).", DefaultValueFactory = _ => 30 };
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
         var output = new Option<string?>("--out", "-o") { Description = "Write to this file (atomically) instead of stdout." };
@@ -172,6 +174,9 @@ internal static class FieldCommands
             var format = Common.Format(result, json, csv);
             var n = Common.CheckCount(result.GetValue(band), "--band", 100);
             var f = result.GetValue(field) ?? throw new UsageException("--field is required (kV/cm, e.g. --field 10).");
+            // Each rung search evaluates the written-out stack thousands of times (O(periods) per energy): a long ladder's
+            // middle needs a few tens of periods, so more than 400 only costs time.
+            Limits.CheckRange("--periods", result.GetValue(periods), WannierStarkLadder.MinPeriods, MaxLadderPeriods);
             var structure = Common.Load(result.GetValue(file)!);
             WannierStarkLadder ladder;
             try

@@ -61,12 +61,8 @@ internal static class PlotCommand
             {
                 throw new UsageException($"--out must end in .png or .svg; got \"{path}\".");
             }
-            var w = Common.CheckCount(result.GetValue(width), "--width", 8000);
-            var h = Common.CheckCount(result.GetValue(height), "--height", 8000);
-            if (w < 200 || h < 150)
-            {
-                throw new UsageException("--width must be at least 200 and --height at least 150 pixels.");
-            }
+            var w = Limits.CheckRange("--width", result.GetValue(width), Limits.MinImageWidth, Limits.MaxImageSize, " pixels");
+            var h = Limits.CheckRange("--height", result.GetValue(height), Limits.MinImageHeight, Limits.MaxImageSize, " pixels");
             var n = Common.CheckCount(result.GetValue(count), "--count", 50);
             var kind = result.GetValue(show)!;
             var hasGrid = result.GetValue(grid.From) is not null || result.GetValue(grid.Energies) is not null || result.GetValue(grid.Points) is not null || result.GetValue(grid.To) is not null;
@@ -84,6 +80,13 @@ internal static class PlotCommand
             var loaded = Common.Load(result.GetValue(file)!);
             var atInPlane = Common.AtInPlaneWavevector(result, inPlane, loaded); // validates --in-plane-wavevector
             var structure = kind == "in-plane" ? loaded : atInPlane; // there it is the end of the k∥ axis
+            if (kind == "profile")
+            {
+                // Two points per layer, 201 per smooth segment and period.
+                var perPeriod = structure.Cell.Elements.Sum(e => e is Layer ? 2L : e is DeltaBarrier ? 0L : 201L);
+                Limits.CheckWork("--periods × points per period of the profile", Limits.Product(p == 0 ? 3 : p, perPeriod), Limits.MaxProfilePoints,
+                    "a picture at most 8000 pixels wide cannot show more points; draw fewer periods");
+            }
             var plot = kind switch
             {
                 "in-plane" => InPlaneEdges(structure, n, result.GetValue(inPlane) ?? 1.0),
@@ -93,7 +96,7 @@ internal static class PlotCommand
                 _ => Transmission(structure, n, p == 0 ? structure.Stack?.Parts[0].Repetitions ?? 10 : p, energies, TransmissionCommand.ChooseBias(u, structure)),
             };
             Save(plot, path, extension, w, h);
-            Console.Error.WriteLine($"wrote {path}");
+            Console.Error.WriteLine($"wrote {Common.Printable(path)}");
             return 0;
         });
         return command;

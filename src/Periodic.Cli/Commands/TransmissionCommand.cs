@@ -19,8 +19,8 @@ internal static class TransmissionCommand
         var file = Common.FileArgument();
         var periods = new Option<int?>("--periods", "-N") { Description = "Number of unit cells in the finite stack (1 to 1,000,000); default: the file's stack.periods." };
         var grid = new EnergyGridOptions();
-        var leadPotential = new Option<double?>("--lead-potential") { Description = "Potential of both leads, eV (default: the file's stack, else the first layer's)." };
-        var leadMass = new Option<double?>("--lead-mass") { Description = "Effective mass in both leads, m0 (default: the file's stack, else the first layer's)." };
+        var leadPotential = Common.NumberOption("--lead-potential", "eV", "0", "Potential of both leads, eV (default: the file's stack, else the first layer's).");
+        var leadMass = Common.NumberOption("--lead-mass", "m0", "0.067", "Effective mass in both leads, m0 (default: the file's stack, else the first layer's).");
         var bias = BiasOption();
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
@@ -46,13 +46,13 @@ internal static class TransmissionCommand
             var energies = grid.Read(result);
             var potential = result.GetValue(leadPotential);
             var mass = result.GetValue(leadMass);
-            if (potential is { } v && !double.IsFinite(v))
+            if (potential is { } v)
             {
-                throw new UsageException("--lead-potential must be a finite energy in eV.");
+                Limits.CheckEnergy("--lead-potential", v);
             }
-            if (mass is { } m && !(double.IsFinite(m) && m > 0))
+            if (mass is { } m)
             {
-                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--lead-mass must be a positive mass in m0; got {m:R}."));
+                Limits.CheckMass("--lead-mass", m);
             }
             var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result.GetValue(file)!));
             var periodCount = n ?? structure.Stack?.Parts[0].Repetitions
@@ -69,7 +69,7 @@ internal static class TransmissionCommand
 
     /// <summary>The bias to apply and where it came from (for messages): <c>--bias</c> if given, else the file's <c>stack.bias</c> (0 without one).</summary>
     public static (double ElectronVolts, string Source) ChooseBias(double? option, StructureDefinition structure) =>
-        option is { } u ? (u, "--bias") : (structure.StackBias.ElectronVolts + 0.0, $"stack.bias of {structure.SourceName}");
+        option is { } u ? (Limits.CheckEnergy("--bias", u), "--bias") : (structure.StackBias.ElectronVolts + 0.0, $"stack.bias of {structure.SourceName}");
 
     /// <summary>
     /// Compiles <paramref name="stack"/> under <paramref name="bias"/>; the library's refusal (too many elements written
@@ -128,6 +128,11 @@ internal static class TransmissionCommand
     public static (StackTransmission Stack, TransmissionResult[] Results) Compute(StructureDefinition structure, int periods, double[] energies, double? potential, double? mass,
         (double ElectronVolts, string Source) bias)
     {
+        if (bias.ElectronVolts != 0)
+        {
+            Limits.CheckWork("energies × stack elements under bias", Limits.Product(energies.Length, Limits.Product(periods, structure.Cell.Elements.Count)),
+                Limits.MaxBiasedTransmissionWork, "under bias every energy walks every element of the stack (about 1.1 µs each)");
+        }
         var transmission = Compile(BuildStack(structure, periods, potential, mass), bias.ElectronVolts, bias.Source);
         var results = new TransmissionResult[energies.Length];
         using var progress = new Progress("transmission", energies.Length);

@@ -19,7 +19,8 @@ internal static class Solver
 
     public static bool HasSmoothSegments(UnitCell cell) => cell.Elements.Any(e => e is not Layer and not DeltaBarrier);
 
-    public static Result Compute(UnitCell cell, int count)
+    /// <summary>The lowest <paramref name="count"/> bands; <paramref name="quiet"/> leaves the non-convergence warning to the caller.</summary>
+    public static Result Compute(UnitCell cell, int count, bool quiet = false)
     {
         if (!HasSmoothSegments(cell))
         {
@@ -27,7 +28,7 @@ internal static class Solver
             return new Result(exact, exact.MaxEdgeErrorElectronVolts, false, true, 0);
         }
         var refined = RefinedBandStructure.Compute(cell, count);
-        if (!refined.Converged)
+        if (!refined.Converged && !quiet)
         {
             Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,
                 $"periodic: warning: the smooth segments did not converge to {refined.RelativeTolerance:G2} relative; edge errors up to {refined.MaxEdgeErrorElectronVolts:G3} eV."));

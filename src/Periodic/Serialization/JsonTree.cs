@@ -44,11 +44,12 @@ internal sealed class JsonTreeString(long offset, string value) : JsonTreeNode(o
     public override string KindName => "a string";
 }
 
-internal sealed class JsonTreeNumber(long offset, double value, string text) : JsonTreeNode(offset)
+internal sealed class JsonTreeNumber(long offset, double value, string? text) : JsonTreeNode(offset)
 {
     public double Value { get; } = value;
 
-    public string Text { get; } = text;
+    /// <summary>The number as written, kept only when it is not a finite double (to quote it in the error); else null.</summary>
+    public string? Text { get; } = text;
 
     public override string KindName => "a number";
 }
@@ -69,6 +70,9 @@ internal sealed class JsonTreeLiteral(long offset, JsonTokenType token) : JsonTr
 internal static class JsonTreeReader
 {
     private const int MaxDepth = 64;
+
+    /// <summary>Largest array read: twice the largest count any field accepts, so that field can still say its own bound.</summary>
+    private const int MaxArrayItems = 2 * StructureFileLimits.MaxSamples;
 
     public static JsonTreeNode Read(ReadOnlySpan<byte> utf8)
     {
@@ -101,7 +105,7 @@ internal static class JsonTreeReader
                 while (reader.Read() && reader.TokenType != JsonTokenType.EndObject)
                 {
                     var nameOffset = reader.TokenStartIndex;
-                    var name = reader.GetString()!;
+                    var name = GetString(ref reader);
                     reader.Read();
                     obj.Properties.Add(new JsonTreeProperty(name, nameOffset, ReadValue(ref reader)));
                 }
@@ -110,17 +114,36 @@ internal static class JsonTreeReader
                 var array = new JsonTreeArray(offset);
                 while (reader.Read() && reader.TokenType != JsonTokenType.EndArray)
                 {
+                    if (array.Items.Count == MaxArrayItems)
+                    {
+                        throw new JsonTreeStringException(offset, string.Create(System.Globalization.CultureInfo.InvariantCulture,
+                            $"an array of more than {MaxArrayItems} values; no field of a structure file takes more than {Serialization.StructureFileLimits.MaxSamples} (see docs/limits.md)."), null);
+                    }
                     array.Items.Add(ReadValue(ref reader));
                 }
                 return array;
             case JsonTokenType.String:
-                return new JsonTreeString(offset, reader.GetString()!);
+                return new JsonTreeString(offset, GetString(ref reader));
             case JsonTokenType.Number:
-                var text = Encoding.UTF8.GetString(reader.HasValueSequence ? System.Buffers.BuffersExtensions.ToArray(reader.ValueSequence) : reader.ValueSpan);
                 var value = reader.TryGetDouble(out var d) ? d : double.PositiveInfinity;
+                var text = double.IsFinite(value) ? null : Encoding.UTF8.GetString(reader.HasValueSequence ? System.Buffers.BuffersExtensions.ToArray(reader.ValueSequence) : reader.ValueSpan);
                 return new JsonTreeNumber(offset, value, text);
             default:
                 return new JsonTreeLiteral(offset, reader.TokenType);
+        }
+    }
+
+    /// <summary>The string token's value; an escape that is not a valid character (a lone surrogate such as \ud800) is located.</summary>
+    private static string GetString(ref Utf8JsonReader reader)
+    {
+        try
+        {
+            return reader.GetString()!;
+        }
+        catch (InvalidOperationException e)
+        {
+            throw new JsonTreeStringException(reader.TokenStartIndex,
+                "a string holds an escape that is not a valid character (a lone surrogate such as \\ud800 without its pair); write the character itself or a complete pair.", e);
         }
     }
 
@@ -144,4 +167,10 @@ internal static class JsonTreeReader
         }
         return (line, column);
     }
+}
+
+/// <summary>A string value that is not valid Unicode, with the byte offset where it starts.</summary>
+internal sealed class JsonTreeStringException(long offset, string message, Exception? inner) : Exception(message, inner)
+{
+    public long Offset { get; } = offset;
 }

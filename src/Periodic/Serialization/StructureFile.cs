@@ -61,13 +61,45 @@ public static partial class StructureFile
     /// <exception cref="ArgumentException"><paramref name="path"/> is null or empty.</exception>
     /// <exception cref="FileNotFoundException">The file does not exist.</exception>
     /// <exception cref="IOException">The file cannot be read.</exception>
-    /// <exception cref="StructureFileException">The content is not a valid structure file.</exception>
+    /// <exception cref="StructureFileException">The content is not a valid structure file, or the file is larger than
+    /// <see cref="StructureFileLimits.MaxFileBytes"/> (checked while reading, so a device or an endless stream is never read whole).</exception>
     public static StructureDefinition Load(string path)
     {
         ArgumentException.ThrowIfNullOrEmpty(path);
-        var bytes = File.ReadAllBytes(path);
-        return Parse(bytes, path);
+        if (Directory.Exists(path))
+        {
+            throw new StructureFileException(path, 1, 1, string.Empty, "is a directory, not a structure file.");
+        }
+        using var stream = new FileStream(path, FileMode.Open, FileAccess.Read, FileShare.Read, 1, FileOptions.SequentialScan);
+        var buffer = new byte[(int)Math.Min(StructureFileLimits.MaxFileBytes + 1, stream.CanSeek && stream.Length > 0 ? stream.Length + 1 : 64 * 1024)];
+        var length = 0;
+        while (true)
+        {
+            if (length == buffer.Length)
+            {
+                if (length > StructureFileLimits.MaxFileBytes)
+                {
+                    throw TooLarge(path);
+                }
+                Array.Resize(ref buffer, (int)Math.Min(StructureFileLimits.MaxFileBytes + 1, 2L * buffer.Length));
+            }
+            var read = stream.Read(buffer, length, buffer.Length - length);
+            if (read == 0)
+            {
+                break;
+            }
+            length += read;
+        }
+        if (length > StructureFileLimits.MaxFileBytes)
+        {
+            throw TooLarge(path);
+        }
+        return Parse(buffer.AsSpan(0, length), path);
     }
+
+    private static StructureFileException TooLarge(string sourceName) =>
+        new(sourceName, 1, 1, string.Empty, string.Create(CultureInfo.InvariantCulture,
+            $"the file is larger than {StructureFileLimits.MaxFileBytes} bytes (16 MiB), the largest structure file read (its values are held in memory; see docs/limits.md)."));
 
     /// <summary>Parses a structure document held in a string.</summary>
     /// <param name="json">The JSON text.</param>
@@ -88,14 +120,30 @@ public static partial class StructureFile
     public static StructureDefinition Parse(ReadOnlySpan<byte> utf8Json, string sourceName)
     {
         ArgumentNullException.ThrowIfNull(sourceName);
+        if (utf8Json.Length > StructureFileLimits.MaxFileBytes)
+        {
+            throw TooLarge(sourceName);
+        }
         if (utf8Json.StartsWith("\uFEFF"u8))
         {
             utf8Json = utf8Json[3..];
+        }
+        if (!System.Text.Unicode.Utf8.IsValid(utf8Json)
+            && System.Text.Unicode.Utf8.ToUtf16(utf8Json, new char[utf8Json.Length], out var valid, out _, replaceInvalidSequences: false) != System.Buffers.OperationStatus.Done)
+        {
+            var (badLine, badColumn) = JsonTreeReader.Position(utf8Json, valid);
+            throw new StructureFileException(sourceName, badLine, badColumn, string.Empty,
+                string.Create(CultureInfo.InvariantCulture, $"invalid UTF-8: byte 0x{utf8Json[valid]:X2} at offset {valid} does not start a valid character; save the file as UTF-8."));
         }
         JsonTreeNode root;
         try
         {
             root = JsonTreeReader.Read(utf8Json);
+        }
+        catch (JsonTreeStringException e)
+        {
+            var (line, column) = JsonTreeReader.Position(utf8Json, e.Offset);
+            throw new StructureFileException(sourceName, line, column, string.Empty, e.Message, e);
         }
         catch (JsonException e)
         {
@@ -141,6 +189,11 @@ public static partial class StructureFile
             if (array.Items.Count == 0)
             {
                 throw Error(array, "cell", "must hold at least one layer; got an empty array.");
+            }
+            if (array.Items.Count > StructureFileLimits.MaxElements)
+            {
+                throw Error(array, "cell", string.Create(CultureInfo.InvariantCulture,
+                    $"holds {array.Items.Count} elements; at most {StructureFileLimits.MaxElements} are read (every energy evaluation walks them all; see docs/limits.md)."));
             }
             var labels = new string?[array.Items.Count];
             if (array.Items.Exists(item => item is JsonTreeObject o && o.Properties.Exists(p => p.Name == "material")))
@@ -200,10 +253,15 @@ public static partial class StructureFile
             {
                 throw ErrorAt(both.NameOffset, "stack.leads", "give either leads (both sides) or leftLead/rightLead, not both.");
             }
-            var first = cell.Elements.OfType<Layer>().First();
-            var fallback = Lead.Create(first.Potential, first.Mass);
-            var left = both is not null ? ReadLead(both.Value, "stack.leads") : stackFields.TryGetValue("leftLead", out var l) ? ReadLead(l.Value, "stack.leftLead") : fallback;
-            var right = both is not null ? left : stackFields.TryGetValue("rightLead", out var r) ? ReadLead(r.Value, "stack.rightLead") : fallback;
+            // A lead not given is the cell's first uniform layer; a cell without one (only smooth segments) must give its leads.
+            Lead Fallback(string field)
+            {
+                var first = cell.Elements.OfType<Layer>().FirstOrDefault()
+                    ?? throw ErrorAt(property.NameOffset, field, "is required: the cell has no uniform layer to take the lead's potential and mass from (give \"leads\": {\"potential\": ..., \"mass\": ...}).");
+                return Lead.Create(first.Potential, first.Mass);
+            }
+            var left = both is not null ? ReadLead(both.Value, "stack.leads") : stackFields.TryGetValue("leftLead", out var l) ? ReadLead(l.Value, "stack.leftLead") : Fallback("stack.leftLead");
+            var right = both is not null ? left : stackFields.TryGetValue("rightLead", out var r) ? ReadLead(r.Value, "stack.rightLead") : Fallback("stack.rightLead");
             var stack = Apply(obj, "stack", () => LayerStack.Periodic(left, cell, (int)periods, right));
             var bias = Energy.FromElectronVolts(0);
             if (stackFields.TryGetValue("bias", out var b))
@@ -404,8 +462,8 @@ public static partial class StructureFile
                 throw Error(periodNode, path + ".period", $"must be positive; got {Format(period)} nm.");
             }
             var constant = fields.TryGetValue("constant", out var c) ? ReadQuantity(c.Value, path + ".constant", EnergyUnits, "eV", "eV, meV") : 0.0;
-            var cosine = fields.TryGetValue("cosine", out var co) ? ReadQuantities(co.Value, path + ".cosine", EnergyUnits, "eV", "eV, meV") : [];
-            var sine = fields.TryGetValue("sine", out var si) ? ReadQuantities(si.Value, path + ".sine", EnergyUnits, "eV", "eV, meV") : [];
+            var cosine = fields.TryGetValue("cosine", out var co) ? ReadQuantities(co.Value, path + ".cosine", EnergyUnits, "eV", "eV, meV", StructureFileLimits.MaxHarmonics, "harmonics (each costs 32 Magnus steps in every energy evaluation)") : [];
+            var sine = fields.TryGetValue("sine", out var si) ? ReadQuantities(si.Value, path + ".sine", EnergyUnits, "eV", "eV, meV", StructureFileLimits.MaxHarmonics, "harmonics (each costs 32 Magnus steps in every energy evaluation)") : [];
             var mass = ReadMass(fields, obj, path);
             return Apply(obj, path, () => FourierSegment.Create(Length.FromNanometres(period), Energy.FromElectronVolts(constant), cosine, sine, EffectiveMass.FromElectronMasses(mass)));
         }
@@ -415,8 +473,9 @@ public static partial class StructureFile
         {
             var obj = ExpectObject(node, path);
             var fields = Fields(obj, path, ["positions", "potentials", "mass", "masses"]);
-            var positions = ReadQuantities(Required(fields, obj, path, "positions"), path + ".positions", LengthUnits, "nm", "nm, Å, pm, µm");
-            var potentials = ReadQuantities(Required(fields, obj, path, "potentials"), path + ".potentials", EnergyUnits, "eV", "eV, meV");
+            const string why = "samples (each is a Magnus step in every energy evaluation, doubled by refinement)";
+            var positions = ReadQuantities(Required(fields, obj, path, "positions"), path + ".positions", LengthUnits, "nm", "nm, Å, pm, µm", StructureFileLimits.MaxSamples, why);
+            var potentials = ReadQuantities(Required(fields, obj, path, "potentials"), path + ".potentials", EnergyUnits, "eV", "eV, meV", StructureFileLimits.MaxSamples, why);
             // Only the spacing matters inside a cell: positions are taken from the first sample, so the
             // segment's coordinate runs from 0 to its width like every other element's.
             if (positions.Length > 0)
@@ -433,7 +492,7 @@ public static partial class StructureFile
                 {
                     throw ErrorAt(ms.NameOffset, path + ".masses", "give either mass or masses, not both.");
                 }
-                var masses = ReadQuantities(ms.Value, path + ".masses", MassUnits, "m0", "m0");
+                var masses = ReadQuantities(ms.Value, path + ".masses", MassUnits, "m0", "m0", StructureFileLimits.MaxSamples, why);
                 return Apply(obj, path, () => SampledSegment.Create(positions, potentials, masses));
             }
             var mass = ReadMass(fields, obj, path);
@@ -451,11 +510,16 @@ public static partial class StructureFile
             return mass;
         }
 
-        private double[] ReadQuantities(JsonTreeNode node, string path, Dictionary<string, double> units, string defaultUnit, string allowed)
+        private double[] ReadQuantities(JsonTreeNode node, string path, Dictionary<string, double> units, string defaultUnit, string allowed, int maxCount, string what)
         {
             if (node is not JsonTreeArray array)
             {
                 throw Error(node, path, $"must be an array of values ({defaultUnit}, or strings with units {allowed}); got {node.KindName}.");
+            }
+            if (array.Items.Count > maxCount)
+            {
+                throw Error(node, path, string.Create(CultureInfo.InvariantCulture,
+                    $"holds {array.Items.Count} values; at most {maxCount} {what} are read (see docs/limits.md)."));
             }
             var values = new double[array.Items.Count];
             for (var i = 0; i < values.Length; i++)
@@ -469,12 +533,54 @@ public static partial class StructureFile
 
         private double ReadQuantity(JsonTreeNode node, string path, Dictionary<string, double> units, string defaultUnit, string allowed)
         {
+            var value = ReadRawQuantity(node, path, units, defaultUnit, allowed);
+            CheckPhysical(node, path, units, value);
+            return value;
+        }
+
+        /// <summary>
+        /// The physical range of each kind of quantity (<see cref="StructureFileLimits"/>): a value outside it describes no
+        /// material or atom the single-band model applies to, and would only fail later, deep in a calculation. Signs are
+        /// left to the callers' own checks (a mass or width of zero or less keeps its "must be positive" message).
+        /// </summary>
+        private void CheckPhysical(JsonTreeNode node, string path, Dictionary<string, double> units, double value)
+        {
+            var magnitude = Math.Abs(value);
+            string? problem = null;
+            if (units == MassUnits && value > 0 && (value < StructureFileLimits.MinMassElectronMasses || value > StructureFileLimits.MaxMassElectronMasses))
+            {
+                problem = $"must be between {Format(StructureFileLimits.MinMassElectronMasses)} and {Format(StructureFileLimits.MaxMassElectronMasses)} m0 (from below the lightest semiconductor carriers to above the heaviest atoms in optical lattices); got {Format(value)} m0.";
+            }
+            else if (units == LengthUnits && (magnitude > StructureFileLimits.MaxWidthNanometres || (value > 0 && value < StructureFileLimits.MinWidthNanometres && !path.Contains(".positions[", StringComparison.Ordinal))))
+            {
+                problem = $"must be between {Format(StructureFileLimits.MinWidthNanometres)} and {Format(StructureFileLimits.MaxWidthNanometres)} nm in size (far below a monolayer to 1 mm); got {Format(value)} nm.";
+            }
+            else if (units == EnergyUnits && magnitude > StructureFileLimits.MaxPotentialElectronVolts)
+            {
+                problem = $"must be between -{Format(StructureFileLimits.MaxPotentialElectronVolts)} and {Format(StructureFileLimits.MaxPotentialElectronVolts)} eV (band offsets and lattice depths are a few eV at most); got {Format(value)} eV.";
+            }
+            else if (units == StrengthUnits && magnitude > StructureFileLimits.MaxDeltaStrengthElectronVoltNanometres)
+            {
+                problem = $"must be between -{Format(StructureFileLimits.MaxDeltaStrengthElectronVoltNanometres)} and {Format(StructureFileLimits.MaxDeltaStrengthElectronVoltNanometres)} eV nm; got {Format(value)} eV nm.";
+            }
+            else if (units == InverseEnergyUnits && value > StructureFileLimits.MaxNonParabolicityPerElectronVolt)
+            {
+                problem = $"must be at most {Format(StructureFileLimits.MaxNonParabolicityPerElectronVolt)} /eV (semiconductors have a few /eV); got {Format(value)} /eV.";
+            }
+            if (problem is not null)
+            {
+                throw Error(node, path, problem + " See docs/limits.md.");
+            }
+        }
+
+        private double ReadRawQuantity(JsonTreeNode node, string path, Dictionary<string, double> units, string defaultUnit, string allowed)
+        {
             switch (node)
             {
                 case JsonTreeNumber number:
                     if (!double.IsFinite(number.Value))
                     {
-                        throw Error(node, path, $"must be a finite number; got {number.Text}.");
+                        throw Error(node, path, $"must be a finite number; got {number.Text ?? Format(number.Value)}.");
                     }
                     return number.Value;
                 case JsonTreeString text:

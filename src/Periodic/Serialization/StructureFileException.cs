@@ -62,7 +62,28 @@ public sealed class StructureFileException : FormatException
     public string Problem { get; }
 
     private static string Compose(string sourceName, int line, int column, string field, string problem) =>
-        field.Length == 0
+        Escape(field.Length == 0
             ? string.Create(CultureInfo.InvariantCulture, $"{sourceName}:{line}:{column}: {problem}")
-            : string.Create(CultureInfo.InvariantCulture, $"{sourceName}:{line}:{column}: {field}: {problem}");
+            : string.Create(CultureInfo.InvariantCulture, $"{sourceName}:{line}:{column}: {field}: {problem}"));
+
+    /// <summary>
+    /// One printable line: control characters (including line breaks quoted from the file), line and paragraph separators and
+    /// bidirectional controls become \uXXXX, so a message can neither span lines nor drive a terminal.
+    /// </summary>
+    private static string Escape(string text)
+    {
+        var builder = new System.Text.StringBuilder(text.Length);
+        foreach (var c in text)
+        {
+            if (char.IsControl(c) || c is '\u2028' or '\u2029' || (c >= '\u202A' && c <= '\u202E') || (c >= '\u2066' && c <= '\u2069'))
+            {
+                builder.Append(CultureInfo.InvariantCulture, $"\\u{(int)c:X4}");
+            }
+            else
+            {
+                builder.Append(c);
+            }
+        }
+        return builder.ToString();
+    }
 }

@@ -215,17 +215,51 @@ public sealed class FourierSegment : CellElement, IMeshedSegment
         {
             return (ConstantElectronVolts, ConstantElectronVolts);
         }
-        var samples = Math.Max(256, 64 * _cosine.Length);
+        // A power of two at least 64 samples per harmonic, so the transform takes its radix-2 path.
+        var samples = (int)Math.Min(1L << 30, System.Numerics.BitOperations.RoundUpToPowerOf2((uint)Math.Max(256, 64 * _cosine.Length)));
         var d = Width.Nanometres;
+        var (values, _) = SampleUniform(samples, 0, 0);
         double min = double.PositiveInfinity, max = double.NegativeInfinity, xMin = 0, xMax = 0;
         for (var i = 0; i < samples; i++)
         {
             var x = d * i / samples;
-            var v = Evaluate(x, out _, out _);
+            var v = values[i];
             if (v < min) { min = v; xMin = x; }
             if (v > max) { max = v; xMax = x; }
         }
         return (Polish(xMin, min, d / samples, true), Polish(xMax, max, d / samples, false));
+    }
+
+    /// <summary>
+    /// V at the M points x_j = (j + δ)·d/M, j = 0 … M−1, for the two offsets δ = <paramref name="offset1"/> and
+    /// <paramref name="offset2"/>, by one inverse discrete Fourier transform (<c>FastFourier</c>: O(M log M) instead of
+    /// O(M·N) for direct summation). Harmonic n with c_n = a_n − i·b_n contributes c_n e^{iφ}/2 to bin n mod M and its
+    /// conjugate to bin −n mod M (φ = 2πnδ/M), so each offset's transform is real; the second offset's spectrum is
+    /// multiplied by i, so the real part of the result holds the first set of values and the imaginary part the second.
+    /// </summary>
+    private (double[] First, double[] Second) SampleUniform(int m, double offset1, double offset2)
+    {
+        var bins = new System.Numerics.Complex[m];
+        var i = System.Numerics.Complex.ImaginaryOne;
+        for (var n = 1; n <= _cosine.Length; n++)
+        {
+            var c = 0.5 * new System.Numerics.Complex(_cosine[n - 1], -_sine[n - 1]);
+            var (sin1, cos1) = Math.SinCos(2 * Math.PI * (n * offset1 / m));
+            var (sin2, cos2) = Math.SinCos(2 * Math.PI * (n * offset2 / m));
+            var z1 = c * new System.Numerics.Complex(cos1, sin1);
+            var z2 = c * new System.Numerics.Complex(cos2, sin2);
+            bins[n % m] += z1 + i * z2;
+            bins[(m - n % m) % m] += System.Numerics.Complex.Conjugate(z1) + i * System.Numerics.Complex.Conjugate(z2);
+        }
+        Numerics.FastFourier.InverseUnscaled(bins);
+        var first = new double[m];
+        var second = new double[m];
+        for (var j = 0; j < m; j++)
+        {
+            first[j] = ConstantElectronVolts + bins[j].Real;
+            second[j] = ConstantElectronVolts + bins[j].Imaginary;
+        }
+        return (first, second);
     }
 
     /// <summary>A few Newton steps on V′ = 0 from the best sample, kept within one sample spacing.</summary>
@@ -256,16 +290,10 @@ public sealed class FourierSegment : CellElement, IMeshedSegment
         var n = StepCount;
         var h = Width.Nanometres / n;
         var widths = new double[n];
-        var v1 = new double[n];
-        var v2 = new double[n];
         var m = new double[n];
-        for (var j = 0; j < n; j++)
-        {
-            widths[j] = h;
-            v1[j] = Evaluate((j + SegmentMesh.Node1) * h, out _, out _);
-            v2[j] = Evaluate((j + SegmentMesh.Node2) * h, out _, out _);
-            m[j] = Mass.ElectronMasses;
-        }
+        Array.Fill(widths, h);
+        Array.Fill(m, Mass.ElectronMasses);
+        var (v1, v2) = SampleUniform(n, SegmentMesh.Node1, SegmentMesh.Node2);
         return new SegmentMesh(widths, v1, v2, m, m);
     }
 }

@@ -89,4 +89,49 @@ public sealed class FourierSegmentTest
         Assert.Equal(500, segment.StepCount);
         Assert.Equal(0.25, segment.PotentialAt(0), 1e-15);
     }
+
+    [Theory]
+    [InlineData(1024)] // a power of two: the radix-2 path
+    [InlineData(1000)] // otherwise: the chirp-z path
+    [InlineData(7)] // fewer steps than harmonics: harmonics alias onto the same bins
+    public void Mesh_MatchesTheSeriesSummedDirectly(int steps)
+    {
+        // The mesh is sampled by a fast transform; direct summation of V₀ + Σ aₙcos + bₙsin at the Gauss nodes
+        // (the definition) is the reference. Tolerance 1e-12 × Σ|aₙ| + |bₙ|: rounding of a transform of ≤ 2¹¹ points.
+        var random = new Random(7);
+        var cosine = new double[40];
+        var sine = new double[25];
+        for (var i = 0; i < cosine.Length; i++)
+        {
+            cosine[i] = random.NextDouble() - 0.5;
+        }
+        for (var i = 0; i < sine.Length; i++)
+        {
+            sine[i] = random.NextDouble() - 0.5;
+        }
+        var segment = FourierSegment.Create(Period, Energy.FromElectronVolts(0.3), cosine, sine, EffectiveMass.FreeElectron, steps);
+        var mesh = segment.Mesh;
+        var scale = cosine.Sum(Math.Abs) + sine.Sum(Math.Abs);
+        const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
+        var h = Period.Nanometres / steps;
+        for (var j = 0; j < steps; j++)
+        {
+            double x1 = (j + SegmentMesh.Node1) * h, x2 = (j + SegmentMesh.Node2) * h;
+            double v1 = Direct(x1), v2 = Direct(x2);
+            // Γ₀ = h(V₁ + V₂)/(2C) and, for a constant mass m, α₀ = (√3/12)h²m(V₁ − V₂)/C (SegmentMesh's definitions).
+            Assert.Equal(v1 + v2, mesh.Gamma0[j] * 2 * C / h, 1e-12 * scale);
+            Assert.Equal(v1 - v2, mesh.Alpha0[j] * C / (0.14433756729740644113 * h * h), 1e-12 * scale);
+        }
+
+        double Direct(double x)
+        {
+            var v = 0.3;
+            for (var n = 1; n <= cosine.Length; n++)
+            {
+                v += cosine[n - 1] * Math.Cos(2 * Math.PI * n * x / Period.Nanometres);
+                v += (n <= sine.Length ? sine[n - 1] : 0) * Math.Sin(2 * Math.PI * n * x / Period.Nanometres);
+            }
+            return v;
+        }
+    }
 }

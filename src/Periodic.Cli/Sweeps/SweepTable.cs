@@ -1,0 +1,285 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.Globalization;
+using System.Text;
+using System.Text.Json;
+using Parquet;
+using Parquet.Schema;
+using Periodic.Cli.Output;
+
+namespace Periodic.Cli.Sweeps;
+
+/// <summary>
+/// The rows of a sweep in design order, written as CSV or Parquet (chosen by the file's extension) and read back
+/// by <c>merge</c>. Doubles keep every bit: CSV uses the shortest round-trip form, Parquet stores IEEE doubles.
+/// </summary>
+/// <remarks>
+/// CSV: a header row <c>design,FIELD (UNIT),…,error</c>, one row per design, an empty cell where a value does not
+/// exist (a failed design, a band too narrow for a finite mass). Parquet: columns <c>design</c> (int32), one optional
+/// double column per value, <c>error</c> (optional string); the key-value metadata holds <c>periodic.units</c>
+/// (a JSON object column → unit), <c>periodic.fingerprint</c> (a hash of the sweep and structure files),
+/// <c>periodic.designs</c> (designs in the whole sweep) and, in a shard's file, <c>periodic.shard</c>.
+/// </remarks>
+internal sealed class SweepTable
+{
+    public SweepTable(IReadOnlyList<(string Name, string Unit)> columns, string fingerprint, int totalDesigns, string? shard, IReadOnlyList<SweepRow> rows)
+    {
+        Columns = columns;
+        Fingerprint = fingerprint;
+        TotalDesigns = totalDesigns;
+        Shard = shard;
+        Rows = rows;
+    }
+
+    public IReadOnlyList<(string Name, string Unit)> Columns { get; }
+
+    public string Fingerprint { get; }
+
+    public int TotalDesigns { get; }
+
+    public string? Shard { get; }
+
+    public IReadOnlyList<SweepRow> Rows { get; }
+
+    /// <summary>The format an output path asks for.</summary>
+    public static bool IsParquet(string path, string option)
+    {
+        var extension = Path.GetExtension(path).ToLowerInvariant();
+        return extension switch
+        {
+            ".parquet" => true,
+            ".csv" => false,
+            _ => throw new UsageException($"{option} {Printable.Quote(path)}: the file must end in .csv or .parquet (that chooses the format)."),
+        };
+    }
+
+    /// <summary>Writes the table to <paramref name="path"/> through the tool's safe output rules.</summary>
+    public void Write(string path)
+    {
+        var parquet = IsParquet(path, OutputFile.Option);
+        OutputFile.WriteAtomically(path, stream =>
+        {
+            if (parquet)
+            {
+                WriteParquet(stream).GetAwaiter().GetResult();
+            }
+            else
+            {
+                WriteCsv(stream);
+            }
+        });
+    }
+
+    private void WriteCsv(Stream stream)
+    {
+        using var writer = new StreamWriter(stream, new UTF8Encoding(false), 1 << 16, leaveOpen: true) { NewLine = "\n" };
+        writer.Write("design");
+        foreach (var (name, unit) in Columns)
+        {
+            writer.Write(',');
+            writer.Write(Csv.Escape($"{name} ({unit})"));
+        }
+        writer.Write(",error\n");
+        Span<char> number = stackalloc char[32];
+        foreach (var row in Rows)
+        {
+            writer.Write(row.Design.ToString(CultureInfo.InvariantCulture));
+            foreach (var value in row.Values)
+            {
+                writer.Write(',');
+                if (value is { } x && x.TryFormat(number, out var written, "R", CultureInfo.InvariantCulture))
+                {
+                    writer.Write(number[..written]);
+                }
+            }
+            writer.Write(',');
+            if (row.Error is not null)
+            {
+                writer.Write(Csv.Escape(row.Error));
+            }
+            writer.Write('\n');
+        }
+    }
+
+    private async Task WriteParquet(Stream stream)
+    {
+        var designField = new DataField<int>("design");
+        var valueFields = Columns.Select(c => new DataField<double?>(c.Name)).ToArray();
+        var errorField = new DataField<string>("error", true);
+        var schema = new ParquetSchema([designField, .. valueFields, errorField]);
+        await using var writer = await ParquetWriter.CreateAsync(schema, stream);
+        writer.CustomMetadata = Metadata();
+        using var group = writer.CreateRowGroup();
+        await group.WriteAsync(designField, new ReadOnlyMemory<int>(Rows.Select(r => r.Design).ToArray()));
+        var column = new double?[Rows.Count];
+        for (var j = 0; j < valueFields.Length; j++)
+        {
+            for (var i = 0; i < Rows.Count; i++)
+            {
+                column[i] = Rows[i].Values[j];
+            }
+            await group.WriteAsync(valueFields[j], new ReadOnlyMemory<double?>(column));
+        }
+        await group.WriteAsync(errorField, Rows.Select(r => r.Error).ToArray());
+    }
+
+    private Dictionary<string, string> Metadata()
+    {
+        var units = new Dictionary<string, string>(StringComparer.Ordinal);
+        foreach (var (name, unit) in Columns)
+        {
+            units[name] = unit;
+        }
+        var metadata = new Dictionary<string, string>(StringComparer.Ordinal)
+        {
+            ["periodic.units"] = JsonSerializer.Serialize(units),
+            ["periodic.fingerprint"] = Fingerprint,
+            ["periodic.designs"] = TotalDesigns.ToString(CultureInfo.InvariantCulture),
+        };
+        if (Shard is not null)
+        {
+            metadata["periodic.shard"] = Shard;
+        }
+        return metadata;
+    }
+
+    /// <summary>Reads a table that <see cref="Write"/> wrote (for <c>merge</c>); errors name the file.</summary>
+    public static SweepTable Read(string path)
+    {
+        if (!File.Exists(path))
+        {
+            throw new UsageException($"merge: {Printable.Quote(path)} does not exist.");
+        }
+        OutputFile.RegisterInput(path);
+        try
+        {
+            return IsParquet(path, "merge") ? ReadParquet(path).GetAwaiter().GetResult() : ReadCsv(path);
+        }
+        catch (Exception e) when (e is FormatException or IOException or InvalidDataException or JsonException or KeyNotFoundException or InvalidCastException)
+        {
+            throw new UsageException($"merge: {Printable.Quote(path)} is not a sweep table written by periodic sweep: {e.Message}");
+        }
+    }
+
+    private static SweepTable ReadCsv(string path)
+    {
+        using var reader = new StreamReader(path, Encoding.UTF8);
+        var header = Csv.Split(reader.ReadLine() ?? throw new FormatException("the file is empty"));
+        if (header.Count < 2 || header[0] != "design" || header[^1] != "error")
+        {
+            throw new FormatException("the header must start with design and end with error");
+        }
+        var columns = header.Skip(1).Take(header.Count - 2).Select(ParseHeader).ToList();
+        var rows = new List<SweepRow>();
+        var lineNumber = 1;
+        while (reader.ReadLine() is { } line)
+        {
+            lineNumber++;
+            var cells = Csv.Split(line);
+            if (cells.Count != header.Count)
+            {
+                throw new FormatException(string.Create(CultureInfo.InvariantCulture, $"line {lineNumber} has {cells.Count} cells; the header has {header.Count}"));
+            }
+            var values = new double?[columns.Count];
+            for (var j = 0; j < values.Length; j++)
+            {
+                values[j] = cells[j + 1].Length == 0 ? null : double.Parse(cells[j + 1], NumberStyles.Float, CultureInfo.InvariantCulture);
+            }
+            rows.Add(new SweepRow(int.Parse(cells[0], NumberStyles.None, CultureInfo.InvariantCulture), values, cells[^1].Length == 0 ? null : cells[^1]));
+        }
+        return new SweepTable(columns, "", -1, null, rows);
+    }
+
+    private static (string, string) ParseHeader(string cell)
+    {
+        var open = cell.LastIndexOf(" (", StringComparison.Ordinal);
+        if (open < 0 || !cell.EndsWith(')'))
+        {
+            throw new FormatException($"header cell {Printable.Quote(cell)} has no unit in parentheses");
+        }
+        return (cell[..open], cell[(open + 2)..^1]);
+    }
+
+    private static async Task<SweepTable> ReadParquet(string path)
+    {
+        await using var stream = File.OpenRead(path);
+        await using var reader = await ParquetReader.CreateAsync(stream);
+        var metadata = reader.CustomMetadata;
+        var units = JsonSerializer.Deserialize<Dictionary<string, string>>(metadata["periodic.units"])!;
+        var fields = reader.Schema.DataFields;
+        var valueFields = fields.Skip(1).Take(fields.Length - 2).ToArray();
+        var rows = new List<SweepRow>();
+        for (var g = 0; g < reader.RowGroupCount; g++)
+        {
+            using var group = reader.OpenRowGroupReader(g);
+            var count = (int)group.RowCount;
+            var designs = new int[count];
+            await group.ReadAsync(fields[0], designs.AsMemory());
+            var values = new double?[valueFields.Length][];
+            for (var j = 0; j < valueFields.Length; j++)
+            {
+                values[j] = new double?[count];
+                await group.ReadAsync(valueFields[j], values[j].AsMemory());
+            }
+            var errors = new string?[count];
+            await group.ReadAsync(fields[^1], errors.AsMemory());
+            for (var i = 0; i < count; i++)
+            {
+                rows.Add(new SweepRow(designs[i], values.Select(column => column[i]).ToArray(), errors[i]));
+            }
+        }
+        var columns = valueFields.Select(f => (f.Name, units[f.Name])).ToList();
+        return new SweepTable(columns, metadata["periodic.fingerprint"], int.Parse(metadata["periodic.designs"], CultureInfo.InvariantCulture),
+            metadata.TryGetValue("periodic.shard", out var shard) ? shard : null, rows);
+    }
+}
+
+/// <summary>RFC 4180 quoting: a cell with a comma, quote or line break is quoted, quotes doubled.</summary>
+internal static class Csv
+{
+    public static string Escape(string cell) =>
+        cell.AsSpan().IndexOfAny(",\"\r\n") >= 0 ? "\"" + cell.Replace("\"", "\"\"", StringComparison.Ordinal) + "\"" : cell;
+
+    public static List<string> Split(string line)
+    {
+        var cells = new List<string>();
+        var cell = new StringBuilder();
+        var quoted = false;
+        for (var i = 0; i < line.Length; i++)
+        {
+            var c = line[i];
+            if (quoted)
+            {
+                if (c == '"' && i + 1 < line.Length && line[i + 1] == '"')
+                {
+                    cell.Append('"');
+                    i++;
+                }
+                else if (c == '"')
+                {
+                    quoted = false;
+                }
+                else
+                {
+                    cell.Append(c);
+                }
+            }
+            else if (c == '"')
+            {
+                quoted = true;
+            }
+            else if (c == ',')
+            {
+                cells.Add(cell.ToString());
+                cell.Clear();
+            }
+            else
+            {
+                cell.Append(c);
+            }
+        }
+        cells.Add(cell.ToString());
+        return cells;
+    }
+}
