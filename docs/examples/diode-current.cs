@@ -15,7 +15,8 @@ var mass = EffectiveMass.FromElectronMasses(0.067);
 Layer Slab(double nm, double ev) => Layer.Create(Length.FromNanometres(nm), Energy.FromElectronVolts(ev), mass);
 var contact = Lead.Create(default, mass);
 var diode = LayerStack.Create(contact, contact, Slab(5, 0), Slab(2.5, 0.3), Slab(5, 0), Slab(2.5, 0.3), Slab(5, 0));
-const double fermiLevel = 0.04, kelvin = 77;
+var fermiLevel = Energy.FromElectronVolts(0.04);
+var temperature = Temperature.FromKelvin(77);
 
 var level = StackTransmission.Create(diode).FindResonances(0.005, 0.25).Resonances[0];
 Console.WriteLine($"{diode.ThicknessNanometres} nm diode; resonance at zero bias: {level.EnergyElectronVolts:F4} eV, width {level.WidthElectronVolts * 1e3:F3} meV");
@@ -26,7 +27,7 @@ for (var volts = 0.02; volts <= 0.30001; volts += 0.04)
     var biased = StackTransmission.Create(diode, Energy.FromElectronVolts(volts));
     var peaks = biased.FindResonances(-volts + 1e-4, 0.25).Resonances;
     var peak = peaks.Count > 0 ? $"{peaks[0].EnergyElectronVolts,10:F4}" : "      none";
-    var j = biased.CurrentDensity(fermiLevel, kelvin);
+    var j = biased.CurrentDensity(fermiLevel, temperature);
     Console.WriteLine($"  {volts,7:F2}     {peak}     {j.AmperesPerSquareCentimetre,11:E3}   {j.ErrorEstimateAmperesPerSquareMetre * 1e-4,9:E1}{(j.IsConverged ? "" : "  (not converged)")}");
 }
 Console.WriteLine("The current peaks while the resonance sits between the contacts' band edge and Fermi level, then drops:");

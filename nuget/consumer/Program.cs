@@ -1,6 +1,7 @@
 // SPDX-License-Identifier: MIT
 // Copyright (c) 2026 Periodic contributors
 
+using System.Reflection;
 using Periodic.Bands;
 using Periodic.Serialization;
 
@@ -18,5 +19,6 @@ if (!ordered || bands.Bands[0].BottomElectronVolts <= 0)
     Console.Error.WriteLine("consumer: unexpected band structure");
     return 1;
 }
-Console.WriteLine($"consumer: OK, library {typeof(BandStructure).Assembly.GetName().Version}");
+// The informational version is the package version (plus the commit): .ci/package-checks.sh compares it with the one it packed.
+Console.WriteLine($"consumer: OK, library {typeof(BandStructure).Assembly.GetCustomAttribute<AssemblyInformationalVersionAttribute>()?.InformationalVersion}");
 return 0;

@@ -2,7 +2,7 @@
 // Copyright (c) 2026 Periodic contributors
 
 using System.CommandLine;
-using Periodic.Bands;
+using Periodic;
 using Periodic.Cli;
 using Periodic.Cli.Commands;
 using Periodic.Serialization;
@@ -56,14 +56,17 @@ try
 }
 catch (Exception e)
 {
+    // Bad input (the library's ArgumentException, a bad or missing file, a bad option) is 2; a numerical failure on
+    // valid input (PeriodicComputationException and anything unforeseen) is 1.
     var code = e switch
     {
-        UsageException or StructureFileException or ArgumentException or FileNotFoundException or UnauthorizedAccessException => 2,
+        UsageException or StructureFileException or ArgumentException
+            or FileNotFoundException or DirectoryNotFoundException or UnauthorizedAccessException => 2,
         _ => 1,
     };
     var what = e switch
     {
-        BandSearchException => "computation failed: ",
+        PeriodicComputationException => "computation failed: ",
         UsageException or StructureFileException or ArgumentException => "",
         IOException or UnauthorizedAccessException => "",
         _ => "computation failed: ",

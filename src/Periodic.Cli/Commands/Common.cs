@@ -133,29 +133,8 @@ internal static class Common
         return structure;
     }
 
-    /// <summary>
-    /// Text from a file or the command line as it may be printed: control characters (C0, DEL, C1), line and paragraph
-    /// separators and bidirectional controls become \uXXXX escapes, so a name cannot move the cursor, recolour or clear the terminal.
-    /// </summary>
-    public static string Printable(string text)
-    {
-        StringBuilder? builder = null;
-        for (var i = 0; i < text.Length; i++)
-        {
-            var c = text[i];
-            var unsafeChar = char.IsControl(c) || c is '\u2028' or '\u2029' || (c >= '\u202A' && c <= '\u202E') || (c >= '\u2066' && c <= '\u2069');
-            if (unsafeChar)
-            {
-                builder ??= new StringBuilder(text, 0, i, text.Length + 16);
-                builder.Append(string.Create(CultureInfo.InvariantCulture, $"\\u{(int)c:X4}"));
-            }
-            else
-            {
-                builder?.Append(c);
-            }
-        }
-        return builder?.ToString() ?? text;
-    }
+    /// <summary>Text from a file or the command line as it may be printed (<see cref="Output.Printable.Escape"/>).</summary>
+    public static string Printable(string text) => Output.Printable.Escape(text);
 
     /// <summary>Writes the finished text to stdout, or atomically to <paramref name="outPath"/>.</summary>
     public static void Emit(string text, string? outPath)
@@ -223,8 +202,8 @@ internal static class Common
         foreach (var (name, lead) in new[] { ("leftLead", stack.LeftLead), ("rightLead", stack.RightLead) })
         {
             writer.WriteStartObject(name);
-            writer.WriteNumber("potential", lead.PotentialElectronVolts);
-            writer.WriteNumber("mass", lead.MassElectronMasses);
+            writer.WriteNumber("potential", lead.Potential.ElectronVolts);
+            writer.WriteNumber("mass", lead.Mass.ElectronMasses);
             writer.WriteEndObject();
         }
     }

@@ -6,6 +6,7 @@ using System.Globalization;
 using Periodic.Cli.Output;
 using Periodic.Serialization;
 using Periodic.Stacks;
+using Periodic.Units;
 
 namespace Periodic.Cli.Commands;
 
@@ -154,9 +155,9 @@ internal static class CurrentCommand
             var transmission = TransmissionCommand.Compile(stack, biases[i], "--bias");
             try
             {
-                rows[i] = transmission.CurrentDensity(fermiLevel, kelvin);
+                rows[i] = transmission.CurrentDensity(Energy.FromElectronVolts(fermiLevel), Temperature.FromKelvin(kelvin));
             }
-            catch (ArgumentOutOfRangeException e) when (e.ParamName == "fermiLevelElectronVolts")
+            catch (ArgumentOutOfRangeException e) when (e.ParamName == "fermiLevel")
             {
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--fermi-level {fermiLevel:R} eV cannot be used at --bias {biases[i]:R} eV: {Common.Describe(e).Replace("fermiLevelElectronVolts", "--fermi-level", StringComparison.Ordinal)}"));
             }
@@ -210,7 +211,7 @@ internal static class CurrentCommand
         }
         var lead = stack.LeftLead;
         var title = Common.TableTitle(structure) + string.Create(CultureInfo.InvariantCulture,
-            $"{periods} period(s), {stack.ThicknessNanometres:G6} nm, leads V = {lead.PotentialElectronVolts:G6} eV, m = {lead.MassElectronMasses:G6} m0; Fermi level {fermiLevel:G6} eV (left contact), T = {kelvin:G6} K\n")
+            $"{periods} period(s), {stack.ThicknessNanometres:G6} nm, leads V = {lead.Potential.ElectronVolts:G6} eV, m = {lead.Mass.ElectronMasses:G6} m0; Fermi level {fermiLevel:G6} eV (left contact), T = {kelvin:G6} K\n")
             + "Tsu-Esaki current, coherent, uniform field, no space charge or self-consistency: a design guide, check against measurement.\n";
         return title + "\n" + table.ToText();
     }

@@ -310,7 +310,7 @@ internal static class PlotCommand
         };
         plot.Axes.Left.TickGenerator = ticks;
         var lead = stack.Stack.LeftLead;
-        var note = plot.Add.Text(string.Create(CultureInfo.InvariantCulture, $"minibands of the infinite crystal shaded; leads V = {lead.PotentialElectronVolts:G4} eV, m = {lead.MassElectronMasses:G4} m0"),
+        var note = plot.Add.Text(string.Create(CultureInfo.InvariantCulture, $"minibands of the infinite crystal shaded; leads V = {lead.Potential.ElectronVolts:G4} eV, m = {lead.Mass.ElectronMasses:G4} m0"),
             high - 0.01 * (high - low), floor + 0.02 * (0.5 - floor));
         note.LabelFontSize = 11;
         note.LabelAlignment = Alignment.LowerRight;

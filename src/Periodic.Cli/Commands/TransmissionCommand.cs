@@ -110,7 +110,7 @@ internal static class TransmissionCommand
     private static Lead Override(Lead lead, double? potential, double? mass) =>
         potential is null && mass is null
             ? lead
-            : Lead.Create(Energy.FromElectronVolts(potential ?? lead.PotentialElectronVolts), EffectiveMass.FromElectronMasses(mass ?? lead.MassElectronMasses));
+            : Lead.Create(Energy.FromElectronVolts(potential ?? lead.Potential.ElectronVolts), EffectiveMass.FromElectronMasses(mass ?? lead.Mass.ElectronMasses));
 
     /// <summary>Leads like the cell's first layer unless overridden.</summary>
     public static Lead DefaultLead(UnitCell cell, double? potential, double? mass)
@@ -188,7 +188,7 @@ internal static class TransmissionCommand
             return table.ToCsv();
         }
         var title = Common.TableTitle(structure) + string.Create(CultureInfo.InvariantCulture,
-            $"{periods} period(s), {stack.Stack.ThicknessNanometres:G6} nm, leads V = {lead.PotentialElectronVolts:G6} eV, m = {lead.MassElectronMasses:G6} m0, bias eU = {stack.Bias.ElectronVolts:G6} eV\n");
+            $"{periods} period(s), {stack.Stack.ThicknessNanometres:G6} nm, leads V = {lead.Potential.ElectronVolts:G6} eV, m = {lead.Mass.ElectronMasses:G6} m0, bias eU = {stack.Bias.ElectronVolts:G6} eV\n");
         return title + "\n" + table.ToText();
     }
 }

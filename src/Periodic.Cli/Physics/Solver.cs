@@ -33,7 +33,7 @@ internal static class Solver
             Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,
                 $"periodic: warning: the smooth segments did not converge to {refined.RelativeTolerance:G2} relative; edge errors up to {refined.MaxEdgeErrorElectronVolts:G3} eV."));
         }
-        return new Result(refined.Bands, refined.MaxEdgeErrorElectronVolts, true, refined.Converged, refined.MagnusStepCount);
+        return new Result(refined.Structure, refined.MaxEdgeErrorElectronVolts, true, refined.Converged, refined.MagnusStepCount);
     }
 
     /// <summary>Every band whose bottom lies below <paramref name="energyElectronVolts"/> (at least one).</summary>

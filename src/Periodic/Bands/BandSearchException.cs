@@ -5,9 +5,10 @@ namespace Periodic.Bands;
 
 /// <summary>
 /// A band search could not complete (an iteration budget ran out, or the oscillation count and the
-/// edges found disagree). The message says which edge, the bracket and the iteration count.
+/// edges found disagree). The message says which edge, the bracket and the iteration count. A numerical failure,
+/// like every <see cref="PeriodicComputationException"/>.
 /// </summary>
-public sealed class BandSearchException : Exception
+public sealed class BandSearchException : PeriodicComputationException
 {
     /// <summary>Creates the exception.</summary>
     public BandSearchException(string message)

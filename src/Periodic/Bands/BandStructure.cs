@@ -43,8 +43,8 @@ public sealed class BandStructure
     /// <summary>The unit cell.</summary>
     public UnitCell Cell => Transfer.Cell;
 
-    /// <summary>The compiled transfer matrix of the cell.</summary>
-    public CellTransfer Transfer { get; }
+    /// <summary>The compiled transfer matrix of the cell (callers outside the library use <c>CellTransfer.Create(Cell)</c>).</summary>
+    internal CellTransfer Transfer { get; }
 
     /// <summary>The bands found, lowest first; <c>Bands[n - 1]</c> is band n.</summary>
     public IReadOnlyList<Band> Bands => _bandView ??= new ReadOnlyCollection<Band>(_bands); // made on first use: sweeps of many cells rarely need it

@@ -23,7 +23,7 @@ namespace Periodic.Bands;
 /// the error, which overstates it. A safety factor 2 is applied to the asymptotic estimate. The band-edge
 /// search error (<see cref="Band.BottomErrorElectronVolts"/>) and a rounding bound 4ε√N·max|M|/|D′| are added; refinement
 /// stops for an edge once the change between meshes falls below that rounding bound.</para>
-/// <para>The edges returned are those of <see cref="Bands"/>, the band structure on the finest mesh, so that
+/// <para>The edges returned are those of <see cref="Structure"/>, the band structure on the finest mesh, so that
 /// E(k), k(E) and every derived quantity come from the same, stated-accuracy model. The error is that of
 /// solving the segments as given: a <see cref="SampledSegment"/> is solved as its piecewise-linear
 /// interpolant, and the distance of that interpolant from the true profile is not part of the estimate.</para>
@@ -44,7 +44,7 @@ public sealed class RefinedBandStructure
 
     private RefinedBandStructure(BandStructure bands, double[] errors, double relativeTolerance, int refinements, bool converged, bool roundingLimited, long steps, double scale)
     {
-        Bands = bands;
+        Structure = bands;
         _errors = errors;
         EdgeErrorsElectronVolts = new ReadOnlyCollection<double>(errors);
         RelativeTolerance = relativeTolerance;
@@ -56,7 +56,7 @@ public sealed class RefinedBandStructure
     }
 
     /// <summary>The band structure on the finest mesh.</summary>
-    public BandStructure Bands { get; }
+    public BandStructure Structure { get; }
 
     /// <summary>Estimated error of each edge, eV: entry 2(n − 1) is the bottom of band n, entry 2n − 1 its top.</summary>
     public IReadOnlyList<double> EdgeErrorsElectronVolts { get; }
@@ -72,7 +72,7 @@ public sealed class RefinedBandStructure
             var max = 0.0;
             for (var i = 0; i < _errors.Length; i++)
             {
-                var band = Bands.GetBand(i / 2 + 1);
+                var band = Structure.GetBand(i / 2 + 1);
                 var e = i % 2 == 0 ? band.BottomElectronVolts : band.TopElectronVolts;
                 max = Math.Max(max, _errors[i] / Math.Max(Math.Abs(e), EnergyScaleElectronVolts));
             }
@@ -287,7 +287,7 @@ public sealed class RefinedBandStructure
         var text = new StringBuilder();
         text.Append(CultureInfo.InvariantCulture,
             $"RefinedBandStructure: {(Converged ? "converged" : RoundingLimited ? "rounding-limited" : "NOT converged")} to relative {MaxRelativeError:G3} (requested {RelativeTolerance:G3}) after {Refinements} halving(s), {MagnusStepCount} Magnus steps").AppendLine();
-        text.Append(Bands.ToString());
+        text.Append(Structure.ToString());
         return text.ToString();
     }
 }

@@ -4,8 +4,6 @@
 using System.Collections.ObjectModel;
 using System.Globalization;
 using System.Text;
-using Periodic.Bands;
-using Periodic.Stacks;
 using Periodic.Structures;
 using Periodic.Units;
 
@@ -43,7 +41,7 @@ public sealed class BuiltStructure
     /// <summary>The recipe this was built from.</summary>
     public StructureRecipe Recipe { get; }
 
-    /// <summary>The unit cell to hand to the engine (e.g. <see cref="BandStructure.Compute(UnitCell, int, BandSearchOptions?)"/>).</summary>
+    /// <summary>The unit cell to hand to the engine (e.g. to <c>BandStructure.Compute</c>).</summary>
     public UnitCell Cell { get; }
 
     /// <summary>Every layer with the numbers used, in cell order.</summary>
@@ -102,55 +100,25 @@ public sealed class BuiltStructure
     }
 
     /// <summary>
-    /// Checks the edges of every band of <paramref name="bands"/> (computed for this structure's cell) as
-    /// <see cref="CheckEnergies"/> does; one warning per offending band top or bottom.
-    /// </summary>
-    /// <exception cref="ArgumentNullException"><paramref name="bands"/> is null.</exception>
-    /// <exception cref="ArgumentException"><paramref name="bands"/> was computed for another cell.</exception>
-    public IReadOnlyList<ModelWarning> CheckBands(BandStructure bands)
-    {
-        ArgumentNullException.ThrowIfNull(bands);
-        if (!ReferenceEquals(bands.Cell, Cell))
-        {
-            throw new ArgumentException("bands must be computed for this structure's Cell; got bands of another cell.", nameof(bands));
-        }
-        var energies = new double[2 * bands.Bands.Count];
-        for (var i = 0; i < bands.Bands.Count; i++)
-        {
-            energies[2 * i] = bands.Bands[i].BottomElectronVolts;
-            energies[2 * i + 1] = bands.Bands[i].TopElectronVolts;
-        }
-        return CheckEnergies(energies);
-    }
-
-    /// <summary>
-    /// A finite stack of <see cref="StructureRecipe.Periods"/> periods of <see cref="Cell"/> between leads of
-    /// the given materials, on the same energy reference and for the same carrier as the cell.
+    /// A layer of <paramref name="material"/> on this structure's energy reference, for its carrier and at its
+    /// temperature: exactly the layer a recipe layer of that material and width becomes in <see cref="Cell"/>
+    /// (with the Kane non-parabolicity when the recipe uses it). Use it to add caps, spacers or defects to the
+    /// structure, or to describe a contact: <c>Lead.Like(built.LayerOf(Material.GaAs, width))</c> takes its band
+    /// edge and band-edge mass.
     /// </summary>
     /// <remarks>
-    /// Leads are parabolic (band-edge mass) even when the cell uses the Kane mass. Lead materials are not
-    /// checked for lattice mismatch or directness; build a recipe containing them to see those warnings.
+    /// The material is not checked for lattice mismatch or directness; build a recipe containing it to see those
+    /// warnings.
     /// </remarks>
-    /// <param name="leftLeadMaterial">Material of the semi-infinite lead on the left.</param>
-    /// <param name="rightLeadMaterial">Material of the semi-infinite lead on the right.</param>
-    /// <exception cref="ArgumentNullException">A lead material is null.</exception>
-    /// <exception cref="ArgumentException">A lead material has no mass for the carrier (holes).</exception>
-    /// <exception cref="ArgumentOutOfRangeException">A lead material's gap is not positive at the structure's temperature.</exception>
-    public LayerStack ToStack(Material leftLeadMaterial, Material rightLeadMaterial) =>
-        LayerStack.Periodic(LeadOf(leftLeadMaterial, nameof(leftLeadMaterial)), Cell, Recipe.Periods, LeadOf(rightLeadMaterial, nameof(rightLeadMaterial)));
-
-    /// <summary>
-    /// The lead of <paramref name="material"/> for this structure's carrier, on its energy reference
-    /// (parabolic, band-edge mass).
-    /// </summary>
+    /// <param name="material">The material.</param>
+    /// <param name="width">Width of the layer; positive and finite.</param>
     /// <exception cref="ArgumentNullException"><paramref name="material"/> is null.</exception>
     /// <exception cref="ArgumentException">The material has no mass for the carrier (holes).</exception>
-    /// <exception cref="ArgumentOutOfRangeException">The material's gap is not positive at the structure's temperature.</exception>
-    public Lead LeadOf(Material material) => LeadOf(material, nameof(material));
-
-    private Lead LeadOf(Material material, string paramName)
+    /// <exception cref="ArgumentOutOfRangeException">The width is not positive and finite, or the material's gap is
+    /// not positive at the structure's temperature.</exception>
+    public Layer LayerOf(Material material, Length width)
     {
-        ArgumentNullException.ThrowIfNull(material, paramName);
+        ArgumentNullException.ThrowIfNull(material);
         var gap = material.BandGapElectronVolts(TemperatureKelvin);
         var vbo = material.ValenceBandOffsetElectronVolts;
         double potential, mass;
@@ -163,10 +131,11 @@ public sealed class BuiltStructure
             default:
                 potential = ReferenceElectronVolts - vbo;
                 mass = (Carrier == Carrier.HeavyHole ? material.HeavyHoleMassElectronMasses : material.LightHoleMassElectronMasses)
-                    ?? throw new ArgumentException($"{paramName} ({material.Name}) has no {(Carrier == Carrier.HeavyHole ? "heavy" : "light")}-hole mass.", paramName);
+                    ?? throw new ArgumentException($"material ({material.Name}) has no {(Carrier == Carrier.HeavyHole ? "heavy" : "light")}-hole mass.", nameof(material));
                 break;
         }
-        return Lead.Create(Energy.FromElectronVolts(potential), EffectiveMass.FromElectronMasses(mass));
+        var alpha = Recipe.IsNonParabolic ? 1.0 / gap : 0.0;
+        return Layer.Create(width, Energy.FromElectronVolts(potential), EffectiveMass.FromElectronMasses(mass), alpha);
     }
 
     /// <inheritdoc />

@@ -5,6 +5,8 @@ using System.Collections.ObjectModel;
 using System.Globalization;
 using System.Text;
 
+using Periodic.Units;
+
 namespace Periodic.Materials;
 
 /// <summary>
@@ -98,8 +100,10 @@ public sealed class Material
     /// <summary>Varshni β in K.</summary>
     public double VarshniBetaKelvin { get; }
 
-    /// <summary>Γ-valley conduction-band effective mass at the band edge, m₀ (taken independent of temperature).</summary>
-    public double ElectronMassElectronMasses { get; }
+    /// <summary>Γ-valley conduction-band effective mass at the band edge (taken independent of temperature).</summary>
+    public EffectiveMass ElectronMass => EffectiveMass.FromElectronMasses(ElectronMassElectronMasses);
+
+    internal double ElectronMassElectronMasses { get; }
 
     /// <summary>Valence-band maximum on the absolute scale of the table, eV (taken independent of temperature).</summary>
     public double ValenceBandOffsetElectronVolts { get; }
@@ -110,11 +114,15 @@ public sealed class Material
     /// <summary>One monolayer along [001], a/2, nm.</summary>
     public double MonolayerNanometres => 0.5 * LatticeConstantNanometres;
 
-    /// <summary>Heavy-hole mass along [001], m₀; null when no value is available.</summary>
-    public double? HeavyHoleMassElectronMasses { get; }
+    /// <summary>Heavy-hole mass along [001]; null when no value is available.</summary>
+    public EffectiveMass? HeavyHoleMass => HeavyHoleMassElectronMasses is { } m ? EffectiveMass.FromElectronMasses(m) : null;
 
-    /// <summary>Light-hole mass along [001], m₀; null when no value is available.</summary>
-    public double? LightHoleMassElectronMasses { get; }
+    /// <summary>Light-hole mass along [001]; null when no value is available.</summary>
+    public EffectiveMass? LightHoleMass => LightHoleMassElectronMasses is { } m ? EffectiveMass.FromElectronMasses(m) : null;
+
+    internal double? HeavyHoleMassElectronMasses { get; }
+
+    internal double? LightHoleMassElectronMasses { get; }
 
     /// <summary>
     /// Whether the Γ valley is the lowest conduction-band minimum. When false (AlAs, AlSb, Al-rich

@@ -22,7 +22,7 @@ public sealed partial class BandProperties
 
     /// <summary>
     /// The carrier density per unit length of the 1D crystal (spin included) for Fermi level
-    /// <paramref name="fermiLevelElectronVolts"/> and temperature <paramref name="temperatureKelvin"/>:
+    /// <paramref name="fermiLevel"/> and temperature <paramref name="temperature"/>:
     /// n = ∫ g(E) f(E) dE with the Fermi–Dirac occupation f = 1/(1 + e^((E − μ)/k_BT)).
     /// </summary>
     /// <remarks>
@@ -37,8 +37,9 @@ public sealed partial class BandProperties
     /// <para>Bands with bottom above max(μ, E₁) + 40 k_BT are omitted; a bound on their share is included in the error estimate.</para>
     /// </remarks>
     /// <exception cref="ArgumentOutOfRangeException">The Fermi level is not finite or needs bands that were not computed; the temperature is negative or not finite.</exception>
-    public LinearCarrierDensity LinearCarrierDensity(double fermiLevelElectronVolts, double temperatureKelvin)
+    public LinearCarrierDensity LinearCarrierDensity(Energy fermiLevel, Temperature temperature)
     {
+        var (fermiLevelElectronVolts, temperatureKelvin) = (fermiLevel.ElectronVolts, temperature.Kelvin);
         var kT = CheckCarrierArguments(fermiLevelElectronVolts, temperatureKelvin);
         var (value, error, evaluations) = Occupied(fermiLevelElectronVolts, kT, superlattice: false);
         var factor = 2 / (Math.PI * _d);
@@ -47,19 +48,20 @@ public sealed partial class BandProperties
 
     /// <summary>
     /// The carrier density per unit volume of the superlattice (spin included) with free in-plane motion
-    /// of mass <paramref name="inPlaneMass"/>, for Fermi level <paramref name="fermiLevelElectronVolts"/> and
-    /// temperature <paramref name="temperatureKelvin"/>.
+    /// of mass <paramref name="inPlaneMass"/>, for Fermi level <paramref name="fermiLevel"/> and
+    /// temperature <paramref name="temperature"/>.
     /// </summary>
     /// <remarks>
     /// Method: the in-plane Fermi–Dirac integral of each (n, k_z) subband is done in closed form,
     /// n₂ = (m∥/πħ²)·k_BT·ln(1 + e^((μ − E)/k_BT)) (the two-dimensional electron gas; e.g. J. H. Davies, The
     /// Physics of Low-Dimensional Semiconductors, 1998, ch. 3 [from memory]), and the remaining k_z integral,
     /// n = (m∥/(2π²·(ħ²/2m₀)·d)) Σ_n ∫₀^π k_BT ln(1 + e^((μ − E_n(θ/d))/k_BT)) dθ, by the panelled Gauss–Legendre
-    /// rule described at <see cref="LinearCarrierDensity(double, double)"/>. At T = 0 the integrand is (μ − E)₊.
+    /// rule described at <see cref="LinearCarrierDensity(Energy, Temperature)"/>. At T = 0 the integrand is (μ − E)₊.
     /// </remarks>
-    /// <exception cref="ArgumentOutOfRangeException">As <see cref="LinearCarrierDensity(double, double)"/>, or the mass is the default mass.</exception>
-    public VolumeCarrierDensity SuperlatticeCarrierDensity(double fermiLevelElectronVolts, double temperatureKelvin, EffectiveMass inPlaneMass)
+    /// <exception cref="ArgumentOutOfRangeException">As <see cref="LinearCarrierDensity(Energy, Temperature)"/>, or the mass is the default mass.</exception>
+    public VolumeCarrierDensity SuperlatticeCarrierDensity(Energy fermiLevel, Temperature temperature, EffectiveMass inPlaneMass)
     {
+        var (fermiLevelElectronVolts, temperatureKelvin) = (fermiLevel.ElectronVolts, temperature.Kelvin);
         var factor = SuperlatticeFactor(inPlaneMass) * 2 / (Math.PI * _d); // m∥/(2π² C d)
         var kT = CheckCarrierArguments(fermiLevelElectronVolts, temperatureKelvin);
         var (value, error, evaluations) = Occupied(fermiLevelElectronVolts, kT, superlattice: true);
@@ -74,10 +76,11 @@ public sealed partial class BandProperties
     /// <remarks>At T = 0 a density that fills whole bands exactly is reached anywhere in the gap above them; the
     /// level returned then lies somewhere in that gap.</remarks>
     /// <exception cref="ArgumentOutOfRangeException">The density is not positive and finite, or needs bands that were not computed; the temperature or tolerance is out of range.</exception>
-    public FermiLevelSolution FermiLevelForLinearDensity(double densityPerNanometre, double temperatureKelvin,
+    public FermiLevelSolution FermiLevelForLinearDensity(double densityPerNanometre, Temperature temperature,
         double absoluteToleranceElectronVolts = DefaultFermiLevelToleranceElectronVolts)
     {
         Preconditions.CheckPositiveFinite(densityPerNanometre);
+        var temperatureKelvin = temperature.Kelvin;
         var kT = CheckTemperature(temperatureKelvin);
         Preconditions.CheckRange(absoluteToleranceElectronVolts, 1e-15, 1.0);
         var factor = 2 / (Math.PI * _d);
@@ -90,33 +93,33 @@ public sealed partial class BandProperties
     /// to <paramref name="absoluteToleranceElectronVolts"/>.
     /// </summary>
     /// <exception cref="ArgumentOutOfRangeException">The density is not positive and finite, or needs bands that were not computed; the temperature, mass or tolerance is out of range.</exception>
-    public FermiLevelSolution FermiLevelForSuperlatticeDensity(double densityPerCubicNanometre, double temperatureKelvin, EffectiveMass inPlaneMass,
+    public FermiLevelSolution FermiLevelForSuperlatticeDensity(double densityPerCubicNanometre, Temperature temperature, EffectiveMass inPlaneMass,
         double absoluteToleranceElectronVolts = DefaultFermiLevelToleranceElectronVolts)
     {
         Preconditions.CheckPositiveFinite(densityPerCubicNanometre);
+        var temperatureKelvin = temperature.Kelvin;
         var kT = CheckTemperature(temperatureKelvin);
         var factor = SuperlatticeFactor(inPlaneMass) * 2 / (Math.PI * _d);
         Preconditions.CheckRange(absoluteToleranceElectronVolts, 1e-15, 1.0);
         return SolveFermiLevel(densityPerCubicNanometre / factor, kT, temperatureKelvin, absoluteToleranceElectronVolts, true, nameof(densityPerCubicNanometre));
     }
 
-    private static double CheckTemperature(double temperatureKelvin) =>
-        Preconditions.CheckNonNegativeFinite(temperatureKelvin) * PhysicalConstants.BoltzmannElectronVoltsPerKelvin;
+    // A Temperature is never negative or infinite once created, so only the fermi level needs checking here.
+    private static double CheckTemperature(double temperatureKelvin) => temperatureKelvin * PhysicalConstants.BoltzmannElectronVoltsPerKelvin;
 
     private double CheckCarrierArguments(double fermiLevelElectronVolts, double temperatureKelvin)
     {
         var kT = CheckTemperature(temperatureKelvin);
-        Preconditions.CheckFinite(fermiLevelElectronVolts);
         var reach = Math.Max(fermiLevelElectronVolts, _bottoms[0].Energy) + OccupationCutoff * kT;
         if (reach > _upperLimit)
         {
-            throw new ArgumentOutOfRangeException(nameof(fermiLevelElectronVolts), fermiLevelElectronVolts, string.Create(CultureInfo.InvariantCulture,
-                $"fermiLevelElectronVolts = {Format(fermiLevelElectronVolts)} eV at {Format(temperatureKelvin)} K occupies states up to {Format(reach)} eV (mu + 40 kT), above the {_bottoms.Length} computed band(s), which end at {Format(_upperLimit)} eV; compute bands up to at least that energy (BandStructure.ComputeBelow)."));
+            throw new ArgumentOutOfRangeException("fermiLevel", fermiLevelElectronVolts, string.Create(CultureInfo.InvariantCulture,
+                $"fermiLevel = {Format(fermiLevelElectronVolts)} eV at {Format(temperatureKelvin)} K occupies states up to {Format(reach)} eV (mu + 40 kT), above the {_bottoms.Length} computed band(s), which end at {Format(_upperLimit)} eV; compute bands up to at least that energy (BandStructure.ComputeBelow)."));
         }
         if (fermiLevelElectronVolts <= _transfer.LowestValidEnergyElectronVolts)
         {
-            throw new ArgumentOutOfRangeException(nameof(fermiLevelElectronVolts), fermiLevelElectronVolts, string.Create(CultureInfo.InvariantCulture,
-                $"fermiLevelElectronVolts must exceed {Format(_transfer.LowestValidEnergyElectronVolts)} eV, the lower end of the model's energy range; got {Format(fermiLevelElectronVolts)}."));
+            throw new ArgumentOutOfRangeException("fermiLevel", fermiLevelElectronVolts, string.Create(CultureInfo.InvariantCulture,
+                $"fermiLevel must exceed {Format(_transfer.LowestValidEnergyElectronVolts)} eV, the lower end of the model's energy range; got {Format(fermiLevelElectronVolts)}."));
         }
         return kT;
     }

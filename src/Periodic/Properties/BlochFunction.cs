@@ -130,7 +130,7 @@ public sealed class BlochFunction
     /// </remarks>
     /// <exception cref="ArgumentNullException"><paramref name="structure"/> is null.</exception>
     /// <exception cref="ArgumentOutOfRangeException">No such band, or k outside the first zone.</exception>
-    /// <exception cref="ArgumentException">The barriers are too opaque at this energy: even with the thickest uniform
+    /// <exception cref="PrecisionLimitException">The barriers are too opaque at this energy: even with the thickest uniform
     /// barrier bridged the estimated relative error would exceed 1e-6 (smooth segments are not bridged), or the transfer
     /// matrix exceeds the double range.</exception>
     public static BlochFunction Create(BandStructure structure, int bandIndex, double wavevectorPerNanometre)
@@ -235,8 +235,8 @@ public sealed class BlochFunction
         var m = transfer.Evaluate(energy).Matrix;
         if (!double.IsFinite(m.MaxAbsEntry))
         {
-            throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
-                $"the transfer matrix of the cell at {energy:R} eV exceeds the double range; the Bloch function cannot be propagated through barriers this opaque."), nameof(structure));
+            throw new PrecisionLimitException(string.Create(CultureInfo.InvariantCulture,
+                $"the transfer matrix of the cell at {energy:R} eV exceeds the double range; the Bloch function cannot be propagated through barriers this opaque."));
         }
         // Per-piece data; the opacity Σκw of the evanescent layers and steps sets the rounding of forward propagation.
         var elements = cell.ElementSpan;
@@ -313,8 +313,8 @@ public sealed class BlochFunction
             errorEstimate = Epsilon * Math.Exp(opacity - thickest);
             if (!(errorEstimate <= MaxRelativeErrorEstimate))
             {
-                throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
-                    $"the barriers of the cell are too opaque at {energy:R} eV for a propagated Bloch function: the summed decay exponent outside the thickest uniform barrier is {opacity - thickest:G4}, so the relative rounding error would reach {errorEstimate:G3} (the limit is {MaxRelativeErrorEstimate:G1})."), nameof(structure));
+                throw new PrecisionLimitException(string.Create(CultureInfo.InvariantCulture,
+                    $"the barriers of the cell are too opaque at {energy:R} eV for a propagated Bloch function: the summed decay exponent outside the thickest uniform barrier is {opacity - thickest:G4}, so the relative rounding error would reach {errorEstimate:G3} (the limit is {MaxRelativeErrorEstimate:G1})."));
             }
         }
         else

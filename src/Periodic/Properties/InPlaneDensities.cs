@@ -95,7 +95,7 @@ public static class InPlaneDensities
         var lowest = BandStructure.Compute(cell, 1).GetBand(1).BottomElectronVolts;
         var reach = Math.Max(mu, lowest) + OccupationCutoff * kT;
         var setup = Setup(cell, reach, nameof(fermiLevelElectronVolts), singleInPlaneMass);
-        var approximate = BandProperties.Create(setup.Bands).SuperlatticeCarrierDensity(mu, temperatureKelvin, setup.Mass).DensityPerCubicNanometre;
+        var approximate = BandProperties.Create(setup.Bands).SuperlatticeCarrierDensity(Energy.FromElectronVolts(mu), Temperature.FromKelvin(temperatureKelvin), setup.Mass).DensityPerCubicNanometre;
         var evaluations = 0;
         // Pieces in u: split where an edge crosses μ, up to where band 1 lies 40 kT above μ.
         var cuts = new List<double> { 0.0 };
@@ -127,7 +127,7 @@ public static class InPlaneDensities
                 var bottom = BandStructure.Compute(shiftedCell, 1).GetBand(1).BottomElectronVolts;
                 var limit = Math.Max(mu, bottom) + OccupationCutoff * kT;
                 var shifted = BandStructure.ComputeBelow(shiftedCell, Energy.FromElectronVolts(limit));
-                return BandProperties.Create(shifted).LinearCarrierDensity(mu, temperatureKelvin).DensityPerNanometre;
+                return BandProperties.Create(shifted).LinearCarrierDensity(Energy.FromElectronVolts(mu), Temperature.FromKelvin(temperatureKelvin)).DensityPerNanometre;
             });
             exact += value;
             error += estimate;

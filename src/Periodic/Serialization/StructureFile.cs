@@ -234,7 +234,8 @@ public static partial class StructureFile
         /// <summary>
         /// The optional finite stack: <c>"stack": {"periods": N, "leads": {...}, "bias": eU}</c> or separate leftLead/rightLead.
         /// A non-zero bias is checked against what a stack under bias allows (parabolic layers and deltas, at most
-        /// <see cref="StackTransmission.MaxBiasedElements"/> elements) here, so the error names the field.
+        /// <see cref="StackTransmission.MaxBiasedElements"/> elements) here, without computing anything, so the error
+        /// names the field.
         /// </summary>
         private (LayerStack? Stack, Energy Bias) ReadStack(Dictionary<string, JsonTreeProperty> fields, UnitCell cell)
         {
@@ -269,7 +270,7 @@ public static partial class StructureFile
                 bias = Energy.FromElectronVolts(ReadQuantity(b.Value, "stack.bias", EnergyUnits, "eV", "eV, meV"));
                 if (bias.ElectronVolts != 0)
                 {
-                    Apply(b.Value, "stack.bias", () => StackTransmission.Create(stack, bias));
+                    Apply(b.Value, "stack.bias", () => { StackTransmission.CheckBias(stack, bias); return stack; });
                 }
             }
             return (stack, bias);

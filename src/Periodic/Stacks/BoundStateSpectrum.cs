@@ -72,7 +72,6 @@ public sealed class BoundStateSpectrum
     {
         ArgumentNullException.ThrowIfNull(stack);
         options ??= BoundStateOptions.Default;
-        options.Validate(nameof(options));
         var profile = new StackProfile(stack, options.MaxElements, nameof(stack));
         var edge = Math.Min(stack.LeftLead.PotentialElectronVolts, stack.RightLead.PotentialElectronVolts);
         // Binding energies below 1e-15 eV (relative to max(1, |edge|)) are not resolvable: the count stops there.

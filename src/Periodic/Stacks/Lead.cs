@@ -13,17 +13,21 @@ namespace Periodic.Stacks;
 /// </summary>
 public readonly record struct Lead
 {
-    private Lead(double potentialElectronVolts, double massElectronMasses)
+    private Lead(Energy potential, EffectiveMass mass)
     {
-        PotentialElectronVolts = potentialElectronVolts;
-        MassElectronMasses = massElectronMasses;
+        Potential = potential;
+        Mass = mass;
     }
 
-    /// <summary>The band edge (potential energy) of the lead, eV.</summary>
-    public double PotentialElectronVolts { get; }
+    /// <summary>The band edge (potential energy) of the lead.</summary>
+    public Energy Potential { get; }
 
-    /// <summary>The effective mass of the lead, in electron masses (zero only for <c>default</c>, which no API accepts).</summary>
-    public double MassElectronMasses { get; }
+    /// <summary>The effective mass of the lead (zero only for <c>default</c>, which no API accepts).</summary>
+    public EffectiveMass Mass { get; }
+
+    internal double PotentialElectronVolts => Potential.ElectronVolts;
+
+    internal double MassElectronMasses => Mass.ElectronMasses;
 
     /// <summary>Creates a lead of the given band edge and effective mass.</summary>
     /// <param name="potential">Band edge of the lead.</param>
@@ -36,7 +40,7 @@ public readonly record struct Lead
             throw new ArgumentOutOfRangeException(nameof(mass), mass.ElectronMasses,
                 "mass must be positive and finite; got the default (zero) mass. Create it with EffectiveMass.FromElectronMasses.");
         }
-        return new Lead(potential.ElectronVolts, mass.ElectronMasses);
+        return new Lead(potential, mass);
     }
 
     /// <summary>A lead of the same material as <paramref name="layer"/> (its potential and band-edge mass).</summary>
@@ -44,7 +48,7 @@ public readonly record struct Lead
     public static Lead Like(Structures.Layer layer)
     {
         ArgumentNullException.ThrowIfNull(layer);
-        return new Lead(layer.Potential.ElectronVolts, layer.Mass.ElectronMasses);
+        return new Lead(layer.Potential, layer.Mass);
     }
 
     /// <summary>

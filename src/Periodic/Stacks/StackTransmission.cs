@@ -206,11 +206,21 @@ public sealed class StackTransmission
     /// when written out, or holds an element other than a parabolic layer or a delta barrier (the message names it).</exception>
     public static StackTransmission Create(LayerStack stack, Energy bias)
     {
+        CheckBias(stack, bias);
+        return bias.ElectronVolts == 0 ? new StackTransmission(stack) : new StackTransmission(stack, bias.ElectronVolts);
+    }
+
+    /// <summary>
+    /// Throws what <see cref="Create(LayerStack, Energy)"/> would throw for this stack and bias, without compiling or
+    /// evaluating anything (the structure file validates its <c>stack.bias</c> with it).
+    /// </summary>
+    internal static void CheckBias(LayerStack stack, Energy bias)
+    {
         ArgumentNullException.ThrowIfNull(stack);
         var drop = bias.ElectronVolts;
         if (drop == 0)
         {
-            return new StackTransmission(stack);
+            return;
         }
         if (!(stack.ThicknessNanometres > 0))
         {
@@ -248,7 +258,6 @@ public sealed class StackTransmission
                 }
             }
         }
-        return new StackTransmission(stack, drop);
     }
 
     /// <summary>Transmission, reflection and their amplitudes at <paramref name="energyElectronVolts"/>.</summary>
@@ -363,7 +372,6 @@ public sealed class StackTransmission
                 $"upperElectronVolts must exceed lowerElectronVolts ({Preconditions.Format(lowerElectronVolts)} eV); got {Preconditions.Format(upperElectronVolts)}.");
         }
         options ??= ResonanceSearchOptions.Default;
-        options.Validate(nameof(options));
         // The cost of a biased layer grows with |E − V|, largest at an end of the window.
         CheckBiasedCost(lowerElectronVolts, nameof(lowerElectronVolts), nameof(lowerElectronVolts));
         CheckBiasedCost(upperElectronVolts, nameof(upperElectronVolts), nameof(upperElectronVolts));
@@ -372,7 +380,7 @@ public sealed class StackTransmission
 
     /// <summary>
     /// The Tsu–Esaki current density through the stack at its <see cref="Bias"/>, for a left lead with Fermi level
-    /// <paramref name="fermiLevelElectronVolts"/> (the right lead's is μ − eU) at <paramref name="temperatureKelvin"/>:
+    /// <paramref name="fermiLevel"/> (the right lead's is μ − eU) at <paramref name="temperature"/>:
     /// J = (e m_L k_BT/(2π²ħ³)) ∫ T(E) ln[(1 + e^((μ−E)/k_BT))/(1 + e^((μ−eU−E)/k_BT))] dE
     /// (R. Tsu and L. Esaki, Appl. Phys. Lett. 22, 562 (1973)), m_L the left lead's mass.
     /// </summary>
@@ -389,8 +397,8 @@ public sealed class StackTransmission
     /// trends; check it against measured I–V curves.</para>
     /// <para>Zero bias gives J = 0 exactly (the supply function vanishes).</para>
     /// </remarks>
-    /// <param name="fermiLevelElectronVolts">Fermi level μ of the left lead, eV, on the same scale as the energies.</param>
-    /// <param name="temperatureKelvin">Temperature of both leads, K; from <see cref="MinCurrentTemperatureKelvin"/> to <see cref="MaxCurrentTemperatureKelvin"/>.</param>
+    /// <param name="fermiLevel">Fermi level μ of the left lead, on the same scale as the energies.</param>
+    /// <param name="temperature">Temperature of both leads; from <see cref="MinCurrentTemperatureKelvin"/> to <see cref="MaxCurrentTemperatureKelvin"/>.</param>
     /// <param name="options">Tolerances and budget (null: <see cref="CurrentDensityOptions.Default"/>).</param>
     /// <param name="cancellationToken">Cancels the integral between quadrature rules.</param>
     /// <exception cref="ArgumentOutOfRangeException">The Fermi level is not finite or puts the higher Fermi level more than
@@ -399,24 +407,23 @@ public sealed class StackTransmission
     /// the integral would reach energies too far from the layer potentials for the biased propagation (see <see cref="Evaluate"/>).</exception>
     /// <exception cref="OperationCanceledException"><paramref name="cancellationToken"/> was cancelled (checked between quadrature
     /// rules and the peak search's evaluations); nothing is returned.</exception>
-    public CurrentDensityResult CurrentDensity(double fermiLevelElectronVolts, double temperatureKelvin, CurrentDensityOptions? options = null,
+    public CurrentDensityResult CurrentDensity(Energy fermiLevel, Temperature temperature, CurrentDensityOptions? options = null,
         CancellationToken cancellationToken = default)
     {
-        Preconditions.CheckFinite(fermiLevelElectronVolts);
-        Preconditions.CheckRange(temperatureKelvin, MinCurrentTemperatureKelvin, MaxCurrentTemperatureKelvin);
+        var fermiLevelElectronVolts = fermiLevel.ElectronVolts;
+        var temperatureKelvin = Preconditions.CheckRange(temperature.Kelvin, MinCurrentTemperatureKelvin, MaxCurrentTemperatureKelvin, nameof(temperature));
         options ??= CurrentDensityOptions.Default;
-        options.Validate(nameof(options));
         var edge = Math.Max(Stack.LeftLead.PotentialElectronVolts, RightLead.PotentialElectronVolts);
         var highestFermiLevel = Math.Max(fermiLevelElectronVolts, fermiLevelElectronVolts - Bias.ElectronVolts);
         if (highestFermiLevel - edge > MaxFermiLevelAboveEdgeElectronVolts)
         {
-            throw new ArgumentOutOfRangeException(nameof(fermiLevelElectronVolts), fermiLevelElectronVolts,
+            throw new ArgumentOutOfRangeException(nameof(fermiLevel), fermiLevelElectronVolts,
                 string.Create(CultureInfo.InvariantCulture,
-                    $"fermiLevelElectronVolts = {Preconditions.Format(fermiLevelElectronVolts)} eV puts the higher Fermi level (μ or μ − eU = {Preconditions.Format(highestFermiLevel)} eV) more than {MaxFermiLevelAboveEdgeElectronVolts} eV above the higher lead band edge ({Preconditions.Format(edge)} eV); the energy window of the integral, and its cost, grow with that distance."));
+                    $"fermiLevel = {Preconditions.Format(fermiLevelElectronVolts)} eV puts the higher Fermi level (μ or μ − eU = {Preconditions.Format(highestFermiLevel)} eV) more than {MaxFermiLevelAboveEdgeElectronVolts} eV above the higher lead band edge ({Preconditions.Format(edge)} eV); the energy window of the integral, and its cost, grow with that distance."));
         }
         // The integral reaches at most 700 k_BT above the higher Fermi level (and starts at the higher lead edge).
         var kT = PhysicalConstants.BoltzmannElectronVoltsPerKelvin * temperatureKelvin;
-        CheckBiasedCost(Math.Max(edge, highestFermiLevel) + 740 * kT, "the top of the energy integral (the higher Fermi level or lead edge + 740 kT)", nameof(fermiLevelElectronVolts));
+        CheckBiasedCost(Math.Max(edge, highestFermiLevel) + 740 * kT, "the top of the energy integral (the higher Fermi level or lead edge + 740 kT)", nameof(fermiLevel));
         return TsuEsakiIntegrator.Compute(this, fermiLevelElectronVolts, temperatureKelvin, options, cancellationToken);
     }
 

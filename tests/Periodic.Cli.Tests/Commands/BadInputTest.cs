@@ -68,6 +68,34 @@ public sealed class BadInputTest
     }
 
     [Fact]
+    public void ComputationFailure_IsExitCodeOneNotBadInput()
+    {
+        // Three copies of a 6 nm well / 20 nm barrier period: Σκw ≈ 42, so the folded gaps (exactly closed, by zone
+        // folding; common practice, e.g. Ashcroft & Mermin ch. 8) lie below double-precision resolution and the band
+        // finder's own oscillation-count check refuses (docs/core.md). Valid input, numerical limit: exit 1, not 2.
+        var cell = string.Join(",\n", Enumerable.Repeat(
+            "{\"width\": \"6 nm\", \"potential\": 0, \"mass\": 0.067}, {\"width\": \"20 nm\", \"potential\": \"0.25 eV\", \"mass\": 0.092}", 3));
+        var file = ToolRunner.TempFile("{\"name\": \"three copies\", \"cell\": [\n" + cell + "\n]}");
+        AssertOneLineError(ToolRunner.Invoke("bands", file, "--count", "3"), 1, "computation failed: ", "Compute the bands of the shorter period");
+    }
+
+    [Fact]
+    public void LibraryArgumentError_IsExitCodeTwoWithoutComputationPrefix()
+    {
+        // A mass of zero is refused by the library (ArgumentException naming the value): bad input, exit 2.
+        var file = ToolRunner.TempFile("{\"name\": \"x\", \"cell\": [ {\"width\": 5, \"potential\": 0, \"mass\": 0.067} ]}");
+        var run = ToolRunner.Invoke("transmission", file, "--periods", "2", "--lead-mass", "0", "--energies", "0.1");
+        AssertOneLineError(run, 2, "--lead-mass");
+        Assert.DoesNotContain("computation failed", run.Stderr, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void MissingDirectory_IsExitCodeTwo()
+    {
+        AssertOneLineError(ToolRunner.Invoke("bands", Path.Combine("no-such-directory", "x.json")), 2, "no-such-directory");
+    }
+
+    [Fact]
     public void Verbose_AddsDetail()
     {
         var run = ToolRunner.Invoke("dos", ToolRunner.Example("nonparabolic.json"), "--energies", "-5", "--verbose");

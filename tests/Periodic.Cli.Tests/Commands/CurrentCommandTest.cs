@@ -52,7 +52,7 @@ public sealed class CurrentCommandTest
         Assert.Equal(biases.Length, points.Length);
         for (var i = 0; i < biases.Length; i++)
         {
-            var expected = StackTransmission.Create(stack, Energy.FromElectronVolts(biases[i])).CurrentDensity(0.02, 77);
+            var expected = StackTransmission.Create(stack, Energy.FromElectronVolts(biases[i])).CurrentDensity(Energy.FromElectronVolts(0.02), Temperature.FromKelvin(77));
             var p = points[i];
             // Shortest round-trip JSON numbers: the same double, not merely close.
             Assert.Equal(biases[i], p.GetProperty("bias").GetDouble());

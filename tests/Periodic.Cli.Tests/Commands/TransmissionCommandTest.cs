@@ -128,7 +128,7 @@ public sealed class TransmissionFromFileStackTest
         Assert.Equal(0.08, lead.GetProperty("mass").GetDouble());
         var fileStack = Periodic.Serialization.StructureFile.Load(file).Stack!;
         var mass = Periodic.Units.EffectiveMass.FromElectronMasses(0.08);
-        var stack = fileStack.WithLeads(Periodic.Stacks.Lead.Create(Periodic.Units.Energy.FromElectronVolts(fileStack.LeftLead.PotentialElectronVolts), mass), Periodic.Stacks.Lead.Create(Periodic.Units.Energy.FromElectronVolts(fileStack.RightLead.PotentialElectronVolts), mass));
+        var stack = fileStack.WithLeads(Periodic.Stacks.Lead.Create(Periodic.Units.Energy.FromElectronVolts(fileStack.LeftLead.Potential.ElectronVolts), mass), Periodic.Stacks.Lead.Create(Periodic.Units.Energy.FromElectronVolts(fileStack.RightLead.Potential.ElectronVolts), mass));
         var reference = Periodic.Stacks.StackTransmission.Create(stack);
         foreach (var p in json.GetProperty("points").EnumerateArray())
         {

@@ -191,7 +191,8 @@ public sealed class OutputFileTest
     {
         var run = Dispersion("");
         Assert.Equal(2, run.ExitCode);
-        Assert.Contains("--out needs a file path", run.Stderr);
+        Assert.Contains("--out needs a", run.Stderr);
+        Assert.Contains("empty", run.Stderr);
     }
 
     [Fact]

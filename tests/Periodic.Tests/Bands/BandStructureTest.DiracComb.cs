@@ -3,7 +3,6 @@
 
 using Periodic.Bands;
 using Periodic.Structures;
-using Periodic.Tests.Support;
 using Periodic.Units;
 
 namespace Periodic.Tests.Bands;

@@ -2,7 +2,6 @@
 // Copyright (c) 2026 Periodic contributors
 
 using Periodic.Bands;
-using Periodic.Tests.Support;
 
 namespace Periodic.Tests.Bands;
 
@@ -28,7 +27,7 @@ public sealed partial class BandStructureTest
     public void FiniteDifference_RandomCells_EigenvalueCountEqualsOscillationCount()
     {
         // Periodic eigenvalues are the k = 0 edges and antiperiodic ones the k = π/d edges (Magnus & Winkler,
-        // Hill's Equation; REFERENCES.md), so #(periodic below E) + #(antiperiodic below E) = number of band
+        // Hill's Equation; docs/references.md), so #(periodic below E) + #(antiperiodic below E) = number of band
         // edges below E. Counted here with an independent finite-difference Hamiltonian (MathNet EVD).
         // Energies are taken midway between consecutive FD eigenvalues, only where both neighbours are
         // farther away than 10× the FD error estimated by Richardson (|λ_h − λ_2h|/3 for a second-order scheme).

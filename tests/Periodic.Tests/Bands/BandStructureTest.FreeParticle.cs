@@ -3,7 +3,6 @@
 
 using Periodic.Bands;
 using Periodic.Structures;
-using Periodic.Tests.Support;
 using Periodic.Units;
 
 namespace Periodic.Tests.Bands;
@@ -23,7 +22,7 @@ public sealed partial class BandStructureTest
     [MemberData(nameof(UniformCells))]
     public void Compute_UniformMedium_FreeParticleEdgesAndClosedGaps(double v, double m, double[] widths)
     {
-        // Free-particle limit: E = V + C k²/m folded into the zone (any textbook; REFERENCES.md): edges at
+        // Free-particle limit: E = V + C k²/m folded into the zone (any textbook; docs/references.md): edges at
         // V + C(nπ/d)²/m, each (n ≥ 1) doubly degenerate, so every gap is closed.
         const int count = 6;
         var cell = UnitCell.FromLayers(widths, widths.Select(_ => v).ToArray(), widths.Select(_ => m).ToArray());

@@ -3,7 +3,6 @@
 
 using FsCheck.Fluent;
 using Periodic.Bands;
-using Periodic.Tests.Support;
 using Periodic.Units;
 
 namespace Periodic.Tests.Bands;

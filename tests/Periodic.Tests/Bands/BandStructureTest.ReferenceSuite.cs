@@ -5,7 +5,6 @@ using FsCheck;
 using FsCheck.Fluent;
 using Periodic.Bands;
 using Periodic.Structures;
-using Periodic.Tests.Support;
 using Periodic.Units;
 
 namespace Periodic.Tests.Bands;

@@ -3,7 +3,6 @@
 
 using Periodic.Bands;
 using Periodic.Structures;
-using Periodic.Tests.Support;
 using Periodic.Transfer;
 using Periodic.Units;
 

@@ -8,7 +8,7 @@ using Periodic.Units;
 namespace Periodic.Tests.Bands;
 
 /// <summary>The parallel design sweep.</summary>
-public sealed class BandSweepTest
+public sealed partial class BandSweepTest
 {
     private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
 

@@ -6,7 +6,6 @@ using Periodic.Materials;
 using Periodic.Properties;
 using Periodic.Stacks;
 using Periodic.Structures;
-using Periodic.Tests.Support;
 using Periodic.Transfer;
 using Periodic.Units;
 
@@ -192,7 +191,7 @@ public sealed class EdgeInputsTest
             foreach (var edge in new[] { band.BottomElectronVolts, band.TopElectronVolts })
             {
                 Finite(edge, "edge");
-                // |cos kd| = 1 at an edge from the published Kronig–Penney relation (Support/ClosedForms);
+                // |cos kd| = 1 at an edge from the published Kronig–Penney relation (TestHelpers/ClosedForms);
                 // tolerance 1e-9 of its rounding scale plus the edge error times a slope bound.
                 var half = ClosedForms.KronigPenneyHalfTrace(a, b, v0, mass, mass, edge, out var scale);
                 Assert.Equal(1, Math.Abs(half), 1e-9 * Math.Max(1, scale));

@@ -9,7 +9,7 @@ namespace Periodic.Tests.Conventions;
 
 /// <summary>
 /// Reflection over the whole public surface of the Periodic assembly: the house rules on immutability,
-/// closed hierarchies and printable results (house style, /work/shared/STYLE.md; common practice for
+/// closed hierarchies and printable results (conventions in DEVELOPERS.md; common practice for
 /// .NET libraries, no single source).
 /// </summary>
 public sealed class PublicApiConventionsTest

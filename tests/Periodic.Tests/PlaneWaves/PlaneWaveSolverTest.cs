@@ -3,7 +3,6 @@
 
 using Periodic.PlaneWaves;
 using Periodic.Structures;
-using Periodic.Tests.TestSupport;
 using Periodic.Units;
 
 namespace Periodic.Tests.PlaneWaves;
@@ -17,7 +16,7 @@ public sealed class PlaneWaveSolverTest
     [Fact]
     public void EnergiesAt_FreeParticle_IsFoldedParabola()
     {
-        // Free-particle limit (REFERENCES.md): V = 0 gives E = C(k + G)²/m folded into the zone, exactly
+        // Free-particle limit (docs/references.md): V = 0 gives E = C(k + G)²/m folded into the zone, exactly
         // (the matrix is diagonal). 1e-14 relative: rounding of the scaled eigensolve.
         var solver = PlaneWaveSolver.Create(Period, default, [0.0], [], EffectiveMass.FromElectronMasses(0.5));
         const double k = 1.1;

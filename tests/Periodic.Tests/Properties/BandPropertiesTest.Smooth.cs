@@ -36,7 +36,7 @@ public sealed partial class BandPropertiesTest
         // Outside reference: d²E/dk² of the central equation (Ashcroft and Mermin ch. 9, written independently in the
         // tests) by second-order perturbation theory in k, no step to tune. The library's mass comes from the exact D′, D″
         // of the Magnus-discretised cell, refined to RefinedBandStructure's default 1e-11.
-        var structure = RefinedBandStructure.Compute(OpticalLattice(depth), 3).Bands;
+        var structure = RefinedBandStructure.Compute(OpticalLattice(depth), 3).Structure;
         var props = BandProperties.Create(structure);
         var d = LatticePeriod;
         var worst = 0.0;

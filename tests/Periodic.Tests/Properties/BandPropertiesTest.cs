@@ -17,7 +17,7 @@ public sealed partial class BandPropertiesTest(ITestOutputHelper output)
     {
         // Dirac comb cos kd = cos Kd + P sin(Kd)/(Kd) (Kittel, Introduction to Solid State Physics, ch. 7;
         // Griffiths eq. 5.65). At the top of band n, Kd = nπ and expanding the form to second order
-        // gives m*/m = −P/(nπ)² exactly (REFERENCES.md, derived).
+        // gives m*/m = −P/(nπ)² exactly (docs/references.md, derived).
         var props = BandProperties.Create(BandStructure.Compute(Cells.DiracComb(), 6));
         var worst = 0.0;
         for (var n = 1; n <= 6; n++)
@@ -27,7 +27,7 @@ public sealed partial class BandPropertiesTest(ITestOutputHelper output)
             Assert.False(mass.IsClosedGap);
             worst = Math.Max(worst, Cells.RelativeError(mass.ElectronMasses, expected));
         }
-        // Band 2 of the P = 3π/2 comb starts at exactly Kd = 3π/2 (REFERENCES.md, derived). With
+        // Band 2 of the P = 3π/2 comb starts at exactly Kd = 3π/2 (docs/references.md, derived). With
         // f(x) = cos x + P sin x / x, x = Kd, the same expansion gives m*/m = −σ f′(x₀)/x₀ at any edge; here σ = −1 and
         // f′(3π/2) = 1 + P/(3π/2)² = 1 + 2/(3π), so m*/m = (2/(3π))·(1 + 2/(3π)) (derived).
         var x0 = 1.5 * Math.PI;
@@ -54,7 +54,7 @@ public sealed partial class BandPropertiesTest(ITestOutputHelper output)
     [Fact]
     public void Masses_FreeParticleEqualParticleMassIncludingClosedGaps()
     {
-        // Free particle E = ħ²K²/2m folded into the zone (REFERENCES.md): every band edge above the
+        // Free particle E = ħ²K²/2m folded into the zone (docs/references.md): every band edge above the
         // first is a closed gap, and the smooth crossing's curvature mass must be m itself.
         const double m = 0.5;
         var props = BandProperties.Create(BandStructure.Compute(Cells.Free(2.0, m), 5));
@@ -534,7 +534,7 @@ public sealed partial class BandPropertiesTest(ITestOutputHelper output)
     [Fact]
     public void GroupVelocityAtEnergy_MatchesKronigPenneyClosedForm()
     {
-        // Kronig and Penney 1931 with BenDaniel–Duke matching (REFERENCES.md): for E < V0,
+        // Kronig and Penney 1931 with BenDaniel–Duke matching (docs/references.md): for E < V0,
         // cos kd = cos(k_w a) cosh(κb) + ½(ξ − 1/ξ) sin(k_w a) sinh(κb), ξ = (κ/m_b)/(k_w/m_w). The reference slope
         // dE/dk = −d sin(kd) / (d cos kd/dE) uses an 8th-order difference of this closed form (not the engine).
         const double a = 5, b = 2, v0 = 0.25, mw = 0.067, mb = 0.092, d = a + b;
@@ -573,7 +573,7 @@ public sealed partial class BandPropertiesTest(ITestOutputHelper output)
         var period = Periodic.Units.Length.FromNanometres(2);
         var mass = EffectiveMass.FromElectronMasses(0.1);
         var cell = Periodic.Structures.UnitCell.Create(Periodic.Structures.FourierSegment.OpticalLattice(period, 8, mass));
-        var structure = RefinedBandStructure.Compute(cell, 2).Bands;
+        var structure = RefinedBandStructure.Compute(cell, 2).Structure;
         var props = BandProperties.Create(structure);
         var d = structure.PeriodNanometres;
         var h = 0.002 * Math.PI / d;

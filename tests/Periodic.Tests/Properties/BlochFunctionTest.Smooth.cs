@@ -69,7 +69,7 @@ public sealed partial class BlochFunctionTest
         // Second method: the central equation (Ashcroft and Mermin ch. 9), written independently in PlaneWaveReference.
         // Transfer side: RefinedBandStructure at its default 1e-11, so both sides are far below the tolerance.
         var cell = UnitCell.Create(Lattice(depth));
-        var structure = RefinedBandStructure.Compute(cell, 3).Bands;
+        var structure = RefinedBandStructure.Compute(cell, 3).Structure;
         var worst = 0.0;
         var worstEstimate = 0.0;
         foreach (var fraction in PhaseFractions)

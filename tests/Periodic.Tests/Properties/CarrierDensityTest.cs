@@ -9,7 +9,7 @@ using Xunit.Abstractions;
 namespace Periodic.Tests.Properties;
 
 /// <summary>Carrier densities and Fermi levels of <see cref="BandProperties"/>.</summary>
-public sealed class CarrierDensityTest(ITestOutputHelper output)
+public sealed partial class CarrierDensityTest(ITestOutputHelper output)
 {
     private const double C = Cells.C;
     private const double KB = PhysicalConstants.BoltzmannElectronVoltsPerKelvin;
@@ -43,8 +43,8 @@ public sealed class CarrierDensityTest(ITestOutputHelper output)
             {
                 var mu = band.BottomElectronVolts + fraction * band.WidthElectronVolts;
                 var expected = props.IntegratedDensityOfStatesPerNanometre(mu);
-                var atZero = props.LinearCarrierDensity(mu, 0);
-                var cold = props.LinearCarrierDensity(mu, 1e-3);
+                var atZero = props.LinearCarrierDensity(Energy.FromElectronVolts(mu), Temperature.FromKelvin(0));
+                var cold = props.LinearCarrierDensity(Energy.FromElectronVolts(mu), Temperature.FromKelvin(1e-3));
                 worst = Math.Max(worst, Cells.RelativeError(atZero.DensityPerNanometre, expected));
                 // At 1 mK: N(μ) plus the Sommerfeld term (π²/6)(kT)²g′(μ) (Ashcroft and Mermin eq. 2.70, equation number from memory), which is
                 // up to 1e-10 relative here; the O(T⁴) remainder is ~1e-20.
@@ -73,7 +73,7 @@ public sealed class CarrierDensityTest(ITestOutputHelper output)
         var kT = KB * t;
         var slope = Cells.FirstDerivative(props.DensityOfStatesPerElectronVoltNanometre, mu, 1e-3 * band.WidthElectronVolts);
         var expected = Math.PI * Math.PI / 6 * kT * kT * slope;
-        var actual = props.LinearCarrierDensity(mu, t).DensityPerNanometre - props.LinearCarrierDensity(mu, 0).DensityPerNanometre;
+        var actual = props.LinearCarrierDensity(Energy.FromElectronVolts(mu), Temperature.FromKelvin(t)).DensityPerNanometre - props.LinearCarrierDensity(Energy.FromElectronVolts(mu), Temperature.FromKelvin(0)).DensityPerNanometre;
         output.WriteLine($"Sommerfeld shift: relative difference {Cells.RelativeError(actual, expected):E2}");
         // The next term, (7π⁴/360)(kT)⁴g‴, is ≈ 1.15 (kT)² g‴/g′ ≈ 1.15·(kT)²·3.75/x² ≈ 2e-3 of the first for the
         // 1/√x edge law at x = 21 meV from the bottom and kT = 0.43 meV; tolerance 1e-2.
@@ -92,7 +92,7 @@ public sealed class CarrierDensityTest(ITestOutputHelper output)
         var kT = KB * t;
         var props = BandProperties.Create(BandStructure.ComputeBelow(Cells.Free(5.0, m), Energy.FromElectronVolts(60 * kT)));
         var expected = Math.Sqrt(m * kT / (Math.PI * C)) * FermiDiracSeries(-0.5, eta);
-        var actual = props.LinearCarrierDensity(eta * kT, t);
+        var actual = props.LinearCarrierDensity(Energy.FromElectronVolts(eta * kT), Temperature.FromKelvin(t));
         output.WriteLine($"1D free gas eta={eta}: relative error {Cells.RelativeError(actual.DensityPerNanometre, expected):E2}, estimate {actual.ErrorEstimatePerNanometre / expected:E2}");
         // 20-point panels on a smooth integrand: ~1e-13; tolerance 1e-10 covers the series (200 terms, e^{−200}).
         Assert.True(Cells.RelativeError(actual.DensityPerNanometre, expected) <= 1e-10);
@@ -112,7 +112,7 @@ public sealed class CarrierDensityTest(ITestOutputHelper output)
         var kT = KB * t;
         var props = BandProperties.Create(BandStructure.ComputeBelow(Cells.Free(5.0, m), Energy.FromElectronVolts(60 * kT)));
         var expected = 2 * Math.Pow(m * kT / (4 * Math.PI * C), 1.5) * FermiDiracSeries(0.5, eta);
-        var actual = props.SuperlatticeCarrierDensity(eta * kT, t, EffectiveMass.FromElectronMasses(m));
+        var actual = props.SuperlatticeCarrierDensity(Energy.FromElectronVolts(eta * kT), Temperature.FromKelvin(t), EffectiveMass.FromElectronMasses(m));
         output.WriteLine($"3D free gas eta={eta}: relative error {Cells.RelativeError(actual.DensityPerCubicNanometre, expected):E2}");
         Assert.True(Cells.RelativeError(actual.DensityPerCubicNanometre, expected) <= 1e-10);
         Assert.Equal(actual.DensityPerCubicNanometre * 1e21, actual.DensityPerCubicCentimetre, actual.DensityPerCubicCentimetre * 1e-15);
@@ -129,7 +129,7 @@ public sealed class CarrierDensityTest(ITestOutputHelper output)
             var kF = Math.Sqrt(m * mu / C);
             var expected = kF * kF * kF / (3 * Math.PI * Math.PI);
             // Panels end at k_F, so the kink of (μ − E)₊ costs nothing; smooth parabola pieces are exact: 1e-12.
-            Assert.True(Cells.RelativeError(props.SuperlatticeCarrierDensity(mu, 0, EffectiveMass.FromElectronMasses(m)).DensityPerCubicNanometre, expected) <= 1e-12);
+            Assert.True(Cells.RelativeError(props.SuperlatticeCarrierDensity(Energy.FromElectronVolts(mu), Temperature.FromKelvin(0), EffectiveMass.FromElectronMasses(m)).DensityPerCubicNanometre, expected) <= 1e-12);
         }
     }
 
@@ -145,13 +145,13 @@ public sealed class CarrierDensityTest(ITestOutputHelper output)
         var props = BandProperties.Create(structure);
         var mass = EffectiveMass.FromElectronMasses(0.067);
         var mu = structure.GetBand(2).CenterElectronVolts;
-        var linear = props.LinearCarrierDensity(mu, t);
-        var solution = props.FermiLevelForLinearDensity(linear.DensityPerNanometre, t);
+        var linear = props.LinearCarrierDensity(Energy.FromElectronVolts(mu), Temperature.FromKelvin(t));
+        var solution = props.FermiLevelForLinearDensity(linear.DensityPerNanometre, Temperature.FromKelvin(t));
         Assert.True(solution.Converged);
         Assert.True(Math.Abs(solution.FermiLevelElectronVolts - mu) <= 1e-9, solution.ToString());
         Assert.True(solution.RelativeDensityResidual <= 1e-9);
-        var volume = props.SuperlatticeCarrierDensity(mu, t, mass);
-        var solved = props.FermiLevelForSuperlatticeDensity(volume.DensityPerCubicNanometre, t, mass);
+        var volume = props.SuperlatticeCarrierDensity(Energy.FromElectronVolts(mu), Temperature.FromKelvin(t), mass);
+        var solved = props.FermiLevelForSuperlatticeDensity(volume.DensityPerCubicNanometre, Temperature.FromKelvin(t), mass);
         Assert.True(Math.Abs(solved.FermiLevelElectronVolts - mu) <= 1e-9, solved.ToString());
     }
 
@@ -165,8 +165,8 @@ public sealed class CarrierDensityTest(ITestOutputHelper output)
         var mass = EffectiveMass.FromElectronMasses(0.067);
         const double t = 300;
         var mu = structure.GetBand(1).BottomElectronVolts - 14 * KB * t;
-        var n = props.SuperlatticeCarrierDensity(mu, t, mass).DensityPerCubicNanometre;
-        var half = props.FermiLevelForSuperlatticeDensity(n / 2, t, mass);
+        var n = props.SuperlatticeCarrierDensity(Energy.FromElectronVolts(mu), Temperature.FromKelvin(t), mass).DensityPerCubicNanometre;
+        var half = props.FermiLevelForSuperlatticeDensity(n / 2, Temperature.FromKelvin(t), mass);
         Assert.Equal(mu - KB * t * Math.Log(2), half.FermiLevelElectronVolts, 1e-6 * KB * t);
     }
 
@@ -175,13 +175,13 @@ public sealed class CarrierDensityTest(ITestOutputHelper output)
     {
         var props = BandProperties.Create(BandStructure.Compute(Cells.WellBarrier(), 2));
         var mass = EffectiveMass.FromElectronMasses(0.067);
-        Assert.Equal("temperatureKelvin", Assert.Throws<ArgumentOutOfRangeException>(() => props.LinearCarrierDensity(0.05, -1)).ParamName);
-        Assert.Equal("fermiLevelElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => props.LinearCarrierDensity(double.NaN, 1)).ParamName);
+        Assert.Equal("kelvin", Assert.Throws<ArgumentOutOfRangeException>(() => props.LinearCarrierDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(-1))).ParamName);
+        Assert.Equal("electronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => props.LinearCarrierDensity(Energy.FromElectronVolts(double.NaN), Temperature.FromKelvin(1))).ParamName);
         // μ + 40 kT beyond the computed bands is refused, not silently truncated.
-        Assert.Equal("fermiLevelElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => props.SuperlatticeCarrierDensity(props.UpperEnergyLimitElectronVolts, 300, mass)).ParamName);
-        Assert.Equal("densityPerNanometre", Assert.Throws<ArgumentOutOfRangeException>(() => props.FermiLevelForLinearDensity(0, 300)).ParamName);
-        Assert.Equal("densityPerCubicNanometre", Assert.Throws<ArgumentOutOfRangeException>(() => props.FermiLevelForSuperlatticeDensity(1e9, 300, mass)).ParamName);
-        Assert.Equal("inPlaneMass", Assert.Throws<ArgumentOutOfRangeException>(() => props.SuperlatticeCarrierDensity(0.05, 300, default)).ParamName);
-        Assert.Equal("absoluteToleranceElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => props.FermiLevelForLinearDensity(0.1, 300, 0)).ParamName);
+        Assert.Equal("fermiLevel", Assert.Throws<ArgumentOutOfRangeException>(() => props.SuperlatticeCarrierDensity(Energy.FromElectronVolts(props.UpperEnergyLimitElectronVolts), Temperature.FromKelvin(300), mass)).ParamName);
+        Assert.Equal("densityPerNanometre", Assert.Throws<ArgumentOutOfRangeException>(() => props.FermiLevelForLinearDensity(0, Temperature.FromKelvin(300))).ParamName);
+        Assert.Equal("densityPerCubicNanometre", Assert.Throws<ArgumentOutOfRangeException>(() => props.FermiLevelForSuperlatticeDensity(1e9, Temperature.FromKelvin(300), mass)).ParamName);
+        Assert.Equal("inPlaneMass", Assert.Throws<ArgumentOutOfRangeException>(() => props.SuperlatticeCarrierDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(300), default)).ParamName);
+        Assert.Equal("absoluteToleranceElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => props.FermiLevelForLinearDensity(0.1, Temperature.FromKelvin(300), 0)).ParamName);
     }
 }

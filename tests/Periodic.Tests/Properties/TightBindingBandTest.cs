@@ -8,7 +8,7 @@ using Xunit.Abstractions;
 
 namespace Periodic.Tests.Properties;
 
-public sealed class TightBindingBandTest(ITestOutputHelper output)
+public sealed partial class TightBindingBandTest(ITestOutputHelper output)
 {
     [Fact]
     public void Fit_CoefficientsMatchIndependentQuadrature()
@@ -118,7 +118,7 @@ public sealed class TightBindingBandTest(ITestOutputHelper output)
     [Fact]
     public void NearestNeighbourHopping_DeepStaircaseCosineLatticeTrendsToZwerger()
     {
-        // Zwerger, J. Opt. B 5, S9 (2003) [read in secondary texts, REFERENCES.md]: for V = s·E_R·sin²(πx/d),
+        // Zwerger, J. Opt. B 5, S9 (2003) [read in secondary texts, docs/references.md]: for V = s·E_R·sin²(πx/d),
         // J/E_R ≈ (4/√π) s^{3/4} e^{−2√s}, asymptotic in s, about 8 % high at s = 40. Trend check: the ratio
         // formula/J falls towards 1 as s grows. The lattice here is a 120-layer midpoint staircase of the smooth
         // potential (uniform layers only; the smooth-segment version awaits the smooth-potential work): the
@@ -148,14 +148,14 @@ public sealed class TightBindingBandTest(ITestOutputHelper output)
             Assert.True(ratio > 1 && ratio < previous, $"s = {depth}: ratio {ratio}");
             previous = ratio;
         }
-        // At s = 40 the asymptotic form is about 8 % high (REFERENCES.md): accept 1.02 … 1.15.
+        // At s = 40 the asymptotic form is about 8 % high (docs/references.md): accept 1.02 … 1.15.
         Assert.InRange(previous, 1.02, 1.15);
     }
 
     [Fact]
     public void NearestNeighbourHopping_DeepOpticalLatticeTrendsToZwerger()
     {
-        // Zwerger, J. Opt. B 5, S9 (2003) [read in secondary texts, REFERENCES.md]: for V = s·E_R·sin²(πx/d),
+        // Zwerger, J. Opt. B 5, S9 (2003) [read in secondary texts, docs/references.md]: for V = s·E_R·sin²(πx/d),
         // J/E_R ≈ (4/√π) s^{3/4} e^{−2√s}, asymptotic, about 8 % high at s = 40. Trend on the smooth potential
         // (Fourier segment, Magnus propagation refined to 1e-11 of the energy scale): the ratio formula/J falls
         // towards 1 as s grows. Scenario of our own: d = 400 nm, a 40 u atom expressed in electron masses
@@ -168,14 +168,14 @@ public sealed class TightBindingBandTest(ITestOutputHelper output)
         {
             var cell = Periodic.Structures.UnitCell.Create(Periodic.Structures.FourierSegment.OpticalLattice(period, depth, mass));
             var refined = RefinedBandStructure.Compute(cell, 1);
-            var hopping = TightBindingBand.Fit(refined.Bands, 1).NearestNeighbourHoppingElectronVolts / recoil;
+            var hopping = TightBindingBand.Fit(refined.Structure, 1).NearestNeighbourHoppingElectronVolts / recoil;
             var zwerger = 4 / Math.Sqrt(Math.PI) * Math.Pow(depth, 0.75) * Math.Exp(-2 * Math.Sqrt(depth));
             var ratio = zwerger / hopping;
             output.WriteLine($"smooth s = {depth}: J/E_R = {hopping:E6}, Zwerger {zwerger:E4}, ratio {ratio:F4}, edge error {refined.MaxEdgeErrorElectronVolts / recoil:E1} E_R");
             Assert.True(ratio > 1 && ratio < previous, $"s = {depth}: ratio {ratio}");
             previous = ratio;
         }
-        // At s = 40 the asymptotic form is about 8 % high (REFERENCES.md): accept 1.02 … 1.15.
+        // At s = 40 the asymptotic form is about 8 % high (docs/references.md): accept 1.02 … 1.15.
         Assert.InRange(previous, 1.02, 1.15);
     }
 }

@@ -54,7 +54,7 @@ public sealed class BoundStateSpectrumTest(ITestOutputHelper output)
     [InlineData(0.4, 0)]
     public void Find_SquareWell_MatchesExactConstruction(double z, int parity)
     {
-        // Exact construction (REFERENCES.md, derived from Griffiths §2.6): pick z, then z0 = z/|cos z|
+        // Exact construction (docs/references.md, derived from Griffiths §2.6): pick z, then z0 = z/|cos z|
         // (even) or z/|sin z| (odd); with L = 2 nm, m = 0.067 the depth is V0 = C (2 z0 / L)² / m and the
         // level lies at E = C (2 z / L)² / m above the well bottom.
         const double width = 2, mass = 0.067;
@@ -84,7 +84,7 @@ public sealed class BoundStateSpectrumTest(ITestOutputHelper output)
     public void Find_GriffithsWorkedExample_MatchesTwoDigits()
     {
         // L = 1 nm, V0 = 2 eV, m = m_e: levels ≈ 0.23, 0.89, 1.81 eV above the bottom (textbook homework
-        // answer to 2 digits, REFERENCES.md). Tolerance: half a unit of the last digit.
+        // answer to 2 digits, docs/references.md). Tolerance: half a unit of the last digit.
         var spectrum = BoundStateSpectrum.Find(SquareWell(1, 2, 1));
         Assert.Equal(3, spectrum.TotalCount);
         Assert.Equal(0.23, spectrum.Levels[0].EnergyElectronVolts, 0.005);

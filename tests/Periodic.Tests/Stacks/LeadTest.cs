@@ -14,7 +14,7 @@ public sealed class LeadTest
     [Fact]
     public void WavenumberAndDecay_FollowParabolicDispersion()
     {
-        // k = √(2m(E − V))/ħ = √(m (E − V) / C) in 1/nm with C = ħ²/2m₀ (CODATA 2018: 0.03809982116 eV nm², REFERENCES.md).
+        // k = √(2m(E − V))/ħ = √(m (E − V) / C) in 1/nm with C = ħ²/2m₀ (CODATA 2018: 0.03809982116 eV nm², docs/references.md).
         const double c = 0.03809982116;
         var lead = Lead.Create(Energy.FromElectronVolts(0.1), Mass);
         Assert.Equal(Math.Sqrt(0.067 * 0.2 / c), lead.WavenumberPerNanometre(0.3), 1e-9);

@@ -117,7 +117,7 @@ public sealed class ResonanceSpectrumTest(ITestOutputHelper output)
         const double v0 = 0.3, barrier = 8, well = 6;
         var lead = Lead.Create(default, EffectiveMass.FromElectronMasses(Mass));
         var stack = LayerStack.Create(lead, lead, Slab(barrier, v0), Slab(well, 0), Slab(barrier, v0));
-        var spectrum = StackTransmission.Create(stack).FindResonances(1e-4, v0 - 1e-4, new ResonanceSearchOptions { ScanPoints = 20 });
+        var spectrum = StackTransmission.Create(stack).FindResonances(1e-4, v0 - 1e-4, ResonanceSearchOptions.Create(scanPoints: 20));
         var roots = 0;
         for (var i = 0; i < 20000; i++)
         {
@@ -149,7 +149,10 @@ public sealed class ResonanceSpectrumTest(ITestOutputHelper output)
         var transmission = StackTransmission.Create(LayerStack.Create(lead, lead, Slab(3, 0.3)));
         Assert.Equal("upperElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.FindResonances(0.2, 0.1)).ParamName);
         Assert.Equal("lowerElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.FindResonances(double.NaN, 0.1)).ParamName);
-        Assert.Equal("options", Assert.Throws<ArgumentOutOfRangeException>(
-            () => transmission.FindResonances(0.1, 0.2, new ResonanceSearchOptions { ScanPoints = 2 })).ParamName);
+        // Options are validated when created, naming the option.
+        Assert.Equal("scanPoints", Assert.Throws<ArgumentOutOfRangeException>(() => ResonanceSearchOptions.Create(scanPoints: 2)).ParamName);
+        Assert.Equal("maxPhaseStepRadians", Assert.Throws<ArgumentOutOfRangeException>(() => ResonanceSearchOptions.Create(maxPhaseStepRadians: Math.PI)).ParamName);
+        Assert.Equal("maxEvaluations", Assert.Throws<ArgumentOutOfRangeException>(() => ResonanceSearchOptions.Create(scanPoints: 100, maxEvaluations: 99)).ParamName);
+        Assert.Equal("absoluteToleranceElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => ResonanceSearchOptions.Create(absoluteToleranceElectronVolts: 0)).ParamName);
     }
 }

@@ -6,7 +6,6 @@ using FsCheck;
 using FsCheck.Fluent;
 using Periodic.Stacks;
 using Periodic.Structures;
-using Periodic.Tests.Support;
 using Periodic.Units;
 using Xunit.Abstractions;
 
@@ -266,7 +265,7 @@ public sealed class StackTransmissionBiasTest(ITestOutputHelper output)
         var stack = LayerStack.Periodic(Ground, cell, 100, Ground);
         var transmission = StackTransmission.Create(stack, Ev(1e-6));
         const double lower = 0.0790, upper = 0.0810;
-        var found = transmission.FindResonances(lower, upper, ResonanceSearchOptions.Default with { ScanPoints = 20 });
+        var found = transmission.FindResonances(lower, upper, ResonanceSearchOptions.Create(scanPoints: 20));
         var energies = new double[20_000];
         for (var i = 0; i < energies.Length; i++)
         {
@@ -362,7 +361,7 @@ public sealed class StackTransmissionBiasTest(ITestOutputHelper output)
         Assert.Contains("energiesElectronVolts[1]", batch.Message, StringComparison.Ordinal);
         Assert.Equal(0.0, destination[0]); // nothing written before the check
         Assert.Equal("upperElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.FindResonances(0, 1e12)).ParamName);
-        Assert.Equal("temperatureKelvin", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(0.05, 1e13)).ParamName);
+        Assert.Equal("temperature", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(1e13))).ParamName);
         Assert.True(double.IsFinite(transmission.Evaluate(1e4).LogTransmission)); // 10 keV: a few thousand sublayers
     }
 

@@ -79,7 +79,7 @@ public sealed class StackTransmissionCurrentTest(ITestOutputHelper output)
         // linear limit (u/2 ≤ 2e-8 here) and the reference quadrature (checked against half the pieces).
         var stack = LayerStack.Create(Ground, Ground, Slab(4, 0.25));
         var transmission = StackTransmission.Create(stack, Energy.FromElectronVolts(bias));
-        var result = transmission.CurrentDensity(0.05, 300);
+        var result = transmission.CurrentDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(300));
         var conductance = ReferenceConductance(transmission, 0.05, 300, 400);
         var coarse = ReferenceConductance(transmission, 0.05, 300, 200);
         var perBias = result.AmperesPerSquareMetre / bias;
@@ -104,7 +104,7 @@ public sealed class StackTransmissionCurrentTest(ITestOutputHelper output)
     {
         // No bias, no net supply: ln(1) = 0 for every energy (Tsu and Esaki 1973, eq. for J).
         var stack = LayerStack.Create(Ground, Ground, Slab(3, 0.3), Slab(6, 0), Slab(3, 0.3));
-        var result = StackTransmission.Create(stack).CurrentDensity(0.05, 300);
+        var result = StackTransmission.Create(stack).CurrentDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(300));
         Assert.Equal(0.0, result.AmperesPerSquareMetre);
         Assert.True(result.IsConverged);
     }
@@ -120,7 +120,7 @@ public sealed class StackTransmissionCurrentTest(ITestOutputHelper output)
         // integrand: converged, checked against 200 pieces below). The estimate must also cover the actual error.
         var stack = LayerStack.Create(Ground, Ground, Slab(4, 0.25));
         var transmission = StackTransmission.Create(stack, Energy.FromElectronVolts(bias));
-        var result = transmission.CurrentDensity(mu, temperature);
+        var result = transmission.CurrentDensity(Energy.FromElectronVolts(mu), Temperature.FromKelvin(temperature));
         var reference = ReferenceAmperesPerSquareMetre(transmission, mu, temperature, 400);
         var coarse = ReferenceAmperesPerSquareMetre(transmission, mu, temperature, 200);
         var error = Math.Abs(result.AmperesPerSquareMetre - reference);
@@ -141,7 +141,7 @@ public sealed class StackTransmissionCurrentTest(ITestOutputHelper output)
         // with m_R would be 34 % higher). Tolerance as in the single-barrier check.
         var heavy = Lead.Create(default, EffectiveMass.FromElectronMasses(0.09));
         var transmission = StackTransmission.Create(LayerStack.Create(Ground, heavy, Slab(4, 0.25)), Energy.FromElectronVolts(0.1));
-        var result = transmission.CurrentDensity(0.05, 300);
+        var result = transmission.CurrentDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(300));
         var reference = ReferenceAmperesPerSquareMetre(transmission, 0.05, 300, 400);
         var error = Math.Abs(result.AmperesPerSquareMetre - reference);
         Assert.True(result.IsConverged);
@@ -155,7 +155,7 @@ public sealed class StackTransmissionCurrentTest(ITestOutputHelper output)
         // reference uses 1000 pieces in s (about 2e-4 eV each, several per resonance width; checked against 500); tolerance as above.
         var stack = LayerStack.Create(Ground, Ground, Slab(3, 0.3), Slab(6, 0), Slab(3, 0.3));
         var transmission = StackTransmission.Create(stack, Energy.FromElectronVolts(0.08));
-        var result = transmission.CurrentDensity(0.05, 77);
+        var result = transmission.CurrentDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(77));
         var reference = ReferenceAmperesPerSquareMetre(transmission, 0.05, 77, 1000);
         var coarse = ReferenceAmperesPerSquareMetre(transmission, 0.05, 77, 500);
         var error = Math.Abs(result.AmperesPerSquareMetre - reference);
@@ -172,8 +172,8 @@ public sealed class StackTransmissionCurrentTest(ITestOutputHelper output)
         // its energies measured from its own left lead, carries the same electron flux the other way. Tolerance: the
         // two error estimates.
         var stack = LayerStack.Create(Ground, Lead.Create(Energy.FromElectronVolts(0.02), GaAs), Slab(2, 0.2), Slab(5, 0), Slab(3, 0.35));
-        var forward = StackTransmission.Create(stack, Energy.FromElectronVolts(0.15)).CurrentDensity(0.04, 150);
-        var backward = StackTransmission.Create(stack.Reverse(), Energy.FromElectronVolts(-0.15)).CurrentDensity(0.04, 150);
+        var forward = StackTransmission.Create(stack, Energy.FromElectronVolts(0.15)).CurrentDensity(Energy.FromElectronVolts(0.04), Temperature.FromKelvin(150));
+        var backward = StackTransmission.Create(stack.Reverse(), Energy.FromElectronVolts(-0.15)).CurrentDensity(Energy.FromElectronVolts(0.04), Temperature.FromKelvin(150));
         var difference = Math.Abs(forward.AmperesPerSquareMetre + backward.AmperesPerSquareMetre);
         output.WriteLine($"{forward}; mirrored {backward}; relative difference {difference / forward.AmperesPerSquareMetre:E3}");
         Assert.True(difference <= forward.ErrorEstimateAmperesPerSquareMetre + backward.ErrorEstimateAmperesPerSquareMetre, $"{difference}");
@@ -183,21 +183,22 @@ public sealed class StackTransmissionCurrentTest(ITestOutputHelper output)
     public void CurrentDensity_Validation_NamesTheParameter()
     {
         var transmission = StackTransmission.Create(LayerStack.Create(Ground, Ground, Slab(3, 0.3)), Energy.FromElectronVolts(0.1));
-        Assert.Equal("fermiLevelElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(double.NaN, 300)).ParamName);
-        var temperature = Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(0.05, 0));
-        Assert.Equal("temperatureKelvin", temperature.ParamName);
+        Assert.Equal("electronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(Energy.FromElectronVolts(double.NaN), Temperature.FromKelvin(300))).ParamName);
+        var temperature = Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(0)));
+        Assert.Equal("temperature", temperature.ParamName);
         Assert.Contains("got 0", temperature.Message, StringComparison.Ordinal);
-        var options = Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(0.05, 300, new CurrentDensityOptions { RelativeTolerance = 0 }));
-        Assert.Equal("options", options.ParamName);
-        Assert.Contains("RelativeTolerance", options.Message, StringComparison.Ordinal);
-        Assert.Equal("options", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(0.05, 300, new CurrentDensityOptions { MaxEvaluations = 3 })).ParamName);
+        // Options are validated when created, naming the option, its value and the range.
+        var options = Assert.Throws<ArgumentOutOfRangeException>(() => CurrentDensityOptions.Create(relativeTolerance: 0));
+        Assert.Equal("relativeTolerance", options.ParamName);
+        Assert.Contains("got 0", options.Message, StringComparison.Ordinal);
+        Assert.Equal("maxEvaluations", Assert.Throws<ArgumentOutOfRangeException>(() => CurrentDensityOptions.Create(maxEvaluations: 3)).ParamName);
         // Allowed ranges (their limits are public constants): temperature, and the higher Fermi level above the lead edge.
-        Assert.Equal("temperatureKelvin", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(0.05, 0.05)).ParamName);
-        var hot = Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(0.05, 1e9));
-        Assert.Equal("temperatureKelvin", hot.ParamName);
+        Assert.Equal("temperature", Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(0.05))).ParamName);
+        var hot = Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(1e9)));
+        Assert.Equal("temperature", hot.ParamName);
         Assert.Contains("between 0.1 and 1000", hot.Message, StringComparison.Ordinal);
-        var high = Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(1e9, 300));
-        Assert.Equal("fermiLevelElectronVolts", high.ParamName);
+        var high = Assert.Throws<ArgumentOutOfRangeException>(() => transmission.CurrentDensity(Energy.FromElectronVolts(1e9), Temperature.FromKelvin(300)));
+        Assert.Equal("fermiLevel", high.ParamName);
         Assert.Contains("more than 20 eV above the higher lead band edge", high.Message, StringComparison.Ordinal);
     }
 
@@ -208,7 +209,7 @@ public sealed class StackTransmissionCurrentTest(ITestOutputHelper output)
         var transmission = StackTransmission.Create(LayerStack.Create(Ground, Ground, Slab(3, 0.3), Slab(6, 0), Slab(3, 0.3)), Energy.FromElectronVolts(0.08));
         using var source = new CancellationTokenSource();
         source.Cancel();
-        Assert.ThrowsAny<OperationCanceledException>(() => transmission.CurrentDensity(0.05, 77, null, source.Token));
+        Assert.ThrowsAny<OperationCanceledException>(() => transmission.CurrentDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(77), null, source.Token));
         Assert.ThrowsAny<OperationCanceledException>(() => transmission.FindResonances(0.01, 0.3, null, source.Token));
     }
 
@@ -217,7 +218,7 @@ public sealed class StackTransmissionCurrentTest(ITestOutputHelper output)
     {
         // A budget of one rule per piece cannot reach 1e-12: the result must say so rather than pretend.
         var transmission = StackTransmission.Create(LayerStack.Create(Ground, Ground, Slab(3, 0.3), Slab(6, 0), Slab(3, 0.3)), Energy.FromElectronVolts(0.08));
-        var result = transmission.CurrentDensity(0.05, 77, new CurrentDensityOptions { RelativeTolerance = 1e-12, MaxEvaluations = 200 });
+        var result = transmission.CurrentDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(77), CurrentDensityOptions.Create(relativeTolerance: 1e-12, maxEvaluations: 200));
         Assert.False(result.IsConverged);
         Assert.True(double.IsFinite(result.AmperesPerSquareMetre) && result.ErrorEstimateAmperesPerSquareMetre > 0);
         Assert.Contains("NOT converged", result.ToString(), StringComparison.Ordinal);

@@ -6,7 +6,6 @@ using FsCheck.Fluent;
 using Periodic.Stacks;
 using Periodic.Structures;
 using Periodic.Transfer;
-using Periodic.Tests.Support;
 using Periodic.Units;
 using Xunit.Abstractions;
 

@@ -3,7 +3,6 @@
 
 using System.Numerics;
 using Periodic.Structures;
-using Periodic.Tests.Support;
 using Periodic.Transfer;
 using Periodic.Units;
 using Xunit.Abstractions;

@@ -3,7 +3,6 @@
 
 using FsCheck.Fluent;
 using Periodic.Structures;
-using Periodic.Tests.Support;
 using Periodic.Transfer;
 
 namespace Periodic.Tests.Transfer;

@@ -2,7 +2,6 @@
 // Copyright (c) 2026 Periodic contributors
 
 using Periodic.Structures;
-using Periodic.Tests.Support;
 using Periodic.Transfer;
 using Periodic.Units;
 

@@ -127,7 +127,7 @@ public sealed class TraceKernelTest
     public void Traces_KronigPenney_MatchesClosedForm()
     {
         // Kronig & Penney, Proc. R. Soc. A 130, 499 (1931) with BenDaniel–Duke matching
-        // (Phys. Rev. 152, 683 (1966)); the form below is the one in /shared/REFERENCES.md.
+        // (Phys. Rev. 152, 683 (1966)); the form below is the one in docs/references.md.
         const double a = 5, b = 2, v0 = 0.3, mw = 0.067, mb = 0.088;
         var transfer = CellTransfer.Create(KronigPenney());
         var energies = new double[997];

@@ -39,7 +39,7 @@ public sealed class PhysicalConstantsTest
     [Fact]
     public void HbarSquaredOverTwoElectronMass_MatchesDerivedCodataValue()
     {
-        // /work/shared/REFERENCES.md [derived]: ħ²/(2 m_e) = 0.038 099 821 16 eV nm² from exact h and e
+        // docs/references.md [derived]: ħ²/(2 m_e) = 0.038 099 821 16 eV nm² from exact h and e
         // and the CODATA 2018 m_e. The published decimal has 10 significant digits: half a unit in the
         // last place is 5e-12 eV nm², i.e. 1.3e-10 relative.
         Assert.Equal(0.03809982116, PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2, 5e-12);
@@ -53,7 +53,7 @@ public sealed class PhysicalConstantsTest
         Assert.Equal(expected, actual, expected * 8 * DoubleEpsilon);
 
         // Using the rounded published ħ instead would shift the value by about 1.2e-9 relative
-        // (REFERENCES.md): make sure ours is the exact-h value, i.e. not within 1e-10 of that one.
+        // (docs/references.md): make sure ours is the exact-h value, i.e. not within 1e-10 of that one.
         var roundedHbar = 1.054571817e-34;
         var fromRounded = roundedHbar * roundedHbar / (2 * PublishedElectronMass) / PublishedCharge * 1e18;
         Assert.True(Math.Abs(fromRounded / PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2 - 1) > 1e-10);

@@ -1,0 +1,316 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.Reflection;
+using System.Runtime.CompilerServices;
+using System.Runtime.InteropServices;
+using Periodic.Bands;
+using Periodic.Stacks;
+using Periodic.Structures;
+using Periodic.Units;
+
+namespace Periodic.Native;
+
+/// <summary>
+/// The exported C functions declared in include/periodic.h. Each one is a thin wrapper: check pointers,
+/// call the public API of Periodic, copy results into the caller's arrays, and turn every exception into a
+/// status code with a thread-local message (<see cref="Status"/>), so no exception crosses the boundary.
+/// </summary>
+/// <remarks>
+/// Extension point: transitions and hopping join as new exports at the end of this class and in the
+/// reserved section of periodic.h, each raising <see cref="AbiVersion"/> by one. Existing exports never change.
+/// </remarks>
+internal static unsafe class Exports
+{
+    /// <summary>PERIODIC_ABI_VERSION of include/periodic.h; raise both together when functions are added.</summary>
+    public const int AbiVersion = 1;
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_abi_version", CallConvs = [typeof(CallConvCdecl)])]
+    public static int AbiVersionExport() => AbiVersion;
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_version", CallConvs = [typeof(CallConvCdecl)])]
+    public static int Version(byte* buffer, nuint capacity, nuint* required)
+    {
+        try
+        {
+            Status.RequireNotNull(required, nameof(required));
+            var version = typeof(UnitCell).Assembly.GetCustomAttribute<AssemblyInformationalVersionAttribute>()?.InformationalVersion ?? "unknown";
+            var status = Status.WriteString(version, buffer, capacity, required);
+            return status == Status.Ok ? status : Status.Fail(status, $"buffer holds {capacity} bytes; {*required} are needed.");
+        }
+        catch (Exception e)
+        {
+            return Status.FromException(e);
+        }
+    }
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_last_error", CallConvs = [typeof(CallConvCdecl)])]
+    public static int LastError(byte* buffer, nuint capacity, nuint* required)
+    {
+        try
+        {
+            // Never calls Status.Fail: reading the message must not replace it.
+            return required == null ? Status.NullPointer : Status.WriteString(Status.LastError, buffer, capacity, required);
+        }
+        catch
+        {
+            return Status.Internal;
+        }
+    }
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_cell_create", CallConvs = [typeof(CallConvCdecl)])]
+    public static int CellCreate(double* widthsNm, double* potentialsEv, double* massesM0, nuint layerCount, void** cell)
+    {
+        try
+        {
+            Status.RequireNotNull(cell, nameof(cell));
+            Status.RequireNotNull(widthsNm, "widths_nm");
+            Status.RequireNotNull(potentialsEv, "potentials_ev");
+            Status.RequireNotNull(massesM0, "masses_m0");
+            var n = CheckLength(layerCount, "layer_count");
+            var created = UnitCell.FromLayers(new ReadOnlySpan<double>(widthsNm, n), new ReadOnlySpan<double>(potentialsEv, n), new ReadOnlySpan<double>(massesM0, n));
+            *cell = Handles.New(created);
+            return Status.Ok;
+        }
+        catch (Exception e)
+        {
+            return Status.FromException(e);
+        }
+    }
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_cell_destroy", CallConvs = [typeof(CallConvCdecl)])]
+    public static int CellDestroy(void* cell) => Destroy<UnitCell>(cell, nameof(cell));
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_cell_period", CallConvs = [typeof(CallConvCdecl)])]
+    public static int CellPeriod(void* cell, double* periodNm)
+    {
+        try
+        {
+            var c = Handles.Get<UnitCell>(cell, nameof(cell));
+            Status.RequireNotNull(periodNm, "period_nm");
+            *periodNm = c.Period.Nanometres;
+            return Status.Ok;
+        }
+        catch (Exception e)
+        {
+            return Status.FromException(e);
+        }
+    }
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_bands_compute", CallConvs = [typeof(CallConvCdecl)])]
+    public static int BandsCompute(void* cell, int count, void** bands)
+    {
+        try
+        {
+            var c = Handles.Get<UnitCell>(cell, nameof(cell));
+            Status.RequireNotNull(bands, nameof(bands));
+            *bands = Handles.New(new BandsHandle(BandStructure.Compute(c, count)));
+            return Status.Ok;
+        }
+        catch (Exception e)
+        {
+            return Status.FromException(e);
+        }
+    }
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_bands_destroy", CallConvs = [typeof(CallConvCdecl)])]
+    public static int BandsDestroy(void* bands) => Destroy<BandsHandle>(bands, nameof(bands));
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_bands_count", CallConvs = [typeof(CallConvCdecl)])]
+    public static int BandsCount(void* bands, int* count)
+    {
+        try
+        {
+            var b = Handles.Get<BandsHandle>(bands, nameof(bands));
+            Status.RequireNotNull(count, nameof(count));
+            *count = b.Structure.Bands.Count;
+            return Status.Ok;
+        }
+        catch (Exception e)
+        {
+            return Status.FromException(e);
+        }
+    }
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_bands_edges", CallConvs = [typeof(CallConvCdecl)])]
+    public static int BandsEdges(void* bands, double* bottomEv, double* topEv, nuint capacity) =>
+        PerBand(bands, bottomEv, "bottom_ev", topEv, "top_ev", capacity, (b, i) => (b.Structure.Bands[i].BottomElectronVolts, b.Structure.Bands[i].TopElectronVolts));
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_bands_edge_errors", CallConvs = [typeof(CallConvCdecl)])]
+    public static int BandsEdgeErrors(void* bands, double* bottomErrorEv, double* topErrorEv, nuint capacity) =>
+        PerBand(bands, bottomErrorEv, "bottom_error_ev", topErrorEv, "top_error_ev", capacity, (b, i) => (b.Structure.Bands[i].BottomErrorElectronVolts, b.Structure.Bands[i].TopErrorElectronVolts));
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_bands_masses", CallConvs = [typeof(CallConvCdecl)])]
+    public static int BandsMasses(void* bands, double* bottomMassM0, double* topMassM0, nuint capacity) =>
+        PerBand(bands, bottomMassM0, "bottom_mass_m0", topMassM0, "top_mass_m0", capacity, (b, i) =>
+        {
+            var index = b.Structure.Bands[i].Index;
+            return (b.Properties.BottomMass(index).ElectronMasses, b.Properties.TopMass(index).ElectronMasses);
+        });
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_bands_accuracy", CallConvs = [typeof(CallConvCdecl)])]
+    public static int BandsAccuracy(void* bands, double* maxEdgeErrorEv, int* countChecks)
+    {
+        try
+        {
+            var b = Handles.Get<BandsHandle>(bands, nameof(bands));
+            Status.RequireNotNull(maxEdgeErrorEv, "max_edge_error_ev");
+            Status.RequireNotNull(countChecks, "count_checks");
+            *maxEdgeErrorEv = b.Structure.MaxEdgeErrorElectronVolts;
+            *countChecks = b.Structure.CountChecks;
+            return Status.Ok;
+        }
+        catch (Exception e)
+        {
+            return Status.FromException(e);
+        }
+    }
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_bands_energies", CallConvs = [typeof(CallConvCdecl)])]
+    public static int BandsEnergies(void* bands, int bandIndex, double* kPerNm, double* energiesEv, nuint count)
+    {
+        try
+        {
+            var b = Handles.Get<BandsHandle>(bands, nameof(bands));
+            var n = CheckArrays(kPerNm, "k_per_nm", energiesEv, "energies_ev", count);
+            b.Structure.EnergiesAt(bandIndex, new ReadOnlySpan<double>(kPerNm, n), new Span<double>(energiesEv, n));
+            return Status.Ok;
+        }
+        catch (Exception e)
+        {
+            return Status.FromException(e);
+        }
+    }
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_bands_dos", CallConvs = [typeof(CallConvCdecl)])]
+    public static int BandsDos(void* bands, double* energiesEv, double* dosPerEvNm, nuint count)
+    {
+        try
+        {
+            var b = Handles.Get<BandsHandle>(bands, nameof(bands));
+            var n = CheckArrays(energiesEv, "energies_ev", dosPerEvNm, "dos_per_ev_nm", count);
+            b.Properties.DensitiesOfStates(new ReadOnlySpan<double>(energiesEv, n), new Span<double>(dosPerEvNm, n));
+            return Status.Ok;
+        }
+        catch (Exception e)
+        {
+            return Status.FromException(e);
+        }
+    }
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_stack_create", CallConvs = [typeof(CallConvCdecl)])]
+    public static int StackCreate(void* cell, int periods, double leftPotentialEv, double leftMassM0, double rightPotentialEv, double rightMassM0, void** stack)
+    {
+        try
+        {
+            var c = Handles.Get<UnitCell>(cell, nameof(cell));
+            Status.RequireNotNull(stack, nameof(stack));
+            var left = Lead.Create(Energy.FromElectronVolts(leftPotentialEv), EffectiveMass.FromElectronMasses(leftMassM0));
+            var right = Lead.Create(Energy.FromElectronVolts(rightPotentialEv), EffectiveMass.FromElectronMasses(rightMassM0));
+            *stack = Handles.New(new StackHandle(LayerStack.Periodic(left, c, periods, right)));
+            return Status.Ok;
+        }
+        catch (Exception e)
+        {
+            return Status.FromException(e);
+        }
+    }
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_stack_destroy", CallConvs = [typeof(CallConvCdecl)])]
+    public static int StackDestroy(void* stack) => Destroy<StackHandle>(stack, nameof(stack));
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_stack_transmission", CallConvs = [typeof(CallConvCdecl)])]
+    public static int StackTransmissionExport(void* stack, double biasEv, double* energiesEv, double* transmission, nuint count)
+    {
+        try
+        {
+            var s = Handles.Get<StackHandle>(stack, nameof(stack));
+            var n = CheckArrays(energiesEv, "energies_ev", transmission, nameof(transmission), count);
+            s.Transmission(biasEv).Transmissions(new ReadOnlySpan<double>(energiesEv, n), new Span<double>(transmission, n));
+            return Status.Ok;
+        }
+        catch (Exception e)
+        {
+            return Status.FromException(e);
+        }
+    }
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_stack_bound_levels", CallConvs = [typeof(CallConvCdecl)])]
+    public static int StackBoundLevels(void* stack, double* energiesEv, double* errorsEv, nuint capacity, nuint* count)
+    {
+        try
+        {
+            var s = Handles.Get<StackHandle>(stack, nameof(stack));
+            Status.RequireNotNull(count, nameof(count));
+            var levels = s.BoundStates.Levels;
+            *count = (nuint)levels.Count;
+            if (capacity == 0 && energiesEv == null && errorsEv == null)
+            {
+                return Status.Ok;
+            }
+            Status.RequireNotNull(energiesEv, "energies_ev");
+            Status.RequireNotNull(errorsEv, "errors_ev");
+            Status.RequireCapacity(capacity, levels.Count, "energies_ev and errors_ev");
+            for (var i = 0; i < levels.Count; i++)
+            {
+                energiesEv[i] = levels[i].EnergyElectronVolts;
+                errorsEv[i] = levels[i].ErrorElectronVolts;
+            }
+            return Status.Ok;
+        }
+        catch (Exception e)
+        {
+            return Status.FromException(e);
+        }
+    }
+
+    private static int Destroy<T>(void* handle, string name)
+        where T : class
+    {
+        try
+        {
+            Handles.Free<T>(handle, name);
+            return Status.Ok;
+        }
+        catch (Exception e)
+        {
+            return Status.FromException(e);
+        }
+    }
+
+    /// <summary>Fills two per-band arrays; the capacity must cover every band.</summary>
+    private static int PerBand(void* bands, double* first, string firstName, double* second, string secondName, nuint capacity, Func<BandsHandle, int, (double First, double Second)> value)
+    {
+        try
+        {
+            var b = Handles.Get<BandsHandle>(bands, nameof(bands));
+            Status.RequireNotNull(first, firstName);
+            Status.RequireNotNull(second, secondName);
+            var count = b.Structure.Bands.Count;
+            Status.RequireCapacity(capacity, count, $"{firstName} and {secondName}");
+            for (var i = 0; i < count; i++)
+            {
+                (first[i], second[i]) = value(b, i);
+            }
+            return Status.Ok;
+        }
+        catch (Exception e)
+        {
+            return Status.FromException(e);
+        }
+    }
+
+    private static int CheckArrays(double* input, string inputName, double* output, string outputName, nuint count)
+    {
+        var n = CheckLength(count, "count");
+        if (n > 0)
+        {
+            Status.RequireNotNull(input, inputName);
+            Status.RequireNotNull(output, outputName);
+        }
+        return n;
+    }
+
+    private static int CheckLength(nuint count, string name) =>
+        count <= int.MaxValue ? (int)count : throw new ArgumentOutOfRangeException(name, $"{name} must be at most {int.MaxValue}; got {count}.");
+}
