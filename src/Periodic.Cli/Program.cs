@@ -30,6 +30,8 @@ root.Subcommands.Add(SweepCommand.Create());
 root.Subcommands.Add(MergeCommand.Create());
 root.Subcommands.Add(DesignCommand.Create());
 root.Subcommands.Add(HubbardCommand.Create());
+root.Subcommands.Add(FieldCommands.Drift());
+root.Subcommands.Add(FieldCommands.Ladder());
 root.Subcommands.Add(ExampleCommand.Create());
 root.SetAction(_ =>
 {

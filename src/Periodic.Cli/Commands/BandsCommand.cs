@@ -22,6 +22,8 @@ internal static class BandsCommand
         var output = Common.OutOption();
         var command = new Command("bands", "List the lowest minibands: edges, widths, band-edge masses, and the gaps between them.");
         command.Arguments.Add(file);
+        var inPlane = Common.InPlaneWavevectorOption();
+        command.Options.Add(inPlane);
         command.Options.Add(count);
         command.Options.Add(json);
         command.Options.Add(csv);
@@ -30,7 +32,7 @@ internal static class BandsCommand
         {
             var format = Common.Format(result, json, csv);
             var n = Common.CheckCount(result.GetValue(count));
-            var structure = Common.Load(result.GetValue(file)!);
+            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result.GetValue(file)!));
             Write(structure, n, format, result.GetValue(output));
             return 0;
         });

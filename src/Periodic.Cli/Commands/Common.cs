@@ -63,6 +63,33 @@ internal static class Common
         },
     };
 
+    /// <summary>The in-plane wavevector k∥ (1/nm) shared by the commands that take it.</summary>
+    public static Option<double?> InPlaneWavevectorOption() => NumberOption("--in-plane-wavevector", "1/nm", "0.3",
+        "In-plane wavevector k∥, 1/nm (default 0): every layer and lead is seen with its potential raised by ħ²k∥²/2m of its own mass, "
+        + "so energies are total energies E(k_z, k∥). Parabolic layers, delta barriers and Fourier segments.");
+
+    /// <summary>The structure at the in-plane wavevector given by <paramref name="option"/> (unchanged without it).</summary>
+    public static StructureDefinition AtInPlaneWavevector(ParseResult result, Option<double?> option, StructureDefinition structure)
+    {
+        if (result.GetValue(option) is not { } k)
+        {
+            return structure;
+        }
+        if (!(k >= 0 && k <= Periodic.Structures.InPlaneMotion.MaxWavevectorPerNanometre))
+        {
+            throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                $"--in-plane-wavevector must be from 0 to {Periodic.Structures.InPlaneMotion.MaxWavevectorPerNanometre} 1/nm (|k∥|, not negative); got {k:R}."));
+        }
+        try
+        {
+            return structure.AtInPlaneWavevector(k);
+        }
+        catch (ArgumentException e)
+        {
+            throw new UsageException($"--in-plane-wavevector: {Describe(e)}");
+        }
+    }
+
     /// <summary>The message of a library argument error without the runtime's "(Parameter 'x')" suffix.</summary>
     public static string Describe(ArgumentException e)
     {

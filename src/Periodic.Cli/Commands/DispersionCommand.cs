@@ -34,6 +34,8 @@ internal static class DispersionCommand
         var output = Common.OutOption();
         var command = new Command("dispersion", "Tabulate E(k) of the lowest bands over the first Brillouin zone, k from 0 to pi/d.");
         command.Arguments.Add(file);
+        var inPlane = Common.InPlaneWavevectorOption();
+        command.Options.Add(inPlane);
         command.Options.Add(count);
         command.Options.Add(points);
         command.Options.Add(json);
@@ -50,7 +52,7 @@ internal static class DispersionCommand
             }
             Limits.CheckWork("--count × --points", Limits.Product(n, k), Limits.MaxDispersionValues,
                 "the output is streamed, but each value costs CPU time and about 25 bytes of output");
-            var structure = Common.Load(result.GetValue(file)!);
+            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result.GetValue(file)!));
             var solved = Solver.Compute(structure.Cell, n);
             var warnings = structure.Materials is { } built ? Common.ReportWarnings(structure, built.CheckEnergies(solved.Structure.Bands.SelectMany(b => new[] { b.BottomElectronVolts, b.TopElectronVolts }).ToArray())) : [];
             var grid = new Grid(solved.Structure, k);

@@ -25,6 +25,8 @@ internal static class DosCommand
         var mass = CarriersCommand.InPlaneMassOption();
         var command = new Command("dos", "Density of states (spin included) and its integral, Bloch wavevector, decay constant and dE/dk at each energy; with --volume the superlattice's 3D density of states.");
         command.Arguments.Add(file);
+        var inPlane = Common.InPlaneWavevectorOption();
+        command.Options.Add(inPlane);
         grid.AddTo(command);
         command.Options.Add(json);
         command.Options.Add(csv);
@@ -40,9 +42,9 @@ internal static class DosCommand
             {
                 throw new UsageException("--in-plane-mass applies only with --volume.");
             }
-            var structure = Common.Load(result.GetValue(file)!);
-            var inPlane = result.GetValue(volume) ? CarriersCommand.InPlaneMass(structure.Cell, result.GetValue(mass)) : (Periodic.Units.EffectiveMass?)null;
-            Write(structure, energies, inPlane, format, result.GetValue(output));
+            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result.GetValue(file)!));
+            var inPlaneMass = result.GetValue(volume) ? CarriersCommand.InPlaneMass(structure.Cell, result.GetValue(mass)) : (Periodic.Units.EffectiveMass?)null;
+            Write(structure, energies, inPlaneMass, format, result.GetValue(output));
             return 0;
         });
         return command;

@@ -30,6 +30,8 @@ internal static class LevelsCommand
         var output = Common.OutOption();
         var command = new Command("levels", "Bound and defect states of the file's stack: energy, error bound, node count; optionally the wavefunctions.");
         command.Arguments.Add(file);
+        var inPlane = Common.InPlaneWavevectorOption();
+        command.Options.Add(inPlane);
         stackOptions.AddTo(command);
         foreach (var option in new Option[] { wavefunctions, gridPoints, margin, json, csv, output })
         {
@@ -49,7 +51,7 @@ internal static class LevelsCommand
             {
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--margin must be between 0 and 1e6 nm; got {given:R}."));
             }
-            var structure = Common.Load(result.GetValue(file)!);
+            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result.GetValue(file)!));
             var (stack, source) = stackOptions.Build(result, structure);
             var spectrum = Find(stack);
             var energies = spectrum.Levels.Select(l => l.EnergyElectronVolts).ToArray();

@@ -20,7 +20,7 @@ namespace Periodic.Cli.Commands;
 /// </summary>
 internal static class PlotCommand
 {
-    private static readonly string[] Kinds = ["dispersion", "dos", "profile", "transmission", "stack", "iv"];
+    private static readonly string[] Kinds = ["dispersion", "dos", "profile", "transmission", "stack", "iv", "in-plane"];
     // Properties, not static fields: a field of a ScottPlot type would load the plotting library whenever the
     // command line is built, slowing every other command's start.
     private static Color GapColor => Color.FromHex("#F2C7C7").WithAlpha(0.55);
@@ -35,7 +35,7 @@ internal static class PlotCommand
         var show = new Option<string>("--show", "-s")
         {
             Description = "What to draw: dispersion (E(k), gaps shaded), dos, profile (V(x) of the cell with the minibands), transmission (T(E), log scale), "
-                + "stack (the stack's V(x) under the bias, bound states with |psi|^2 and transmission peaks at their energies) or iv (current density from 0 to the bias).",
+                + "stack (the stack's V(x) under the bias, bound states with |psi|^2 and transmission peaks at their energies) or iv (current density from 0 to the bias), or in-plane (miniband edges against k∥ up to --in-plane-wavevector, default 1 /nm).",
             DefaultValueFactory = _ => "dispersion",
         };
         show.AcceptOnlyFromAmong(Kinds);
@@ -49,6 +49,8 @@ internal static class PlotCommand
         var height = new Option<int>("--height") { Description = "Image height, pixels.", DefaultValueFactory = _ => 600 };
         var command = new Command("plot", "Draw E(k), the DOS, the potential profile with its minibands, or T(E) to a PNG or SVG file.");
         command.Arguments.Add(file);
+        var inPlane = Common.InPlaneWavevectorOption();
+        command.Options.Add(inPlane);
         command.Options.Add(output);
         command.Options.Add(show);
         command.Options.Add(count);
@@ -98,7 +100,9 @@ internal static class PlotCommand
             {
                 throw new UsageException("--show iv needs --fermi-level E (eV, the left contact's Fermi level).");
             }
-            var structure = Common.Load(result.GetValue(file)!);
+            var loaded = Common.Load(result.GetValue(file)!);
+            var atInPlane = Common.AtInPlaneWavevector(result, inPlane, loaded); // validates --in-plane-wavevector
+            var structure = kind == "in-plane" ? loaded : atInPlane; // there it is the end of the k∥ axis
             if (kind == "profile")
             {
                 // Two points per layer, 201 per smooth segment and period.
@@ -109,6 +113,7 @@ internal static class PlotCommand
             var stackPeriods = p ?? (structure.Stack is null ? 10 : null);
             var plot = kind switch
             {
+                "in-plane" => InPlaneEdges(structure, n, result.GetValue(inPlane) ?? 1.0),
                 "dispersion" => structure.OpticalLattice is { } lattice ? LatticeOutput.DispersionPlot(structure, lattice, n) : Dispersion(structure, n),
                 "dos" => Dos(structure, n, energies),
                 "profile" => Profile(structure, n, p ?? 3),
@@ -122,6 +127,49 @@ internal static class PlotCommand
             return 0;
         });
         return command;
+    }
+
+    /// <summary>Miniband edges against k∥ (exact, per-layer masses), each band shaded between its bottom and top.</summary>
+    private static Plot InPlaneEdges(StructureDefinition structure, int count, double maxWavevector)
+    {
+        if (!(maxWavevector > 0))
+        {
+            throw new UsageException("--in-plane-wavevector must be above 0 for --show in-plane (it is the right end of the k∥ axis).");
+        }
+        const int points = 61;
+        var ks = new double[points];
+        var bottoms = new double[count][];
+        var tops = new double[count][];
+        for (var n = 0; n < count; n++)
+        {
+            bottoms[n] = new double[points];
+            tops[n] = new double[points];
+        }
+        for (var i = 0; i < points; i++)
+        {
+            ks[i] = maxWavevector * i / (points - 1);
+            var edges = Periodic.Properties.InPlaneDispersion.EdgesAt(structure.Cell, count, ks[i]);
+            for (var n = 0; n < count; n++)
+            {
+                bottoms[n][i] = edges[n].BottomElectronVolts;
+                tops[n][i] = edges[n].TopElectronVolts;
+            }
+        }
+        var plot = NewPlot($"{structure.Name}: miniband edges against k∥", "in-plane wavevector k∥ (1/nm)", "energy (eV)");
+        for (var n = 0; n < count; n++)
+        {
+            var polygon = plot.Add.Polygon(ks.Concat(ks.Reverse()).ToArray(), bottoms[n].Concat(tops[n].Reverse()).ToArray());
+            polygon.FillStyle.Color = BandColor;
+            polygon.LineStyle.Width = 0;
+            foreach (var edge in new[] { bottoms[n], tops[n] })
+            {
+                var line = plot.Add.ScatterLine(ks, edge);
+                line.LineWidth = 2;
+                line.Color = LineColor;
+            }
+        }
+        plot.Add.Text("minibands shaded; per-layer in-plane masses", 0.02 * maxWavevector, tops[count - 1].Max()).LabelFontSize = 12;
+        return plot;
     }
 
     /// <summary>The largest bias of the I–V curve: --bias, else the file's stack.bias; it must not be 0.</summary>

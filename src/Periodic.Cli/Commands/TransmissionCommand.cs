@@ -27,6 +27,8 @@ internal static class TransmissionCommand
         var output = Common.OutOption();
         var command = new Command("transmission", "Transmission and reflection of a finite stack of N periods between two uniform leads.");
         command.Arguments.Add(file);
+        var inPlane = Common.InPlaneWavevectorOption();
+        command.Options.Add(inPlane);
         command.Options.Add(periods);
         grid.AddTo(command);
         command.Options.Add(leadPotential);
@@ -54,7 +56,7 @@ internal static class TransmissionCommand
             {
                 Limits.CheckMass("--lead-mass", m);
             }
-            var structure = Common.Load(result.GetValue(file)!);
+            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result.GetValue(file)!));
             var (stack, source) = Physics.StackOptions.Choose(structure, n, potential, mass);
             Write(structure, stack, source, energies, ChooseBias(result.GetValue(bias), structure), format, result.GetValue(output));
             return 0;

@@ -27,6 +27,18 @@ public sealed partial class StructureDefinition
     }
 
     /// <summary>
+    /// The same structure as a carrier with in-plane wavevector <paramref name="inPlaneWavevectorPerNanometre"/> (1/nm) sees it:
+    /// the cell by <see cref="InPlaneMotion.CellAt(UnitCell, double)"/> and the stack, if any, by <see cref="InPlaneStack.At"/>; its
+    /// name says the k∥.
+    /// </summary>
+    /// <exception cref="ArgumentOutOfRangeException">k∥ is not finite, negative or above <see cref="InPlaneMotion.MaxWavevectorPerNanometre"/>.</exception>
+    /// <exception cref="ArgumentException">The structure holds a non-parabolic layer, a function or a sampled segment.</exception>
+    public StructureDefinition AtInPlaneWavevector(double inPlaneWavevectorPerNanometre) => new(
+        string.Create(System.Globalization.CultureInfo.InvariantCulture, $"{Name} at k∥ = {inPlaneWavevectorPerNanometre:R} /nm"),
+        Description, InPlaneMotion.CellAt(Cell, inPlaneWavevectorPerNanometre), [.. Labels], SourceName, Materials,
+        Stack is null ? null : InPlaneStack.At(Stack, inPlaneWavevectorPerNanometre), StackBias);
+
+    /// <summary>
     /// The finite stack the file describes (its <c>stack</c> field: N periods of the cell between two leads),
     /// or null when the file describes only the infinite crystal.
     /// </summary>

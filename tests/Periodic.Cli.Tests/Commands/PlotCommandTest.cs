@@ -10,6 +10,7 @@ public sealed class PlotCommandTest
     [InlineData("dos", "delta-comb.json", ".png")]
     [InlineData("profile", "superlattice.json", ".svg")]
     [InlineData("transmission", "gaas-algaas.json", ".png")]
+    [InlineData("in-plane", "superlattice.json", ".png")]
     [InlineData("stack", "defect-superlattice.json", ".svg")]
     [InlineData("stack", "double-barrier-diode.json", ".png", "--bias", "0.1")]
     [InlineData("iv", "double-barrier-diode.json", ".png", "--fermi-level", "0.02", "--temperature", "77")]

@@ -148,7 +148,7 @@ public sealed class PublicApiConventionsTest
         [
             "ElectronVolts", "ElectronVolt", "MillielectronVolts", "Nanometres", "Nanometre", "ElectronMasses", "Kelvin", "MetresPerSecond",
             "Seconds", "Joules", "Centimetre", "RecoilEnergies", "PerElectronMass", "Metres", "Angstroms", "Kilograms", "Coulombs", "Radians", "PerKelvin", "Cubic", "AmperesPerSquareMetre",
-            "AtomicMassUnits", "Hertz", "BohrRadii", "Sites",
+            "AtomicMassUnits", "Hertz", "BohrRadii", "Sites", "VoltsPerMetre",
         ];
         string[] dimensionless =
         [

@@ -66,6 +66,8 @@ public sealed class SpanApi
 
     public override string ToString() => Name;
 
+    private static readonly Periodic.Properties.MinibandDrift Drift = Periodic.Properties.MinibandDrift.FromCosineSeries([0.01, -0.01], 6, 1e-13);
+
     /// <summary>Room for the other destination of a two-destination method (longer than any input here).</summary>
     private static readonly double[] Scratch = new double[64];
 
@@ -96,6 +98,8 @@ public sealed class SpanApi
             new("BandProperties.SuperlatticeDensitiesOfStates", "energiesElectronVolts", "destinationPerElectronVoltCubicNanometre", (i, d) => p.SuperlatticeDensitiesOfStates(i, mass, d), e => p.SuperlatticeDensityOfStatesPerElectronVoltCubicNanometre(e, mass), inBand, double.NaN),
             new("BandProperties.SlopesAt", "wavevectorsPerNanometre", "destinationElectronVoltNanometres", (i, d) => p.SlopesAt(1, i, d), k => p.GroupVelocityAt(1, k).SlopeElectronVoltNanometres, ks, 2 * kMax),
             new("BandProperties.GroupVelocitiesAt", "wavevectorsPerNanometre", "destinationMetresPerSecond", (i, d) => p.GroupVelocitiesAt(1, i, d), k => p.GroupVelocityAt(1, k).MetresPerSecond, ks, 2 * kMax),
+            // Drift of a cosine band (Esaki–Tsu fixture): the batch calls the scalar method, so bit-identical.
+            new("MinibandDrift.VelocitiesAt", "fieldsVoltsPerMetre", "destinationMetresPerSecond", Drift.VelocitiesAt, Drift.VelocityAt, [0, 1e5, 1e6, 3e6, 2e7], double.NaN),
             new("StackTransmission.Transmissions", "energiesElectronVolts", "destination", t.Transmissions, e => t.Evaluate(e).Transmission, aboveLeads, double.NaN),
             new("StackTransmission.Transmissions(progress)", "energiesElectronVolts", "destination", (i, d) => t.Transmissions(i, d, null, CancellationToken.None), e => t.Evaluate(e).Transmission, aboveLeads, double.NaN),
             new("StackTransmission.Log10Transmissions", "energiesElectronVolts", "destination", t.Log10Transmissions, e => t.Evaluate(e).Log10Transmission, aboveLeads, double.NaN),
