@@ -52,7 +52,14 @@ internal sealed class LayerIntegrals
     internal int Count => Positions.Length;
 
     /// <summary>A grid that integrates products of any two states with energies in [lower, upper] eV.</summary>
-    internal static LayerIntegrals Create(StackProfile profile, double lowerElectronVolts, double upperElectronVolts)
+    internal static LayerIntegrals Create(StackProfile profile, double lowerElectronVolts, double upperElectronVolts) =>
+        Create(profile, [(profile, lowerElectronVolts, upperElectronVolts)]);
+
+    /// <summary>
+    /// A grid on the geometry of <paramref name="profile"/> that integrates products of states of several profiles with the
+    /// same element boundaries (electrons and holes of one structure), each over its own energy window.
+    /// </summary>
+    internal static LayerIntegrals Create(StackProfile profile, IReadOnlyList<(StackProfile Profile, double Lower, double Upper)> windows)
     {
         var rule = GaussLegendre.Twenty;
         var n = profile.Count;
@@ -64,10 +71,16 @@ internal sealed class LayerIntegrals
             {
                 continue;
             }
-            profile.LayerCoefficients(j, lowerElectronVolts, out _, out var sLow);
-            profile.LayerCoefficients(j, upperElectronVolts, out _, out var sHigh);
-            var k = Math.Sqrt(Math.Max(Math.Abs(sLow), Math.Abs(sHigh)));
-            var turn = 2 * k * profile.Widths[j];
+            // The product of two states turns at most by the sum of their two largest wavenumbers.
+            var largest = new List<double>();
+            foreach (var (other, lower, upper) in windows)
+            {
+                other.LayerCoefficients(j, lower, out _, out var sLow);
+                other.LayerCoefficients(j, upper, out _, out var sHigh);
+                largest.Add(Math.Sqrt(Math.Max(Math.Abs(sLow), Math.Abs(sHigh))));
+            }
+            largest.Sort();
+            var turn = (largest[^1] + largest[Math.Max(0, largest.Count - 2)]) * profile.Widths[j];
             pieces[j] = Math.Max(1, (int)Math.Ceiling(turn / MaxTurnPerPiece));
             total += pieces[j] * rule.Nodes.Length;
         }
