@@ -22,6 +22,8 @@ root.Subcommands.Add(DosCommand.Create());
 root.Subcommands.Add(TransmissionCommand.Create());
 root.Subcommands.Add(CurrentCommand.Create());
 root.Subcommands.Add(PlotCommand.Create());
+root.Subcommands.Add(TransitionsCommand.Create());
+root.Subcommands.Add(AbsorptionCommand.Create());
 root.Subcommands.Add(ExampleCommand.Create());
 root.SetAction(_ =>
 {
