@@ -208,17 +208,12 @@ internal sealed class QuasiBoundState
         {
             return 0;
         }
-        var i = Array.BinarySearch(boundaries, x);
-        i = i >= 0 ? i : ~i - 1;
-        while (i < n - 1 && (_profile.IsDelta[i] || boundaries[i + 1] <= x))
-        {
-            i++;
-        }
-        while (i > 0 && _profile.IsDelta[i])
+        // The last layer of positive width that starts at or before x (a linear scan: this serves plots, not the integrals).
+        var i = n - 1;
+        while (i > 0 && (boundaries[i] > x || _profile.IsDelta[i]))
         {
             i--;
         }
-        i = Math.Min(i, n - 1);
         _profile.LayerCoefficients(i, EnergyElectronVolts, out var mass, out var s);
         UniformLayerPropagator.Evaluate(s, x - boundaries[i], out var c, out var sinc, out _, out _, out var logScale);
         return (c * _u[i] + mass * sinc * _w[i]) * Math.Exp(_log[i] + logScale);
