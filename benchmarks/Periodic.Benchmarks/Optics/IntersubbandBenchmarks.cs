@@ -15,9 +15,10 @@ namespace Periodic.Benchmarks.Optics;
 /// Every intersubband transition (levels, wavefunctions, dipoles, oscillator strengths) of a 50-well stack, against a
 /// finite-difference calculation of equal accuracy: the three-point scheme at h = 0.02 and 0.01 nm with Richardson
 /// extrapolation, whose dipoles agree with the library's to the level <c>--calibrate-optics</c> prints. Ratios are
-/// against the finite-difference baseline.
+/// against the finite-difference baseline. Each call takes seconds; run it in process with few iterations:
+/// <c>-- --filter '*IntersubbandBenchmarks*' --inProcess --warmupCount 1 --iterationCount 3</c>.
 /// </summary>
-[SimpleJob(launchCount: 1, warmupCount: 1, iterationCount: 3)]
+[MemoryDiagnoser]
 public class IntersubbandBenchmarks
 {
     internal const int Wells = 50;
