@@ -51,6 +51,19 @@ public class IntersubbandBenchmarks
         return sum;
     }
 
+    /// <summary>The share of the bound-state search and the wavefunctions (Stacks) in <see cref="Periodic"/>: levels only.</summary>
+    [Benchmark]
+    public double LevelsAndWavefunctions()
+    {
+        var levels = BoundStateSpectrum.Find(_stack);
+        double sum = 0;
+        for (var i = 0; i < levels.Levels.Count; i++)
+        {
+            sum += levels.GetWavefunction(i).LeadProbability;
+        }
+        return sum;
+    }
+
     /// <summary>The finite-difference baseline: all levels, eigenvectors and dipoles at two grids, Richardson-extrapolated.</summary>
     [Benchmark(Baseline = true)]
     public double FiniteDifference() => FiniteDifferenceDipoles(out _).Cast<double>().Sum(Math.Abs);
