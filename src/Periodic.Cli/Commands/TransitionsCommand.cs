@@ -205,7 +205,7 @@ internal static class TransitionsCommand
                         w.WriteNull("oscillatorStrength");
                         w.WriteNull("momentumOscillatorStrength");
                     }
-                    w.Number("domainChange", t.DomainChange);
+                    w.Number("domainChange", t.DomainChangeFraction);
                     w.WriteEndObject();
                 }
                 w.WriteEndArray();
@@ -215,10 +215,10 @@ internal static class TransitionsCommand
                     var check = spectrum.SumRule(i);
                     w.WriteStartObject();
                     w.WriteNumber("from", i);
-                    w.Number("bound", check.BoundSum);
-                    w.Number("quasiBound", check.QuasiBoundSum);
-                    w.Number("expected", check.Expected);
-                    w.Number("continuum", check.Missing);
+                    w.Number("bound", check.BoundStrength);
+                    w.Number("quasiBound", check.QuasiBoundStrength);
+                    w.Number("expected", check.ExpectedStrength);
+                    w.Number("continuum", check.MissingStrength);
                     w.WriteEndObject();
                 }
                 w.WriteEndArray();
@@ -247,7 +247,7 @@ internal static class TransitionsCommand
         text += table.ToText();
         var sum = spectrum.SumRule(1);
         text += string.Create(CultureInfo.InvariantCulture,
-            $"\nf-sum from level 1: {sum.BoundSum:G8} (bound) + {sum.QuasiBoundSum:G8} (quasi-bound) of {sum.Expected:G8}; the rest, {sum.Missing:G4}, lies in the continuum.\n");
+            $"\nf-sum from level 1: {sum.BoundStrength:G8} (bound) + {sum.QuasiBoundStrength:G8} (quasi-bound) of {sum.ExpectedStrength:G8}; the rest, {sum.MissingStrength:G4}, lies in the continuum.\n");
         return text + IntersubbandLimits + "\n";
     }
 

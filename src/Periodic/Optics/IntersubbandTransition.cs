@@ -35,7 +35,7 @@ public readonly struct IntersubbandTransition
         _strength = strength;
         _momentumStrength = momentumStrength;
         _hasMomentum = hasMomentum;
-        DomainChange = domainChange;
+        DomainChangeFraction = domainChange;
         Problem = problem;
     }
 
@@ -62,7 +62,7 @@ public readonly struct IntersubbandTransition
     /// <summary>
     /// For a quasi-bound upper level: the relative change of |z| when the normalisation domain's margin is doubled (0 for bound levels).
     /// </summary>
-    public double DomainChange { get; }
+    public double DomainChangeFraction { get; }
 
     /// <summary>The dipole matrix element ⟨from|z|to⟩, nm (signed: the wavefunctions are real and positive in the left lead).</summary>
     /// <exception cref="InvalidOperationException">The transition is not resolved (the message says why).</exception>

@@ -19,27 +19,27 @@ public readonly struct SumRuleCheck
     internal SumRuleCheck(int from, double bound, double quasiBound, double expected)
     {
         From = from;
-        BoundSum = bound;
-        QuasiBoundSum = quasiBound;
-        Expected = expected;
+        BoundStrength = bound;
+        QuasiBoundStrength = quasiBound;
+        ExpectedStrength = expected;
     }
 
     /// <summary>The level the transitions start from (counted from 1).</summary>
     public int From { get; }
 
     /// <summary>Σ f over the other bound levels (downward ones negative).</summary>
-    public double BoundSum { get; }
+    public double BoundStrength { get; }
 
     /// <summary>Σ f over the resolved quasi-bound levels (0 when none were computed).</summary>
-    public double QuasiBoundSum { get; }
+    public double QuasiBoundStrength { get; }
 
     /// <summary>The exact total over all states, m*⟨1/m(z)⟩.</summary>
-    public double Expected { get; }
+    public double ExpectedStrength { get; }
 
-    /// <summary>Expected − BoundSum − QuasiBoundSum: the share of the continuum not represented by the levels computed.</summary>
-    public double Missing => Expected - BoundSum - QuasiBoundSum;
+    /// <summary>ExpectedStrength − BoundStrength − QuasiBoundStrength: the share of the continuum not represented by the levels computed.</summary>
+    public double MissingStrength => ExpectedStrength - BoundStrength - QuasiBoundStrength;
 
     /// <inheritdoc />
     public override string ToString() => string.Create(CultureInfo.InvariantCulture,
-        $"f-sum from level {From}: bound {BoundSum:G8} + quasi-bound {QuasiBoundSum:G8} of {Expected:G8} (continuum {Missing:G4})");
+        $"f-sum from level {From}: bound {BoundStrength:G8} + quasi-bound {QuasiBoundStrength:G8} of {ExpectedStrength:G8} (continuum {MissingStrength:G4})");
 }

@@ -117,12 +117,12 @@ public class IntersubbandSpectrumTest
         var spectrum = IntersubbandSpectrum.Compute(box);
         Assert.True(spectrum.BoundCount > 150);
         var check = spectrum.SumRule(1);
-        Assert.Equal(1, check.Expected, 1e-14);
+        Assert.Equal(1, check.ExpectedStrength, 1e-14);
         // The tail above the walls falls like Σ_{n>N} n⁻⁴ ∝ 1/(3N³) (ψ_1 smooth, one mass) for N ≈ 170: ≈ 1e-7, inside 1e-6.
-        Assert.Equal(1, check.BoundSum, 1e-6);
-        Assert.True(check.Missing > 0);
+        Assert.Equal(1, check.BoundStrength, 1e-6);
+        Assert.True(check.MissingStrength > 0);
         // And from an excited state (downward terms negative).
-        Assert.Equal(1, spectrum.SumRule(2).BoundSum, 1e-6);
+        Assert.Equal(1, spectrum.SumRule(2).BoundStrength, 1e-6);
     }
 
     [Fact]
@@ -140,9 +140,9 @@ public class IntersubbandSpectrumTest
             var box = LayerStack.Create(Lead(wall, 0.092), Lead(wall, 0.092), L(10, 0.3, 0.092), L(8, 0, 0.067), L(10, 0.3, 0.092));
             var spectrum = IntersubbandSpectrum.Compute(box);
             var check = spectrum.SumRule(1);
-            sums[k] = check.BoundSum;
+            sums[k] = check.BoundStrength;
             counts[k] = spectrum.BoundCount;
-            expected = check.Expected;
+            expected = check.ExpectedStrength;
             if (k == 1)
             {
                 // The momentum form differs from the length form when the mass varies.
@@ -258,7 +258,7 @@ public class IntersubbandSpectrumTest
         Assert.NotEmpty(quasi);
         var t = spectrum.Transition(1, quasi[0].Number);
         Assert.True(t.IsResolved, t.Status);
-        Assert.True(t.DomainChange < 0.01);
+        Assert.True(t.DomainChangeFraction < 0.01);
         // The quasi-bound state is odd like the second state of a well: its dipole is of the size of the infinite-well
         // value 16L/(9π²) ≈ 1.44 nm for L = 8 nm (within a factor 1.5: the barriers are finite).
         Assert.InRange(Math.Abs(t.DipoleNanometres), 1.44 / 1.5, 1.44 * 1.5);
