@@ -9,6 +9,7 @@ using Periodic.Materials;
 using Periodic.Optics;
 using Periodic.Serialization;
 using Periodic.Stacks;
+using Periodic.Units;
 
 namespace Periodic.Cli.Commands;
 
@@ -80,7 +81,10 @@ internal static class TransitionsCommand
                 {
                     throw new UsageException($"--lead-potential and --lead-mass apply to the file's own carrier only; with --carrier {carrier} the leads are the first layer's material ({material.Name}).");
                 }
-                return other.ToStack(material, material);
+                // A lead takes only the layer's band edge and band-edge mass; the width is any positive value.
+                var edge = other.LayerOf(material, Length.FromNanometres(1));
+                var lead = Lead.Create(edge.Potential, edge.Mass);
+                return LayerStack.Periodic(lead, other.Cell, other.Recipe.Periods, lead);
             }
             if (structure.Materials is null && wanted != Materials.Carrier.Electron)
             {

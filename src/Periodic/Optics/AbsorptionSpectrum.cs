@@ -209,7 +209,7 @@ public sealed class AbsorptionSpectrum
                 continue;
             }
             var pieces = count / n;
-            var h = profile.Widths[j] / pieces;
+            var h = profile.Width(j) / pieces;
             for (var p = 0; p < pieces; p++)
             {
                 var a = profile.Boundaries[j] + p * h;

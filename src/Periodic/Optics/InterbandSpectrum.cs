@@ -6,6 +6,7 @@ using System.Globalization;
 using System.Text;
 using Periodic.Materials;
 using Periodic.Stacks;
+using Periodic.Units;
 
 namespace Periodic.Optics;
 
@@ -93,7 +94,7 @@ public sealed class InterbandSpectrum
         options ??= BoundStateOptions.Default;
         var electronRecipe = recipe.WithNonParabolicity(false).WithCarrier(Carrier.Electron);
         var builtE = electronRecipe.Build();
-        var stackE = builtE.ToStack(leftLeadMaterial, rightLeadMaterial);
+        var stackE = StackOf(builtE, leftLeadMaterial, rightLeadMaterial);
         var electrons = BoundStateSpectrum.Find(stackE, options);
         if (electrons.Levels.Count == 0)
         {
@@ -111,7 +112,7 @@ public sealed class InterbandSpectrum
                 continue;
             }
             var built = holeRecipe.Build();
-            var stack = built.ToStack(leftLeadMaterial, rightLeadMaterial);
+            var stack = StackOf(built, leftLeadMaterial, rightLeadMaterial);
             var spectrum = BoundStateSpectrum.Find(stack, options);
             holes.Add((carrier, built, stack, spectrum, new StackProfile(stack, options.MaxElements, nameof(recipe))));
         }
@@ -162,6 +163,20 @@ public sealed class InterbandSpectrum
         }
         transitions.Sort((a, b) => a.EnergyElectronVolts.CompareTo(b.EnergyElectronVolts));
         return new InterbandSpectrum(recipe, electrons, heavy, light, [.. transitions], electronAbsolute, heavyAbsolute, lightAbsolute);
+    }
+
+    /// <summary>
+    /// <paramref name="built"/> stacked <see cref="StructureRecipe.Periods"/> times between leads of the given materials: each
+    /// lead takes the band edge and band-edge mass of its material for the structure's carrier (parabolic).
+    /// </summary>
+    private static LayerStack StackOf(BuiltStructure built, Material leftLeadMaterial, Material rightLeadMaterial) =>
+        LayerStack.Periodic(LeadOf(built, leftLeadMaterial), built.Cell, built.Recipe.Periods, LeadOf(built, rightLeadMaterial));
+
+    private static Lead LeadOf(BuiltStructure built, Material material)
+    {
+        // A lead uses only the layer's band edge and band-edge mass; the width is any positive value.
+        var layer = built.LayerOf(material, Length.FromNanometres(1));
+        return Lead.Create(layer.Potential, layer.Mass);
     }
 
     private readonly record struct SampledState(double[] Values, double Left, double Right, double KappaLeft, double KappaRight);

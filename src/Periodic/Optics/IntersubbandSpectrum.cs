@@ -157,7 +157,7 @@ public sealed class IntersubbandSpectrum
                 {
                     p += grid.Weights[q] * samples[i][q] * samples[i][q];
                 }
-                profile.LayerCoefficients(j, e, out var mj, out _);
+                profile.Kernel.LayerCoefficients(j, e, out var mj, out _);
                 norm += p;
                 mass += p * mj;
                 inverse += p / mj;
@@ -192,7 +192,7 @@ public sealed class IntersubbandSpectrum
                     var a = profile.Boundaries[j] - origin;
                     var b = profile.Boundaries[j + 1] - origin;
                     var next = cumulative + overlap[j];
-                    weighted += profile.Masses[j] * (b * next - a * cumulative - moment[j]);
+                    weighted += profile.Mass(j) * (b * next - a * cumulative - moment[j]);
                     cumulative = next;
                 }
                 weighted += stack.RightLead.MassElectronMasses * (-(profile.Boundaries[n] - origin) * cumulative - zRight);
@@ -267,12 +267,12 @@ public sealed class IntersubbandSpectrum
         var best = -1;
         for (var j = 0; j < profile.Count; j++)
         {
-            if (!profile.IsDelta[j] && (best < 0 || profile.Potentials[j] < profile.Potentials[best]))
+            if (!profile.IsDelta(j) && (best < 0 || profile.Potential(j) < profile.Potential(best)))
             {
                 best = j;
             }
         }
-        return best >= 0 ? profile.Masses[best] : stack.LeftLead.MassElectronMasses;
+        return best >= 0 ? profile.Mass(best) : stack.LeftLead.MassElectronMasses;
     }
 
     private static double MaxPotential(StackProfile profile)
@@ -280,9 +280,9 @@ public sealed class IntersubbandSpectrum
         var max = double.NegativeInfinity;
         for (var j = 0; j < profile.Count; j++)
         {
-            if (!profile.IsDelta[j])
+            if (!profile.IsDelta(j))
             {
-                max = Math.Max(max, profile.Potentials[j]);
+                max = Math.Max(max, profile.Potential(j));
             }
         }
         return double.IsFinite(max) ? max : profile.MinimumPotentialElectronVolts;
@@ -290,9 +290,9 @@ public sealed class IntersubbandSpectrum
 
     private static bool IsParabolic(StackProfile profile)
     {
-        foreach (var slope in profile.MassSlopes)
+        for (var j = 0; j < profile.Count; j++)
         {
-            if (slope != 0)
+            if (profile.MassSlope(j) != 0)
             {
                 return false;
             }
@@ -312,7 +312,7 @@ public sealed class IntersubbandSpectrum
             {
                 p += grid.Weights[q] * state.Samples[q] * state.Samples[q];
             }
-            profile.LayerCoefficients(j, state.EnergyElectronVolts, out var mj, out _);
+            profile.Kernel.LayerCoefficients(j, state.EnergyElectronVolts, out var mj, out _);
             mass += p * mj;
             inverse += p / mj;
         }

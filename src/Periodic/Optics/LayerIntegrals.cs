@@ -1,6 +1,7 @@
 // SPDX-License-Identifier: MIT
 // Copyright (c) 2026 Periodic contributors
 
+using Periodic.Numerics;
 using Periodic.Properties;
 using Periodic.Stacks;
 
@@ -67,7 +68,7 @@ internal sealed class LayerIntegrals
         var total = 0;
         for (var j = 0; j < n; j++)
         {
-            if (profile.IsDelta[j] || profile.Widths[j] <= 0)
+            if (profile.IsDelta(j) || profile.Width(j) <= 0)
             {
                 continue;
             }
@@ -75,12 +76,12 @@ internal sealed class LayerIntegrals
             var largest = new List<double>();
             foreach (var (other, lower, upper) in windows)
             {
-                other.LayerCoefficients(j, lower, out _, out var sLow);
-                other.LayerCoefficients(j, upper, out _, out var sHigh);
+                other.Kernel.LayerCoefficients(j, lower, out _, out var sLow);
+                other.Kernel.LayerCoefficients(j, upper, out _, out var sHigh);
                 largest.Add(Math.Sqrt(Math.Max(Math.Abs(sLow), Math.Abs(sHigh))));
             }
             largest.Sort();
-            var turn = (largest[^1] + largest[Math.Max(0, largest.Count - 2)]) * profile.Widths[j];
+            var turn = (largest[^1] + largest[Math.Max(0, largest.Count - 2)]) * profile.Width(j);
             pieces[j] = Math.Max(1, (int)Math.Ceiling(turn / MaxTurnPerPiece));
             total += pieces[j] * rule.Nodes.Length;
         }
@@ -91,7 +92,7 @@ internal sealed class LayerIntegrals
         for (var j = 0; j < n; j++)
         {
             layerStart[j] = q;
-            var h = pieces[j] == 0 ? 0 : profile.Widths[j] / pieces[j];
+            var h = pieces[j] == 0 ? 0 : profile.Width(j) / pieces[j];
             for (var p = 0; p < pieces[j]; p++)
             {
                 var a = profile.Boundaries[j] + p * h;

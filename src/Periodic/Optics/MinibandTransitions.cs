@@ -136,7 +136,7 @@ public sealed class MinibandTransitions
             us[0] = u; ws[0] = w;
             for (var j = 0; j < n; j++)
             {
-                profile.StepForward(j, energy, ref u, ref w, ref log);
+                profile.Kernel.StepForward(j, energy, ref u, ref w, ref log);
                 var scale = Math.Exp(log);
                 us[j + 1] = u * scale; ws[j + 1] = w * scale;
             }
@@ -165,7 +165,7 @@ public sealed class MinibandTransitions
             }
             var u = a * columns[0][0][j] + b * columns[1][0][j];
             var w = a * columns[0][1][j] + b * columns[1][1][j];
-            profile.LayerCoefficients(j, energy, out var mass, out var s);
+            profile.Kernel.LayerCoefficients(j, energy, out var mass, out var s);
             for (var q = grid.LayerStart[j]; q < grid.LayerStart[j + 1]; q++)
             {
                 UniformLayerPropagator.Evaluate(s, grid.Positions[q] - profile.Boundaries[j], out var c, out var sinc, out _, out _, out var logScale);

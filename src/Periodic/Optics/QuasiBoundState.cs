@@ -79,7 +79,7 @@ internal sealed class QuasiBoundState
             us[0] = u0; ws[0] = w0; logs[0] = log;
             for (var i = 0; i < n; i++)
             {
-                profile.StepForward(i, energy, ref u0, ref w0, ref log);
+                profile.Kernel.StepForward(i, energy, ref u0, ref w0, ref log);
                 us[i + 1] = u0; ws[i + 1] = w0; logs[i + 1] = log;
             }
             states[basis] = [us, ws, logs];
@@ -189,7 +189,7 @@ internal sealed class QuasiBoundState
             {
                 continue;
             }
-            profile.LayerCoefficients(j, energy, out var mass, out var s);
+            profile.Kernel.LayerCoefficients(j, energy, out var mass, out var s);
             for (var q = grid.LayerStart[j]; q < grid.LayerStart[j + 1]; q++)
             {
                 UniformLayerPropagator.Evaluate(s, grid.Positions[q] - profile.Boundaries[j], out var c, out var sinc, out _, out _, out var logScale);
@@ -210,11 +210,11 @@ internal sealed class QuasiBoundState
         }
         // The last layer of positive width that starts at or before x (a linear scan: this serves plots, not the integrals).
         var i = n - 1;
-        while (i > 0 && (boundaries[i] > x || _profile.IsDelta[i]))
+        while (i > 0 && (boundaries[i] > x || _profile.IsDelta(i)))
         {
             i--;
         }
-        _profile.LayerCoefficients(i, EnergyElectronVolts, out var mass, out var s);
+        _profile.Kernel.LayerCoefficients(i, EnergyElectronVolts, out var mass, out var s);
         UniformLayerPropagator.Evaluate(s, x - boundaries[i], out var c, out var sinc, out _, out _, out var logScale);
         return (c * _u[i] + mass * sinc * _w[i]) * Math.Exp(_log[i] + logScale);
     }
