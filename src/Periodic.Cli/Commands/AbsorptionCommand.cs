@@ -266,7 +266,7 @@ internal static class AbsorptionCommand
         var pad = Math.Max(2, 0.15 * length);
         // The profile: step through the written-out layers.
         var xs = new List<double> { -pad, 0 };
-        var vs = new List<double> { stack.LeftLead.PotentialElectronVolts, stack.LeftLead.PotentialElectronVolts };
+        var vs = new List<double> { stack.LeftLead.Potential.ElectronVolts, stack.LeftLead.Potential.ElectronVolts };
         double x = 0;
         foreach (var part in stack.Parts)
         {
@@ -287,9 +287,9 @@ internal static class AbsorptionCommand
             }
         }
         xs.Add(length);
-        vs.Add(stack.RightLead.PotentialElectronVolts);
+        vs.Add(stack.RightLead.Potential.ElectronVolts);
         xs.Add(length + pad);
-        vs.Add(stack.RightLead.PotentialElectronVolts);
+        vs.Add(stack.RightLead.Potential.ElectronVolts);
         var profile = plot.Add.ScatterLine(xs.ToArray(), vs.ToArray());
         profile.Color = Color.FromHex("#404040");
         profile.LineWidth = 2;

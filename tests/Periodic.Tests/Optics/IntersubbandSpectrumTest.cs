@@ -42,7 +42,7 @@ public class IntersubbandSpectrumTest
         foreach (var v0 in new[] { 1e4, 1e6 })
         {
             // Only the two lowest of the thousands of levels are needed.
-            var spectrum = IntersubbandSpectrum.Compute(Well(width, v0, mass), new IntersubbandOptions { BoundStates = new BoundStateOptions { MaxLevels = 2 } });
+            var spectrum = IntersubbandSpectrum.Compute(Well(width, v0, mass), new IntersubbandOptions { BoundStates = BoundStateOptions.Create(maxLevels: 2) });
             var t = spectrum.Transition(1, 2);
             // A finite wall lets ψ leak by 1/κ on each side: the leading correction is of relative order 2/(κL),
             // so allow 3/(κL) (κL ≈ 133 at 10⁴ eV, 1330 at 10⁶ eV).
