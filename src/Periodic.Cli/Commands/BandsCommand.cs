@@ -83,17 +83,18 @@ internal static class BandsCommand
                 w.WriteStartObject("accuracy");
                 w.Number("maxEdgeError", solved.MaxEdgeErrorElectronVolts);
                 w.WriteNumber("countChecks", bands.CountChecks);
+                // Which solver the library chose, and every error source it reports.
+                w.WriteString("method", solved.Method.ToString().ToLowerInvariant());
+                w.WriteBoolean("converged", solved.Converged);
+                w.Number("maxRootFindingError", solved.MaxRootFindingErrorElectronVolts);
+                w.Number("maxDiscretisationError", solved.MaxDiscretisationErrorElectronVolts);
                 if (solved.Method == BandSolverMethod.Refined)
                 {
-                    // Smooth segments: edges from step-halving refinement (RefinedBandStructure).
-                    w.WriteBoolean("converged", solved.Converged);
-                    w.WriteNumber("magnusSteps", solved.MagnusStepCount);
-                    w.Number("maxRootFindingError", solved.MaxRootFindingErrorElectronVolts);
-                    w.Number("maxDiscretisationError", solved.MaxDiscretisationErrorElectronVolts);
-                    if (solved.Spectral is { } spectral)
-                    {
-                        w.WriteNumber("planeWaves", spectral.BasisSize); // one Fourier segment: spectral edges
-                    }
+                    w.WriteNumber("magnusSteps", solved.MagnusStepCount); // smooth segments: step-halving refinement
+                }
+                if (solved.Spectral is { } spectral)
+                {
+                    w.WriteNumber("planeWaves", spectral.BasisSize); // one Fourier segment: spectral edges
                 }
                 w.WriteEndObject();
             }), outPath);
