@@ -212,4 +212,33 @@ public sealed class OutputFileTest
         Assert.DoesNotContain(".tmp", run.Stderr);
         Assert.Empty(Temporaries(folder));
     }
+
+    [Fact]
+    public void Out_TerminatedWhileWriting_LeavesNoTemporaryFile()
+    {
+        if (OperatingSystem.IsWindows())
+        {
+            return; // SIGTERM is a POSIX signal.
+        }
+        var folder = NewFolder();
+        var path = Path.Combine(folder, "long.csv");
+        // A long streamed output: the temporary file exists for seconds while the rows are written.
+        var start = new ProcessStartInfo("dotnet") { RedirectStandardOutput = true, RedirectStandardError = true };
+        foreach (var arg in new[] { "exec", Path.Combine(AppContext.BaseDirectory, "Periodic.Cli.dll"), "dispersion", Structure, "--count", "5", "--points", "10000000", "--csv", "--out", path })
+        {
+            start.ArgumentList.Add(arg);
+        }
+        using var process = Process.Start(start)!;
+        var clock = Stopwatch.StartNew();
+        while (!process.HasExited && Temporaries(folder).Length == 0 && clock.Elapsed < TimeSpan.FromSeconds(60))
+        {
+            Thread.Sleep(10);
+        }
+        Assert.False(process.HasExited, "the run ended before its temporary file could be seen");
+        Assert.NotEmpty(Temporaries(folder));
+        Run("kill", "-TERM", process.Id.ToString(System.Globalization.CultureInfo.InvariantCulture));
+        Assert.True(process.WaitForExit(30_000), "the tool did not stop on SIGTERM");
+        Assert.Empty(Temporaries(folder));
+        Assert.False(File.Exists(path), "a terminated run must not leave a partial output");
+    }
 }
