@@ -56,10 +56,8 @@ internal sealed class QuasiBoundState
     /// <summary>Builds the state at <paramref name="energy"/> for <paramref name="stack"/>, its grid fine enough for energies down to <paramref name="lowest"/>.</summary>
     internal static QuasiBoundState Create(LayerStack stack, double energy, double margin, double lowest, long maxElements)
     {
-        var leftLayer = Layer.Create(Length.FromNanometres(margin), Energy.FromElectronVolts(stack.LeftLead.PotentialElectronVolts),
-            EffectiveMass.FromElectronMasses(stack.LeftLead.MassElectronMasses));
-        var rightLayer = Layer.Create(Length.FromNanometres(margin), Energy.FromElectronVolts(stack.RightLead.PotentialElectronVolts),
-            EffectiveMass.FromElectronMasses(stack.RightLead.MassElectronMasses));
+        var leftLayer = Layer.Create(Length.FromNanometres(margin), stack.LeftLead.Potential, stack.LeftLead.Mass);
+        var rightLayer = Layer.Create(Length.FromNanometres(margin), stack.RightLead.Potential, stack.RightLead.Mass);
         var parts = new List<StackPart> { StackPart.Single(leftLayer) };
         parts.AddRange(stack.Parts);
         parts.Add(StackPart.Single(rightLayer));
