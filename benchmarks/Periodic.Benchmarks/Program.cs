@@ -8,4 +8,9 @@ if (args.Length > 0 && args[0] == "--calibrate")
     Periodic.Benchmarks.Calibration.Run();
     return;
 }
+if (args.Length > 0 && args[0] == "--calibrate-optics")
+{
+    Periodic.Benchmarks.Optics.IntersubbandBenchmarks.Calibrate();
+    return;
+}
 BenchmarkSwitcher.FromAssembly(typeof(Program).Assembly).Run(args);

@@ -32,6 +32,8 @@ root.Subcommands.Add(DesignCommand.Create());
 root.Subcommands.Add(HubbardCommand.Create());
 root.Subcommands.Add(FieldCommands.Drift());
 root.Subcommands.Add(FieldCommands.Ladder());
+root.Subcommands.Add(TransitionsCommand.Create());
+root.Subcommands.Add(AbsorptionCommand.Create());
 root.Subcommands.Add(ExampleCommand.Create());
 root.SetAction(_ =>
 {

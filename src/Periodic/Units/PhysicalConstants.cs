@@ -50,4 +50,14 @@ public static class PhysicalConstants
 
     /// <summary>Metres per nanometre.</summary>
     public const double MetresPerNanometre = 1e-9;
+
+    /// <summary>Speed of light in vacuum c, m/s (exact in the SI).</summary>
+    public const double SpeedOfLightMetresPerSecond = 299_792_458.0;
+
+    /// <summary>Vacuum electric permittivity ε₀, F/m (CODATA 2018, relative uncertainty 1.5e-10).</summary>
+    public const double VacuumPermittivityFaradsPerMetre = 8.8541878128e-12;
+
+    /// <summary>hc/e in eV·nm (≈ 1239.842): a photon of energy E eV has the vacuum wavelength (hc/e)/E nm.</summary>
+    public const double PhotonEnergyWavelengthElectronVoltNanometres =
+        PlanckJouleSeconds * SpeedOfLightMetresPerSecond / ElementaryChargeCoulombs / MetresPerNanometre;
 }

@@ -34,7 +34,7 @@ public sealed class DependencyGraphTest
         ["PlaneWaves"] = ["Structures", "Units", "Numerics"], // an independent second method: no transfer matrices
         ["Materials"] = ["Structures", "Units", "Numerics"],
         ["Serialization"] = ["Stacks", "Materials", "OpticalLattices", "Structures", "Units", "Numerics"],
-        ["Optics"] = ["Stacks", "Properties", "Bands", "Transfer", "Structures", "Units", "Numerics"],
+        ["Optics"] = ["Stacks", "Properties", "Bands", "Transfer", "Materials", "Structures", "Units", "Numerics"],
         ["OpticalLattices"] = ["PlaneWaves", "Properties", "Bands", "Transfer", "Structures", "Units", "Numerics"],
         ["SpaceCharge"] = [.. Physics, "Materials"],
         ["Design"] = [.. Physics, "Materials", "Optics", "OpticalLattices", "SpaceCharge"],

@@ -148,13 +148,13 @@ public sealed class PublicApiConventionsTest
         [
             "ElectronVolts", "ElectronVolt", "MillielectronVolts", "Nanometres", "Nanometre", "ElectronMasses", "Kelvin", "MetresPerSecond",
             "Seconds", "Joules", "Centimetre", "RecoilEnergies", "PerElectronMass", "Metres", "Angstroms", "Kilograms", "Coulombs", "Radians", "PerKelvin", "Cubic", "AmperesPerSquareMetre",
-            "AtomicMassUnits", "Hertz", "BohrRadii", "Sites", "VoltsPerMetre",
+            "AtomicMassUnits", "Hertz", "BohrRadii", "Sites", "VoltsPerMetre", "Micrometres",
         ];
         string[] dimensionless =
         [
             "Tolerance", "Trace", "Log", "Fraction", "Share", "Mismatch", "Transmission", "Reflection", "Phase",
             "Error", "Entry", "Determinant", "Residual", "M11", "M12", "M21", "M22", "Factor", "Composition", "Minimum", "Maximum", "Probability",
-            "Monolayers", "Limit", "Value", "Scale", "Slope", "Curvature", "Strength", "Ratio", "Overlap",
+            "Monolayers", "Limit", "Value", "Scale", "Slope", "Curvature", "Strength", "Ratio", "Overlap", "RefractiveIndex", "Permittivity",
         ];
         var offenders = new List<string>();
         foreach (var t in PublicTypes.Where(t => !t.IsEnum))

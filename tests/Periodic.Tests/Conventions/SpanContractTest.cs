@@ -89,8 +89,12 @@ public sealed class SpanApi
         var t = Fixtures.Transmission;
         var psi = Fixtures.Bound.GetWavefunction(0);
         var mass = EffectiveMass.FromElectronMasses(0.067);
+        var absorption = Periodic.Optics.AbsorptionSpectrum.Compute(
+            Periodic.Optics.IntersubbandSpectrum.Compute(Optics.IntersubbandSpectrumTest.Well(8, 0.3, 0.067)),
+            new Periodic.Optics.AbsorptionOptions { SheetDensityPerSquareCentimetre = 1e11 });
         return
         [
+            new("AbsorptionSpectrum.Evaluate", "photonEnergiesElectronVolts", "destinationPerCentimetre", absorption.Evaluate, absorption.AbsorptionPerCentimetre, Spread(0.05, 0.3, 7), -0.1),
             new("CellTransfer.Traces", "energiesElectronVolts", "destination", Fixtures.Transfer.Traces, e => Fixtures.Transfer.Dispersion(e).Trace, Spread(-0.1, 0.9, 7), double.NaN),
             new("BandStructure.EnergiesAt", "wavevectorsPerNanometre", "destination", (i, d) => Fixtures.Bands.EnergiesAt(1, i, d), k => Fixtures.Bands.EnergyAt(1, k), ks, 2 * kMax),
             new("BandProperties.DensitiesOfStates", "energiesElectronVolts", "destinationPerElectronVoltNanometre", p.DensitiesOfStates, p.DensityOfStatesPerElectronVoltNanometre, inBand, double.NaN),

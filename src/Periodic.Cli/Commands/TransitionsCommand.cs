@@ -1,0 +1,329 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.CommandLine;
+using System.Globalization;
+using System.Text.Json;
+using Periodic.Cli.Output;
+using Periodic.Materials;
+using Periodic.Optics;
+using Periodic.Serialization;
+using Periodic.Stacks;
+using Periodic.Units;
+
+namespace Periodic.Cli.Commands;
+
+/// <summary>
+/// <c>transitions FILE</c>: intersubband transitions of the file's stack (energies, dipoles, oscillator strengths, the f-sum
+/// check), or with <c>--carrier interband</c> the e–hh and e–lh transitions of a structure built from materials.
+/// </summary>
+internal static class TransitionsCommand
+{
+    private static readonly string[] Carriers = ["electron", "heavy-hole", "light-hole", "interband"];
+
+    internal const string IntersubbandLimits =
+        "Single-band envelope-function model (BenDaniel-Duke), light polarised along the growth axis, flat bands; band offsets and masses are uncertain by 10 % or more: confirm design numbers by measurement.";
+
+    internal const string InterbandLimits =
+        "Single-band model for each carrier (no heavy/light-hole mixing, no strain), envelope overlaps only (no Kane/Bloch factor). Excitons are not modelled: their binding, typically 5-10 meV in GaAs wells, lowers the real edge and emission line by that much.";
+
+    /// <summary>Options shared with <c>absorption</c>: which stack, which carrier.</summary>
+    internal sealed class StackOptions
+    {
+        public Option<string> Carrier { get; } = new("--carrier")
+        {
+            Description = "electron (default: the file's own carrier and stack), heavy-hole or light-hole (intersubband in that band; files with materials), or interband (e-hh and e-lh; files with materials).",
+            DefaultValueFactory = _ => "electron",
+        };
+
+        public Option<int?> Periods { get; } = new("--periods", "-N") { Description = "Number of unit cells in the stack (1 to 100,000); default: the file's stack.periods, else 1." };
+
+        public Option<double?> LeadPotential { get; } = new("--lead-potential") { Description = "Potential of both leads, eV (default: the file's stack, else the first layer's)." };
+
+        public Option<double?> LeadMass { get; } = new("--lead-mass") { Description = "Effective mass in both leads, m0 (default: the file's stack, else the first layer's)." };
+
+        public void AddTo(Command command, bool withInterband)
+        {
+            Carrier.AcceptOnlyFromAmong(withInterband ? Carriers : Carriers[..3]);
+            command.Options.Add(Carrier);
+            command.Options.Add(Periods);
+            command.Options.Add(LeadPotential);
+            command.Options.Add(LeadMass);
+        }
+
+        /// <summary>The stack for an intersubband calculation and a description of where it came from.</summary>
+        public LayerStack Build(ParseResult result, StructureDefinition structure)
+        {
+            var carrier = result.GetValue(Carrier)!;
+            var periods = result.GetValue(Periods);
+            if (periods is { } p)
+            {
+                Common.CheckCount(p, "--periods", 100_000);
+            }
+            var potential = result.GetValue(LeadPotential);
+            var mass = result.GetValue(LeadMass);
+            if (potential is { } v && !double.IsFinite(v))
+            {
+                throw new UsageException("--lead-potential must be a finite energy in eV.");
+            }
+            if (mass is { } m && !(double.IsFinite(m) && m > 0))
+            {
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--lead-mass must be a positive mass in m0; got {m:R}."));
+            }
+            var n = periods ?? structure.Stack?.Parts[0].Repetitions ?? 1;
+            var wanted = carrier switch { "heavy-hole" => Materials.Carrier.HeavyHole, "light-hole" => Materials.Carrier.LightHole, _ => Materials.Carrier.Electron };
+            if (structure.Materials is { } built && built.Carrier != wanted)
+            {
+                // Another band of the same recipe: leads of the first layer's material.
+                var other = built.Recipe.WithNonParabolicity(false).WithCarrier(wanted).WithPeriods(n).Build();
+                var material = other.Layers[0].Material;
+                if (potential is not null || mass is not null)
+                {
+                    throw new UsageException($"--lead-potential and --lead-mass apply to the file's own carrier only; with --carrier {carrier} the leads are the first layer's material ({material.Name}).");
+                }
+                // A lead takes only the layer's band edge and band-edge mass; the width is any positive value.
+                var edge = other.LayerOf(material, Length.FromNanometres(1));
+                var lead = Lead.Create(edge.Potential, edge.Mass);
+                return LayerStack.Periodic(lead, other.Cell, other.Recipe.Periods, lead);
+            }
+            if (structure.Materials is null && wanted != Materials.Carrier.Electron)
+            {
+                throw new UsageException($"--carrier {carrier} needs a structure built from materials (the file gives potentials directly).");
+            }
+            return TransmissionCommand.BuildStack(structure, n, potential, mass);
+        }
+    }
+
+    public static Command Create()
+    {
+        var file = Common.FileArgument();
+        var stackOptions = new StackOptions();
+        var continuum = new Option<bool>("--continuum") { Description = "Also take quasi-bound final states from the stack's transmission resonances above the lead band edges." };
+        var margin = Common.NumberOption("--margin", "nm", "20", "Lead margin of the domain a quasi-bound state is normalised on, nm (default 20; its dipoles are checked with twice the margin).");
+        var mass = Common.NumberOption("--mass", "m0", "0.067", "Mass m* of the oscillator strengths f = 2m*w|z|^2/hbar, m0 (default: the well's, i.e. the layer with the lowest potential).");
+        var json = Common.JsonOption();
+        var csv = Common.CsvOption();
+        var output = new Option<string?>("--out", "-o") { Description = "Write the result to this file instead of stdout (atomically)." };
+        var command = new Command("transitions", "Optical transitions of a stack: intersubband energies, dipoles |z_if| and oscillator strengths with the f-sum check, or interband e-hh/e-lh energies, overlaps and wavelengths.");
+        command.Arguments.Add(file);
+        stackOptions.AddTo(command, true);
+        command.Options.Add(continuum);
+        command.Options.Add(margin);
+        command.Options.Add(mass);
+        command.Options.Add(json);
+        command.Options.Add(csv);
+        command.Options.Add(output);
+        command.SetAction(result =>
+        {
+            var format = Common.Format(result, json, csv);
+            var m = result.GetValue(mass);
+            if (m is { } value && !(value > 0))
+            {
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--mass must be a positive mass in m0; got {value:R}."));
+            }
+            var d = result.GetValue(margin);
+            if (d is { } dm && !(dm > 0 && dm <= 10_000))
+            {
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--margin must lie in (0, 10000] nm; got {dm:R}."));
+            }
+            var structure = Common.Load(result.GetValue(file)!);
+            string text;
+            if (result.GetValue(stackOptions.Carrier) == "interband")
+            {
+                text = RenderInterband(structure, result.GetValue(stackOptions.Periods), format);
+            }
+            else
+            {
+                var stack = stackOptions.Build(result, structure);
+                var options = new IntersubbandOptions { ReferenceMassElectronMasses = m, IncludeQuasiBound = result.GetValue(continuum), DomainMarginNanometres = d ?? 20 };
+                text = Render(structure, IntersubbandSpectrum.Compute(stack, options), format);
+            }
+            Common.Emit(text, result.GetValue(output));
+            return 0;
+        });
+        return command;
+    }
+
+    private static string R(double value) => Table.Number(value, "R");
+
+    public static string Render(StructureDefinition structure, IntersubbandSpectrum spectrum, OutputFormat format)
+    {
+        if (format == OutputFormat.Json)
+        {
+            return Common.Json(w =>
+            {
+                Common.StructureHeader(w, structure);
+                Common.Units(w, ("energy", "eV"), ("dipole", "nm"), ("wavelength", "um"), ("width", "eV"), ("mass", "m0"), ("thickness", "nm"));
+                w.WriteString("model", IntersubbandLimits);
+                w.WriteNumber("referenceMass", spectrum.ReferenceMassElectronMasses);
+                w.WriteNumber("normalisationError", spectrum.NormalisationError);
+                w.WriteStartObject("stack");
+                w.WriteNumber("thickness", spectrum.Stack.ThicknessNanometres);
+                Common.Leads(w, spectrum.Stack);
+                w.WriteEndObject();
+                w.WriteStartArray("levels");
+                foreach (var level in spectrum.Levels)
+                {
+                    w.WriteStartObject();
+                    w.WriteNumber("level", level.Number);
+                    w.WriteString("kind", level.IsQuasiBound ? "quasi-bound" : "bound");
+                    w.Number("energy", level.EnergyElectronVolts);
+                    w.Number("energyError", level.ErrorElectronVolts);
+                    w.Number("width", level.WidthElectronVolts);
+                    w.Number("meanMass", level.MeanMassElectronMasses);
+                    w.WriteBoolean("resolved", level.IsResolved);
+                    if (level.IsQuasiBound)
+                    {
+                        w.Number("domainStart", level.DomainStartNanometres);
+                        w.Number("domainEnd", level.DomainEndNanometres);
+                    }
+                    w.WriteEndObject();
+                }
+                w.WriteEndArray();
+                w.WriteStartArray("transitions");
+                foreach (var t in spectrum.Transitions)
+                {
+                    w.WriteStartObject();
+                    w.WriteNumber("from", t.From);
+                    w.WriteNumber("to", t.To);
+                    w.Number("energy", t.EnergyElectronVolts);
+                    w.Number("wavelength", t.WavelengthMicrometres);
+                    w.WriteBoolean("resolved", t.IsResolved);
+                    w.WriteString("status", t.Status);
+                    if (t.IsResolved)
+                    {
+                        w.Number("dipole", Math.Abs(t.DipoleNanometres));
+                        w.Number("oscillatorStrength", t.OscillatorStrength);
+                        if (t.HasMomentumForm)
+                        {
+                            w.Number("momentumOscillatorStrength", t.MomentumOscillatorStrength);
+                        }
+                        else
+                        {
+                            w.WriteNull("momentumOscillatorStrength");
+                        }
+                    }
+                    else
+                    {
+                        w.WriteNull("dipole");
+                        w.WriteNull("oscillatorStrength");
+                        w.WriteNull("momentumOscillatorStrength");
+                    }
+                    w.Number("domainChange", t.DomainChangeFraction);
+                    w.WriteEndObject();
+                }
+                w.WriteEndArray();
+                w.WriteStartArray("sumRule");
+                for (var i = 1; i <= spectrum.BoundCount; i++)
+                {
+                    var check = spectrum.SumRule(i);
+                    w.WriteStartObject();
+                    w.WriteNumber("from", i);
+                    w.Number("bound", check.BoundStrength);
+                    w.Number("quasiBound", check.QuasiBoundStrength);
+                    w.Number("expected", check.ExpectedStrength);
+                    w.Number("continuum", check.MissingStrength);
+                    w.WriteEndObject();
+                }
+                w.WriteEndArray();
+            });
+        }
+        var csv = format == OutputFormat.Csv;
+        var table = new Table("from", "to", csv ? "energy (eV)" : "energy (meV)", "wavelength (um)", "|z| (nm)", "f", "f_p", "status");
+        foreach (var t in spectrum.Transitions)
+        {
+            table.Add(Table.Integer(t.From), Table.Integer(t.To),
+                csv ? R(t.EnergyElectronVolts) : Table.Number(t.EnergyElectronVolts * 1000, "F4"),
+                csv ? R(t.WavelengthMicrometres) : Table.Number(t.WavelengthMicrometres, "G6"),
+                t.IsResolved ? (csv ? R(Math.Abs(t.DipoleNanometres)) : Table.Number(Math.Abs(t.DipoleNanometres), "G8")) : "n/a",
+                t.IsResolved ? (csv ? R(t.OscillatorStrength) : Table.Number(t.OscillatorStrength, "G8")) : "n/a",
+                t.HasMomentumForm ? (csv ? R(t.MomentumOscillatorStrength) : Table.Number(t.MomentumOscillatorStrength, "G8")) : "n/a",
+                t.IsResolved ? "ok" : t.Status);
+        }
+        if (csv)
+        {
+            return table.ToCsv();
+        }
+        var text = Common.TableTitle(structure) + string.Create(CultureInfo.InvariantCulture,
+            $"{spectrum.BoundCount} bound, {spectrum.Levels.Count - spectrum.BoundCount} quasi-bound level(s); f with m* = {spectrum.ReferenceMassElectronMasses:G6} m0; integrals to {spectrum.NormalisationError:G2}\n");
+        text += "levels (eV): " + string.Join(", ", spectrum.Levels.Select(l => string.Create(CultureInfo.InvariantCulture,
+            $"{l.Number}: {l.EnergyElectronVolts:G8}{(l.IsQuasiBound ? string.Create(CultureInfo.InvariantCulture, $" (quasi-bound, width {l.WidthElectronVolts:G3})") : "")}"))) + "\n\n";
+        text += table.ToText();
+        var sum = spectrum.SumRule(1);
+        text += string.Create(CultureInfo.InvariantCulture,
+            $"\nf-sum from level 1: {sum.BoundStrength:G8} (bound) + {sum.QuasiBoundStrength:G8} (quasi-bound) of {sum.ExpectedStrength:G8}; the rest, {sum.MissingStrength:G4}, lies in the continuum.\n");
+        return text + IntersubbandLimits + "\n";
+    }
+
+    public static string RenderInterband(StructureDefinition structure, int? periods, OutputFormat format)
+    {
+        if (structure.Materials is not { } built)
+        {
+            throw new UsageException("--carrier interband needs a structure built from materials (the file gives potentials directly).");
+        }
+        var recipe = built.Recipe;
+        if (periods is { } p)
+        {
+            recipe = recipe.WithPeriods(Common.CheckCount(p, "--periods", 100_000));
+        }
+        var lead = recipe.Layers[0].Material;
+        var spectrum = InterbandSpectrum.Compute(recipe, lead, lead);
+        if (format == OutputFormat.Json)
+        {
+            return Common.Json(w =>
+            {
+                Common.StructureHeader(w, structure);
+                Common.Units(w, ("energy", "eV"), ("wavelength", "nm"), ("wavelengthMicrometres", "um"), ("temperature", "K"));
+                w.WriteString("model", InterbandLimits);
+                w.WriteNumber("excitonError", InterbandSpectrum.ExcitonErrorElectronVolts);
+                w.WriteString("leadMaterial", lead.Name);
+                if (spectrum.Edge is { } edge)
+                {
+                    w.WriteStartObject("edge");
+                    Write(w, edge);
+                    w.WriteEndObject();
+                }
+                w.WriteStartArray("transitions");
+                foreach (var t in spectrum.Transitions)
+                {
+                    w.WriteStartObject();
+                    Write(w, t);
+                    w.WriteEndObject();
+                }
+                w.WriteEndArray();
+            });
+        }
+        var csv = format == OutputFormat.Csv;
+        var table = new Table("transition", "energy (eV)", "wavelength (nm)", "wavelength (um)", "|<e|h>|^2");
+        foreach (var t in spectrum.Transitions)
+        {
+            table.Add(t.Label, csv ? R(t.EnergyElectronVolts) : Table.Number(t.EnergyElectronVolts, "F5"),
+                csv ? R(t.WavelengthNanometres) : Table.Number(t.WavelengthNanometres, "F2"),
+                csv ? R(t.WavelengthMicrometres) : Table.Number(t.WavelengthMicrometres, "F5"),
+                csv ? R(t.OverlapSquared) : Table.Number(t.OverlapSquared, "G6"));
+        }
+        if (csv)
+        {
+            return table.ToCsv();
+        }
+        var text = Common.TableTitle(structure) + string.Create(CultureInfo.InvariantCulture, $"interband at {recipe.TemperatureKelvin:G6} K, leads of {lead.Name}\n");
+        if (spectrum.Edge is { } e)
+        {
+            text += string.Create(CultureInfo.InvariantCulture,
+                $"absorption edge and emission: {e.Label} at {e.EnergyElectronVolts:F5} eV = {e.WavelengthNanometres:F2} nm ({e.WavelengthMicrometres:F5} um)\n");
+        }
+        return text + "\n" + table.ToText() + "\n" + InterbandLimits + "\n";
+    }
+
+    private static void Write(Utf8JsonWriter w, InterbandTransition t)
+    {
+        w.WriteString("transition", t.Label);
+        w.WriteNumber("electron", t.ElectronLevel);
+        w.WriteString("hole", t.Hole == Carrier.HeavyHole ? "heavy" : "light");
+        w.WriteNumber("holeLevel", t.HoleLevel);
+        w.Number("energy", t.EnergyElectronVolts);
+        w.Number("wavelength", t.WavelengthNanometres);
+        w.Number("wavelengthMicrometres", t.WavelengthMicrometres);
+        w.Number("overlapSquared", t.OverlapSquared);
+    }
+}

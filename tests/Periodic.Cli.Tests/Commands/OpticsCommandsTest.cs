@@ -1,0 +1,101 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.Globalization;
+using Periodic.Units;
+
+namespace Periodic.Cli.Tests.Commands;
+
+public sealed class OpticsCommandsTest
+{
+    private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
+
+    private static string FiniteWell(double width, double depth, double mass) => ToolRunner.TempFile(string.Create(CultureInfo.InvariantCulture,
+        $$"""{"name": "well", "cell": [{"width": {{width}}, "potential": 0, "mass": {{mass}}}], "stack": {"periods": 1, "leads": {"potential": {{depth}}, "mass": {{mass}}""") + "}}}");
+
+    [Fact]
+    public void Transitions_DeepWell_JsonNearInfiniteWellValues()
+    {
+        // A 10 nm well 50 eV deep is close to the infinite well: E_n = n²π²C/(mL²) (any QM text), z_12 = 16L/(9π²) and
+        // f_12 = 256/(27π²) (/work/shared/REFERENCES.md, "Optical transitions"). The finite depth (κL ≈ 94) lengthens the well by
+        // about 2/κ: lengths by ≈ 2 %, energies (∝ 1/L²) by ≈ 4 %, so 3 % and 6 %.
+        const double width = 10, mass = 0.067;
+        var run = ToolRunner.Invoke("transitions", FiniteWell(width, 50, mass), "--json");
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        var first = run.Json().GetProperty("transitions")[0];
+        Assert.Equal(1, first.GetProperty("from").GetInt32());
+        Assert.Equal(2, first.GetProperty("to").GetInt32());
+        var e1 = C * Math.PI * Math.PI / (mass * width * width);
+        Assert.Equal(3 * e1, first.GetProperty("energy").GetDouble(), 0.06 * 3 * e1);
+        Assert.Equal(16 * width / (9 * Math.PI * Math.PI), first.GetProperty("dipole").GetDouble(), 0.03 * 1.8);
+        Assert.Equal(256 / (27 * Math.PI * Math.PI), first.GetProperty("oscillatorStrength").GetDouble(), 0.03);
+        Assert.True(first.GetProperty("resolved").GetBoolean());
+    }
+
+    [Fact]
+    public void Transitions_Csv_RoundTripsDoubles()
+    {
+        var run = ToolRunner.Invoke("transitions", FiniteWell(8, 0.3, 0.067), "--csv");
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        var json = ToolRunner.Invoke("transitions", FiniteWell(8, 0.3, 0.067), "--json").Json().GetProperty("transitions")[0];
+        var row = run.Stdout.Split('\n')[1].Split(',');
+        // Shortest round-trip formatting: the CSV energy parses back to the JSON value exactly.
+        Assert.Equal(json.GetProperty("energy").GetDouble(), double.Parse(row[2], CultureInfo.InvariantCulture));
+    }
+
+    [Fact]
+    public void Transitions_Interband_GivesEdgeInNanometresAndMicrometres()
+    {
+        var run = ToolRunner.Invoke("transitions", ToolRunner.Example("infrared-well.json"), "--carrier", "interband", "--json");
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        var edge = run.Json().GetProperty("edge");
+        Assert.Equal("e1-hh1", edge.GetProperty("transition").GetString());
+        // λ = hc/E (CODATA 2018 exact h, c, e).
+        var energy = edge.GetProperty("energy").GetDouble();
+        Assert.Equal(6.62607015e-34 * 299792458 / (energy * 1.602176634e-19) * 1e9, edge.GetProperty("wavelength").GetDouble(), 1e-9);
+        Assert.Equal(edge.GetProperty("wavelength").GetDouble() / 1000, edge.GetProperty("wavelengthMicrometres").GetDouble(), 1e-12);
+        Assert.Contains("Excitons are not modelled", run.Json().GetProperty("model").GetString());
+    }
+
+    [Fact]
+    public void Absorption_BadInput_ExitsTwoNamingOption()
+    {
+        var file = FiniteWell(8, 0.3, 0.067);
+        var run = ToolRunner.Invoke("absorption", file, "--density", "1e11", "--linewidth", "-0.002");
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("--linewidth", run.Stderr);
+        run = ToolRunner.Invoke("absorption", file, "--density", "1e11", "--temperature", "5000");
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("--temperature", run.Stderr);
+        run = ToolRunner.Invoke("absorption", file);
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("--density", run.Stderr);
+    }
+
+    [Fact]
+    public void Transitions_NoBoundState_ExitsTwo()
+    {
+        var file = ToolRunner.TempFile("""{"name": "barrier", "cell": [{"width": 5, "potential": 0.3, "mass": 0.067}], "stack": {"periods": 1, "leads": {"potential": 0, "mass": 0.067}}}""");
+        var run = ToolRunner.Invoke("transitions", file);
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("no bound state", run.Stderr);
+        Assert.Single(run.Stderr.Trim().Split('\n'));
+    }
+
+    [Fact]
+    public void Absorption_PlotsAndJson_PeakAtTransition()
+    {
+        var directory = Path.GetDirectoryName(FiniteWell(8, 0.3, 0.067))!;
+        var file = FiniteWell(8, 0.3, 0.067);
+        var picture = Path.Combine(directory, "alpha.svg");
+        var levels = Path.Combine(directory, "levels.png");
+        var run = ToolRunner.Invoke("absorption", file, "--density", "3e11", "--temperature", "10", "--json", "--plot", picture, "--plot-levels", levels);
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        Assert.True(File.Exists(picture) && File.Exists(levels));
+        var json = run.Json();
+        var line = json.GetProperty("lines")[0];
+        var peak = json.GetProperty("points").EnumerateArray().MaxBy(p => p.GetProperty("alpha").GetDouble());
+        // The default grid has 400 points over the line ± 6 FWHM: the sampled peak lies within one grid step of the line.
+        Assert.Equal(line.GetProperty("energy").GetDouble(), peak.GetProperty("energy").GetDouble(), 0.001);
+    }
+}
