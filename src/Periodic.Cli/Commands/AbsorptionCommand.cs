@@ -234,7 +234,7 @@ internal static class AbsorptionCommand
             return table.ToCsv();
         }
         var head = Common.TableTitle(structure) + string.Create(CultureInfo.InvariantCulture,
-            $"{absorption.Options.TemperatureKelvin:G6} K, E_F = {absorption.FermiLevelElectronVolts:G8} eV, {absorption.SheetDensityPerSquareCentimetre:G4} cm^-2 in {absorption.Spectrum.BoundCount} level(s), FWHM {absorption.Options.LinewidthElectronVolts * 1000:G4} meV, n = {absorption.Options.RefractiveIndex:G4}, alpha averaged over {absorption.ThicknessNanometres:G6} nm, {absorption.Options.PassRepeats} cop(y/ies) per pass\n");
+            $"{absorption.Options.TemperatureKelvin:G6} K, E_F = {absorption.FermiLevelElectronVolts:G8} eV, {absorption.SheetDensityPerSquareCentimetre:G4} cm^-2 in {Common.Plural(absorption.Spectrum.BoundCount, "level")}, FWHM {absorption.Options.LinewidthElectronVolts * 1000:G4} meV, n = {absorption.Options.RefractiveIndex:G4}, alpha averaged over {absorption.ThicknessNanometres:G6} nm, {(absorption.Options.PassRepeats == 1 ? "1 copy" : $"{absorption.Options.PassRepeats} copies")} per pass\n");
         foreach (var line in absorption.Lines.Where(l => l.DensityDifferencePerSquareCentimetre != 0))
         {
             head += string.Create(CultureInfo.InvariantCulture,

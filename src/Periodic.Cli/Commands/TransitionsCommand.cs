@@ -245,7 +245,7 @@ internal static class TransitionsCommand
             return table.ToCsv();
         }
         var text = Common.TableTitle(structure) + string.Create(CultureInfo.InvariantCulture,
-            $"{spectrum.BoundCount} bound, {spectrum.Levels.Count - spectrum.BoundCount} quasi-bound level(s); f with m* = {spectrum.ReferenceMassElectronMasses:G6} m0; integrals to {spectrum.NormalisationError:G2}\n");
+            $"{spectrum.BoundCount} bound and {Common.Plural(spectrum.Levels.Count - spectrum.BoundCount, "quasi-bound level")}; f with m* = {spectrum.ReferenceMassElectronMasses:G6} m0; integrals to {spectrum.NormalisationError:G2}\n");
         text += "levels (eV): " + string.Join(", ", spectrum.Levels.Select(l => string.Create(CultureInfo.InvariantCulture,
             $"{l.Number}: {l.EnergyElectronVolts:G8}{(l.IsQuasiBound ? string.Create(CultureInfo.InvariantCulture, $" (quasi-bound, width {l.WidthElectronVolts:G3})") : "")}"))) + "\n\n";
         text += table.ToText();
