@@ -29,7 +29,7 @@ public sealed class StackSensitivitiesTest
     private static LayerStack WellStack((double W, double V, double M)[] layers, out Layer[] built)
     {
         built = layers.Select(l => L(l.W, l.V, l.M)).ToArray();
-        return LayerStack.Create(LeadOf(0.3, 0.085), built.Select(l => StackPart.Single(l)), LeadOf(0.28, 0.085));
+        return LayerStack.Create(LeadOf(0.36, 0.085), built.Select(l => StackPart.Single(l)), LeadOf(0.34, 0.085));
     }
 
     private static (double W, double V, double M)[] With((double W, double V, double M)[] layers, int j, LayerQuantity q, double value)
@@ -57,9 +57,10 @@ public sealed class StackSensitivitiesTest
         return (4 * Central(h / 2) - Central(h)) / 3;
     }
 
-    // Steps: 1e-2 of a width or mass, 2e-3 eV of a potential. The Richardson remainder is O(h⁴) ≈ 1e-8 relative at most
-    // for these smooth level curves; energies found to ~1e-15 eV leave rounding of ~1e-12 eV/unit in the differences.
-    private static double Step(LayerQuantity q, double value) => q == LayerQuantity.Potential ? 2e-3 : 1e-2 * value;
+    // Steps: 1e-3 of a width or mass, 2e-4 eV of a potential. The Richardson remainder is O(h⁴): ~1e-12 relative for
+    // these level curves, whose scale of variation is the binding energy (≥ 10 meV here); energies found to ~1e-15 eV leave
+    // rounding of ~1e-12 eV/unit in the differences.
+    private static double Step(LayerQuantity q, double value) => q == LayerQuantity.Potential ? 2e-4 : 1e-3 * value;
 
     public static TheoryData<int, LayerQuantity> LayerCases()
     {
@@ -83,6 +84,8 @@ public sealed class StackSensitivitiesTest
         Assert.True(spectrum.Levels.Count >= 3);
         for (var n = 0; n < spectrum.Levels.Count; n++)
         {
+            // Every level here is bound by ≥ 10 meV (asserted), the scale on which the steps below are small.
+            Assert.True(spectrum.ContinuumEdgeElectronVolts - spectrum.Levels[n].EnergyElectronVolts >= 0.01, spectrum.ToString());
             double Level(double value) => BoundStateSpectrum.Find(WellStack(With(layers, j, q, value), out _), TightLevels).Levels[n].EnergyElectronVolts;
             var p = Get(layers[j], q);
             var numeric = Richardson(Level, p, Step(q, p));
@@ -109,7 +112,8 @@ public sealed class StackSensitivitiesTest
             for (var j = 0; j < layers.Length; j++)
             {
                 // 64-point Gauss–Legendre (MathNet.Numerics) integrates ψ² of these few half-waves to rounding.
-                var probability = new GaussLegendreRule(x, x + layers[j].W, 64).Integrate(t => psi.ValueAt(t) * psi.ValueAt(t));
+                var rule = new GaussLegendreRule(x, x + layers[j].W, 64);
+                var probability = Enumerable.Range(0, rule.Order).Sum(i => rule.Weights[i] * psi.ValueAt(rule.Abscissas[i]) * psi.ValueAt(rule.Abscissas[i]));
                 x += layers[j].W;
                 var exact = StackSensitivities.OfLevel(spectrum, n, built[j], LayerQuantity.Potential)!.Value;
                 // ψ is normalised by the library to ~1e-12; the integral is exact to rounding.
