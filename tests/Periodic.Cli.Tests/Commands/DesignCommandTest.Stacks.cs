@@ -12,7 +12,7 @@ public sealed partial class DesignCommandTest
 {
     /// <summary>One well (the cell) between barrier leads at 0.3 eV: its width and bottom are adjusted.</summary>
     private static string WellStructure(double width, double bottom) => string.Create(CultureInfo.InvariantCulture,
-        $$"""{"name": "w", "cell": [{"width": {{width:R}}, "potential": {{bottom:R}}, "mass": 0.067}], "stack": {"periods": 1, "leads": {"potential": 0.3, "mass": 0.067}}}""");
+        $$"""{"name": "w", "cell": [{"width": {{width:R}}, "potential": {{bottom:R}}, "mass": 0.067}], "stack": {"periods": 1, "leads": {"potential": 0.3, "mass": 0.067""") + "}}}";
 
     private static BoundStateSpectrum WellLevels(double width, double bottom) => BoundStateSpectrum.Find(StructureFile.Parse(WellStructure(width, bottom), "t").Stack!);
 
@@ -64,7 +64,7 @@ public sealed partial class DesignCommandTest
         // A double barrier whose first transmission peak is placed at 0.10 eV by its well width; the reached structure's
         // peak, found again by the library's resonance search, must sit there.
         static string Structure(double well) => string.Create(CultureInfo.InvariantCulture,
-            $$"""{"name": "rtd", "cell": [{"width": 2, "potential": 0.3, "mass": 0.092}, {"width": {{well:R}}, "potential": 0, "mass": 0.067}, {"width": 2, "potential": 0.3, "mass": 0.092}], "stack": {"periods": 1, "leads": {"potential": 0, "mass": 0.067}}}""");
+            $$"""{"name": "rtd", "cell": [{"width": 2, "potential": 0.3, "mass": 0.092}, {"width": {{well:R}}, "potential": 0, "mass": 0.067}, {"width": 2, "potential": 0.3, "mass": 0.092}], "stack": {"periods": 1, "leads": {"potential": 0, "mass": 0.067""") + "}}}";
         var file = ToolRunner.TempFile(
             $$"""{"structure": {{Structure(5.0)}}, "adjust": [{"field": "cell[1].width", "from": 3, "to": 9}], "targets": [{"quantity": "resonance1", "value": "100 meV"}]}""", "design.json");
         var run = ToolRunner.Invoke("design", file, "--json");

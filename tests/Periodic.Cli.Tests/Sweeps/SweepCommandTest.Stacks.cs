@@ -16,7 +16,7 @@ public sealed partial class SweepCommandTest
     /// <summary>A well (cell[1]) between two barriers, in a stack between leads at the barrier height (bound levels and
     /// transitions) or at the well bottom (a double barrier with transmission resonances).</summary>
     private static string WellStack(double lead) => string.Create(CultureInfo.InvariantCulture,
-        $$"""{"name": "w", "cell": [{"width": 2, "potential": 0.3, "mass": 0.092}, {"width": 6, "potential": 0, "mass": 0.067}, {"width": 2, "potential": 0.3, "mass": 0.092}], "stack": {"periods": 1, "leads": {"potential": {{lead:R}}, "mass": 0.067}}}""");
+        $$"""{"name": "w", "cell": [{"width": 2, "potential": 0.3, "mass": 0.092}, {"width": 6, "potential": 0, "mass": 0.067}, {"width": 2, "potential": 0.3, "mass": 0.092}], "stack": {"periods": 1, "leads": {"potential": {{lead:R}}, "mass": 0.067""") + "}}}";
 
     private static string WithWell(string structure, double well) =>
         structure.Replace("\"width\": 6,", string.Create(CultureInfo.InvariantCulture, $"\"width\": {well:R},"), StringComparison.Ordinal);
@@ -28,7 +28,7 @@ public sealed partial class SweepCommandTest
     {
         var folder = Folder();
         var spec = Path.Combine(folder, "sweep.json");
-        File.WriteAllText(spec, $$"""{"structure": {{WellStack(0.3)}}, "parameters": [{"field": "cell[1].width", "values": [5, 7]}], "outputs": {"levels": 2, "transitions": ["1-2"], "sensitivities": true}}""");
+        File.WriteAllText(spec, $$"""{"structure": {{WellStack(0.3)}}, "parameters": [{"field": "cell[1].width", "values": [5, 7]}], "outputs": {"levels": 2, "transitions": ["1-2"], "sensitivities": true""" + "}}");
         var output = Path.Combine(folder, "o.csv");
         var run = ToolRunner.Invoke("sweep", spec, "--out", output);
         Assert.True(run.ExitCode == 0, run.Stderr);
@@ -65,7 +65,7 @@ public sealed partial class SweepCommandTest
         var folder = Folder();
         var spec = Path.Combine(folder, "sweep.json");
         // Well widths 5 nm and −1 nm: the second design makes an invalid layer and must stay a row with its error.
-        File.WriteAllText(spec, $$"""{"structure": {{WellStack(0)}}, "parameters": [{"field": "cell[1].width", "values": [5, -1]}], "outputs": {"resonances": 1, "sensitivities": true}}""");
+        File.WriteAllText(spec, $$"""{"structure": {{WellStack(0)}}, "parameters": [{"field": "cell[1].width", "values": [5, -1]}], "outputs": {"resonances": 1, "sensitivities": true""" + "}}");
         var output = Path.Combine(folder, "o.csv");
         var run = ToolRunner.Invoke("sweep", spec, "--out", output);
         Assert.True(run.ExitCode == 0, run.Stderr);
@@ -87,7 +87,7 @@ public sealed partial class SweepCommandTest
         var folder = Folder();
         var structure = ToolRunner.Example("rubidium-lattice.json").Replace("\\", "/", StringComparison.Ordinal);
         var spec = Path.Combine(folder, "sweep.json");
-        File.WriteAllText(spec, $$"""{"structure": "{{structure}}", "parameters": [{"field": "opticalLattice.depth", "values": [8, 16]}], "outputs": {"hubbard": {"scatteringLength": "100 a0"}}}""");
+        File.WriteAllText(spec, $$"""{"structure": "{{structure}}", "parameters": [{"field": "opticalLattice.depth", "values": [8, 16]}], "outputs": {"hubbard": {"scatteringLength": "100 a0" """ + "}}}");
         var output = Path.Combine(folder, "o.csv");
         var run = ToolRunner.Invoke("sweep", spec, "--out", output);
         Assert.True(run.ExitCode == 0, run.Stderr);
@@ -111,7 +111,7 @@ public sealed partial class SweepCommandTest
     {
         var folder = Folder();
         var spec = Path.Combine(folder, "sweep.json");
-        File.WriteAllText(spec, $$"""{"structure": {{WellStack(0)}}, "parameters": [{"field": "cell[1].width", "values": [5]}], "outputs": {"hubbard": {"scatteringLength": 100}}}""");
+        File.WriteAllText(spec, $$"""{"structure": {{WellStack(0)}}, "parameters": [{"field": "cell[1].width", "values": [5]}], "outputs": {"hubbard": {"scatteringLength": 100""" + "}}}");
         var run = ToolRunner.Invoke("sweep", spec, "--out", Path.Combine(folder, "o.csv"));
         Assert.Equal(2, run.ExitCode);
         Assert.Contains("outputs.hubbard", run.Stderr);
