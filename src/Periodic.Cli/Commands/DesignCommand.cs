@@ -96,6 +96,9 @@ internal static class DesignCommand
             spec.ToleranceFields.Select(t => t.Field).ToArray(), steps);
     }
 
+    /// <summary>The photon wavelength hc/E of a transition energy, µm.</summary>
+    private static double Wavelength(double energyElectronVolts) => Periodic.Units.PhysicalConstants.PhotonEnergyWavelengthElectronVoltNanometres / energyElectronVolts / 1000;
+
     private static double[] Diff(double[] a, double[] b) => a.Zip(b, (x, y) => x - y).ToArray();
 
     private static string RenderTable(DesignSpec spec, Report report)
@@ -109,10 +112,21 @@ internal static class DesignCommand
             adjusted.Add(spec.Fields[j], FieldUnits.Of(spec.Fields[j]), report.Start[j], report.Reached[j], spec.Lower[j], spec.Upper[j]);
         }
         text.Append(adjusted.ToText()).Append('\n');
-        var targets = new Table(new Column("target"), new Column("wanted", "meV", Format: "F4"), new Column("reached", "meV", Format: "F4"), new Column("residual", "µeV", Format: "G4"));
+        var transitions = spec.Targets.Any(t => t.What == DesignQuantity.Kind.Transition);
+        var columns = new List<Column> { new("target"), new("wanted", "meV", Format: "F4"), new("reached", "meV", Format: "F4"), new("residual", "µeV", Format: "G4") };
+        if (transitions)
+        {
+            columns.Add(new Column("reached wavelength", "µm", Format: "F5"));
+        }
+        var targets = new Table([.. columns]);
         for (var i = 0; i < spec.Targets.Count; i++)
         {
-            targets.Add(spec.Targets[i].Name, spec.Targets[i].TargetElectronVolts * 1e3, report.Values[i] * 1e3, (report.Values[i] - spec.Targets[i].TargetElectronVolts) * 1e6);
+            var cells = new List<Cell> { spec.Targets[i].Name, spec.Targets[i].TargetElectronVolts * 1e3, report.Values[i] * 1e3, (report.Values[i] - spec.Targets[i].TargetElectronVolts) * 1e6 };
+            if (transitions)
+            {
+                cells.Add(spec.Targets[i].What == DesignQuantity.Kind.Transition ? Wavelength(report.Values[i]) : "");
+            }
+            targets.Add([.. cells]);
         }
         text.Append(targets.ToText()).Append('\n');
         if (report.ToleranceFields.Length > 0)
@@ -164,6 +178,10 @@ internal static class DesignCommand
             w.WriteNumber("wanted", spec.Targets[i].TargetElectronVolts);
             w.WriteNumber("reached", report.Values[i]);
             w.WriteNumber("residual", report.Values[i] - spec.Targets[i].TargetElectronVolts);
+            if (spec.Targets[i].What == DesignQuantity.Kind.Transition && report.Values[i] > 0)
+            {
+                w.WriteNumber("reachedWavelength", Wavelength(report.Values[i]));
+            }
             w.WriteEndObject();
         }
         w.WriteEndArray();
@@ -187,7 +205,7 @@ internal static class DesignCommand
             w.WriteEndObject();
         }
         w.WriteEndArray();
-        Common.Units(w, ("energy", "eV"), ("step", "nm"));
+        Common.Units(w, ("energy", "eV"), ("step", "nm"), ("wavelength", "um"));
     });
 }
 
