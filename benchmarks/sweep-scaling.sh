@@ -4,13 +4,13 @@
 # against all cores, runs alternated so that load on a shared machine hits both alike; also the share of the time
 # spent writing output (the journal of finished rows while running plus the final table, from the tool's --verbose
 # timing line). Prints a Markdown table and the ratios; commit it under benchmarks/results/DATE/.
-# Usage: benchmarks/sweep-scaling.sh [repeats]   (a few minutes; needs a free second core: check uptime first)
+# Usage: benchmarks/sweep-scaling.sh [repeats] [sweep file]   (a few minutes; needs a free second core: check uptime first)
 set -euo pipefail
 cd "$(dirname "$0")/.."
 repeats="${1:-3}"
 dotnet build src/Periodic.Cli -c Release -v:q -nologo >/dev/null
 tool="src/Periodic.Cli/bin/Release/net10.0/Periodic.Cli.dll"
-spec="docs/examples/sweeps/scaling-1e5.json"
+spec="${2:-docs/examples/sweeps/scaling-1e5.json}"
 work="$(mktemp -d)"; trap 'rm -rf "$work"' EXIT
 cores="$(nproc)"
 if [ "$cores" -lt 2 ]; then echo "needs at least 2 cores to compare parallel with serial; this machine has $cores" >&2; exit 1; fi

@@ -351,20 +351,7 @@ internal sealed class CompiledCell
                     throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
                         $"element {i} is not a uniform layer or a delta; second-order parameter derivatives are defined for those."), nameof(e));
             }
-            var q11 = m11 * p11 + m12 * p21;
-            var q12 = m11 * p12 + m12 * p22;
-            var q21 = m21 * p11 + m22 * p21;
-            var q22 = m21 * p12 + m22 * p22;
-            logScale += l;
-            var max = Math.Max(Math.Max(q11.MaxAbs, q12.MaxAbs), Math.Max(q21.MaxAbs, q22.MaxAbs));
-            if (max > 1e120 || (max < 1e-120 && max > 0))
-            {
-                // Powers of two rescale exactly.
-                var exponent = Math.ILogB(max);
-                (q11, q12, q21, q22) = (q11.ScaleB(-exponent), q12.ScaleB(-exponent), q21.ScaleB(-exponent), q22.ScaleB(-exponent));
-                logScale += exponent * Math.Log(2.0);
-            }
-            (p11, p12, p21, p22) = (q11, q12, q21, q22);
+            JetMatrix.ApplyLeft(m11, m12, m21, m22, l, ref p11, ref p12, ref p21, ref p22, ref logScale);
         }
         return new SecondOrderProduct(p11, p12, p21, p22, logScale);
     }

@@ -1,6 +1,7 @@
 // SPDX-License-Identifier: MIT
 // Copyright (c) 2026 Periodic contributors
 
+using System.Numerics;
 using System.Runtime.CompilerServices;
 using Periodic.Units;
 
@@ -11,13 +12,13 @@ namespace Periodic.Transfer;
 /// automatic differentiation truncated to what the implicit derivative of a stationary point needs (A. Griewank and
 /// A. Walther, Evaluating Derivatives, 2nd ed., SIAM 2008, ch. 13). Products follow Leibniz's rule term by term.
 /// </summary>
-internal readonly record struct ParameterJet(double Value, double E, double EE, double P, double EP)
+internal readonly record struct ParameterJet(double Value, double E, double EE, double P, double EP) : IMatrixJet<ParameterJet>
 {
     internal static ParameterJet Constant(double value) => new(value, 0, 0, 0, 0);
 
-    internal double MaxAbs => Math.Max(Math.Max(Math.Max(Math.Abs(Value), Math.Abs(E)), Math.Max(Math.Abs(EE), Math.Abs(P))), Math.Abs(EP));
+    public double MaxAbs => Math.Max(Math.Max(Math.Max(Math.Abs(Value), Math.Abs(E)), Math.Max(Math.Abs(EE), Math.Abs(P))), Math.Abs(EP));
 
-    internal ParameterJet ScaleB(int exponent) =>
+    public ParameterJet ScaleB(int exponent) =>
         new(Math.ScaleB(Value, exponent), Math.ScaleB(E, exponent), Math.ScaleB(EE, exponent), Math.ScaleB(P, exponent), Math.ScaleB(EP, exponent));
 
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
@@ -47,6 +48,44 @@ internal readonly record struct ParameterJet(double Value, double E, double EE, 
     {
         var r = 1 / Value;
         return new ParameterJet(Math.Log(Value), E * r, EE * r - E * E * r * r, P * r, EP * r - E * P * r * r);
+    }
+}
+
+/// <summary>A truncated-derivative number (a jet) that transfer matrices can carry as entries.</summary>
+internal interface IMatrixJet<T> : IAdditionOperators<T, T, T>, IMultiplyOperators<T, T, T>
+    where T : struct, IMatrixJet<T>
+{
+    /// <summary>The largest magnitude of its components (for renormalisation).</summary>
+    double MaxAbs { get; }
+
+    /// <summary>Every component times 2^exponent (exact).</summary>
+    T ScaleB(int exponent);
+}
+
+/// <summary>The one product step of matrices with jet entries: P ← M·P, renormalised by exact powers of two.</summary>
+internal static class JetMatrix
+{
+    /// <summary>
+    /// P ← M·P for 2×2 matrices of jets, M scaled by e^<paramref name="logScale"/>; the product is kept inside
+    /// [1e-120, 1e120] by powers of two (exact), which are added to <paramref name="productLogScale"/>.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    internal static void ApplyLeft<T>(T m11, T m12, T m21, T m22, double logScale, ref T p11, ref T p12, ref T p21, ref T p22, ref double productLogScale)
+        where T : struct, IMatrixJet<T>
+    {
+        var q11 = m11 * p11 + m12 * p21;
+        var q12 = m11 * p12 + m12 * p22;
+        var q21 = m21 * p11 + m22 * p21;
+        var q22 = m21 * p12 + m22 * p22;
+        productLogScale += logScale;
+        var max = Math.Max(Math.Max(q11.MaxAbs, q12.MaxAbs), Math.Max(q21.MaxAbs, q22.MaxAbs));
+        if (max > 1e120 || (max < 1e-120 && max > 0))
+        {
+            var exponent = Math.ILogB(max);
+            (q11, q12, q21, q22) = (q11.ScaleB(-exponent), q12.ScaleB(-exponent), q21.ScaleB(-exponent), q22.ScaleB(-exponent));
+            productLogScale += exponent * Math.Log(2.0);
+        }
+        (p11, p12, p21, p22) = (q11, q12, q21, q22);
     }
 }
 
