@@ -224,6 +224,37 @@ public sealed class StackSensitivitiesTest
     }
 
     [Fact]
+    public void OfTransition_ToAQuasiBoundLevel_MatchesRichardsonExtrapolatedDifferences()
+    {
+        // A well between thin barriers inside leads at 0.2 eV: bound levels below 0.2 eV, transmission peaks (quasi-bound
+        // levels) between the leads' edge and the barrier tops. A bound-to-quasi-bound transition combines the level rule
+        // and the resonance rule; checked against Richardson-extrapolated differences to 1e-7 relative.
+        (double W, double V, double M)[] layers = [(3.0, 0.4, 0.092), (12.0, 0.0, 0.067), (3.0, 0.4, 0.092)];
+        LayerStack Stack((double W, double V, double M)[] l, out Layer[] built)
+        {
+            built = l.Select(x => L(x.W, x.V, x.M)).ToArray();
+            return LayerStack.Create(LeadOf(0.2, 0.08), built.Select(x => StackPart.Single(x)), LeadOf(0.2, 0.08));
+        }
+        var options = new IntersubbandOptions { BoundStates = TightLevels, Resonances = TightPeaks, IncludeQuasiBound = true, QuasiBoundUpperElectronVolts = 0.4 };
+        var spectrum = IntersubbandSpectrum.Compute(Stack(layers, out var built), options);
+        var toQuasiBound = spectrum.Transitions.Where(t => spectrum.Levels[t.To - 1].IsQuasiBound).ToArray();
+        Assert.NotEmpty(toQuasiBound);
+        foreach (var transition in toQuasiBound)
+        {
+            foreach (var q in Enum.GetValues<LayerQuantity>())
+            {
+                double Energy(double value) => IntersubbandSpectrum.Compute(Stack(With(layers, 1, q, value), out _), options)
+                    .Transitions.First(t => t.From == transition.From && t.To == transition.To).EnergyElectronVolts;
+                var p = Get(layers[1], q);
+                var numeric = Richardson(Energy, p, Step(q, p));
+                var exact = StackSensitivities.OfTransition(spectrum, transition, built[1], q)!.Value;
+                Assert.True(Math.Abs(exact - numeric) <= 1e-7 * Math.Abs(numeric) + 1e-9,
+                    $"{transition.From}→{transition.To} (quasi-bound), well {q}: exact {exact:R}, differences {numeric:R}");
+            }
+        }
+    }
+
+    [Fact]
     public void OfLevel_RejectsALayerNotInTheStack()
     {
         var spectrum = BoundStateSpectrum.Find(WellStack(DoubleWell, out _));
