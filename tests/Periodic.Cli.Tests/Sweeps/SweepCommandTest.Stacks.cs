@@ -116,4 +116,18 @@ public sealed partial class SweepCommandTest
         Assert.Equal(2, run.ExitCode);
         Assert.Contains("outputs.hubbard", run.Stderr);
     }
+
+    [Theory]
+    [InlineData("\"2-1\"", "outputs.transitions[0]")]
+    [InlineData("\"1-x\"", "outputs.transitions[0]")]
+    public void Sweep_BadTransition_IsRefusedNamingIt(string transition, string field)
+    {
+        var folder = Folder();
+        var spec = Path.Combine(folder, "sweep.json");
+        File.WriteAllText(spec, $$"""{"structure": {{WellStack(0.3)}}, "parameters": [{"field": "cell[1].width", "values": [5]}], "outputs": {"transitions": [{{transition}}]""" + "}}");
+        var run = ToolRunner.Invoke("sweep", spec, "--out", Path.Combine(folder, "o.csv"));
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains(field, run.Stderr);
+        Assert.Contains("I < J", run.Stderr);
+    }
 }
