@@ -109,7 +109,7 @@ internal static class HubbardCommand
         _ => throw new UsageException($"--unit \"{text}\" is not known; use recoil, kHz or eV."),
     };
 
-    private static Length ParseScatteringLength(string? text)
+    internal static Length ParseScatteringLength(string? text)
     {
         if (text is null)
         {
@@ -133,7 +133,7 @@ internal static class HubbardCommand
         return Length.FromNanometres(value * factor);
     }
 
-    private static TransverseConfinement ParseGeometry(string text, double? frequency)
+    internal static TransverseConfinement ParseGeometry(string text, double? frequency)
     {
         switch (text.ToLowerInvariant())
         {
