@@ -133,8 +133,8 @@ class TransitionsTest(unittest.TestCase):
 
     def test_dipoles_paritySelectionRule(self):
         # The stack is mirror-symmetric (the leads equal the barriers), so its levels alternate in parity and
-        # <i|z|f> vanishes between levels of equal parity, f - i even (parity selection rule; docs/references.md,
-        # Helm 2000). "Vanishes" here is rounding of sums over ~1e3 quadrature nodes against dipoles of order
+        # <i|z|f> vanishes between levels of equal parity, f - i even (parity selection rule, common practice; see
+        # Helm 2000 in docs/references.md). "Vanishes" here is rounding of sums over ~1e3 quadrature nodes against dipoles of order
         # 1 nm: 1e-9 nm leaves six orders of margin on both sides.
         t = self.transitions
         self.assertTrue(all(t.resolved))
@@ -145,8 +145,9 @@ class TransitionsTest(unittest.TestCase):
         self.assertGreater(largest, 0.1)
 
     def test_oscillatorStrengths_sumRuleFromGroundLevel(self):
-        # Thomas-Reiche-Kuhn sum rule: the strengths from level 1 to all states sum to m* <1/m> <= 1 here (the
-        # reference mass is the well's, the lightest), and each upward strength is positive (docs/references.md).
+        # Thomas-Reiche-Kuhn sum rule with a position-dependent mass: the strengths from level 1 to all states sum to
+        # m* <1/m> <= 1 here (the reference mass is the well's, the lightest), and each upward strength is positive
+        # (Sakurai; Sirtori et al. 1994 for the mass; docs/references.md).
         t = self.transitions
         self.assertAlmostEqual(t.reference_mass_m0, 0.067, delta=0)
         upward = [float(t.oscillator_strength[k]) for k in range(t.count) if t.from_level[k] == 1]
@@ -163,7 +164,7 @@ class TransitionsTest(unittest.TestCase):
         self.assertIn("bound", caught.exception.message)
 
 
-RB87_MASS_U = 86.9091805310  # 87Rb, AME2020 atomic mass (docs/references.md)
+RB87_MASS_U = 86.9091805310  # 87Rb, AME2020 atomic mass (Wang et al. 2021, docs/references.md)
 
 
 class WannierTest(unittest.TestCase):
@@ -174,7 +175,7 @@ class WannierTest(unittest.TestCase):
 
     def test_hopping_bandWidthIsFourTimesOddHoppings(self):
         # E(k) = E0 - 2 sum_n Jn cos(n k d) gives E(pi/d) - E(0) = 4 (J1 + J3 + J5 + ...) (tight-binding Fourier
-        # series, common practice). The band edges come from the transfer matrices, J from the plane-wave Wannier
+        # series, common practice, no single source). The band edges come from the transfer matrices, J from the plane-wave Wannier
         # function: two independent methods. J5 and beyond and the Magnus discretisation of the band edges are
         # far below the 1e-7 relative allowed.
         w = self.wannier
