@@ -119,7 +119,7 @@ internal static class PlotCommand
                 "profile" => Profile(structure, n, p ?? 3),
                 "stack" => Stack(structure, stackPeriods, TransmissionCommand.ChooseBias(u, structure)),
                 "iv" => CurrentVoltage(structure, stackPeriods, IvBias(u, structure), mu!.Value,
-                    t ?? structure.Materials?.TemperatureKelvin ?? throw new UsageException("give --temperature K (the structure file has no material temperature).")),
+                    t ?? structure.Materials?.Temperature.Kelvin ?? throw new UsageException("give --temperature K (the structure file has no material temperature).")),
                 _ => Transmission(structure, n, stackPeriods, energies, TransmissionCommand.ChooseBias(u, structure)),
             };
             Save(plot, path, extension, w, h);

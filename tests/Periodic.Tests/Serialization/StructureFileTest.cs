@@ -3,6 +3,7 @@
 
 using Periodic.Serialization;
 using Periodic.Structures;
+using Periodic.Units;
 
 namespace Periodic.Tests.Serialization;
 
@@ -110,12 +111,12 @@ public sealed class StructureFileMaterialsTest
             {"name": "m", "temperature": "77 K", "cell": [
               {"material": "GaAs", "width": "6 nm"}, {"material": "Al0.3Ga0.7As", "monolayers": 20}]}
             """, "m.json");
-        var expected = Periodic.Materials.StructureRecipe.Create(77)
+        var expected = Periodic.Materials.StructureRecipe.Create(Temperature.FromKelvin(77))
             .Add(Periodic.Materials.StructureRecipe.ParseMaterial("GaAs"), Periodic.Units.Length.FromNanometres(6))
             .Add(Periodic.Materials.RecipeLayer.FromMonolayers(Periodic.Materials.StructureRecipe.ParseMaterial("Al0.3Ga0.7As"), 20))
             .Build();
         Assert.NotNull(s.Materials);
-        Assert.Equal(77.0, s.Materials!.TemperatureKelvin);
+        Assert.Equal(77.0, s.Materials!.Temperature.Kelvin);
         for (var i = 0; i < 2; i++)
         {
             var got = Assert.IsType<Layer>(s.Cell.Elements[i]);
