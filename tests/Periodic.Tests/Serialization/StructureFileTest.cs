@@ -222,7 +222,7 @@ public sealed class StructureFileSmoothTest
             """, "f.json");
         var segment = Assert.IsType<FourierSegment>(s.Cell.Elements[0]);
         Assert.Equal(4.0, segment.Width.Nanometres, 1e-15);
-        Assert.Equal(0.01, segment.ConstantElectronVolts, 1e-17);
+        Assert.Equal(0.01, segment.Constant.ElectronVolts, 1e-17);
         Assert.Equal(new[] { 0.2, 0.05 }, segment.CosineElectronVolts.ToArray(), new ToleranceComparer(1e-17));
         Assert.Equal(new[] { 0.0, 0.01 }, segment.SineElectronVolts.ToArray());
         // The potential at x = 0 is constant + sum of cosines (cos 0 = 1).
