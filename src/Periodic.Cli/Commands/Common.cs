@@ -327,7 +327,7 @@ internal static class Common
         {
             writer.WriteNumber("periods", stack.Parts[0].Repetitions);
         }
-        writer.WriteNumber("thickness", stack.ThicknessNanometres);
+        writer.WriteNumber("thickness", stack.Thickness.Nanometres);
         writer.WriteNumber("elements", stack.ElementCount);
         if (bias is { } u)
         {

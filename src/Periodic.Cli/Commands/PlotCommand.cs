@@ -381,7 +381,7 @@ internal static class PlotCommand
     {
         var (layers, source) = StackOptions.Choose(structure, periods, null, null);
         var (xs, vs) = StackOptions.Profile(layers, bias.ElectronVolts);
-        var length = layers.ThicknessNanometres;
+        var length = layers.Thickness.Nanometres;
         var leftEdge = layers.LeftLead.Potential.ElectronVolts;
         var rightEdge = layers.RightLead.Potential.ElectronVolts - bias.ElectronVolts;
         var all = vs.Append(leftEdge).Append(rightEdge).ToArray();

@@ -158,7 +158,7 @@ internal static class TransitionsCommand
                 w.WriteNumber("referenceMass", spectrum.ReferenceMassElectronMasses);
                 w.WriteNumber("normalisationError", spectrum.NormalisationError);
                 w.WriteStartObject("stack");
-                w.WriteNumber("thickness", spectrum.Stack.ThicknessNanometres);
+                w.WriteNumber("thickness", spectrum.Stack.Thickness.Nanometres);
                 Common.Leads(w, spectrum.Stack);
                 w.WriteEndObject();
                 w.WriteStartArray("levels");

@@ -128,7 +128,7 @@ public sealed class InterbandSpectrum
             windows.Add((h.Profile, h.Spectrum.Levels[0].EnergyElectronVolts, h.Spectrum.Levels[^1].EnergyElectronVolts));
         }
         var grid = LayerIntegrals.Create(profileE, windows);
-        var length = stackE.ThicknessNanometres;
+        var length = stackE.Thickness.Nanometres;
         var electronStates = Sample(grid, electrons, stackE, length);
         var electronAbsolute = electrons.Levels.Select(l => builtE.ToAbsoluteElectronVolts(l.EnergyElectronVolts)).ToArray();
         var transitions = new List<InterbandTransition>();

@@ -343,7 +343,7 @@ public sealed class NoNaNTest(ITestOutputHelper output)
             spectra++;
             Finite(spectrum.ContinuumEdgeElectronVolts, "continuum edge");
             Finite(spectrum.LowerBoundElectronVolts, "lower bound");
-            var thickness = spectrum.Stack.ThicknessNanometres;
+            var thickness = spectrum.Stack.Thickness.Nanometres;
             for (var j = 0; j < x.Length; j++)
             {
                 x[j] = -2 + (thickness + 4) * j / (x.Length - 1);

@@ -240,7 +240,7 @@ public sealed class BuiltStructureTest
         var built = recipe.WithPeriods(10).Build();
         var gaas = Lead.Like(built.LayerOf(Material.GaAs, Length.FromNanometres(1)));
         var stack = LayerStack.Periodic(gaas, built.Cell, built.Recipe.Periods, gaas);
-        Assert.Equal(70, stack.ThicknessNanometres, 1e-12);
+        Assert.Equal(70, stack.Thickness.Nanometres, 1e-12);
         Assert.Equal(0, stack.LeftLead.PotentialElectronVolts);
         Assert.Equal(0.067, stack.RightLead.MassElectronMasses);
         // LayerOf gives exactly the layer the recipe builds for the same material and width.

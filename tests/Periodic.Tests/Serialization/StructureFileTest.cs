@@ -157,7 +157,7 @@ public sealed class StructureFileStackTest
         // The right lead defaults to the first layer (0 eV, 0.067 m0).
         Assert.Equal(0.0, s.Stack.RightLead.PotentialElectronVolts);
         Assert.Equal(0.067, s.Stack.RightLead.MassElectronMasses);
-        Assert.Equal(66.0, s.Stack.ThicknessNanometres, 1e-12);
+        Assert.Equal(66.0, s.Stack.Thickness.Nanometres, 1e-12);
     }
 
     [Theory]
