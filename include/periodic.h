@@ -100,7 +100,9 @@ int32_t periodic_cell_period(const periodic_cell *cell, double *period_nm);
 /* ---- bands --------------------------------------------------------------------------------------- */
 
 /** The lowest `count` minibands (1 to 10000) of a cell, each edge converged to the library's default
- *  tolerance (about 1e-14 relative). Release with periodic_bands_destroy. */
+ *  tolerance (about 1e-14 relative). The library's solver chooses the method: exact transfer matrices for a
+ *  cell of layers; for the smooth cell of an optical lattice (ABI 2) the method it prefers there, whose
+ *  discretisation error the accuracy report includes. Release with periodic_bands_destroy. */
 int32_t periodic_bands_compute(const periodic_cell *cell, int32_t count, periodic_bands **bands);
 
 /** Releases a band structure (NULL allowed). */
@@ -121,8 +123,8 @@ int32_t periodic_bands_edge_errors(const periodic_bands *bands, double *bottom_e
 int32_t periodic_bands_masses(const periodic_bands *bands, double *bottom_mass_m0, double *top_mass_m0,
                               size_t capacity);
 
-/** The accuracy report: the largest edge error bound (eV) and how many oscillation-count checks
- *  confirmed that no band was missed. */
+/** The accuracy report: the largest edge error bound (eV; root finding and, for smooth cells, discretisation)
+ *  and how many oscillation-count checks confirmed that no band was missed. */
 int32_t periodic_bands_accuracy(const periodic_bands *bands, double *max_edge_error_ev, int32_t *count_checks);
 
 /** E(k) of band `band_index` (1-based) at `count` wavevectors k (1/nm, any real value; folded into the

@@ -163,20 +163,14 @@ def _doubles(values, name):
     return array, ctypes.cast(array, _c_double_p), len(values)
 
 
-def _output(count):
+def _output(count, ctype=ctypes.c_double):
+    """An output array of `count` values of `ctype` (c_double or c_int32) and its ctypes pointer."""
+    pointer = ctypes.POINTER(ctype)
     if _np is not None:
-        array = _np.empty(count, dtype=_np.float64)
-        return array, array.ctypes.data_as(_c_double_p)
-    array = (ctypes.c_double * count)()
-    return array, ctypes.cast(array, _c_double_p)
-
-
-def _int_output(count):
-    if _np is not None:
-        array = _np.empty(count, dtype=_np.int32)
-        return array, array.ctypes.data_as(_c_int32_p)
-    array = (ctypes.c_int32 * count)()
-    return array, ctypes.cast(array, _c_int32_p)
+        array = _np.empty(count, dtype=_np.float64 if ctype is ctypes.c_double else _np.int32)
+        return array, array.ctypes.data_as(pointer)
+    array = (ctype * count)()
+    return array, ctypes.cast(array, pointer)
 
 
 def _result(array):
@@ -343,9 +337,9 @@ class Transitions:
         h = stack._handle
         _check(lib.periodic_stack_transitions(h, None, None, None, None, None, None, 0, ctypes.byref(count)))
         n = count.value
-        from_level, fp = _int_output(n)
-        to_level, tp = _int_output(n)
-        resolved, rp = _int_output(n)
+        from_level, fp = _output(n, ctypes.c_int32)
+        to_level, tp = _output(n, ctypes.c_int32)
+        resolved, rp = _output(n, ctypes.c_int32)
         energy, ep = _output(n)
         dipole, dp = _output(n)
         strength, sp = _output(n)

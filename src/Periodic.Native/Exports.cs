@@ -106,7 +106,7 @@ internal static unsafe class Exports
         {
             var c = Handles.Get<UnitCell>(cell, nameof(cell));
             Status.RequireNotNull(bands, nameof(bands));
-            *bands = Handles.New(new BandsHandle(BandStructure.Compute(c, count)));
+            *bands = Handles.New(new BandsHandle(BandSolver.Compute(c, count)));
             return Status.Ok;
         }
         catch (Exception e)
@@ -158,7 +158,7 @@ internal static unsafe class Exports
             var b = Handles.Get<BandsHandle>(bands, nameof(bands));
             Status.RequireNotNull(maxEdgeErrorEv, "max_edge_error_ev");
             Status.RequireNotNull(countChecks, "count_checks");
-            *maxEdgeErrorEv = b.Structure.MaxEdgeErrorElectronVolts;
+            *maxEdgeErrorEv = b.MaxEdgeErrorElectronVolts;
             *countChecks = b.Structure.CountChecks;
             return Status.Ok;
         }
@@ -274,7 +274,10 @@ internal static unsafe class Exports
         try
         {
             Status.RequireNotNull(cell, nameof(cell));
-            var lattice = OpticalLattice.Create(Length.FromNanometres(wavelengthNm), depthRecoil, AtomicSpecies.FromMass(massU));
+            // A non-finite wavelength is named as the C caller knows it (Length.FromNanometres would name its own parameter).
+            var wavelength = double.IsFinite(wavelengthNm) ? Length.FromNanometres(wavelengthNm)
+                : throw new ArgumentOutOfRangeException("wavelength_nm", wavelengthNm, $"wavelength_nm must be a positive, finite wavelength in nm; got {wavelengthNm.ToString("R", System.Globalization.CultureInfo.InvariantCulture)}.");
+            var lattice = OpticalLattice.Create(wavelength, depthRecoil, AtomicSpecies.FromMass(massU));
             *cell = Handles.New(lattice.Cell);
             return Status.Ok;
         }

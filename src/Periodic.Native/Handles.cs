@@ -48,12 +48,18 @@ internal static unsafe class Handles
     };
 }
 
-/// <summary>What a periodic_bands handle holds: the band structure and its derived properties.</summary>
-internal sealed class BandsHandle(BandStructure structure)
+/// <summary>
+/// What a periodic_bands handle holds: the library's solution (the facade chooses the method: exact for cells of layers,
+/// which is every cell before ABI 2; plane waves or refined steps for smooth cells), its band structure and properties.
+/// </summary>
+internal sealed class BandsHandle(BandSolution solution)
 {
-    public BandStructure Structure { get; } = structure;
+    public BandStructure Structure { get; } = solution.Structure;
 
-    public BandProperties Properties { get; } = BandProperties.Create(structure);
+    /// <summary>The largest edge error of the solution, root finding and discretisation together, eV.</summary>
+    public double MaxEdgeErrorElectronVolts { get; } = solution.MaxEdgeErrorElectronVolts;
+
+    public BandProperties Properties { get; } = BandProperties.Create(solution.Structure);
 }
 
 /// <summary>
