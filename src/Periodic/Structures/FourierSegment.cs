@@ -75,11 +75,7 @@ public sealed class FourierSegment : CellElement, IMeshedSegment
     /// <summary>Highest value of V(x) (located like the minimum).</summary>
     public Energy MaximumPotential { get; }
 
-    double IPotentialSegment.MinimumPotentialElectronVolts => MinimumPotential.ElectronVolts;
-
-    double IPotentialSegment.MaximumPotentialElectronVolts => MaximumPotential.ElectronVolts;
-
-    double IPotentialSegment.MinimumMassElectronMasses => Mass.ElectronMasses;
+    EffectiveMass IPotentialSegment.MinimumMass => Mass;
 
     SegmentSamples IMeshedSegment.Samples => Samples;
 

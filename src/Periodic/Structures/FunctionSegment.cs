@@ -62,12 +62,6 @@ public sealed class FunctionSegment : CellElement, IMeshedSegment
     /// <summary>Smallest mass seen at the scan and quadrature points.</summary>
     public EffectiveMass MinimumMass { get; }
 
-    double IPotentialSegment.MinimumPotentialElectronVolts => MinimumPotential.ElectronVolts;
-
-    double IPotentialSegment.MaximumPotentialElectronVolts => MaximumPotential.ElectronVolts;
-
-    double IPotentialSegment.MinimumMassElectronMasses => MinimumMass.ElectronMasses;
-
     SegmentSamples IMeshedSegment.Samples => Samples;
 
     internal SegmentSamples Samples { get; }

@@ -71,12 +71,6 @@ public sealed class SampledSegment : CellElement, IMeshedSegment
     /// <summary>Smallest mass.</summary>
     public EffectiveMass MinimumMass { get; }
 
-    double IPotentialSegment.MinimumPotentialElectronVolts => MinimumPotential.ElectronVolts;
-
-    double IPotentialSegment.MaximumPotentialElectronVolts => MaximumPotential.ElectronVolts;
-
-    double IPotentialSegment.MinimumMassElectronMasses => MinimumMass.ElectronMasses;
-
     /// <summary>True when masses were sampled too.</summary>
     public bool HasPositionDependentMass => _masses is not null;
 
