@@ -13,7 +13,11 @@
 # Needs gcc, gfortran and Debian's python3-numpy, python3-nbclient, jupyter-nbconvert, python3-ipykernel
 # (.ci/run installs them). Exits non-zero on the first failure.
 # Usage: bash .ci/package-checks.sh            (from anywhere; about 10-20 minutes on 2 cores)
+#        bash .ci/package-checks.sh --native-only   (only the native library, its ABI tests, the examples, the Python
+#                                                     module and the bitwise comparison, against `dotnet run` of the tool)
 set -euo pipefail
+NATIVE_ONLY=0
+[ "${1:-}" = "--native-only" ] && NATIVE_ONLY=1
 cd "$(dirname "$0")/.."
 ROOT="$PWD"
 export DOTNET_CLI_TELEMETRY_OPTOUT=1 DOTNET_NOLOGO=1 DOTNET_SKIP_FIRST_TIME_EXPERIENCE=1
@@ -34,6 +38,7 @@ step() {
 }
 fail() { echo "package-checks: FAILED: $*" >&2; exit 1; }
 
+if [ "$NATIVE_ONLY" = 0 ]; then
 for tool in gcc g++ gfortran git "$PY"; do command -v "$tool" >/dev/null || fail "$tool is not installed (.ci/run installs it)"; done
 "$PY" -c "import numpy, nbclient, ipykernel" 2>/dev/null || fail "Debian's python3-numpy, python3-nbclient and python3-ipykernel are needed (.ci/run installs them)"
 command -v jupyter >/dev/null || fail "jupyter-nbconvert is not installed (.ci/run installs it)"
@@ -221,6 +226,14 @@ for example in docs/examples/*.cs; do
   tail -3 "$WORK/example.out"
 done
 
+else
+  # The tool as built from this checkout, for the .NET side of the bitwise comparisons.
+  for tool in gcc g++ gfortran "$PY"; do command -v "$tool" >/dev/null || fail "$tool is not installed"; done
+  dotnet build src/Periodic.Cli -c Release -nologo -v:q
+  periodic() { dotnet run --no-build -c Release --project "$ROOT/src/Periodic.Cli" -- "$@"; }
+  periodic bands docs/examples/structures/superlattice.json --json > "$WORK/dotnet-bands.json"
+fi
+
 step "native library (NativeAOT): dotnet publish src/Periodic.Native -c Release -r linux-x64 -o artifacts/native"
 rm -rf "$NATIVE"
 dotnet publish src/Periodic.Native -c Release -r linux-x64 -o "$NATIVE" -nologo -v:q
@@ -274,6 +287,68 @@ for label, values in sources.items():
           f"  FAIL {label}: " + "; ".join(f"{k}: {values[k]!r} vs {dotnet[k]!r}" for k in differ))
 sys.exit(1 if bad else 0)
 PY
+
+step "bitwise agreement: intersubband transitions (C, Python) and Hubbard hopping (C, Python) equal the .NET tool's"
+# The C example's stack (ten periods of the superlattice between leads like its barriers) and lattice (87Rb, 1064 nm, 12 E_R).
+periodic transitions docs/examples/structures/superlattice.json --periods 10 --lead-potential 0.25 --lead-mass 0.092 --json > "$WORK/dotnet-transitions.json"
+periodic hubbard docs/examples/structures/rubidium-lattice.json --scattering-length 100 --json > "$WORK/dotnet-hubbard.json"
+"$PY" - "$WORK/dotnet-transitions.json" "$WORK/dotnet-hubbard.json" "$WORK/c.txt" <<'PY' || fail "bitwise agreement of transitions and hopping"
+import json, struct, sys
+sys.path.insert(0, "python")
+import periodic
+bits = lambda x: struct.pack("<d", x).hex()
+# .NET: the tool's JSON writes |dipole| (the sign is a phase convention); compare magnitudes, which abs keeps exact.
+transitions = json.load(open(sys.argv[1]))["transitions"]
+hubbard = json.load(open(sys.argv[2]))
+band = hubbard["bands"][0]
+dotnet = {}
+for t in transitions:
+    dotnet[("transition", t["from"], t["to"], "energy")] = t["energy"]
+    if t["resolved"]:
+        dotnet[("transition", t["from"], t["to"], "dipole")] = t["dipole"]
+        dotnet[("transition", t["from"], t["to"], "oscillatorStrength")] = t["oscillatorStrength"]
+for n, j in enumerate(band["hopping"]):
+    dotnet[("hopping", band["index"], f"J{n + 1}")] = j
+dotnet[("hopping", band["index"], "wannierIntegral")] = band["wannierIntegral"]
+dotnet[("hopping", band["index"], "meanEnergy")] = band["meanEnergy"]
+c = {}
+for line in open(sys.argv[3]):
+    words = line.split()
+    if line.startswith("transition ") and "not" not in words:
+        for key, value in zip(words[3::2], words[4::2]):
+            c[("transition", int(words[1]), int(words[2]), key)] = abs(float(value)) if key == "dipole" else float(value)
+    elif line.startswith("hopping "):
+        for key, value in zip(words[2::2], words[3::2]):
+            c[("hopping", int(words[1]), key)] = float(value)
+py = {}
+stack = periodic.Cell([5.0, 2.0], [0.0, 0.25], [0.067, 0.092]).stack(10, (0.25, 0.092))
+t = stack.transitions()
+for k in range(t.count):
+    key = ("transition", t.from_level[k], t.to_level[k])
+    py[key + ("energy",)] = float(t.energy_ev[k])
+    if t.resolved[k]:
+        py[key + ("dipole",)] = abs(float(t.dipole_nm[k]))
+        py[key + ("oscillatorStrength",)] = float(t.oscillator_strength[k])
+w = periodic.Cell.optical_lattice(hubbard["wavelength"], hubbard["depth"], hubbard["mass"]).wannier(1)
+for n, j in enumerate(w.hopping_ev):
+    py[("hopping", 1, f"J{n + 1}")] = float(j)
+py[("hopping", 1, "wannierIntegral")] = w.on_site_integral_per_nm
+py[("hopping", 1, "meanEnergy")] = w.mean_energy_ev
+bad = 0
+for label, values in (("C", c), ("Python", py)):
+    missing = sorted(set(dotnet) - set(values))
+    differ = [k for k in dotnet if k in values and bits(values[k]) != bits(dotnet[k])]
+    bad += len(differ) + len(missing)
+    print(f"  {'ok  ' if not differ and not missing else 'FAIL'} {label}: {len(dotnet) - len(missing)} of {len(dotnet)} values "
+          f"({len(transitions)} transitions, J1..J3 and the on-site integral) bit for bit equal to the .NET tool's")
+    for k in differ[:5]:
+        print(f"       {k}: {values[k]!r} vs {dotnet[k]!r}")
+    for k in missing[:5]:
+        print(f"       missing {k}")
+sys.exit(1 if bad else 0)
+PY
+
+[ "$NATIVE_ONLY" = 1 ] && { step "native checks passed"; exit 0; }
 
 step "notebook (Python, headless), the command docs/periodic-tour.ipynb gives"
 jupyter nbconvert --to notebook --execute docs/periodic-tour.ipynb --output-dir artifacts/notebook > "$WORK/notebook.log" 2>&1 \

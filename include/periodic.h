@@ -17,17 +17,18 @@
  *    reported as codes, never as crashes. (A pointer that is not null but points to freed or foreign
  *    memory cannot be detected, as in any C library.)
  *  - Units are in the names: _nm nanometres, _ev electron volts, _m0 free-electron masses,
- *    _per_nm 1/nm. Doubles are IEEE 754 binary64; results are bit for bit those of the .NET API.
- *  - Band indices are 1-based (1 = lowest band), as in the .NET API.
+ *    _per_nm 1/nm, _u unified atomic mass units; _recoil recoil energies of a lattice. Doubles are IEEE 754
+ *    binary64; results are bit for bit those of the .NET API, and no function writes NaN.
+ *  - Band indices and level numbers are 1-based (1 = lowest band or level), as in the .NET API.
  *
  * Ownership:
  *  - The caller allocates and frees every array and string buffer; the library only reads the inputs
  *    during the call and writes the outputs before it returns; it keeps no pointer to them.
- *  - Handles (periodic_cell, periodic_bands, periodic_stack) are owned by the caller from the moment a
+ *  - Handles (periodic_cell, periodic_bands, periodic_stack, periodic_wannier) are owned by the caller from the moment a
  *    create or compute call returns PERIODIC_OK and must be released exactly once with the matching
  *    *_destroy. Destroying NULL is allowed and does nothing. A handle stays valid until destroyed even if
  *    the handle it was made from is destroyed first (bands keep their own reference to the cell).
- *  - Where a result's size varies (strings, bound levels) the call takes the buffer's capacity and
+ *  - Where a result's size varies (strings, bound levels, transitions, hopping) the call takes the buffer's capacity and
  *    writes the size needed to *required (or *count): call once with a NULL buffer and capacity 0 to ask,
  *    then again with a buffer that large. A buffer too small gives PERIODIC_ERROR_BUFFER_TOO_SMALL with
  *    the size still written.
@@ -52,7 +53,7 @@
 extern "C" {
 #endif
 
-#define PERIODIC_ABI_VERSION 1
+#define PERIODIC_ABI_VERSION 2
 
 /** Status codes. Values are fixed for ever; new codes may be added. */
 typedef enum periodic_status {
@@ -68,6 +69,7 @@ typedef enum periodic_status {
 typedef struct periodic_cell periodic_cell;   /**< a unit cell of uniform layers */
 typedef struct periodic_bands periodic_bands; /**< the lowest N minibands of a cell */
 typedef struct periodic_stack periodic_stack; /**< a finite stack: N periods of a cell between two leads */
+typedef struct periodic_wannier periodic_wannier; /**< the Wannier function of one isolated band (ABI 2) */
 
 /* ---- library ------------------------------------------------------------------------------------- */
 
@@ -98,7 +100,9 @@ int32_t periodic_cell_period(const periodic_cell *cell, double *period_nm);
 /* ---- bands --------------------------------------------------------------------------------------- */
 
 /** The lowest `count` minibands (1 to 10000) of a cell, each edge converged to the library's default
- *  tolerance (about 1e-14 relative). Release with periodic_bands_destroy. */
+ *  tolerance (about 1e-14 relative). The library's solver chooses the method: exact transfer matrices for a
+ *  cell of layers; for the smooth cell of an optical lattice (ABI 2) the method it prefers there, whose
+ *  discretisation error the accuracy report includes. Release with periodic_bands_destroy. */
 int32_t periodic_bands_compute(const periodic_cell *cell, int32_t count, periodic_bands **bands);
 
 /** Releases a band structure (NULL allowed). */
@@ -119,8 +123,8 @@ int32_t periodic_bands_edge_errors(const periodic_bands *bands, double *bottom_e
 int32_t periodic_bands_masses(const periodic_bands *bands, double *bottom_mass_m0, double *top_mass_m0,
                               size_t capacity);
 
-/** The accuracy report: the largest edge error bound (eV) and how many oscillation-count checks
- *  confirmed that no band was missed. */
+/** The accuracy report: the largest edge error bound (eV; root finding and, for smooth cells, discretisation)
+ *  and how many oscillation-count checks confirmed that no band was missed. */
 int32_t periodic_bands_accuracy(const periodic_bands *bands, double *max_edge_error_ev, int32_t *count_checks);
 
 /** E(k) of band `band_index` (1-based) at `count` wavevectors k (1/nm, any real value; folded into the
@@ -155,10 +159,61 @@ int32_t periodic_stack_transmission(const periodic_stack *stack, double bias_ev,
 int32_t periodic_stack_bound_levels(const periodic_stack *stack, double *energies_ev, double *errors_ev,
                                     size_t capacity, size_t *count);
 
-/* ---- reserved for later ABI versions --------------------------------------------------------------
- * Optical transitions between levels and Hubbard/tight-binding hopping will be added here as functions
- * on periodic_bands and periodic_stack handles, each raising PERIODIC_ABI_VERSION by one, following the
- * same conventions. Nothing above changes when they arrive. */
+/* ---- ABI 2: optical lattices, intersubband transitions, Wannier functions and hopping --------------- */
+
+/** A cell of an optical lattice: one standing wave of wavelength wavelength_nm (> 0; the period is half of it)
+ *  and depth depth_recoil (> 0) in recoil energies E_R = h^2/(2 m wavelength^2) of an atom of mass mass_u (> 0,
+ *  unified atomic mass units), V(x) = depth_recoil E_R sin^2(pi x / period). The .NET library's
+ *  OpticalLattice.Create(...).Cell. Release with periodic_cell_destroy. */
+int32_t periodic_cell_create_optical_lattice(double wavelength_nm, double depth_recoil, double mass_u, periodic_cell **cell);
+
+/** Intersubband transitions of a stack at zero bias for light polarised along the growth axis, as the .NET
+ *  library's IntersubbandSpectrum.Compute(stack) with its default options: every pair of bound levels,
+ *  ordered by from, then to. Levels are numbered from 1 upwards, exactly as periodic_stack_bound_levels lists
+ *  them. For transition i: from[i] < to[i]; energies_ev[i] = E_to - E_from (eV); dipoles_nm[i] the dipole
+ *  <from|z|to> (nm, signed: the wavefunctions are real and positive in the left lead); oscillator_strengths[i]
+ *  f = 2 m* w |z|^2 / hbar (length form, dimensionless) with m* from periodic_stack_transitions_accuracy;
+ *  resolved[i] = 1, or 0 where the two levels are closer than double precision separates (wells behind very
+ *  thick barriers): then dipoles_nm[i] and oscillator_strengths[i] are written as 0, not as numbers to use.
+ *  Query-then-fill: *count receives the number of transitions (0 for one bound level); the six arrays (all NULL
+ *  when capacity is 0) receive them if capacity >= *count. A stack without bound levels gives
+ *  PERIODIC_ERROR_INVALID_ARGUMENT. Computed once per stack handle (the first call may take a while). */
+int32_t periodic_stack_transitions(const periodic_stack *stack, int32_t *from, int32_t *to, double *energies_ev,
+                                   double *dipoles_nm, double *oscillator_strengths, int32_t *resolved,
+                                   size_t capacity, size_t *count);
+
+/** The accuracy report of periodic_stack_transitions: the reference mass m* of the oscillator strengths
+ *  (the band-edge mass of the stack's layer with the lowest potential, m0) and the largest |integral of psi^2 - 1|
+ *  of the bound states on the quadrature grid (the accuracy the dipole integrals reached). */
+int32_t periodic_stack_transitions_accuracy(const periodic_stack *stack, double *reference_mass_m0,
+                                            double *normalisation_error);
+
+/** The maximally localised Wannier function of band `band_index` (1 to 50) of a cell made of one Fourier
+ *  segment (periodic_cell_create_optical_lattice), as the .NET library's WannierFunction.Compute. The band
+ *  must be isolated (open gaps below and above it); otherwise, or for a cell of layers,
+ *  PERIODIC_ERROR_INVALID_ARGUMENT. Release with periodic_wannier_destroy. */
+int32_t periodic_wannier_compute(const periodic_cell *cell, int32_t band_index, periodic_wannier **wannier);
+
+/** Releases a Wannier function (NULL allowed). */
+int32_t periodic_wannier_destroy(periodic_wannier *wannier);
+
+/** The Hubbard (tight-binding) hopping J_n to the n-th neighbour, n = 1, 2, 3, in eV:
+ *  hopping_ev[n-1] = J_n, with E(k) = E_0 - 2 sum_n J_n cos(n k d) (J_1 > 0 for the lowest band).
+ *  Query-then-fill: *count receives the number of amplitudes (3); hopping_ev (NULL when capacity is 0)
+ *  receives them if capacity >= *count. */
+int32_t periodic_wannier_hopping(const periodic_wannier *wannier, double *hopping_ev, size_t capacity, size_t *count);
+
+/** The on-site integral of |w(x)|^4 over x (1/nm), from which the Hubbard U of a given geometry and scattering
+ *  length follows, and the band's mean energy E_0 (its on-site energy, eV). */
+int32_t periodic_wannier_on_site(const periodic_wannier *wannier, double *on_site_integral_per_nm, double *mean_energy_ev);
+
+/** The accuracy report of a Wannier function: |integral of |w|^2 - 1| on its grid, the largest |w| half a
+ *  supercell away relative to its peak (the size of the periodic images neglected; the library aims for 1e-13),
+ *  and the number of wavevectors used. */
+int32_t periodic_wannier_accuracy(const periodic_wannier *wannier, double *normalisation_error, double *tail_ratio,
+                                  int32_t *k_points);
+
+/* ---- later ABI versions add functions here, each raising PERIODIC_ABI_VERSION by one ---------------- */
 
 #ifdef __cplusplus
 }

@@ -59,5 +59,5 @@ public class SampledProfileBenchmarks
 
     /// <summary>The sampled profile to a stated tolerance (1e-10 relative), with step halving.</summary>
     [Benchmark]
-    public double Sampled10000PointsRefined() => RefinedBandStructure.Compute(_sampled, 3, 1e-10).Structure.GetBand(3).TopElectronVolts;
+    public double Sampled10000PointsRefined() => RefinedBandStructure.Compute(_sampled, 3, RefinementOptions.Create(1e-10)).Structure.GetBand(3).TopElectronVolts;
 }

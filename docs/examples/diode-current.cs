@@ -19,7 +19,7 @@ var fermiLevel = Energy.FromElectronVolts(0.04);
 var temperature = Temperature.FromKelvin(77);
 
 var level = StackTransmission.Create(diode).FindResonances(0.005, 0.25).Resonances[0];
-Console.WriteLine($"{diode.ThicknessNanometres} nm diode; resonance at zero bias: {level.EnergyElectronVolts:F4} eV, width {level.WidthElectronVolts * 1e3:F3} meV");
+Console.WriteLine($"{diode.Thickness.Nanometres} nm diode; resonance at zero bias: {level.EnergyElectronVolts:F4} eV, width {level.WidthElectronVolts * 1e3:F3} meV");
 Console.WriteLine("  bias (V)   resonance (eV)   J (A/cm2)     error (A/cm2)");
 for (var volts = 0.02; volts <= 0.30001; volts += 0.04)
 {

@@ -17,7 +17,7 @@ var bands = BandStructure.Compute(cell, count: 2);
 var lead = Lead.Like((Layer)cell.Elements[0]);
 var stack = StackTransmission.Create(LayerStack.Periodic(lead, cell, periods: 12, lead));
 
-Console.WriteLine($"{stack.Stack.ThicknessNanometres} nm stack; band 1 of the infinite crystal: {bands.Bands[0]}");
+Console.WriteLine($"{stack.Stack.Thickness.Nanometres} nm stack; band 1 of the infinite crystal: {bands.Bands[0]}");
 Console.WriteLine("  E (eV)    log10 T    where");
 for (var e = 0.02; e <= 0.30001; e += 0.02)
 {

@@ -1,7 +1,8 @@
 # SPDX-License-Identifier: MIT
 # Copyright (c) 2026 Periodic contributors
-"""Periodic from Python: the minibands, E(k), density of states, transmission and bound levels of
-one-dimensional periodic structures, through the C ABI of libperiodic.so (include/periodic.h) with
+"""Periodic from Python: the minibands, E(k), density of states, transmission, bound levels and
+intersubband transitions of one-dimensional periodic structures, and the Wannier functions and Hubbard
+hopping of optical lattices, through the C ABI of libperiodic.so (include/periodic.h) with
 the standard library's ctypes. Arrays come back as NumPy arrays where NumPy is installed, else lists.
 
 The physics is the single-band envelope-function (effective-mass) approximation of the .NET library,
@@ -24,9 +25,9 @@ try:
 except ImportError:  # NumPy is optional: plain lists then
     _np = None
 
-__all__ = ["Cell", "Bands", "Stack", "PeriodicError", "abi_version", "version", "library_path"]
+__all__ = ["Cell", "Bands", "Stack", "Transitions", "Wannier", "PeriodicError", "abi_version", "version", "library_path"]
 
-ABI_VERSION = 1
+ABI_VERSION = 2
 """The ABI version this module was written for (PERIODIC_ABI_VERSION of include/periodic.h)."""
 
 STATUS_NAMES = {
@@ -49,6 +50,7 @@ class PeriodicError(Exception):
 
 
 _c_double_p = ctypes.POINTER(ctypes.c_double)
+_c_int32_p = ctypes.POINTER(ctypes.c_int32)
 _handle_p = ctypes.POINTER(ctypes.c_void_p)
 _lock = threading.Lock()
 _lib = None
@@ -98,6 +100,15 @@ def _declare(lib):
         "periodic_stack_destroy": [vp],
         "periodic_stack_transmission": [vp, dbl, _c_double_p, _c_double_p, size],
         "periodic_stack_bound_levels": [vp, _c_double_p, _c_double_p, size, ctypes.POINTER(size)],
+        "periodic_cell_create_optical_lattice": [dbl, dbl, dbl, _handle_p],
+        "periodic_stack_transitions": [vp, _c_int32_p, _c_int32_p, _c_double_p, _c_double_p, _c_double_p, _c_int32_p,
+                                       size, ctypes.POINTER(size)],
+        "periodic_stack_transitions_accuracy": [vp, _c_double_p, _c_double_p],
+        "periodic_wannier_compute": [vp, i32, _handle_p],
+        "periodic_wannier_destroy": [vp],
+        "periodic_wannier_hopping": [vp, _c_double_p, size, ctypes.POINTER(size)],
+        "periodic_wannier_on_site": [vp, _c_double_p, _c_double_p],
+        "periodic_wannier_accuracy": [vp, _c_double_p, _c_double_p, ctypes.POINTER(i32)],
     }
     for name, argtypes in signatures.items():
         function = getattr(lib, name)
@@ -152,12 +163,14 @@ def _doubles(values, name):
     return array, ctypes.cast(array, _c_double_p), len(values)
 
 
-def _output(count):
+def _output(count, ctype=ctypes.c_double):
+    """An output array of `count` values of `ctype` (c_double or c_int32) and its ctypes pointer."""
+    pointer = ctypes.POINTER(ctype)
     if _np is not None:
-        array = _np.empty(count, dtype=_np.float64)
-        return array, array.ctypes.data_as(_c_double_p)
-    array = (ctypes.c_double * count)()
-    return array, ctypes.cast(array, _c_double_p)
+        array = _np.empty(count, dtype=_np.float64 if ctype is ctypes.c_double else _np.int32)
+        return array, array.ctypes.data_as(pointer)
+    array = (ctype * count)()
+    return array, ctypes.cast(array, pointer)
 
 
 def _result(array):
@@ -203,6 +216,21 @@ class Cell(_Handle):
         handle = ctypes.c_void_p()
         _check(_library().periodic_cell_create(wp, vp, mp, n, ctypes.byref(handle)))
         super().__init__(handle)
+
+    @classmethod
+    def optical_lattice(cls, wavelength_nm, depth_recoil, mass_u):
+        """A cell of an optical lattice: a standing wave of wavelength `wavelength_nm` (period half of it), depth
+        `depth_recoil` in recoil energies of an atom of mass `mass_u` (unified atomic mass units)."""
+        handle = ctypes.c_void_p()
+        _check(_library().periodic_cell_create_optical_lattice(float(wavelength_nm), float(depth_recoil), float(mass_u),
+                                                               ctypes.byref(handle)))
+        cell = cls.__new__(cls)
+        _Handle.__init__(cell, handle)
+        return cell
+
+    def wannier(self, band_index=1):
+        """The Wannier function of isolated band `band_index` (1 = lowest) of an optical-lattice cell."""
+        return Wannier(self, band_index)
 
     @property
     def period_nm(self):
@@ -291,3 +319,74 @@ class Stack(_Handle):
         errors, rp = _output(count.value)
         _check(lib.periodic_stack_bound_levels(self._handle, ep, rp, count.value, ctypes.byref(count)))
         return _result(energies), _result(errors)
+
+    def transitions(self):
+        """The intersubband transitions between the stack's bound levels (levels numbered from 1 as in
+        bound_levels), for light polarised along the growth axis."""
+        return Transitions(self)
+
+
+class Transitions:
+    """Intersubband transitions of a stack: `from_level`, `to_level` (counted from 1), `energy_ev` (E_to - E_from),
+    `dipole_nm` (signed <from|z|to>), `oscillator_strength` (f = 2m*w|z|^2/hbar), `resolved` (False where the two
+    levels are closer than double precision separates: dipole and strength are 0 there, not numbers to use),
+    `reference_mass_m0` (m*) and `normalisation_error` (the accuracy of the integrals)."""
+
+    def __init__(self, stack):
+        lib, count = _library(), ctypes.c_size_t(0)
+        h = stack._handle
+        _check(lib.periodic_stack_transitions(h, None, None, None, None, None, None, 0, ctypes.byref(count)))
+        n = count.value
+        from_level, fp = _output(n, ctypes.c_int32)
+        to_level, tp = _output(n, ctypes.c_int32)
+        resolved, rp = _output(n, ctypes.c_int32)
+        energy, ep = _output(n)
+        dipole, dp = _output(n)
+        strength, sp = _output(n)
+        _check(lib.periodic_stack_transitions(h, fp, tp, ep, dp, sp, rp, n, ctypes.byref(count)))
+        mass, norm = ctypes.c_double(), ctypes.c_double()
+        _check(lib.periodic_stack_transitions_accuracy(h, ctypes.byref(mass), ctypes.byref(norm)))
+        self.count = n
+        self.from_level = [int(v) for v in from_level]
+        self.to_level = [int(v) for v in to_level]
+        self.resolved = [bool(v) for v in resolved]
+        self.energy_ev = _result(energy)
+        self.dipole_nm = _result(dipole)
+        self.oscillator_strength = _result(strength)
+        self.reference_mass_m0 = mass.value
+        self.normalisation_error = norm.value
+
+    def __len__(self):
+        return self.count
+
+    def __repr__(self):
+        return f"Transitions({self.count}, m* = {self.reference_mass_m0:.4g} m0, integrals to {self.normalisation_error:.2g})"
+
+
+class Wannier(_Handle):
+    """The maximally localised Wannier function of one isolated band of an optical-lattice cell: `hopping_ev`
+    (J1, J2, J3; E(k) = E0 - 2 sum Jn cos(n k d)), `on_site_integral_per_nm` (integral of |w|^4), `mean_energy_ev`
+    (E0), and its accuracy: `normalisation_error`, `tail_ratio`, `k_points`."""
+
+    _destroy = "periodic_wannier_destroy"
+
+    def __init__(self, cell, band_index):
+        lib, handle = _library(), ctypes.c_void_p()
+        _check(lib.periodic_wannier_compute(cell._handle, int(band_index), ctypes.byref(handle)))
+        super().__init__(handle)
+        self.band_index = int(band_index)
+        count = ctypes.c_size_t(0)
+        _check(lib.periodic_wannier_hopping(self._handle, None, 0, ctypes.byref(count)))
+        hopping, hp = _output(count.value)
+        _check(lib.periodic_wannier_hopping(self._handle, hp, count.value, ctypes.byref(count)))
+        self.hopping_ev = _result(hopping)
+        on_site, mean = ctypes.c_double(), ctypes.c_double()
+        _check(lib.periodic_wannier_on_site(self._handle, ctypes.byref(on_site), ctypes.byref(mean)))
+        self.on_site_integral_per_nm, self.mean_energy_ev = on_site.value, mean.value
+        norm, tail, k_points = ctypes.c_double(), ctypes.c_double(), ctypes.c_int32()
+        _check(lib.periodic_wannier_accuracy(self._handle, ctypes.byref(norm), ctypes.byref(tail), ctypes.byref(k_points)))
+        self.normalisation_error, self.tail_ratio, self.k_points = norm.value, tail.value, k_points.value
+
+    def __repr__(self):
+        return (f"Wannier(band {self.band_index}: J = {[float(j) for j in self.hopping_ev]} eV, "
+                f"integral |w|^4 = {self.on_site_integral_per_nm:.6g} /nm, tail {self.tail_ratio:.2g})")

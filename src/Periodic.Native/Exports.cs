@@ -5,6 +5,7 @@ using System.Reflection;
 using System.Runtime.CompilerServices;
 using System.Runtime.InteropServices;
 using Periodic.Bands;
+using Periodic.OpticalLattices;
 using Periodic.Stacks;
 using Periodic.Structures;
 using Periodic.Units;
@@ -17,13 +18,14 @@ namespace Periodic.Native;
 /// status code with a thread-local message (<see cref="Status"/>), so no exception crosses the boundary.
 /// </summary>
 /// <remarks>
-/// Extension point: transitions and hopping join as new exports at the end of this class and in the
-/// reserved section of periodic.h, each raising <see cref="AbiVersion"/> by one. Existing exports never change.
+/// Extension point: new functions join as exports at the end of this class and of periodic.h, each addition raising
+/// <see cref="AbiVersion"/> by one. Existing exports never change. ABI 2 added optical-lattice cells, intersubband
+/// transitions of a stack and Wannier functions (hopping and on-site integral) of a band.
 /// </remarks>
 internal static unsafe class Exports
 {
     /// <summary>PERIODIC_ABI_VERSION of include/periodic.h; raise both together when functions are added.</summary>
-    public const int AbiVersion = 1;
+    public const int AbiVersion = 2;
 
     [UnmanagedCallersOnly(EntryPoint = "periodic_abi_version", CallConvs = [typeof(CallConvCdecl)])]
     public static int AbiVersionExport() => AbiVersion;
@@ -104,7 +106,7 @@ internal static unsafe class Exports
         {
             var c = Handles.Get<UnitCell>(cell, nameof(cell));
             Status.RequireNotNull(bands, nameof(bands));
-            *bands = Handles.New(new BandsHandle(BandStructure.Compute(c, count)));
+            *bands = Handles.New(new BandsHandle(BandSolver.Compute(c, count)));
             return Status.Ok;
         }
         catch (Exception e)
@@ -156,7 +158,7 @@ internal static unsafe class Exports
             var b = Handles.Get<BandsHandle>(bands, nameof(bands));
             Status.RequireNotNull(maxEdgeErrorEv, "max_edge_error_ev");
             Status.RequireNotNull(countChecks, "count_checks");
-            *maxEdgeErrorEv = b.Structure.MaxEdgeErrorElectronVolts;
+            *maxEdgeErrorEv = b.MaxEdgeErrorElectronVolts;
             *countChecks = b.Structure.CountChecks;
             return Status.Ok;
         }
@@ -256,6 +258,170 @@ internal static unsafe class Exports
                 energiesEv[i] = levels[i].EnergyElectronVolts;
                 errorsEv[i] = levels[i].ErrorElectronVolts;
             }
+            return Status.Ok;
+        }
+        catch (Exception e)
+        {
+            return Status.FromException(e);
+        }
+    }
+
+    // ---- ABI 2: optical-lattice cells, intersubband transitions, Wannier functions -------------------------------
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_cell_create_optical_lattice", CallConvs = [typeof(CallConvCdecl)])]
+    public static int CellCreateOpticalLattice(double wavelengthNm, double depthRecoil, double massU, void** cell)
+    {
+        try
+        {
+            Status.RequireNotNull(cell, nameof(cell));
+            // A non-finite wavelength is named as the C caller knows it (Length.FromNanometres would name its own parameter).
+            var wavelength = double.IsFinite(wavelengthNm) ? Length.FromNanometres(wavelengthNm)
+                : throw new ArgumentOutOfRangeException("wavelength_nm", wavelengthNm, $"wavelength_nm must be a positive, finite wavelength in nm; got {wavelengthNm.ToString("R", System.Globalization.CultureInfo.InvariantCulture)}.");
+            var lattice = OpticalLattice.Create(wavelength, depthRecoil, AtomicSpecies.FromMass(massU));
+            *cell = Handles.New(lattice.Cell);
+            return Status.Ok;
+        }
+        catch (Exception e)
+        {
+            return Status.FromException(e);
+        }
+    }
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_stack_transitions", CallConvs = [typeof(CallConvCdecl)])]
+    public static int StackTransitions(void* stack, int* from, int* to, double* energiesEv, double* dipolesNm, double* oscillatorStrengths,
+        int* resolved, nuint capacity, nuint* count)
+    {
+        try
+        {
+            var s = Handles.Get<StackHandle>(stack, nameof(stack));
+            Status.RequireNotNull(count, nameof(count));
+            var transitions = s.Transitions.Transitions;
+            *count = (nuint)transitions.Count;
+            if (capacity == 0 && from == null && to == null && energiesEv == null && dipolesNm == null && oscillatorStrengths == null && resolved == null)
+            {
+                return Status.Ok;
+            }
+            Status.RequireNotNull(from, nameof(from));
+            Status.RequireNotNull(to, nameof(to));
+            Status.RequireNotNull(energiesEv, "energies_ev");
+            Status.RequireNotNull(dipolesNm, "dipoles_nm");
+            Status.RequireNotNull(oscillatorStrengths, "oscillator_strengths");
+            Status.RequireNotNull(resolved, nameof(resolved));
+            Status.RequireCapacity(capacity, transitions.Count, "from, to, energies_ev, dipoles_nm, oscillator_strengths and resolved");
+            for (var i = 0; i < transitions.Count; i++)
+            {
+                var t = transitions[i];
+                from[i] = t.From;
+                to[i] = t.To;
+                energiesEv[i] = t.EnergyElectronVolts;
+                // An unresolved transition has no numbers (the .NET properties refuse them): 0 with resolved = 0, never NaN.
+                dipolesNm[i] = t.IsResolved ? t.DipoleNanometres : 0;
+                oscillatorStrengths[i] = t.IsResolved ? t.OscillatorStrength : 0;
+                resolved[i] = t.IsResolved ? 1 : 0;
+            }
+            return Status.Ok;
+        }
+        catch (Exception e)
+        {
+            return Status.FromException(e);
+        }
+    }
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_stack_transitions_accuracy", CallConvs = [typeof(CallConvCdecl)])]
+    public static int StackTransitionsAccuracy(void* stack, double* referenceMassM0, double* normalisationError)
+    {
+        try
+        {
+            var s = Handles.Get<StackHandle>(stack, nameof(stack));
+            Status.RequireNotNull(referenceMassM0, "reference_mass_m0");
+            Status.RequireNotNull(normalisationError, "normalisation_error");
+            var spectrum = s.Transitions;
+            *referenceMassM0 = spectrum.ReferenceMassElectronMasses;
+            *normalisationError = spectrum.NormalisationError;
+            return Status.Ok;
+        }
+        catch (Exception e)
+        {
+            return Status.FromException(e);
+        }
+    }
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_wannier_compute", CallConvs = [typeof(CallConvCdecl)])]
+    public static int WannierCompute(void* cell, int bandIndex, void** wannier)
+    {
+        try
+        {
+            var c = Handles.Get<UnitCell>(cell, nameof(cell));
+            Status.RequireNotNull(wannier, nameof(wannier));
+            *wannier = Handles.New(WannierFunction.Compute(c, bandIndex));
+            return Status.Ok;
+        }
+        catch (Exception e)
+        {
+            return Status.FromException(e);
+        }
+    }
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_wannier_destroy", CallConvs = [typeof(CallConvCdecl)])]
+    public static int WannierDestroy(void* wannier) => Destroy<WannierFunction>(wannier, nameof(wannier));
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_wannier_hopping", CallConvs = [typeof(CallConvCdecl)])]
+    public static int WannierHopping(void* wannier, double* hoppingEv, nuint capacity, nuint* count)
+    {
+        try
+        {
+            var w = Handles.Get<WannierFunction>(wannier, nameof(wannier));
+            Status.RequireNotNull(count, nameof(count));
+            var hopping = w.HoppingElectronVolts;
+            *count = (nuint)hopping.Count;
+            if (capacity == 0 && hoppingEv == null)
+            {
+                return Status.Ok;
+            }
+            Status.RequireNotNull(hoppingEv, "hopping_ev");
+            Status.RequireCapacity(capacity, hopping.Count, "hopping_ev");
+            for (var i = 0; i < hopping.Count; i++)
+            {
+                hoppingEv[i] = hopping[i];
+            }
+            return Status.Ok;
+        }
+        catch (Exception e)
+        {
+            return Status.FromException(e);
+        }
+    }
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_wannier_on_site", CallConvs = [typeof(CallConvCdecl)])]
+    public static int WannierOnSite(void* wannier, double* onSiteIntegralPerNm, double* meanEnergyEv)
+    {
+        try
+        {
+            var w = Handles.Get<WannierFunction>(wannier, nameof(wannier));
+            Status.RequireNotNull(onSiteIntegralPerNm, "on_site_integral_per_nm");
+            Status.RequireNotNull(meanEnergyEv, "mean_energy_ev");
+            *onSiteIntegralPerNm = w.OnSiteIntegralPerNanometre;
+            *meanEnergyEv = w.MeanEnergyElectronVolts;
+            return Status.Ok;
+        }
+        catch (Exception e)
+        {
+            return Status.FromException(e);
+        }
+    }
+
+    [UnmanagedCallersOnly(EntryPoint = "periodic_wannier_accuracy", CallConvs = [typeof(CallConvCdecl)])]
+    public static int WannierAccuracy(void* wannier, double* normalisationError, double* tailRatio, int* kPoints)
+    {
+        try
+        {
+            var w = Handles.Get<WannierFunction>(wannier, nameof(wannier));
+            Status.RequireNotNull(normalisationError, "normalisation_error");
+            Status.RequireNotNull(tailRatio, "tail_ratio");
+            Status.RequireNotNull(kPoints, "k_points");
+            *normalisationError = w.NormalisationError;
+            *tailRatio = w.TailRatio;
+            *kPoints = w.KPointCount;
             return Status.Ok;
         }
         catch (Exception e)

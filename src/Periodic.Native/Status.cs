@@ -2,8 +2,6 @@
 // Copyright (c) 2026 Periodic contributors
 
 using System.Text;
-using Periodic.Bands;
-
 namespace Periodic.Native;
 
 /// <summary>The status codes of include/periodic.h (values fixed for ever).</summary>
@@ -36,7 +34,7 @@ internal static class Status
         BufferTooSmallException e => Fail(BufferTooSmall, e.Message),
         HandleException e => Fail(e.IsNull ? NullPointer : InvalidHandle, e.Message),
         ArgumentException e => Fail(InvalidArgument, e.Message),
-        BandSearchException e => Fail(Numerical, e.Message),
+        PeriodicComputationException e => Fail(Numerical, e.Message),
         ArithmeticException e => Fail(Numerical, e.Message),
         _ => Fail(Internal, $"{exception.GetType().Name}: {exception.Message}"),
     };

@@ -4,13 +4,16 @@
 /*
  * Periodic from C: the minibands of a superlattice of 5 nm wells (m = 0.067 m0) between 2 nm barriers
  * 0.25 eV high (m = 0.092 m0) — the cell of docs/examples/structures/superlattice.json — then E(k),
- * the density of states, the transmission of ten periods and their bound levels.
+ * the density of states, the transmission of ten periods, their bound levels and the intersubband
+ * transitions between them; then the Hubbard hopping of rubidium-87 atoms in a 1064 nm optical lattice
+ * 12 recoil energies deep (docs/examples/structures/rubidium-lattice.json).
  *
  * Build and run (from the repository root, after `dotnet publish src/Periodic.Native -c Release -r linux-x64 -o artifacts/native`):
  *   gcc -std=c11 -Wall -Wextra -Werror -Iinclude docs/embedding/c/example.c -Lartifacts/native -lperiodic \
  *       -Wl,-rpath,'$ORIGIN' -o artifacts/native/example && artifacts/native/example
  *
- * The "band" lines print every double with 17 significant digits, enough to round-trip it exactly.
+ * The "band", "transition" and "hopping" lines print every double with 17 significant digits, enough to
+ * round-trip it exactly.
  */
 #include <stdio.h>
 #include <stdlib.h>
@@ -98,6 +101,53 @@ int main(void)
     printf("%zu bound levels below the leads; lowest %.6f eV, highest %.6f eV\n", level_count, levels[0], levels[level_count - 1]);
     free(levels);
     free(errors);
+
+    /* Intersubband transitions between those levels (light polarised along the growth axis), query-then-fill. */
+    size_t transition_count = 0;
+    check(periodic_stack_transitions(stack, NULL, NULL, NULL, NULL, NULL, NULL, 0, &transition_count), "periodic_stack_transitions (size)");
+    size_t n = transition_count > 0 ? transition_count : 1;
+    int32_t *from = malloc(n * sizeof *from), *to = malloc(n * sizeof *to), *resolved = malloc(n * sizeof *resolved);
+    double *de = malloc(n * sizeof *de), *dipole = malloc(n * sizeof *dipole), *strength = malloc(n * sizeof *strength);
+    if (from == NULL || to == NULL || resolved == NULL || de == NULL || dipole == NULL || strength == NULL) {
+        fprintf(stderr, "out of memory\n");
+        return 1;
+    }
+    check(periodic_stack_transitions(stack, from, to, de, dipole, strength, resolved, n, &transition_count), "periodic_stack_transitions");
+    double reference_mass = 0, normalisation_error = 0;
+    check(periodic_stack_transitions_accuracy(stack, &reference_mass, &normalisation_error), "periodic_stack_transitions_accuracy");
+    printf("%zu transitions; f with m* = %.4g m0, integrals to %.2g\n", transition_count, reference_mass, normalisation_error);
+    for (size_t i = 0; i < transition_count; i++) {
+        if (resolved[i]) {
+            printf("transition %d %d energy %.17g dipole %.17g oscillatorStrength %.17g\n",
+                   (int)from[i], (int)to[i], de[i], dipole[i], strength[i]);
+        } else {
+            printf("transition %d %d energy %.17g not resolved\n", (int)from[i], (int)to[i], de[i]);
+        }
+    }
+    free(from);
+    free(to);
+    free(resolved);
+    free(de);
+    free(dipole);
+    free(strength);
+
+    /* Rubidium-87 (86.9091805310 u) in a 1064 nm standing wave 12 recoil energies deep: Wannier function of
+       the lowest band, its hopping J1..J3 and the on-site integral of |w|^4 (Hubbard U follows from it). */
+    periodic_cell *lattice = NULL;
+    periodic_wannier *wannier = NULL;
+    check(periodic_cell_create_optical_lattice(1064.0, 12.0, 86.9091805310, &lattice), "periodic_cell_create_optical_lattice");
+    check(periodic_wannier_compute(lattice, 1, &wannier), "periodic_wannier_compute");
+    double hopping[3], on_site = 0, mean_energy = 0, wannier_norm = 0, tail = 0;
+    size_t hopping_count = 0;
+    int32_t k_points = 0;
+    check(periodic_wannier_hopping(wannier, hopping, 3, &hopping_count), "periodic_wannier_hopping");
+    check(periodic_wannier_on_site(wannier, &on_site, &mean_energy), "periodic_wannier_on_site");
+    check(periodic_wannier_accuracy(wannier, &wannier_norm, &tail, &k_points), "periodic_wannier_accuracy");
+    printf("hopping 1 J1 %.17g J2 %.17g J3 %.17g wannierIntegral %.17g meanEnergy %.17g\n",
+           hopping[0], hopping[1], hopping[2], on_site, mean_energy);
+    printf("Wannier function: %d wavevectors, normalised to %.2g, tail %.2g of the peak\n", (int)k_points, wannier_norm, tail);
+    periodic_wannier_destroy(wannier);
+    periodic_cell_destroy(lattice);
 
     periodic_stack_destroy(stack);
     periodic_bands_destroy(bands);

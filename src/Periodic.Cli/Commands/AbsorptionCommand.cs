@@ -262,7 +262,7 @@ internal static class AbsorptionCommand
         plot.XLabel("Position (nm)", size: 14);
         plot.YLabel("Energy (eV)", size: 14);
         var stack = spectrum.Stack;
-        var length = stack.ThicknessNanometres;
+        var length = stack.Thickness.Nanometres;
         var pad = Math.Max(2, 0.15 * length);
         // The profile: step through the written-out layers.
         var xs = new List<double> { -pad, 0 };

@@ -250,7 +250,7 @@ internal static class Common
         writer.WriteNumber("elements", structure.Cell.Elements.Count);
         if (structure.Materials is { } built)
         {
-            writer.WriteNumber("temperature", built.TemperatureKelvin);
+            writer.WriteNumber("temperature", built.Temperature.Kelvin);
             writer.WriteNumber("referenceEnergy", built.ReferenceElectronVolts);
             writer.WriteStartArray("warnings");
             foreach (var warning in built.Warnings.Concat(resultWarnings))
@@ -299,7 +299,7 @@ internal static class Common
                 layer.MassElectronMasses, layer.NonParabolicityPerElectronVolt, layer.BandGapElectronVolts, layer.LatticeMismatch);
         }
         return string.Create(CultureInfo.InvariantCulture,
-            $"\nLayers from the material table at T = {built.TemperatureKelvin:G6} K, carrier {built.Carrier} (potentials relative to {built.ReferenceElectronVolts:G6} eV; alpha: non-parabolicity; mismatch: to the substrate):\n")
+            $"\nLayers from the material table at T = {built.Temperature.Kelvin:G6} K, carrier {built.Carrier} (potentials relative to {built.ReferenceElectronVolts:G6} eV; alpha: non-parabolicity; mismatch: to the substrate):\n")
             + table.ToText();
     }
 
@@ -327,7 +327,7 @@ internal static class Common
         {
             writer.WriteNumber("periods", stack.Parts[0].Repetitions);
         }
-        writer.WriteNumber("thickness", stack.ThicknessNanometres);
+        writer.WriteNumber("thickness", stack.Thickness.Nanometres);
         writer.WriteNumber("elements", stack.ElementCount);
         if (bias is { } u)
         {

@@ -74,7 +74,7 @@ internal static class CurrentCommand
                     $"--temperature must be between {MinTemperatureKelvin} K and {MaxTemperatureKelvin} K; got {given:R}."));
             }
             var structure = Common.Load(result.GetValue(file)!);
-            var kelvin = t ?? structure.Materials?.TemperatureKelvin
+            var kelvin = t ?? structure.Materials?.Temperature.Kelvin
                 ?? throw new UsageException("give --temperature K (the structure file has no material temperature to take it from).");
             if (!(kelvin >= MinTemperatureKelvin && kelvin <= MaxTemperatureKelvin))
             {
@@ -233,7 +233,7 @@ internal static class CurrentCommand
         }
         var lead = stack.LeftLead;
         var title = Common.TableTitle(structure) + string.Create(CultureInfo.InvariantCulture,
-            $"Stack: {source}: {Physics.StackOptions.Describe(stack)}; {stack.ThicknessNanometres:G6} nm, leads V = {lead.Potential.ElectronVolts:G6} eV, m = {lead.Mass.ElectronMasses:G6} m0; Fermi level {fermiLevel:G6} eV (left contact), T = {kelvin:G6} K\n")
+            $"Stack: {source}: {Physics.StackOptions.Describe(stack)}; {stack.Thickness.Nanometres:G6} nm, leads V = {lead.Potential.ElectronVolts:G6} eV, m = {lead.Mass.ElectronMasses:G6} m0; Fermi level {fermiLevel:G6} eV (left contact), T = {kelvin:G6} K\n")
             + "Tsu-Esaki current, coherent, uniform field, no space charge or self-consistency: a design guide, check against measurement.\n"
             + string.Concat(fermiWarnings.Select(line => "warning: " + line + "\n"));
         Common.EmitTable(table, format, title, outPath);

@@ -8,6 +8,7 @@ using Periodic.Cli.Output;
 using Periodic.Properties;
 using Periodic.Serialization;
 using Periodic.Stacks;
+using Periodic.Units;
 
 namespace Periodic.Cli.Commands;
 
@@ -69,7 +70,7 @@ internal static class FieldCommands
             }
             var structure = Common.Load(result.GetValue(file)!);
             var bands = BandStructure.Compute(structure.Cell, n);
-            var drift = MinibandDrift.Create(bands, n, ps * 1e-12, t);
+            var drift = MinibandDrift.Create(bands, n, ps * 1e-12, Temperature.FromKelvin(t));
             var limit = drift.MaxFieldVoltsPerMetre / VoltsPerMetrePerKilovoltPerCentimetre;
             var top = result.GetValue(maxField) ?? Math.Min(limit, 4 * drift.PeakFieldVoltsPerMetre / VoltsPerMetrePerKilovoltPerCentimetre);
             if (!(top > 0 && top <= limit))

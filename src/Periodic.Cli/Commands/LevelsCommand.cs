@@ -80,7 +80,7 @@ internal static class LevelsCommand
 
     public static WavefunctionGrid Grid(BoundStateSpectrum spectrum, int points, double? margin)
     {
-        var length = spectrum.Stack.ThicknessNanometres;
+        var length = spectrum.Stack.Thickness.Nanometres;
         var m = margin ?? DefaultMargin(spectrum);
         var x = new double[points];
         for (var i = 0; i < points; i++)
@@ -99,7 +99,7 @@ internal static class LevelsCommand
     /// <summary>Three decay lengths 1/κ of the least-bound level in the slower-decaying lead, at most the stack's thickness (and 1 nm at least).</summary>
     public static double DefaultMargin(BoundStateSpectrum spectrum)
     {
-        var length = spectrum.Stack.ThicknessNanometres;
+        var length = spectrum.Stack.Thickness.Nanometres;
         if (spectrum.Levels.Count == 0)
         {
             return Math.Max(1, 0.25 * length);
@@ -187,7 +187,7 @@ internal static class LevelsCommand
             table.Add(level.Index + 1, level.EnergyElectronVolts, level.ErrorElectronVolts, level.NodeCount, spectrum.ContinuumEdgeElectronVolts - level.EnergyElectronVolts, level.IsResolved);
         }
         var title = Common.TableTitle(structure, unit) + string.Create(CultureInfo.InvariantCulture,
-            $"Stack: {source}: {StackOptions.Describe(stack)}; {stack.ThicknessNanometres:G6} nm between leads V = {stack.LeftLead.Potential.ElectronVolts:G6} / {stack.RightLead.Potential.ElectronVolts:G6} eV\n")
+            $"Stack: {source}: {StackOptions.Describe(stack)}; {stack.Thickness.Nanometres:G6} nm between leads V = {stack.LeftLead.Potential.ElectronVolts:G6} / {stack.RightLead.Potential.ElectronVolts:G6} eV\n")
             + string.Create(CultureInfo.InvariantCulture, $"{Common.Plural(spectrum.TotalCount, "bound state")} below the continuum edge {spectrum.ContinuumEdgeElectronVolts:G6} eV (oscillation count); binding: edge minus level.\n")
             + (grid is not null ? "Wavefunctions: use --json or --csv for the grid.\n" : "");
         Common.EmitTable(table, format, title, outPath);

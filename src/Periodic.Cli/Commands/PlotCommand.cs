@@ -119,7 +119,7 @@ internal static class PlotCommand
                 "profile" => Profile(structure, n, p ?? 3),
                 "stack" => Stack(structure, stackPeriods, TransmissionCommand.ChooseBias(u, structure)),
                 "iv" => CurrentVoltage(structure, stackPeriods, IvBias(u, structure), mu!.Value,
-                    t ?? structure.Materials?.TemperatureKelvin ?? throw new UsageException("give --temperature K (the structure file has no material temperature).")),
+                    t ?? structure.Materials?.Temperature.Kelvin ?? throw new UsageException("give --temperature K (the structure file has no material temperature).")),
                 _ => Transmission(structure, n, stackPeriods, energies, TransmissionCommand.ChooseBias(u, structure)),
             };
             Save(plot, path, extension, w, h);
@@ -381,7 +381,7 @@ internal static class PlotCommand
     {
         var (layers, source) = StackOptions.Choose(structure, periods, null, null);
         var (xs, vs) = StackOptions.Profile(layers, bias.ElectronVolts);
-        var length = layers.ThicknessNanometres;
+        var length = layers.Thickness.Nanometres;
         var leftEdge = layers.LeftLead.Potential.ElectronVolts;
         var rightEdge = layers.RightLead.Potential.ElectronVolts - bias.ElectronVolts;
         var all = vs.Append(leftEdge).Append(rightEdge).ToArray();

@@ -115,7 +115,7 @@ internal static class ResonancesCommand
             table.Add(i + 1, r.EnergyElectronVolts, r.PeakTransmission, r.WidthElectronVolts, r.HasWidth ? r.LifetimeSeconds : double.NaN);
         }
         var title = Common.TableTitle(structure, unit) + string.Create(CultureInfo.InvariantCulture,
-            $"Stack: {source}: {StackOptions.Describe(stack)}; {stack.ThicknessNanometres:G6} nm, bias eU = {transmission.Bias.ElectronVolts:G6} eV; window {spectrum.LowerElectronVolts:G6} to {spectrum.UpperElectronVolts:G6} eV\n")
+            $"Stack: {source}: {StackOptions.Describe(stack)}; {stack.Thickness.Nanometres:G6} nm, bias eU = {transmission.Bias.ElectronVolts:G6} eV; window {spectrum.LowerElectronVolts:G6} to {spectrum.UpperElectronVolts:G6} eV\n")
             + "width: full width at half maximum; lifetime hbar/width (Breit-Wigner); n/a (empty in CSV) where T stays above half on a side.\n";
         Common.EmitTable(table, format, title, outPath);
     }

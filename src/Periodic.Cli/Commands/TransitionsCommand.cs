@@ -158,7 +158,7 @@ internal static class TransitionsCommand
                 w.WriteNumber("referenceMass", spectrum.ReferenceMassElectronMasses);
                 w.WriteNumber("normalisationError", spectrum.NormalisationError);
                 w.WriteStartObject("stack");
-                w.WriteNumber("thickness", spectrum.Stack.ThicknessNanometres);
+                w.WriteNumber("thickness", spectrum.Stack.Thickness.Nanometres);
                 Common.Leads(w, spectrum.Stack);
                 w.WriteEndObject();
                 w.WriteStartArray("levels");
@@ -306,7 +306,7 @@ internal static class TransitionsCommand
         {
             return table.ToCsv();
         }
-        var text = Common.TableTitle(structure) + string.Create(CultureInfo.InvariantCulture, $"interband at {recipe.TemperatureKelvin:G6} K, leads of {lead.Name}\n");
+        var text = Common.TableTitle(structure) + string.Create(CultureInfo.InvariantCulture, $"interband at {recipe.Temperature.Kelvin:G6} K, leads of {lead.Name}\n");
         if (spectrum.Edge is { } e)
         {
             text += string.Create(CultureInfo.InvariantCulture,

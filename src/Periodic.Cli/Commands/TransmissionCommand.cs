@@ -182,7 +182,7 @@ internal static class TransmissionCommand
             table.Add(r.EnergyElectronVolts, r.Transmission, r.Reflection, r.Log10Transmission);
         }
         var title = Common.TableTitle(structure, unit) + string.Create(CultureInfo.InvariantCulture,
-            $"Stack: {source}: {Physics.StackOptions.Describe(layers)}; {stack.Stack.ThicknessNanometres:G6} nm, leads V = {lead.Potential.ElectronVolts:G6} eV, m = {lead.Mass.ElectronMasses:G6} m0, bias eU = {stack.Bias.ElectronVolts:G6} eV\n")
+            $"Stack: {source}: {Physics.StackOptions.Describe(layers)}; {stack.Stack.Thickness.Nanometres:G6} nm, leads V = {lead.Potential.ElectronVolts:G6} eV, m = {lead.Mass.ElectronMasses:G6} m0, bias eU = {stack.Bias.ElectronVolts:G6} eV\n")
             + "log10 T: empty in CSV (null in JSON) where T = 0 (a lead closed).\n";
         Common.EmitTable(table, format, title, outPath);
     }

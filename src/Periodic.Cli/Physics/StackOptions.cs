@@ -72,14 +72,14 @@ internal sealed class StackOptions
     public static string Describe(LayerStack stack) =>
         string.Join(", ", stack.Parts.Select(p => p.IsRepeatedCell
             ? string.Create(CultureInfo.InvariantCulture, $"{p.Repetitions} x cell ({Common.Plural(p.Cell!.Elements.Count, "element")})")
-            : p.Element is DeltaBarrier ? "delta" : string.Create(CultureInfo.InvariantCulture, $"layer {p.ThicknessNanometres:G6} nm")));
+            : p.Element is DeltaBarrier ? "delta" : string.Create(CultureInfo.InvariantCulture, $"layer {p.Thickness.Nanometres:G6} nm")));
 
     /// <summary>V(x) of the stack as (x, V) corners, layer by layer, x from 0 at the left lead; under a bias the potential falls by eU·x/L.</summary>
     public static (double[] X, double[] V) Profile(LayerStack stack, double bias)
     {
         var xs = new List<double>();
         var vs = new List<double>();
-        var length = stack.ThicknessNanometres;
+        var length = stack.Thickness.Nanometres;
         double Tilt(double x) => length > 0 ? -bias * x / length : 0;
         var x = 0.0;
         void Add(CellElement element)

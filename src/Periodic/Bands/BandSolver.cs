@@ -34,12 +34,12 @@ public static class BandSolver
     /// <param name="cell">The cell.</param>
     /// <param name="count">Number of bands, 1 to 10,000.</param>
     /// <param name="relativeTolerance">For smooth segments: the relative edge tolerance of the refinement, in [1e-14, 1e-2]
-    /// (<see cref="RefinedBandStructure.DefaultRelativeTolerance"/> by default); cells without segments are solved to the
+    /// (<see cref="RefinementOptions.DefaultRelativeTolerance"/> by default); cells without segments are solved to the
     /// band search's own tolerances.</param>
     /// <exception cref="ArgumentNullException"><paramref name="cell"/> is null.</exception>
     /// <exception cref="ArgumentOutOfRangeException">A value lies outside its range.</exception>
     /// <exception cref="BandSearchException">A band search could not complete.</exception>
-    public static BandSolution Compute(UnitCell cell, int count, double relativeTolerance = RefinedBandStructure.DefaultRelativeTolerance)
+    public static BandSolution Compute(UnitCell cell, int count, double relativeTolerance = RefinementOptions.DefaultRelativeTolerance)
     {
         ArgumentNullException.ThrowIfNull(cell);
         Preconditions.CheckRange(count, 1, 10000);
@@ -59,7 +59,7 @@ public static class BandSolver
                 Spectral = spectral,
             };
         }
-        var refined = RefinedBandStructure.Compute(cell, count, relativeTolerance);
+        var refined = RefinedBandStructure.Compute(cell, count, RefinementOptions.Create(relativeTolerance));
         return FromRefined(refined);
     }
 
@@ -68,7 +68,7 @@ public static class BandSolver
     /// <exception cref="ArgumentOutOfRangeException">More than 10,000 bands lie below the limit, the limit is outside the
     /// model's energy range, or the tolerance is outside [1e-14, 1e-2].</exception>
     /// <exception cref="BandSearchException">A band search could not complete.</exception>
-    public static BandSolution ComputeBelow(UnitCell cell, Energy energyLimit, double relativeTolerance = RefinedBandStructure.DefaultRelativeTolerance)
+    public static BandSolution ComputeBelow(UnitCell cell, Energy energyLimit, double relativeTolerance = RefinementOptions.DefaultRelativeTolerance)
     {
         ArgumentNullException.ThrowIfNull(cell);
         Preconditions.CheckRange(relativeTolerance, 1e-14, 1e-2);

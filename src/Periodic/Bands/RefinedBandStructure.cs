@@ -33,12 +33,6 @@ namespace Periodic.Bands;
 /// </remarks>
 public sealed class RefinedBandStructure
 {
-    /// <summary>Default relative tolerance.</summary>
-    public const double DefaultRelativeTolerance = 1e-11;
-
-    /// <summary>Default largest number of step halvings.</summary>
-    public const int DefaultMaxRefinements = 12;
-
     private const double SafetyFactor = 2.0;
 
     private readonly double[] _errors;
@@ -90,28 +84,28 @@ public sealed class RefinedBandStructure
     /// <summary>The energy scale S of the tolerance test, eV.</summary>
     public double EnergyScaleElectronVolts { get; }
 
-    /// <summary>Computes the lowest <paramref name="count"/> bands of <paramref name="cell"/> to <paramref name="relativeTolerance"/>.</summary>
+    /// <summary>Computes the lowest <paramref name="count"/> bands of <paramref name="cell"/> to the tolerance of <paramref name="options"/>.</summary>
     /// <param name="cell">The cell; its smooth segments (Fourier, function, sampled) are refined, its layers and deltas are exact.</param>
     /// <param name="count">Number of bands, 1 to 10,000.</param>
-    /// <param name="relativeTolerance">In [1e-14, 1e-2].</param>
-    /// <param name="maxRefinements">Step halvings allowed, 1 to 30.</param>
+    /// <param name="options">Tolerance and budget; null means <see cref="RefinementOptions.Default"/>.</param>
     /// <exception cref="ArgumentNullException"><paramref name="cell"/> is null.</exception>
-    /// <exception cref="ArgumentOutOfRangeException">A value lies outside its range.</exception>
+    /// <exception cref="ArgumentOutOfRangeException"><paramref name="count"/> lies outside its range.</exception>
     /// <exception cref="BandSearchException">A band search could not complete.</exception>
-    public static RefinedBandStructure Compute(UnitCell cell, int count, double relativeTolerance = DefaultRelativeTolerance, int maxRefinements = DefaultMaxRefinements)
+    public static RefinedBandStructure Compute(UnitCell cell, int count, RefinementOptions? options = null)
     {
         ArgumentNullException.ThrowIfNull(cell);
         Preconditions.CheckRange(count, 1, 10000);
-        Preconditions.CheckRange(relativeTolerance, 1e-14, 1e-2);
-        Preconditions.CheckRange(maxRefinements, 1, 30);
+        options ??= RefinementOptions.Default;
+        var relativeTolerance = options.RelativeTolerance;
+        var maxRefinements = options.MaxRefinements;
         var k = cell.ZoneBoundaryPerNanometre;
         var scale = Math.Max(cell.MaximumPotential.ElectronVolts - cell.MinimumPotential.ElectronVolts,
             PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2 * k * k / cell.MinimumMass.ElectronMasses);
         // The search must resolve far below the requested tolerance, on the energy scale of this cell (which
         // for an atom in an optical lattice is ~1e-11 eV, far from the eV default).
-        var options = BandSearchOptions.Create(Math.Min(1e-14, relativeTolerance * 1e-2),
+        var search = BandSearchOptions.Create(Math.Min(1e-14, relativeTolerance * 1e-2),
             Math.Clamp(1e-3 * relativeTolerance * scale, 1e-300, 1.0));
-        var current = BandStructure.Compute(cell, count, options);
+        var current = BandStructure.Compute(cell, count, search);
         if (!cell.Elements.Any(e => e is IMeshedSegment))
         {
             return new RefinedBandStructure(current, SearchErrors(current), relativeTolerance, 0, true, false, 0, scale);
@@ -126,7 +120,7 @@ public sealed class RefinedBandStructure
                 break; // every segment is at its step limit
             }
             cell = refined;
-            var next = BandStructure.Compute(cell, count, options);
+            var next = BandStructure.Compute(cell, count, search);
             var steps = StepCount(cell);
             var settled = true;
             var roundingLimited = false;

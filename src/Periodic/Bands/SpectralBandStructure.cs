@@ -129,7 +129,7 @@ public sealed class SpectralBandStructure
         // The transfer matrix serves E(k) and the count check inside narrow deep-lattice bands: its Magnus error must stay
         // well below their widths, so the mesh follows the local wavenumber √(depth/E_R)·π/d as well as the harmonics.
         var recoil = FourierSegment.RecoilEnergy(segment.Width, segment.Mass).ElectronVolts;
-        var spread = segment.MaximumPotentialElectronVolts - segment.MinimumPotentialElectronVolts;
+        var spread = segment.MaximumPotential.ElectronVolts - segment.MinimumPotential.ElectronVolts;
         var steps = 4.0 * segment.StepCount * Math.Max(1, Math.Sqrt(spread / recoil) / 2);
         var fine = UnitCell.Create(segment.WithStepCount((int)Math.Min(steps, 4_000_000)));
         var bands = BandStructure.FromEdges(CellTransfer.Create(fine), edges, errors);

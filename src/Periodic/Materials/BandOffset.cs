@@ -2,6 +2,7 @@
 // Copyright (c) 2026 Periodic contributors
 
 using System.Globalization;
+using Periodic.Units;
 
 namespace Periodic.Materials;
 
@@ -50,14 +51,14 @@ public readonly record struct BandOffset
     /// <summary>The offsets from <paramref name="first"/> to <paramref name="second"/> at temperature T.</summary>
     /// <exception cref="ArgumentNullException">A material is null.</exception>
     /// <exception cref="ArgumentOutOfRangeException">T is outside 0–1000 K, or a gap would not be positive.</exception>
-    public static BandOffset Between(Material first, Material second, double temperatureKelvin)
+    public static BandOffset Between(Material first, Material second, Temperature temperature)
     {
         ArgumentNullException.ThrowIfNull(first);
         ArgumentNullException.ThrowIfNull(second);
-        double g1 = first.BandGapElectronVolts(temperatureKelvin), g2 = second.BandGapElectronVolts(temperatureKelvin);
+        double g1 = first.BandGapElectronVolts(temperature), g2 = second.BandGapElectronVolts(temperature);
         var valence = second.ValenceBandOffsetElectronVolts - first.ValenceBandOffsetElectronVolts;
         var conduction = (second.ValenceBandOffsetElectronVolts + g2) - (first.ValenceBandOffsetElectronVolts + g1);
-        return new BandOffset(first.Name, second.Name, temperatureKelvin, conduction, valence, g2 - g1);
+        return new BandOffset(first.Name, second.Name, temperature.Kelvin, conduction, valence, g2 - g1);
     }
 
     /// <inheritdoc />

@@ -56,8 +56,8 @@ public sealed class BuiltStructure
     /// <summary>The carrier described.</summary>
     public Carrier Carrier => Recipe.Carrier;
 
-    /// <summary>Temperature, K.</summary>
-    public double TemperatureKelvin => Recipe.TemperatureKelvin;
+    /// <summary>The lattice temperature of the recipe.</summary>
+    public Temperature Temperature => Recipe.Temperature;
 
     /// <summary>Warnings found while building (thin layers, lattice mismatch, indirect layers, single-band holes). Empty when none.</summary>
     public IReadOnlyList<ModelWarning> Warnings { get; }
@@ -119,7 +119,7 @@ public sealed class BuiltStructure
     public Layer LayerOf(Material material, Length width)
     {
         ArgumentNullException.ThrowIfNull(material);
-        var gap = material.BandGapElectronVolts(TemperatureKelvin);
+        var gap = material.BandGapElectronVolts(Temperature);
         var vbo = material.ValenceBandOffsetElectronVolts;
         double potential, mass;
         switch (Carrier)
@@ -143,7 +143,7 @@ public sealed class BuiltStructure
     {
         var text = new StringBuilder();
         text.Append(CultureInfo.InvariantCulture,
-            $"BuiltStructure: {_layers.Length} layer(s), period {Cell.Period.Nanometres:G6} nm, {TemperatureKelvin:G6} K, {DescribeCarrier()}, reference {ReferenceElectronVolts:F4} eV ({(Carrier == Carrier.Electron ? "lowest Ec" : "highest Ev")})");
+            $"BuiltStructure: {_layers.Length} layer(s), period {Cell.Period.Nanometres:G6} nm, {Temperature.Kelvin:G6} K, {DescribeCarrier()}, reference {ReferenceElectronVolts:F4} eV ({(Carrier == Carrier.Electron ? "lowest Ec" : "highest Ev")})");
         foreach (var layer in _layers)
         {
             text.AppendLine().Append("  ").Append(layer);
@@ -162,7 +162,7 @@ public sealed class BuiltStructure
         {
             throw new InvalidOperationException("The recipe has no layers; add at least one with Add before Build.");
         }
-        var t = recipe.TemperatureKelvin;
+        var t = recipe.Temperature;
         var carrier = recipe.Carrier;
         var substrate = recipe.Substrate ?? recipeLayers[0].Material;
         var n = recipeLayers.Count;

@@ -150,30 +150,31 @@ public sealed class Material
     /// (Y. P. Varshni, Physica 34, 149 (1967)), eV.
     /// </summary>
     /// <exception cref="ArgumentOutOfRangeException">T is outside 0–1000 K, or the law gives a gap that is not positive.</exception>
-    public double BandGapElectronVolts(double temperatureKelvin)
+    public double BandGapElectronVolts(Temperature temperature)
     {
-        CheckTemperature(temperatureKelvin);
+        var temperatureKelvin = temperature.Kelvin;
+        CheckTemperature(temperatureKelvin, nameof(temperature));
         var gap = BandGapAtZeroKelvinElectronVolts
             - VarshniAlphaElectronVoltsPerKelvin * temperatureKelvin * temperatureKelvin / (temperatureKelvin + VarshniBetaKelvin);
         if (!(gap > 0))
         {
-            throw new ArgumentOutOfRangeException(nameof(temperatureKelvin), temperatureKelvin,
-                $"temperatureKelvin = {Preconditions.Format(temperatureKelvin)} K gives a band gap of {Preconditions.Format(gap)} eV for {Name}; the Varshni parameters must keep the gap positive.");
+            throw new ArgumentOutOfRangeException(nameof(temperature), temperatureKelvin,
+                $"temperature = {Preconditions.Format(temperatureKelvin)} K gives a band gap of {Preconditions.Format(gap)} eV for {Name}; the Varshni parameters must keep the gap positive.");
         }
         return gap;
     }
 
     /// <summary>Conduction-band edge (Γ) on the absolute scale, E_c(T) = VBO + Eg(T), eV.</summary>
     /// <exception cref="ArgumentOutOfRangeException">T is outside 0–1000 K, or the gap would not be positive.</exception>
-    public double ConductionBandEdgeElectronVolts(double temperatureKelvin) =>
-        ValenceBandOffsetElectronVolts + BandGapElectronVolts(temperatureKelvin);
+    public double ConductionBandEdgeElectronVolts(Temperature temperature) =>
+        ValenceBandOffsetElectronVolts + BandGapElectronVolts(temperature);
 
     /// <summary>
     /// Two-band Kane non-parabolicity α = 1/Eg(T), 1/eV, for m(E) = m_edge·(1 + (E − E_c)/Eg)
     /// (E. O. Kane, J. Phys. Chem. Solids 1, 249 (1957), lowest order in (E − E_c)/Eg).
     /// </summary>
     /// <exception cref="ArgumentOutOfRangeException">T is outside 0–1000 K, or the gap would not be positive.</exception>
-    public double KaneNonParabolicityPerElectronVolt(double temperatureKelvin) => 1.0 / BandGapElectronVolts(temperatureKelvin);
+    public double KaneNonParabolicityPerElectronVolt(Temperature temperature) => 1.0 / BandGapElectronVolts(temperature);
 
     /// <summary>Relative lattice mismatch (a − a_substrate)/a_substrate to <paramref name="substrate"/>.</summary>
     /// <exception cref="ArgumentNullException"><paramref name="substrate"/> is null.</exception>
@@ -186,35 +187,38 @@ public sealed class Material
     /// <summary>Band offsets of <paramref name="other"/> relative to this material at temperature T.</summary>
     /// <exception cref="ArgumentNullException"><paramref name="other"/> is null.</exception>
     /// <exception cref="ArgumentOutOfRangeException">T is outside 0–1000 K, or a gap would not be positive.</exception>
-    public BandOffset OffsetTo(Material other, double temperatureKelvin) => BandOffset.Between(this, other, temperatureKelvin);
+    public BandOffset OffsetTo(Material other, Temperature temperature) => BandOffset.Between(this, other, temperature);
 
     /// <summary>
     /// Creates a custom material. Every value is the caller's (status <see cref="ParameterStatus.CallerSupplied"/>).
     /// </summary>
     /// <param name="name">A non-empty name.</param>
-    /// <param name="bandGapAtZeroKelvinElectronVolts">Γ gap at 0 K, positive.</param>
+    /// <param name="bandGapAtZeroKelvin">Γ gap at 0 K, positive.</param>
     /// <param name="varshniAlphaElectronVoltsPerKelvin">Varshni α, eV/K, zero or positive.</param>
-    /// <param name="varshniBetaKelvin">Varshni β, K, positive.</param>
-    /// <param name="electronMassElectronMasses">Conduction-band mass, m₀, positive.</param>
-    /// <param name="valenceBandOffsetElectronVolts">Valence-band maximum on the absolute scale, eV, finite.</param>
-    /// <param name="latticeConstantNanometres">Lattice constant, nm, positive.</param>
-    /// <param name="heavyHoleMassElectronMasses">Heavy-hole mass, m₀, positive, or null if unknown.</param>
-    /// <param name="lightHoleMassElectronMasses">Light-hole mass, m₀, positive, or null if unknown.</param>
+    /// <param name="varshniBeta">Varshni β, a positive temperature.</param>
+    /// <param name="electronMass">Conduction-band mass (not the default 0).</param>
+    /// <param name="valenceBandOffset">Valence-band maximum on the absolute scale.</param>
+    /// <param name="latticeConstant">Lattice constant, positive.</param>
+    /// <param name="heavyHoleMass">Heavy-hole mass, or null if unknown.</param>
+    /// <param name="lightHoleMass">Light-hole mass, or null if unknown.</param>
     /// <param name="isGammaValleyLowest">Whether Γ is the lowest conduction minimum.</param>
     /// <exception cref="ArgumentException">A value breaks the rule given for it (the message names it).</exception>
-    public static Material Create(string name, double bandGapAtZeroKelvinElectronVolts, double varshniAlphaElectronVoltsPerKelvin,
-        double varshniBetaKelvin, double electronMassElectronMasses, double valenceBandOffsetElectronVolts,
-        double latticeConstantNanometres, double? heavyHoleMassElectronMasses = null, double? lightHoleMassElectronMasses = null,
+    public static Material Create(string name, Energy bandGapAtZeroKelvin, double varshniAlphaElectronVoltsPerKelvin,
+        Temperature varshniBeta, EffectiveMass electronMass, Energy valenceBandOffset,
+        Length latticeConstant, EffectiveMass? heavyHoleMass = null, EffectiveMass? lightHoleMass = null,
         bool isGammaValleyLowest = true)
     {
         CheckName(name);
         var status = new ParameterStatus[BinaryStatus.Length];
         Array.Fill(status, ParameterStatus.CallerSupplied);
-        status[(int)MaterialParameter.HeavyHoleMass] = heavyHoleMassElectronMasses is null ? ParameterStatus.NotAvailable : ParameterStatus.CallerSupplied;
-        status[(int)MaterialParameter.LightHoleMass] = lightHoleMassElectronMasses is null ? ParameterStatus.NotAvailable : ParameterStatus.CallerSupplied;
-        return Checked(name, bandGapAtZeroKelvinElectronVolts, varshniAlphaElectronVoltsPerKelvin, varshniBetaKelvin,
-            electronMassElectronMasses, valenceBandOffsetElectronVolts, latticeConstantNanometres,
-            heavyHoleMassElectronMasses, lightHoleMassElectronMasses, isGammaValleyLowest, "caller", status);
+        status[(int)MaterialParameter.HeavyHoleMass] = heavyHoleMass is null ? ParameterStatus.NotAvailable : ParameterStatus.CallerSupplied;
+        status[(int)MaterialParameter.LightHoleMass] = lightHoleMass is null ? ParameterStatus.NotAvailable : ParameterStatus.CallerSupplied;
+        return Checked(name, Preconditions.CheckPositiveFinite(bandGapAtZeroKelvin.ElectronVolts, nameof(bandGapAtZeroKelvin)),
+            Preconditions.CheckNonNegativeFinite(varshniAlphaElectronVoltsPerKelvin), Preconditions.CheckPositiveFinite(varshniBeta.Kelvin, nameof(varshniBeta)),
+            CheckMass(electronMass, nameof(electronMass)), valenceBandOffset.ElectronVolts,
+            Preconditions.CheckPositiveFinite(latticeConstant.Nanometres, nameof(latticeConstant)),
+            heavyHoleMass is { } hh ? CheckMass(hh, nameof(heavyHoleMass)) : null, lightHoleMass is { } lh ? CheckMass(lh, nameof(lightHoleMass)) : null,
+            isGammaValleyLowest, "caller", status);
     }
 
     /// <summary>A copy with another name (parameters unchanged).</summary>
@@ -227,49 +231,51 @@ public sealed class Material
             LightHoleMassElectronMasses, IsGammaValleyLowest, Source, _status);
     }
 
-    /// <summary>A copy with another Γ gap at 0 K, eV (positive).</summary>
-    /// <exception cref="ArgumentOutOfRangeException">The value is not positive and finite.</exception>
-    public Material WithBandGapAtZeroKelvin(double bandGapAtZeroKelvinElectronVolts) =>
-        Override(MaterialParameter.BandGapAtZeroKelvin, gap0: Preconditions.CheckPositiveFinite(bandGapAtZeroKelvinElectronVolts));
+    /// <summary>A copy with another Γ gap at 0 K (positive).</summary>
+    /// <exception cref="ArgumentOutOfRangeException">The gap is not positive.</exception>
+    public Material WithBandGapAtZeroKelvin(Energy bandGapAtZeroKelvin) =>
+        Override(MaterialParameter.BandGapAtZeroKelvin, gap0: Preconditions.CheckPositiveFinite(bandGapAtZeroKelvin.ElectronVolts, nameof(bandGapAtZeroKelvin)));
 
-    /// <summary>A copy with other Varshni coefficients α (eV/K, ≥ 0) and β (K, &gt; 0).</summary>
+    /// <summary>A copy with other Varshni coefficients α (eV/K, ≥ 0) and β (a positive temperature).</summary>
     /// <exception cref="ArgumentOutOfRangeException">A value breaks its rule.</exception>
-    public Material WithVarshni(double varshniAlphaElectronVoltsPerKelvin, double varshniBetaKelvin)
+    public Material WithVarshni(double varshniAlphaElectronVoltsPerKelvin, Temperature varshniBeta)
     {
         Preconditions.CheckNonNegativeFinite(varshniAlphaElectronVoltsPerKelvin);
-        Preconditions.CheckPositiveFinite(varshniBetaKelvin);
+        var beta = Preconditions.CheckPositiveFinite(varshniBeta.Kelvin, nameof(varshniBeta));
         var status = (ParameterStatus[])_status.Clone();
         status[(int)MaterialParameter.VarshniAlpha] = ParameterStatus.CallerSupplied;
         status[(int)MaterialParameter.VarshniBeta] = ParameterStatus.CallerSupplied;
-        return new Material(Name, BandGapAtZeroKelvinElectronVolts, varshniAlphaElectronVoltsPerKelvin, varshniBetaKelvin,
+        return new Material(Name, BandGapAtZeroKelvinElectronVolts, varshniAlphaElectronVoltsPerKelvin, beta,
             ElectronMassElectronMasses, ValenceBandOffsetElectronVolts, LatticeConstantNanometres, HeavyHoleMassElectronMasses,
             LightHoleMassElectronMasses, IsGammaValleyLowest, Source, status);
     }
 
-    /// <summary>A copy with another conduction-band mass, m₀ (positive).</summary>
-    /// <exception cref="ArgumentOutOfRangeException">The value is not positive and finite.</exception>
-    public Material WithElectronMass(double electronMassElectronMasses) =>
-        Override(MaterialParameter.ElectronMass, electronMass: Preconditions.CheckPositiveFinite(electronMassElectronMasses));
+    /// <summary>A copy with another conduction-band mass (not the default 0).</summary>
+    /// <exception cref="ArgumentOutOfRangeException">The mass is the default 0.</exception>
+    public Material WithElectronMass(EffectiveMass electronMass) =>
+        Override(MaterialParameter.ElectronMass, electronMass: CheckMass(electronMass, nameof(electronMass)));
 
-    /// <summary>A copy with another valence-band offset on the absolute scale, eV.</summary>
-    /// <exception cref="ArgumentOutOfRangeException">The value is not finite.</exception>
-    public Material WithValenceBandOffset(double valenceBandOffsetElectronVolts) =>
-        Override(MaterialParameter.ValenceBandOffset, vbo: Preconditions.CheckFinite(valenceBandOffsetElectronVolts));
+    /// <summary>A copy with another valence-band offset on the absolute scale.</summary>
+    public Material WithValenceBandOffset(Energy valenceBandOffset) =>
+        Override(MaterialParameter.ValenceBandOffset, vbo: valenceBandOffset.ElectronVolts);
 
-    /// <summary>A copy with another lattice constant, nm (positive).</summary>
-    /// <exception cref="ArgumentOutOfRangeException">The value is not positive and finite.</exception>
-    public Material WithLatticeConstant(double latticeConstantNanometres) =>
-        Override(MaterialParameter.LatticeConstant, lattice: Preconditions.CheckPositiveFinite(latticeConstantNanometres));
+    /// <summary>A copy with another lattice constant (positive).</summary>
+    /// <exception cref="ArgumentOutOfRangeException">The lattice constant is not positive.</exception>
+    public Material WithLatticeConstant(Length latticeConstant) =>
+        Override(MaterialParameter.LatticeConstant, lattice: Preconditions.CheckPositiveFinite(latticeConstant.Nanometres, nameof(latticeConstant)));
 
-    /// <summary>A copy with another heavy-hole mass, m₀ (positive).</summary>
-    /// <exception cref="ArgumentOutOfRangeException">The value is not positive and finite.</exception>
-    public Material WithHeavyHoleMass(double heavyHoleMassElectronMasses) =>
-        Override(MaterialParameter.HeavyHoleMass, heavyHole: Preconditions.CheckPositiveFinite(heavyHoleMassElectronMasses));
+    /// <summary>A copy with another heavy-hole mass (not the default 0).</summary>
+    /// <exception cref="ArgumentOutOfRangeException">The mass is the default 0.</exception>
+    public Material WithHeavyHoleMass(EffectiveMass heavyHoleMass) =>
+        Override(MaterialParameter.HeavyHoleMass, heavyHole: CheckMass(heavyHoleMass, nameof(heavyHoleMass)));
 
-    /// <summary>A copy with another light-hole mass, m₀ (positive).</summary>
-    /// <exception cref="ArgumentOutOfRangeException">The value is not positive and finite.</exception>
-    public Material WithLightHoleMass(double lightHoleMassElectronMasses) =>
-        Override(MaterialParameter.LightHoleMass, lightHole: Preconditions.CheckPositiveFinite(lightHoleMassElectronMasses));
+    /// <summary>A copy with another light-hole mass (not the default 0).</summary>
+    /// <exception cref="ArgumentOutOfRangeException">The mass is the default 0.</exception>
+    public Material WithLightHoleMass(EffectiveMass lightHoleMass) =>
+        Override(MaterialParameter.LightHoleMass, lightHole: CheckMass(lightHoleMass, nameof(lightHoleMass)));
+
+    /// <summary>The mass in m₀; the default <see cref="EffectiveMass"/> (0) is refused naming <paramref name="paramName"/>.</summary>
+    private static double CheckMass(EffectiveMass mass, string paramName) => Preconditions.CheckPositiveFinite(mass.ElectronMasses, paramName);
 
     /// <summary>A copy that says whether Γ is the lowest conduction minimum.</summary>
     public Material WithGammaValleyLowest(bool isGammaValleyLowest) =>
@@ -315,7 +321,7 @@ public sealed class Material
     public override string ToString() => string.Create(CultureInfo.InvariantCulture,
         $"{Name}: Eg(0 K) = {BandGapAtZeroKelvinElectronVolts:G6} eV, m_e = {ElectronMassElectronMasses:G4} m0, VBO = {ValenceBandOffsetElectronVolts:G4} eV, a = {LatticeConstantNanometres * 10:G6} A");
 
-    internal static void CheckTemperature(double temperatureKelvin, string paramName = "temperatureKelvin")
+    internal static void CheckTemperature(double temperatureKelvin, string paramName = "temperature")
     {
         if (!(temperatureKelvin >= MinimumTemperatureKelvin && temperatureKelvin <= MaximumTemperatureKelvin))
         {

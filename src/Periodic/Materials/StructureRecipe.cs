@@ -37,7 +37,7 @@ public sealed class StructureRecipe
     {
         _layers = layers;
         Layers = new ReadOnlyCollection<RecipeLayer>(layers);
-        TemperatureKelvin = temperature;
+        Temperature = Temperature.FromKelvin(temperature);
         Carrier = carrier;
         IsNonParabolic = nonParabolic;
         Substrate = substrate;
@@ -48,8 +48,8 @@ public sealed class StructureRecipe
     /// <summary>The layers of one period in growth order, repetitions expanded.</summary>
     public IReadOnlyList<RecipeLayer> Layers { get; }
 
-    /// <summary>Lattice temperature, K (sets every gap by the Varshni law).</summary>
-    public double TemperatureKelvin { get; }
+    /// <summary>Lattice temperature (sets every gap by the Varshni law).</summary>
+    public Temperature Temperature { get; }
 
     /// <summary>The carrier described (electrons by default; holes in a single-band approximation).</summary>
     public Carrier Carrier { get; }
@@ -67,10 +67,12 @@ public sealed class StructureRecipe
     public ModelLimits Limits { get; }
 
     /// <summary>An empty recipe at temperature T (0–1000 K): electrons, parabolic mass, default limits.</summary>
-    /// <exception cref="ArgumentOutOfRangeException"><paramref name="temperatureKelvin"/> is outside 0–1000 K.</exception>
-    public static StructureRecipe Create(double temperatureKelvin)
+    /// <exception cref="ArgumentOutOfRangeException"><paramref name="temperature"/> is above 1000 K.</exception>
+    public static StructureRecipe Create(Temperature temperature) => Create(temperature.Kelvin, nameof(temperature));
+
+    private static StructureRecipe Create(double temperatureKelvin, string paramName)
     {
-        Material.CheckTemperature(temperatureKelvin);
+        Material.CheckTemperature(temperatureKelvin, paramName);
         return new StructureRecipe([], temperatureKelvin, Carrier.Electron, false, null, 1, ModelLimits.Default);
     }
 
@@ -81,32 +83,31 @@ public sealed class StructureRecipe
     /// InxAl1-xAs (the second fraction may be omitted; if given it must equal 1 − x).
     /// </summary>
     /// <param name="text">The recipe text.</param>
-    /// <param name="temperatureKelvin">Temperature when the text has no "at T K"; must not be given when it has.</param>
+    /// <param name="temperature">Temperature when the text has no "at T K"; must not be given when it has.</param>
     /// <exception cref="ArgumentException">The text cannot be read (the message quotes the part that failed), or the temperature is missing or given twice.</exception>
-    public static StructureRecipe Parse(string text, double? temperatureKelvin = null)
+    public static StructureRecipe Parse(string text, Temperature? temperature = null)
     {
         ArgumentNullException.ThrowIfNull(text);
         var body = text;
         var match = TemperaturePattern.Match(text);
-        double temperature;
+        double kelvin;
         if (match.Success)
         {
-            if (temperatureKelvin is not null)
+            if (temperature is { } given)
             {
                 throw new ArgumentException(
-                    $"temperatureKelvin was given ({Preconditions.Format(temperatureKelvin.Value)} K) but text \"{text}\" also sets a temperature; give it once.",
-                    nameof(temperatureKelvin));
+                    $"temperature was given ({Preconditions.Format(given.Kelvin)} K) but text \"{text}\" also sets a temperature; give it once.",
+                    nameof(temperature));
             }
-            temperature = double.Parse(match.Groups["t"].Value, CultureInfo.InvariantCulture);
+            kelvin = double.Parse(match.Groups["t"].Value, CultureInfo.InvariantCulture);
             body = text[..match.Index];
         }
         else
         {
-            temperature = temperatureKelvin ?? throw new ArgumentException(
-                $"text \"{text}\" has no temperature (\"at 77 K\") and temperatureKelvin was not given.", nameof(text));
+            kelvin = temperature?.Kelvin ?? throw new ArgumentException(
+                $"text \"{text}\" has no temperature (\"at 77 K\") and temperature was not given.", nameof(text));
         }
-        Material.CheckTemperature(temperature, nameof(temperatureKelvin));
-        var recipe = Create(temperature);
+        var recipe = Create(kelvin, nameof(temperature));
         var parts = body.Split('/');
         foreach (var part in parts)
         {
@@ -216,11 +217,11 @@ public sealed class StructureRecipe
     }
 
     /// <summary>A copy at another temperature (0–1000 K).</summary>
-    /// <exception cref="ArgumentOutOfRangeException"><paramref name="temperatureKelvin"/> is outside 0–1000 K.</exception>
-    public StructureRecipe WithTemperature(double temperatureKelvin)
+    /// <exception cref="ArgumentOutOfRangeException"><paramref name="temperature"/> is above 1000 K.</exception>
+    public StructureRecipe WithTemperature(Temperature temperature)
     {
-        Material.CheckTemperature(temperatureKelvin);
-        return With(temperature: temperatureKelvin);
+        Material.CheckTemperature(temperature.Kelvin, nameof(temperature));
+        return With(temperature: temperature.Kelvin);
     }
 
     /// <summary>A copy for another carrier. Holes use a single-band approximation (see <see cref="Materials.Carrier"/>).</summary>
@@ -255,7 +256,7 @@ public sealed class StructureRecipe
     }
 
     /// <summary>A copy with a substrate for the lattice-mismatch check (null: the first layer's material).</summary>
-    public StructureRecipe WithSubstrate(Material? substrate) => new(_layers, TemperatureKelvin, Carrier, IsNonParabolic, substrate, Periods, Limits);
+    public StructureRecipe WithSubstrate(Material? substrate) => new(_layers, Temperature.Kelvin, Carrier, IsNonParabolic, substrate, Periods, Limits);
 
     /// <summary>A copy recording another number of periods (1 to 100,000) for a finite stack.</summary>
     /// <exception cref="ArgumentOutOfRangeException"><paramref name="periods"/> is outside 1 to 100,000.</exception>
@@ -270,7 +271,7 @@ public sealed class StructureRecipe
     }
 
     /// <summary>
-    /// Builds the unit cell: every layer's band edges at <see cref="TemperatureKelvin"/>, potentials relative
+    /// Builds the unit cell: every layer's band edges at <see cref="Temperature"/>, potentials relative
     /// to the structure's reference (see <see cref="BuiltStructure.ReferenceElectronVolts"/>), masses, optional
     /// Kane non-parabolicity, and the validity warnings.
     /// </summary>
@@ -286,7 +287,7 @@ public sealed class StructureRecipe
         {
             text.Append(i == 0 ? "" : " / ").Append(_layers[i]);
         }
-        text.Append(CultureInfo.InvariantCulture, $" at {TemperatureKelvin:G6} K, {Carrier}, {(IsNonParabolic ? "Kane" : "parabolic")}");
+        text.Append(CultureInfo.InvariantCulture, $" at {Temperature.Kelvin:G6} K, {Carrier}, {(IsNonParabolic ? "Kane" : "parabolic")}");
         if (Periods > 1)
         {
             text.Append(CultureInfo.InvariantCulture, $", {Periods} periods");
@@ -296,6 +297,6 @@ public sealed class StructureRecipe
 
     private StructureRecipe With(RecipeLayer[]? layers = null, double? temperature = null, Carrier? carrier = null,
         bool? nonParabolic = null, int? periods = null, ModelLimits? limits = null) =>
-        new(layers ?? _layers, temperature ?? TemperatureKelvin, carrier ?? Carrier, nonParabolic ?? IsNonParabolic, Substrate,
+        new(layers ?? _layers, temperature ?? Temperature.Kelvin, carrier ?? Carrier, nonParabolic ?? IsNonParabolic, Substrate,
             periods ?? Periods, limits ?? Limits);
 }

@@ -78,7 +78,7 @@ public sealed class AbsorptionSpectrum
     public IReadOnlyList<string> Warnings { get; }
 
     /// <summary>The length α is averaged over: the stack thickness, nm.</summary>
-    public double ThicknessNanometres => Spectrum.Stack.ThicknessNanometres;
+    public double ThicknessNanometres => Spectrum.Stack.Thickness.Nanometres;
 
     /// <summary>Computes the spectrum of <paramref name="spectrum"/> under <paramref name="options"/>.</summary>
     /// <exception cref="ArgumentNullException">An argument is null.</exception>

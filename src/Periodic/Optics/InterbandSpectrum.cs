@@ -128,7 +128,7 @@ public sealed class InterbandSpectrum
             windows.Add((h.Profile, h.Spectrum.Levels[0].EnergyElectronVolts, h.Spectrum.Levels[^1].EnergyElectronVolts));
         }
         var grid = LayerIntegrals.Create(profileE, windows);
-        var length = stackE.ThicknessNanometres;
+        var length = stackE.Thickness.Nanometres;
         var electronStates = Sample(grid, electrons, stackE, length);
         var electronAbsolute = electrons.Levels.Select(l => builtE.ToAbsoluteElectronVolts(l.EnergyElectronVolts)).ToArray();
         var transitions = new List<InterbandTransition>();
@@ -200,7 +200,7 @@ public sealed class InterbandSpectrum
     {
         var text = new StringBuilder();
         text.Append(CultureInfo.InvariantCulture,
-            $"Interband spectrum at {Recipe.TemperatureKelvin:G6} K: {Electrons.Levels.Count} electron, {HeavyHoles?.Levels.Count ?? 0} heavy-hole, {LightHoles?.Levels.Count ?? 0} light-hole level(s)");
+            $"Interband spectrum at {Recipe.Temperature.Kelvin:G6} K: {Electrons.Levels.Count} electron, {HeavyHoles?.Levels.Count ?? 0} heavy-hole, {LightHoles?.Levels.Count ?? 0} light-hole level(s)");
         if (Edge is { } edge)
         {
             text.AppendLine().Append(CultureInfo.InvariantCulture, $"  edge {edge} (excitons not modelled: ± {ExcitonErrorElectronVolts * 1000:G3} meV)");

@@ -330,7 +330,7 @@ public sealed class IntersubbandSpectrum
         }
         var values = new double[grid.Count];
         wave.Evaluate(positions, values);
-        var middle = 0.5 * stack.ThicknessNanometres;
+        var middle = 0.5 * stack.Thickness.Nanometres;
         double z = 0;
         for (var q = 0; q < positions.Length; q++)
         {

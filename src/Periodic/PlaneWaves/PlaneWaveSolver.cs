@@ -84,7 +84,7 @@ public sealed class PlaneWaveSolver
     public static PlaneWaveSolver Create(FourierSegment segment)
     {
         ArgumentNullException.ThrowIfNull(segment);
-        return new PlaneWaveSolver(segment.Width.Nanometres, segment.ConstantElectronVolts, segment.CosineElectronVolts.ToArray(),
+        return new PlaneWaveSolver(segment.Width.Nanometres, segment.Constant.ElectronVolts, segment.CosineElectronVolts.ToArray(),
             segment.SineElectronVolts.ToArray(), 1.0 / segment.Mass.ElectronMasses, [], []);
     }
 
@@ -115,13 +115,13 @@ public sealed class PlaneWaveSolver
         // The inverse-mass series has the same form as a potential series; reuse its checks and range scan.
         var inverse = FourierSegment.Create(period, Energy.FromElectronVolts(inverseMassConstantPerElectronMass), inverseMassCosinePerElectronMass,
             inverseMassSinePerElectronMass, EffectiveMass.FreeElectron, 1);
-        if (!(inverse.MinimumPotentialElectronVolts > 0))
+        if (!(inverse.MinimumPotential.ElectronVolts > 0))
         {
             throw new ArgumentOutOfRangeException(nameof(inverseMassConstantPerElectronMass), inverseMassConstantPerElectronMass,
-                $"the inverse mass 1/m(x) must be positive everywhere; its series reaches {Preconditions.Format(inverse.MinimumPotentialElectronVolts)} /m0.");
+                $"the inverse mass 1/m(x) must be positive everywhere; its series reaches {Preconditions.Format(inverse.MinimumPotential.ElectronVolts)} /m0.");
         }
-        return new PlaneWaveSolver(period.Nanometres, potential.ConstantElectronVolts, potential.CosineElectronVolts.ToArray(), potential.SineElectronVolts.ToArray(),
-            inverse.ConstantElectronVolts, inverse.CosineElectronVolts.ToArray(), inverse.SineElectronVolts.ToArray());
+        return new PlaneWaveSolver(period.Nanometres, potential.Constant.ElectronVolts, potential.CosineElectronVolts.ToArray(), potential.SineElectronVolts.ToArray(),
+            inverse.Constant.ElectronVolts, inverse.CosineElectronVolts.ToArray(), inverse.SineElectronVolts.ToArray());
     }
 
     private static void CheckFiniteSeries(ReadOnlySpan<double> values, string paramName)

@@ -47,24 +47,11 @@ public sealed class BlochFunction
 {
     private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
 
-    // Pieces of the cell in order: uniform layers (closed form inside) and the Magnus steps of smooth segments
-    // (cubic Hermite inside). Left-end states in _u/_w; steps also keep their right-end state and end masses.
-    private readonly double[] _starts;
-    private readonly double[] _widths;
-    private readonly double[] _s;
-    private readonly double[] _masses;
-    private readonly CompiledCell _kernel;
-    private readonly int[] _elements;
-    private readonly double[] _massesRight;
-    private readonly bool[] _isStep;
-    private readonly Complex[] _u;
-    private readonly Complex[] _w;
-    private readonly Complex[] _uRight;
-    private readonly Complex[] _wRight;
+    // The kernel's per-piece store at this energy: uniform layers (closed form inside) and the Magnus steps of smooth
+    // segments (cubic Hermite inside), with the normalised states at their ends.
+    private readonly CellPieces _pieces;
     private readonly Complex _end;
     private readonly Complex _endW;
-    private readonly int _bridged;
-    private readonly Complex _bridgeRight;
 
     private const double Epsilon = FloatingPoint.MachineEpsilon;
 
@@ -74,28 +61,15 @@ public sealed class BlochFunction
     /// <summary>Safety factor on the change under one step halving: the error of a fourth-order result is 16/15 of it.</summary>
     private const double HalvingSafetyFactor = 2.0;
 
-    private BlochFunction(CompiledCell kernel, double errorEstimate, int bandIndex, double k, double energy, double period, Pieces pieces, Complex end, Complex endW, Complex origin, Complex originW, int bridged, Complex bridgeRight)
+    private BlochFunction(double errorEstimate, int bandIndex, double k, double energy, double period, CellPieces pieces, Complex end, Complex endW, Complex origin, Complex originW)
     {
-        _kernel = kernel;
-        _elements = pieces.Elements;
-        _bridged = bridged;
-        _bridgeRight = bridgeRight;
+        _pieces = pieces;
         StateAtOrigin = (origin, originW);
         RelativeErrorEstimate = errorEstimate;
         BandIndex = bandIndex;
         WavevectorPerNanometre = k;
         EnergyElectronVolts = energy;
         PeriodNanometres = period;
-        _starts = pieces.Starts;
-        _widths = pieces.Widths;
-        _s = pieces.S;
-        _masses = pieces.Masses;
-        _massesRight = pieces.MassesRight;
-        _isStep = pieces.IsStep;
-        _u = pieces.U;
-        _w = pieces.W;
-        _uRight = pieces.URight;
-        _wRight = pieces.WRight;
         _end = end;
         _endW = endW;
     }
@@ -206,35 +180,14 @@ public sealed class BlochFunction
     private double LargestDifference(BlochFunction other)
     {
         var largest = 0.0;
-        for (var i = 0; i < _starts.Length; i++)
+        for (var i = 0; i < _pieces.Count; i++)
         {
-            foreach (var x in (ReadOnlySpan<double>)[_starts[i], _starts[i] + 0.5 * _widths[i]])
+            foreach (var x in (ReadOnlySpan<double>)[_pieces.Starts[i], _pieces.Starts[i] + 0.5 * _pieces.Widths[i]])
             {
                 largest = Math.Max(largest, (StateAt(x).Psi - other.StateAt(x).Psi).Magnitude);
             }
         }
         return Math.Max(largest, (_end - other._end).Magnitude);
-    }
-
-    /// <summary>Per-piece storage while a Bloch function is built.</summary>
-    private sealed class Pieces(int count)
-    {
-        internal double[] Starts { get; } = new double[count];
-
-        /// <summary>The kernel element each piece belongs to.</summary>
-        internal int[] Elements { get; } = new int[count];
-        internal double[] Widths { get; } = new double[count];
-        internal double[] S { get; } = new double[count];
-        internal double[] Masses { get; } = new double[count];
-        internal double[] MassesRight { get; } = new double[count];
-        internal bool[] IsStep { get; } = new bool[count];
-        internal Complex[] U { get; } = new Complex[count];
-        internal Complex[] W { get; } = new Complex[count];
-        internal Complex[] URight { get; } = new Complex[count];
-        internal Complex[] WRight { get; } = new Complex[count];
-
-        /// <summary>Step matrices exp Ω (4 per piece, steps only).</summary>
-        internal double[] Matrices { get; } = new double[4 * count];
     }
 
     private static BlochFunction Build(BandStructure structure, UnitCell cell, CellTransfer transfer, int bandIndex, double wavevectorPerNanometre, double energy)
@@ -246,226 +199,39 @@ public sealed class BlochFunction
             throw new PrecisionLimitException(string.Create(CultureInfo.InvariantCulture,
                 $"the transfer matrix of the cell at {energy:R} eV exceeds the double range; the Bloch function cannot be propagated through barriers this opaque."));
         }
-        // Per-piece data; the opacity Σκw of the evanescent layers and steps sets the rounding of forward propagation.
-        var compiled = transfer.Compiled;
-        var pieceCount = 0;
-        for (var el = 0; el < compiled.Count; el++)
-        {
-            pieceCount += compiled.IsLayer(el) ? 1 : compiled.IsDelta(el) ? 0 : compiled.Segment(el).Mesh.StepCount;
-        }
-        var pieces = new Pieces(pieceCount);
-        var starts = pieces.Starts;
-        var widths = pieces.Widths;
-        var s = pieces.S;
-        var masses = pieces.Masses;
-        var matrices = pieces.Matrices;
-        double opacity = 0, thickest = 0, x = 0, massLength = 0; // massLength = ∫m dx = m̄d
-        var thickIndex = -1;
-        var index = 0;
-        for (var el = 0; el < compiled.Count; el++)
-        {
-            if (compiled.IsDelta(el))
-            {
-                continue;
-            }
-            if (!compiled.IsLayer(el))
-            {
-                var mesh = compiled.Segment(el).Mesh;
-                for (var j = 0; j < mesh.StepCount; j++, index++)
-                {
-                    MagnusSegmentPropagator.StepMatrix(mesh, j, energy,
-                        out matrices[4 * index], out matrices[4 * index + 1], out matrices[4 * index + 2], out matrices[4 * index + 3], out var zeta);
-                    pieces.IsStep[index] = true;
-                    pieces.Elements[index] = el;
-                    (masses[index], pieces.MassesRight[index]) = mesh.EndMasses(j);
-                    widths[index] = mesh.StepWidth(j);
-                    massLength += 0.5 * (masses[index] + pieces.MassesRight[index]) * widths[index];
-                    starts[index] = x;
-                    x += widths[index];
-                    if (zeta < 0)
-                    {
-                        opacity += Math.Sqrt(-zeta); // κh of the step; smooth barriers are never bridged
-                    }
-                }
-                continue;
-            }
-            compiled.LayerCoefficients(el, energy, out masses[index], out s[index]);
-            pieces.Elements[index] = el;
-            pieces.MassesRight[index] = masses[index];
-            widths[index] = compiled.LayerData(el).Width;
-            massLength += masses[index] * widths[index];
-            starts[index] = x;
-            x += widths[index];
-            if (s[index] < 0)
-            {
-                var kw = Math.Sqrt(-s[index]) * widths[index];
-                opacity += kw;
-                if (kw > thickest)
-                {
-                    thickest = kw;
-                    thickIndex = index;
-                }
-            }
-            index++;
-        }
-        var errorEstimate = Epsilon * Math.Exp(opacity);
+        // The opacity Σκw of the evanescent layers and steps sets the rounding of forward propagation.
+        var pieces = CellPieces.Create(transfer.Compiled, energy);
+        var errorEstimate = Epsilon * Math.Exp(pieces.Opacity);
+        var bridged = -1;
         if (!(errorEstimate <= MaxRelativeErrorEstimate))
         {
             // Two-sided construction: the thickest barrier is bridged by interpolating ψ between its interface
             // values, reached forwards from the origin and backwards from the Bloch-shifted end state.
-            errorEstimate = Epsilon * Math.Exp(opacity - thickest);
+            errorEstimate = Epsilon * Math.Exp(pieces.Opacity - pieces.ThickestOpacity);
             if (!(errorEstimate <= MaxRelativeErrorEstimate))
             {
                 throw new PrecisionLimitException(string.Create(CultureInfo.InvariantCulture,
-                    $"the barriers of the cell are too opaque at {energy:R} eV for a propagated Bloch function: the summed decay exponent outside the thickest uniform barrier is {opacity - thickest:G4}, so the relative rounding error would reach {errorEstimate:G3} (the limit is {MaxRelativeErrorEstimate:G1})."));
+                    $"the barriers of the cell are too opaque at {energy:R} eV for a propagated Bloch function: the summed decay exponent outside the thickest uniform barrier is {pieces.Opacity - pieces.ThickestOpacity:G4}, so the relative rounding error would reach {errorEstimate:G3} (the limit is {MaxRelativeErrorEstimate:G1})."));
             }
-        }
-        else
-        {
-            thickIndex = -1;
+            bridged = pieces.ThickestIndex;
         }
         var lambda = Complex.FromPolarCoordinates(1, wavevectorPerNanometre * d);
-        var (u0, w0) = Eigenvector(structure, bandIndex, m, lambda, massLength / Math.PI);
+        var (u0, w0) = Eigenvector(structure, bandIndex, m, lambda, pieces.MassLength / Math.PI);
 
-        // Forward from the origin (up to the bridged barrier, if any), recording each piece's end states.
-        var us = pieces.U;
-        var ws = pieces.W;
-        Complex u = u0, w = w0, right = Complex.Zero;
-        index = 0;
-        for (var el = 0; el < compiled.Count; el++)
+        // Forward from the origin (up to the bridged barrier, if any), then backwards from ψ(d) = e^{ikd}ψ(0) down to it.
+        var end = pieces.PropagateForward(u0, w0, bridged);
+        if (bridged >= 0)
         {
-            if (index == thickIndex && compiled.IsLayer(el))
-            {
-                us[index] = u;
-                ws[index] = w;
-                break;
-            }
-            switch (compiled.IsDelta(el) ? 0 : compiled.IsLayer(el) ? 1 : 2)
-            {
-                case 0:
-                    w += compiled.DeltaJump(el) * u;
-                    break;
-                case 1:
-                {
-                    us[index] = u;
-                    ws[index] = w;
-                    (u, w) = LayerState(compiled, el, energy, u, w, widths[index]);
-                    index++;
-                    break;
-                }
-                default:
-                    for (var j = 0; j < compiled.Segment(el).Mesh.StepCount; j++, index++)
-                    {
-                        us[index] = u;
-                        ws[index] = w;
-                        var at = 4 * index;
-                        (u, w) = (matrices[at] * u + matrices[at + 1] * w, matrices[at + 2] * u + matrices[at + 3] * w);
-                        pieces.URight[index] = u;
-                        pieces.WRight[index] = w;
-                    }
-                    break;
-            }
-        }
-        var end = (U: u, W: w);
-        if (thickIndex >= 0)
-        {
-            // Backwards from ψ(d) = e^{ikd}ψ(0) with the inverse matrices (unimodular: [[m22, −m12], [−m21, m11]]).
-            Complex ub = lambda * u0, wb = lambda * w0;
-            end = (ub, wb);
-            var li = pieceCount - 1;
-            for (var el = compiled.Count - 1; el >= 0; el--)
-            {
-                if (compiled.IsDelta(el))
-                {
-                    wb -= compiled.DeltaJump(el) * ub;
-                    continue;
-                }
-                if (!compiled.IsLayer(el))
-                {
-                    for (var j = compiled.Segment(el).Mesh.StepCount - 1; j >= 0; j--, li--)
-                    {
-                        pieces.URight[li] = ub;
-                        pieces.WRight[li] = wb;
-                        var at = 4 * li;
-                        (ub, wb) = (matrices[at + 3] * ub - matrices[at + 1] * wb, -matrices[at + 2] * ub + matrices[at] * wb);
-                        us[li] = ub;
-                        ws[li] = wb;
-                    }
-                    continue;
-                }
-                if (li == thickIndex)
-                {
-                    right = ub;
-                    break;
-                }
-                (ub, wb) = LayerState(compiled, el, energy, ub, wb, -widths[li]); // M(−w) = M(w)⁻¹
-                us[li] = ub;
-                ws[li] = wb;
-                li--;
-            }
-        }
-        var norm = 0.0;
-        for (var i = 0; i < pieceCount; i++)
-        {
-            if (pieces.IsStep[i])
-            {
-                // |Hermite cubic|² is a polynomial of degree 6: the 4-point Gauss–Legendre rule integrates it exactly.
-                var rule = GaussLegendre.Four;
-                for (var g = 0; g < rule.Order; g++)
-                {
-                    var psi = Hermite(0.5 + 0.5 * rule.Nodes[g], widths[i], us[i], ws[i] * masses[i], pieces.URight[i], pieces.WRight[i] * pieces.MassesRight[i], out _);
-                    norm += 0.5 * rule.Weights[g] * widths[i] * (psi.Real * psi.Real + psi.Imaginary * psi.Imaginary);
-                }
-                continue;
-            }
-            if (i == thickIndex)
-            {
-                var (i11, i12) = BridgeIntegrals(Math.Sqrt(-s[i]), widths[i]);
-                norm += (us[i].Magnitude * us[i].Magnitude + right.Magnitude * right.Magnitude) * i11 + 2 * (us[i] * Complex.Conjugate(right)).Real * i12;
-                continue;
-            }
-            UniformLayerPropagator.UnscaledValues(s[i], widths[i], out var cl, out var sl);
-            UniformLayerPropagator.SquareIntegrals(s[i], widths[i], cl, sl, out var cc, out var cs, out var ss);
-            var mass = masses[i];
-            norm += us[i].Magnitude * us[i].Magnitude * cc
-                + 2 * mass * (us[i] * Complex.Conjugate(ws[i])).Real * cs
-                + mass * mass * ws[i].Magnitude * ws[i].Magnitude * ss;
+            end = (lambda * u0, lambda * w0);
+            pieces.PropagateBackward(end.U, end.W, bridged);
         }
         // Normalise and fix the phase.
-        var scale = 1 / Math.Sqrt(norm);
+        var scale = 1 / Math.Sqrt(pieces.NormSquared());
         var phase = u0.Magnitude * scale * Math.Sqrt(d) >= 1e-6 ? Complex.Conjugate(u0) / u0.Magnitude : Complex.Conjugate(w0) / w0.Magnitude;
         var factor = scale * phase;
-        for (var i = 0; i < pieceCount; i++)
-        {
-            us[i] *= factor;
-            ws[i] *= factor;
-            pieces.URight[i] *= factor;
-            pieces.WRight[i] *= factor;
-        }
-        return new BlochFunction(compiled, errorEstimate, bandIndex, wavevectorPerNanometre, energy, d, pieces,
-            end.U * factor, end.W * factor, u0 * factor, w0 * factor, thickIndex, right * factor);
-    }
-
-    /// <summary>The cubic Hermite interpolant of a step (the kernel's basis, <see cref="MagnusSegmentPropagator.Hermite"/>) and its derivative dψ/dx.</summary>
-    private static Complex Hermite(double tau, double h, Complex psiLeft, Complex slopeLeft, Complex psiRight, Complex slopeRight, out Complex derivative)
-    {
-        var b = MagnusSegmentPropagator.Hermite(tau);
-        derivative = (b.D00 * psiLeft + b.D01 * psiRight) / h + b.D10 * slopeLeft + b.D11 * slopeRight;
-        return b.H00 * psiLeft + b.H10 * h * slopeLeft + b.H01 * psiRight + b.H11 * h * slopeRight;
-    }
-
-    /// <summary>
-    /// ∫₀^w g₁² dt (= ∫ g₂²) and ∫₀^w g₁g₂ dt for g₁ = sinh(κ(w − t))/sinh(κw), g₂ = sinh(κt)/sinh(κw), written
-    /// with e^(−2κw) so that thick barriers do not overflow: coth(κw)/(2κ) − w/(2 sinh²κw) and
-    /// (w cosh κw − sinh(κw)/κ)/(2 sinh²κw).
-    /// </summary>
-    private static (double Same, double Cross) BridgeIntegrals(double kappa, double w)
-    {
-        var q = Math.Exp(-2 * kappa * w);
-        var coth = (1 + q) / (1 - q);
-        var inverseSinhSquared = 4 * q / ((1 - q) * (1 - q));
-        var inverseSinh = 2 * Math.Sqrt(q) / (1 - q);
-        return (coth / (2 * kappa) - 0.5 * w * inverseSinhSquared, 0.5 * w * coth * inverseSinh - inverseSinh / (2 * kappa));
+        pieces.Scale(factor);
+        return new BlochFunction(errorEstimate, bandIndex, wavevectorPerNanometre, energy, d, pieces,
+            end.U * factor, end.W * factor, u0 * factor, w0 * factor);
     }
 
     private static (Complex U, Complex W) Eigenvector(BandStructure structure, int bandIndex, TransferMatrix m, Complex lambda, double sigma)
@@ -493,17 +259,6 @@ public sealed class BlochFunction
         var phase = Math.Abs(lambda.Imaginary) < 0.5 && lambda.Real > 0 ? ZonePoint.Center : ZonePoint.Boundary;
         var isTop = band.TopZonePoint == phase;
         return isTop ? (Complex.One, Complex.Zero) : (Complex.Zero, Complex.One);
-    }
-
-    /// <summary>
-    /// The complex state (u, w) = (ψ, ψ′/m) carried by <paramref name="t"/> through layer <paramref name="element"/> by the
-    /// kernel (backwards for t &lt; 0); its matrix is real, so the real and imaginary parts propagate separately.
-    /// </summary>
-    private static (Complex U, Complex W) LayerState(CompiledCell kernel, int element, double e, Complex u, Complex w, double t)
-    {
-        var (ur, wr) = kernel.LayerStateAt(element, e, u.Real, w.Real, t);
-        var (ui, wi) = kernel.LayerStateAt(element, e, u.Imaginary, w.Imaginary, t);
-        return (new Complex(ur, ui), new Complex(wr, wi));
     }
 
     /// <summary>ψ(x) in nm^(−1/2) at <paramref name="positionNanometres"/> (any real x).</summary>
@@ -603,51 +358,7 @@ public sealed class BlochFunction
     }
 
     /// <summary>(ψ, ψ′/m) at a position inside the cell, x ∈ [0, d], by propagation from the layer's left interface (no Bloch reduction).</summary>
-    internal (Complex Psi, Complex DerivativeOverMass) StateAt(double x)
-    {
-        if (_starts.Length == 0)
-        {
-            return (_end, _endW);
-        }
-        int lo = 0, hi = _starts.Length - 1;
-        while (lo < hi)
-        {
-            var mid = (lo + hi + 1) >> 1;
-            if (_starts[mid] <= x)
-            {
-                lo = mid;
-            }
-            else
-            {
-                hi = mid - 1;
-            }
-        }
-        var t = Math.Clamp(x - _starts[lo], 0, _widths[lo]);
-        if (_isStep[lo])
-        {
-            // ψ′ = m·(ψ′/m) at the step ends; the mass in between is linear in x (the mesh's Gauss-node masses).
-            var h = _widths[lo];
-            var tau = t / h;
-            var psi = Hermite(tau, h, _u[lo], _w[lo] * _masses[lo], _uRight[lo], _wRight[lo] * _massesRight[lo], out var slope);
-            return (psi, slope / (_masses[lo] + tau * (_massesRight[lo] - _masses[lo])));
-        }
-        if (lo == _bridged)
-        {
-            // ψ = u_L·sinh(κ(w − t))/sinh(κw) + u_R·sinh(κt)/sinh(κw), in decaying exponentials.
-            var kappa = Math.Sqrt(-_s[lo]);
-            var width = _widths[lo];
-            var denominator = 1 - Math.Exp(-2 * kappa * width);
-            double eLeft = Math.Exp(-kappa * t), eRight = Math.Exp(-kappa * (width - t));
-            double qLeft = Math.Exp(-2 * kappa * (width - t)), qRight = Math.Exp(-2 * kappa * t);
-            var g1 = eLeft * (1 - qLeft) / denominator;
-            var g2 = eRight * (1 - qRight) / denominator;
-            var g1Prime = -kappa * eLeft * (1 + qLeft) / denominator;
-            var g2Prime = kappa * eRight * (1 + qRight) / denominator;
-            var left = _u[lo];
-            return (left * g1 + _bridgeRight * g2, (left * g1Prime + _bridgeRight * g2Prime) / _masses[lo]);
-        }
-        return LayerState(_kernel, _elements[lo], EnergyElectronVolts, _u[lo], _w[lo], t);
-    }
+    internal (Complex Psi, Complex DerivativeOverMass) StateAt(double x) => _pieces.StateAt(x) ?? (_end, _endW);
 
     /// <summary>(ψ, ψ′/m) at the right end of the cell after every element (deltas included): equals e^(ikd) times the state at 0.</summary>
     internal (Complex Psi, Complex DerivativeOverMass) StateAtEnd => (_end, _endW);

@@ -76,26 +76,26 @@ public static class InPlaneDensities
     }
 
     /// <summary>
-    /// The carrier density per unit volume (spin included) for Fermi level <paramref name="fermiLevelElectronVolts"/> at
-    /// <paramref name="temperatureKelvin"/>, exact and with one in-plane mass.
+    /// The carrier density per unit volume (spin included) for Fermi level <paramref name="fermiLevel"/> at
+    /// <paramref name="temperature"/>, exact and with one in-plane mass.
     /// </summary>
     /// <param name="cell">The cell (parabolic layers, delta barriers, Fourier segments).</param>
-    /// <param name="fermiLevelElectronVolts">μ, eV.</param>
-    /// <param name="temperatureKelvin">T ≥ 0, K.</param>
+    /// <param name="fermiLevel">μ.</param>
+    /// <param name="temperature">T.</param>
     /// <param name="singleInPlaneMass">The mass of the approximation; null: the in-plane mass of band 1 at its bottom.</param>
     /// <exception cref="ArgumentNullException"><paramref name="cell"/> is null.</exception>
-    /// <exception cref="ArgumentOutOfRangeException">μ or T is not finite, T is negative, or more than 10,000 bands are occupied.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">More than 10,000 bands are occupied.</exception>
     /// <exception cref="ArgumentException">The cell holds a non-parabolic layer or an element not covered by <see cref="InPlaneMotion"/>.</exception>
-    public static InPlaneCarrierDensity CarrierDensity(UnitCell cell, double fermiLevelElectronVolts, double temperatureKelvin, EffectiveMass? singleInPlaneMass = null)
+    public static InPlaneCarrierDensity CarrierDensity(UnitCell cell, Energy fermiLevel, Temperature temperature, EffectiveMass? singleInPlaneMass = null)
     {
         ArgumentNullException.ThrowIfNull(cell);
-        Preconditions.CheckFinite(fermiLevelElectronVolts);
-        var kT = Preconditions.CheckNonNegativeFinite(temperatureKelvin) * PhysicalConstants.BoltzmannElectronVoltsPerKelvin;
-        var mu = fermiLevelElectronVolts;
+        var temperatureKelvin = temperature.Kelvin;
+        var kT = temperatureKelvin * PhysicalConstants.BoltzmannElectronVoltsPerKelvin;
+        var mu = fermiLevel.ElectronVolts;
         var lowest = BandStructure.Compute(cell, 1).GetBand(1).BottomElectronVolts;
         var reach = Math.Max(mu, lowest) + OccupationCutoff * kT;
-        var setup = Setup(cell, reach, nameof(fermiLevelElectronVolts), singleInPlaneMass);
-        var approximate = BandProperties.Create(setup.Bands).SuperlatticeCarrierDensity(Energy.FromElectronVolts(mu), Temperature.FromKelvin(temperatureKelvin), setup.Mass).DensityPerCubicNanometre;
+        var setup = Setup(cell, reach, nameof(fermiLevel), singleInPlaneMass);
+        var approximate = BandProperties.Create(setup.Bands).SuperlatticeCarrierDensity(fermiLevel, temperature, setup.Mass).DensityPerCubicNanometre;
         var evaluations = 0;
         // Pieces in u: split where an edge crosses μ, up to where band 1 lies 40 kT above μ.
         var cuts = new List<double> { 0.0 };
@@ -127,7 +127,7 @@ public static class InPlaneDensities
                 var bottom = BandStructure.Compute(shiftedCell, 1).GetBand(1).BottomElectronVolts;
                 var limit = Math.Max(mu, bottom) + OccupationCutoff * kT;
                 var shifted = BandStructure.ComputeBelow(shiftedCell, Energy.FromElectronVolts(limit));
-                return BandProperties.Create(shifted).LinearCarrierDensity(Energy.FromElectronVolts(mu), Temperature.FromKelvin(temperatureKelvin)).DensityPerNanometre;
+                return BandProperties.Create(shifted).LinearCarrierDensity(fermiLevel, temperature).DensityPerNanometre;
             });
             exact += value;
             error += estimate;

@@ -89,14 +89,14 @@ public sealed class MinibandDrift
     /// <param name="structure">The band structure (its band above must be computed too, for the gap).</param>
     /// <param name="bandIndex">The band, from 1.</param>
     /// <param name="scatteringTimeSeconds">τ &gt; 0, s (typically 0.01–1 ps).</param>
-    /// <param name="temperatureKelvin">T ≥ 0, K (0: carriers at the band bottom, the Esaki–Tsu assumption).</param>
+    /// <param name="temperature">T, at most 10,000 K (the default 0 K: carriers at the band bottom, the Esaki–Tsu assumption).</param>
     /// <exception cref="ArgumentNullException"><paramref name="structure"/> is null.</exception>
     /// <exception cref="ArgumentOutOfRangeException">No such band, or τ or T out of range.</exception>
-    public static MinibandDrift Create(BandStructure structure, int bandIndex, double scatteringTimeSeconds, double temperatureKelvin = 0)
+    public static MinibandDrift Create(BandStructure structure, int bandIndex, double scatteringTimeSeconds, Temperature temperature = default)
     {
         ArgumentNullException.ThrowIfNull(structure);
         var band = structure.GetBand(bandIndex);
-        CheckArguments(scatteringTimeSeconds, temperatureKelvin);
+        var temperatureKelvin = CheckArguments(scatteringTimeSeconds, temperature);
         var fit = TightBindingBand.Fit(structure, bandIndex);
         return new MinibandDrift(bandIndex, structure.PeriodNanometres, [.. fit.CoefficientsElectronVolts], scatteringTimeSeconds, temperatureKelvin, band.GapAboveElectronVolts);
     }
@@ -105,10 +105,10 @@ public sealed class MinibandDrift
     /// <param name="coefficientsElectronVolts">t_0, t_1, … in eV; at least two, all finite.</param>
     /// <param name="periodNanometres">d &gt; 0, nm.</param>
     /// <param name="scatteringTimeSeconds">τ &gt; 0, s.</param>
-    /// <param name="temperatureKelvin">T ≥ 0, K.</param>
+    /// <param name="temperature">T, at most 10,000 K (default 0 K).</param>
     /// <exception cref="ArgumentException">Fewer than two coefficients, or one is not finite.</exception>
     /// <exception cref="ArgumentOutOfRangeException">d, τ or T out of range.</exception>
-    public static MinibandDrift FromCosineSeries(ReadOnlySpan<double> coefficientsElectronVolts, double periodNanometres, double scatteringTimeSeconds, double temperatureKelvin = 0)
+    public static MinibandDrift FromCosineSeries(ReadOnlySpan<double> coefficientsElectronVolts, double periodNanometres, double scatteringTimeSeconds, Temperature temperature = default)
     {
         if (coefficientsElectronVolts.Length < 2)
         {
@@ -124,14 +124,14 @@ public sealed class MinibandDrift
             }
         }
         Preconditions.CheckPositiveFinite(periodNanometres);
-        CheckArguments(scatteringTimeSeconds, temperatureKelvin);
+        var temperatureKelvin = CheckArguments(scatteringTimeSeconds, temperature);
         return new MinibandDrift(0, periodNanometres, coefficientsElectronVolts.ToArray(), scatteringTimeSeconds, temperatureKelvin, double.PositiveInfinity);
     }
 
-    private static void CheckArguments(double tau, double temperature)
+    private static double CheckArguments(double tau, Temperature temperature)
     {
         Preconditions.CheckRange(tau, 1e-18, 1e-6, "scatteringTimeSeconds");
-        Preconditions.CheckRange(temperature, 0, 1e4, "temperatureKelvin");
+        return Preconditions.CheckRange(temperature.Kelvin, 0, 1e4, nameof(temperature));
     }
 
     /// <summary>The Bloch angular frequency ω_B = eFd/ħ at field F, rad/s (the Bloch frequency is eFd/h = ω_B/2π).</summary>

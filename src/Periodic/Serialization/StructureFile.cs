@@ -397,7 +397,7 @@ public static partial class StructureFile
             StructureRecipe recipe;
             try
             {
-                recipe = StructureRecipe.Create(temperature);
+                recipe = StructureRecipe.Create(Temperature.FromKelvin(temperature));
             }
             catch (ArgumentException e)
             {

@@ -5,6 +5,7 @@ using System.Collections.ObjectModel;
 using System.Globalization;
 using System.Text;
 using Periodic.Structures;
+using Periodic.Units;
 
 namespace Periodic.Stacks;
 
@@ -12,7 +13,7 @@ namespace Periodic.Stacks;
 /// A finite one-dimensional structure between two semi-infinite leads: left lead, an ordered list of
 /// parts (single layers, delta barriers, repeated unit cells), right lead. The leads may differ in
 /// band edge and mass. Positions run from x = 0 at the left lead's interface to
-/// x = <see cref="ThicknessNanometres"/> at the right lead's. Immutable and thread-safe.
+/// x = <see cref="Thickness"/> at the right lead's. Immutable and thread-safe.
 /// </summary>
 /// <remarks>
 /// The model is the single-band envelope-function approximation with BenDaniel–Duke matching
@@ -36,24 +37,24 @@ public sealed class LayerStack
         long count = 0;
         foreach (var part in parts)
         {
-            thickness += part.ThicknessNanometres;
+            thickness += part.Thickness.Nanometres;
             count += part.ElementCount;
         }
-        ThicknessNanometres = thickness;
+        Thickness = Length.FromNanometres(thickness);
         ElementCount = count;
     }
 
     /// <summary>The lead on the left (x &lt; 0), from which the incident wave comes.</summary>
     public Lead LeftLead { get; }
 
-    /// <summary>The lead on the right (x &gt; <see cref="ThicknessNanometres"/>).</summary>
+    /// <summary>The lead on the right (x &gt; <see cref="Thickness"/>).</summary>
     public Lead RightLead { get; }
 
     /// <summary>The parts between the leads, left to right.</summary>
     public IReadOnlyList<StackPart> Parts { get; }
 
-    /// <summary>Total thickness between the leads, nm.</summary>
-    public double ThicknessNanometres { get; }
+    /// <summary>The thickness of the stack between the two leads.</summary>
+    public Length Thickness { get; }
 
     /// <summary>Number of elements between the leads when every repeated cell is written out.</summary>
     public long ElementCount { get; }
@@ -183,7 +184,7 @@ public sealed class LayerStack
     {
         var text = new StringBuilder();
         text.Append(CultureInfo.InvariantCulture,
-            $"LayerStack: {_parts.Length} part(s), {ElementCount} element(s), thickness {ThicknessNanometres:G6} nm");
+            $"LayerStack: {_parts.Length} part(s), {ElementCount} element(s), thickness {Thickness.Nanometres:G6} nm");
         text.AppendLine().Append("  left  ").Append(LeftLead);
         for (var i = 0; i < _parts.Length; i++)
         {

@@ -3,6 +3,7 @@
 
 using System.Globalization;
 using Periodic.Structures;
+using Periodic.Units;
 
 namespace Periodic.Stacks;
 
@@ -31,8 +32,8 @@ public sealed class StackPart
     /// <summary>True when this part is a repeated unit cell.</summary>
     public bool IsRepeatedCell => Cell is not null;
 
-    /// <summary>Thickness of the part, nm.</summary>
-    public double ThicknessNanometres => Cell is null ? Element!.Width.Nanometres : Repetitions * Cell.Period.Nanometres;
+    /// <summary>Thickness of the part.</summary>
+    public Length Thickness => Cell is null ? Element!.Width : Length.FromNanometres(Repetitions * Cell.Period.Nanometres);
 
     /// <summary>Number of elements the part holds when written out one by one.</summary>
     public long ElementCount => Cell is null ? 1 : (long)Repetitions * Cell.Elements.Count;

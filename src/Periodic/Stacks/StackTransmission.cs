@@ -79,7 +79,7 @@ public sealed class StackTransmission
         Bias = Energy.FromElectronVolts(drop);
         RightLead = Lead.Create(Energy.FromElectronVolts(stack.RightLead.PotentialElectronVolts - drop), EffectiveMass.FromElectronMasses(stack.RightLead.MassElectronMasses));
         _parts = [];
-        var field = drop / stack.ThicknessNanometres; // eV/nm; V(x) = V_layer − field·x
+        var field = drop / stack.Thickness.Nanometres; // eV/nm; V(x) = V_layer − field·x
         var written = new CellElement[stack.ElementCount];
         var materials = new List<(double V, double M)>();
         var guides = new List<PhaseGuide>();
@@ -203,7 +203,7 @@ public sealed class StackTransmission
         {
             return;
         }
-        if (!(stack.ThicknessNanometres > 0))
+        if (!(stack.Thickness.Nanometres > 0))
         {
             throw new ArgumentOutOfRangeException(nameof(bias), drop,
                 $"bias must be 0 eV for a stack of zero thickness (a uniform field needs layers to drop across); got {Preconditions.Format(drop)} eV.");
@@ -618,5 +618,5 @@ public sealed class StackTransmission
 
     /// <inheritdoc />
     public override string ToString() => string.Create(CultureInfo.InvariantCulture,
-        $"StackTransmission of {Stack.ElementCount} element(s), {Stack.ThicknessNanometres:G6} nm, bias {Bias.ElectronVolts:G6} eV, S-matrix composition");
+        $"StackTransmission of {Stack.ElementCount} element(s), {Stack.Thickness.Nanometres:G6} nm, bias {Bias.ElectronVolts:G6} eV, S-matrix composition");
 }

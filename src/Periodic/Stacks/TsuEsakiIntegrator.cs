@@ -136,12 +136,13 @@ internal static class TsuEsakiIntegrator
     /// ln[(1 + e^x)/(1 + e^(x − u))]. For |u| ≤ 1 as log1p(expm1(u)·σ(x − u)), σ the logistic function (the ratio
     /// is 1 + (e^u − 1)e^(x−u)/(1 + e^(x−u))), which keeps full relative accuracy as u → 0 where the difference of two
     /// softplus terms would lose log₂(1/|u|) bits (linear response); beyond, the difference, which has no cancellation.
-    /// expm1, log1p and σ are MathNet.Numerics' (.NET's <c>double.ExpM1</c> is computed as exp(x) − 1).
+    /// expm1 is <see cref="ElementaryFunctions.ExpM1"/> (neither .NET's nor MathNet's is accurate near 0); log1p and σ are
+    /// MathNet.Numerics'.
     /// </summary>
     internal static double Supply(double x, double u) =>
         Math.Abs(u) > 1
             ? Softplus(x) - Softplus(x - u)
-            : SpecialFunctions.Log1p(SpecialFunctions.Expm1(u) * SpecialFunctions.Logistic(x - u));
+            : SpecialFunctions.Log1p(ElementaryFunctions.ExpM1(u) * SpecialFunctions.Logistic(x - u));
 
     /// <summary>ln(1 + e^x) without overflow.</summary>
     internal static double Softplus(double x) => x > 0 ? x + SpecialFunctions.Log1p(Math.Exp(-x)) : SpecialFunctions.Log1p(Math.Exp(x));

@@ -27,28 +27,32 @@ public sealed class FourierSegment : CellElement, IMeshedSegment
     /// <summary>Smallest default number of Magnus steps over the segment.</summary>
     public const int DefaultMinimumStepCount = 64;
 
+    private readonly double _constant;
     private readonly double[] _cosine;
     private readonly double[] _sine;
 
     private FourierSegment(Length width, double constant, double[] cosine, double[] sine, EffectiveMass mass, int stepCount)
     {
         Width = width;
-        ConstantElectronVolts = constant;
+        _constant = constant;
+        Constant = Energy.FromElectronVolts(constant);
         _cosine = cosine;
         _sine = sine;
         CosineElectronVolts = new ReadOnlyCollection<double>(cosine);
         SineElectronVolts = new ReadOnlyCollection<double>(sine);
         Mass = mass;
         StepCount = stepCount;
-        (MinimumPotentialElectronVolts, MaximumPotentialElectronVolts) = ScanRange();
+        var (vMin, vMax) = ScanRange();
+        MinimumPotential = Energy.FromElectronVolts(vMin);
+        MaximumPotential = Energy.FromElectronVolts(vMax);
         Samples = BuildSamples();
     }
 
     /// <summary>The length d of the segment (one period of its harmonics).</summary>
     public override Length Width { get; }
 
-    /// <summary>The constant term V₀, eV.</summary>
-    public double ConstantElectronVolts { get; }
+    /// <summary>The constant term V₀.</summary>
+    public Energy Constant { get; }
 
     /// <summary>Cosine amplitudes a₁ … a_N, eV (a shorter list than <see cref="SineElectronVolts"/> is padded with zeros).</summary>
     public IReadOnlyList<double> CosineElectronVolts { get; }
@@ -65,13 +69,13 @@ public sealed class FourierSegment : CellElement, IMeshedSegment
     /// <summary>Number of harmonics N (the longer of the two amplitude lists).</summary>
     public int HarmonicCount => Math.Max(_cosine.Length, _sine.Length);
 
-    /// <summary>Lowest value of V(x), eV (located by a dense scan refined by Newton steps on V′).</summary>
-    public double MinimumPotentialElectronVolts { get; }
+    /// <summary>Lowest value of V(x) (located by a dense scan refined by Newton steps on V′).</summary>
+    public Energy MinimumPotential { get; }
 
-    /// <summary>Highest value of V(x), eV (located like the minimum).</summary>
-    public double MaximumPotentialElectronVolts { get; }
+    /// <summary>Highest value of V(x) (located like the minimum).</summary>
+    public Energy MaximumPotential { get; }
 
-    double IPotentialSegment.MinimumMassElectronMasses => Mass.ElectronMasses;
+    EffectiveMass IPotentialSegment.MinimumMass => Mass;
 
     SegmentSamples IMeshedSegment.Samples => Samples;
 
@@ -150,7 +154,7 @@ public sealed class FourierSegment : CellElement, IMeshedSegment
     public FourierSegment WithStepCount(int stepCount)
     {
         SegmentChecks.CheckStepCount(stepCount, nameof(stepCount));
-        return new FourierSegment(Width, ConstantElectronVolts, _cosine, _sine, Mass, stepCount);
+        return new FourierSegment(Width, _constant, _cosine, _sine, Mass, stepCount);
     }
 
     CellElement IMeshedSegment.Refined() => WithStepCount(Math.Min(2 * StepCount, SegmentChecks.MaxStepCount));
@@ -165,7 +169,7 @@ public sealed class FourierSegment : CellElement, IMeshedSegment
 
     /// <inheritdoc />
     public override string ToString() => string.Create(CultureInfo.InvariantCulture,
-        $"FourierSegment {Width.Nanometres:G6} nm, V0 = {ConstantElectronVolts:G6} eV, {HarmonicCount} harmonic(s), V in [{MinimumPotentialElectronVolts:G6}, {MaximumPotentialElectronVolts:G6}] eV, m = {Mass.ElectronMasses:G6} m0, {StepCount} steps");
+        $"FourierSegment {Width.Nanometres:G6} nm, V0 = {Constant.ElectronVolts:G6} eV, {HarmonicCount} harmonic(s), V in [{MinimumPotential.ElectronVolts:G6}, {MaximumPotential.ElectronVolts:G6}] eV, m = {Mass.ElectronMasses:G6} m0, {StepCount} steps");
 
     private static int DefaultStepCount(int harmonics) => Math.Max(DefaultMinimumStepCount, DefaultStepsPerHarmonic * harmonics);
 
@@ -195,7 +199,7 @@ public sealed class FourierSegment : CellElement, IMeshedSegment
     private double Evaluate(double x, out double first, out double second)
     {
         var g = 2 * Math.PI / Width.Nanometres;
-        double v = ConstantElectronVolts, d1 = 0, d2 = 0;
+        double v = _constant, d1 = 0, d2 = 0;
         for (var n = 1; n <= _cosine.Length; n++)
         {
             var (sin, cos) = Math.SinCos(n * g * x);
@@ -213,7 +217,7 @@ public sealed class FourierSegment : CellElement, IMeshedSegment
     {
         if (_cosine.Length == 0)
         {
-            return (ConstantElectronVolts, ConstantElectronVolts);
+            return (_constant, _constant);
         }
         // A power of two at least 64 samples per harmonic, so the transform takes its radix-2 path.
         var samples = (int)Math.Min(1L << 30, System.Numerics.BitOperations.RoundUpToPowerOf2((uint)Math.Max(256, 64 * _cosine.Length)));
@@ -256,8 +260,8 @@ public sealed class FourierSegment : CellElement, IMeshedSegment
         var second = new double[m];
         for (var j = 0; j < m; j++)
         {
-            first[j] = ConstantElectronVolts + bins[j].Real;
-            second[j] = ConstantElectronVolts + bins[j].Imaginary;
+            first[j] = _constant + bins[j].Real;
+            second[j] = _constant + bins[j].Imaginary;
         }
         return (first, second);
     }

@@ -39,9 +39,9 @@ public sealed class FunctionSegment : CellElement, IMeshedSegment
         _constantMass = constantMass;
         StepCount = stepCount;
         Samples = BuildSamples(out var vMin, out var vMax, out var mMin);
-        MinimumPotentialElectronVolts = vMin;
-        MaximumPotentialElectronVolts = vMax;
-        MinimumMassElectronMasses = mMin;
+        MinimumPotential = Energy.FromElectronVolts(vMin);
+        MaximumPotential = Energy.FromElectronVolts(vMax);
+        MinimumMass = EffectiveMass.FromElectronMasses(mMin);
     }
 
     /// <summary>The width of the segment.</summary>
@@ -53,14 +53,14 @@ public sealed class FunctionSegment : CellElement, IMeshedSegment
     /// <summary>True when the mass varies with position (a mass function was given).</summary>
     public bool HasPositionDependentMass => _mass is not null;
 
-    /// <summary>Lowest potential seen at the scan and quadrature points, eV.</summary>
-    public double MinimumPotentialElectronVolts { get; }
+    /// <summary>Lowest potential seen at the scan and quadrature points.</summary>
+    public Energy MinimumPotential { get; }
 
-    /// <summary>Highest potential seen at the scan and quadrature points, eV.</summary>
-    public double MaximumPotentialElectronVolts { get; }
+    /// <summary>Highest potential seen at the scan and quadrature points.</summary>
+    public Energy MaximumPotential { get; }
 
-    /// <summary>Smallest mass seen at the scan and quadrature points, in m₀.</summary>
-    public double MinimumMassElectronMasses { get; }
+    /// <summary>Smallest mass seen at the scan and quadrature points.</summary>
+    public EffectiveMass MinimumMass { get; }
 
     SegmentSamples IMeshedSegment.Samples => Samples;
 
@@ -122,9 +122,9 @@ public sealed class FunctionSegment : CellElement, IMeshedSegment
 
     /// <inheritdoc />
     public override string ToString() => string.Create(CultureInfo.InvariantCulture,
-        $"FunctionSegment {Width.Nanometres:G6} nm, V in [{MinimumPotentialElectronVolts:G6}, {MaximumPotentialElectronVolts:G6}] eV, ") +
+        $"FunctionSegment {Width.Nanometres:G6} nm, V in [{MinimumPotential.ElectronVolts:G6}, {MaximumPotential.ElectronVolts:G6}] eV, ") +
         (HasPositionDependentMass
-            ? string.Create(CultureInfo.InvariantCulture, $"m(x) >= {MinimumMassElectronMasses:G6} m0")
+            ? string.Create(CultureInfo.InvariantCulture, $"m(x) >= {MinimumMass.ElectronMasses:G6} m0")
             : string.Create(CultureInfo.InvariantCulture, $"m = {_constantMass:G6} m0")) +
         string.Create(CultureInfo.InvariantCulture, $", {StepCount} steps");
 

@@ -1,6 +1,8 @@
 // SPDX-License-Identifier: MIT
 // Copyright (c) 2026 Periodic contributors
 
+using Periodic.Units;
+
 namespace Periodic.Structures;
 
 /// <summary>
@@ -9,9 +11,9 @@ namespace Periodic.Structures;
 /// </summary>
 internal interface IPotentialSegment
 {
-    double MinimumPotentialElectronVolts { get; }
+    Energy MinimumPotential { get; }
 
-    double MaximumPotentialElectronVolts { get; }
+    Energy MaximumPotential { get; }
 
-    double MinimumMassElectronMasses { get; }
+    EffectiveMass MinimumMass { get; }
 }

@@ -145,7 +145,7 @@ public static class InPlaneMotion
                 var cosine = fourier.CosineElectronVolts.ToArray();
                 var sine = fourier.SineElectronVolts.ToArray();
                 return FourierSegment.Create(fourier.Width,
-                    Energy.FromElectronVolts(fourier.ConstantElectronVolts + KineticEnergy(k, fourier.Mass.ElectronMasses)),
+                    Energy.FromElectronVolts(fourier.Constant.ElectronVolts + KineticEnergy(k, fourier.Mass.ElectronMasses)),
                     cosine, sine, fourier.Mass, fourier.StepCount);
             }
             default:

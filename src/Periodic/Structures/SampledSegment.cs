@@ -41,9 +41,9 @@ public sealed class SampledSegment : CellElement, IMeshedSegment
             vMin = Math.Min(vMin, v);
             vMax = Math.Max(vMax, v);
         }
-        MinimumPotentialElectronVolts = vMin;
-        MaximumPotentialElectronVolts = vMax;
-        MinimumMassElectronMasses = masses is null ? constantMass : masses.Min();
+        MinimumPotential = Energy.FromElectronVolts(vMin);
+        MaximumPotential = Energy.FromElectronVolts(vMax);
+        MinimumMass = EffectiveMass.FromElectronMasses(masses is null ? constantMass : masses.Min());
         Samples = BuildSamples();
     }
 
@@ -62,14 +62,14 @@ public sealed class SampledSegment : CellElement, IMeshedSegment
     /// <summary>The interpolation order of the profile: 2 (piecewise linear).</summary>
     public int InterpolationOrder => 2;
 
-    /// <summary>Lowest sample of the potential (the interpolant attains its extremes at samples), eV.</summary>
-    public double MinimumPotentialElectronVolts { get; }
+    /// <summary>Lowest sample of the potential (the interpolant attains its extremes at samples).</summary>
+    public Energy MinimumPotential { get; }
 
-    /// <summary>Highest sample of the potential, eV.</summary>
-    public double MaximumPotentialElectronVolts { get; }
+    /// <summary>Highest sample of the potential.</summary>
+    public Energy MaximumPotential { get; }
 
-    /// <summary>Smallest mass, in m₀.</summary>
-    public double MinimumMassElectronMasses { get; }
+    /// <summary>Smallest mass.</summary>
+    public EffectiveMass MinimumMass { get; }
 
     /// <summary>True when masses were sampled too.</summary>
     public bool HasPositionDependentMass => _masses is not null;
@@ -144,9 +144,9 @@ public sealed class SampledSegment : CellElement, IMeshedSegment
 
     /// <inheritdoc />
     public override string ToString() => string.Create(CultureInfo.InvariantCulture,
-        $"SampledSegment {Width.Nanometres:G6} nm, {SampleCount} samples (piecewise linear), V in [{MinimumPotentialElectronVolts:G6}, {MaximumPotentialElectronVolts:G6}] eV, ") +
+        $"SampledSegment {Width.Nanometres:G6} nm, {SampleCount} samples (piecewise linear), V in [{MinimumPotential.ElectronVolts:G6}, {MaximumPotential.ElectronVolts:G6}] eV, ") +
         (HasPositionDependentMass
-            ? string.Create(CultureInfo.InvariantCulture, $"m(x) >= {MinimumMassElectronMasses:G6} m0")
+            ? string.Create(CultureInfo.InvariantCulture, $"m(x) >= {MinimumMass.ElectronMasses:G6} m0")
             : string.Create(CultureInfo.InvariantCulture, $"m = {_constantMass:G6} m0")) +
         string.Create(CultureInfo.InvariantCulture, $", {StepsPerInterval} step(s) per interval");
 

@@ -33,9 +33,9 @@ public sealed class UnitCell
             }
             else if (element is IPotentialSegment segment)
             {
-                vMin = Math.Min(vMin, segment.MinimumPotentialElectronVolts);
-                vMax = Math.Max(vMax, segment.MaximumPotentialElectronVolts);
-                mMin = Math.Min(mMin, segment.MinimumMassElectronMasses);
+                vMin = Math.Min(vMin, segment.MinimumPotential.ElectronVolts);
+                vMax = Math.Max(vMax, segment.MaximumPotential.ElectronVolts);
+                mMin = Math.Min(mMin, segment.MinimumMass.ElectronMasses);
             }
         }
         Period = Length.FromNanometres(period);

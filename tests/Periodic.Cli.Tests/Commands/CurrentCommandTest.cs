@@ -195,7 +195,7 @@ public sealed class CurrentCommandTest
         var file = ToolRunner.Example("gaas-algaas.json");
         var run = ToolRunner.Invoke("current", file, "--periods", "2", "--bias", "0.05", "--fermi-level", "0.01", "--json");
         Assert.True(run.ExitCode == 0, run.Stderr);
-        Assert.Equal(StructureFile.Load(file).Materials!.TemperatureKelvin, run.Json().GetProperty("temperature").GetDouble());
+        Assert.Equal(StructureFile.Load(file).Materials!.Temperature.Kelvin, run.Json().GetProperty("temperature").GetDouble());
         Assert.Equal(string.Create(CultureInfo.InvariantCulture, $"{0.05:R}"), run.Json().GetProperty("points")[0].GetProperty("bias").GetRawText());
     }
 }

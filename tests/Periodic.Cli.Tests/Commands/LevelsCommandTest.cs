@@ -101,7 +101,7 @@ public sealed class LevelsCommandTest(ITestOutputHelper output)
         Assert.Equal(spectrum.TotalCount, json.GetProperty("totalCount").GetInt32());
         var x = json.GetProperty("wavefunctions").GetProperty("positions").EnumerateArray().Select(v => v.GetDouble()).ToArray();
         Assert.Equal(-2.0, x[0]);
-        Assert.Equal(stack.ThicknessNanometres + 2, x[^1]);
+        Assert.Equal(stack.Thickness.Nanometres + 2, x[^1]);
         for (var n = 0; n < levels.Length; n++)
         {
             Assert.Equal(n + 1, levels[n].GetProperty("index").GetInt32());

@@ -30,7 +30,7 @@ public sealed class StructureFileStackPartsTest
         Assert.Equal(4, stack.Parts[1].Repetitions);
         Assert.Same(s.Cell, stack.Parts[1].Cell);
         Assert.IsType<DeltaBarrier>(stack.Parts[2].Element);
-        Assert.Equal(3 + 4 * 7 + 8 + 2 * 7, stack.ThicknessNanometres, 1e-12);
+        Assert.Equal(3 + 4 * 7 + 8 + 2 * 7, stack.Thickness.Nanometres, 1e-12);
     }
 
     [Fact]

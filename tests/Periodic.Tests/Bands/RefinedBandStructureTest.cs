@@ -23,8 +23,8 @@ public sealed class RefinedBandStructureTest
         var function = FunctionSegment.Create(d, x => 0.05 * Math.Cos(2 * Math.PI * x / 6), Gaas, 64);
         var barrier = Layer.Create(Length.FromNanometres(2), Energy.FromElectronVolts(0.25), Gaas);
         var delta = DeltaBarrier.Create(0.02);
-        var a = RefinedBandStructure.Compute(UnitCell.Create(fourier, barrier, delta), 3, 1e-11);
-        var b = RefinedBandStructure.Compute(UnitCell.Create(function, barrier, delta), 3, 1e-11);
+        var a = RefinedBandStructure.Compute(UnitCell.Create(fourier, barrier, delta), 3, RefinementOptions.Create(1e-11));
+        var b = RefinedBandStructure.Compute(UnitCell.Create(function, barrier, delta), 3, RefinementOptions.Create(1e-11));
         Assert.True(a.Converged && b.Converged, a + "\n" + b);
         for (var i = 0; i < 6; i++)
         {
@@ -53,7 +53,7 @@ public sealed class RefinedBandStructureTest
         // One halving of a 4-step mesh cannot reach 1e-13 on a cosine lattice: the result must say so (no silent
         // success), while still returning its best bands and an error estimate.
         var coarse = FourierSegment.Cosine(Length.FromNanometres(1), Energy.FromElectronVolts(5), EffectiveMass.FreeElectron).WithStepCount(4);
-        var result = RefinedBandStructure.Compute(UnitCell.Create(coarse), 2, 1e-13, 1);
+        var result = RefinedBandStructure.Compute(UnitCell.Create(coarse), 2, RefinementOptions.Create(1e-13, 1));
         Assert.False(result.Converged);
         Assert.True(result.MaxRelativeError > 1e-13);
         Assert.Contains("NOT converged", result.ToString(), StringComparison.Ordinal);
@@ -65,7 +65,7 @@ public sealed class RefinedBandStructureTest
         var cell = UnitCell.Create(FourierSegment.Cosine(Length.FromNanometres(1), Energy.FromElectronVolts(1), EffectiveMass.FreeElectron));
         Assert.Equal("cell", Assert.Throws<ArgumentNullException>(() => RefinedBandStructure.Compute(null!, 1)).ParamName);
         Assert.Equal("count", Assert.Throws<ArgumentOutOfRangeException>(() => RefinedBandStructure.Compute(cell, 0)).ParamName);
-        Assert.Equal("relativeTolerance", Assert.Throws<ArgumentOutOfRangeException>(() => RefinedBandStructure.Compute(cell, 1, 1e-20)).ParamName);
-        Assert.Equal("maxRefinements", Assert.Throws<ArgumentOutOfRangeException>(() => RefinedBandStructure.Compute(cell, 1, 1e-8, 0)).ParamName);
+        Assert.Equal("relativeTolerance", Assert.Throws<ArgumentOutOfRangeException>(() => RefinedBandStructure.Compute(cell, 1, RefinementOptions.Create(1e-20))).ParamName);
+        Assert.Equal("maxRefinements", Assert.Throws<ArgumentOutOfRangeException>(() => RefinedBandStructure.Compute(cell, 1, RefinementOptions.Create(1e-8, 0))).ParamName);
     }
 }

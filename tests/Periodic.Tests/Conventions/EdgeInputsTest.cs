@@ -208,22 +208,22 @@ public sealed class EdgeInputsTest
     {
         // Varshni: Eg(T) = Eg(0) − αT²/(T + β) (Y. P. Varshni, Physica 34, 149 (1967)) is exactly Eg(0) at 0 K;
         // GaAs Eg(0) = 1.519 eV (Vurgaftman, Meyer and Ram-Mohan, J. Appl. Phys. 89, 5815 (2001), Table III).
-        Assert.Equal(1.519, Material.GaAs.BandGapElectronVolts(Material.MinimumTemperatureKelvin), 1e-12);
+        Assert.Equal(1.519, Material.GaAs.BandGapElectronVolts(Temperature.FromKelvin(Material.MinimumTemperatureKelvin)), 1e-12);
         foreach (var material in Material.Binaries)
         {
             foreach (var t in new[] { Material.MinimumTemperatureKelvin, Material.MaximumTemperatureKelvin })
             {
-                var gap = material.BandGapElectronVolts(t);
+                var gap = material.BandGapElectronVolts(Temperature.FromKelvin(t));
                 Assert.True(gap > 0 && double.IsFinite(gap), $"{material.Name} at {t} K: {gap}");
-                Finite(material.KaneNonParabolicityPerElectronVolt(t), "alpha");
-                Finite(material.ConductionBandEdgeElectronVolts(t), "Ec");
+                Finite(material.KaneNonParabolicityPerElectronVolt(Temperature.FromKelvin(t)), "alpha");
+                Finite(material.ConductionBandEdgeElectronVolts(Temperature.FromKelvin(t)), "Ec");
             }
             // Eg falls with T (α, β > 0 in the Varshni law).
-            Assert.True(material.BandGapElectronVolts(1000) < material.BandGapElectronVolts(0), material.Name);
+            Assert.True(material.BandGapElectronVolts(Temperature.FromKelvin(1000)) < material.BandGapElectronVolts(Temperature.FromKelvin(0)), material.Name);
         }
         foreach (var t in new[] { 0.0, 1000.0 })
         {
-            var built = StructureRecipe.Create(t).Add(Material.GaAs, Length.FromNanometres(5)).Add(TernaryAlloy.AlGaAs.At(0.3), Length.FromNanometres(2)).WithNonParabolicity(true).Build();
+            var built = StructureRecipe.Create(Temperature.FromKelvin(t)).Add(Material.GaAs, Length.FromNanometres(5)).Add(TernaryAlloy.AlGaAs.At(0.3), Length.FromNanometres(2)).WithNonParabolicity(true).Build();
             var bands = BandStructure.Compute(built.Cell, 2);
             Finite(bands.Bands[0].BottomElectronVolts, "E1");
             Finite(built.ToAbsoluteElectronVolts(bands.Bands[0].BottomElectronVolts), "absolute E1");

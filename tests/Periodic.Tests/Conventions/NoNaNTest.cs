@@ -343,7 +343,7 @@ public sealed class NoNaNTest(ITestOutputHelper output)
             spectra++;
             Finite(spectrum.ContinuumEdgeElectronVolts, "continuum edge");
             Finite(spectrum.LowerBoundElectronVolts, "lower bound");
-            var thickness = spectrum.Stack.ThicknessNanometres;
+            var thickness = spectrum.Stack.Thickness.Nanometres;
             for (var j = 0; j < x.Length; j++)
             {
                 x[j] = -2 + (thickness + 4) * j / (x.Length - 1);
@@ -384,15 +384,15 @@ public sealed class NoNaNTest(ITestOutputHelper output)
                 double gap;
                 try
                 {
-                    gap = m.BandGapElectronVolts(input.T);
+                    gap = m.BandGapElectronVolts(Temperature.FromKelvin(input.T));
                 }
                 catch (ArgumentOutOfRangeException)
                 {
                     continue; // documented: the law gives a gap that is not positive
                 }
                 Assert.True(gap > 0 && double.IsFinite(gap), m.Name);
-                Finite(m.ConductionBandEdgeElectronVolts(input.T), "CB edge");
-                Finite(m.KaneNonParabolicityPerElectronVolt(input.T), "Kane alpha");
+                Finite(m.ConductionBandEdgeElectronVolts(Temperature.FromKelvin(input.T)), "CB edge");
+                Finite(m.KaneNonParabolicityPerElectronVolt(Temperature.FromKelvin(input.T)), "Kane alpha");
                 Finite(m.ElectronMassElectronMasses, "mass");
                 Assert.True(m.ElectronMassElectronMasses > 0, m.ToString());
                 Finite(m.LatticeConstantNanometres, "a");
@@ -402,7 +402,7 @@ public sealed class NoNaNTest(ITestOutputHelper output)
             }
             try
             {
-                var offset = alloy.OffsetTo(binary, input.T);
+                var offset = alloy.OffsetTo(binary, Temperature.FromKelvin(input.T));
                 Finite(offset.ConductionElectronVolts, "dEc");
                 Finite(offset.ValenceElectronVolts, "dEv");
                 NotNaN(offset.ConductionShare, "Qc");
@@ -426,7 +426,7 @@ public sealed class NoNaNTest(ITestOutputHelper output)
         var config = Config.QuickThrowOnFailure.WithMaxTest(200).WithReplay(0x5EED_0007UL, 0x9E3779B97F4A7C15UL).WithQuietOnSuccess(true);
         FsCheck.Check.One(config, Prop.ForAll(Arb.From(gen), ((double T, double X, int Well, int Barrier, bool NonParabolic) input) =>
         {
-            var built = StructureRecipe.Create(input.T)
+            var built = StructureRecipe.Create(Temperature.FromKelvin(input.T))
                 .Add(RecipeLayer.FromMonolayers(Material.GaAs, input.Well))
                 .Add(RecipeLayer.FromMonolayers(TernaryAlloy.AlGaAs.At(input.X), input.Barrier))
                 .WithNonParabolicity(input.NonParabolic)

@@ -84,7 +84,7 @@ public sealed class SpanApi
         var kMax = Math.PI / Fixtures.Bands.PeriodNanometres;
         var ks = Spread(-kMax, kMax, 7);
         var aboveLeads = Spread(0.32, 0.8, 7);
-        var positions = Spread(-2, Fixtures.Stack.ThicknessNanometres + 2, 7);
+        var positions = Spread(-2, Fixtures.Stack.Thickness.Nanometres + 2, 7);
         var p = Fixtures.Properties;
         var t = Fixtures.Transmission;
         var psi = Fixtures.Bound.GetWavefunction(0);

@@ -225,13 +225,21 @@ public sealed class ValidationTest
     [InlineData(double.PositiveInfinity)]
     public void Materials_RejectTemperatureOutsideRange(double bad)
     {
-        AssertRejects(() => Material.GaAs.BandGapElectronVolts(bad), "temperatureKelvin", bad);
-        AssertRejects(() => Material.GaAs.ConductionBandEdgeElectronVolts(bad), "temperatureKelvin", bad);
-        AssertRejects(() => Material.GaAs.KaneNonParabolicityPerElectronVolt(bad), "temperatureKelvin", bad);
-        AssertRejects(() => Material.GaAs.OffsetTo(Material.AlAs, bad), "temperatureKelvin", bad);
-        AssertRejects(() => BandOffset.Between(Material.GaAs, Material.AlAs, bad), "temperatureKelvin", bad);
-        AssertRejects(() => StructureRecipe.Create(bad), "temperatureKelvin", bad);
-        AssertRejects(() => StructureRecipe.Create(300).WithTemperature(bad), "temperatureKelvin", bad);
+        // A temperature is typed: negative and non-finite values are refused where it is made (Temperature.FromKelvin);
+        // the materials refuse what a Temperature can hold but the Varshni law is not meant for (above 1000 K).
+        if (!(bad >= 0 && double.IsFinite(bad)))
+        {
+            AssertRejects(() => Temperature.FromKelvin(bad), "kelvin", bad);
+            return;
+        }
+        var t = Temperature.FromKelvin(bad);
+        AssertRejects(() => Material.GaAs.BandGapElectronVolts(t), "temperature", bad);
+        AssertRejects(() => Material.GaAs.ConductionBandEdgeElectronVolts(t), "temperature", bad);
+        AssertRejects(() => Material.GaAs.KaneNonParabolicityPerElectronVolt(t), "temperature", bad);
+        AssertRejects(() => Material.GaAs.OffsetTo(Material.AlAs, t), "temperature", bad);
+        AssertRejects(() => BandOffset.Between(Material.GaAs, Material.AlAs, t), "temperature", bad);
+        AssertRejects(() => StructureRecipe.Create(t), "temperature", bad);
+        AssertRejects(() => StructureRecipe.Create(Temperature.FromKelvin(300)).WithTemperature(t), "temperature", bad);
     }
 
     [Theory]
@@ -246,14 +254,12 @@ public sealed class ValidationTest
     public void Materials_RejectNonFiniteParameters(double bad)
     {
         var m = Material.GaAs;
-        AssertRejects(() => m.WithElectronMass(bad), "electronMassElectronMasses", bad);
-        AssertRejects(() => m.WithBandGapAtZeroKelvin(bad), "bandGapAtZeroKelvinElectronVolts", bad);
-        AssertRejects(() => m.WithLatticeConstant(bad), "latticeConstantNanometres", bad);
-        AssertRejects(() => m.WithValenceBandOffset(bad), "valenceBandOffsetElectronVolts", bad);
-        AssertRejects(() => m.WithHeavyHoleMass(bad), "heavyHoleMassElectronMasses", bad);
-        AssertRejects(() => m.WithLightHoleMass(bad), "lightHoleMassElectronMasses", bad);
-        AssertRejects(() => m.WithVarshni(bad, 204), "varshniAlphaElectronVoltsPerKelvin", bad);
-        AssertRejects(() => m.WithVarshni(5.4e-4, bad), "varshniBetaKelvin", bad);
+        // Material takes typed values: a non-finite one is refused where it is made, naming the factory's parameter.
+        AssertRejects(() => m.WithElectronMass(EffectiveMass.FromElectronMasses(bad)), "electronMasses", bad);
+        AssertRejects(() => m.WithBandGapAtZeroKelvin(Energy.FromElectronVolts(bad)), "electronVolts", bad);
+        AssertRejects(() => m.WithLatticeConstant(Length.FromNanometres(bad)), "nanometres", bad);
+        AssertRejects(() => m.WithVarshni(bad, Temperature.FromKelvin(204)), "varshniAlphaElectronVoltsPerKelvin", bad);
+        AssertRejects(() => m.WithVarshni(5.4e-4, Temperature.FromKelvin(bad)), "kelvin", bad);
         AssertRejects(() => TernaryAlloy.AlGaAs.WithGapBowing(bad), "gapBowingElectronVolts", bad);
         AssertRejects(() => TernaryAlloy.AlGaAs.WithElectronMassBowing(bad), "electronMassBowingElectronMasses", bad);
         AssertRejects(() => TernaryAlloy.AlGaAs.WithValenceBandOffsetBowing(bad), "valenceBandOffsetBowingElectronVolts", bad);
@@ -268,9 +274,9 @@ public sealed class ValidationTest
     {
         AssertRejects(() => RecipeLayer.FromMonolayers(Material.GaAs, 0), "monolayers", 0);
         AssertRejects(() => RecipeLayer.Create(Material.GaAs, Length.FromNanometres(-1)), "width", -1.0);
-        AssertRejects(() => StructureRecipe.Create(300).WithPeriods(0), "periods", 0);
-        AssertRejects(() => StructureRecipe.Create(300).AddRepeated(0, RecipeLayer.FromMonolayers(Material.GaAs, 3)), "repetitions", 0);
-        var built = StructureRecipe.Create(300).Add(Material.GaAs, Length.FromNanometres(5)).Add(TernaryAlloy.AlGaAs.At(0.3), Length.FromNanometres(2)).Build();
+        AssertRejects(() => StructureRecipe.Create(Temperature.FromKelvin(300)).WithPeriods(0), "periods", 0);
+        AssertRejects(() => StructureRecipe.Create(Temperature.FromKelvin(300)).AddRepeated(0, RecipeLayer.FromMonolayers(Material.GaAs, 3)), "repetitions", 0);
+        var built = StructureRecipe.Create(Temperature.FromKelvin(300)).Add(Material.GaAs, Length.FromNanometres(5)).Add(TernaryAlloy.AlGaAs.At(0.3), Length.FromNanometres(2)).Build();
         AssertRejects(() => built.ToAbsoluteElectronVolts(double.NaN), "energyElectronVolts", double.NaN);
         AssertRejects(() => built.CheckEnergies([0.1, double.NaN]), "energiesElectronVolts", double.NaN);
         AssertRejects(() => built.LayerOf(Material.GaAs, Length.FromNanometres(-1)), "width", -1.0);

@@ -2,6 +2,7 @@
 // Copyright (c) 2026 Periodic contributors
 
 using Periodic.Materials;
+using Periodic.Units;
 
 namespace Periodic.Tests.Materials;
 
@@ -16,7 +17,7 @@ public sealed class BandOffsetTest
     public void GaAsAlGaAs_ConductionShare_InCommonPracticeRange(double x, double temperatureKelvin)
     {
         // GaAs/AlxGa1-xAs (direct range x < 0.45): ΔEc/ΔEg ≈ 0.60–0.67 (common practice, no single source).
-        var offset = BandOffset.Between(Material.GaAs, TernaryAlloy.AlGaAs.At(x), temperatureKelvin);
+        var offset = BandOffset.Between(Material.GaAs, TernaryAlloy.AlGaAs.At(x), Temperature.FromKelvin(temperatureKelvin));
         Assert.InRange(offset.ConductionShare, 0.60, 0.67);
         Assert.True(offset.ConductionElectronVolts > 0 && offset.ValenceElectronVolts < 0); // type I
     }
@@ -25,9 +26,9 @@ public sealed class BandOffsetTest
     public void Between_StepsAddUpToGapDifference()
     {
         // ΔEc − ΔEv = ΔEg by definition (E_c = E_v + Eg); tolerance 1e-15 eV (two roundings).
-        var o = Material.InP.OffsetTo(TernaryAlloy.InGaAs.At(0.53), 300);
+        var o = Material.InP.OffsetTo(TernaryAlloy.InGaAs.At(0.53), Temperature.FromKelvin(300));
         Assert.Equal(o.GapDifferenceElectronVolts, o.ConductionElectronVolts - o.ValenceElectronVolts, 1e-14);
-        var back = BandOffset.Between(TernaryAlloy.InGaAs.At(0.53), Material.InP, 300);
+        var back = BandOffset.Between(TernaryAlloy.InGaAs.At(0.53), Material.InP, Temperature.FromKelvin(300));
         Assert.Equal(-o.ConductionElectronVolts, back.ConductionElectronVolts, 1e-15);
     }
 
@@ -36,7 +37,7 @@ public sealed class BandOffsetTest
     {
         // In0.53Ga0.47As/In0.52Al0.48As on InP: ΔEc ≈ 0.50–0.52 eV (common practice, no single source;
         // from memory). Tolerance 0.03 eV around 0.51: quoted range plus uncertainty of bowings from memory.
-        var o = BandOffset.Between(TernaryAlloy.InGaAs.At(0.53), TernaryAlloy.InAlAs.At(0.52), 77);
+        var o = BandOffset.Between(TernaryAlloy.InGaAs.At(0.53), TernaryAlloy.InAlAs.At(0.52), Temperature.FromKelvin(77));
         Assert.Equal(0.51, o.ConductionElectronVolts, 0.03);
     }
 
@@ -45,22 +46,22 @@ public sealed class BandOffsetTest
     {
         // InAs/GaSb is the textbook broken-gap (type III) pair: the InAs conduction edge lies below the
         // GaSb valence edge, by about 0.1–0.15 eV (common practice, no single source; from memory).
-        var o = BandOffset.Between(Material.InAs, Material.GaSb, 0);
-        var overlap = Material.GaSb.ValenceBandOffsetElectronVolts - Material.InAs.ConductionBandEdgeElectronVolts(0);
+        var o = BandOffset.Between(Material.InAs, Material.GaSb, Temperature.FromKelvin(0));
+        var overlap = Material.GaSb.ValenceBandOffsetElectronVolts - Material.InAs.ConductionBandEdgeElectronVolts(Temperature.FromKelvin(0));
         Assert.InRange(overlap, 0.10, 0.20);
-        Assert.True(o.ValenceElectronVolts > Material.InAs.BandGapElectronVolts(0));
+        Assert.True(o.ValenceElectronVolts > Material.InAs.BandGapElectronVolts(Temperature.FromKelvin(0)));
     }
 
     [Fact]
     public void ToString_IsReadable()
     {
-        var text = BandOffset.Between(Material.GaAs, TernaryAlloy.AlGaAs.At(0.3), 77).ToString();
+        var text = BandOffset.Between(Material.GaAs, TernaryAlloy.AlGaAs.At(0.3), Temperature.FromKelvin(77)).ToString();
         Assert.StartsWith("GaAs -> Al0.3Ga0.7As at 77 K: dEc = ", text, StringComparison.Ordinal);
     }
 
     [Fact]
     public void Between_Null_Throws()
     {
-        Assert.Equal("second", Assert.Throws<ArgumentNullException>(() => BandOffset.Between(Material.GaAs, null!, 0)).ParamName);
+        Assert.Equal("second", Assert.Throws<ArgumentNullException>(() => BandOffset.Between(Material.GaAs, null!, Temperature.FromKelvin(0))).ParamName);
     }
 }

@@ -26,7 +26,7 @@ public sealed class BuiltStructureTest
         // Potentials: reference = lowest Ec (GaAs) = 0; barrier = Ec(AlGaAs) − Ec(GaAs) with the
         // Varshni gaps (Vurgaftman et al. 2001, from memory), derived here independently; 1e-12 eV.
         var alloy = TernaryAlloy.AlGaAs.At(0.3);
-        var expectedBarrier = alloy.ValenceBandOffsetElectronVolts + alloy.BandGapElectronVolts(77) - (-0.80 + 1.519 - 0.5405e-3 * 77 * 77 / (77 + 204));
+        var expectedBarrier = alloy.ValenceBandOffsetElectronVolts + alloy.BandGapElectronVolts(Temperature.FromKelvin(77)) - (-0.80 + 1.519 - 0.5405e-3 * 77 * 77 / (77 + 204));
         Assert.Equal(0, well.PotentialElectronVolts);
         Assert.Equal(expectedBarrier, barrier.PotentialElectronVolts, 1e-12);
         Assert.Equal(-0.80 + 1.519 - 0.5405e-3 * 77 * 77 / (77 + 204), built.ReferenceElectronVolts, 1e-12);
@@ -225,7 +225,7 @@ public sealed class BuiltStructureTest
         var band = BandStructure.Compute(built.Cell, 1).GetBand(1);
         Assert.InRange(band.BottomElectronVolts, 0, built.Layers[1].PotentialElectronVolts);
 
-        var noHoles = StructureRecipe.Create(4).Add(Material.Create("X", 1, 0, 100, 0.05, -0.5, 0.565), Length.FromNanometres(3))
+        var noHoles = StructureRecipe.Create(Temperature.FromKelvin(4)).Add(Material.Create("X", Energy.FromElectronVolts(1), 0, Temperature.FromKelvin(100), EffectiveMass.FromElectronMasses(0.05), Energy.FromElectronVolts(-0.5), Length.FromNanometres(0.565)), Length.FromNanometres(3))
             .WithCarrier(Carrier.LightHole);
         Assert.Contains("light-hole", Assert.Throws<InvalidOperationException>(() => noHoles.Build()).Message, StringComparison.Ordinal);
     }
@@ -240,7 +240,7 @@ public sealed class BuiltStructureTest
         var built = recipe.WithPeriods(10).Build();
         var gaas = Lead.Like(built.LayerOf(Material.GaAs, Length.FromNanometres(1)));
         var stack = LayerStack.Periodic(gaas, built.Cell, built.Recipe.Periods, gaas);
-        Assert.Equal(70, stack.ThicknessNanometres, 1e-12);
+        Assert.Equal(70, stack.Thickness.Nanometres, 1e-12);
         Assert.Equal(0, stack.LeftLead.PotentialElectronVolts);
         Assert.Equal(0.067, stack.RightLead.MassElectronMasses);
         // LayerOf gives exactly the layer the recipe builds for the same material and width.

@@ -2,6 +2,7 @@
 // Copyright (c) 2026 Periodic contributors
 
 using Periodic.Materials;
+using Periodic.Units;
 
 namespace Periodic.Tests.Materials;
 
@@ -44,15 +45,15 @@ public sealed class MaterialTest
         // GaAs Eg(300 K) ≈ 1.422–1.424 eV is the well-known room-temperature handbook value (common
         // practice, no single source). Varshni law with Vurgaftman's GaAs values (from memory):
         // 1.519 − 0.5405e-3·300²/(300 + 204) = 1.42248 eV. Tolerance 2 meV: the spread of quoted values.
-        Assert.Equal(1.519 - 0.5405e-3 * 300 * 300 / (300 + 204), Material.GaAs.BandGapElectronVolts(300), 1e-12);
-        Assert.Equal(1.423, Material.GaAs.BandGapElectronVolts(300), 0.002);
+        Assert.Equal(1.519 - 0.5405e-3 * 300 * 300 / (300 + 204), Material.GaAs.BandGapElectronVolts(Temperature.FromKelvin(300)), 1e-12);
+        Assert.Equal(1.423, Material.GaAs.BandGapElectronVolts(Temperature.FromKelvin(300)), 0.002);
     }
 
     [Fact]
     public void BandGap_GaAsLiquidNitrogen_MatchesHandbookValue()
     {
         // GaAs Eg(77 K) ≈ 1.508 eV (common practice, no single source; from memory). Tolerance 2 meV.
-        Assert.Equal(1.508, Material.GaAs.BandGapElectronVolts(77), 0.002);
+        Assert.Equal(1.508, Material.GaAs.BandGapElectronVolts(Temperature.FromKelvin(77)), 0.002);
     }
 
     [Fact]
@@ -61,7 +62,7 @@ public sealed class MaterialTest
         // Varshni law Eg(T) = Eg(0) − αT²/(T + β) (Varshni, Physica 34, 149 (1967)) gives Eg(0) at T = 0 exactly.
         foreach (var m in Material.Binaries)
         {
-            Assert.Equal(m.BandGapAtZeroKelvinElectronVolts, m.BandGapElectronVolts(0));
+            Assert.Equal(m.BandGapAtZeroKelvinElectronVolts, m.BandGapElectronVolts(Temperature.FromKelvin(0)));
         }
     }
 
@@ -70,7 +71,7 @@ public sealed class MaterialTest
     {
         // E_c = VBO + Eg(T) (the convention of Vurgaftman et al. 2001: VBO independent of T). Exact up to one rounding.
         var m = Material.InAs;
-        Assert.Equal(m.ValenceBandOffsetElectronVolts + m.BandGapElectronVolts(150), m.ConductionBandEdgeElectronVolts(150), 1e-15);
+        Assert.Equal(m.ValenceBandOffsetElectronVolts + m.BandGapElectronVolts(Temperature.FromKelvin(150)), m.ConductionBandEdgeElectronVolts(Temperature.FromKelvin(150)), 1e-15);
     }
 
     [Fact]
@@ -89,17 +90,17 @@ public sealed class MaterialTest
     [Fact]
     public void With_OverridesOneFieldAndMarksIt()
     {
-        var custom = Material.GaAs.WithElectronMass(0.0665);
+        var custom = Material.GaAs.WithElectronMass(EffectiveMass.FromElectronMasses(0.0665));
         Assert.Equal(0.0665, custom.ElectronMassElectronMasses);
         Assert.Equal(ParameterStatus.CallerSupplied, custom.StatusOf(MaterialParameter.ElectronMass));
         Assert.Equal(ParameterStatus.FromMemory, custom.StatusOf(MaterialParameter.BandGapAtZeroKelvin));
         Assert.Equal(Material.GaAs.BandGapAtZeroKelvinElectronVolts, custom.BandGapAtZeroKelvinElectronVolts);
         Assert.Equal(0.067, Material.GaAs.ElectronMassElectronMasses); // the original is unchanged
 
-        var v = Material.GaAs.WithElectronMass(0.0665).WithVarshni(0.5e-3, 200).WithValenceBandOffset(-0.8).WithLatticeConstant(0.5653)
-            .WithBandGapAtZeroKelvin(1.52).WithHeavyHoleMass(0.5).WithLightHoleMass(0.08).WithName("my GaAs");
+        var v = Material.GaAs.WithElectronMass(EffectiveMass.FromElectronMasses(0.0665)).WithVarshni(0.5e-3, Temperature.FromKelvin(200)).WithValenceBandOffset(Energy.FromElectronVolts(-0.8)).WithLatticeConstant(Length.FromNanometres(0.5653))
+            .WithBandGapAtZeroKelvin(Energy.FromElectronVolts(1.52)).WithHeavyHoleMass(EffectiveMass.FromElectronMasses(0.5)).WithLightHoleMass(EffectiveMass.FromElectronMasses(0.08)).WithName("my GaAs");
         Assert.Equal("my GaAs", v.Name);
-        Assert.Equal(1.52 - 0.5e-3 * 100 * 100 / 300, v.BandGapElectronVolts(100), 1e-15);
+        Assert.Equal(1.52 - 0.5e-3 * 100 * 100 / 300, v.BandGapElectronVolts(Temperature.FromKelvin(100)), 1e-15);
         foreach (var p in Enum.GetValues<MaterialParameter>())
         {
             Assert.Equal(ParameterStatus.CallerSupplied, v.StatusOf(p));
@@ -109,7 +110,7 @@ public sealed class MaterialTest
     [Fact]
     public void Create_CustomMaterial_AllCallerSupplied()
     {
-        var m = Material.Create("X", 1.0, 0.4e-3, 100, 0.05, -0.5, 0.6);
+        var m = Material.Create("X", Energy.FromElectronVolts(1.0), 0.4e-3, Temperature.FromKelvin(100), EffectiveMass.FromElectronMasses(0.05), Energy.FromElectronVolts(-0.5), Length.FromNanometres(0.6));
         Assert.Equal(ParameterStatus.CallerSupplied, m.StatusOf(MaterialParameter.ElectronMass));
         Assert.Equal(ParameterStatus.NotAvailable, m.StatusOf(MaterialParameter.HeavyHoleMass));
         Assert.Null(m.HeavyHoleMassElectronMasses);
@@ -119,26 +120,36 @@ public sealed class MaterialTest
     [Fact]
     public void Create_BadValues_NameTheParameter()
     {
-        Assert.Equal("bandGapAtZeroKelvinElectronVolts",
-            Assert.Throws<ArgumentOutOfRangeException>(() => Material.Create("X", 0, 0, 100, 0.05, 0, 0.6)).ParamName);
-        Assert.Equal("electronMassElectronMasses",
-            Assert.Throws<ArgumentOutOfRangeException>(() => Material.Create("X", 1, 0, 100, double.NaN, 0, 0.6)).ParamName);
-        Assert.Equal("heavyHoleMassElectronMasses",
-            Assert.Throws<ArgumentOutOfRangeException>(() => Material.Create("X", 1, 0, 100, 0.05, 0, 0.6, -1)).ParamName);
-        Assert.Equal("name", Assert.Throws<ArgumentException>(() => Material.Create(" ", 1, 0, 100, 0.05, 0, 0.6)).ParamName);
-        Assert.Equal("varshniBetaKelvin", Assert.Throws<ArgumentOutOfRangeException>(() => Material.GaAs.WithVarshni(1e-4, 0)).ParamName);
-        Assert.Equal("latticeConstantNanometres", Assert.Throws<ArgumentOutOfRangeException>(() => Material.GaAs.WithLatticeConstant(-1)).ParamName);
+        // Typed values that a type admits but a material does not: a zero gap, the default (zero) mass, a negative
+        // lattice constant, a zero Varshni β. Non-finite values cannot be built into the types at all.
+        var gap = Energy.FromElectronVolts(1);
+        var beta = Temperature.FromKelvin(100);
+        var mass = EffectiveMass.FromElectronMasses(0.05);
+        var vbo = Energy.FromElectronVolts(0);
+        var a = Length.FromNanometres(0.6);
+        Assert.Equal("bandGapAtZeroKelvin",
+            Assert.Throws<ArgumentOutOfRangeException>(() => Material.Create("X", Energy.FromElectronVolts(0), 0, beta, mass, vbo, a)).ParamName);
+        Assert.Equal("electronMass",
+            Assert.Throws<ArgumentOutOfRangeException>(() => Material.Create("X", gap, 0, beta, default, vbo, a)).ParamName);
+        Assert.Equal("heavyHoleMass",
+            Assert.Throws<ArgumentOutOfRangeException>(() => Material.Create("X", gap, 0, beta, mass, vbo, a, default(EffectiveMass))).ParamName);
+        Assert.Equal("latticeConstant",
+            Assert.Throws<ArgumentOutOfRangeException>(() => Material.Create("X", gap, 0, beta, mass, vbo, Length.FromNanometres(-1))).ParamName);
+        Assert.Equal("name", Assert.Throws<ArgumentException>(() => Material.Create(" ", gap, 0, beta, mass, vbo, a)).ParamName);
+        Assert.Equal("varshniBeta", Assert.Throws<ArgumentOutOfRangeException>(() => Material.GaAs.WithVarshni(1e-4, Temperature.FromKelvin(0))).ParamName);
+        Assert.Equal("latticeConstant", Assert.Throws<ArgumentOutOfRangeException>(() => Material.GaAs.WithLatticeConstant(Length.FromNanometres(-1))).ParamName);
+        Assert.Equal("electronMass", Assert.Throws<ArgumentOutOfRangeException>(() => Material.GaAs.WithElectronMass(default)).ParamName);
     }
 
     [Fact]
     public void BandGap_BadTemperature_NamesTheParameter()
     {
-        Assert.Equal("temperatureKelvin", Assert.Throws<ArgumentOutOfRangeException>(() => Material.GaAs.BandGapElectronVolts(-1)).ParamName);
-        Assert.Equal("temperatureKelvin", Assert.Throws<ArgumentOutOfRangeException>(() => Material.GaAs.BandGapElectronVolts(double.NaN)).ParamName);
-        Assert.Equal("temperatureKelvin", Assert.Throws<ArgumentOutOfRangeException>(() => Material.GaAs.BandGapElectronVolts(1001)).ParamName);
+        Assert.Equal("kelvin", Assert.Throws<ArgumentOutOfRangeException>(() => Material.GaAs.BandGapElectronVolts(Temperature.FromKelvin(-1))).ParamName);
+        Assert.Equal("kelvin", Assert.Throws<ArgumentOutOfRangeException>(() => Material.GaAs.BandGapElectronVolts(Temperature.FromKelvin(double.NaN))).ParamName);
+        Assert.Equal("temperature", Assert.Throws<ArgumentOutOfRangeException>(() => Material.GaAs.BandGapElectronVolts(Temperature.FromKelvin(1001))).ParamName);
         // A custom law that closes the gap is refused rather than returning a negative gap.
-        var closing = Material.Create("X", 0.1, 1e-3, 10, 0.05, 0, 0.6);
-        Assert.Equal("temperatureKelvin", Assert.Throws<ArgumentOutOfRangeException>(() => closing.BandGapElectronVolts(300)).ParamName);
+        var closing = Material.Create("X", Energy.FromElectronVolts(0.1), 1e-3, Temperature.FromKelvin(10), EffectiveMass.FromElectronMasses(0.05), Energy.FromElectronVolts(0), Length.FromNanometres(0.6));
+        Assert.Equal("temperature", Assert.Throws<ArgumentOutOfRangeException>(() => closing.BandGapElectronVolts(Temperature.FromKelvin(300))).ParamName);
     }
 
     [Fact]

@@ -31,11 +31,11 @@ public sealed class TernaryAlloyPropertiesTest
                 {
                     return false;
                 }
-                if (m.BandGapElectronVolts(t) > m.BandGapAtZeroKelvinElectronVolts)
+                if (m.BandGapElectronVolts(Periodic.Units.Temperature.FromKelvin(t)) > m.BandGapAtZeroKelvinElectronVolts)
                 {
                     return false;
                 }
-                var o = BandOffset.Between(alloy.MaterialAtZero, m, t);
+                var o = BandOffset.Between(alloy.MaterialAtZero, m, Periodic.Units.Temperature.FromKelvin(t));
                 if (Math.Abs(o.ConductionElectronVolts - o.ValenceElectronVolts - o.GapDifferenceElectronVolts) > 1e-12)
                 {
                     return false;
@@ -52,7 +52,7 @@ public sealed class TernaryAlloyPropertiesTest
         // The documented reference: the lowest conduction-band edge is exactly 0 and every other edge ≥ 0.
         var property = Prop.ForAll(Composition, Temperature, (x, t) =>
         {
-            var built = StructureRecipe.Create(t).Add(Material.GaAs, Length.FromNanometres(4))
+            var built = StructureRecipe.Create(Periodic.Units.Temperature.FromKelvin(t)).Add(Material.GaAs, Length.FromNanometres(4))
                 .Add(TernaryAlloy.AlGaAs.At(x), Length.FromNanometres(3)).Build();
             var min = built.Layers.Min(l => l.PotentialElectronVolts);
             return min == 0 && built.Layers.All(l => l.PotentialElectronVolts >= 0 && l.NonParabolicityPerElectronVolt == 0);

@@ -2,6 +2,7 @@
 // Copyright (c) 2026 Periodic contributors
 
 using Periodic.Materials;
+using Periodic.Units;
 
 namespace Periodic.Tests.Materials;
 
@@ -83,7 +84,7 @@ public sealed class TernaryAlloyTest
         // In0.53Ga0.47As on InP: Eg(300 K) ≈ 0.74–0.75 eV, the value photodetector designers use (common
         // practice, no single source; from memory). Centre 0.745 eV, tolerance 0.015 eV: the quoted range
         // plus the ~10 meV uncertainty of bowing values recalled from memory.
-        Assert.Equal(0.745, TernaryAlloy.InGaAs.At(0.53).BandGapElectronVolts(300), 0.015);
+        Assert.Equal(0.745, TernaryAlloy.InGaAs.At(0.53).BandGapElectronVolts(Temperature.FromKelvin(300)), 0.015);
     }
 
     [Fact]
@@ -91,7 +92,7 @@ public sealed class TernaryAlloyTest
     {
         // In0.52Al0.48As on InP: Eg(300 K) ≈ 1.45–1.46 eV (common practice, no single source; from memory).
         // Tolerance 0.02 eV: quoted range plus the larger uncertainty of the InAlAs bowing (from memory).
-        Assert.Equal(1.455, TernaryAlloy.InAlAs.At(0.52).BandGapElectronVolts(300), 0.02);
+        Assert.Equal(1.455, TernaryAlloy.InAlAs.At(0.52).BandGapElectronVolts(Temperature.FromKelvin(300)), 0.02);
     }
 
     [Fact]
@@ -103,7 +104,7 @@ public sealed class TernaryAlloyTest
         Assert.Equal(0.25 * 0.417 + 0.75 * 1.519, m.BandGapAtZeroKelvinElectronVolts, 1e-12);
         Assert.Equal(0.25 * 0.026 + 0.75 * 0.067, m.ElectronMassElectronMasses, 1e-12);
         Assert.Equal(0.25 * -0.59 + 0.75 * -0.80, m.ValenceBandOffsetElectronVolts, 1e-12);
-        var heavier = TernaryAlloy.AlGaAs.WithEndpoints(Material.AlAs, Material.GaAs.WithElectronMass(0.07));
+        var heavier = TernaryAlloy.AlGaAs.WithEndpoints(Material.AlAs, Material.GaAs.WithElectronMass(EffectiveMass.FromElectronMasses(0.07)));
         Assert.Equal(0.07, heavier.At(0).ElectronMassElectronMasses);
         Assert.False(TernaryAlloy.AlGaAs.WithDirectCompositionRange(0, 0.2).At(0.3).IsGammaValleyLowest);
     }
@@ -123,9 +124,9 @@ public sealed class TernaryAlloyTest
         // practice) must agree within 1 meV at 300 K for Al0.3Ga0.7As, as the docs claim.
         var x = 0.3;
         var alloy = TernaryAlloy.AlGaAs.At(x);
-        var shiftAlloy = alloy.BandGapAtZeroKelvinElectronVolts - alloy.BandGapElectronVolts(300);
-        var shiftBinaries = x * (Material.AlAs.BandGapAtZeroKelvinElectronVolts - Material.AlAs.BandGapElectronVolts(300))
-            + (1 - x) * (Material.GaAs.BandGapAtZeroKelvinElectronVolts - Material.GaAs.BandGapElectronVolts(300));
+        var shiftAlloy = alloy.BandGapAtZeroKelvinElectronVolts - alloy.BandGapElectronVolts(Temperature.FromKelvin(300));
+        var shiftBinaries = x * (Material.AlAs.BandGapAtZeroKelvinElectronVolts - Material.AlAs.BandGapElectronVolts(Temperature.FromKelvin(300)))
+            + (1 - x) * (Material.GaAs.BandGapAtZeroKelvinElectronVolts - Material.GaAs.BandGapElectronVolts(Temperature.FromKelvin(300)));
         Assert.True(Math.Abs(shiftAlloy - shiftBinaries) < 1e-3);
     }
 }

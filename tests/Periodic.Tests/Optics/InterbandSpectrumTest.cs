@@ -16,10 +16,10 @@ public class InterbandSpectrumTest
         // Two custom materials with equal masses for each carrier, so that every band is Griffiths' finite well (§2.6): the
         // e1–hh1 energy must be Eg(T) of the well (Varshni, Physica 34, 149 (1967), written out here) plus the two
         // confinement energies, and ⟨e1|hh1⟩ the closed-form overlap of two even finite-well states.
-        var well = Material.Create("W", 1.5, 5e-4, 200, 0.07, 0.0, 0.565, heavyHoleMassElectronMasses: 0.5, lightHoleMassElectronMasses: 0.09);
-        var barrier = Material.Create("B", 1.9, 5e-4, 200, 0.07, -0.15, 0.565, heavyHoleMassElectronMasses: 0.5, lightHoleMassElectronMasses: 0.09);
+        var well = Material.Create("W", Energy.FromElectronVolts(1.5), 5e-4, Temperature.FromKelvin(200), EffectiveMass.FromElectronMasses(0.07), Energy.FromElectronVolts(0.0), Length.FromNanometres(0.565), heavyHoleMass: EffectiveMass.FromElectronMasses(0.5), lightHoleMass: EffectiveMass.FromElectronMasses(0.09));
+        var barrier = Material.Create("B", Energy.FromElectronVolts(1.9), 5e-4, Temperature.FromKelvin(200), EffectiveMass.FromElectronMasses(0.07), Energy.FromElectronVolts(-0.15), Length.FromNanometres(0.565), heavyHoleMass: EffectiveMass.FromElectronMasses(0.5), lightHoleMass: EffectiveMass.FromElectronMasses(0.09));
         const double width = 8, t = 300;
-        var recipe = StructureRecipe.Create(t).Add(well, Length.FromNanometres(width));
+        var recipe = StructureRecipe.Create(Temperature.FromKelvin(t)).Add(well, Length.FromNanometres(width));
         var spectrum = InterbandSpectrum.Compute(recipe, barrier, barrier);
 
         var gap = 1.5 - 5e-4 * t * t / (t + 200);
@@ -64,9 +64,9 @@ public class InterbandSpectrumTest
     [Fact]
     public void Compute_NoHoleMasses_Throws()
     {
-        var well = Material.Create("W", 1.5, 5e-4, 200, 0.07, 0.0, 0.565);
-        var barrier = Material.Create("B", 1.9, 5e-4, 200, 0.07, -0.15, 0.565);
-        var e = Assert.Throws<ArgumentException>(() => InterbandSpectrum.Compute(StructureRecipe.Create(300).Add(well, Length.FromNanometres(8)), barrier, barrier));
+        var well = Material.Create("W", Energy.FromElectronVolts(1.5), 5e-4, Temperature.FromKelvin(200), EffectiveMass.FromElectronMasses(0.07), Energy.FromElectronVolts(0.0), Length.FromNanometres(0.565));
+        var barrier = Material.Create("B", Energy.FromElectronVolts(1.9), 5e-4, Temperature.FromKelvin(200), EffectiveMass.FromElectronMasses(0.07), Energy.FromElectronVolts(-0.15), Length.FromNanometres(0.565));
+        var e = Assert.Throws<ArgumentException>(() => InterbandSpectrum.Compute(StructureRecipe.Create(Temperature.FromKelvin(300)).Add(well, Length.FromNanometres(8)), barrier, barrier));
         Assert.Equal("recipe", e.ParamName);
     }
 }

@@ -34,7 +34,7 @@ public sealed class InPlaneDensitiesTest(ITestOutputHelper output)
     {
         // As above, for n(μ, T): the 2D Fermi–Dirac integral in closed form (J. H. Davies, The Physics of Low-Dimensional
         // Semiconductors, ch. 3, from memory) against the integral over k∥² of the 1D density.
-        var result = InPlaneDensities.CarrierDensity(Equal(), 0.06, 77, EffectiveMass.FromElectronMasses(0.067));
+        var result = InPlaneDensities.CarrierDensity(Equal(), Energy.FromElectronVolts(0.06), Temperature.FromKelvin(77), EffectiveMass.FromElectronMasses(0.067));
         output.WriteLine($"{result}; relative difference {result.RelativeErrorOfSingleMass:E2}");
         // 1e-7 relative: the quadrature in k∥² (pieces between edge crossings, 40-point rules).
         Assert.True(Math.Abs(result.RelativeErrorOfSingleMass) < 1e-7, $"relative difference {result.RelativeErrorOfSingleMass:E3}");
@@ -48,7 +48,7 @@ public sealed class InPlaneDensitiesTest(ITestOutputHelper output)
         var cell = Unequal();
         const double e = 0.10, h = 1e-3;
         var g = InPlaneDensities.DensityOfStates(cell, e);
-        var derivative = (InPlaneDensities.CarrierDensity(cell, e + h, 0).ExactPerCubicNanometre - InPlaneDensities.CarrierDensity(cell, e - h, 0).ExactPerCubicNanometre) / (2 * h);
+        var derivative = (InPlaneDensities.CarrierDensity(cell, Energy.FromElectronVolts(e + h), default).ExactPerCubicNanometre - InPlaneDensities.CarrierDensity(cell, Energy.FromElectronVolts(e - h), default).ExactPerCubicNanometre) / (2 * h);
         output.WriteLine($"{g}; dn/dE = {derivative:R}");
         Assert.True(Math.Abs(derivative - g.ExactPerElectronVoltCubicNanometre) / g.ExactPerElectronVoltCubicNanometre < 1e-4, $"g = {g.ExactPerElectronVoltCubicNanometre:R}, dn/dE = {derivative:R}");
     }
@@ -56,7 +56,8 @@ public sealed class InPlaneDensitiesTest(ITestOutputHelper output)
     [Fact]
     public void CarrierDensity_NegativeTemperature_ThrowsNamingIt()
     {
-        var e = Assert.Throws<ArgumentOutOfRangeException>(() => InPlaneDensities.CarrierDensity(Unequal(), 0.1, -1));
-        Assert.Equal("temperatureKelvin", e.ParamName);
+        // The temperature is typed: a negative one is refused where it is made.
+        var e = Assert.Throws<ArgumentOutOfRangeException>(() => InPlaneDensities.CarrierDensity(Unequal(), Energy.FromElectronVolts(0.1), Temperature.FromKelvin(-1)));
+        Assert.Equal("kelvin", e.ParamName);
     }
 }

@@ -48,7 +48,7 @@ public sealed class MinibandDriftTest(ITestOutputHelper output)
         const double width = 0.02, d = 6.0, tau = 1e-13, temperature = 150;
         var kT = temperature * 1.380649e-23 / 1.602176634e-19;
         var cold = MinibandDrift.FromCosineSeries([width / 2, -width / 2], d, tau);
-        var warm = MinibandDrift.FromCosineSeries([width / 2, -width / 2], d, tau, temperature);
+        var warm = MinibandDrift.FromCosineSeries([width / 2, -width / 2], d, tau, Temperature.FromKelvin(temperature));
         var ratio = SpecialFunctions.BesselI1(width / (2 * kT)) / SpecialFunctions.BesselI0(width / (2 * kT));
         var relative = Math.Abs(warm.VelocityAt(1e6) / cold.VelocityAt(1e6) - ratio) / ratio;
         output.WriteLine($"ratio {warm.VelocityAt(1e6) / cold.VelocityAt(1e6):R}, I1/I0 = {ratio:R}, relative difference {relative:E2}");

@@ -3,6 +3,7 @@
 
 using Periodic.Serialization;
 using Periodic.Structures;
+using Periodic.Units;
 
 namespace Periodic.Tests.Serialization;
 
@@ -110,12 +111,12 @@ public sealed class StructureFileMaterialsTest
             {"name": "m", "temperature": "77 K", "cell": [
               {"material": "GaAs", "width": "6 nm"}, {"material": "Al0.3Ga0.7As", "monolayers": 20}]}
             """, "m.json");
-        var expected = Periodic.Materials.StructureRecipe.Create(77)
+        var expected = Periodic.Materials.StructureRecipe.Create(Temperature.FromKelvin(77))
             .Add(Periodic.Materials.StructureRecipe.ParseMaterial("GaAs"), Periodic.Units.Length.FromNanometres(6))
             .Add(Periodic.Materials.RecipeLayer.FromMonolayers(Periodic.Materials.StructureRecipe.ParseMaterial("Al0.3Ga0.7As"), 20))
             .Build();
         Assert.NotNull(s.Materials);
-        Assert.Equal(77.0, s.Materials!.TemperatureKelvin);
+        Assert.Equal(77.0, s.Materials!.Temperature.Kelvin);
         for (var i = 0; i < 2; i++)
         {
             var got = Assert.IsType<Layer>(s.Cell.Elements[i]);
@@ -156,7 +157,7 @@ public sealed class StructureFileStackTest
         // The right lead defaults to the first layer (0 eV, 0.067 m0).
         Assert.Equal(0.0, s.Stack.RightLead.PotentialElectronVolts);
         Assert.Equal(0.067, s.Stack.RightLead.MassElectronMasses);
-        Assert.Equal(66.0, s.Stack.ThicknessNanometres, 1e-12);
+        Assert.Equal(66.0, s.Stack.Thickness.Nanometres, 1e-12);
     }
 
     [Theory]
@@ -221,7 +222,7 @@ public sealed class StructureFileSmoothTest
             """, "f.json");
         var segment = Assert.IsType<FourierSegment>(s.Cell.Elements[0]);
         Assert.Equal(4.0, segment.Width.Nanometres, 1e-15);
-        Assert.Equal(0.01, segment.ConstantElectronVolts, 1e-17);
+        Assert.Equal(0.01, segment.Constant.ElectronVolts, 1e-17);
         Assert.Equal(new[] { 0.2, 0.05 }, segment.CosineElectronVolts.ToArray(), new ToleranceComparer(1e-17));
         Assert.Equal(new[] { 0.0, 0.01 }, segment.SineElectronVolts.ToArray());
         // The potential at x = 0 is constant + sum of cosines (cos 0 = 1).

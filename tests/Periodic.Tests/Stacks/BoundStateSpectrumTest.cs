@@ -189,7 +189,7 @@ public sealed class BoundStateSpectrumTest(ITestOutputHelper output)
         foreach (var level in spectrum.Levels)
         {
             var psi = spectrum.GetWavefunction(level.Index);
-            var grid = Enumerable.Range(0, 20001).Select(i => -10 + (stack.ThicknessNanometres + 20) * i / 20000.0).ToArray();
+            var grid = Enumerable.Range(0, 20001).Select(i => -10 + (stack.Thickness.Nanometres + 20) * i / 20000.0).ToArray();
             var values = new double[grid.Length];
             psi.Evaluate(grid, values);
             var nodes = 0;
@@ -199,12 +199,12 @@ public sealed class BoundStateSpectrumTest(ITestOutputHelper output)
             }
             Assert.Equal(level.Index, nodes);
             var edges = new List<double> { -60 };
-            for (double x = 0; x <= stack.ThicknessNanometres + 1e-9; x += 0)
+            for (double x = 0; x <= stack.Thickness.Nanometres + 1e-9; x += 0)
             {
                 edges.Add(x);
                 x += edges.Count % 2 == 0 ? 4 : 2;
             }
-            edges.Add(stack.ThicknessNanometres + 60);
+            edges.Add(stack.Thickness.Nanometres + 60);
             var norm = 0.0;
             for (var i = 1; i < edges.Count; i++)
             {

@@ -22,7 +22,7 @@ public sealed class LayerStackTest
     {
         var stack = LayerStack.Periodic(Ground, Cell(), 25, Ground, before: [Slab(3, 0.3)], after: [Slab(4, 0), Slab(3, 0.3)]);
         Assert.Equal(4, stack.Parts.Count);
-        Assert.Equal(25 * 6 + 3 + 4 + 3, stack.ThicknessNanometres, 1e-12);
+        Assert.Equal(25 * 6 + 3 + 4 + 3, stack.Thickness.Nanometres, 1e-12);
         Assert.Equal(25 * 2 + 3, stack.ElementCount);
     }
 
@@ -46,7 +46,7 @@ public sealed class LayerStackTest
         Assert.Equal(Ground, reversed.RightLead);
         Assert.True(reversed.Parts[0].IsRepeatedCell);
         Assert.Equal(0.3, ((Layer)reversed.Parts[0].Cell!.Elements[0]).Potential.ElectronVolts);
-        Assert.Equal(stack.ThicknessNanometres, reversed.ThicknessNanometres, 1e-12);
+        Assert.Equal(stack.Thickness.Nanometres, reversed.Thickness.Nanometres, 1e-12);
     }
 
     [Fact]

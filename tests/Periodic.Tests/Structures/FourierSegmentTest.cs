@@ -29,8 +29,8 @@ public sealed class FourierSegmentTest
         Assert.Equal(0, lattice.PotentialAt(0), 1e-14 * recoil);
         Assert.Equal(8 * recoil, lattice.PotentialAt(1.0), 1e-14 * recoil);
         Assert.Equal(4 * recoil, lattice.PotentialAt(0.5), 1e-14 * recoil);
-        Assert.Equal(0, lattice.MinimumPotentialElectronVolts, 1e-13 * recoil);
-        Assert.Equal(8 * recoil, lattice.MaximumPotentialElectronVolts, 1e-13 * recoil);
+        Assert.Equal(0, lattice.MinimumPotential.ElectronVolts, 1e-13 * recoil);
+        Assert.Equal(8 * recoil, lattice.MaximumPotential.ElectronVolts, 1e-13 * recoil);
     }
 
     [Fact]
@@ -44,7 +44,7 @@ public sealed class FourierSegmentTest
         for (var i = 0; i <= 2000; i++)
         {
             var v = segment.PotentialAt(2.0 * i / 2000);
-            Assert.InRange(v, segment.MinimumPotentialElectronVolts - 1e-12, segment.MaximumPotentialElectronVolts + 1e-12);
+            Assert.InRange(v, segment.MinimumPotential.ElectronVolts - 1e-12, segment.MaximumPotential.ElectronVolts + 1e-12);
         }
     }
 

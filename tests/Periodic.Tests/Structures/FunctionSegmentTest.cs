@@ -18,10 +18,10 @@ public sealed class FunctionSegmentTest
         // middle exactly (x = 2 is a scan point), so the range is exact to rounding.
         var segment = FunctionSegment.Create(Width, x => 0.3 * Math.Sin(Math.PI * x / 4), Mass);
         Assert.Equal(FunctionSegment.DefaultStepCount, segment.StepCount);
-        Assert.Equal(0.3, segment.MaximumPotentialElectronVolts, 1e-15);
-        Assert.Equal(0.0, segment.MinimumPotentialElectronVolts, 1e-15);
+        Assert.Equal(0.3, segment.MaximumPotential.ElectronVolts, 1e-15);
+        Assert.Equal(0.0, segment.MinimumPotential.ElectronVolts, 1e-15);
         Assert.False(segment.HasPositionDependentMass);
-        Assert.Equal(0.067, segment.MinimumMassElectronMasses);
+        Assert.Equal(0.067, segment.MinimumMass.ElectronMasses);
     }
 
     [Fact]

@@ -19,8 +19,8 @@ public sealed class SampledSegmentTest
         Assert.Equal(0.1, segment.PotentialAt(1.5), 1e-15);
         Assert.Equal(0.0, segment.PotentialAt(3.0), 1e-15);
         Assert.Equal(-0.2, segment.PotentialAt(4.0), 1e-15);
-        Assert.Equal(-0.2, segment.MinimumPotentialElectronVolts);
-        Assert.Equal(0.2, segment.MaximumPotentialElectronVolts);
+        Assert.Equal(-0.2, segment.MinimumPotential.ElectronVolts);
+        Assert.Equal(0.2, segment.MaximumPotential.ElectronVolts);
         Assert.Equal(2, segment.InterpolationOrder);
         Assert.Equal(2, segment.StepCount);
         Assert.Equal(6, segment.WithStepsPerInterval(3).StepCount);
@@ -48,7 +48,7 @@ public sealed class SampledSegmentTest
     {
         var segment = SampledSegment.Create([0.0, 1.0, 2.0], [0.0, 0.1, 0.0], [0.067, 0.09, 0.067]);
         Assert.True(segment.HasPositionDependentMass);
-        Assert.Equal(0.067, segment.MinimumMassElectronMasses);
+        Assert.Equal(0.067, segment.MinimumMass.ElectronMasses);
         Assert.Contains("piecewise linear", segment.ToString(), StringComparison.Ordinal);
     }
 }

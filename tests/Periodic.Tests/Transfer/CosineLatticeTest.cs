@@ -40,7 +40,7 @@ public sealed class CosineLatticeTest
         // Zhang & Jin (1996) sample output for q = 25 [read]. Relative 1e-9: the published values carry
         // 9 decimals, i.e. 2.5e-11 relative at |a| = 40 and 1.4e-10 at |a| = 3.5, below the bound.
         double[] published = [-40.256779547, -40.256778985, -21.314899691, -21.314860622, -3.522164727, -3.520941527];
-        var result = RefinedBandStructure.Compute(Cell(25), 3, 1e-12);
+        var result = RefinedBandStructure.Compute(Cell(25), 3, RefinementOptions.Create(1e-12));
         Assert.True(result.Converged, result.ToString());
         for (var n = 1; n <= 3; n++)
         {
@@ -57,7 +57,7 @@ public sealed class CosineLatticeTest
         // covers the rounding of the last digit (5e-9 relative at the smallest |a| = 1.86) with margin for
         // a recalled digit; the exact check at q = 5 is the independent matrix reference below.
         double[] table = [-5.80004602, -5.79008060, 1.85818754, 2.09946045, 7.44910974];
-        var result = RefinedBandStructure.Compute(Cell(5), 3, 1e-12);
+        var result = RefinedBandStructure.Compute(Cell(5), 3, RefinementOptions.Create(1e-12));
         double[] computed =
         [
             result.Structure.GetBand(1).BottomElectronVolts, result.Structure.GetBand(1).TopElectronVolts,
@@ -85,7 +85,7 @@ public sealed class CosineLatticeTest
         // reference (exact to rounding, ~1e-15). Relative to max(|a|, 1): a0(q = 0.1) ≈ −q²/2 is near zero,
         // where a relative error of |a| itself is not meaningful; E_R (a = 1) is the natural scale there.
         var reference = MathieuReference.BandEdges(3, q);
-        var result = RefinedBandStructure.Compute(Cell(q), 3, 1e-12);
+        var result = RefinedBandStructure.Compute(Cell(q), 3, RefinementOptions.Create(1e-12));
         Assert.True(result.MaxRelativeError <= 1e-10, result.ToString());
         for (var n = 1; n <= 3; n++)
         {
@@ -110,7 +110,7 @@ public sealed class CosineLatticeTest
     public void Compute_CharacteristicValues_AreOrdered(double q)
     {
         // For q > 0: a0 < b1 < a1 < b2 < a2 < b3 < a3 (Abramowitz & Stegun §20.2, from memory; docs/references.md).
-        var bands = RefinedBandStructure.Compute(Cell(q), 4, 1e-10).Structure;
+        var bands = RefinedBandStructure.Compute(Cell(q), 4, RefinementOptions.Create(1e-10)).Structure;
         var edges = bands.Bands.SelectMany(b => new[] { b.BottomElectronVolts, b.TopElectronVolts }).ToArray();
         for (var i = 1; i < edges.Length; i++)
         {
@@ -128,7 +128,7 @@ public sealed class CosineLatticeTest
         // Two independent methods (Magnus transfer matrix, plane-wave central equation) must agree to 1e-9
         // relative (acceptance), relative to max(|E|, E_R) as above. Bands 1–3 (the acceptance range).
         var amplitude = Energy.FromElectronVolts(2 * q * Recoil);
-        var transfer = RefinedBandStructure.Compute(Cell(q), 3, 1e-12).Structure;
+        var transfer = RefinedBandStructure.Compute(Cell(q), 3, RefinementOptions.Create(1e-12)).Structure;
         var solver = PlaneWaveSolver.Create(FourierSegment.Cosine(Period, amplitude, Mass));
         var centre = solver.EnergiesAt(0, 3);
         var boundary = solver.EnergiesAt(Math.PI / Period.Nanometres, 3);
@@ -148,7 +148,7 @@ public sealed class CosineLatticeTest
         // At q = 0.1 the gap between b4 and a4 is of fourth order in q (small-q expansions of a_r, b_r,
         // Abramowitz & Stegun §20.2, from memory), below what the trace resolves; the edge beside it may be placed at the centre of the gap,
         // and the reported error must then cover the distance to the true edge (independent reference).
-        var result = RefinedBandStructure.Compute(Cell(0.1), 4, 1e-12);
+        var result = RefinedBandStructure.Compute(Cell(0.1), 4, RefinementOptions.Create(1e-12));
         var top = result.Structure.GetBand(4).TopElectronVolts;
         var reference = MathieuReference.B(4, 0.1) * Recoil;
         Assert.True(Math.Abs(top - reference) <= result.EdgeErrorsElectronVolts[7], $"true error {Math.Abs(top - reference):G3} eV, reported {result.EdgeErrorsElectronVolts[7]:G3} eV");

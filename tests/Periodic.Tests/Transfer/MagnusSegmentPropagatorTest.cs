@@ -103,7 +103,7 @@ public sealed class MagnusSegmentPropagatorTest
         const double d = 6, eta0 = 1 / 0.067, eta1 = 0.3 / 0.067, v1 = 0.08;
         var segment = FunctionSegment.Create(Length.FromNanometres(d), x => v1 * Math.Cos(2 * Math.PI * x / d),
             x => 1 / (eta0 + eta1 * Math.Cos(2 * Math.PI * x / d)), 64);
-        var transfer = RefinedBandStructure.Compute(UnitCell.Create(segment), 3, 1e-12);
+        var transfer = RefinedBandStructure.Compute(UnitCell.Create(segment), 3, RefinementOptions.Create(1e-12));
         var solver = PlaneWaveSolver.CreateWithInverseMass(Length.FromNanometres(d), default, [v1], [], eta0, [eta1], []);
         var centre = solver.EnergiesAt(0, 3);
         var boundary = solver.EnergiesAt(Math.PI / d, 3);
@@ -126,8 +126,8 @@ public sealed class MagnusSegmentPropagatorTest
         var d = Length.FromNanometres(2);
         var sine = FourierSegment.Create(d, default, [], [0.3], EffectiveMass.FreeElectron);
         var cosine = FourierSegment.Cosine(d, Energy.FromElectronVolts(0.3), EffectiveMass.FreeElectron);
-        var a = RefinedBandStructure.Compute(UnitCell.Create(sine), 3, 1e-12).Structure;
-        var b = RefinedBandStructure.Compute(UnitCell.Create(cosine), 3, 1e-12).Structure;
+        var a = RefinedBandStructure.Compute(UnitCell.Create(sine), 3, RefinementOptions.Create(1e-12)).Structure;
+        var b = RefinedBandStructure.Compute(UnitCell.Create(cosine), 3, RefinementOptions.Create(1e-12)).Structure;
         for (var n = 1; n <= 3; n++)
         {
             Assert.Equal(b.GetBand(n).BottomElectronVolts, a.GetBand(n).BottomElectronVolts, 1e-10 * Math.Max(1, Math.Abs(b.GetBand(n).BottomElectronVolts)));

@@ -17,7 +17,7 @@ public sealed class OpticalLatticeTest
     private static readonly double Recoil = FourierSegment.RecoilEnergy(Period, AtomMass).ElectronVolts;
 
     private static RefinedBandStructure Bands(double s, int count) =>
-        RefinedBandStructure.Compute(UnitCell.Create(FourierSegment.OpticalLattice(Period, s, AtomMass)), count, 1e-12);
+        RefinedBandStructure.Compute(UnitCell.Create(FourierSegment.OpticalLattice(Period, s, AtomMass)), count, RefinementOptions.Create(1e-12));
 
     [Theory]
     [InlineData(1.0)]

@@ -46,7 +46,7 @@ public sealed class SampledProfileTest
         var spacings = new double[js.Length];
         for (var t = 0; t < js.Length; t++)
         {
-            var bands = RefinedBandStructure.Compute(Sampled(js[t]), 2, 1e-12).Structure;
+            var bands = RefinedBandStructure.Compute(Sampled(js[t]), 2, RefinementOptions.Create(1e-12)).Structure;
             spacings[t] = Period / (4 * js[t] + 2);
             errors[t] = Math.Abs(bands.GetBand(1).BottomElectronVolts - exact.GetBand(1).BottomElectronVolts);
         }
