@@ -19,13 +19,6 @@ internal static class HubbardCommand
 {
     private const int MaxScanDepths = 2000; // each depth is a full Wannier calculation (≈ 0.1 s): a bound on run time
 
-    internal enum DisplayUnit
-    {
-        Recoil,
-        Kilohertz,
-        ElectronVolt,
-    }
-
     public static Command Create()
     {
         var file = Common.FileArgument();
@@ -64,7 +57,7 @@ internal static class HubbardCommand
         command.SetAction(result =>
         {
             var format = Common.Format(result, json, csv);
-            var displayUnit = ParseUnit(result.GetValue(unit)!);
+            var displayUnit = DisplayUnits.ParseLatticeUnit(result.GetValue(unit)!);
             var count = Common.CheckCount(result.GetValue(bands), "--bands", 10);
             var a = ParseScatteringLength(result.GetValue(scattering));
             var confinement = ParseGeometry(result.GetValue(geometry)!, result.GetValue(transverse));
@@ -100,14 +93,6 @@ internal static class HubbardCommand
         });
         return command;
     }
-
-    private static DisplayUnit ParseUnit(string text) => text.ToLowerInvariant() switch
-    {
-        "recoil" or "er" or "e_r" => DisplayUnit.Recoil,
-        "khz" => DisplayUnit.Kilohertz,
-        "ev" => DisplayUnit.ElectronVolt,
-        _ => throw new UsageException($"--unit \"{text}\" is not known; use recoil, kHz or eV."),
-    };
 
     private static Length ParseScatteringLength(string? text)
     {
@@ -237,10 +222,10 @@ internal static class HubbardCommand
         }
     }
 
-    private static (double Factor, string Name) Energy(OpticalLattice lattice, DisplayUnit unit) => unit switch
+    private static (double Factor, string Name) Energy(OpticalLattice lattice, LatticeEnergyUnit unit) => unit switch
     {
-        DisplayUnit.Recoil => (1 / lattice.RecoilEnergy.ElectronVolts, "E_R"),
-        DisplayUnit.Kilohertz => (OpticalLattice.ToHertz(1) / 1e3, "kHz"),
+        LatticeEnergyUnit.Recoil => (1 / lattice.RecoilEnergy.ElectronVolts, "E_R"),
+        LatticeEnergyUnit.Kilohertz => (OpticalLattice.ToHertz(1) / 1e3, "kHz"),
         _ => (1.0, "eV"),
     };
 
@@ -255,7 +240,7 @@ internal static class HubbardCommand
     private const string Limits =
         "Single atom in a perfect lattice: no harmonic trap envelope; the one-band Hubbard model holds only when the gap is much larger than U and kT.\n";
 
-    public static string Render(StructureDefinition structure, OpticalLattice lattice, HubbardParameters[] results, OutputFormat format, DisplayUnit unit)
+    public static string Render(StructureDefinition structure, OpticalLattice lattice, HubbardParameters[] results, OutputFormat format, LatticeEnergyUnit unit)
     {
         if (format == OutputFormat.Json)
         {
@@ -291,7 +276,7 @@ internal static class HubbardCommand
         return Header(lattice, results[0]) + string.Create(CultureInfo.InvariantCulture, $"depth s = {lattice.DepthInRecoilEnergies:G6} E_R\n\n") + table.ToText() + "\n" + Limits;
     }
 
-    public static string RenderScan(StructureDefinition structure, OpticalLattice lattice, IReadOnlyList<HubbardParameters> results, OutputFormat format, DisplayUnit unit)
+    public static string RenderScan(StructureDefinition structure, OpticalLattice lattice, IReadOnlyList<HubbardParameters> results, OutputFormat format, LatticeEnergyUnit unit)
     {
         if (format == OutputFormat.Json)
         {
