@@ -95,7 +95,7 @@ internal static class LatticeOutput
             line.LineWidth = 2.5f;
         }
         var margin = 0.06 * (high - low);
-        plot.Add.Text("bands shaded" + (unit.Note is { } note ? "; " + note : ""), -0.97 * zone, high + 0.5 * margin).LabelFontSize = 12;
+        plot.Add.Text("bands shaded" + (unit.Note is { } note ? "\n" + note : ""), -0.97 * zone, high + 0.5 * margin).LabelFontSize = 12;
         plot.Axes.SetLimits(-zone * 1.02, zone * 1.02, low - margin, high + margin);
         return plot;
     }

@@ -395,7 +395,7 @@ internal static class PlotCommand
         var edge2 = plot.Add.VerticalLine(zone);
         edge1.Color = edge2.Color = Colors.Gray;
         edge1.LinePattern = edge2.LinePattern = LinePattern.Dashed;
-        plot.Add.Text("shaded: the gaps between the bands drawn" + (unit.Note is { } note ? "; " + note : ""), -0.97 * zone, high - 0.02 * (high - low)).LabelFontSize = 12;
+        plot.Add.Text("shaded: the gaps between the bands drawn" + (unit.Note is { } note ? "\n" + note : ""), -0.97 * zone, high - 0.02 * (high - low)).LabelFontSize = 12;
         plot.Axes.SetLimits(-zone * 1.02, zone * 1.02, low, high);
         return plot;
     }
@@ -468,7 +468,11 @@ internal static class PlotCommand
         var unit = AxisUnit(structure, bands, latticeUnit);
         var (lowUnit, highUnit) = EnergyWindow(bands, unit);
         energies ??= Enumerable.Range(0, 3001).Select(i => (lowUnit + (highUnit - lowUnit) * i / 3000.0) * unit.ElectronVolts).ToArray();
-        var (layers, source) = StackOptions.Choose(structure, periods, null, null);
+        // An optical lattice has no uniform layer to take leads from: its leads are free atoms at the lattice's lowest potential
+        // (where the light is off, V = 0), with the atom's mass.
+        var lattice = structure.Stack is null ? structure.OpticalLattice : null;
+        var (layers, source) = StackOptions.Choose(structure, periods, lattice is null ? null : structure.Cell.MinimumPotential.ElectronVolts,
+            lattice?.Species.Mass.ElectronMasses);
         var (stack, results) = TransmissionCommand.Compute(layers, energies, bias);
         var low = unit.From(energies.Min());
         var high = unit.From(energies.Max());
@@ -501,7 +505,7 @@ internal static class PlotCommand
         plot.Axes.Left.TickGenerator = ticks;
         var lead = stack.Stack.LeftLead;
         var note = plot.Add.Text(string.Create(CultureInfo.InvariantCulture,
-            $"{(periodic ? "shaded: minibands of the infinite superlattice of this cell" : "no shading: the stack is not a plain superlattice at zero bias")}; leads V = {unit.From(lead.Potential.ElectronVolts):G4} {unit.Symbol}, m = {lead.Mass.ElectronMasses:G6} m0")
+            $"{(periodic ? "shaded: minibands of the infinite superlattice of this cell" : "no shading: the stack is not a plain superlattice at zero bias")}; leads V = {unit.From(lead.Potential.ElectronVolts):G4} {unit.Symbol}, m = {(lattice is null ? lead.Mass.ElectronMasses.ToString("G6", CultureInfo.InvariantCulture) + " m0" : "the atom's mass")}")
             + (unit.Note is { } unitNote ? "\n" + unitNote : ""),
             high - 0.01 * (high - low), floor + 0.02 * (0.5 - floor));
         note.LabelFontSize = 11;
@@ -690,7 +694,7 @@ internal static class PlotCommand
             deltaNote.LabelFontSize = 11;
         }
         plot.Axes.SetLimits(-0.02 * periods * d, periods * d * 1.3, low, high);
-        plot.Add.Text("shaded: minibands of the infinite superlattice of this cell" + (unit.Note is { } note ? "; " + note : ""), 0.01 * periods * d, high - 0.02 * (high - low)).LabelFontSize = 12;
+        plot.Add.Text("shaded: minibands of the infinite superlattice of this cell" + (unit.Note is { } note ? "\n" + note : ""), 0.01 * periods * d, high - 0.02 * (high - low)).LabelFontSize = 12;
         return plot;
     }
 }
