@@ -20,7 +20,7 @@ internal static class BandsCommand
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
         var output = Common.OutOption();
-        var command = new Command("bands", "List the lowest minibands: edges, widths, band-edge masses, and the gaps between them.");
+        var command = new Command("bands", "List the lowest minibands: edges, widths, band-edge masses along the growth axis, the in-plane mass at each band bottom, and the gaps between them.");
         command.Arguments.Add(file);
         var inPlane = Common.InPlaneWavevectorOption();
         var unit = Common.LatticeUnitOption();

@@ -28,7 +28,7 @@ internal static class CarriersCommand
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
         var output = Common.OutOption();
-        var command = new Command("carriers", "Superlattice carrier density at a Fermi level and temperature, or the Fermi level for a density (spin included, free in-plane motion).");
+        var command = new Command("carriers", "Superlattice carrier density at a Fermi level and temperature, or the Fermi level for a density (spin included): with one in-plane mass, and exact with each layer's own in-plane mass.");
         command.Arguments.Add(file);
         foreach (var option in new Option[] { temperature, fermi, density, mass, json, csv, output })
         {
@@ -60,7 +60,7 @@ internal static class CarriersCommand
     }
 
     public static Option<double?> InPlaneMassOption() => Common.NumberOption("--in-plane-mass", "m0", "0.067",
-        "Mass of the free motion in the layer plane, m0 (default: the mass of the cell's lowest-potential layer, where the carriers sit).");
+        "Mass of the one-in-plane-mass approximation, m0 (default: the mass of the cell's lowest-potential layer, where the carriers sit); the exact values use each layer's own mass.");
 
     public static void CheckMass(double? mass)
     {

@@ -71,7 +71,7 @@ internal static class Common
     /// <summary><c>--unit</c>: the energy unit an optical-lattice file is shown in (tables, CSV, pictures; never JSON).</summary>
     public static Option<string?> LatticeUnitOption() => new("--unit")
     {
-        Description = "For an optical-lattice file: energy unit of the table, CSV and picture: recoil (E_R, the default), kHz (E/h) or eV. "
+        Description = "For an optical-lattice file: energy unit of tables, CSV and pictures: recoil (E_R, the default), kHz (E/h) or eV. "
             + "JSON is always in eV and 1/nm; other files choose eV, meV, ... by magnitude.",
     };
 

@@ -34,7 +34,7 @@ internal static class DosCommand
                 + "(--in-plane-mass) and their relative error.",
         };
         var mass = CarriersCommand.InPlaneMassOption();
-        var command = new Command("dos", "Density of states (spin included) and its integral, Bloch wavevector, decay constant and dE/dk at each energy; with --volume the superlattice's 3D density of states.");
+        var command = new Command("dos", "Density of states (spin included) and its integral, Bloch wavevector, decay constant and dE/dk at each energy; with --volume the superlattice's 3D density of states, exact and with one in-plane mass.");
         command.Arguments.Add(file);
         var inPlane = Common.InPlaneWavevectorOption();
         command.Options.Add(inPlane);

@@ -37,7 +37,7 @@ internal static class FieldCommands
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
         var output = new Option<string?>("--out", "-o") { Description = "Write to this file (atomically) instead of stdout." };
-        var command = new Command("drift", "Miniband drift velocity against electric field (relaxation-time approximation): peak field, peak velocity, Bloch frequency, current density.");
+        var command = new Command("drift", "Miniband drift velocity against electric field (relaxation-time approximation): peak field, peak velocity, Bloch frequency, current density. Picture: plot FILE --show drift.");
         command.Arguments.Add(file);
         foreach (var option in new Option[] { band, tau, temperature, maxField, points, density, json, csv, output })
         {
@@ -179,7 +179,7 @@ internal static class FieldCommands
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
         var output = new Option<string?>("--out", "-o") { Description = "Write to this file (atomically) instead of stdout." };
-        var command = new Command("ladder", "Wannier–Stark ladder of a long superlattice in a uniform field: rung energies and widths, spacing eFd, Bloch frequency.");
+        var command = new Command("ladder", "Wannier–Stark ladder of a long superlattice in a uniform field: rung energies and widths, spacing eFd, Bloch frequency. Picture: plot FILE --show ladder.");
         command.Arguments.Add(file);
         foreach (var option in new Option[] { band, field, periods, json, csv, output })
         {

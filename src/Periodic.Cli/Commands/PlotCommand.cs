@@ -42,7 +42,7 @@ internal static class PlotCommand
         };
         show.AcceptOnlyFromAmong(Kinds);
         var count = Common.CountOption(3);
-        var periods = new Option<int?>("--periods", "-N") { Description = "Periods drawn in the profile (default 3); for transmission, stack and iv: N periods of the cell instead of the file's stack (default: the file's stack, else 10 periods)." };
+        var periods = new Option<int?>("--periods", "-N") { Description = "Periods drawn in the profile (default 3); for transmission, stack and iv: N periods of the cell instead of the file's stack (default: the file's stack, else 10 periods); for ladder: periods of the biased stack (8 to 400, default 30)." };
         var fermi = Common.NumberOption("--fermi-level", "eV", "0.02", "For iv: Fermi level of the left contact, eV.");
         var temperature = Common.NumberOption("--temperature", "K", "77",
             "For iv: temperature, K (default: the file's temperature for a cell of material layers). For drift: temperature of the occupation, K (default 0).");
@@ -54,7 +54,8 @@ internal static class PlotCommand
         var bias = TransmissionCommand.BiasOption();
         var width = new Option<int>("--width") { Description = "Image width, pixels.", DefaultValueFactory = _ => 900 };
         var height = new Option<int>("--height") { Description = "Image height, pixels.", DefaultValueFactory = _ => 600 };
-        var command = new Command("plot", "Draw E(k), the DOS, the potential profile with its minibands, or T(E) to a PNG or SVG file.");
+        var command = new Command("plot", "Draw a picture to a PNG or SVG file: E(k), the DOS, the potential profile with its minibands, T(E), a stack with its levels, "
+            + "the I-V curve, the minibands against k∥, the drift velocity against field or the Wannier-Stark ladder (--show).");
         command.Arguments.Add(file);
         var inPlane = Common.InPlaneWavevectorOption();
         var unitOption = Common.LatticeUnitOption();
