@@ -45,7 +45,7 @@ internal static class HubbardCommand
             Description = "Energy unit of the table and CSV: recoil (E_R, default), kHz (E/h) or eV. JSON is always in eV.",
             DefaultValueFactory = _ => "recoil",
         };
-        var plot = new Option<string?>("--plot") { Description = "Also draw w(x) and |w(x)|² of the lowest band to this .png or .svg file." };
+        var plot = new Option<string?>("--plot") { Description = "Also draw to this .png or .svg file: w(x) and |w(x)|² of the lowest band, or with --depths J, U, the gap and U/J against the depth." };
         var sites = Common.NumberOption("--sites", "sites", "3", "Half-width of the --plot window in lattice sites (default 3).");
         var command = new Command("hubbard",
             "Wannier functions and Hubbard parameters of an optical lattice: tunnelling J1..J3, on-site integral, U, U/J against the superfluid-Mott transition, the gap to the next band and hbar/gap.");
@@ -76,13 +76,17 @@ internal static class HubbardCommand
             var structure = Common.Load(result.GetValue(file)!);
             var lattice = structure.OpticalLattice ?? throw new UsageException(
                 $"{structure.SourceName} does not describe an optical lattice; hubbard needs a file with \"opticalLattice\": {{\"wavelength\": ..., \"depth\": ..., \"species\": ...}} (see docs/cold-atoms.md).");
-            var text2 = scan is null
+            var scanned = scan is null ? null : Scan(lattice, scan, confinement, a);
+            var text2 = scanned is null
                 ? Render(structure, lattice, Describe(lattice, confinement, a, count), format, displayUnit)
-                : RenderScan(structure, lattice, Scan(lattice, scan, confinement, a), format, displayUnit);
+                : RenderScan(structure, lattice, scanned, format, displayUnit);
             if (plotPath is not null)
             {
-                var wannier = HubbardParameters.Compute(lattice, confinement, a).Wannier;
-                PlotCommand.Save(Draw(lattice, wannier, window), plotPath, extension, 900, 560);
+                // A depth scan is drawn as J, U, gap and U/J against s; a single depth as its Wannier function.
+                var picture = scanned is null
+                    ? Draw(lattice, HubbardParameters.Compute(lattice, confinement, a).Wannier, window)
+                    : DrawScan(structure, lattice, scanned, DisplayUnits.Lattice(lattice, displayUnit));
+                PlotCommand.Save(picture, plotPath, extension, 900, 560);
             }
             Common.Emit(text2, result.GetValue(output));
             if (plotPath is not null)
@@ -354,6 +358,55 @@ internal static class HubbardCommand
         w.Number("tailRatio", wannier.TailRatio);
         w.WriteEndObject();
     }
+
+    /// <summary>
+    /// A depth scan: J, U and the gap above the band (log scale, left axis, in <paramref name="unit"/>) and U/J (log scale, right
+    /// axis) against s, with the superfluid–Mott critical value dashed on the right axis.
+    /// </summary>
+    private static Plot DrawScan(StructureDefinition structure, OpticalLattice lattice, IReadOnlyList<HubbardParameters> results, EnergyUnit unit)
+    {
+        var s = results.Select(r => r.Lattice.DepthInRecoilEnergies).ToArray();
+        var plot = PlotCommand.NewPlot($"Hubbard parameters against depth: {structure.Name}", "lattice depth s (E_R)", $"J, U, gap above ({unit.Symbol}, log scale)");
+        var tickLabels = new ScottPlot.TickGenerators.NumericAutomatic
+        {
+            // Ticks at log10 values, labelled with the value itself to two digits (0.032, 1, 630).
+            LabelFormatter = v => Plain(double.Parse(Math.Pow(10, v).ToString("G2", CultureInfo.InvariantCulture), CultureInfo.InvariantCulture)),
+        };
+        var rightLabels = new ScottPlot.TickGenerators.NumericAutomatic { LabelFormatter = tickLabels.LabelFormatter };
+        plot.Axes.Left.TickGenerator = tickLabels;
+        plot.Axes.Right.TickGenerator = rightLabels;
+        plot.Axes.Right.Label.Text = "U/J (log scale)";
+        plot.Axes.Right.Label.FontSize = 14;
+        void Curve(double[] values, string label, Color color, bool right)
+        {
+            var line = plot.Add.Scatter(s, values.Select(Math.Log10).ToArray());
+            line.LegendText = label;
+            line.Color = color;
+            line.LineWidth = 2;
+            line.MarkerSize = s.Length > 60 ? 0 : 5;
+            if (right)
+            {
+                line.Axes.YAxis = plot.Axes.Right;
+                line.LinePattern = LinePattern.Dashed;
+            }
+        }
+        Curve([.. results.Select(r => unit.From(r.TunnellingElectronVolts))], "J", Colors.SteelBlue, false);
+        Curve([.. results.Select(r => unit.From(r.InteractionElectronVolts))], "U", Colors.DarkOrange, false);
+        Curve([.. results.Select(r => unit.From(r.GapAboveElectronVolts))], "gap above", Colors.Gray, false);
+        Curve([.. results.Select(r => r.InteractionToTunnellingRatio)], "U/J (right axis)", Colors.DarkRed, true);
+        var critical = plot.Add.HorizontalLine(Math.Log10(results[0].CriticalRatio));
+        critical.Axes.YAxis = plot.Axes.Right;
+        critical.Color = Colors.DarkRed.WithAlpha(0.5);
+        critical.LinePattern = LinePattern.Dotted;
+        critical.LegendText = string.Create(CultureInfo.InvariantCulture, $"(U/J)c = {results[0].CriticalRatio:G4}");
+        plot.ShowLegend(Alignment.UpperLeft);
+        return plot;
+    }
+
+    /// <summary>A tick value without an exponent where it has at most five digits (1600, 0.0032), else in E notation.</summary>
+    private static string Plain(double value) => value is >= 1e-4 and < 1e5
+        ? value.ToString("0.#####", CultureInfo.InvariantCulture)
+        : value.ToString("G2", CultureInfo.InvariantCulture);
 
     private static Plot Draw(OpticalLattice lattice, WannierFunction wannier, double sites)
     {
