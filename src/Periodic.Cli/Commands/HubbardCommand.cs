@@ -264,14 +264,15 @@ internal static class HubbardCommand
             });
         }
         var (f, name) = Energy(lattice, unit);
-        var table = new Table("band", $"J1 ({name})", $"J2 ({name})", $"J3 ({name})", "int |w|^4 dx (1/nm)", "spread (nm)", $"U ({name})", "U/J", "(U/J)/(U/J)c", $"gap above ({name})", "hbar/gap (ms)");
+        // The CSV carries the table's units (named in each header) at full round-trip precision; the text table rounds.
+        var table = new Table(new Column("band"), new Column("J1", name, Format: "G6"), new Column("J2", name, Format: "G4"), new Column("J3", name, Format: "G4"),
+            new Column("int |w|^4 dx", "1/nm", Format: "G8"), new Column("spread", "nm", Format: "G6"), new Column("U", name, Format: "G6"), new Column("U/J", Format: "G6"),
+            new Column("(U/J)/(U/J)c", Format: "G4"), new Column("gap above", name, Format: "G6"), new Column("hbar/gap", "ms", Format: "G4"));
         foreach (var r in results)
         {
             var j = r.Wannier.HoppingElectronVolts;
-            table.Add(Table.Integer(r.BandIndex), Table.Number(j[0] * f, "G6"), Table.Number(j[1] * f, "G4"), Table.Number(j[2] * f, "G4"),
-                Table.Number(r.Wannier.OnSiteIntegralPerNanometre, "G8"), Table.Number(Math.Sqrt(r.Wannier.SpreadNanometresSquared), "G6"),
-                Table.Number(r.InteractionElectronVolts * f, "G6"), Table.Number(r.InteractionToTunnellingRatio, "G6"), Table.Number(r.RatioToCritical, "G4"),
-                Table.Number(r.GapAboveElectronVolts * f, "G6"), Table.Number(r.AdiabaticTimeSeconds * 1e3, "G4"));
+            table.Add(r.BandIndex, j[0] * f, j[1] * f, j[2] * f, r.Wannier.OnSiteIntegralPerNanometre, Math.Sqrt(r.Wannier.SpreadNanometresSquared),
+                r.InteractionElectronVolts * f, r.InteractionToTunnellingRatio, r.RatioToCritical, r.GapAboveElectronVolts * f, r.AdiabaticTimeSeconds * 1e3);
         }
         if (format == OutputFormat.Csv)
         {
@@ -301,12 +302,12 @@ internal static class HubbardCommand
             });
         }
         var (f, name) = Energy(lattice, unit);
-        var table = new Table("s (E_R)", $"J ({name})", $"U ({name})", "U/J", "(U/J)/(U/J)c", $"gap above ({name})", "hbar/gap (ms)");
+        var table = new Table(new Column("s", "E_R", Format: "G6"), new Column("J", name, Format: "G6"), new Column("U", name, Format: "G6"), new Column("U/J", Format: "G6"),
+            new Column("(U/J)/(U/J)c", Format: "G4"), new Column("gap above", name, Format: "G6"), new Column("hbar/gap", "ms", Format: "G4"));
         foreach (var r in results)
         {
-            table.Add(Table.Number(r.Lattice.DepthInRecoilEnergies, "G6"), Table.Number(r.TunnellingElectronVolts * f, "G6"), Table.Number(r.InteractionElectronVolts * f, "G6"),
-                Table.Number(r.InteractionToTunnellingRatio, "G6"), Table.Number(r.RatioToCritical, "G4"), Table.Number(r.GapAboveElectronVolts * f, "G6"),
-                Table.Number(r.AdiabaticTimeSeconds * 1e3, "G4"));
+            table.Add(r.Lattice.DepthInRecoilEnergies, r.TunnellingElectronVolts * f, r.InteractionElectronVolts * f, r.InteractionToTunnellingRatio, r.RatioToCritical,
+                r.GapAboveElectronVolts * f, r.AdiabaticTimeSeconds * 1e3);
         }
         if (format == OutputFormat.Csv)
         {
