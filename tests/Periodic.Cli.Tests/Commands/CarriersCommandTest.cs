@@ -31,12 +31,21 @@ public sealed class CarriersCommandTest
         // 1e-9 relative: the Gauss–Legendre panels integrate the folded parabola's (μ − E)₊ to rounding; the bound is the acceptance one.
         Assert.Equal(expected, json.GetProperty("density").GetDouble(), 1e-9 * expected);
         Assert.Equal(json.GetProperty("density").GetDouble() * 1e21, json.GetProperty("densityPerCm3").GetDouble(), 1e-3);
+        // The exact in-plane integral: one mass everywhere, so it equals the one-mass value (separation of variables); 1e-9 relative
+        // as for the exact density of states (mapped Gauss–Legendre rules, rounding-level crossings; measured 7e-16).
+        var exact = json.GetProperty("exact");
+        Assert.Equal(expected, exact.GetProperty("density").GetDouble(), 1e-9 * expected);
+        Assert.InRange(exact.GetProperty("singleMassRelativeError").GetDouble(), -1e-9, 1e-9);
 
         // The other direction: the Fermi level for that density (given in 1/cm3) is E_F again.
         var back = ToolRunner.Invoke("carriers", file, "--density", (expected * 1e21).ToString("R", CultureInfo.InvariantCulture), "--temperature", "0", "--json");
         Assert.True(back.ExitCode == 0, back.Stderr);
         // 1e-9 relative: the Fermi level is solved to 1e-12 eV (BandProperties' default tolerance).
         Assert.Equal(fermi, back.Json().GetProperty("fermiLevel").GetDouble(), 1e-9 * fermi);
+        var exactBack = back.Json().GetProperty("exact");
+        Assert.True(exactBack.GetProperty("converged").GetBoolean());
+        // The exact Fermi level for the density: n ∝ E_F^{3/2}, so a 1e-9 density residual moves E_F by less than 1e-9 relative.
+        Assert.Equal(fermi, exactBack.GetProperty("fermiLevel").GetDouble(), 1e-9 * fermi);
     }
 
     [Fact]
@@ -199,28 +208,6 @@ public sealed class CarriersCommandTest
         Assert.Contains("non-parabolic", json.GetProperty("exactInPlaneUnavailable").GetString(), StringComparison.Ordinal);
         Assert.False(json.GetProperty("points")[0].TryGetProperty("dos3dExact", out _));
         Assert.Contains("exact 3D values not computed", run.Stderr, StringComparison.Ordinal);
-    }
-
-    [Fact]
-    public void Carriers_Exact_FreeElectronsMatchFermiSphereBothWays()
-    {
-        // Kittel ch. 6: n = k_F³/(3π²); one mass everywhere, so the exact value equals the single-mass one (separation of variables).
-        const double fermi = 0.05;
-        var kF = Math.Sqrt(0.067 * fermi / HbarSquaredOverTwoMe);
-        var expected = kF * kF * kF / (3 * Math.PI * Math.PI);
-        var file = ToolRunner.TempFile(FreeElectrons);
-        var run = ToolRunner.Invoke("carriers", file, "--fermi-level", "0.05", "--temperature", "0", "--json");
-        Assert.True(run.ExitCode == 0, run.Stderr);
-        var exact = run.Json().GetProperty("exact");
-        // 1e-9 relative: as for the exact density of states (mapped Gauss–Legendre, rounding-level crossings).
-        Assert.Equal(expected, exact.GetProperty("density").GetDouble(), 1e-9 * expected);
-        Assert.InRange(exact.GetProperty("singleMassRelativeError").GetDouble(), -1e-9, 1e-9);
-        var back = ToolRunner.Invoke("carriers", file, "--density", (expected * 1e21).ToString("R", CultureInfo.InvariantCulture), "--temperature", "0", "--json");
-        Assert.True(back.ExitCode == 0, back.Stderr);
-        var exactBack = back.Json().GetProperty("exact");
-        Assert.True(exactBack.GetProperty("converged").GetBoolean());
-        // 1e-9 relative: n ∝ E_F^{3/2}, so a 1e-9 density residual moves E_F by less than 1e-9 relative.
-        Assert.Equal(fermi, exactBack.GetProperty("fermiLevel").GetDouble(), 1e-9 * fermi);
     }
 
     [Fact]
