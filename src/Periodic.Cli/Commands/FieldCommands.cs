@@ -92,6 +92,7 @@ internal static class FieldCommands
     /// <summary>The drift of band <paramref name="band"/> and the highest field of its table or plot, kV/cm (checked against the single-miniband limit).</summary>
     public static (MinibandDrift Drift, double TopKilovoltsPerCentimetre) SetUpDrift(StructureDefinition structure, int band, double ps, double kelvin, double? maxField)
     {
+        RefuseNeutralAtoms(structure, "drift");
         var bands = BandStructure.Compute(structure.Cell, band);
         var drift = MinibandDrift.Create(bands, band, ps * 1e-12, kelvin);
         var limit = drift.MaxFieldVoltsPerMetre / VoltsPerMetrePerKilovoltPerCentimetre;
@@ -207,6 +208,7 @@ internal static class FieldCommands
     {
         var f = fieldKilovoltsPerCentimetre ?? throw new UsageException("--field is required (kV/cm, e.g. --field 10).");
         Limits.CheckRange("--periods", periods, WannierStarkLadder.MinPeriods, MaxLadderPeriods);
+        RefuseNeutralAtoms(structure, "ladder");
         try
         {
             return WannierStarkLadder.Find(structure.Cell, band, periods, f * VoltsPerMetrePerKilovoltPerCentimetre);
@@ -216,6 +218,36 @@ internal static class FieldCommands
             throw new UsageException(e.ParamName == "periods" ? $"--periods: {Common.Describe(e)}" : string.Create(CultureInfo.InvariantCulture,
                 $"--field must be above 0 and at most {LadderLimit(structure, band):R} kV/cm (eFd up to the gap above band {band}); got {f:R}."));
         }
+        catch (ArgumentException e) when (e is not ArgumentOutOfRangeException)
+        {
+            // The cell cannot be put under bias (non-parabolic layers, smooth segments): say so in terms of the ladder, not a bias.
+            throw new UsageException($"the ladder puts {Common.Plural(periods, "period")} of the cell under the field, which needs parabolic layers and delta barriers: {Common.Describe(e)}");
+        }
+    }
+
+    /// <summary>Drift and ladder are for charged carriers: an optical-lattice file holds neutral atoms, which an electric field does not tilt.</summary>
+    public static void RefuseNeutralAtoms(StructureDefinition structure, string what)
+    {
+        if (structure.OpticalLattice is not null)
+        {
+            throw new UsageException($"{what} applies an electric field to charged carriers; {Common.Printable(structure.SourceName)} is an optical lattice of neutral atoms "
+                + "(a tilt by gravity or another force is not modelled).");
+        }
+    }
+
+    /// <summary>The central spacing in meV, or why no pair of middle rungs eFd apart was found.</summary>
+    private static string CentralSpacing(StructureDefinition structure, WannierStarkLadder ladder)
+    {
+        if (double.IsFinite(ladder.CentralSpacingElectronVolts))
+        {
+            return string.Create(CultureInfo.InvariantCulture, $"{ladder.CentralSpacingElectronVolts * 1e3:G10} meV");
+        }
+        // The rungs localise over the Bloch amplitude Δ/(eF); a stack shorter than that holds no ladder in its middle.
+        var band = BandStructure.Compute(structure.Cell, ladder.BandIndex).GetBand(ladder.BandIndex);
+        var amplitude = band.WidthElectronVolts / (ladder.FieldVoltsPerMetre * 1e-9);
+        var length = ladder.Periods * ladder.PeriodNanometres;
+        return string.Create(CultureInfo.InvariantCulture,
+            $"not found (no two rungs eFd apart in the middle third: the Bloch amplitude width/eF = {amplitude:G4} nm {(amplitude > length / 3 ? ">" : "<=")} a third of the {length:G6} nm stack; raise --field or --periods)");
     }
 
     private static double LadderLimit(StructureDefinition structure, int n) =>
@@ -263,7 +295,7 @@ internal static class FieldCommands
             return table.ToCsv();
         }
         var summary = string.Create(CultureInfo.InvariantCulture,
-            $"band {ladder.BandIndex}, {ladder.Periods} periods, F = {ladder.FieldVoltsPerMetre / VoltsPerMetrePerKilovoltPerCentimetre:G8} kV/cm: eFd = {ladder.SpacingElectronVolts * 1e3:G10} meV, central spacing {ladder.CentralSpacingElectronVolts * 1e3:G10} meV, Bloch frequency {ladder.BlochFrequencyHertz * 1e-12:G8} THz\n");
+            $"band {ladder.BandIndex}, {ladder.Periods} periods, F = {ladder.FieldVoltsPerMetre / VoltsPerMetrePerKilovoltPerCentimetre:G8} kV/cm: eFd = {ladder.SpacingElectronVolts * 1e3:G10} meV, central spacing {CentralSpacing(structure, ladder)}, Bloch frequency {ladder.BlochFrequencyHertz * 1e-12:G8} THz\n");
         return Common.TableTitle(structure) + summary + "\n" + table.ToText() + "\n" + LadderLimits + "\n";
     }
 }

@@ -123,4 +123,17 @@ public sealed class FieldCommandsTest
         // CSV at full precision: the first rung's energy equals the JSON's bit for bit.
         Assert.Equal(json.GetProperty("rungs")[0].GetProperty("energy").GetDouble(), double.Parse(csv[1].Split(',')[0], CultureInfo.InvariantCulture));
     }
+
+    [Theory]
+    [InlineData("drift", "rubidium-lattice.json", "drift applies an electric field to charged carriers", "--scattering-time", "0.1")]
+    [InlineData("ladder", "rubidium-lattice.json", "ladder applies an electric field to charged carriers", "--field", "10")]
+    [InlineData("ladder", "nonparabolic.json", "the ladder puts 30 periods of the cell under the field, which needs parabolic layers and delta barriers", "--field", "10")]
+    public void FieldCommands_CellTheFieldCannotAct_ExitsTwoWithoutOutput(string command, string example, string message, params string[] options)
+    {
+        var target = Path.Combine(Path.GetDirectoryName(ToolRunner.TempFile("{}"))!, "out.json");
+        var run = ToolRunner.Invoke([command, ToolRunner.Example(example), "--json", "--out", target, .. options]);
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains(message, run.Stderr, StringComparison.Ordinal);
+        Assert.False(File.Exists(target));
+    }
 }
