@@ -125,14 +125,15 @@ internal static class BandsCommand
             return;
         }
         var unit = DisplayUnits.Energy(structure, bands.Bands.SelectMany(b => new[] { b.BottomElectronVolts, b.TopElectronVolts }));
-        // m* along the growth axis at the band's bottom and top; m∥ the in-plane mass at the bottom (per-layer masses weighted by the Bloch state).
+        // m* along the growth axis at the band's bottom and top; m∥ the in-plane mass at the bottom (per-layer masses weighted by the
+        // Bloch state), last so that the CSV's earlier columns keep their places.
         var table = new Table(new Column("band"), Column.Energy("bottom", unit), Column.Energy("top", unit), Column.Energy("width", unit),
-            new Column("m* bottom", "m0", Format: "G6"), new Column("m* top", "m0", Format: "G6"), new Column("m∥ bottom", "m0", Format: "G6"), Column.Energy("gap above", unit));
+            new Column("m* bottom", "m0", Format: "G6"), new Column("m* top", "m0", Format: "G6"), Column.Energy("gap above", unit), new Column("m∥ bottom", "m0", Format: "G6"));
         foreach (var band in bands.Bands)
         {
             var (mb, mt) = masses[band.Index - 1];
             table.Add(band.Index, band.BottomElectronVolts, band.TopElectronVolts, band.WidthElectronVolts, mb, mt,
-                inPlane?[band.Index - 1].ElectronMasses ?? double.NaN, bands.Gaps[band.Index - 1].WidthElectronVolts);
+                bands.Gaps[band.Index - 1].WidthElectronVolts, inPlane?[band.Index - 1].ElectronMasses ?? double.NaN);
         }
         var note = inPlaneWhy is null ? "" : $"m∥ not available: {inPlaneWhy}\n";
         Common.EmitTable(table, format, Common.TableTitle(structure, unit) + note, outPath);

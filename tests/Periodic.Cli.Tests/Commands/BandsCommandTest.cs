@@ -168,7 +168,7 @@ public sealed class BandsSmoothTest
         var file = ToolRunner.Example("superlattice.json");
         var json = ToolRunner.Invoke("bands", file, "--count", "3", "--json").Json().GetProperty("bands");
         var rows = ToolRunner.Invoke("bands", file, "--count", "3", "--csv").Stdout.Split('\n', StringSplitOptions.RemoveEmptyEntries);
-        Assert.Equal("band,bottom (eV),top (eV),width (eV),m* bottom (m0),m* top (m0),gap above (eV)", rows[0]);
+        Assert.Equal("band,bottom (eV),top (eV),width (eV),m* bottom (m0),m* top (m0),gap above (eV),m∥ bottom (m0)", rows[0]);
         for (var n = 0; n < 3; n++)
         {
             var cells = rows[n + 1].Split(',').Select(c => double.Parse(c, CultureInfo.InvariantCulture)).ToArray();
@@ -177,6 +177,7 @@ public sealed class BandsSmoothTest
             Assert.Equal(json[n].GetProperty("width").GetDouble(), cells[3]);
             Assert.Equal(json[n].GetProperty("massAtBottom").GetDouble(), cells[4]);
             Assert.Equal(json[n].GetProperty("massAtTop").GetDouble(), cells[5]);
+            Assert.Equal(json[n].GetProperty("inPlaneMassAtBottom").GetDouble(), cells[7]);
         }
     }
 

@@ -117,6 +117,17 @@ public sealed class FieldCommandsTest
         var efd = 10e5 * 7e-9; // eV: F (V/m) x d (m)
         Assert.Equal(efd, json.GetProperty("spacing").GetDouble(), 1e-15 * efd);
         Assert.Equal(efd, json.GetProperty("centralSpacing").GetDouble(), 1e-8 * efd);
+        // The rungs are the library's, bit for bit (shortest round-trip JSON).
+        var expected = Periodic.Stacks.WannierStarkLadder.Find(StructureFile.Load(ToolRunner.Example("superlattice.json")).Cell, 1, 30, 1e6);
+        var rungs = json.GetProperty("rungs");
+        Assert.Equal(expected.Rungs.Count, rungs.GetArrayLength());
+        for (var i = 0; i < expected.Rungs.Count; i++)
+        {
+            Assert.Equal(expected.Rungs[i].EnergyElectronVolts, rungs[i].GetProperty("energy").GetDouble());
+            var width = expected.Rungs[i].WidthElectronVolts; // null in JSON where T never falls to half its peak
+            Assert.Equal(double.IsFinite(width) ? width : double.NaN,
+                rungs[i].GetProperty("width").ValueKind == System.Text.Json.JsonValueKind.Null ? double.NaN : rungs[i].GetProperty("width").GetDouble());
+        }
         Assert.Equal("eV", json.GetProperty("units").GetProperty("energy").GetString());
         var csv = ToolRunner.Invoke("ladder", ToolRunner.Example("superlattice.json"), "--field", "10", "--csv").Stdout.Split('\n', StringSplitOptions.RemoveEmptyEntries);
         Assert.Equal("energy (eV),width (eV),log10 peak T,middle", csv[0]);
