@@ -205,6 +205,10 @@ internal static class DosCommand
     /// <summary>Why the exact in-plane densities cannot be computed for <paramref name="cell"/> (null: they can).</summary>
     public static string? ExactUnavailable(Periodic.Structures.UnitCell cell)
     {
+        if (!Periodic.Structures.InPlaneMotion.IsParabolic(cell))
+        {
+            return "the cell holds non-parabolic layers, whose in-plane term depends on the energy itself; the exact densities cover parabolic layers, delta barriers and Fourier segments";
+        }
         try
         {
             Periodic.Structures.InPlaneMotion.CellAt(cell, 0);
@@ -213,6 +217,6 @@ internal static class DosCommand
         {
             return Common.Describe(e);
         }
-        return Periodic.Structures.InPlaneMotion.IsParabolic(cell) ? null : "the cell holds non-parabolic layers, whose in-plane term depends on the energy";
+        return null;
     }
 }
