@@ -13,8 +13,9 @@ using Periodic.Design;
 namespace Periodic.Cli.Commands;
 
 /// <summary>
-/// <c>design FILE</c>: adjusts chosen layer fields within bounds until band quantities reach their targets
-/// (MathNet's bounded Levenberg–Marquardt least squares with the exact Jacobian from <see cref="EdgeSensitivities"/>),
+/// <c>design FILE</c>: adjusts chosen layer fields within bounds until band quantities, stack levels, resonances or
+/// transition energies reach their targets (MathNet's bounded Levenberg–Marquardt least squares with the exact Jacobian
+/// from <see cref="EdgeSensitivities"/> and <see cref="StackSensitivities"/>),
 /// then tabulates how far one monolayer more or less of each layer moves every target.
 /// </summary>
 internal static class DesignCommand
@@ -24,7 +25,7 @@ internal static class DesignCommand
         var file = new Argument<string>("file") { Description = "Design file (JSON): structure, adjust, targets, monolayer (docs/design.md)." };
         var json = Common.JsonOption();
         var output = new Option<string?>("--out", "-o") { Description = "Write to this file (atomically) instead of stdout." };
-        var command = new Command("design", "Adjust layer widths, potentials or masses within bounds to reach target band edges, widths or gaps; report the residuals and a one-monolayer tolerance table.");
+        var command = new Command("design", "Adjust layer widths, potentials or masses within bounds to reach target band edges, widths, gaps, stack levels, resonances or transition energies (or wavelengths); report the residuals and a one-monolayer tolerance table.");
         command.Arguments.Add(file);
         command.Options.Add(json);
         command.Options.Add(output);
@@ -77,13 +78,10 @@ internal static class DesignCommand
 
         // Tolerance table: every width of the cell one monolayer thicker and thinner, solved again (not linearised),
         // beside the first-order estimate from the exact sensitivities.
-        var (evaluated, jacobian) = model.Evaluate(reached);
-        _ = evaluated;
         var plus = new double[spec.ToleranceFields.Count][];
         var minus = new double[spec.ToleranceFields.Count][];
         var linear = new double[spec.ToleranceFields.Count][];
         var steps = new double[spec.ToleranceFields.Count];
-        var exact = EdgeSensitivities.Compute(SolveAt(spec, reached));
         for (var f = 0; f < spec.ToleranceFields.Count; f++)
         {
             var (field, element, step) = spec.ToleranceFields[f];
@@ -92,23 +90,14 @@ internal static class DesignCommand
             var basis = adjusted >= 0 ? reached[adjusted] : spec.BaseValue(field);
             plus[f] = Diff(model.Values(reached, d => FieldPath.Set(d, field, basis + step)), values);
             minus[f] = Diff(model.Values(reached, d => FieldPath.Set(d, field, basis - step)), values);
-            linear[f] = spec.Targets.Select(t => (t.Derivative(exact, element, LayerQuantity.Width) ?? double.NaN) * step).ToArray();
+            linear[f] = model.Derivatives(reached, element, LayerQuantity.Width).Select(d => (d ?? double.NaN) * step).ToArray();
         }
-        _ = jacobian;
         return new Report(spec.Start, reached, values, fit.Iterations, fit.ReasonForExit.ToString(), converged, plus, minus, linear,
             spec.ToleranceFields.Select(t => t.Field).ToArray(), steps);
     }
 
-    private static Periodic.Bands.BandStructure SolveAt(DesignSpec spec, double[] reached)
-    {
-        var document = spec.Structure.DeepClone().AsObject();
-        for (var j = 0; j < spec.Fields.Count; j++)
-        {
-            FieldPath.Set(document, spec.Fields[j], reached[j]);
-        }
-        var parsed = Periodic.Serialization.StructureFile.Parse(System.Text.Encoding.UTF8.GetBytes(document.ToJsonString()), "design");
-        return Periodic.Bands.BandSolver.Compute(parsed.Cell, spec.Targets.Max(t => t.BandsNeeded)).Structure;
-    }
+    /// <summary>The photon wavelength hc/E of a transition energy, µm.</summary>
+    private static double Wavelength(double energyElectronVolts) => Periodic.Units.PhysicalConstants.PhotonEnergyWavelengthElectronVoltNanometres / energyElectronVolts / 1000;
 
     private static double[] Diff(double[] a, double[] b) => a.Zip(b, (x, y) => x - y).ToArray();
 
@@ -123,10 +112,21 @@ internal static class DesignCommand
             adjusted.Add(spec.Fields[j], FieldUnits.Of(spec.Fields[j]), report.Start[j], report.Reached[j], spec.Lower[j], spec.Upper[j]);
         }
         text.Append(adjusted.ToText()).Append('\n');
-        var targets = new Table(new Column("target"), new Column("wanted", "meV", Format: "F4"), new Column("reached", "meV", Format: "F4"), new Column("residual", "µeV", Format: "G4"));
+        var transitions = spec.Targets.Any(t => t.What == DesignQuantity.Kind.Transition);
+        var columns = new List<Column> { new("target"), new("wanted", "meV", Format: "F4"), new("reached", "meV", Format: "F4"), new("residual", "µeV", Format: "G4") };
+        if (transitions)
+        {
+            columns.Add(new Column("reached wavelength", "µm", Format: "F5"));
+        }
+        var targets = new Table([.. columns]);
         for (var i = 0; i < spec.Targets.Count; i++)
         {
-            targets.Add(spec.Targets[i].Name, spec.Targets[i].TargetElectronVolts * 1e3, report.Values[i] * 1e3, (report.Values[i] - spec.Targets[i].TargetElectronVolts) * 1e6);
+            var cells = new List<Cell> { spec.Targets[i].Name, spec.Targets[i].TargetElectronVolts * 1e3, report.Values[i] * 1e3, (report.Values[i] - spec.Targets[i].TargetElectronVolts) * 1e6 };
+            if (transitions)
+            {
+                cells.Add(spec.Targets[i].What == DesignQuantity.Kind.Transition ? Wavelength(report.Values[i]) : "");
+            }
+            targets.Add([.. cells]);
         }
         text.Append(targets.ToText()).Append('\n');
         if (report.ToleranceFields.Length > 0)
@@ -178,6 +178,10 @@ internal static class DesignCommand
             w.WriteNumber("wanted", spec.Targets[i].TargetElectronVolts);
             w.WriteNumber("reached", report.Values[i]);
             w.WriteNumber("residual", report.Values[i] - spec.Targets[i].TargetElectronVolts);
+            if (spec.Targets[i].What == DesignQuantity.Kind.Transition && report.Values[i] > 0)
+            {
+                w.WriteNumber("reachedWavelength", Wavelength(report.Values[i]));
+            }
             w.WriteEndObject();
         }
         w.WriteEndArray();
@@ -201,7 +205,7 @@ internal static class DesignCommand
             w.WriteEndObject();
         }
         w.WriteEndArray();
-        Common.Units(w, ("energy", "eV"), ("step", "nm"));
+        Common.Units(w, ("energy", "eV"), ("step", "nm"), ("wavelength", "um"));
     });
 }
 
@@ -281,9 +285,9 @@ internal sealed class DesignSpec
             var where = string.Create(CultureInfo.InvariantCulture, $"targets[{i}]");
             var item = targetArray[i] as JsonObject ?? throw SweepSpec.Bad(path, where, "must be an object with quantity and value.");
             var name = item["quantity"] is JsonValue q && q.TryGetValue<string>(out var n) ? n : throw SweepSpec.Bad(path, $"{where}.quantity", "is required.");
-            var target = SweepSpec.Number(path, $"{where}.value", item["value"]);
+            var target = TargetEnergy(path, $"{where}.value", item["value"], name.StartsWith("transition", StringComparison.Ordinal));
             targets.Add(DesignQuantity.TryParse(name, target)
-                ?? throw SweepSpec.Bad(path, $"{where}.quantity", $"{Printable.Quote(name)} is not a target; allowed: bandN.bottom, bandN.top, bandN.width, gapN.width (N from 1 to 50, energies in eV)."));
+                ?? throw SweepSpec.Bad(path, $"{where}.quantity", $"{Printable.Quote(name)} is not a target; allowed: {DesignQuantity.Allowed}."));
         }
         var monolayer = root["monolayer"] is { } m ? SweepSpec.Number(path, "monolayer", m) : (double?)null;
         if (monolayer is { } step && !(step > 0 && step < 10))
@@ -308,6 +312,39 @@ internal sealed class DesignSpec
             Source = path, Structure = structure, Fields = fields, Layers = layers, Start = [.. start], Lower = [.. lower], Upper = [.. upper],
             Targets = targets, ToleranceFields = tolerances, ResidualToleranceElectronVolts = residual,
         };
+    }
+
+    /// <summary>
+    /// A target value: a number in eV, or a string with a unit — "120 meV", "0.12 eV", and for a transition a photon
+    /// wavelength "8.5 um" (also µm or nm), converted by E = hc/λ.
+    /// </summary>
+    internal static double TargetEnergy(string path, string field, JsonNode? node, bool wavelengthAllowed)
+    {
+        if (node is JsonValue v && v.TryGetValue<string>(out var text))
+        {
+            var match = System.Text.RegularExpressions.Regex.Match(text, @"^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(eV|meV|um|µm|nm)\s*$", System.Text.RegularExpressions.RegexOptions.CultureInvariant);
+            var units = wavelengthAllowed ? "eV, meV, or a wavelength in um, µm or nm" : "eV or meV";
+            if (!match.Success)
+            {
+                throw SweepSpec.Bad(path, field, $"must be a number in eV or a value with a unit ({units}); got {Printable.Quote(text)}.");
+            }
+            var number = double.Parse(match.Groups[1].Value, NumberStyles.Float, CultureInfo.InvariantCulture);
+            var unit = match.Groups[2].Value;
+            if (unit is "um" or "µm" or "nm")
+            {
+                var nanometres = unit == "nm" ? number : number * 1000;
+                if (!wavelengthAllowed || !(nanometres > 0 && double.IsFinite(nanometres)))
+                {
+                    throw SweepSpec.Bad(path, field, wavelengthAllowed
+                        ? $"must be a positive wavelength; got {Printable.Quote(text)}."
+                        : $"is a wavelength ({Printable.Quote(text)}); only a transition target takes one; give an energy in eV or meV.");
+                }
+                return Periodic.Units.PhysicalConstants.PhotonEnergyWavelengthElectronVoltNanometres / nanometres;
+            }
+            var energy = unit == "meV" ? number * 1e-3 : number;
+            return double.IsFinite(energy) ? energy : throw SweepSpec.Bad(path, field, $"must be a finite energy; got {Printable.Quote(text)}.");
+        }
+        return SweepSpec.Number(path, field, node);
     }
 
     private static double FieldValue(JsonObject structure, string field)

@@ -98,7 +98,7 @@ internal static class HubbardCommand
         return command;
     }
 
-    private static Length ParseScatteringLength(string? text)
+    internal static Length ParseScatteringLength(string? text)
     {
         if (text is null)
         {
@@ -122,7 +122,7 @@ internal static class HubbardCommand
         return Length.FromNanometres(value * factor);
     }
 
-    private static TransverseConfinement ParseGeometry(string text, double? frequency)
+    internal static TransverseConfinement ParseGeometry(string text, double? frequency)
     {
         switch (text.ToLowerInvariant())
         {

@@ -6,7 +6,9 @@ using System.Text;
 using Periodic.Bands;
 using Periodic.Design;
 using Periodic.Properties;
+using Periodic.OpticalLattices;
 using Periodic.Serialization;
+using Periodic.Units;
 
 namespace Periodic.Cli.Sweeps;
 
@@ -24,6 +26,11 @@ internal sealed class SweepRunner(SweepSpec spec)
     /// <summary>Number of parameter columns at the start of <see cref="Columns"/>.</summary>
     public int ParameterCount => spec.Parameters.Count;
 
+    // The first sensitivity column (after the parameters, the band columns and the stack and lattice columns).
+    private int SensitivityStart => Columns.Count - (spec.Sensitivities
+        ? spec.Parameters.Count * (2 * spec.Bands + spec.Outputs.Levels + spec.Outputs.Resonances + spec.Outputs.Transitions.Count)
+        : 0);
+
     private static List<(string, string)> BuildColumns(SweepSpec spec)
     {
         var columns = spec.Parameters.Select(p => (p.Field, p.Unit)).ToList();
@@ -37,6 +44,26 @@ internal sealed class SweepRunner(SweepSpec spec)
             columns.Add((band + ".massTop", "m0"));
             columns.Add((string.Create(CultureInfo.InvariantCulture, $"gap{n}.width"), "eV"));
         }
+        var outputs = spec.Outputs;
+        for (var n = 1; n <= outputs.Levels; n++)
+        {
+            columns.Add((string.Create(CultureInfo.InvariantCulture, $"level{n}"), "eV"));
+        }
+        for (var n = 1; n <= outputs.Resonances; n++)
+        {
+            columns.Add((string.Create(CultureInfo.InvariantCulture, $"resonance{n}"), "eV"));
+        }
+        foreach (var (from, to) in outputs.Transitions)
+        {
+            columns.Add((string.Create(CultureInfo.InvariantCulture, $"transition{from}-{to}.energy"), "eV"));
+            columns.Add((string.Create(CultureInfo.InvariantCulture, $"transition{from}-{to}.wavelength"), "um"));
+        }
+        if (outputs.Hubbard is not null)
+        {
+            columns.Add(("hubbard.tunnelling", "eV"));
+            columns.Add(("hubbard.interaction", "eV"));
+            columns.Add(("hubbard.ratio", "1"));
+        }
         if (spec.Sensitivities)
         {
             for (var n = 1; n <= spec.Bands; n++)
@@ -46,6 +73,16 @@ internal sealed class SweepRunner(SweepSpec spec)
                     var per = "eV/" + parameter.Unit;
                     columns.Add((string.Create(CultureInfo.InvariantCulture, $"dBand{n}.bottom/d{parameter.Field}"), per));
                     columns.Add((string.Create(CultureInfo.InvariantCulture, $"dBand{n}.top/d{parameter.Field}"), per));
+                }
+            }
+            var stackNames = Enumerable.Range(1, outputs.Levels).Select(n => string.Create(CultureInfo.InvariantCulture, $"dLevel{n}"))
+                .Concat(Enumerable.Range(1, outputs.Resonances).Select(n => string.Create(CultureInfo.InvariantCulture, $"dResonance{n}")))
+                .Concat(outputs.Transitions.Select(t => string.Create(CultureInfo.InvariantCulture, $"dTransition{t.From}-{t.To}")));
+            foreach (var name in stackNames)
+            {
+                foreach (var parameter in spec.Parameters)
+                {
+                    columns.Add((name + "/d" + parameter.Field, "eV/" + parameter.Unit));
                 }
             }
         }
@@ -70,10 +107,78 @@ internal sealed class SweepRunner(SweepSpec spec)
                 FieldPath.Set(document, spec.Parameters[j].Field, parameters[j]);
             }
             var structure = StructureFile.Parse(Encoding.UTF8.GetBytes(document.ToJsonString()), string.Create(CultureInfo.InvariantCulture, $"design {index}"));
+            var k = parameters.Length;
+            string? error = null;
+            if (spec.Bands > 0)
+            {
+                error = EvaluateBands(structure, values, k, SensitivityStart);
+                k += 6 * spec.Bands;
+            }
+            var outputs = spec.Outputs;
+            var stack = outputs.NeedsLevels || outputs.Resonances > 0 ? StackQuantities.Solve(structure, outputs.NeedsLevels, outputs.Resonances > 0) : null;
+            for (var n = 1; n <= outputs.Levels; n++)
+            {
+                values[k++] = stack!.Level(n);
+            }
+            for (var n = 1; n <= outputs.Resonances; n++)
+            {
+                values[k++] = stack!.Resonance(n);
+            }
+            foreach (var (from, to) in outputs.Transitions)
+            {
+                var energy = stack!.Transition(from, to);
+                values[k++] = energy;
+                values[k++] = energy > 0 ? PhysicalConstants.PhotonEnergyWavelengthElectronVoltNanometres / energy / 1000 : null;
+            }
+            if (outputs.Hubbard is { } hubbard)
+            {
+                var lattice = structure.OpticalLattice ?? throw new ArgumentException("the structure is not an optical-lattice file.");
+                var model = HubbardParameters.Compute(lattice, hubbard.Confinement, hubbard.ScatteringLength);
+                values[k++] = model.TunnellingElectronVolts;
+                values[k++] = model.InteractionElectronVolts;
+                values[k++] = model.InteractionToTunnellingRatio;
+            }
+            if (spec.Sensitivities)
+            {
+                k += 2 * spec.Bands * spec.Parameters.Count; // filled by EvaluateBands
+                for (var n = 1; n <= outputs.Levels; n++)
+                {
+                    foreach (var (element, quantity) in spec.SensitivityTargets)
+                    {
+                        values[k++] = stack!.LevelDerivative(n, element, quantity);
+                    }
+                }
+                for (var n = 1; n <= outputs.Resonances; n++)
+                {
+                    foreach (var (element, quantity) in spec.SensitivityTargets)
+                    {
+                        values[k++] = stack!.ResonanceDerivative(n, element, quantity);
+                    }
+                }
+                foreach (var (from, to) in outputs.Transitions)
+                {
+                    foreach (var (element, quantity) in spec.SensitivityTargets)
+                    {
+                        values[k++] = stack!.TransitionDerivative(from, to, element, quantity);
+                    }
+                }
+            }
+            return new SweepRow(index, values, error);
+        }
+        catch (Exception e) when (e is StructureFileException or ArgumentException or ArithmeticException or InvalidOperationException
+            or PeriodicComputationException or UsageException)
+        {
+            return new SweepRow(index, values, OneLine(e.Message));
+        }
+    }
+
+    /// <summary>Band edges, widths, masses and gaps from column <paramref name="k"/> on, and (with sensitivities) the edge derivatives in their own columns.</summary>
+    private string? EvaluateBands(StructureDefinition structure, double?[] values, int k, int sensitivity)
+    {
+        {
             var solved = BandSolver.Compute(structure.Cell, spec.Bands);
             var bands = solved.Structure;
             var properties = BandProperties.Create(bands);
-            var k = parameters.Length;
             for (var n = 1; n <= spec.Bands; n++)
             {
                 var band = bands.Bands[n - 1];
@@ -91,18 +196,12 @@ internal sealed class SweepRunner(SweepSpec spec)
                 {
                     foreach (var (element, quantity) in spec.SensitivityTargets)
                     {
-                        values[k++] = exact.Bottom(n, element, quantity);
-                        values[k++] = exact.Top(n, element, quantity);
+                        values[sensitivity++] = exact.Bottom(n, element, quantity);
+                        values[sensitivity++] = exact.Top(n, element, quantity);
                     }
                 }
             }
-            var error = solved.Converged ? null : string.Create(CultureInfo.InvariantCulture, $"not converged: edge errors up to {solved.MaxEdgeErrorElectronVolts:G3} eV");
-            return new SweepRow(index, values, error);
-        }
-        catch (Exception e) when (e is StructureFileException or ArgumentException or ArithmeticException or InvalidOperationException
-            or Periodic.Bands.BandSearchException)
-        {
-            return new SweepRow(index, values, OneLine(e.Message));
+            return solved.Converged ? null : string.Create(CultureInfo.InvariantCulture, $"not converged: edge errors up to {solved.MaxEdgeErrorElectronVolts:G3} eV");
         }
     }
 

@@ -38,9 +38,14 @@ internal sealed class SweepSpec
     /// <summary>Most bands a sweep may ask for (each band adds six columns).</summary>
     public const int MaximumBands = 50;
 
+    /// <summary>Most levels, resonances or transitions a sweep may ask for (each adds one or two columns, and more with sensitivities).</summary>
+    public const int MaximumStackQuantities = 100;
+
     private SweepSpec(string source, JsonObject structure, string structureSource, IReadOnlyList<SweepParameter> parameters,
-        DesignPlan plan, int bands, bool sensitivities, string fingerprint)
+        DesignPlan plan, SweepOutputs outputs, string fingerprint)
     {
+        var (bands, sensitivities) = (outputs.Bands, outputs.Sensitivities);
+        Outputs = outputs;
         Sensitivities = sensitivities;
         SensitivityTargets = sensitivities ? parameters.Select(p => LayerField(p.Field)!.Value).ToArray() : [];
         Source = source;
@@ -67,7 +72,10 @@ internal sealed class SweepSpec
     /// <summary>How the designs are drawn.</summary>
     public DesignPlan Plan { get; }
 
-    /// <summary>Number of bands whose edges, widths, masses and gaps each design reports.</summary>
+    /// <summary>Everything each design reports.</summary>
+    public SweepOutputs Outputs { get; }
+
+    /// <summary>Number of bands whose edges, widths, masses and gaps each design reports (0: none).</summary>
     public int Bands { get; }
 
     /// <summary>True when each band edge's exact derivatives with respect to the varied fields are reported.</summary>
@@ -96,8 +104,12 @@ internal sealed class SweepSpec
         var (structure, structureSource, structureBytes) = ReadStructure(path, root["structure"]);
         var parameters = ReadParameters(path, root["parameters"], structure);
         var plan = DesignPlan.Read(path, root["design"], parameters);
-        var (bands, sensitivities) = ReadOutputs(path, root["outputs"]);
-        if (sensitivities)
+        var outputs = ReadOutputs(path, root["outputs"]);
+        if (outputs.Hubbard is not null && structure["opticalLattice"] is null)
+        {
+            throw Bad(path, "outputs.hubbard", "needs an optical-lattice structure (a file with \"opticalLattice\", see docs/cold-atoms.md); this structure has none.");
+        }
+        if (outputs.Sensitivities)
         {
             for (var j = 0; j < parameters.Count; j++)
             {
@@ -108,7 +120,7 @@ internal sealed class SweepSpec
             }
         }
         var fingerprint = Convert.ToHexString(SHA256.HashData([.. bytes, 0, .. structureBytes]))[..16].ToLowerInvariant();
-        return new SweepSpec(path, structure, structureSource, parameters, plan, bands, sensitivities, fingerprint);
+        return new SweepSpec(path, structure, structureSource, parameters, plan, outputs, fingerprint);
     }
 
     /// <summary>Reads a JSON file of the tool's own (sweep or design file) as an object, within a size bound.</summary>
@@ -235,31 +247,65 @@ internal sealed class SweepSpec
         return parameters;
     }
 
-    private static (int Bands, bool Sensitivities) ReadOutputs(string path, JsonNode? node)
+    private const string OutputsAllowed = "bands, levels, resonances, transitions, hubbard, sensitivities";
+
+    private static SweepOutputs ReadOutputs(string path, JsonNode? node)
     {
         if (node is not JsonObject outputs)
         {
-            throw Bad(path, "outputs", "is required: e.g. {\"bands\": 3} (edges, widths, edge masses and gaps of the lowest 3 bands).");
+            throw Bad(path, "outputs", "is required: e.g. {\"bands\": 3} (edges, widths, edge masses and gaps of the lowest 3 bands), {\"levels\": 2}, {\"transitions\": [\"1-2\"]}.");
         }
-        var bands = 0;
+        int bands = 0, levels = 0, resonances = 0;
         var sensitivities = false;
+        var transitions = new List<(int, int)>();
+        HubbardOutput? hubbard = null;
+        int Count(JsonNode? value, string name, int maximum) =>
+            value is JsonValue v && v.TryGetValue<int>(out var n) && n >= 1 && n <= maximum ? n
+                : throw Bad(path, $"outputs.{name}", string.Create(CultureInfo.InvariantCulture, $"must be a whole number from 1 to {maximum}; got {value?.ToJsonString() ?? "null"}."));
         foreach (var (name, value) in outputs)
         {
             switch (name)
             {
                 case "bands":
-                    bands = value is JsonValue v && v.TryGetValue<int>(out var n) && n is >= 1 and <= MaximumBands ? n
-                        : throw Bad(path, "outputs.bands", string.Create(CultureInfo.InvariantCulture, $"must be a whole number from 1 to {MaximumBands}; got {value?.ToJsonString() ?? "null"}."));
+                    bands = Count(value, name, MaximumBands);
+                    break;
+                case "levels":
+                    levels = Count(value, name, MaximumStackQuantities);
+                    break;
+                case "resonances":
+                    resonances = Count(value, name, MaximumStackQuantities);
+                    break;
+                case "transitions":
+                    if (value is not JsonArray list || list.Count == 0 || list.Count > MaximumStackQuantities)
+                    {
+                        throw Bad(path, "outputs.transitions", string.Create(CultureInfo.InvariantCulture,
+                            $"must be a list of 1 to {MaximumStackQuantities} bound-to-bound transitions \"I-J\" (levels counted from 1, I < J), e.g. [\"1-2\"]."));
+                    }
+                    for (var i = 0; i < list.Count; i++)
+                    {
+                        var item = list[i] is JsonValue t && t.TryGetValue<string>(out var text) ? System.Text.RegularExpressions.Regex.Match(text, @"^(\d{1,3})-(\d{1,3})$") : null;
+                        int from = 0, to = 0;
+                        if (item is not { Success: true } || !int.TryParse(item.Groups[1].Value, NumberStyles.None, CultureInfo.InvariantCulture, out from)
+                            || !int.TryParse(item.Groups[2].Value, NumberStyles.None, CultureInfo.InvariantCulture, out to) || from < 1 || to <= from)
+                        {
+                            throw Bad(path, string.Create(CultureInfo.InvariantCulture, $"outputs.transitions[{i}]"), $"must be \"I-J\" with bound levels 1 ≤ I < J ≤ 999; got {list[i]?.ToJsonString() ?? "null"}.");
+                        }
+                        transitions.Add((from, to));
+                    }
+                    break;
+                case "hubbard":
+                    hubbard = HubbardOutput.Read(path, value);
                     break;
                 case "sensitivities":
                     sensitivities = value is JsonValue b && b.TryGetValue<bool>(out var on) ? on
                         : throw Bad(path, "outputs.sensitivities", $"must be true or false; got {value?.ToJsonString() ?? "null"}.");
                     break;
                 default:
-                    throw Bad(path, $"outputs.{name}", "is not an output; allowed: bands, sensitivities.");
+                    throw Bad(path, $"outputs.{name}", $"is not an output; allowed: {OutputsAllowed}.");
             }
         }
-        return bands > 0 ? (bands, sensitivities) : throw Bad(path, "outputs", "names no bands; e.g. {\"bands\": 3}.");
+        var result = new SweepOutputs(bands, sensitivities, levels, resonances, transitions, hubbard);
+        return result.Any ? result : throw Bad(path, "outputs", $"names nothing to compute; give at least one of {OutputsAllowed.Replace(", sensitivities", "", StringComparison.Ordinal)} (e.g. {{\"bands\": 3}}).");
     }
 
     /// <summary>The cell element and layer quantity a path such as <c>cell[2].width</c> names, or null.</summary>
@@ -293,6 +339,52 @@ internal sealed class SweepSpec
 
     internal static UsageException Bad(string path, string field, string message) =>
         new(field.Length == 0 ? $"{Printable.Quote(path)}: {message}" : $"{Printable.Quote(path)}: {field} {message}");
+}
+
+/// <summary>What each design of a sweep reports.</summary>
+internal sealed record SweepOutputs(int Bands, bool Sensitivities, int Levels, int Resonances, IReadOnlyList<(int From, int To)> Transitions, HubbardOutput? Hubbard)
+{
+    /// <summary>True when something is computed.</summary>
+    public bool Any => Bands > 0 || Levels > 0 || Resonances > 0 || Transitions.Count > 0 || Hubbard is not null;
+
+    /// <summary>True when the bound levels of the stack are needed.</summary>
+    public bool NeedsLevels => Levels > 0 || Transitions.Count > 0;
+}
+
+/// <summary>The Bose–Hubbard parameters of an optical-lattice file's lowest band: the scattering length and the geometry (as <c>periodic hubbard</c>).</summary>
+internal sealed record HubbardOutput(Periodic.Units.Length ScatteringLength, Periodic.OpticalLattices.TransverseConfinement Confinement)
+{
+    /// <summary>Reads <c>{"scatteringLength": "100 a0", "geometry": "cubic"}</c> (or "tubes" with "transverseFrequency" in Hz).</summary>
+    public static HubbardOutput Read(string path, JsonNode? node)
+    {
+        if (node is not JsonObject obj)
+        {
+            throw SweepSpec.Bad(path, "outputs.hubbard", "must be an object: {\"scatteringLength\": \"100 a0\", \"geometry\": \"cubic\"} (or \"tubes\" with \"transverseFrequency\" in Hz).");
+        }
+        foreach (var (name, _) in obj)
+        {
+            if (name is not ("scatteringLength" or "geometry" or "transverseFrequency"))
+            {
+                throw SweepSpec.Bad(path, $"outputs.hubbard.{name}", "is not a hubbard field; allowed: scatteringLength, geometry, transverseFrequency.");
+            }
+        }
+        var length = obj["scatteringLength"] switch
+        {
+            JsonValue v when v.TryGetValue<string>(out var text) => text,
+            JsonValue v when v.TryGetValue<double>(out var number) => number.ToString("R", CultureInfo.InvariantCulture),
+            _ => null,
+        };
+        var geometry = obj["geometry"] is JsonValue g && g.TryGetValue<string>(out var word) ? word : "cubic";
+        var frequency = obj["transverseFrequency"] is { } f ? SweepSpec.Number(path, "outputs.hubbard.transverseFrequency", f) : (double?)null;
+        try
+        {
+            return new HubbardOutput(Commands.HubbardCommand.ParseScatteringLength(length), Commands.HubbardCommand.ParseGeometry(geometry, frequency));
+        }
+        catch (UsageException e)
+        {
+            throw SweepSpec.Bad(path, "outputs.hubbard", "(the hubbard command's options as fields): " + e.Message);
+        }
+    }
 }
 
 /// <summary>One varied field: its path in the structure document, its unit, and its values or range.</summary>

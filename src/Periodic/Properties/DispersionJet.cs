@@ -73,22 +73,8 @@ internal static class DispersionDerivatives
     }
 
     /// <summary>P ← M·P for jets, renormalised by powers of two (exact) so that long products do not overflow.</summary>
-    private static void ApplyLeft(Jet m11, Jet m12, Jet m21, Jet m22, double l, ref Jet p11, ref Jet p12, ref Jet p21, ref Jet p22, ref double logScale)
-    {
-        var q11 = m11 * p11 + m12 * p21;
-        var q12 = m11 * p12 + m12 * p22;
-        var q21 = m21 * p11 + m22 * p21;
-        var q22 = m21 * p12 + m22 * p22;
-        logScale += l;
-        var max = Math.Max(Math.Max(q11.MaxAbs, q12.MaxAbs), Math.Max(q21.MaxAbs, q22.MaxAbs));
-        if (max > 1e120 || (max < 1e-120 && max > 0))
-        {
-            var exponent = Math.ILogB(max);
-            q11 = q11.ScaleB(-exponent); q12 = q12.ScaleB(-exponent); q21 = q21.ScaleB(-exponent); q22 = q22.ScaleB(-exponent);
-            logScale += exponent * Math.Log(2.0);
-        }
-        p11 = q11; p12 = q12; p21 = q21; p22 = q22;
-    }
+    private static void ApplyLeft(Jet m11, Jet m12, Jet m21, Jet m22, double l, ref Jet p11, ref Jet p12, ref Jet p21, ref Jet p22, ref double logScale) =>
+        JetMatrix.ApplyLeft(m11, m12, m21, m22, l, ref p11, ref p12, ref p21, ref p22, ref logScale);
 
     /// <summary>
     /// Jets of one fourth-order Magnus step M = exp Ω = c(ζ)·I + S(ζ)·Ω of a smooth segment (see
@@ -144,13 +130,13 @@ internal static class DispersionDerivatives
     }
 
     /// <summary>Taylor coefficients a0 … a3 of a function of δE.</summary>
-    private readonly record struct Jet(double A0, double A1, double A2, double A3)
+    private readonly record struct Jet(double A0, double A1, double A2, double A3) : IMatrixJet<Jet>
     {
         internal static Jet Constant(double value) => new(value, 0, 0, 0);
 
-        internal double MaxAbs => Math.Max(Math.Max(Math.Abs(A0), Math.Abs(A1)), Math.Max(Math.Abs(A2), Math.Abs(A3)));
+        public double MaxAbs => Math.Max(Math.Max(Math.Abs(A0), Math.Abs(A1)), Math.Max(Math.Abs(A2), Math.Abs(A3)));
 
-        internal Jet ScaleB(int exponent) => new(Math.ScaleB(A0, exponent), Math.ScaleB(A1, exponent), Math.ScaleB(A2, exponent), Math.ScaleB(A3, exponent));
+        public Jet ScaleB(int exponent) => new(Math.ScaleB(A0, exponent), Math.ScaleB(A1, exponent), Math.ScaleB(A2, exponent), Math.ScaleB(A3, exponent));
 
         [MethodImpl(MethodImplOptions.AggressiveInlining)]
         public static Jet operator *(Jet x, Jet y) => new(

@@ -48,6 +48,9 @@ public sealed class BoundStateSpectrum
     /// <summary>The stack.</summary>
     public LayerStack Stack => _profile.Stack;
 
+    /// <summary>The stack written out and compiled (for the level sensitivities).</summary>
+    internal StackProfile Profile => _profile;
+
     /// <summary>The levels found, lowest first (at most <see cref="BoundStateOptions.MaxLevels"/>).</summary>
     public IReadOnlyList<BoundLevel> Levels { get; }
 

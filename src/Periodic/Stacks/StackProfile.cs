@@ -53,12 +53,16 @@ internal sealed class StackProfile
                 }
             }
         }
+        Elements = written;
         Kernel = new CompiledCell(written, paramName);
         MinimumPotentialElectronVolts = vMin;
         DeltaWellStrengthElectronVoltNanometres = deltaWellStrength;
     }
 
     internal LayerStack Stack { get; }
+
+    /// <summary>The stack's elements written out, in order (element i of <see cref="Kernel"/> is Elements[i]).</summary>
+    internal CellElement[] Elements { get; }
 
     /// <summary>The compiled elements and the propagation kernel over them.</summary>
     internal CompiledCell Kernel { get; }

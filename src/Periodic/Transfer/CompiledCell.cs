@@ -285,53 +285,128 @@ internal sealed class CompiledCell
     /// </summary>
     internal ScaledProduct AccumulateParameterDerivative(double e, int layerIndex, LayerParameter parameter)
     {
-        if (_kinds[layerIndex] != ElementKind.Layer)
-        {
-            throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
-                $"element {layerIndex} is not a uniform layer; parameter derivatives are defined for layers."), nameof(layerIndex));
-        }
+        CheckLayers([layerIndex], nameof(layerIndex));
+        return AccumulateParameterDerivative(e, [layerIndex], parameter);
+    }
+
+    /// <summary>
+    /// The product over all elements with, in its derivative part, d/dp of the product when one parameter p sets
+    /// <paramref name="parameter"/> of every layer in <paramref name="layerIndices"/> at once (a layer of a repeated cell
+    /// occurs once per repetition): by the product rule the sum of the one-layer derivatives.
+    /// </summary>
+    internal ScaledProduct AccumulateParameterDerivative(double e, ReadOnlySpan<int> layerIndices, LayerParameter parameter)
+    {
+        CheckLayers(layerIndices, nameof(layerIndices));
         var product = ScaledProduct.Identity;
+        var next = 0;
         for (var i = 0; i < _kinds.Length; i++)
         {
-            if (i != layerIndex)
+            if (next < layerIndices.Length && layerIndices[next] == i)
             {
-                ElementMatrix(i, e, out var a11, out var a12, out var a21, out var a22, out var l);
-                product.ApplyLeft(a11, a12, a21, a22, 0, 0, 0, 0, l);
+                next++;
+                LayerParameterMatrix(i, e, parameter, out var m11, out var m12, out var m21, out var m22, out var d11, out var d12, out var d21, out var d22, out var logScale);
+                product.ApplyLeft(m11, m12, m21, m22, d11, d12, d21, d22, logScale);
                 continue;
             }
-            LayerMatrix(i, e, out var m11, out var m12, out var m21, out var m22, out var d11, out var d12, out var d21, out var d22, out var logScale, out var s, out var mass);
-            var at = ElementData.Stride * i;
-            var width = _data[at + ElementData.Width];
-            switch (parameter)
-            {
-                case LayerParameter.Width:
-                    // dc/dw = −s·S, dS/dw = c (the same scale factor as M itself).
-                    d11 = -s * m12 / mass;
-                    d22 = d11;
-                    d12 = mass * m11;
-                    d21 = -(s / mass) * m11;
-                    break;
-                case LayerParameter.Potential:
-                    // E and V enter only through E − V.
-                    (d11, d12, d21, d22) = (-d11, -d12, -d21, -d22);
-                    break;
-                default:
-                {
-                    // m = m₀(1 + α(E − V)): dm/dm₀ = m/m₀, ds/dm₀ = s/m₀; M12 = m·S, M21 = −(s/m)·S.
-                    var m0 = _data[at + ElementData.Mass];
-                    UniformLayerPropagator.Evaluate(s, width, out _, out var sinc, out var dcds, out var dSds, out _);
-                    var dsdp = s / m0;
-                    var dmdp = mass / m0;
-                    d11 = dsdp * dcds;
-                    d22 = d11;
-                    d12 = dsdp * mass * dSds + dmdp * sinc;
-                    d21 = -dsdp * (sinc + s * dSds) / mass + dmdp * s * sinc / (mass * mass);
-                    break;
-                }
-            }
-            product.ApplyLeft(m11, m12, m21, m22, d11, d12, d21, d22, logScale);
+            ElementMatrix(i, e, out var a11, out var a12, out var a21, out var a22, out var l);
+            product.ApplyLeft(a11, a12, a21, a22, 0, 0, 0, 0, l);
         }
         return product;
+    }
+
+    /// <summary>
+    /// The product over all elements with every entry a jet in the energy and one parameter p that sets
+    /// <paramref name="parameter"/> of every layer in <paramref name="layerIndices"/>: P, ∂P/∂E, ∂²P/∂E², ∂P/∂p and ∂²P/∂E∂p
+    /// exactly (for the stationary points of the transmission, whose implicit derivative needs the second order).
+    /// Uniform layers and deltas only.
+    /// </summary>
+    internal SecondOrderProduct AccumulateSecondOrder(double e, ReadOnlySpan<int> layerIndices, LayerParameter parameter)
+    {
+        CheckLayers(layerIndices, nameof(layerIndices));
+        ParameterJet p11 = ParameterJet.Constant(1), p12 = default, p21 = default, p22 = ParameterJet.Constant(1);
+        double logScale = 0;
+        var next = 0;
+        for (var i = 0; i < _kinds.Length; i++)
+        {
+            ParameterJet m11, m12, m21, m22;
+            var l = 0.0;
+            switch (_kinds[i])
+            {
+                case ElementKind.Layer:
+                {
+                    var varied = next < layerIndices.Length && layerIndices[next] == i;
+                    if (varied)
+                    {
+                        next++;
+                    }
+                    var at = ElementData.Stride * i;
+                    LayerJets.Evaluate(e, _data[at + ElementData.Width], _data[at + ElementData.Potential], _data[at + ElementData.Mass],
+                        _data[at + ElementData.MassSlope], varied, parameter, out m11, out m12, out m21, out m22, out l);
+                    break;
+                }
+                case ElementKind.Delta:
+                    (m11, m12, m21, m22) = (ParameterJet.Constant(1), default, ParameterJet.Constant(DeltaJump(i)), ParameterJet.Constant(1));
+                    break;
+                default:
+                    throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
+                        $"element {i} is not a uniform layer or a delta; second-order parameter derivatives are defined for those."), nameof(e));
+            }
+            JetMatrix.ApplyLeft(m11, m12, m21, m22, l, ref p11, ref p12, ref p21, ref p22, ref logScale);
+        }
+        return new SecondOrderProduct(p11, p12, p21, p22, logScale);
+    }
+
+    /// <summary>Throws unless <paramref name="layerIndices"/> are increasing indices of uniform layers.</summary>
+    internal void CheckLayers(ReadOnlySpan<int> layerIndices, string paramName)
+    {
+        for (var k = 0; k < layerIndices.Length; k++)
+        {
+            var i = layerIndices[k];
+            if (i < 0 || i >= _kinds.Length || _kinds[i] != ElementKind.Layer || (k > 0 && i <= layerIndices[k - 1]))
+            {
+                throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
+                    $"element {i} is not a uniform layer (or the indices are not increasing); parameter derivatives are defined for layers."), paramName);
+            }
+        }
+    }
+
+    /// <summary>
+    /// Scaled matrix of uniform layer <paramref name="i"/> and its exact derivative with respect to its width, potential or
+    /// band-edge mass at fixed energy (the same scale factor e^logScale for both).
+    /// </summary>
+    internal void LayerParameterMatrix(int i, double e, LayerParameter parameter, out double m11, out double m12, out double m21, out double m22,
+        out double d11, out double d12, out double d21, out double d22, out double logScale)
+    {
+        LayerMatrix(i, e, out m11, out m12, out m21, out m22, out d11, out d12, out d21, out d22, out logScale, out var s, out var mass);
+        var at = ElementData.Stride * i;
+        var width = _data[at + ElementData.Width];
+        switch (parameter)
+        {
+            case LayerParameter.Width:
+                // dc/dw = −s·S, dS/dw = c (the same scale factor as M itself).
+                d11 = -s * m12 / mass;
+                d22 = d11;
+                d12 = mass * m11;
+                d21 = -(s / mass) * m11;
+                break;
+            case LayerParameter.Potential:
+                // E and V enter only through E − V.
+                (d11, d12, d21, d22) = (-d11, -d12, -d21, -d22);
+                break;
+            default:
+            {
+                // m = m₀(1 + α(E − V)): dm/dm₀ = m/m₀, ds/dm₀ = s/m₀; M12 = m·S, M21 = −(s/m)·S.
+                var m0 = _data[at + ElementData.Mass];
+                UniformLayerPropagator.Evaluate(s, width, out _, out var sinc, out var dcds, out var dSds, out _);
+                var dsdp = s / m0;
+                var dmdp = mass / m0;
+                d11 = dsdp * dcds;
+                d22 = d11;
+                d12 = dsdp * mass * dSds + dmdp * sinc;
+                d21 = -dsdp * (sinc + s * dSds) / mass + dmdp * s * sinc / (mass * mass);
+                break;
+            }
+        }
     }
 
     /// <summary>

@@ -7,7 +7,7 @@ using Periodic.Serialization;
 
 namespace Periodic.Cli.Tests.Commands;
 
-public sealed class DesignCommandTest
+public sealed partial class DesignCommandTest
 {
     private static string Structure(double well, double barrier) => string.Create(CultureInfo.InvariantCulture,
         $$"""{"name": "d", "cell": [{"width": {{well:R}}, "potential": 0, "mass": 0.067}, {"width": {{barrier:R}}, "potential": 0.25, "mass": 0.092}]}""");

@@ -8,7 +8,7 @@ using Periodic.Serialization;
 
 namespace Periodic.Cli.Tests.Sweeps;
 
-public sealed class SweepCommandTest
+public sealed partial class SweepCommandTest
 {
     private static string Folder()
     {
