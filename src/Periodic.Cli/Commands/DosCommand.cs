@@ -171,12 +171,13 @@ internal static class DosCommand
             columns.Add(new("dos3d", "1/(eV nm3)", Format: "G8"));
             columns.Add(new("integrated3d", "1/nm3", Format: "G8"));
         }
+        columns.AddRange([new("Re k", "1/nm", Format: "G8"), new("Im k", "1/nm", Format: "G8"), new("dE/dk", "eV nm", Format: "G8")]);
         if (exactDos is not null)
         {
+            // Appended, so the columns before them keep their places in the CSV.
             columns.AddRange([new("dos3d exact", "1/(eV nm3)", Format: "G8"), new("dos3d exact error", "1/(eV nm3)", Format: "G2"), new("dos3d 1-mass rel. error", Format: "G3"),
                 new("integrated3d exact", "1/nm3", Format: "G8"), new("integrated3d exact error", "1/nm3", Format: "G2"), new("integrated3d 1-mass rel. error", Format: "G3")]);
         }
-        columns.AddRange([new("Re k", "1/nm", Format: "G8"), new("Im k", "1/nm", Format: "G8"), new("dE/dk", "eV nm", Format: "G8")]);
         var table = new Table([.. columns]);
         for (var i = 0; i < values.Length; i++)
         {
@@ -186,13 +187,13 @@ internal static class DosCommand
             {
                 row.AddRange([dos3[i], states3![i]]);
             }
+            row.AddRange([p.Wavevector, p.Decay, p.Slope]);
             if (exactDos is not null)
             {
                 var (g, n) = (exactDos[i], exactStates![i]);
                 row.AddRange([g.ExactPerElectronVoltCubicNanometre, g.ErrorEstimatePerElectronVoltCubicNanometre, g.RelativeErrorOfSingleMass,
                     n.ExactPerCubicNanometre, n.ErrorEstimatePerCubicNanometre, n.RelativeErrorOfSingleMass]);
             }
-            row.AddRange([p.Wavevector, p.Decay, p.Slope]);
             table.Add([.. row]);
         }
         var title = Common.TableTitle(structure, unit) + (inPlane is { } mass
