@@ -20,11 +20,13 @@ internal static class BandsCommand
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
         var output = Common.OutOption();
-        var command = new Command("bands", "List the lowest minibands: edges, widths, band-edge masses, and the gaps between them.");
+        var command = new Command("bands", "List the lowest minibands: edges, widths, band-edge masses along the growth axis, the in-plane mass at each band bottom, and the gaps between them.");
         command.Arguments.Add(file);
         var inPlane = Common.InPlaneWavevectorOption();
+        var unit = Common.LatticeUnitOption();
         command.Options.Add(inPlane);
         command.Options.Add(count);
+        command.Options.Add(unit);
         command.Options.Add(json);
         command.Options.Add(csv);
         command.Options.Add(output);
@@ -32,14 +34,16 @@ internal static class BandsCommand
         {
             var format = Common.Format(result, json, csv);
             var n = Common.CheckCount(result.GetValue(count));
-            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result.GetValue(file)!));
-            Write(structure, n, format, result.GetValue(output));
+            var loaded = Common.Load(result.GetValue(file)!);
+            var latticeUnit = Common.LatticeUnit(result, unit, loaded);
+            var structure = Common.AtInPlaneWavevector(result, inPlane, loaded);
+            Write(structure, n, format, result.GetValue(output), latticeUnit);
             return 0;
         });
         return command;
     }
 
-    public static void Write(StructureDefinition structure, int count, OutputFormat format, string? outPath)
+    public static void Write(StructureDefinition structure, int count, OutputFormat format, string? outPath, LatticeEnergyUnit latticeUnit = LatticeEnergyUnit.Recoil)
     {
         var solved = Solver.Compute(structure.Cell, count);
         var bands = solved.Structure;
@@ -48,6 +52,7 @@ internal static class BandsCommand
             : [];
         var properties = BandProperties.Create(bands);
         var masses = bands.Bands.Select(b => (Bottom: properties.BottomMass(b.Index).ElectronMasses, Top: properties.TopMass(b.Index).ElectronMasses)).ToArray();
+        var (inPlane, inPlaneWhy) = InPlaneMasses(bands);
         if (format == OutputFormat.Json)
         {
             Common.Emit(Common.Json(w =>
@@ -65,9 +70,23 @@ internal static class BandsCommand
                     w.Number("massAtBottom", masses[band.Index - 1].Bottom);
                     w.Number("massAtTop", masses[band.Index - 1].Top);
                     w.WriteString("bottomAt", band.BottomZonePoint == ZonePoint.Center ? "center" : "boundary");
+                    if (inPlane is not null)
+                    {
+                        w.Number("inPlaneMassAtBottom", inPlane[band.Index - 1].ElectronMasses);
+                        w.Number("inPlaneMassError", inPlane[band.Index - 1].ErrorEstimateElectronMasses);
+                    }
+                    else
+                    {
+                        w.WriteNull("inPlaneMassAtBottom");
+                        w.WriteNull("inPlaneMassError");
+                    }
                     w.WriteEndObject();
                 }
                 w.WriteEndArray();
+                if (inPlaneWhy is not null)
+                {
+                    w.WriteString("inPlaneMassUnavailable", inPlaneWhy);
+                }
                 w.WriteStartArray("gaps");
                 foreach (var gap in bands.Gaps)
                 {
@@ -102,17 +121,41 @@ internal static class BandsCommand
         }
         if (structure.OpticalLattice is { } lattice)
         {
-            Common.Emit(LatticeOutput.Bands(structure, lattice, bands, format), outPath); // recoil energies and atom masses
+            LatticeOutput.Bands(structure, lattice, bands, DisplayUnits.Lattice(lattice, latticeUnit), format, outPath); // recoil energies and atom masses
             return;
         }
-        var unit = DisplayUnits.Energy(structure.Cell, bands.Bands.SelectMany(b => new[] { b.BottomElectronVolts, b.TopElectronVolts }));
+        var unit = DisplayUnits.Energy(structure, bands.Bands.SelectMany(b => new[] { b.BottomElectronVolts, b.TopElectronVolts }));
+        // m* along the growth axis at the band's bottom and top; m∥ the in-plane mass at the bottom (per-layer masses weighted by the
+        // Bloch state), last so that the CSV's earlier columns keep their places.
         var table = new Table(new Column("band"), Column.Energy("bottom", unit), Column.Energy("top", unit), Column.Energy("width", unit),
-            new Column("m* bottom", "m0", Format: "G6"), new Column("m* top", "m0", Format: "G6"), Column.Energy("gap above", unit));
+            new Column("m* bottom", "m0", Format: "G6"), new Column("m* top", "m0", Format: "G6"), Column.Energy("gap above", unit), new Column("m∥ bottom", "m0", Format: "G6"));
         foreach (var band in bands.Bands)
         {
             var (mb, mt) = masses[band.Index - 1];
-            table.Add(band.Index, band.BottomElectronVolts, band.TopElectronVolts, band.WidthElectronVolts, mb, mt, bands.Gaps[band.Index - 1].WidthElectronVolts);
+            table.Add(band.Index, band.BottomElectronVolts, band.TopElectronVolts, band.WidthElectronVolts, mb, mt,
+                bands.Gaps[band.Index - 1].WidthElectronVolts, inPlane?[band.Index - 1].ElectronMasses ?? double.NaN);
         }
-        Common.EmitTable(table, format, Common.TableTitle(structure, unit), outPath);
+        var note = inPlaneWhy is null ? "" : $"m∥ not available: {inPlaneWhy}\n";
+        Common.EmitTable(table, format, Common.TableTitle(structure, unit) + note, outPath);
+    }
+
+    /// <summary>
+    /// The in-plane mass of every band at its bottom (<see cref="InPlaneDispersion.MassAtBottom"/>), or null and why not (a cell
+    /// element the in-plane transformation does not cover, or a band whose mass could not be computed).
+    /// </summary>
+    private static (IReadOnlyList<InPlaneMass>? Masses, string? Why) InPlaneMasses(BandStructure bands)
+    {
+        try
+        {
+            return (InPlaneDispersion.MassesAtBottom(bands, bands.Bands.Count), null);
+        }
+        catch (ArgumentException e)
+        {
+            return (null, Common.Describe(e));
+        }
+        catch (PeriodicComputationException e)
+        {
+            return (null, e.Message);
+        }
     }
 }

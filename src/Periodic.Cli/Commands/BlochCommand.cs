@@ -117,7 +117,7 @@ internal static class BlochCommand
         {
             table.Add(x[i], psiRe[i], psiIm[i], uRe[i], uIm[i], density[i]);
         }
-        var unit = DisplayUnits.Energy(structure.Cell, [bloch.EnergyElectronVolts]);
+        var unit = DisplayUnits.Energy(structure, [bloch.EnergyElectronVolts]);
         var title = Common.TableTitle(structure, unit) + string.Create(CultureInfo.InvariantCulture,
             $"Band {bloch.BandIndex} at k = {bloch.WavevectorPerNanometre:G8} 1/nm (kd/pi = {bloch.WavevectorPerNanometre * bloch.PeriodNanometres / Math.PI:G6}), E = {unit.From(bloch.EnergyElectronVolts):G10} {unit.Symbol}; normalised to 1 over one period; relative error estimate {bloch.RelativeErrorEstimate:G2}\n");
         Common.EmitTable(table, format, title, outPath);

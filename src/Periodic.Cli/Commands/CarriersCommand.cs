@@ -28,7 +28,7 @@ internal static class CarriersCommand
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
         var output = Common.OutOption();
-        var command = new Command("carriers", "Superlattice carrier density at a Fermi level and temperature, or the Fermi level for a density (spin included, free in-plane motion).");
+        var command = new Command("carriers", "Superlattice carrier density at a Fermi level and temperature, or the Fermi level for a density (spin included): with one in-plane mass, and exact with each layer's own in-plane mass.");
         command.Arguments.Add(file);
         foreach (var option in new Option[] { temperature, fermi, density, mass, json, csv, output })
         {
@@ -60,7 +60,7 @@ internal static class CarriersCommand
     }
 
     public static Option<double?> InPlaneMassOption() => Common.NumberOption("--in-plane-mass", "m0", "0.067",
-        "Mass of the free motion in the layer plane, m0 (default: the mass of the cell's lowest-potential layer, where the carriers sit).");
+        "Mass of the one-in-plane-mass approximation, m0 (default: the mass of the cell's lowest-potential layer, where the carriers sit); the exact values use each layer's own mass.");
 
     public static void CheckMass(double? mass)
     {
@@ -119,6 +119,18 @@ internal static class CarriersCommand
             throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"{option} {value:R} cannot be used: {Common.Describe(e)}"));
         }
         var warnings = Common.CheckEnergies(structure, [level]);
+        var exactWhy = DosCommand.ExactUnavailable(structure.Cell);
+        ExactDensity? exact = null;
+        if (exactWhy is null)
+        {
+            exact = fermi is not null
+                ? new ExactDensity(InPlaneDensities.CarrierDensity(structure.Cell, Energy.FromElectronVolts(level), Temperature.FromKelvin(kelvin), inPlane), 0, true, 0)
+                : ExactFermiLevel(structure.Cell, densityPerCm3!.Value * 1e-21, level, kelvin, inPlane);
+        }
+        else
+        {
+            Console.Error.WriteLine($"periodic: note: {Common.Printable(structure.SourceName)}: exact in-plane density not computed ({exactWhy}); the single-in-plane-mass value is given.");
+        }
         if (format == OutputFormat.Json)
         {
             Common.Emit(Common.Json(w =>
@@ -139,15 +151,47 @@ internal static class CarriersCommand
                     w.WriteNumber("relativeDensityResidual", s.RelativeDensityResidual);
                     w.WriteBoolean("converged", s.Converged);
                 }
+                if (exact is { } x)
+                {
+                    // Each layer's own in-plane mass; the single-mass value above, at the exact Fermi level, beside it.
+                    w.WriteStartObject("exact");
+                    w.WriteNumber("fermiLevel", x.Density.FermiLevelElectronVolts);
+                    w.WriteNumber("density", x.Density.ExactPerCubicNanometre);
+                    w.WriteNumber("densityPerCm3", x.Density.ExactPerCubicNanometre * 1e21);
+                    w.WriteNumber("errorEstimate", x.Density.ErrorEstimatePerCubicNanometre);
+                    w.WriteNumber("singleMassDensity", x.Density.SingleMassPerCubicNanometre);
+                    w.Number("singleMassRelativeError", x.Density.RelativeErrorOfSingleMass);
+                    if (fermi is null)
+                    {
+                        w.WriteNumber("relativeDensityResidual", x.RelativeResidual);
+                        w.WriteBoolean("converged", x.Converged);
+                        w.WriteNumber("iterations", x.Iterations);
+                    }
+                    w.WriteEndObject();
+                }
+                else
+                {
+                    w.WriteString("exactUnavailable", exactWhy);
+                }
             }), outPath);
             return;
         }
-        var unit = DisplayUnits.Energy(structure.Cell, [level]);
-        var table = new Table(Column.Energy("Fermi level", unit), new Column("T", "K", Format: "G6"), new Column("density", "1/cm3", Format: "G10"),
-            new Column("error", "1/cm3", Format: "G3"), new Column("in-plane mass", "m0", Format: "G6"));
-        table.Add(level, kelvin, perNm3 * 1e21, error * 1e21, inPlane.ElectronMasses);
+        var unit = DisplayUnits.Energy(structure, [level]);
+        // The one-mass columns first (as before the exact values existed), the exact ones appended.
+        var columns = new List<Column> { Column.Energy("Fermi level", unit), new("T", "K", Format: "G6"), new("density", "1/cm3", Format: "G10"),
+            new("error", "1/cm3", Format: "G3"), new("in-plane mass", "m0", Format: "G6") };
+        var row = new List<Cell> { level, kelvin, perNm3 * 1e21, error * 1e21, inPlane.ElectronMasses };
+        if (exact is { } x)
+        {
+            columns.AddRange([Column.Energy("exact Fermi level", unit), new("exact density", "1/cm3", Format: "G10"), new("exact error", "1/cm3", Format: "G3"),
+                new("1-mass rel. error", Format: "G3")]);
+            row.AddRange([x.Density.FermiLevelElectronVolts, x.Density.ExactPerCubicNanometre * 1e21, x.Density.ErrorEstimatePerCubicNanometre * 1e21, x.Density.RelativeErrorOfSingleMass]);
+        }
+        var table = new Table([.. columns]);
+        table.Add([.. row]);
         var title = Common.TableTitle(structure, unit) + (fermi is not null ? "Density at the given Fermi level" : "Fermi level for the given density")
-            + " (spin included; free in-plane motion of one mass; no space charge or band bending).\n";
+            + " (spin included; no space charge or band bending), with free in-plane motion of one mass (--in-plane-mass)"
+            + (exact is null ? $"; exact values not computed: {exactWhy}" : " and exact (each layer's own in-plane mass); 1-mass rel. error: (one-mass - exact)/exact density at the exact Fermi level") + ".\n";
         Common.EmitTable(table, format, title, outPath);
     }
 
@@ -169,5 +213,41 @@ internal static class CarriersCommand
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--density {density * 1e21:R} 1/cm3 needs more than 1024 bands; give a smaller density."));
             }
         }
+    }
+
+    /// <summary>The exact density (each layer's own in-plane mass) at a Fermi level, and for a given density how it was reached.</summary>
+    private readonly record struct ExactDensity(InPlaneCarrierDensity Density, double RelativeResidual, bool Converged, int Iterations);
+
+    private const int MaxExactIterations = 40;
+
+    /// <summary>
+    /// The Fermi level at which the exact density equals <paramref name="target"/> (1/nm³): quasi-Newton steps on ln n from the
+    /// single-mass level <paramref name="start"/>, with the slope d ln n/dμ of the single-mass density (close to the exact one, so each
+    /// step gains about two digits), until the relative residual is below 1e-10 or the exact density's own quadrature error.
+    /// </summary>
+    private static ExactDensity ExactFermiLevel(UnitCell cell, double target, double start, double kelvin, EffectiveMass inPlane)
+    {
+        var properties = PointQuantities.PropertiesUpTo(cell, start + 40 * PhysicalConstants.BoltzmannElectronVoltsPerKelvin * kelvin + 0.05);
+        double LogSingle(double mu) => Math.Log(properties.SuperlatticeCarrierDensity(Energy.FromElectronVolts(mu), Temperature.FromKelvin(kelvin), inPlane).DensityPerCubicNanometre);
+        var mu = start;
+        var n = InPlaneDensities.CarrierDensity(cell, Energy.FromElectronVolts(mu), Temperature.FromKelvin(kelvin), inPlane);
+        for (var i = 1; i <= MaxExactIterations; i++)
+        {
+            var residual = Math.Log(n.ExactPerCubicNanometre / target);
+            var tolerance = Math.Max(1e-10, n.ErrorEstimatePerCubicNanometre / n.ExactPerCubicNanometre);
+            if (Math.Abs(residual) <= tolerance)
+            {
+                return new ExactDensity(n, n.ExactPerCubicNanometre / target - 1, true, i);
+            }
+            var h = Math.Max(1e-6, 1e-3 * PhysicalConstants.BoltzmannElectronVoltsPerKelvin * kelvin);
+            var slope = (LogSingle(mu + h) - LogSingle(mu - h)) / (2 * h);
+            if (!(slope > 0) || !double.IsFinite(slope))
+            {
+                break;
+            }
+            mu -= residual / slope;
+            n = InPlaneDensities.CarrierDensity(cell, Energy.FromElectronVolts(mu), Temperature.FromKelvin(kelvin), inPlane);
+        }
+        return new ExactDensity(n, n.ExactPerCubicNanometre / target - 1, false, MaxExactIterations);
     }
 }

@@ -68,6 +68,29 @@ internal static class Common
         "In-plane wavevector k∥, 1/nm (default 0): every layer and lead is seen with its potential raised by ħ²k∥²/2m of its own mass, "
         + "so energies are total energies E(k_z, k∥). Parabolic layers, delta barriers and Fourier segments.");
 
+    /// <summary><c>--unit</c>: the energy unit an optical-lattice file is shown in (tables, CSV, pictures; never JSON).</summary>
+    public static Option<string?> LatticeUnitOption() => new("--unit")
+    {
+        Description = "For an optical-lattice file: energy unit of tables, CSV and pictures: recoil (E_R, the default), kHz (E/h) or eV. "
+            + "JSON is always in eV and 1/nm; other files choose eV, meV, ... by magnitude.",
+    };
+
+    /// <summary>The unit <paramref name="option"/> asks for; refused for a file that is not an optical lattice.</summary>
+    public static LatticeEnergyUnit LatticeUnit(ParseResult result, Option<string?> option, StructureDefinition structure)
+    {
+        if (result.GetValue(option) is not { } text)
+        {
+            return LatticeEnergyUnit.Recoil;
+        }
+        var unit = DisplayUnits.ParseLatticeUnit(text);
+        if (structure.OpticalLattice is null)
+        {
+            throw new UsageException($"--unit applies only to an optical-lattice file (\"opticalLattice\" instead of \"cell\"); {Printable(structure.SourceName)} is a cell, "
+                + "whose tables choose eV, meV, µeV, ... by magnitude (CSV and JSON in eV).");
+        }
+        return unit;
+    }
+
     /// <summary>The structure at the in-plane wavevector given by <paramref name="option"/> (unchanged without it).</summary>
     public static StructureDefinition AtInPlaneWavevector(ParseResult result, Option<double?> option, StructureDefinition structure)
     {

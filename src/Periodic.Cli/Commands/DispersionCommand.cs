@@ -35,8 +35,10 @@ internal static class DispersionCommand
         var command = new Command("dispersion", "Tabulate E(k) of the lowest bands over the first Brillouin zone, k from 0 to pi/d.");
         command.Arguments.Add(file);
         var inPlane = Common.InPlaneWavevectorOption();
+        var unit = Common.LatticeUnitOption();
         command.Options.Add(inPlane);
         command.Options.Add(count);
+        command.Options.Add(unit);
         command.Options.Add(points);
         command.Options.Add(json);
         command.Options.Add(csv);
@@ -52,11 +54,13 @@ internal static class DispersionCommand
             }
             Limits.CheckWork("--count × --points", Limits.Product(n, k), Limits.MaxDispersionValues,
                 "the output is streamed, but each value costs CPU time and about 25 bytes of output");
-            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result.GetValue(file)!));
+            var loaded = Common.Load(result.GetValue(file)!);
+            var latticeUnit = Common.LatticeUnit(result, unit, loaded);
+            var structure = Common.AtInPlaneWavevector(result, inPlane, loaded);
             var solved = Solver.Compute(structure.Cell, n);
             var warnings = structure.Materials is { } built ? Common.ReportWarnings(structure, built.CheckEnergies(solved.Structure.Bands.SelectMany(b => new[] { b.BottomElectronVolts, b.TopElectronVolts }).ToArray())) : [];
             var grid = new Grid(solved.Structure, k);
-            Common.Emit(stream => Write(stream, structure, solved, grid, warnings, format), result.GetValue(output));
+            Common.Emit(stream => Write(stream, structure, solved, grid, warnings, format, latticeUnit), result.GetValue(output));
             return 0;
         });
         return command;
@@ -116,7 +120,8 @@ internal static class DispersionCommand
         return (k, energies);
     }
 
-    private static void Write(Stream stream, StructureDefinition structure, Periodic.Bands.BandSolution solved, Grid grid, IReadOnlyList<Periodic.Materials.ModelWarning> warnings, OutputFormat format)
+    private static void Write(Stream stream, StructureDefinition structure, Periodic.Bands.BandSolution solved, Grid grid, IReadOnlyList<Periodic.Materials.ModelWarning> warnings, OutputFormat format,
+        LatticeEnergyUnit latticeUnit)
     {
         var bands = solved.Structure;
         var count = bands.Bands.Count;
@@ -136,8 +141,7 @@ internal static class DispersionCommand
         {
             // q/k_L and recoil energies; lattice grids are short, so they are computed whole rather than streamed.
             var (kAll, eAll) = Compute(bands, grid.Points);
-            var text = LatticeOutput.Dispersion(structure, lattice, bands, kAll, eAll, format);
-            stream.Write(new System.Text.UTF8Encoding(false).GetBytes(text));
+            LatticeOutput.Dispersion(stream, structure, lattice, kAll, eAll, DisplayUnits.Lattice(lattice, latticeUnit), format);
             return;
         }
         var d = bands.PeriodNanometres;
@@ -152,7 +156,7 @@ internal static class DispersionCommand
         }
         // Text: the unit and digits follow from the band edges (every E(k) lies between its band's edges).
         var edges = bands.Bands.SelectMany(b => new[] { b.BottomElectronVolts, b.TopElectronVolts }).ToArray();
-        var unit = DisplayUnits.Energy(structure.Cell, edges);
+        var unit = DisplayUnits.Energy(structure, edges);
         var energyFormat = Table.ChooseFormat(edges.Select(unit.From));
         var columns = new List<Column> { new("k", "1/nm", Format: "G8"), new("kd/pi", Format: "F6") };
         columns.AddRange(Enumerable.Range(1, count).Select(n => Column.Energy(string.Create(CultureInfo.InvariantCulture, $"E{n}"), unit) with { Format = energyFormat }));

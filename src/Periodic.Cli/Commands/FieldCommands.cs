@@ -20,7 +20,7 @@ internal static class FieldCommands
 {
     private const double VoltsPerMetrePerKilovoltPerCentimetre = 1e5;
 
-    private const int MaxLadderPeriods = 400;
+    public const int MaxLadderPeriods = 400;
 
     private const string DriftLimits = "Model: one miniband, one relaxation time, non-degenerate carriers, uniform field, no space charge or field domains; a guide to compare designs.";
 
@@ -38,7 +38,7 @@ internal static class FieldCommands
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
         var output = new Option<string?>("--out", "-o") { Description = "Write to this file (atomically) instead of stdout." };
-        var command = new Command("drift", "Miniband drift velocity against electric field (relaxation-time approximation): peak field, peak velocity, Bloch frequency, current density.");
+        var command = new Command("drift", "Miniband drift velocity against electric field (relaxation-time approximation): peak field, peak velocity, Bloch frequency, current density. Picture: plot FILE --show drift.");
         command.Arguments.Add(file);
         foreach (var option in new Option[] { band, tau, temperature, maxField, points, density, json, csv, output })
         {
@@ -48,16 +48,8 @@ internal static class FieldCommands
         {
             var format = Common.Format(result, json, csv);
             var n = Common.CheckCount(result.GetValue(band), "--band", 100);
-            var ps = result.GetValue(tau) ?? throw new UsageException("--scattering-time is required (the relaxation time in ps, e.g. --scattering-time 0.1).");
-            if (!(ps >= 1e-6 && ps <= 1e6))
-            {
-                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--scattering-time must be from 1e-6 to 1e6 ps; got {ps:R}."));
-            }
-            var t = result.GetValue(temperature) ?? 0;
-            if (!(t >= 0 && t <= 1e4))
-            {
-                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--temperature must be from 0 to 10000 K; got {t:R}."));
-            }
+            var ps = CheckScatteringTime(result.GetValue(tau));
+            var t = CheckDriftTemperature(result.GetValue(temperature));
             var nDensity = result.GetValue(density);
             if (nDensity is { } given && !(given >= 0))
             {
@@ -69,30 +61,59 @@ internal static class FieldCommands
                 throw new UsageException("--points must be between 2 and 100000; got 1.");
             }
             var structure = Common.Load(result.GetValue(file)!);
-            var bands = BandStructure.Compute(structure.Cell, n);
-            var drift = MinibandDrift.Create(bands, n, ps * 1e-12, Temperature.FromKelvin(t));
-            var limit = drift.MaxFieldVoltsPerMetre / VoltsPerMetrePerKilovoltPerCentimetre;
-            var top = result.GetValue(maxField) ?? Math.Min(limit, 4 * drift.PeakFieldVoltsPerMetre / VoltsPerMetrePerKilovoltPerCentimetre);
-            if (!(top > 0 && top <= limit))
-            {
-                throw new UsageException(string.Create(CultureInfo.InvariantCulture,
-                    $"--max-field must be above 0 and at most {limit:R} kV/cm (eFd up to the {drift.GapAboveElectronVolts:R} eV gap above band {n}; beyond it Zener tunnelling breaks the single-miniband model); got {top:R}."));
-            }
+            var (drift, top) = SetUpDrift(structure, n, ps, t, result.GetValue(maxField));
             Common.Emit(RenderDrift(structure, drift, top, k, nDensity, format), result.GetValue(output));
             return 0;
         });
         return command;
     }
 
+    /// <summary>The relaxation time in ps (required; 1e-6 to 1e6).</summary>
+    public static double CheckScatteringTime(double? ps)
+    {
+        var value = ps ?? throw new UsageException("--scattering-time is required (the relaxation time in ps, e.g. --scattering-time 0.1).");
+        if (!(value >= 1e-6 && value <= 1e6))
+        {
+            throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--scattering-time must be from 1e-6 to 1e6 ps; got {value:R}."));
+        }
+        return value;
+    }
+
+    /// <summary>The drift's temperature in K (default 0: carriers at the band bottom).</summary>
+    public static double CheckDriftTemperature(double? kelvin)
+    {
+        var t = kelvin ?? 0;
+        if (!(t >= 0 && t <= 1e4))
+        {
+            throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--temperature must be from 0 to 10000 K; got {t:R}."));
+        }
+        return t;
+    }
+
+    /// <summary>The drift of band <paramref name="band"/> and the highest field of its table or plot, kV/cm (checked against the single-miniband limit).</summary>
+    public static (MinibandDrift Drift, double TopKilovoltsPerCentimetre) SetUpDrift(StructureDefinition structure, int band, double ps, double kelvin, double? maxField)
+    {
+        RefuseNeutralAtoms(structure, "drift");
+        var bands = BandStructure.Compute(structure.Cell, band);
+        var drift = MinibandDrift.Create(bands, band, ps * 1e-12, Temperature.FromKelvin(kelvin));
+        var limit = drift.MaxFieldVoltsPerMetre / VoltsPerMetrePerKilovoltPerCentimetre;
+        var top = maxField ?? Math.Min(limit, 4 * drift.PeakFieldVoltsPerMetre / VoltsPerMetrePerKilovoltPerCentimetre);
+        if (!(top > 0 && top <= limit))
+        {
+            throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                $"--max-field must be above 0 and at most {limit:R} kV/cm (eFd up to the {drift.GapAboveElectronVolts:R} eV gap above band {band}; beyond it Zener tunnelling breaks the single-miniband model); got {top:R}."));
+        }
+        return (drift, top);
+    }
+
+    /// <summary>The fields of the table or plot: <paramref name="points"/> from 0 to <paramref name="top"/> kV/cm, the last exactly <paramref name="top"/>.</summary>
+    public static double[] Fields(double top, int points) =>
+        [.. Enumerable.Range(0, points).Select(i => i == points - 1 ? top : top * i / (points - 1))];
+
     private static string RenderDrift(StructureDefinition structure, MinibandDrift drift, double top, int points, double? density, OutputFormat format)
     {
-        var fields = new double[points];
-        var velocities = new double[points];
-        for (var i = 0; i < points; i++)
-        {
-            fields[i] = i == points - 1 ? top : top * i / (points - 1);
-            velocities[i] = drift.VelocityAt(fields[i] * VoltsPerMetrePerKilovoltPerCentimetre);
-        }
+        var fields = Fields(top, points);
+        var velocities = fields.Select(f => drift.VelocityAt(f * VoltsPerMetrePerKilovoltPerCentimetre)).ToArray();
         double Bloch(double kvPerCm) => drift.BlochAngularFrequencyAt(kvPerCm * VoltsPerMetrePerKilovoltPerCentimetre) / (2 * Math.PI);
         double Current(int i) => drift.CurrentDensityAmperesPerSquareMetreAt(fields[i] * VoltsPerMetrePerKilovoltPerCentimetre, density!.Value) * 1e-4; // A/cm2
         if (format == OutputFormat.Json)
@@ -131,20 +152,16 @@ internal static class FieldCommands
                 w.WriteString("model", DriftLimits);
             });
         }
-        var columns = new List<string> { "field (kV/cm)", "velocity (m/s)", "Bloch frequency (THz)" };
+        // CSV in the JSON's units at full precision (the Bloch frequency in Hz); the table shows THz.
+        var columns = new List<Column> { new("field", "kV/cm", Format: "G8"), new("velocity", "m/s", Format: "G8"), new("Bloch frequency", "Hz", "THz", 1e12, "G8") };
         if (density is not null)
         {
-            columns.Add("current density (A/cm2)");
+            columns.Add(new("current density", "A/cm2", Format: "G8"));
         }
         var table = new Table([.. columns]);
         for (var i = 0; i < points; i++)
         {
-            var row = new List<string> { Table.Number(fields[i], "G8"), Table.Number(velocities[i], "G8"), Table.Number(Bloch(fields[i]) * 1e-12, "G8") };
-            if (density is not null)
-            {
-                row.Add(Table.Number(Current(i), "G8"));
-            }
-            table.Add([.. row]);
+            table.Add(density is null ? [fields[i], velocities[i], Bloch(fields[i])] : [fields[i], velocities[i], Bloch(fields[i]), Current(i)]);
         }
         if (format == OutputFormat.Csv)
         {
@@ -164,7 +181,7 @@ internal static class FieldCommands
         var json = Common.JsonOption();
         var csv = Common.CsvOption();
         var output = new Option<string?>("--out", "-o") { Description = "Write to this file (atomically) instead of stdout." };
-        var command = new Command("ladder", "Wannier–Stark ladder of a long superlattice in a uniform field: rung energies and widths, spacing eFd, Bloch frequency.");
+        var command = new Command("ladder", "Wannier–Stark ladder of a long superlattice in a uniform field: rung energies and widths, spacing eFd, Bloch frequency. Picture: plot FILE --show ladder.");
         command.Arguments.Add(file);
         foreach (var option in new Option[] { band, field, periods, json, csv, output })
         {
@@ -174,31 +191,68 @@ internal static class FieldCommands
         {
             var format = Common.Format(result, json, csv);
             var n = Common.CheckCount(result.GetValue(band), "--band", 100);
-            var f = result.GetValue(field) ?? throw new UsageException("--field is required (kV/cm, e.g. --field 10).");
-            // Each rung search evaluates the written-out stack thousands of times (O(periods) per energy): a long ladder's
-            // middle needs a few tens of periods, so more than 400 only costs time.
-            Limits.CheckRange("--periods", result.GetValue(periods), WannierStarkLadder.MinPeriods, MaxLadderPeriods);
+            var f = result.GetValue(field);
+            var p = Limits.CheckRange("--periods", result.GetValue(periods), WannierStarkLadder.MinPeriods, MaxLadderPeriods);
             var structure = Common.Load(result.GetValue(file)!);
-            WannierStarkLadder ladder;
-            try
-            {
-                ladder = WannierStarkLadder.Find(structure.Cell, n, result.GetValue(periods), f * VoltsPerMetrePerKilovoltPerCentimetre);
-            }
-            catch (ArgumentOutOfRangeException e) when (e.ParamName is "fieldVoltsPerMetre" or "periods")
-            {
-                var option = e.ParamName == "periods" ? "--periods" : "--field";
-                var message = Common.Describe(e);
-                throw new UsageException(e.ParamName == "periods" ? $"{option}: {message}" : string.Create(CultureInfo.InvariantCulture,
-                    $"--field must be above 0 and at most {ladderLimit(structure, n):R} kV/cm (eFd up to the gap above band {n}); got {f:R}."));
-            }
-            Common.Emit(RenderLadder(structure, ladder, format), result.GetValue(output));
+            Common.Emit(RenderLadder(structure, FindLadder(structure, n, p, f), format), result.GetValue(output));
             return 0;
         });
         return command;
-
-        static double ladderLimit(StructureDefinition structure, int n) =>
-            BandStructure.Compute(structure.Cell, n).GetBand(n).GapAboveElectronVolts / (structure.Cell.Period.Nanometres * 1e-9) / VoltsPerMetrePerKilovoltPerCentimetre;
     }
+
+    /// <summary>
+    /// The ladder of band <paramref name="band"/> over <paramref name="periods"/> periods at <paramref name="fieldKilovoltsPerCentimetre"/>
+    /// (required), the library's refusals mapped to the options. Each rung search evaluates the written-out stack thousands of
+    /// times (O(periods) per energy): a long ladder's middle needs a few tens of periods, so more than 400 only costs time.
+    /// </summary>
+    public static WannierStarkLadder FindLadder(StructureDefinition structure, int band, int periods, double? fieldKilovoltsPerCentimetre)
+    {
+        var f = fieldKilovoltsPerCentimetre ?? throw new UsageException("--field is required (kV/cm, e.g. --field 10).");
+        Limits.CheckRange("--periods", periods, WannierStarkLadder.MinPeriods, MaxLadderPeriods);
+        RefuseNeutralAtoms(structure, "ladder");
+        try
+        {
+            return WannierStarkLadder.Find(structure.Cell, band, periods, f * VoltsPerMetrePerKilovoltPerCentimetre);
+        }
+        catch (ArgumentOutOfRangeException e) when (e.ParamName is "fieldVoltsPerMetre" or "periods")
+        {
+            throw new UsageException(e.ParamName == "periods" ? $"--periods: {Common.Describe(e)}" : string.Create(CultureInfo.InvariantCulture,
+                $"--field must be above 0 and at most {LadderLimit(structure, band):R} kV/cm (eFd up to the gap above band {band}); got {f:R}."));
+        }
+        catch (ArgumentException e) when (e is not ArgumentOutOfRangeException)
+        {
+            // The cell cannot be put under bias (non-parabolic layers, smooth segments): say so in terms of the ladder, not a bias.
+            throw new UsageException($"the ladder puts {Common.Plural(periods, "period")} of the cell under the field, which needs parabolic layers and delta barriers: {Common.Describe(e)}");
+        }
+    }
+
+    /// <summary>Drift and ladder are for charged carriers: an optical-lattice file holds neutral atoms, which an electric field does not tilt.</summary>
+    public static void RefuseNeutralAtoms(StructureDefinition structure, string what)
+    {
+        if (structure.OpticalLattice is not null)
+        {
+            throw new UsageException($"{what} applies an electric field to charged carriers; {Common.Printable(structure.SourceName)} is an optical lattice of neutral atoms "
+                + "(a tilt by gravity or another force is not modelled).");
+        }
+    }
+
+    /// <summary>The central spacing in meV, or why no pair of middle rungs eFd apart was found.</summary>
+    private static string CentralSpacing(StructureDefinition structure, WannierStarkLadder ladder)
+    {
+        if (double.IsFinite(ladder.CentralSpacingElectronVolts))
+        {
+            return string.Create(CultureInfo.InvariantCulture, $"{ladder.CentralSpacingElectronVolts * 1e3:G10} meV");
+        }
+        // The rungs localise over the Bloch amplitude Δ/(eF); a stack shorter than that holds no ladder in its middle.
+        var band = BandStructure.Compute(structure.Cell, ladder.BandIndex).GetBand(ladder.BandIndex);
+        var amplitude = band.WidthElectronVolts / (ladder.FieldVoltsPerMetre * 1e-9);
+        var length = ladder.Periods * ladder.PeriodNanometres;
+        return string.Create(CultureInfo.InvariantCulture,
+            $"not found (no two rungs eFd apart in the middle third: the Bloch amplitude width/eF = {amplitude:G4} nm {(amplitude > length / 3 ? ">" : "<=")} a third of the {length:G6} nm stack; raise --field or --periods)");
+    }
+
+    private static double LadderLimit(StructureDefinition structure, int n) =>
+        BandStructure.Compute(structure.Cell, n).GetBand(n).GapAboveElectronVolts / (structure.Cell.Period.Nanometres * 1e-9) / VoltsPerMetrePerKilovoltPerCentimetre;
 
     private static string RenderLadder(StructureDefinition structure, WannierStarkLadder ladder, OutputFormat format)
     {
@@ -231,17 +285,18 @@ internal static class FieldCommands
                 w.WriteString("model", LadderLimits);
             });
         }
-        var table = new Table("energy (eV)", "width (eV)", "log10 peak T", "middle third");
+        // CSV in the JSON's units at full precision; "middle" marks the rungs of the stack's middle third, where the spacing is eFd.
+        var table = new Table(new Column("energy", "eV", Format: "R"), new Column("width", "eV", Format: "G4"), new Column("log10 peak T", Format: "F2"), new Column("middle"));
         foreach (var rung in ladder.Rungs)
         {
-            table.Add(Table.Number(rung.EnergyElectronVolts, "R"), Table.Number(rung.WidthElectronVolts, "G4"), Table.Number(rung.LogPeakTransmission / Math.Log(10), "F2"), Middle(rung) ? "yes" : "");
+            table.Add(rung.EnergyElectronVolts, rung.WidthElectronVolts, rung.LogPeakTransmission / Math.Log(10), Middle(rung));
         }
         if (format == OutputFormat.Csv)
         {
             return table.ToCsv();
         }
         var summary = string.Create(CultureInfo.InvariantCulture,
-            $"band {ladder.BandIndex}, {ladder.Periods} periods, F = {ladder.FieldVoltsPerMetre / VoltsPerMetrePerKilovoltPerCentimetre:G8} kV/cm: eFd = {ladder.SpacingElectronVolts * 1e3:G10} meV, central spacing {ladder.CentralSpacingElectronVolts * 1e3:G10} meV, Bloch frequency {ladder.BlochFrequencyHertz * 1e-12:G8} THz\n");
+            $"band {ladder.BandIndex}, {ladder.Periods} periods, F = {ladder.FieldVoltsPerMetre / VoltsPerMetrePerKilovoltPerCentimetre:G8} kV/cm: eFd = {ladder.SpacingElectronVolts * 1e3:G10} meV, central spacing {CentralSpacing(structure, ladder)}, Bloch frequency {ladder.BlochFrequencyHertz * 1e-12:G8} THz\n");
         return Common.TableTitle(structure) + summary + "\n" + table.ToText() + "\n" + LadderLimits + "\n";
     }
 }

@@ -19,13 +19,6 @@ internal static class HubbardCommand
 {
     private const int MaxScanDepths = 2000; // each depth is a full Wannier calculation (≈ 0.1 s): a bound on run time
 
-    internal enum DisplayUnit
-    {
-        Recoil,
-        Kilohertz,
-        ElectronVolt,
-    }
-
     public static Command Create()
     {
         var file = Common.FileArgument();
@@ -52,7 +45,7 @@ internal static class HubbardCommand
             Description = "Energy unit of the table and CSV: recoil (E_R, default), kHz (E/h) or eV. JSON is always in eV.",
             DefaultValueFactory = _ => "recoil",
         };
-        var plot = new Option<string?>("--plot") { Description = "Also draw w(x) and |w(x)|² of the lowest band to this .png or .svg file." };
+        var plot = new Option<string?>("--plot") { Description = "Also draw to this .png or .svg file: w(x) and |w(x)|² of the lowest band, or with --depths J, U, the gap and U/J against the depth." };
         var sites = Common.NumberOption("--sites", "sites", "3", "Half-width of the --plot window in lattice sites (default 3).");
         var command = new Command("hubbard",
             "Wannier functions and Hubbard parameters of an optical lattice: tunnelling J1..J3, on-site integral, U, U/J against the superfluid-Mott transition, the gap to the next band and hbar/gap.");
@@ -64,7 +57,7 @@ internal static class HubbardCommand
         command.SetAction(result =>
         {
             var format = Common.Format(result, json, csv);
-            var displayUnit = ParseUnit(result.GetValue(unit)!);
+            var displayUnit = DisplayUnits.ParseLatticeUnit(result.GetValue(unit)!);
             var count = Common.CheckCount(result.GetValue(bands), "--bands", 10);
             var a = ParseScatteringLength(result.GetValue(scattering));
             var confinement = ParseGeometry(result.GetValue(geometry)!, result.GetValue(transverse));
@@ -83,13 +76,17 @@ internal static class HubbardCommand
             var structure = Common.Load(result.GetValue(file)!);
             var lattice = structure.OpticalLattice ?? throw new UsageException(
                 $"{structure.SourceName} does not describe an optical lattice; hubbard needs a file with \"opticalLattice\": {{\"wavelength\": ..., \"depth\": ..., \"species\": ...}} (see docs/cold-atoms.md).");
-            var text2 = scan is null
+            var scanned = scan is null ? null : Scan(lattice, scan, confinement, a);
+            var text2 = scanned is null
                 ? Render(structure, lattice, Describe(lattice, confinement, a, count), format, displayUnit)
-                : RenderScan(structure, lattice, Scan(lattice, scan, confinement, a), format, displayUnit);
+                : RenderScan(structure, lattice, scanned, format, displayUnit);
             if (plotPath is not null)
             {
-                var wannier = HubbardParameters.Compute(lattice, confinement, a).Wannier;
-                PlotCommand.Save(Draw(lattice, wannier, window), plotPath, extension, 900, 560);
+                // A depth scan is drawn as J, U, gap and U/J against s; a single depth as its Wannier function.
+                var picture = scanned is null
+                    ? Draw(lattice, HubbardParameters.Compute(lattice, confinement, a).Wannier, window)
+                    : DrawScan(structure, lattice, scanned, DisplayUnits.Lattice(lattice, displayUnit));
+                PlotCommand.Save(picture, plotPath, extension, 900, 560);
             }
             Common.Emit(text2, result.GetValue(output));
             if (plotPath is not null)
@@ -100,14 +97,6 @@ internal static class HubbardCommand
         });
         return command;
     }
-
-    private static DisplayUnit ParseUnit(string text) => text.ToLowerInvariant() switch
-    {
-        "recoil" or "er" or "e_r" => DisplayUnit.Recoil,
-        "khz" => DisplayUnit.Kilohertz,
-        "ev" => DisplayUnit.ElectronVolt,
-        _ => throw new UsageException($"--unit \"{text}\" is not known; use recoil, kHz or eV."),
-    };
 
     internal static Length ParseScatteringLength(string? text)
     {
@@ -237,10 +226,10 @@ internal static class HubbardCommand
         }
     }
 
-    private static (double Factor, string Name) Energy(OpticalLattice lattice, DisplayUnit unit) => unit switch
+    private static (double Factor, string Name) Energy(OpticalLattice lattice, LatticeEnergyUnit unit) => unit switch
     {
-        DisplayUnit.Recoil => (1 / lattice.RecoilEnergy.ElectronVolts, "E_R"),
-        DisplayUnit.Kilohertz => (OpticalLattice.ToHertz(1) / 1e3, "kHz"),
+        LatticeEnergyUnit.Recoil => (1 / lattice.RecoilEnergy.ElectronVolts, "E_R"),
+        LatticeEnergyUnit.Kilohertz => (OpticalLattice.ToHertz(1) / 1e3, "kHz"),
         _ => (1.0, "eV"),
     };
 
@@ -255,7 +244,7 @@ internal static class HubbardCommand
     private const string Limits =
         "Single atom in a perfect lattice: no harmonic trap envelope; the one-band Hubbard model holds only when the gap is much larger than U and kT.\n";
 
-    public static string Render(StructureDefinition structure, OpticalLattice lattice, HubbardParameters[] results, OutputFormat format, DisplayUnit unit)
+    public static string Render(StructureDefinition structure, OpticalLattice lattice, HubbardParameters[] results, OutputFormat format, LatticeEnergyUnit unit)
     {
         if (format == OutputFormat.Json)
         {
@@ -275,14 +264,15 @@ internal static class HubbardCommand
             });
         }
         var (f, name) = Energy(lattice, unit);
-        var table = new Table("band", $"J1 ({name})", $"J2 ({name})", $"J3 ({name})", "int |w|^4 dx (1/nm)", "spread (nm)", $"U ({name})", "U/J", "(U/J)/(U/J)c", $"gap above ({name})", "hbar/gap (ms)");
+        // The CSV carries the table's units (named in each header) at full round-trip precision; the text table rounds.
+        var table = new Table(new Column("band"), new Column("J1", name, Format: "G6"), new Column("J2", name, Format: "G4"), new Column("J3", name, Format: "G4"),
+            new Column("int |w|^4 dx", "1/nm", Format: "G8"), new Column("spread", "nm", Format: "G6"), new Column("U", name, Format: "G6"), new Column("U/J", Format: "G6"),
+            new Column("(U/J)/(U/J)c", Format: "G4"), new Column("gap above", name, Format: "G6"), new Column("hbar/gap", "ms", Format: "G4"));
         foreach (var r in results)
         {
             var j = r.Wannier.HoppingElectronVolts;
-            table.Add(Table.Integer(r.BandIndex), Table.Number(j[0] * f, "G6"), Table.Number(j[1] * f, "G4"), Table.Number(j[2] * f, "G4"),
-                Table.Number(r.Wannier.OnSiteIntegralPerNanometre, "G8"), Table.Number(Math.Sqrt(r.Wannier.SpreadNanometresSquared), "G6"),
-                Table.Number(r.InteractionElectronVolts * f, "G6"), Table.Number(r.InteractionToTunnellingRatio, "G6"), Table.Number(r.RatioToCritical, "G4"),
-                Table.Number(r.GapAboveElectronVolts * f, "G6"), Table.Number(r.AdiabaticTimeSeconds * 1e3, "G4"));
+            table.Add(r.BandIndex, j[0] * f, j[1] * f, j[2] * f, r.Wannier.OnSiteIntegralPerNanometre, Math.Sqrt(r.Wannier.SpreadNanometresSquared),
+                r.InteractionElectronVolts * f, r.InteractionToTunnellingRatio, r.RatioToCritical, r.GapAboveElectronVolts * f, r.AdiabaticTimeSeconds * 1e3);
         }
         if (format == OutputFormat.Csv)
         {
@@ -291,7 +281,7 @@ internal static class HubbardCommand
         return Header(lattice, results[0]) + string.Create(CultureInfo.InvariantCulture, $"depth s = {lattice.DepthInRecoilEnergies:G6} E_R\n\n") + table.ToText() + "\n" + Limits;
     }
 
-    public static string RenderScan(StructureDefinition structure, OpticalLattice lattice, IReadOnlyList<HubbardParameters> results, OutputFormat format, DisplayUnit unit)
+    public static string RenderScan(StructureDefinition structure, OpticalLattice lattice, IReadOnlyList<HubbardParameters> results, OutputFormat format, LatticeEnergyUnit unit)
     {
         if (format == OutputFormat.Json)
         {
@@ -312,12 +302,12 @@ internal static class HubbardCommand
             });
         }
         var (f, name) = Energy(lattice, unit);
-        var table = new Table("s (E_R)", $"J ({name})", $"U ({name})", "U/J", "(U/J)/(U/J)c", $"gap above ({name})", "hbar/gap (ms)");
+        var table = new Table(new Column("s", "E_R", Format: "G6"), new Column("J", name, Format: "G6"), new Column("U", name, Format: "G6"), new Column("U/J", Format: "G6"),
+            new Column("(U/J)/(U/J)c", Format: "G4"), new Column("gap above", name, Format: "G6"), new Column("hbar/gap", "ms", Format: "G4"));
         foreach (var r in results)
         {
-            table.Add(Table.Number(r.Lattice.DepthInRecoilEnergies, "G6"), Table.Number(r.TunnellingElectronVolts * f, "G6"), Table.Number(r.InteractionElectronVolts * f, "G6"),
-                Table.Number(r.InteractionToTunnellingRatio, "G6"), Table.Number(r.RatioToCritical, "G4"), Table.Number(r.GapAboveElectronVolts * f, "G6"),
-                Table.Number(r.AdiabaticTimeSeconds * 1e3, "G4"));
+            table.Add(r.Lattice.DepthInRecoilEnergies, r.TunnellingElectronVolts * f, r.InteractionElectronVolts * f, r.InteractionToTunnellingRatio, r.RatioToCritical,
+                r.GapAboveElectronVolts * f, r.AdiabaticTimeSeconds * 1e3);
         }
         if (format == OutputFormat.Csv)
         {
@@ -369,6 +359,55 @@ internal static class HubbardCommand
         w.Number("tailRatio", wannier.TailRatio);
         w.WriteEndObject();
     }
+
+    /// <summary>
+    /// A depth scan: J, U and the gap above the band (log scale, left axis, in <paramref name="unit"/>) and U/J (log scale, right
+    /// axis) against s, with the superfluid–Mott critical value dashed on the right axis.
+    /// </summary>
+    private static Plot DrawScan(StructureDefinition structure, OpticalLattice lattice, IReadOnlyList<HubbardParameters> results, EnergyUnit unit)
+    {
+        var s = results.Select(r => r.Lattice.DepthInRecoilEnergies).ToArray();
+        var plot = PlotCommand.NewPlot($"Hubbard parameters against depth: {structure.Name}", "lattice depth s (E_R)", $"J, U, gap above ({unit.Symbol}, log scale)");
+        var tickLabels = new ScottPlot.TickGenerators.NumericAutomatic
+        {
+            // Ticks at log10 values, labelled with the value itself to two digits (0.032, 1, 630).
+            LabelFormatter = v => Plain(double.Parse(Math.Pow(10, v).ToString("G2", CultureInfo.InvariantCulture), CultureInfo.InvariantCulture)),
+        };
+        var rightLabels = new ScottPlot.TickGenerators.NumericAutomatic { LabelFormatter = tickLabels.LabelFormatter };
+        plot.Axes.Left.TickGenerator = tickLabels;
+        plot.Axes.Right.TickGenerator = rightLabels;
+        plot.Axes.Right.Label.Text = "U/J (log scale)";
+        plot.Axes.Right.Label.FontSize = 14;
+        void Curve(double[] values, string label, Color color, bool right)
+        {
+            var line = plot.Add.Scatter(s, values.Select(Math.Log10).ToArray());
+            line.LegendText = label;
+            line.Color = color;
+            line.LineWidth = 2;
+            line.MarkerSize = s.Length > 60 ? 0 : 5;
+            if (right)
+            {
+                line.Axes.YAxis = plot.Axes.Right;
+                line.LinePattern = LinePattern.Dashed;
+            }
+        }
+        Curve([.. results.Select(r => unit.From(r.TunnellingElectronVolts))], "J", Colors.SteelBlue, false);
+        Curve([.. results.Select(r => unit.From(r.InteractionElectronVolts))], "U", Colors.DarkOrange, false);
+        Curve([.. results.Select(r => unit.From(r.GapAboveElectronVolts))], "gap above", Colors.Gray, false);
+        Curve([.. results.Select(r => r.InteractionToTunnellingRatio)], "U/J (right axis)", Colors.DarkRed, true);
+        var critical = plot.Add.HorizontalLine(Math.Log10(results[0].CriticalRatio));
+        critical.Axes.YAxis = plot.Axes.Right;
+        critical.Color = Colors.DarkRed.WithAlpha(0.5);
+        critical.LinePattern = LinePattern.Dotted;
+        critical.LegendText = string.Create(CultureInfo.InvariantCulture, $"(U/J)c = {results[0].CriticalRatio:G4}");
+        plot.ShowLegend(Alignment.UpperLeft);
+        return plot;
+    }
+
+    /// <summary>A tick value without an exponent where it has at most five digits (1600, 0.0032), else in E notation.</summary>
+    private static string Plain(double value) => value is >= 1e-4 and < 1e5
+        ? value.ToString("0.#####", CultureInfo.InvariantCulture)
+        : value.ToString("G2", CultureInfo.InvariantCulture);
 
     private static Plot Draw(OpticalLattice lattice, WannierFunction wannier, double sites)
     {

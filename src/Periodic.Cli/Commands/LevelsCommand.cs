@@ -161,7 +161,7 @@ internal static class LevelsCommand
             }), outPath);
             return;
         }
-        var unit = DisplayUnits.Energy(structure.Cell, levels.Select(l => l.EnergyElectronVolts).Append(spectrum.ContinuumEdgeElectronVolts));
+        var unit = DisplayUnits.Energy(structure, levels.Select(l => l.EnergyElectronVolts).Append(spectrum.ContinuumEdgeElectronVolts));
         if (format == OutputFormat.Csv && grid is not null)
         {
             var columns = new List<Column> { new("x", "nm") };

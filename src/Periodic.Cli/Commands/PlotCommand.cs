@@ -20,7 +20,7 @@ namespace Periodic.Cli.Commands;
 /// </summary>
 internal static class PlotCommand
 {
-    private static readonly string[] Kinds = ["dispersion", "dos", "profile", "transmission", "stack", "iv", "in-plane"];
+    private static readonly string[] Kinds = ["dispersion", "dos", "profile", "transmission", "stack", "iv", "in-plane", "drift", "ladder"];
     // Properties, not static fields: a field of a ScottPlot type would load the plotting library whenever the
     // command line is built, slowing every other command's start.
     private static Color GapColor => Color.FromHex("#F2C7C7").WithAlpha(0.55);
@@ -35,21 +35,30 @@ internal static class PlotCommand
         var show = new Option<string>("--show", "-s")
         {
             Description = "What to draw: dispersion (E(k), gaps shaded), dos, profile (V(x) of the cell with the minibands), transmission (T(E), log scale), "
-                + "stack (the stack's V(x) under the bias, bound states with |psi|^2 and transmission peaks at their energies) or iv (current density from 0 to the bias), or in-plane (miniband edges against k∥ up to --in-plane-wavevector, default 1 /nm).",
+                + "stack (the stack's V(x) under the bias, bound states with |psi|^2 and transmission peaks at their energies), iv (current density from 0 to the bias), "
+                + "in-plane (miniband edges against k∥ up to --in-plane-wavevector, default 1 /nm), drift (drift velocity against field; needs --scattering-time) "
+                + "or ladder (the Wannier-Stark rungs over the tilted miniband; needs --field).",
             DefaultValueFactory = _ => "dispersion",
         };
         show.AcceptOnlyFromAmong(Kinds);
         var count = Common.CountOption(3);
-        var periods = new Option<int?>("--periods", "-N") { Description = "Periods drawn in the profile (default 3); for transmission, stack and iv: N periods of the cell instead of the file's stack (default: the file's stack, else 10 periods)." };
+        var periods = new Option<int?>("--periods", "-N") { Description = "Periods drawn in the profile (default 3); for transmission, stack and iv: N periods of the cell instead of the file's stack (default: the file's stack, else 10 periods); for ladder: periods of the biased stack (8 to 400, default 30)." };
         var fermi = Common.NumberOption("--fermi-level", "eV", "0.02", "For iv: Fermi level of the left contact, eV.");
-        var temperature = Common.NumberOption("--temperature", "K", "77", "For iv: temperature, K (default: the file's temperature for a cell of material layers).");
+        var temperature = Common.NumberOption("--temperature", "K", "77",
+            "For iv: temperature, K (default: the file's temperature for a cell of material layers). For drift: temperature of the occupation, K (default 0).");
+        var band = new Option<int?>("--band") { Description = "For drift and ladder: the miniband, from 1 (default 1)." };
+        var tau = Common.NumberOption("--scattering-time", "ps", "0.1", "For drift: relaxation time tau, ps (1e-6 to 1e6).");
+        var maxField = Common.NumberOption("--max-field", "kV/cm", "20", "For drift: right end of the field axis, kV/cm (default: 4 times the peak field, at most the single-miniband limit).");
+        var field = Common.NumberOption("--field", "kV/cm", "10", "For ladder: the uniform field, kV/cm (above 0, eFd at most the gap above the band).");
         var grid = new EnergyGridOptions();
         var bias = TransmissionCommand.BiasOption();
         var width = new Option<int>("--width") { Description = "Image width, pixels.", DefaultValueFactory = _ => 900 };
         var height = new Option<int>("--height") { Description = "Image height, pixels.", DefaultValueFactory = _ => 600 };
-        var command = new Command("plot", "Draw E(k), the DOS, the potential profile with its minibands, or T(E) to a PNG or SVG file.");
+        var command = new Command("plot", "Draw a picture to a PNG or SVG file: E(k), the DOS, the potential profile with its minibands, T(E), a stack with its levels, "
+            + "the I-V curve, the minibands against k∥, the drift velocity against field or the Wannier-Stark ladder (--show).");
         command.Arguments.Add(file);
         var inPlane = Common.InPlaneWavevectorOption();
+        var unitOption = Common.LatticeUnitOption();
         command.Options.Add(inPlane);
         command.Options.Add(output);
         command.Options.Add(show);
@@ -59,6 +68,11 @@ internal static class PlotCommand
         command.Options.Add(bias);
         command.Options.Add(fermi);
         command.Options.Add(temperature);
+        command.Options.Add(band);
+        command.Options.Add(tau);
+        command.Options.Add(maxField);
+        command.Options.Add(field);
+        command.Options.Add(unitOption);
         command.Options.Add(width);
         command.Options.Add(height);
         command.SetAction(result =>
@@ -87,11 +101,21 @@ internal static class PlotCommand
             }
             var mu = result.GetValue(fermi);
             var t = result.GetValue(temperature);
-            if ((mu is not null || t is not null) && kind != "iv")
+            OnlyFor(result, fermi, "--fermi-level", kind, "iv");
+            OnlyFor(result, temperature, "--temperature", kind, "iv", "drift");
+            OnlyFor(result, band, "--band", kind, "drift", "ladder");
+            OnlyFor(result, tau, "--scattering-time", kind, "drift");
+            OnlyFor(result, maxField, "--max-field", kind, "drift");
+            OnlyFor(result, field, "--field", kind, "ladder");
+            var bandIndex = Common.CheckCount(result.GetValue(band) ?? 1, "--band", 100);
+            var driftKelvin = kind == "drift" ? FieldCommands.CheckDriftTemperature(t) : 0;
+            var scatteringPs = kind == "drift" ? FieldCommands.CheckScatteringTime(result.GetValue(tau)) : 0;
+            if (kind == "ladder")
             {
-                throw new UsageException($"--fermi-level and --temperature apply only to --show iv; got --show {kind}.");
+                _ = result.GetValue(field) ?? throw new UsageException("--show ladder needs --field F (kV/cm, e.g. --field 10).");
+                Limits.CheckRange("--periods", p ?? 30, Periodic.Stacks.WannierStarkLadder.MinPeriods, FieldCommands.MaxLadderPeriods);
             }
-            if (t is { } kelvin && !(kelvin >= StackTransmission.MinCurrentTemperatureKelvin && kelvin <= StackTransmission.MaxCurrentTemperatureKelvin))
+            if (kind == "iv" && t is { } kelvin && !(kelvin >= StackTransmission.MinCurrentTemperatureKelvin && kelvin <= StackTransmission.MaxCurrentTemperatureKelvin))
             {
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture,
                     $"--temperature must be between {StackTransmission.MinCurrentTemperatureKelvin} K and {StackTransmission.MaxCurrentTemperatureKelvin} K; got {kelvin:R}."));
@@ -101,6 +125,7 @@ internal static class PlotCommand
                 throw new UsageException("--show iv needs --fermi-level E (eV, the left contact's Fermi level).");
             }
             var loaded = Common.Load(result.GetValue(file)!);
+            var latticeUnit = Common.LatticeUnit(result, unitOption, loaded);
             var atInPlane = Common.AtInPlaneWavevector(result, inPlane, loaded); // validates --in-plane-wavevector
             var structure = kind == "in-plane" ? loaded : atInPlane; // there it is the end of the k∥ axis
             if (kind == "profile")
@@ -114,19 +139,125 @@ internal static class PlotCommand
             var plot = kind switch
             {
                 "in-plane" => InPlaneEdges(structure, n, result.GetValue(inPlane) ?? 1.0),
-                "dispersion" => structure.OpticalLattice is { } lattice ? LatticeOutput.DispersionPlot(structure, lattice, n) : Dispersion(structure, n),
-                "dos" => Dos(structure, n, energies),
-                "profile" => Profile(structure, n, p ?? 3),
-                "stack" => Stack(structure, stackPeriods, TransmissionCommand.ChooseBias(u, structure)),
+                "drift" => Drift(structure, FieldCommands.SetUpDrift(structure, bandIndex, scatteringPs, driftKelvin, result.GetValue(maxField))),
+                "ladder" => Ladder(structure, FieldCommands.FindLadder(structure, bandIndex, p ?? 30, result.GetValue(field))),
+                "dispersion" => structure.OpticalLattice is { } lattice
+                    ? LatticeOutput.DispersionPlot(structure, lattice, n, DisplayUnits.Lattice(lattice, latticeUnit)) : Dispersion(structure, n),
+                "dos" => Dos(structure, n, energies, latticeUnit),
+                "profile" => Profile(structure, n, p ?? 3, latticeUnit),
+                "stack" => Stack(structure, stackPeriods, TransmissionCommand.ChooseBias(u, structure), latticeUnit),
                 "iv" => CurrentVoltage(structure, stackPeriods, IvBias(u, structure), mu!.Value,
                     t ?? structure.Materials?.Temperature.Kelvin ?? throw new UsageException("give --temperature K (the structure file has no material temperature).")),
-                _ => Transmission(structure, n, stackPeriods, energies, TransmissionCommand.ChooseBias(u, structure)),
+                _ => Transmission(structure, n, stackPeriods, energies, TransmissionCommand.ChooseBias(u, structure), latticeUnit),
             };
             Save(plot, path, extension, w, h);
             Console.Error.WriteLine($"wrote {Common.Printable(path)}");
             return 0;
         });
         return command;
+    }
+
+    /// <summary>Refuses an option given with a --show it does not apply to.</summary>
+    private static void OnlyFor<T>(ParseResult result, Option<T> option, string name, string kind, params string[] kinds)
+    {
+        if (result.GetResult(option) is { Implicit: false } && !kinds.Contains(kind))
+        {
+            throw new UsageException($"{name} applies only to --show {string.Join(" and ", kinds)}; got --show {kind}.");
+        }
+    }
+
+    /// <summary>The drift velocity v(F) from 0 to <paramref name="setup"/>'s top field, the peak marked, the critical field ħ/(edτ) dashed.</summary>
+    private static Plot Drift(StructureDefinition structure, (Periodic.Properties.MinibandDrift Drift, double Top) setup)
+    {
+        var (drift, top) = setup;
+        const double kvPerCm = 1e5; // V/m
+        var fields = FieldCommands.Fields(top, 401);
+        var metresPerSecond = fields.Select(f => drift.VelocityAt(f * kvPerCm)).ToArray();
+        var largest = metresPerSecond.Select(Math.Abs).Max();
+        var (symbol, scale) = largest >= 1e3 ? ("km/s", 1e3) : ("m/s", 1.0);
+        var v = metresPerSecond.Select(x => x / scale).ToArray();
+        var plot = NewPlot(string.Create(CultureInfo.InvariantCulture,
+            $"Drift velocity, band {drift.BandIndex}, tau = {drift.ScatteringTimeSeconds * 1e12:G4} ps, T = {drift.TemperatureKelvin:G4} K: {structure.Name}"),
+            "Electric field F (kV/cm)", $"Drift velocity v ({symbol})");
+        var line = plot.Add.ScatterLine(fields, v);
+        line.LineWidth = 2.5f;
+        line.Color = LineColor;
+        double low = Math.Min(0, v.Min()), high = Math.Max(0, v.Max());
+        var range = Math.Max(high - low, double.Epsilon);
+        var peakField = drift.PeakFieldVoltsPerMetre / kvPerCm;
+        var critical = drift.CriticalFieldVoltsPerMetre / kvPerCm;
+        if (critical <= top)
+        {
+            var fc = plot.Add.VerticalLine(critical);
+            fc.Color = Colors.Gray;
+            fc.LinePattern = LinePattern.Dashed;
+        }
+        if (peakField <= top)
+        {
+            var marker = plot.Add.Marker(peakField, drift.PeakVelocityMetresPerSecond / scale);
+            marker.Color = Colors.DarkOrange;
+            marker.Size = 10;
+            var label = plot.Add.Text(string.Create(CultureInfo.InvariantCulture,
+                $"peak {drift.PeakVelocityMetresPerSecond / scale:G4} {symbol} at {peakField:G4} kV/cm"), peakField + 0.02 * top, drift.PeakVelocityMetresPerSecond / scale + 0.04 * range);
+            label.LabelFontSize = 12;
+        }
+        var note = plot.Add.Text(string.Create(CultureInfo.InvariantCulture,
+            $"dashed: hbar/(e d tau) = {critical:G4} kV/cm (Esaki-Tsu peak of a cosine band)\none miniband, one relaxation time, uniform field, no field domains: a design guide"),
+            top * 0.98, low + 0.03 * range);
+        note.LabelFontSize = 11;
+        note.LabelAlignment = Alignment.LowerRight;
+        note.LabelBackgroundColor = Colors.White.WithAlpha(0.8);
+        plot.Axes.SetLimits(0, top, low - 0.05 * range, high + 0.15 * range);
+        return plot;
+    }
+
+    /// <summary>
+    /// The Wannier–Stark ladder over the biased stack: V(x) tilted by the field, the miniband tilted with it (shaded), and each rung
+    /// drawn at its energy across the Bloch-oscillation amplitude Δ/(eF) around the place where it lies at the band centre.
+    /// </summary>
+    private static Plot Ladder(StructureDefinition structure, Periodic.Stacks.WannierStarkLadder ladder)
+    {
+        var cell = structure.Cell;
+        var stack = Periodic.Stacks.LayerStack.Periodic(ladder.Lead, cell, ladder.Periods, ladder.Lead);
+        var bias = ladder.BiasElectronVolts;
+        var (xs, vs) = StackOptions.Profile(stack, bias);
+        var length = stack.Thickness.Nanometres;
+        var band = BandStructure.Compute(cell, ladder.BandIndex).GetBand(ladder.BandIndex);
+        double bottom = band.BottomElectronVolts, top = band.TopElectronVolts;
+        var unit = DisplayUnits.Energy(structure, [bottom - bias, top]);
+        var span = top - (bottom - bias);
+        double low = bottom - bias - 0.12 * span, high = top + 0.2 * span;
+        var plot = NewPlot(string.Create(CultureInfo.InvariantCulture,
+            $"Wannier-Stark ladder, band {ladder.BandIndex}, F = {ladder.FieldVoltsPerMetre / 1e5:G4} kV/cm, {ladder.Periods} periods: {structure.Name}"),
+            "Position x (nm)", $"Energy ({unit.Symbol})");
+        var strip = plot.Add.Polygon([0, length, length, 0], [unit.From(bottom), unit.From(bottom - bias), unit.From(top - bias), unit.From(top)]);
+        strip.FillStyle.Color = BandColor;
+        strip.LineStyle.Width = 0;
+        var profile = plot.Add.ScatterLine(xs, vs.Select(unit.From).ToArray());
+        profile.LineWidth = 1.5f;
+        profile.Color = ProfileColor;
+        var centre = 0.5 * (bottom + top);
+        var extent = band.WidthElectronVolts * length / bias; // Δ/(eF) in nm
+        foreach (var rung in ladder.Rungs)
+        {
+            var e = rung.EnergyElectronVolts;
+            var x0 = (centre - e) * length / bias;
+            var middle = e >= ladder.MiddleLowerElectronVolts && e <= ladder.MiddleUpperElectronVolts;
+            var segment = plot.Add.Line(Math.Max(0, x0 - 0.5 * extent), unit.From(e), Math.Min(length, x0 + 0.5 * extent), unit.From(e));
+            segment.LineWidth = middle ? 2.5f : 1.5f;
+            segment.Color = middle ? Colors.DarkOrange : LineColor;
+        }
+        var note = plot.Add.Text(
+            $"{Common.Plural(ladder.Rungs.Count, "rung")} (transmission peaks of the biased stack), each drawn over the Bloch amplitude width/eF; orange: middle third\n"
+            + string.Create(CultureInfo.InvariantCulture,
+                $"eFd = {unit.From(ladder.SpacingElectronVolts):G6} {unit.Symbol}, central spacing {unit.From(ladder.CentralSpacingElectronVolts):G6} {unit.Symbol}, Bloch frequency {ladder.BlochFrequencyHertz * 1e-12:G4} THz; ")
+            + "shaded: the miniband tilted by the field; leads (far below) not drawn",
+            0.01 * length, unit.From(low) + 0.02 * unit.From(high - low));
+        note.LabelFontSize = 11;
+        note.LabelAlignment = Alignment.LowerLeft;
+        note.LabelBackgroundColor = Colors.White.WithAlpha(0.8);
+        plot.Axes.SetLimits(0, length, unit.From(low), unit.From(high));
+        return plot;
     }
 
     /// <summary>Miniband edges against k∥ (exact, per-layer masses), each band shaded between its bottom and top.</summary>
@@ -235,8 +366,8 @@ internal static class PlotCommand
     }
 
     /// <summary>The energy unit of a plot's energy axis (DisplayUnits: meV for a superlattice, E_R for cold atoms), so ticks are readable at any magnitude.</summary>
-    private static EnergyUnit AxisUnit(StructureDefinition structure, BandStructure bands) =>
-        DisplayUnits.Energy(structure.Cell, bands.Bands.SelectMany(b => new[] { b.BottomElectronVolts, b.TopElectronVolts }));
+    private static EnergyUnit AxisUnit(StructureDefinition structure, BandStructure bands, LatticeEnergyUnit latticeUnit) =>
+        DisplayUnits.Energy(structure, bands.Bands.SelectMany(b => new[] { b.BottomElectronVolts, b.TopElectronVolts }), latticeUnit);
 
     /// <summary>A copy of <paramref name="bands"/>' edges in <paramref name="unit"/> for drawing.</summary>
     private static (double Bottom, double Top)[] Edges(BandStructure bands, EnergyUnit unit) =>
@@ -245,7 +376,7 @@ internal static class PlotCommand
     private static Plot Dispersion(StructureDefinition structure, int count)
     {
         var bands = Solver.Compute(structure.Cell, count).Structure;
-        var unit = AxisUnit(structure, bands);
+        var unit = AxisUnit(structure, bands, LatticeEnergyUnit.Recoil);
         var (k, e) = DispersionCommand.Compute(bands, 201);
         e = e.Select(band => band.Select(unit.From).ToArray()).ToArray();
         var zone = Math.PI / bands.PeriodNanometres;
@@ -265,22 +396,27 @@ internal static class PlotCommand
         var edge2 = plot.Add.VerticalLine(zone);
         edge1.Color = edge2.Color = Colors.Gray;
         edge1.LinePattern = edge2.LinePattern = LinePattern.Dashed;
-        plot.Add.Text("shaded: the gaps between the bands drawn" + (unit.Note is { } note ? "; " + note : ""), -0.97 * zone, high - 0.02 * (high - low)).LabelFontSize = 12;
+        plot.Add.Text("shaded: the gaps between the bands drawn" + (unit.Note is { } note ? "\n" + note : ""), -0.97 * zone, high - 0.02 * (high - low)).LabelFontSize = 12;
         plot.Axes.SetLimits(-zone * 1.02, zone * 1.02, low, high);
         return plot;
     }
 
-    private static Plot Dos(StructureDefinition structure, int count, double[]? energies)
+    private static Plot Dos(StructureDefinition structure, int count, double[]? energies, LatticeEnergyUnit latticeUnit)
     {
         var bands = Solver.Compute(structure.Cell, count).Structure;
-        var unit = AxisUnit(structure, bands);
+        var unit = AxisUnit(structure, bands, latticeUnit);
+        // An optical lattice: states per site and energy unit, one state per band and site (the library's g counts two
+        // spin states per orbital, as for electrons); any other cell: g in 1/(eV nm), spin included.
+        var lattice = structure.OpticalLattice;
+        var scale = lattice is null ? 1.0 : 0.5 * unit.ElectronVolts * lattice.LatticePeriod.Nanometres;
+        var dosLabel = lattice is null ? "DOS g(E) (1/(eV nm), spin included)" : $"DOS per site (1/{unit.Symbol}; one state per band and site)";
         var (low, high) = EnergyWindow(bands, unit);
         if (energies is not null)
         {
             low = unit.From(energies.Min());
             high = unit.From(energies.Max());
         }
-        var plot = NewPlot($"Density of states: {structure.Name}", "DOS g(E) (1/(eV nm), spin included)", $"Energy E ({unit.Symbol})");
+        var plot = NewPlot($"Density of states: {structure.Name}", dosLabel, $"Energy E ({unit.Symbol})");
         // One curve per band, so nothing is drawn across a gap. Without a user grid, each band gets
         // Chebyshev-spaced points (dense near its edges, where g has its 1/sqrt(E - E_edge) divergence).
         var curves = new List<(double[] E, double[] G)>();
@@ -301,13 +437,13 @@ internal static class PlotCommand
                 continue;
             }
             var values = DosCommand.Compute(structure, grid);
-            curves.Add((grid, values.Select(v => v.Dos).ToArray()));
+            curves.Add((grid, values.Select(v => scale * v.Dos).ToArray()));
         }
         // The divergences would flatten the picture: cap the axis at 4x the largest band-centre value.
-        var cap = 1.0;
+        var cap = lattice is null ? 1.0 : 0.0;
         foreach (var band in bands.Bands)
         {
-            var centre = DosCommand.Compute(structure, [band.CenterElectronVolts])[0].Dos;
+            var centre = scale * DosCommand.Compute(structure, [band.CenterElectronVolts])[0].Dos;
             if (double.IsFinite(centre))
             {
                 cap = Math.Max(cap, 4 * centre);
@@ -320,18 +456,24 @@ internal static class PlotCommand
             line.LineWidth = 2;
             line.Color = LineColor;
         }
-        plot.Add.Text("shaded: the gaps between the bands drawn; g diverges at every band edge (axis capped)", 0.02 * cap, high - 0.02 * (high - low)).LabelFontSize = 12;
+        plot.Add.Text("shaded: the gaps between the bands drawn; g diverges at every band edge (axis capped)" + (unit.Note is { } note ? "\n" + note : ""),
+            0.02 * cap, high - 0.02 * (high - low)).LabelFontSize = 12;
         plot.Axes.SetLimits(0, cap, low, high);
         return plot;
     }
 
-    private static Plot Transmission(StructureDefinition structure, int count, int? periods, double[]? energies, (double ElectronVolts, string Source) bias)
+    private static Plot Transmission(StructureDefinition structure, int count, int? periods, double[]? energies, (double ElectronVolts, string Source) bias,
+        LatticeEnergyUnit latticeUnit)
     {
         var bands = Solver.Compute(structure.Cell, count).Structure;
-        var unit = AxisUnit(structure, bands);
+        var unit = AxisUnit(structure, bands, latticeUnit);
         var (lowUnit, highUnit) = EnergyWindow(bands, unit);
         energies ??= Enumerable.Range(0, 3001).Select(i => (lowUnit + (highUnit - lowUnit) * i / 3000.0) * unit.ElectronVolts).ToArray();
-        var (layers, source) = StackOptions.Choose(structure, periods, null, null);
+        // An optical lattice has no uniform layer to take leads from: its leads are free atoms at the lattice's lowest potential
+        // (where the light is off, V = 0), with the atom's mass.
+        var lattice = structure.Stack is null ? structure.OpticalLattice : null;
+        var (layers, source) = StackOptions.Choose(structure, periods, lattice is null ? null : structure.Cell.MinimumPotential.ElectronVolts,
+            lattice?.Species.Mass.ElectronMasses);
         var (stack, results) = TransmissionCommand.Compute(layers, energies, bias);
         var low = unit.From(energies.Min());
         var high = unit.From(energies.Max());
@@ -364,7 +506,8 @@ internal static class PlotCommand
         plot.Axes.Left.TickGenerator = ticks;
         var lead = stack.Stack.LeftLead;
         var note = plot.Add.Text(string.Create(CultureInfo.InvariantCulture,
-            $"{(periodic ? "shaded: minibands of the infinite superlattice of this cell" : "no shading: the stack is not a plain superlattice at zero bias")}; leads V = {lead.Potential.ElectronVolts:G4} eV, m = {lead.Mass.ElectronMasses:G4} m0"),
+            $"{(periodic ? "shaded: minibands of the infinite superlattice of this cell" : "no shading: the stack is not a plain superlattice at zero bias")}; leads V = {unit.From(lead.Potential.ElectronVolts):G4} {unit.Symbol}, m = {(lattice is null ? lead.Mass.ElectronMasses.ToString("G6", CultureInfo.InvariantCulture) + " m0" : "the atom's mass")}")
+            + (unit.Note is { } unitNote ? "\n" + unitNote : ""),
             high - 0.01 * (high - low), floor + 0.02 * (0.5 - floor));
         note.LabelFontSize = 11;
         note.LabelAlignment = Alignment.LowerRight;
@@ -377,7 +520,7 @@ internal static class PlotCommand
     /// The file's stack (or N periods): V(x) under the bias, the bound states at zero bias drawn at their energies with
     /// |ψ|² on top (scaled to a tenth of the potential range), and the transmission peaks as dashed lines across the stack.
     /// </summary>
-    private static Plot Stack(StructureDefinition structure, int? periods, (double ElectronVolts, string Source) bias)
+    private static Plot Stack(StructureDefinition structure, int? periods, (double ElectronVolts, string Source) bias, LatticeEnergyUnit latticeUnit)
     {
         var (layers, source) = StackOptions.Choose(structure, periods, null, null);
         var (xs, vs) = StackOptions.Profile(layers, bias.ElectronVolts);
@@ -386,7 +529,7 @@ internal static class PlotCommand
         var rightEdge = layers.RightLead.Potential.ElectronVolts - bias.ElectronVolts;
         var all = vs.Append(leftEdge).Append(rightEdge).ToArray();
         double vMin = all.Min(), vMax = all.Max();
-        var unit = DisplayUnits.Energy(structure.Cell, all);
+        var unit = DisplayUnits.Energy(structure, all, latticeUnit);
         var range = Math.Max(vMax - vMin, 1e-300);
         var margin = 0.2 * length;
         var x = new List<double> { -margin, 0 };
@@ -471,7 +614,7 @@ internal static class PlotCommand
         }
     }
 
-    private static Plot Profile(StructureDefinition structure, int count, int periods)
+    private static Plot Profile(StructureDefinition structure, int count, int periods, LatticeEnergyUnit latticeUnit)
     {
         var bands = Solver.Compute(structure.Cell, count).Structure;
         var cell = structure.Cell;
@@ -507,14 +650,25 @@ internal static class PlotCommand
                 }
             }
         }
-        var unit = AxisUnit(structure, bands);
+        var unit = AxisUnit(structure, bands, latticeUnit);
         var (low, high) = EnergyWindow(bands, unit);
         high = Math.Max(high, unit.From(cell.MaximumPotential.ElectronVolts) + 0.08 * (high - low));
         for (var i = 0; i < vs.Count; i++)
         {
             vs[i] = unit.From(vs[i]);
         }
-        var plot = NewPlot($"Potential and minibands: {structure.Name}", "Position x (nm)", $"Energy ({unit.Symbol})");
+        // An optical lattice is drawn in lattice periods d = lambda/2 (sites at whole numbers), any other cell in nm.
+        var site = structure.OpticalLattice?.LatticePeriod.Nanometres ?? 1.0;
+        if (structure.OpticalLattice is not null)
+        {
+            for (var i = 0; i < xs.Count; i++)
+            {
+                xs[i] /= site;
+            }
+            d /= site;
+        }
+        var plot = NewPlot($"Potential and minibands: {structure.Name}", structure.OpticalLattice is null ? "Position x (nm)" : "Position x / d (lattice sites at whole numbers)",
+            $"Energy ({unit.Symbol})");
         foreach (var band in bands.Bands)
         {
             // A band narrower than the line width is drawn at a visible minimum thickness (its label gives the width).
@@ -530,18 +684,18 @@ internal static class PlotCommand
         line.Color = ProfileColor;
         foreach (var (dx, s) in deltas)
         {
-            var spike = plot.Add.VerticalLine(dx);
+            var spike = plot.Add.VerticalLine(dx / site);
             spike.Color = s > 0 ? Colors.DarkRed : Colors.DarkGreen;
             spike.LineWidth = 2;
         }
         if (deltas.Count > 0)
         {
             var s0 = deltas[0].S;
-            var deltaNote = plot.Add.Text(string.Create(CultureInfo.InvariantCulture, $"delta {(s0 > 0 ? "barrier" : "well")} {s0:G4} eV nm"), deltas[0].X + 0.01 * periods * d, low + 0.1 * (high - low));
+            var deltaNote = plot.Add.Text(string.Create(CultureInfo.InvariantCulture, $"delta {(s0 > 0 ? "barrier" : "well")} {s0:G4} eV nm"), deltas[0].X / site + 0.01 * periods * d, low + 0.1 * (high - low));
             deltaNote.LabelFontSize = 11;
         }
         plot.Axes.SetLimits(-0.02 * periods * d, periods * d * 1.3, low, high);
-        plot.Add.Text("shaded: minibands of the infinite superlattice of this cell" + (unit.Note is { } note ? "; " + note : ""), 0.01 * periods * d, high - 0.02 * (high - low)).LabelFontSize = 12;
+        plot.Add.Text("shaded: minibands of the infinite superlattice of this cell" + (unit.Note is { } note ? "\n" + note : ""), 0.01 * periods * d, high - 0.02 * (high - low)).LabelFontSize = 12;
         return plot;
     }
 }

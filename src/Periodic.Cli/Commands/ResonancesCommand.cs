@@ -104,8 +104,8 @@ internal static class ResonancesCommand
             }), outPath);
             return;
         }
-        var unit = DisplayUnits.Energy(structure.Cell, peaks.Select(r => r.EnergyElectronVolts).DefaultIfEmpty(spectrum.UpperElectronVolts));
-        var widthUnit = DisplayUnits.Energy(structure.Cell, peaks.Select(r => r.WidthElectronVolts));
+        var unit = DisplayUnits.Energy(structure, peaks.Select(r => r.EnergyElectronVolts).DefaultIfEmpty(spectrum.UpperElectronVolts));
+        var widthUnit = DisplayUnits.Energy(structure, peaks.Select(r => r.WidthElectronVolts));
         var time = DisplayUnits.Time(peaks.Where(r => r.HasWidth).Select(r => r.LifetimeSeconds));
         var table = new Table(new Column("peak"), Column.Energy("energy", unit), new Column("peak T", Format: "G8"), Column.Energy("width", widthUnit),
             new Column("lifetime", "s", time.Symbol, time.Seconds, "G6"));

@@ -175,7 +175,7 @@ internal static class TransmissionCommand
             }), outPath);
             return;
         }
-        var unit = DisplayUnits.Energy(structure.Cell, energies);
+        var unit = DisplayUnits.Energy(structure, energies);
         var table = new Table(Column.Energy("energy", unit), new Column("transmission", Format: "G8"), new Column("reflection", Format: "G8"), new Column("log10 T", Format: "F3"));
         foreach (var r in results)
         {

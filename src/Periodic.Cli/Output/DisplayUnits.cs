@@ -1,6 +1,9 @@
 // SPDX-License-Identifier: MIT
 // Copyright (c) 2026 Periodic contributors
 
+using System.Globalization;
+using Periodic.OpticalLattices;
+using Periodic.Serialization;
 using Periodic.Structures;
 using Periodic.Units;
 
@@ -21,6 +24,19 @@ internal readonly record struct EnergyUnit(string Symbol, double ElectronVolts, 
     public double From(double electronVolts) => electronVolts / ElectronVolts;
 }
 
+/// <summary>The energy units an optical-lattice file is shown in (<c>--unit</c>).</summary>
+internal enum LatticeEnergyUnit
+{
+    /// <summary>Recoil energies E_R = ħ²k_L²/2m of the (first) standing wave: the default.</summary>
+    Recoil,
+
+    /// <summary>Energies as frequencies E/h in kHz.</summary>
+    Kilohertz,
+
+    /// <summary>Electronvolts, the unit of the JSON output.</summary>
+    ElectronVolt,
+}
+
 /// <summary>
 /// The one place that chooses display units. A heavy-particle cell (every mass at least
 /// <see cref="AtomMassElectronMasses"/>: atoms, not carriers in a crystal) is shown in its recoil energy
@@ -37,6 +53,37 @@ internal static class DisplayUnits
     [
         new("eV", 1.0), new("meV", 1e-3), new("µeV", 1e-6), new("neV", 1e-9), new("peV", 1e-12), new("feV", 1e-15),
     ];
+
+    /// <summary>The allowed values of <c>--unit</c>, as the error message lists them.</summary>
+    public const string LatticeUnitChoices = "recoil (E_R, the default), kHz (E/h) or eV";
+
+    /// <summary>Parses <c>--unit</c> (case-insensitive): recoil (also E_R), kHz or eV.</summary>
+    public static LatticeEnergyUnit ParseLatticeUnit(string text) => text.Trim().ToLowerInvariant() switch
+    {
+        "recoil" or "er" or "e_r" => LatticeEnergyUnit.Recoil,
+        "khz" => LatticeEnergyUnit.Kilohertz,
+        "ev" => LatticeEnergyUnit.ElectronVolt,
+        _ => throw new UsageException($"--unit \"{Printable.Escape(text)}\" is not known; use {LatticeUnitChoices}."),
+    };
+
+    /// <summary>
+    /// The energy unit of an optical lattice's tables and plots: its recoil energy E_R (of the first standing wave, whatever
+    /// the cell's common period), kHz as E/h, or eV.
+    /// </summary>
+    public static EnergyUnit Lattice(OpticalLattice lattice, LatticeEnergyUnit unit) => unit switch
+    {
+        LatticeEnergyUnit.Recoil => new EnergyUnit("E_R", lattice.RecoilEnergy.ElectronVolts, string.Create(CultureInfo.InvariantCulture,
+            $"energies in recoil units E_R = hbar^2 k_L^2 / 2m = h x {OpticalLattice.ToHertz(lattice.RecoilEnergy.ElectronVolts) / 1e3:G6} kHz = {lattice.RecoilEnergy.ElectronVolts:G6} eV")),
+        LatticeEnergyUnit.Kilohertz => new EnergyUnit("kHz", OpticalLattice.FromHertz(1e3), "energies as frequencies E/h in kHz"),
+        _ => EnergyUnit.ElectronVolt,
+    };
+
+    /// <summary>
+    /// The energy unit for a table or axis of <paramref name="structure"/>: an optical-lattice file in its own recoil energy
+    /// (or <paramref name="latticeUnit"/>), any other cell as <see cref="Energy(UnitCell?, IEnumerable{double})"/> chooses.
+    /// </summary>
+    public static EnergyUnit Energy(StructureDefinition structure, IEnumerable<double> energiesElectronVolts, LatticeEnergyUnit latticeUnit = LatticeEnergyUnit.Recoil) =>
+        structure.OpticalLattice is { } lattice ? Lattice(lattice, latticeUnit) : Energy(structure.Cell, energiesElectronVolts);
 
     /// <summary>The energy unit for a table or axis of <paramref name="cell"/> showing <paramref name="energiesElectronVolts"/>.</summary>
     public static EnergyUnit Energy(UnitCell? cell, IEnumerable<double> energiesElectronVolts)

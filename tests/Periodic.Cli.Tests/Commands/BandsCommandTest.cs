@@ -168,7 +168,7 @@ public sealed class BandsSmoothTest
         var file = ToolRunner.Example("superlattice.json");
         var json = ToolRunner.Invoke("bands", file, "--count", "3", "--json").Json().GetProperty("bands");
         var rows = ToolRunner.Invoke("bands", file, "--count", "3", "--csv").Stdout.Split('\n', StringSplitOptions.RemoveEmptyEntries);
-        Assert.Equal("band,bottom (eV),top (eV),width (eV),m* bottom (m0),m* top (m0),gap above (eV)", rows[0]);
+        Assert.Equal("band,bottom (eV),top (eV),width (eV),m* bottom (m0),m* top (m0),gap above (eV),m∥ bottom (m0)", rows[0]);
         for (var n = 0; n < 3; n++)
         {
             var cells = rows[n + 1].Split(',').Select(c => double.Parse(c, CultureInfo.InvariantCulture)).ToArray();
@@ -177,6 +177,7 @@ public sealed class BandsSmoothTest
             Assert.Equal(json[n].GetProperty("width").GetDouble(), cells[3]);
             Assert.Equal(json[n].GetProperty("massAtBottom").GetDouble(), cells[4]);
             Assert.Equal(json[n].GetProperty("massAtTop").GetDouble(), cells[5]);
+            Assert.Equal(json[n].GetProperty("inPlaneMassAtBottom").GetDouble(), cells[7]);
         }
     }
 
@@ -241,6 +242,78 @@ public sealed class BandsSmoothTest
             // Readable: the bottom in E_R to 7 significant digits of the column's largest value (a few E_R), not 0.000000.
             Assert.True(shown > 0.1, row);
             Assert.Equal(bottom / recoil, shown, 1e-5);
+        }
+    }
+
+    [Theory]
+    [InlineData("eV")]
+    [InlineData("recoil")]
+    [InlineData("kHz")]
+    public void Bands_LatticeFileUnit_CsvIsJsonInThatUnitAtFullPrecision(string unit)
+    {
+        var file = ToolRunner.Example("rubidium-lattice.json");
+        var json = ToolRunner.Invoke("bands", file, "--json").Json();
+        var csv = ToolRunner.Invoke("bands", file, "--unit", unit, "--csv");
+        Assert.True(csv.ExitCode == 0, csv.Stderr);
+        var lines = csv.Stdout.Split('\n', StringSplitOptions.RemoveEmptyEntries);
+        var symbol = unit == "recoil" ? "E_R" : unit;
+        Assert.StartsWith($"band,bottom ({symbol}),top ({symbol}),width ({symbol})", lines[0], StringComparison.Ordinal);
+        var lattice = StructureFile.Load(file).OpticalLattice!;
+        // One unit in eV: E_R of the lattice, h x 1 kHz (E = h f), or 1.
+        var divisor = unit switch { "recoil" => lattice.RecoilEnergy.ElectronVolts, "kHz" => Periodic.OpticalLattices.OpticalLattice.FromHertz(1e3), _ => 1.0 };
+        for (var n = 0; n < 4; n++)
+        {
+            var bottom = json.GetProperty("bands")[n].GetProperty("bottom").GetDouble();
+            // Shortest round-trip CSV: the quotient comes back bit for bit (with eV, the JSON value itself).
+            Assert.Equal(bottom / divisor, double.Parse(lines[n + 1].Split(',')[1], CultureInfo.InvariantCulture));
+        }
+        var table = ToolRunner.Invoke("bands", file, "--unit", unit);
+        Assert.Contains($"bottom ({symbol})", table.Stdout, StringComparison.Ordinal);
+    }
+
+    [Theory]
+    [InlineData("superlattice.json", "eV", "--unit applies only to an optical-lattice file")]
+    [InlineData("rubidium-lattice.json", "joule", "--unit \"joule\" is not known; use recoil (E_R, the default), kHz (E/h) or eV.")]
+    public void Bands_BadUnit_ExitsTwoWithoutOutput(string example, string unit, string message)
+    {
+        var target = Path.Combine(Path.GetDirectoryName(ToolRunner.TempFile("{}"))!, "b.csv");
+        var run = ToolRunner.Invoke("bands", ToolRunner.Example(example), "--unit", unit, "--csv", "--out", target);
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains(message, run.Stderr, StringComparison.Ordinal);
+        Assert.False(File.Exists(target));
+    }
+
+    [Fact]
+    public void Bands_InPlaneMass_EqualsLibraryAndLiesBetweenLayerMasses()
+    {
+        var file = ToolRunner.Example("superlattice.json");
+        var run = ToolRunner.Invoke("bands", file, "--json");
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        var bands = run.Json().GetProperty("bands");
+        var expected = Periodic.Properties.InPlaneDispersion.MassesAtBottom(BandStructure.Compute(StructureFile.Load(file).Cell, 4), 4);
+        for (var n = 0; n < 4; n++)
+        {
+            var m = bands[n].GetProperty("inPlaneMassAtBottom").GetDouble();
+            Assert.Equal(expected[n].ElectronMasses, m); // bit for bit (shortest round-trip JSON)
+            // Hellmann–Feynman: 1/m∥ = Σ P_layer/m_layer with Σ P = 1, so m∥ lies between the layer masses 0.067 and 0.092 [derived].
+            Assert.InRange(m, 0.067, 0.092);
+        }
+        // Deeper bands leak more into the heavier barrier (its weight grows with energy): m∥ grows from band 1 to band 2 (common practice, no single source).
+        Assert.True(bands[1].GetProperty("inPlaneMassAtBottom").GetDouble() > bands[0].GetProperty("inPlaneMassAtBottom").GetDouble());
+        Assert.Contains("m∥ bottom (m0)", ToolRunner.Invoke("bands", file).Stdout, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void Bands_InPlaneMassOfEqualMasses_IsThatMass()
+    {
+        // With one mass everywhere the in-plane motion separates: E = E_n(k_z) + ħ²k∥²/2m rigidly, so m∥ = m for every band
+        // (separation of variables; any quantum-mechanics text). 1e-12 relative: Gauss–Legendre weights of a normalised state.
+        var file = ToolRunner.TempFile("""{ "name": "equal masses", "cell": [ { "width": 5, "potential": 0, "mass": 0.08 }, { "width": 2, "potential": 0.3, "mass": 0.08 } ] }""");
+        var run = ToolRunner.Invoke("bands", file, "--json");
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        foreach (var band in run.Json().GetProperty("bands").EnumerateArray())
+        {
+            Assert.Equal(0.08, band.GetProperty("inPlaneMassAtBottom").GetDouble(), 1e-12 * 0.08);
         }
     }
 }

@@ -111,4 +111,26 @@ public sealed class DispersionCommandTest
             Assert.Equal(ToolRunner.Invoke(args).Stdout, File.ReadAllText(target));
         }
     }
+
+    [Fact]
+    public void Dispersion_LatticeFileUnitElectronVolt_CsvEqualsJsonBitForBit()
+    {
+        var file = ToolRunner.Example("rubidium-lattice.json");
+        var json = ToolRunner.Invoke("dispersion", file, "-k", "5", "--json").Json();
+        var csv = ToolRunner.Invoke("dispersion", file, "-k", "5", "--unit", "eV", "--csv");
+        Assert.True(csv.ExitCode == 0, csv.Stderr);
+        var lines = csv.Stdout.Split('\n', StringSplitOptions.RemoveEmptyEntries);
+        Assert.Equal("q/k_L,E1 (eV),E2 (eV),E3 (eV)", lines[0]);
+        var k = json.GetProperty("wavevectors");
+        var e1 = json.GetProperty("bands")[0].GetProperty("energies");
+        var lattice = Periodic.Serialization.StructureFile.Load(file).OpticalLattice!;
+        for (var i = 0; i < 5; i++)
+        {
+            var cells = lines[i + 1].Split(',');
+            Assert.Equal(e1[i].GetDouble(), double.Parse(cells[1], System.Globalization.CultureInfo.InvariantCulture));
+            // q/k_L with k_L = 2π/λ = π/d: the zone boundary is q = k_L, i.e. 1 [derived].
+            Assert.Equal(lattice.ToLatticeWavenumbers(k[i].GetDouble()), double.Parse(cells[0], System.Globalization.CultureInfo.InvariantCulture));
+        }
+        Assert.Equal(1.0, double.Parse(lines[5].Split(',')[0], System.Globalization.CultureInfo.InvariantCulture), 1e-15);
+    }
 }

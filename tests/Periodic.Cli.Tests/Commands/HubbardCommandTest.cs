@@ -134,4 +134,18 @@ public sealed class HubbardCommandTest
         Assert.Equal(0, dispersion.ExitCode);
         Assert.Contains("q/k_L", dispersion.Stdout, StringComparison.Ordinal);
     }
+
+    [Fact]
+    public void Hubbard_DepthScanPlot_DrawsParametersAgainstDepth()
+    {
+        var file = ToolRunner.Example("rubidium-lattice.json");
+        var target = Path.Combine(Path.GetDirectoryName(ToolRunner.TempFile("{}"))!, "scan.svg");
+        var run = ToolRunner.Invoke("hubbard", file, "-a", "100", "--depths", "4:20:4", "--plot", target);
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        var svg = File.ReadAllText(target);
+        Assert.Contains("lattice depth s (E_R)", svg, StringComparison.Ordinal);
+        Assert.Contains("J, U, gap above (E_R, log scale)", svg, StringComparison.Ordinal);
+        Assert.Contains("U/J (log scale)", svg, StringComparison.Ordinal);
+        Assert.Contains("(U/J)c = 29.34", svg, StringComparison.Ordinal); // 3D cubic, unit filling (Capogrosso-Sansone et al. 2007)
+    }
 }

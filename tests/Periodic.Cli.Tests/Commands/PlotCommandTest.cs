@@ -3,7 +3,7 @@
 
 namespace Periodic.Cli.Tests.Commands;
 
-public sealed class PlotCommandTest
+public sealed partial class PlotCommandTest
 {
     [Theory]
     [InlineData("dispersion", "superlattice.json", ".png")]
@@ -53,7 +53,7 @@ public sealed class PlotCommandTest
 
     [Theory]
     [InlineData(new[] { "--show", "iv" }, "--show iv needs --fermi-level E")]
-    [InlineData(new[] { "--show", "dos", "--fermi-level", "0.1" }, "--fermi-level and --temperature apply only to --show iv; got --show dos.")]
+    [InlineData(new[] { "--show", "dos", "--fermi-level", "0.1" }, "--fermi-level applies only to --show iv; got --show dos.")]
     [InlineData(new[] { "--show", "iv", "--fermi-level", "0.1", "--temperature", "0" }, "--temperature must be between 0.1 K and 1000 K; got 0.")]
     [InlineData(new[] { "--show", "profile", "--periods", "0" }, "--periods must be between 1 and 100000; got 0.")]
     public void Plot_BadOption_ExitsTwoWithoutImage(string[] options, string message)
