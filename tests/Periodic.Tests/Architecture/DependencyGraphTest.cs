@@ -36,7 +36,7 @@ public sealed class DependencyGraphTest
         ["Serialization"] = ["Stacks", "Materials", "OpticalLattices", "Structures", "Units", "Numerics"],
         ["Optics"] = ["Stacks", "Properties", "Bands", "Transfer", "Materials", "Structures", "Units", "Numerics"],
         ["OpticalLattices"] = ["PlaneWaves", "Properties", "Bands", "Transfer", "Structures", "Units", "Numerics"],
-        ["SpaceCharge"] = [.. Physics, "Materials"],
+        ["SpaceCharge"] = ["Properties", "Bands", "PlaneWaves", "Transfer", "Structures", "Units", "Numerics"],
         ["Design"] = [.. Physics, "Materials", "Optics", "OpticalLattices", "SpaceCharge"],
     };
 
