@@ -32,7 +32,7 @@ internal static class BandsCommand
         {
             var format = Common.Format(result, json, csv);
             var n = Common.CheckCount(result.GetValue(count));
-            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result.GetValue(file)!));
+            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result, result.GetValue(file)!));
             Write(structure, n, format, result.GetValue(output));
             return 0;
         });

@@ -52,7 +52,7 @@ internal static class DispersionCommand
             }
             Limits.CheckWork("--count × --points", Limits.Product(n, k), Limits.MaxDispersionValues,
                 "the output is streamed, but each value costs CPU time and about 25 bytes of output");
-            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result.GetValue(file)!));
+            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result, result.GetValue(file)!));
             var solved = Solver.Compute(structure.Cell, n);
             var warnings = structure.Materials is { } built ? Common.ReportWarnings(structure, built.CheckEnergies(solved.Structure.Bands.SelectMany(b => new[] { b.BottomElectronVolts, b.TopElectronVolts }).ToArray())) : [];
             var grid = new Grid(solved.Structure, k);

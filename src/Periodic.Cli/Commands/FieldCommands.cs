@@ -67,7 +67,7 @@ internal static class FieldCommands
             {
                 throw new UsageException("--points must be between 2 and 100000; got 1.");
             }
-            var structure = Common.Load(result.GetValue(file)!);
+            var structure = Common.Load(result, result.GetValue(file)!);
             var bands = BandStructure.Compute(structure.Cell, n);
             var drift = MinibandDrift.Create(bands, n, ps * 1e-12, t);
             var limit = drift.MaxFieldVoltsPerMetre / VoltsPerMetrePerKilovoltPerCentimetre;
@@ -177,7 +177,7 @@ internal static class FieldCommands
             // Each rung search evaluates the written-out stack thousands of times (O(periods) per energy): a long ladder's
             // middle needs a few tens of periods, so more than 400 only costs time.
             Limits.CheckRange("--periods", result.GetValue(periods), WannierStarkLadder.MinPeriods, MaxLadderPeriods);
-            var structure = Common.Load(result.GetValue(file)!);
+            var structure = Common.Load(result, result.GetValue(file)!);
             WannierStarkLadder ladder;
             try
             {

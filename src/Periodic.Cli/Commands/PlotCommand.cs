@@ -100,7 +100,7 @@ internal static class PlotCommand
             {
                 throw new UsageException("--show iv needs --fermi-level E (eV, the left contact's Fermi level).");
             }
-            var loaded = Common.Load(result.GetValue(file)!);
+            var loaded = Common.Load(result, result.GetValue(file)!);
             var atInPlane = Common.AtInPlaneWavevector(result, inPlane, loaded); // validates --in-plane-wavevector
             var structure = kind == "in-plane" ? loaded : atInPlane; // there it is the end of the k∥ axis
             if (kind == "profile")
