@@ -143,6 +143,14 @@ internal static class Common
         return structure.WithSelfConsistentCell(SpaceChargeSolver.Solve(doped));
     }
 
+    /// <summary>
+    /// Refuses the self-consistent cell of a doped structure for <paramref name="command"/>, whose finite-stack bound states or
+    /// biased stacks take uniform layers and delta barriers only (the self-consistent cell's layers are sampled segments).
+    /// </summary>
+    public static StructureDefinition RequireRigid(StructureDefinition structure, string command) => structure.SelfConsistent is null
+        ? structure
+        : throw new UsageException($"{command} does not take the self-consistent (sampled) potential of a doped structure: its finite-stack bound states or biased stacks need uniform layers; add --no-space-charge for the rigid bands.");
+
     /// <summary>The <c>selfConsistent</c> object: how the space-charge iteration ended, μ, the Hartree potential and n(z) on the grid.</summary>
     public static void SelfConsistentObject(Utf8JsonWriter writer, SelfConsistentCell solution)
     {

@@ -177,7 +177,7 @@ internal static class FieldCommands
             // Each rung search evaluates the written-out stack thousands of times (O(periods) per energy): a long ladder's
             // middle needs a few tens of periods, so more than 400 only costs time.
             Limits.CheckRange("--periods", result.GetValue(periods), WannierStarkLadder.MinPeriods, MaxLadderPeriods);
-            var structure = Common.Load(result, result.GetValue(file)!);
+            var structure = Common.RequireRigid(Common.Load(result, result.GetValue(file)!), "ladder");
             WannierStarkLadder ladder;
             try
             {
