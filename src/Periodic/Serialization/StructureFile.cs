@@ -67,7 +67,7 @@ public static partial class StructureFile
 
     private static readonly Dictionary<string, double> NoUnits = new(StringComparer.Ordinal);
 
-    private static readonly string[] DopingFields = ["donors", "acceptors", "sheetDonors", "permittivity"];
+    private static readonly string[] DopingFields = ["donors", "acceptors", "sheetDonors", "permittivity", "donorIonisationEnergy"];
 
     private static readonly Dictionary<string, double> InverseEnergyUnits = new(StringComparer.Ordinal)
     {
@@ -585,7 +585,7 @@ public static partial class StructureFile
         }
 
         /// <summary>The doping fields of one layer as read (volume densities cm⁻³, sheet cm⁻², permittivity), with where they stand.</summary>
-        private sealed record FileDoping(double Donors, double Acceptors, double Sheet, double? Permittivity, JsonTreeNode Node, string Path);
+        private sealed record FileDoping(double Donors, double Acceptors, double Sheet, double? Permittivity, JsonTreeNode Node, string Path, double? Ionisation = null);
 
         /// <summary>
         /// <c>"donors"</c>, <c>"acceptors"</c> (cm⁻³), <c>"sheetDonors"</c> (cm⁻², a donor sheet at the layer's middle) and
@@ -625,7 +625,17 @@ public static partial class StructureFile
                 }
                 permittivity = value;
             }
-            return new FileDoping(donors, acceptors, sheet, permittivity, obj, path);
+            double? ionisation = null;
+            if (present.TryGetValue("donorIonisationEnergy", out var level))
+            {
+                var value = ReadRawQuantity(level.Value, path + ".donorIonisationEnergy", EnergyUnits, "eV", "eV, meV");
+                if (!(value >= 0 && value <= LayerDoping.MaxDonorIonisationEnergyElectronVolts))
+                {
+                    throw Error(level.Value, path + ".donorIonisationEnergy", $"must be between 0 and {Format(LayerDoping.MaxDonorIonisationEnergyElectronVolts)} eV (the donor level below the band edge); got {Format(value)} eV. See docs/limits.md.");
+                }
+                ionisation = value;
+            }
+            return new FileDoping(donors, acceptors, sheet, permittivity, obj, path, ionisation);
         }
 
         /// <summary>The doped cell of a file with doping: every layer needs a permittivity (its own or its material's).</summary>
@@ -647,7 +657,11 @@ public static partial class StructureFile
                         "is required in every layer of a doped cell whose material does not supply it (a relative permittivity, e.g. 12.9).");
                 }
                 var entry = d!;
-                entries[i] = Apply(entry.Node, entry.Path, () => LayerDoping.Create(entry.Donors, entry.Acceptors, permittivity.Value, entry.Sheet));
+                entries[i] = Apply(entry.Node, entry.Path, () =>
+                {
+                    var layerDoping = LayerDoping.Create(entry.Donors, entry.Acceptors, permittivity.Value, entry.Sheet);
+                    return entry.Ionisation is { } e ? layerDoping.WithDonorIonisationEnergy(Energy.FromElectronVolts(e)) : layerDoping;
+                });
             }
             Apply(temperatureNode, "temperature", () => Preconditions.CheckRange(temperatureKelvin, DopedCell.MinTemperatureKelvin, DopedCell.MaxTemperatureKelvin, "temperature"));
             return Apply(array, "cell", () => DopedCell.Create(cell, entries, Temperature.FromKelvin(temperatureKelvin)));

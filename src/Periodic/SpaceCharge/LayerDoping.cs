@@ -2,6 +2,7 @@
 // Copyright (c) 2026 Periodic contributors
 
 using System.Globalization;
+using Periodic.Units;
 
 namespace Periodic.SpaceCharge;
 
@@ -10,8 +11,9 @@ namespace Periodic.SpaceCharge;
 /// (delta) of donors at the middle of the layer, and the static relative permittivity. Immutable.
 /// </summary>
 /// <remarks>
-/// Dopants are fully ionised (every donor gives its electron to the bands, every acceptor takes one from the
-/// valence band, whose holes are not modelled). Bounds: volume densities up to <see cref="MaxVolumeDensityPerCubicCentimetre"/>
+/// Dopants are fully ionised by default (every donor gives its electron to the bands, every acceptor takes one from the
+/// valence band, whose holes are not modelled); <see cref="WithDonorIonisationEnergy"/> makes the donors' ionisation
+/// follow the Fermi level. Bounds: volume densities up to <see cref="MaxVolumeDensityPerCubicCentimetre"/>
 /// (about 2 % of the atoms of a III–V crystal, beyond any doping level that stays a crystal), sheet densities up to
 /// <see cref="MaxSheetDensityPerSquareCentimetre"/> (about one and a half monolayers of atoms), relative permittivity
 /// between 1 (vacuum) and <see cref="MaxRelativePermittivity"/>.
@@ -27,8 +29,15 @@ public sealed class LayerDoping
     /// <summary>The largest relative permittivity accepted (ferroelectrics reach a few hundred to a few thousand).</summary>
     public const double MaxRelativePermittivity = 1e4;
 
-    private LayerDoping(double donors, double acceptors, double sheet, double permittivity)
+    /// <summary>The largest donor ionisation energy accepted, eV (shallow donors in III–V crystals: a few meV; deep levels below 1 eV).</summary>
+    public const double MaxDonorIonisationEnergyElectronVolts = 1;
+
+    /// <summary>Degeneracy factor g of a donor level (spin: two states, one electron), in N_D⁺ = N_D/(1 + g·e^((μ − E_D)/k_BT)).</summary>
+    public const double DonorDegeneracy = 2;
+
+    private LayerDoping(double donors, double acceptors, double sheet, double permittivity, double? ionisation = null)
     {
+        DonorIonisationEnergyElectronVolts = ionisation;
         DonorsPerCubicCentimetre = donors;
         AcceptorsPerCubicCentimetre = acceptors;
         SheetDonorsPerSquareCentimetre = sheet;
@@ -46,6 +55,20 @@ public sealed class LayerDoping
 
     /// <summary>The static relative permittivity ε_r (dimensionless).</summary>
     public double RelativePermittivity { get; }
+
+    /// <summary>
+    /// The donors' ionisation energy E_b (the donor level lies E_b below the local conduction-band edge V + U), eV; null
+    /// for full ionisation (the default). With a value, N_D⁺ = N_D/(1 + g·e^((μ − E_c + E_b)/k_BT)) with g =
+    /// <see cref="DonorDegeneracy"/> (S. M. Sze, Physics of Semiconductor Devices, 2nd ed., ch. 1), for the volume donors and
+    /// the sheet; acceptors stay fully ionised.
+    /// </summary>
+    public double? DonorIonisationEnergyElectronVolts { get; }
+
+    /// <summary>A copy whose donors are ionised incompletely, with ionisation energy <paramref name="donorIonisationEnergy"/> in [0, 1] eV.</summary>
+    /// <exception cref="ArgumentOutOfRangeException">The energy lies outside its range.</exception>
+    public LayerDoping WithDonorIonisationEnergy(Energy donorIonisationEnergy) => new(DonorsPerCubicCentimetre, AcceptorsPerCubicCentimetre,
+        SheetDonorsPerSquareCentimetre, RelativePermittivity,
+        Preconditions.CheckRange(donorIonisationEnergy.ElectronVolts, 0, MaxDonorIonisationEnergyElectronVolts, nameof(donorIonisationEnergy)));
 
     /// <summary>True when the element carries any dopant.</summary>
     public bool IsDoped => DonorsPerCubicCentimetre > 0 || AcceptorsPerCubicCentimetre > 0 || SheetDonorsPerSquareCentimetre > 0;
@@ -67,6 +90,12 @@ public sealed class LayerDoping
     /// <exception cref="ArgumentOutOfRangeException">The permittivity lies outside its range.</exception>
     public static LayerDoping Undoped(double relativePermittivity) => Create(0, 0, relativePermittivity);
 
+    /// <summary>Donors per nm³.</summary>
+    internal double DonorsPerCubicNanometre => DonorsPerCubicCentimetre * 1e-21;
+
+    /// <summary>Acceptors per nm³.</summary>
+    internal double AcceptorsPerCubicNanometre => AcceptorsPerCubicCentimetre * 1e-21;
+
     /// <summary>Net fixed charge per volume N_D − N_A in carriers per nm³ (1 cm⁻³ = 1e-21 nm⁻³).</summary>
     internal double NetVolumePerCubicNanometre => (DonorsPerCubicCentimetre - AcceptorsPerCubicCentimetre) * 1e-21;
 
@@ -75,5 +104,6 @@ public sealed class LayerDoping
 
     /// <inheritdoc />
     public override string ToString() => string.Create(CultureInfo.InvariantCulture,
-        $"N_D = {DonorsPerCubicCentimetre:G4} /cm3, N_A = {AcceptorsPerCubicCentimetre:G4} /cm3, sheet {SheetDonorsPerSquareCentimetre:G4} /cm2, eps_r = {RelativePermittivity:G4}");
+        $"N_D = {DonorsPerCubicCentimetre:G4} /cm3, N_A = {AcceptorsPerCubicCentimetre:G4} /cm3, sheet {SheetDonorsPerSquareCentimetre:G4} /cm2, eps_r = {RelativePermittivity:G4}")
+        + (DonorIonisationEnergyElectronVolts is { } e ? string.Create(CultureInfo.InvariantCulture, $", donor level {e * 1e3:G4} meV below the band edge") : ", fully ionised");
 }

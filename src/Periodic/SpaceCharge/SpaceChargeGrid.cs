@@ -42,6 +42,10 @@ internal sealed class SpaceChargeGrid
         NetDoping = new double[n];
         Volume = new double[n];
         FixedCharge = new double[n];
+        PartialDonors = new double[n];
+        PartialLevel = new double[n];
+        SheetPartial = new double[n];
+        SheetLevel = new double[n];
         ElementStart = new int[elements.Count];
         ElementEnd = new int[elements.Count];
         var node = 0;
@@ -54,15 +58,31 @@ internal sealed class SpaceChargeGrid
                 var m = intervalsPerElement[e];
                 var h = layer.Width.Nanometres / m;
                 var doping = doped.Doping[e];
+                var partial = doping.DonorIonisationEnergyElectronVolts;
                 for (var j = 0; j < m; j++)
                 {
                     Positions[node + j] = x + layer.Width.Nanometres * j / m;
                     Widths[node + j] = h;
                     Permittivity[node + j] = doping.RelativePermittivity;
                     InverseMass[node + j] = 1 / layer.Mass.ElectronMasses;
-                    NetDoping[node + j] = doping.NetVolumePerCubicNanometre;
+                    NetDoping[node + j] = partial is null ? doping.NetVolumePerCubicNanometre : -doping.AcceptorsPerCubicNanometre;
+                    if (partial is { } binding)
+                    {
+                        PartialDonors[node + j] = doping.DonorsPerCubicNanometre;
+                        PartialLevel[node + j] = layer.Potential.ElectronVolts - binding;
+                    }
                 }
-                FixedCharge[node + m / 2] += doping.SheetPerSquareNanometre;
+                if (partial is { } sheetBinding)
+                {
+                    SheetPartial[node + m / 2] += doping.SheetPerSquareNanometre;
+                    SheetLevel[node + m / 2] = layer.Potential.ElectronVolts - sheetBinding;
+                    HasPartialIonisation = true;
+                }
+                else
+                {
+                    FixedCharge[node + m / 2] += doping.SheetPerSquareNanometre;
+                }
+                HasPartialIonisation |= partial is not null;
                 node += m;
                 x += layer.Width.Nanometres;
             }
@@ -104,6 +124,21 @@ internal sealed class SpaceChargeGrid
 
     /// <summary>Fixed (dopant) charge of the control volume of node i, elementary charges per nm².</summary>
     internal double[] FixedCharge { get; }
+
+    /// <summary>Donors of interval i that ionise incompletely, nm⁻³ (zero where donors are fully ionised: they are in <see cref="FixedCharge"/>).</summary>
+    internal double[] PartialDonors { get; }
+
+    /// <summary>Rigid donor level of interval i (band edge minus ionisation energy), eV; the Hartree energy adds to it.</summary>
+    internal double[] PartialLevel { get; }
+
+    /// <summary>Sheet donors at node i that ionise incompletely, nm⁻².</summary>
+    internal double[] SheetPartial { get; }
+
+    /// <summary>Rigid donor level of the sheet at node i, eV.</summary>
+    internal double[] SheetLevel { get; }
+
+    /// <summary>True when some donors ionise incompletely.</summary>
+    internal bool HasPartialIonisation { get; }
 
     /// <summary>First node of element e (its left interface).</summary>
     internal int[] ElementStart { get; }

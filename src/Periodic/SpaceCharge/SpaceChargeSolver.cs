@@ -35,8 +35,10 @@ namespace Periodic.SpaceCharge;
 /// the outer loop converge in a handful of iterations where plain potential mixing oscillates. The loop stops when
 /// max|U_new − U⁰| falls below <see cref="SpaceChargeOptions.ToleranceElectronVolts"/>; the result reports the cell,
 /// states, density and Fermi level of U⁰, with that last change as its residual.</para>
-/// <para>Not modelled: holes (acceptors are fixed negative charge only), exchange and correlation, incomplete
-/// ionisation, bias. Grid error: the Poisson discretisation and the piecewise-linear potential are second order in the
+/// <para>Donors are fully ionised unless their layer gives an ionisation energy (<see cref="LayerDoping.WithDonorIonisationEnergy"/>):
+/// then N_D⁺ = N_D/(1 + 2e^((μ − E_D)/k_BT)) follows the local level E_D = V + U − E_b in the neutrality condition and in
+/// the Newton steps. Not modelled: holes (acceptors are fixed negative charge only, always ionised), exchange and
+/// correlation, bias. Grid error: the Poisson discretisation and the piecewise-linear potential are second order in the
 /// spacing; measure it by halving <see cref="SpaceChargeOptions.MaxGridSpacingNanometres"/>.</para>
 /// </remarks>
 public static class SpaceChargeSolver
@@ -126,6 +128,7 @@ public static class SpaceChargeSolver
         private double[] _energies = [];
         private double[] _weights = [];
         private int _states;
+        private double _finalFermiLevel;
 
         internal Workspace(DopedCell doped, SpaceChargeGrid grid, SpaceChargeOptions options)
         {
@@ -134,7 +137,7 @@ public static class SpaceChargeSolver
             _options = options;
             _rule = GaussLegendre.OfOrder(options.WavevectorNodes);
             _kT = doped.Temperature.Kelvin * PhysicalConstants.BoltzmannElectronVoltsPerKelvin;
-            _target = doped.NetDonorsPerSquareNanometre;
+            _target = grid.FixedCharge.Sum(); // the fully ionised part; incompletely ionised donors follow μ and U
             var n = grid.Count;
             _positions = grid.Positions[..n];
             Hartree = new double[n];
@@ -268,7 +271,66 @@ public static class SpaceChargeSolver
 
         private readonly struct NeutralityFunction(Workspace owner) : IRealFunction
         {
-            public double Evaluate(double x) => owner.Electrons(x) - owner._target;
+            public double Evaluate(double x) => owner.Electrons(x) - owner._target - owner.IonisedTotal(x);
+        }
+
+        /// <summary>Incompletely ionised donors per area at μ in the present potential U⁰ (0 when every donor is ionised).</summary>
+        private double IonisedTotal(double mu)
+        {
+            if (!_grid.HasPartialIonisation)
+            {
+                return 0;
+            }
+            double total = 0;
+            for (var i = 0; i < _grid.Count; i++)
+            {
+                total += Ionised(mu, i, Hartree[i], out _);
+            }
+            return total;
+        }
+
+        /// <summary>
+        /// Ionised donors (of the incompletely ionised kind) in the control volume of node i at Fermi level μ and Hartree
+        /// energy U_i, nm⁻², and the derivative with respect to U_i: N⁺ = N/(1 + g·e^((μ − E_D − U)/k_BT)).
+        /// </summary>
+        private double Ionised(double mu, int i, double u, out double derivative)
+        {
+            derivative = 0;
+            if (!_grid.HasPartialIonisation)
+            {
+                return 0;
+            }
+            var before = i == 0 ? _grid.Count - 1 : i - 1;
+            var (a, da) = Donor(0.5 * _grid.Widths[before] * _grid.PartialDonors[before], _grid.PartialLevel[before], mu, u);
+            var (b, db) = Donor(0.5 * _grid.Widths[i] * _grid.PartialDonors[i], _grid.PartialLevel[i], mu, u);
+            var (c, dc) = Donor(_grid.SheetPartial[i], _grid.SheetLevel[i], mu, u);
+            derivative = da + db + dc;
+            return a + b + c;
+        }
+
+        private (double Value, double Derivative) Donor(double amount, double level, double mu, double u)
+        {
+            if (amount == 0)
+            {
+                return (0, 0);
+            }
+            const double g = LayerDoping.DonorDegeneracy;
+            var x = (mu - level - u) / _kT;
+            // f = 1/(1 + g e^x) and df/dU = g e^x/(1 + g e^x)²/k_BT, written with e^(−x) for x > 0 so nothing overflows.
+            double f, slope;
+            if (x > 0)
+            {
+                var e = Math.Exp(-x);
+                f = e / (e + g);
+                slope = g * e / ((e + g) * (e + g));
+            }
+            else
+            {
+                var e = Math.Exp(x);
+                f = 1 / (1 + g * e);
+                slope = g * e / ((1 + g * e) * (1 + g * e));
+            }
+            return (amount * f, amount * slope / _kT);
         }
 
         private double FermiLevel()
@@ -312,6 +374,7 @@ public static class SpaceChargeSolver
         /// <summary>Density at the nodes for U = U⁰ (the reported n(z)), nm⁻³.</summary>
         internal void FillDensity(double mu)
         {
+            _finalFermiLevel = mu;
             Array.Copy(Hartree, _reference, Hartree.Length);
             Array.Copy(Hartree, Next, Hartree.Length);
             Evaluate(mu, Next, Density, _diagonal);
@@ -344,7 +407,8 @@ public static class SpaceChargeSolver
             {
                 electrons += Density[i] * _grid.Volume[i];
             }
-            return Math.Abs(electrons - _target) / _target;
+            var donors = _target + IonisedTotal(_finalFermiLevel);
+            return Math.Abs(electrons - donors) / donors;
         }
 
         /// <summary>
@@ -376,8 +440,9 @@ public static class SpaceChargeSolver
                     int before = i == 0 ? n - 1 : i - 1, after = i == n - 1 ? 0 : i + 1;
                     double right = _grid.Permittivity[i] / _grid.Widths[i], left = _grid.Permittivity[before] / _grid.Widths[before];
                     // r = −F(U): F_i = ε∇²U − (e/ε₀)(fixed − V n); ∂F_i/∂U_i = −left − right + (e/ε₀)V ∂n/∂U; ∂F_i/∂μ = −(e/ε₀)V ∂n/∂U.
-                    _residual[i] = -(right * (u[after] - u[i]) - left * (u[i] - u[before]) - c * (_grid.FixedCharge[i] - _grid.Volume[i] * Density[i]));
-                    var d = c * _grid.Volume[i] * _diagonal[i];
+                    var ionised = Ionised(mu, i, u[i], out var ionisedSlope);
+                    _residual[i] = -(right * (u[after] - u[i]) - left * (u[i] - u[before]) - c * (_grid.FixedCharge[i] + ionised - _grid.Volume[i] * Density[i]));
+                    var d = c * (_grid.Volume[i] * _diagonal[i] - ionisedSlope);
                     _scratchA[i] = left;
                     _scratchC[i] = right;
                     _scratchB[i] = -right - left + d;

@@ -46,6 +46,21 @@ public sealed partial class StructureFileTest
     }
 
     [Fact]
+    public void Parse_DonorIonisationEnergy_InItsUnits()
+    {
+        var structure = StructureFile.Parse("""
+            {"name": "i", "temperature": 30, "cell": [
+              {"width": 4, "potential": 0, "mass": 0.067, "permittivity": 12.9, "donors": 1e16, "donorIonisationEnergy": "6 meV"},
+              {"width": 4, "potential": 0, "mass": 0.067, "permittivity": 12.9}]}
+            """, "i.json");
+        Assert.Equal(0.006, structure.Doping!.Doping[0].DonorIonisationEnergyElectronVolts!.Value, 1e-15); // 1 meV = 1e-3 eV
+        Assert.Null(structure.Doping.Doping[1].DonorIonisationEnergyElectronVolts);
+        var error = Assert.Throws<StructureFileException>(() => StructureFile.Parse(
+            """{"name": "i", "temperature": 30, "cell": [{"width": 4, "potential": 0, "mass": 0.067, "permittivity": 12.9, "donors": 1e16, "donorIonisationEnergy": -0.001}]}""", "i.json"));
+        Assert.Equal("cell[0].donorIonisationEnergy", error.Field);
+    }
+
+    [Fact]
     public void Parse_UndopedFile_HasNoDoping()
     {
         Assert.Null(StructureFile.Parse("""{"name": "u", "cell": [{"width": 4, "potential": 0, "mass": 0.067}]}""", "u.json").Doping);

@@ -125,6 +125,33 @@ public sealed class SpaceChargeSolverTest(ITestOutputHelper output)
     }
 
     [Fact]
+    public void Solve_IncompleteIonisation_BulkElectronsEqualIonisedDonors()
+    {
+        // One material, uniform donors 6 meV below the band edge, at 30 K where about half of them keep their electron. In
+        // the bulk, n = N_D⁺ with N_D⁺ = N_D/(1 + 2e^((μ − E_c + E_b)/k_BT)) (donor statistics with degeneracy 2; S. M. Sze,
+        // Physics of Semiconductor Devices, 2nd ed., ch. 1 [from memory]) and n = N_c F_{1/2}(η) (J. S. Blakemore [from
+        // memory]); both sides are evaluated here at the Fermi level the solver reports, with MathNet's quadrature for F_{1/2}.
+        const double mass = 0.067, temperature = 30, donors = 1e15, binding = 0.006;
+        var cell = UnitCell.Create(L(4, 0, mass), L(6, 0, mass));
+        var doping = LayerDoping.Create(donors, 0, 12.9).WithDonorIonisationEnergy(Energy.FromElectronVolts(binding));
+        var doped = DopedCell.Create(cell, [doping, doping], Temperature.FromKelvin(temperature));
+        var result = SpaceChargeSolver.Solve(doped, SpaceChargeOptions.Create(wavevectorNodes: 48));
+        output.WriteLine(result.ToString());
+        Assert.True(result.HartreeElectronVolts.Max(Math.Abs) < 1e-9); // neutral everywhere: flat
+        Assert.True(result.NeutralityError <= 1e-10);
+        var kT = KB * temperature;
+        var eta = result.FermiLevelElectronVolts / kT;
+        var ionised = donors / (1 + 2 * Math.Exp(eta + binding / kT));
+        var nc = 2 * Math.Pow(mass * kT / (4 * Math.PI * C), 1.5) * 1e21;
+        var bulk = nc * 2 / Math.Sqrt(Math.PI) * GaussLegendreRule.Integrate(v => 2 * v * v / (1 + Math.Exp(v * v - eta)), 0, Math.Sqrt(60), 256);
+        output.WriteLine($"eta = {eta}, ionised fraction {ionised / donors}, n = {result.ElectronDensityPerCubicCentimetre[0]:E10}, N_c F = {bulk:E10}");
+        Assert.InRange(ionised / donors, 0.2, 0.9); // the statistics matter here: a solver that ignored them would give 1
+        // 1e-6 relative: the k quadrature of the folded bands at 30 K (48 nodes per band) and the 40 k_BT cutoff.
+        Assert.Equal(ionised, result.ElectronDensityPerCubicCentimetre[0], 1e-6 * donors);
+        Assert.Equal(ionised, bulk, 1e-6 * donors);
+    }
+
+    [Fact]
     public void Solve_DeltaDopedAgainstFiniteDifferenceReference_AgreeAsGridsRefine()
     {
         // An independent finite-difference Schrödinger–Poisson solver (TestHelpers/FiniteDifferenceSchrodingerPoisson: dense
