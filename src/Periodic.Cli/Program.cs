@@ -16,6 +16,7 @@ var root = new Command("periodic", "periodic: bands, dispersion, densities of st
 root.Options.Add(new System.CommandLine.Help.HelpOption());
 root.Options.Add(new VersionOption());
 root.Options.Add(verbose);
+root.Options.Add(Common.NoSpaceCharge);
 root.Subcommands.Add(BandsCommand.Create());
 root.Subcommands.Add(DispersionCommand.Create());
 root.Subcommands.Add(DosCommand.Create());

@@ -101,7 +101,7 @@ internal static class AbsorptionCommand
             {
                 throw new UsageException("photon energies must be positive (eV).");
             }
-            var structure = Common.Load(result.GetValue(file)!);
+            var structure = Common.RequireRigid(Common.Load(result, result.GetValue(file)!), "absorption");
             var stack = stackOptions.Build(result, structure);
             var spectrum = IntersubbandSpectrum.Compute(stack);
             var options = new AbsorptionOptions

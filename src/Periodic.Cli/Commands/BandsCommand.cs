@@ -34,7 +34,7 @@ internal static class BandsCommand
         {
             var format = Common.Format(result, json, csv);
             var n = Common.CheckCount(result.GetValue(count));
-            var loaded = Common.Load(result.GetValue(file)!);
+            var loaded = Common.Load(result, result.GetValue(file)!);
             var latticeUnit = Common.LatticeUnit(result, unit, loaded);
             var structure = Common.AtInPlaneWavevector(result, inPlane, loaded);
             Write(structure, n, format, result.GetValue(output), latticeUnit);

@@ -51,7 +51,7 @@ internal static class BlochCommand
             {
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--zone-fraction must be between -1 and 1; got {f:R}."));
             }
-            var structure = Common.Load(result.GetValue(file)!);
+            var structure = Common.Load(result, result.GetValue(file)!);
             var bands = Solver.Compute(structure.Cell, n).Structure;
             var zone = Math.PI / bands.PeriodNanometres;
             var wavevector = fGiven is { } g ? (g == 1 ? zone : g == -1 ? -zone : g * zone) : kGiven ?? 0.0;

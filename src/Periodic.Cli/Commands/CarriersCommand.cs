@@ -49,7 +49,7 @@ internal static class CarriersCommand
             }
             CheckTemperature(result.GetValue(temperature), "--temperature");
             CheckMass(result.GetValue(mass));
-            var structure = Common.Load(result.GetValue(file)!);
+            var structure = Common.Load(result, result.GetValue(file)!);
             var kelvin = result.GetValue(temperature) ?? structure.Materials?.Temperature.Kelvin
                 ?? throw new UsageException("give --temperature K (the structure file has no material temperature to take it from).");
             var inPlane = InPlaneMass(structure.Cell, result.GetValue(mass));

@@ -7,6 +7,7 @@ using System.Text;
 using System.Text.Json;
 using Periodic.Cli.Output;
 using Periodic.Serialization;
+using Periodic.SpaceCharge;
 
 namespace Periodic.Cli.Commands;
 
@@ -22,6 +23,13 @@ internal static class Common
 {
     /// <summary>--verbose on every command: on failure the full error detail; some commands add where the time went.</summary>
     public static Option<bool> Verbose { get; } = new("--verbose") { Description = "On failure, print the full error detail (sweep: also where the time went).", Recursive = true };
+
+    /// <summary>--no-space-charge on every command: a doped structure is computed with its rigid bands (no self-consistent potential).</summary>
+    public static Option<bool> NoSpaceCharge { get; } = new("--no-space-charge")
+    {
+        Description = "For a doped structure file: use the rigid bands of the undoped potential instead of the self-consistent (Schrödinger–Poisson) one.",
+        Recursive = true,
+    };
 
     public static Argument<string> FileArgument() => new("file")
     {
@@ -98,6 +106,10 @@ internal static class Common
         {
             return structure;
         }
+        if (structure.SelfConsistent is not null && k != 0)
+        {
+            throw new UsageException("--in-plane-wavevector cannot be combined with the self-consistent potential of a doped structure (its sampled potential has no in-plane form here); add --no-space-charge for the rigid bands.");
+        }
         if (!(k >= 0 && k <= Periodic.Structures.InPlaneMotion.MaxWavevectorPerNanometre))
         {
             throw new UsageException(string.Create(CultureInfo.InvariantCulture,
@@ -139,6 +151,73 @@ internal static class Common
         }
         return count;
     }
+
+    /// <summary>
+    /// Reads a structure file; a doped one is solved self-consistently (Schrödinger–Poisson, <see cref="SpaceChargeSolver"/>)
+    /// unless --no-space-charge is given, and every command then works on the self-consistent cell.
+    /// </summary>
+    public static StructureDefinition Load(ParseResult result, string path)
+    {
+        var structure = Load(path);
+        if (structure.Doping is not { } doped || result.GetValue(NoSpaceCharge))
+        {
+            return structure;
+        }
+        return structure.WithSelfConsistentCell(SpaceChargeSolver.Solve(doped));
+    }
+
+    /// <summary>
+    /// Refuses the self-consistent cell of a doped structure for <paramref name="command"/>, whose finite-stack bound states or
+    /// biased stacks take uniform layers and delta barriers only (the self-consistent cell's layers are sampled segments).
+    /// </summary>
+    public static StructureDefinition RequireRigid(StructureDefinition structure, string command) => structure.SelfConsistent is null
+        ? structure
+        : throw new UsageException($"{command} does not take the self-consistent (sampled) potential of a doped structure: its finite-stack bound states or biased stacks need uniform layers; add --no-space-charge for the rigid bands.");
+
+    /// <summary>The <c>selfConsistent</c> object: how the space-charge iteration ended, μ, the Hartree potential and n(z) on the grid.</summary>
+    public static void SelfConsistentObject(Utf8JsonWriter writer, SelfConsistentCell solution)
+    {
+        writer.WriteStartObject("selfConsistent");
+        writer.WriteBoolean("converged", true); // an unconverged iteration throws (exit 1) and writes nothing
+        writer.WriteNumber("iterations", solution.Iterations);
+        writer.WriteNumber("fermiLevel", solution.FermiLevelElectronVolts);
+        writer.WriteNumber("neutralityError", solution.NeutralityError);
+        writer.WriteNumber("residual", solution.ResidualElectronVolts);
+        writer.WriteNumber("tolerance", solution.Options.ToleranceElectronVolts);
+        writer.WriteNumber("temperature", solution.TemperatureKelvin);
+        writer.WriteNumber("occupiedBands", solution.OccupiedBands);
+        writer.WriteNumber("gridSpacing", solution.Options.MaxGridSpacingNanometres);
+        writer.WriteString("model", "Hartree (Schrödinger–Poisson) electrons of the cell's minibands, fully ionised dopants, periodic boundary conditions; no holes, exchange-correlation or bias");
+        Samples(writer, "hartree", solution.PositionsNanometres, solution.HartreeElectronVolts);
+        Samples(writer, "electronDensity", solution.PositionsNanometres, solution.ElectronDensityPerCubicCentimetre);
+        Units(writer, ("fermiLevel", "eV"), ("residual", "eV"), ("tolerance", "eV"), ("temperature", "K"), ("gridSpacing", "nm"),
+            ("positions", "nm"), ("hartree", "eV"), ("electronDensity", "cm^-3"));
+        writer.WriteEndObject();
+    }
+
+    private static void Samples(Utf8JsonWriter writer, string name, IReadOnlyList<double> positions, IReadOnlyList<double> values)
+    {
+        writer.WriteStartObject(name);
+        writer.WriteStartArray("positions");
+        foreach (var x in positions)
+        {
+            writer.WriteNumberValue(x);
+        }
+        writer.WriteEndArray();
+        writer.WriteStartArray("values");
+        foreach (var v in values)
+        {
+            writer.WriteNumberValue(v);
+        }
+        writer.WriteEndArray();
+        writer.WriteEndObject();
+    }
+
+    /// <summary>One line under a text table's title for a self-consistent structure; empty otherwise.</summary>
+    public static string SelfConsistentLine(StructureDefinition structure) => structure.SelfConsistent is { } sc
+        ? string.Create(CultureInfo.InvariantCulture,
+            $"Self-consistent (Schrödinger–Poisson) potential at {sc.TemperatureKelvin:G6} K: Fermi level {sc.FermiLevelElectronVolts:F6} eV, {Plural(sc.Iterations, "iteration")}, residual {sc.ResidualElectronVolts:G2} eV, neutrality error {sc.NeutralityError:G2}, Hartree potential from {sc.HartreeElectronVolts.Min() * 1e3:F3} to {sc.HartreeElectronVolts.Max() * 1e3:F3} meV (--no-space-charge: rigid bands)\n")
+        : structure.Doping is not null ? "Doped structure computed with its rigid bands (--no-space-charge).\n" : "";
 
     public static StructureDefinition Load(string path)
     {
@@ -302,6 +381,10 @@ internal static class Common
             writer.WriteEndArray();
         }
         writer.WriteEndObject();
+        if (structure.SelfConsistent is { } solution)
+        {
+            SelfConsistentObject(writer, solution);
+        }
     }
 
     /// <summary>
@@ -373,6 +456,7 @@ internal static class Common
     /// <summary>The title of a text table: the structure's name, period and elements, the note of an unusual energy unit, the layer table of a material cell.</summary>
     public static string TableTitle(StructureDefinition structure, EnergyUnit? unit = null) =>
         string.Create(CultureInfo.InvariantCulture, $"{Printable(structure.Name)}  (period {structure.Cell.Period.Nanometres:G6} nm, {Plural(structure.Cell.Elements.Count, "element")})\n")
+        + SelfConsistentLine(structure)
         + (unit?.Note is { } note ? note + "\n" : "")
         + LayerTable(structure);
 }

@@ -54,7 +54,7 @@ internal static class DispersionCommand
             }
             Limits.CheckWork("--count × --points", Limits.Product(n, k), Limits.MaxDispersionValues,
                 "the output is streamed, but each value costs CPU time and about 25 bytes of output");
-            var loaded = Common.Load(result.GetValue(file)!);
+            var loaded = Common.Load(result, result.GetValue(file)!);
             var latticeUnit = Common.LatticeUnit(result, unit, loaded);
             var structure = Common.AtInPlaneWavevector(result, inPlane, loaded);
             var solved = Solver.Compute(structure.Cell, n);

@@ -53,7 +53,7 @@ internal static class DosCommand
             {
                 throw new UsageException("--in-plane-mass applies only with --volume.");
             }
-            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result.GetValue(file)!));
+            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result, result.GetValue(file)!));
             var inPlaneMass = result.GetValue(volume) ? CarriersCommand.InPlaneMass(structure.Cell, result.GetValue(mass)) : (Periodic.Units.EffectiveMass?)null;
             Write(structure, energies, inPlaneMass, format, result.GetValue(output));
             return 0;

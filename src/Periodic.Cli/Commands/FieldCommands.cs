@@ -60,7 +60,7 @@ internal static class FieldCommands
             {
                 throw new UsageException("--points must be between 2 and 100000; got 1.");
             }
-            var structure = Common.Load(result.GetValue(file)!);
+            var structure = Common.Load(result, result.GetValue(file)!);
             var (drift, top) = SetUpDrift(structure, n, ps, t, result.GetValue(maxField));
             Common.Emit(RenderDrift(structure, drift, top, k, nDensity, format), result.GetValue(output));
             return 0;
@@ -193,7 +193,7 @@ internal static class FieldCommands
             var n = Common.CheckCount(result.GetValue(band), "--band", 100);
             var f = result.GetValue(field);
             var p = Limits.CheckRange("--periods", result.GetValue(periods), WannierStarkLadder.MinPeriods, MaxLadderPeriods);
-            var structure = Common.Load(result.GetValue(file)!);
+            var structure = Common.RequireRigid(Common.Load(result, result.GetValue(file)!), "ladder");
             Common.Emit(RenderLadder(structure, FindLadder(structure, n, p, f), format), result.GetValue(output));
             return 0;
         });

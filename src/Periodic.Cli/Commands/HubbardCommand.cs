@@ -73,7 +73,7 @@ internal static class HubbardCommand
             {
                 throw new UsageException($"--plot {plotPath}: the file name must end in .png or .svg.");
             }
-            var structure = Common.Load(result.GetValue(file)!);
+            var structure = Common.Load(result, result.GetValue(file)!);
             var lattice = structure.OpticalLattice ?? throw new UsageException(
                 $"{structure.SourceName} does not describe an optical lattice; hubbard needs a file with \"opticalLattice\": {{\"wavelength\": ..., \"depth\": ..., \"species\": ...}} (see docs/cold-atoms.md).");
             var scanned = scan is null ? null : Scan(lattice, scan, confinement, a);

@@ -124,7 +124,7 @@ internal static class PlotCommand
             {
                 throw new UsageException("--show iv needs --fermi-level E (eV, the left contact's Fermi level).");
             }
-            var loaded = Common.Load(result.GetValue(file)!);
+            var loaded = Common.Load(result, result.GetValue(file)!);
             var latticeUnit = Common.LatticeUnit(result, unitOption, loaded);
             var atInPlane = Common.AtInPlaneWavevector(result, inPlane, loaded); // validates --in-plane-wavevector
             var structure = kind == "in-plane" ? loaded : atInPlane; // there it is the end of the k∥ axis
@@ -693,6 +693,38 @@ internal static class PlotCommand
             var s0 = deltas[0].S;
             var deltaNote = plot.Add.Text(string.Create(CultureInfo.InvariantCulture, $"delta {(s0 > 0 ? "barrier" : "well")} {s0:G4} eV nm"), deltas[0].X / site + 0.01 * periods * d, low + 0.1 * (high - low));
             deltaNote.LabelFontSize = 11;
+        }
+        if (structure.SelfConsistent is { } sc)
+        {
+            // The Fermi level on the energy axis; n(z) on a right axis, repeated over the periods drawn.
+            var fermi = plot.Add.HorizontalLine(unit.From(sc.FermiLevelElectronVolts));
+            fermi.Color = Colors.DarkOrange;
+            fermi.LineWidth = 2;
+            fermi.LinePattern = LinePattern.Dashed;
+            var fermiLabel = plot.Add.Text(string.Create(CultureInfo.InvariantCulture, $"Fermi level {unit.From(sc.FermiLevelElectronVolts):G5} {unit.Symbol}"),
+                0.01 * periods * d, unit.From(sc.FermiLevelElectronVolts));
+            fermiLabel.LabelFontSize = 11;
+            fermiLabel.LabelFontColor = Colors.DarkOrange;
+            var nx = new List<double>();
+            var ny = new List<double>();
+            for (var p = 0; p < periods; p++)
+            {
+                for (var i = 0; i < sc.PositionsNanometres.Count; i++)
+                {
+                    nx.Add(p * d + sc.PositionsNanometres[i]);
+                    ny.Add(sc.ElectronDensityPerCubicCentimetre[i]);
+                }
+            }
+            var exponent = (int)Math.Floor(Math.Log10(Math.Max(ny.Max(), 1)));
+            var scale = Math.Pow(10, exponent);
+            var density = plot.Add.ScatterLine(nx.ToArray(), ny.Select(v => v / scale).ToArray());
+            density.Color = Colors.SteelBlue;
+            density.LineWidth = 1.5f;
+            density.Axes.YAxis = plot.Axes.Right;
+            plot.Axes.Right.Label.Text = string.Create(CultureInfo.InvariantCulture, $"Electron density n(z) (1e{exponent} cm^-3)");
+            plot.Axes.Right.Range.Set(0, 1.1 * ny.Max() / scale);
+            plot.Add.Text(string.Create(CultureInfo.InvariantCulture,
+                $"self-consistent potential (Hartree, {sc.TemperatureKelvin:G4} K); blue: n(z), right axis"), 0.01 * periods * d, low + 0.04 * (high - low)).LabelFontSize = 11;
         }
         plot.Axes.SetLimits(-0.02 * periods * d, periods * d * 1.3, low, high);
         plot.Add.Text("shaded: minibands of the infinite superlattice of this cell" + (unit.Note is { } note ? "\n" + note : ""), 0.01 * periods * d, high - 0.02 * (high - low)).LabelFontSize = 12;

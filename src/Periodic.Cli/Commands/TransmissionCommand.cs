@@ -56,7 +56,7 @@ internal static class TransmissionCommand
             {
                 Limits.CheckMass("--lead-mass", m);
             }
-            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result.GetValue(file)!));
+            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result, result.GetValue(file)!));
             var (stack, source) = Physics.StackOptions.Choose(structure, n, potential, mass);
             Write(structure, stack, source, energies, ChooseBias(result.GetValue(bias), structure), format, result.GetValue(output));
             return 0;
@@ -103,7 +103,9 @@ internal static class TransmissionCommand
         }
         else
         {
-            left = right = DefaultLead(structure.Cell, potential, mass);
+            left = right = structure.SelfConsistent is { } sc
+                ? SelfConsistentLead(sc, potential, mass)
+                : DefaultLead(structure.Cell, potential, mass);
         }
         return LayerStack.Periodic(left, structure.Cell, periods, right);
     }
@@ -112,6 +114,17 @@ internal static class TransmissionCommand
         potential is null && mass is null
             ? lead
             : Lead.Create(Energy.FromElectronVolts(potential ?? lead.Potential.ElectronVolts), EffectiveMass.FromElectronMasses(mass ?? lead.Mass.ElectronMasses));
+
+    /// <summary>
+    /// For a self-consistent cell (whose layers are sampled segments): leads like the rigid cell's first layer, raised by the
+    /// Hartree potential at the cell start, where they attach, unless overridden.
+    /// </summary>
+    private static Lead SelfConsistentLead(Periodic.SpaceCharge.SelfConsistentCell solution, double? potential, double? mass)
+    {
+        var rigid = DefaultLead(solution.Input.Cell, null, null);
+        return Lead.Create(Energy.FromElectronVolts(potential ?? rigid.Potential.ElectronVolts + solution.HartreeElectronVolts[0]),
+            EffectiveMass.FromElectronMasses(mass ?? rigid.Mass.ElectronMasses));
+    }
 
     /// <summary>Leads like the cell's first layer unless overridden.</summary>
     public static Lead DefaultLead(UnitCell cell, double? potential, double? mass)

@@ -67,22 +67,22 @@ public sealed class Material
     // InP 5.08, 1.60; GaSb 13.4, 4.7; AlSb 5.18, 1.19.
 
     /// <summary>GaAs (direct gap). Values from memory of Vurgaftman et al. (2001).</summary>
-    public static Material GaAs { get; } = Binary("GaAs", 1.519, 0.5405e-3, 204, 0.067, -0.80, 0.565325, 6.98, 2.06, true);
+    public static Material GaAs { get; } = Binary("GaAs", 1.519, 0.5405e-3, 204, 0.067, -0.80, 0.565325, 6.98, 2.06, true, 12.9);
 
     /// <summary>AlAs (indirect: the X valley lies below Γ; only Γ is modelled). Values from memory of Vurgaftman et al. (2001).</summary>
-    public static Material AlAs { get; } = Binary("AlAs", 3.099, 0.885e-3, 530, 0.15, -1.33, 0.56611, 3.76, 0.82, false);
+    public static Material AlAs { get; } = Binary("AlAs", 3.099, 0.885e-3, 530, 0.15, -1.33, 0.56611, 3.76, 0.82, false, 10.06);
 
     /// <summary>InAs (direct gap). Values from memory of Vurgaftman et al. (2001).</summary>
-    public static Material InAs { get; } = Binary("InAs", 0.417, 0.276e-3, 93, 0.026, -0.59, 0.60583, 20.0, 8.5, true);
+    public static Material InAs { get; } = Binary("InAs", 0.417, 0.276e-3, 93, 0.026, -0.59, 0.60583, 20.0, 8.5, true, 15.15);
 
     /// <summary>InP (direct gap). Values from memory of Vurgaftman et al. (2001).</summary>
-    public static Material InP { get; } = Binary("InP", 1.4236, 0.363e-3, 162, 0.0795, -0.94, 0.58697, 5.08, 1.60, true);
+    public static Material InP { get; } = Binary("InP", 1.4236, 0.363e-3, 162, 0.0795, -0.94, 0.58697, 5.08, 1.60, true, 12.5);
 
     /// <summary>GaSb (direct gap, L valley close above). Values from memory of Vurgaftman et al. (2001).</summary>
-    public static Material GaSb { get; } = Binary("GaSb", 0.812, 0.417e-3, 140, 0.039, -0.03, 0.60959, 13.4, 4.7, true);
+    public static Material GaSb { get; } = Binary("GaSb", 0.812, 0.417e-3, 140, 0.039, -0.03, 0.60959, 13.4, 4.7, true, 15.7);
 
     /// <summary>AlSb (indirect: the X valley lies below Γ; only Γ is modelled). Values from memory of Vurgaftman et al. (2001).</summary>
-    public static Material AlSb { get; } = Binary("AlSb", 2.386, 0.42e-3, 140, 0.14, -0.41, 0.61355, 5.18, 1.19, false);
+    public static Material AlSb { get; } = Binary("AlSb", 2.386, 0.42e-3, 140, 0.14, -0.41, 0.61355, 5.18, 1.19, false, 12.04);
 
     /// <summary>The built-in binaries: GaAs, AlAs, InAs, InP, GaSb, AlSb.</summary>
     public static IReadOnlyList<Material> Binaries { get; } =
@@ -132,6 +132,29 @@ public sealed class Material
 
     /// <summary>Where the values came from, in words.</summary>
     public string Source { get; }
+
+    /// <summary>
+    /// The static (low-frequency) relative permittivity ε_r, for Poisson's equation of doped structures; null when no value is
+    /// available. Built-in binaries: GaAs 12.9, AlAs 10.06, InAs 15.15, InP 12.5, GaSb 15.7, AlSb 12.04 (S. Adachi, Properties
+    /// of Group-IV, III–V and II–VI Semiconductors, Wiley 2005, ch. 11, <b>from memory</b>); alloys interpolate linearly
+    /// between their endpoints. Override it with <see cref="WithStaticRelativePermittivity"/> where you have a better value.
+    /// </summary>
+    public double? StaticRelativePermittivity { get; private init; }
+
+    /// <summary>A copy with another static relative permittivity (at least 1).</summary>
+    /// <exception cref="ArgumentOutOfRangeException">The value is below 1 or not finite.</exception>
+    public Material WithStaticRelativePermittivity(double staticRelativePermittivity) =>
+        new(Name, BandGapAtZeroKelvinElectronVolts, VarshniAlphaElectronVoltsPerKelvin, VarshniBetaKelvin, ElectronMassElectronMasses,
+            ValenceBandOffsetElectronVolts, LatticeConstantNanometres, HeavyHoleMassElectronMasses, LightHoleMassElectronMasses,
+            IsGammaValleyLowest, Source, _status)
+        { StaticRelativePermittivity = Preconditions.CheckRange(staticRelativePermittivity, 1.0, 1e4) };
+
+    /// <summary>The same material with the static permittivity an alloy interpolates to (null stays null).</summary>
+    internal Material WithInterpolatedPermittivity(double? permittivity) =>
+        new(Name, BandGapAtZeroKelvinElectronVolts, VarshniAlphaElectronVoltsPerKelvin, VarshniBetaKelvin, ElectronMassElectronMasses,
+            ValenceBandOffsetElectronVolts, LatticeConstantNanometres, HeavyHoleMassElectronMasses, LightHoleMassElectronMasses,
+            IsGammaValleyLowest, Source, _status)
+        { StaticRelativePermittivity = permittivity };
 
     /// <summary>Where the value of <paramref name="parameter"/> came from.</summary>
     /// <exception cref="ArgumentOutOfRangeException"><paramref name="parameter"/> is not a defined value.</exception>
@@ -228,7 +251,8 @@ public sealed class Material
         CheckName(name);
         return new Material(name, BandGapAtZeroKelvinElectronVolts, VarshniAlphaElectronVoltsPerKelvin, VarshniBetaKelvin,
             ElectronMassElectronMasses, ValenceBandOffsetElectronVolts, LatticeConstantNanometres, HeavyHoleMassElectronMasses,
-            LightHoleMassElectronMasses, IsGammaValleyLowest, Source, _status);
+            LightHoleMassElectronMasses, IsGammaValleyLowest, Source, _status)
+        { StaticRelativePermittivity = StaticRelativePermittivity };
     }
 
     /// <summary>A copy with another Γ gap at 0 K (positive).</summary>
@@ -247,7 +271,8 @@ public sealed class Material
         status[(int)MaterialParameter.VarshniBeta] = ParameterStatus.CallerSupplied;
         return new Material(Name, BandGapAtZeroKelvinElectronVolts, varshniAlphaElectronVoltsPerKelvin, beta,
             ElectronMassElectronMasses, ValenceBandOffsetElectronVolts, LatticeConstantNanometres, HeavyHoleMassElectronMasses,
-            LightHoleMassElectronMasses, IsGammaValleyLowest, Source, status);
+            LightHoleMassElectronMasses, IsGammaValleyLowest, Source, status)
+        { StaticRelativePermittivity = StaticRelativePermittivity };
     }
 
     /// <summary>A copy with another conduction-band mass (not the default 0).</summary>
@@ -281,7 +306,8 @@ public sealed class Material
     public Material WithGammaValleyLowest(bool isGammaValleyLowest) =>
         new(Name, BandGapAtZeroKelvinElectronVolts, VarshniAlphaElectronVoltsPerKelvin, VarshniBetaKelvin, ElectronMassElectronMasses,
             ValenceBandOffsetElectronVolts, LatticeConstantNanometres, HeavyHoleMassElectronMasses, LightHoleMassElectronMasses,
-            isGammaValleyLowest, Source, _status);
+            isGammaValleyLowest, Source, _status)
+        { StaticRelativePermittivity = StaticRelativePermittivity };
 
     /// <summary>Finds a built-in binary by name (case-insensitive), e.g. "GaAs".</summary>
     /// <exception cref="ArgumentException">No built-in binary has that name.</exception>
@@ -365,9 +391,10 @@ public sealed class Material
     }
 
     private static Material Binary(string name, double gap0, double alpha, double beta, double electronMass, double vbo,
-        double latticeNanometres, double gamma1, double gamma2, bool gammaLowest) =>
+        double latticeNanometres, double gamma1, double gamma2, bool gammaLowest, double permittivity) =>
         new(name, gap0, alpha, beta, electronMass, vbo, latticeNanometres, 1.0 / (gamma1 - 2 * gamma2), 1.0 / (gamma1 + 2 * gamma2),
-            gammaLowest, TableSource, BinaryStatus);
+            gammaLowest, TableSource, BinaryStatus)
+        { StaticRelativePermittivity = permittivity };
 
     private Material Override(MaterialParameter parameter, double? gap0 = null, double? electronMass = null, double? vbo = null,
         double? lattice = null, double? heavyHole = null, double? lightHole = null)
@@ -376,7 +403,8 @@ public sealed class Material
         status[(int)parameter] = ParameterStatus.CallerSupplied;
         return new Material(Name, gap0 ?? BandGapAtZeroKelvinElectronVolts, VarshniAlphaElectronVoltsPerKelvin, VarshniBetaKelvin,
             electronMass ?? ElectronMassElectronMasses, vbo ?? ValenceBandOffsetElectronVolts, lattice ?? LatticeConstantNanometres,
-            heavyHole ?? HeavyHoleMassElectronMasses, lightHole ?? LightHoleMassElectronMasses, IsGammaValleyLowest, Source, status);
+            heavyHole ?? HeavyHoleMassElectronMasses, lightHole ?? LightHoleMassElectronMasses, IsGammaValleyLowest, Source, status)
+        { StaticRelativePermittivity = StaticRelativePermittivity };
     }
 
     private static void CheckName(string name)

@@ -125,7 +125,8 @@ public sealed class TernaryAlloy
             throw new ArgumentOutOfRangeException(nameof(composition), composition,
                 $"composition = {Preconditions.Format(composition)} gives a gap of {Preconditions.Format(gap)} eV and a mass of {Preconditions.Format(mass)} m0 for {Name}; the bowing parameters must keep both positive.");
         }
-        return Material.Derived(FormulaAt(x), gap, alpha, beta, mass, vbo, lattice, heavy, light, direct, Source);
+        double? permittivity = a.StaticRelativePermittivity is { } ea && b.StaticRelativePermittivity is { } eb ? x * ea + y * eb : null;
+        return Material.Derived(FormulaAt(x), gap, alpha, beta, mass, vbo, lattice, heavy, light, direct, Source).WithInterpolatedPermittivity(permittivity);
     }
 
     /// <summary>A copy with another Γ-gap bowing b_g(x) = b₀ + b₁·x, eV.</summary>

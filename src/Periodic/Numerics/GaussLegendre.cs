@@ -60,6 +60,17 @@ internal sealed class GaussLegendre
     /// <summary>The 20-point rule (the value returned).</summary>
     internal static GaussLegendre Twenty { get; } = new(20);
 
+    /// <summary>An n-point rule built on demand (1 ≤ n ≤ 512), for callers whose node count is an option.</summary>
+    internal static GaussLegendre OfOrder(int order) => order switch
+    {
+        4 => Four,
+        8 => Eight,
+        10 => Ten,
+        20 => Twenty,
+        >= 1 and <= 512 => new GaussLegendre(order),
+        _ => throw new ArgumentOutOfRangeException(nameof(order), order, "order must be between 1 and 512."),
+    };
+
     internal double[] Nodes { get; }
 
     internal double[] Weights { get; }

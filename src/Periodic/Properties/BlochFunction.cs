@@ -138,6 +138,17 @@ public sealed class BlochFunction
         return function;
     }
 
+    /// <summary>
+    /// The Bloch function of the structure's own discrete model, without the step-halving check of
+    /// <see cref="Create"/> (its <see cref="DiscretisationErrorEstimate"/> is 0 and means "not measured"): for callers
+    /// that evaluate many states of one cell and measure the discretisation themselves (the space-charge solver).
+    /// </summary>
+    internal static BlochFunction CreateUnrefined(BandStructure structure, int bandIndex, double wavevectorPerNanometre)
+    {
+        var energy = structure.EnergyAt(bandIndex, wavevectorPerNanometre);
+        return Build(structure, structure.Cell, structure.Transfer, bandIndex, wavevectorPerNanometre, energy);
+    }
+
     private static bool HasSegments(UnitCell cell)
     {
         foreach (var element in cell.ElementSpan)

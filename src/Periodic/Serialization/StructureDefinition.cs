@@ -5,6 +5,7 @@ using System.Collections.ObjectModel;
 using System.Globalization;
 using System.Text;
 using Periodic.Materials;
+using Periodic.SpaceCharge;
 using Periodic.Stacks;
 using Periodic.Structures;
 using Periodic.Units;
@@ -37,6 +38,45 @@ public sealed partial class StructureDefinition
         string.Create(System.Globalization.CultureInfo.InvariantCulture, $"{Name} at k∥ = {inPlaneWavevectorPerNanometre:R} /nm"),
         Description, InPlaneMotion.CellAt(Cell, inPlaneWavevectorPerNanometre), [.. Labels], SourceName, Materials,
         Stack is null ? null : InPlaneStack.At(Stack, inPlaneWavevectorPerNanometre), StackBias);
+
+    /// <summary>
+    /// The doping of the cell (the layers' <c>donors</c>, <c>acceptors</c>, <c>sheetDonors</c> and <c>permittivity</c> and the
+    /// file's <c>temperature</c>), validated; null when no layer is doped. <see cref="Cell"/> stays the rigid cell: solve the doped
+    /// cell with <see cref="SpaceChargeSolver"/> and apply the result with <see cref="WithSelfConsistentCell"/>.
+    /// </summary>
+    public DopedCell? Doping { get; internal init; }
+
+    /// <summary>
+    /// The self-consistent solution this structure now carries (from <see cref="WithSelfConsistentCell"/>), or null for the rigid bands.
+    /// </summary>
+    public SelfConsistentCell? SelfConsistent { get; private init; }
+
+    /// <summary>
+    /// The same structure with the self-consistent cell of <paramref name="solution"/> in place of the rigid cell: the cell, and in
+    /// a finite stack every repeated period of the file's cell (single layers and the leads stay as given; the stack's own space
+    /// charge, its ends and the leads' Fermi level are not solved).
+    /// </summary>
+    /// <exception cref="ArgumentNullException"><paramref name="solution"/> is null.</exception>
+    /// <exception cref="ArgumentException">The solution belongs to another cell than this structure's doping.</exception>
+    public StructureDefinition WithSelfConsistentCell(SelfConsistentCell solution)
+    {
+        ArgumentNullException.ThrowIfNull(solution);
+        if (Doping is null || !ReferenceEquals(solution.Input.Cell, Cell))
+        {
+            throw new ArgumentException("solution must solve this structure's own doped cell (StructureDefinition.Doping).", nameof(solution));
+        }
+        LayerStack? stack = null;
+        if (Stack is { } rigid)
+        {
+            var parts = rigid.Parts.Select(p => p.Cell is { } c && ReferenceEquals(c, Cell) ? StackPart.Repeat(solution.Cell, p.Repetitions) : p);
+            stack = LayerStack.Create(rigid.LeftLead, parts, rigid.RightLead);
+        }
+        return new StructureDefinition(Name, Description, solution.Cell, [.. Labels], SourceName, Materials, stack, StackBias)
+        {
+            Doping = Doping,
+            SelfConsistent = solution,
+        };
+    }
 
     /// <summary>
     /// The finite stack the file describes (its <c>stack</c> field: N periods of the cell between two leads),

@@ -6,6 +6,7 @@ using System.Text;
 using System.Text.Json;
 using System.Text.RegularExpressions;
 using Periodic.Materials;
+using Periodic.SpaceCharge;
 using Periodic.Stacks;
 using Periodic.Structures;
 using Periodic.Units;
@@ -53,6 +54,20 @@ public static partial class StructureFile
     {
         ["K"] = 1.0,
     };
+
+    private static readonly Dictionary<string, double> VolumeDensityUnits = new(StringComparer.Ordinal)
+    {
+        ["cm^-3"] = 1.0, ["cm-3"] = 1.0, ["/cm3"] = 1.0, ["/cm^3"] = 1.0, ["m^-3"] = 1e-6, ["/m3"] = 1e-6, ["nm^-3"] = 1e21, ["/nm3"] = 1e21,
+    };
+
+    private static readonly Dictionary<string, double> SheetDensityUnits = new(StringComparer.Ordinal)
+    {
+        ["cm^-2"] = 1.0, ["cm-2"] = 1.0, ["/cm2"] = 1.0, ["/cm^2"] = 1.0, ["m^-2"] = 1e-4, ["/m2"] = 1e-4, ["nm^-2"] = 1e14, ["/nm2"] = 1e14,
+    };
+
+    private static readonly Dictionary<string, double> NoUnits = new(StringComparer.Ordinal);
+
+    private static readonly string[] DopingFields = ["donors", "acceptors", "sheetDonors", "permittivity", "donorIonisationEnergy"];
 
     private static readonly Dictionary<string, double> InverseEnergyUnits = new(StringComparer.Ordinal)
     {
@@ -207,7 +222,7 @@ public static partial class StructureFile
             {
                 return ReadMaterialsDocument(fields, array, name, description, labels);
             }
-            foreach (var key in new[] { "temperature", "carrier", "nonParabolic", "substrate" })
+            foreach (var key in new[] { "carrier", "nonParabolic", "substrate" })
             {
                 if (fields.TryGetValue(key, out var stray))
                 {
@@ -215,10 +230,13 @@ public static partial class StructureFile
                 }
             }
             var elements = new CellElement[array.Items.Count];
+            var doping = new FileDoping?[array.Items.Count];
             var hasWidth = false;
             for (var i = 0; i < elements.Length; i++)
             {
-                (elements[i], labels[i]) = ReadElement(array.Items[i], string.Create(CultureInfo.InvariantCulture, $"cell[{i}]"));
+                var path = string.Create(CultureInfo.InvariantCulture, $"cell[{i}]");
+                (elements[i], labels[i]) = ReadElement(array.Items[i], path, allowDoping: true);
+                doping[i] = ReadDoping((JsonTreeObject)array.Items[i], path, null);
                 hasWidth |= elements[i].Width.Nanometres > 0;
             }
             if (!hasWidth)
@@ -235,7 +253,20 @@ public static partial class StructureFile
                 throw Error(array, "cell", e.Message, e);
             }
             var (stack, bias) = ReadStack(fields, cell);
-            return new StructureDefinition(name, description, cell, labels, sourceName, null, stack, bias);
+            DopedCell? doped = null;
+            if (doping.Any(d => d is not null))
+            {
+                if (!fields.TryGetValue("temperature", out var t))
+                {
+                    throw Error(array, "temperature", "is required for a doped cell (it sets the carriers' Fermi–Dirac statistics), e.g. \"temperature\": \"300 K\".");
+                }
+                doped = BuildDoping(cell, doping, array, ReadQuantity(t.Value, "temperature", TemperatureUnits, "K", "K"), t.Value);
+            }
+            else if (fields.TryGetValue("temperature", out var stray))
+            {
+                throw ErrorAt(stray.NameOffset, "temperature", "applies only to a cell of material layers or a doped cell (give \"donors\" in a layer).");
+            }
+            return new StructureDefinition(name, description, cell, labels, sourceName, null, stack, bias) { Doping = doped };
         }
 
         /// <summary>
@@ -427,6 +458,8 @@ public static partial class StructureFile
                 var substrate = ReadMaterial(sub.Value, "substrate");
                 recipe = recipe.WithSubstrate(substrate);
             }
+            var materialDoping = new FileDoping?[array.Items.Count];
+            var anyDoping = false;
             for (var i = 0; i < array.Items.Count; i++)
             {
                 var path = string.Create(CultureInfo.InvariantCulture, $"cell[{i}]");
@@ -435,7 +468,7 @@ public static partial class StructureFile
                 {
                     throw Error(obj, path + ".material", "is required: a cell that uses materials must give every layer as {\"material\": ..., \"width\": ...} (deltas and explicit layers cannot be mixed in).");
                 }
-                var layerFields = Fields(obj, path, ["material", "width", "monolayers", "label"]);
+                var layerFields = Fields(obj, path, ["material", "width", "monolayers", "label", .. DopingFields]);
                 labels[i] = layerFields.TryGetValue("label", out var l) ? ReadString(l.Value, path + ".label") : null;
                 var material = ReadMaterial(layerFields["material"].Value, path + ".material");
                 RecipeLayer layer;
@@ -462,10 +495,14 @@ public static partial class StructureFile
                     layer = Apply(widthNode, path + ".width", () => RecipeLayer.Create(material, Length.FromNanometres(width)));
                 }
                 recipe = recipe.Add(layer);
+                materialDoping[i] = ReadDoping(obj, path, material);
+                anyDoping |= materialDoping[i] is not null;
+                materialDoping[i] ??= new FileDoping(0, 0, 0, material.StaticRelativePermittivity, obj, path);
             }
             var built = Apply(array, "cell", recipe.Build);
             var (stack, bias) = ReadStack(fields, built.Cell, built);
-            return new StructureDefinition(name, description, built.Cell, labels, sourceName, built, stack, bias);
+            var doped = anyDoping ? BuildDoping(built.Cell, materialDoping, array, temperature, t.Value) : null;
+            return new StructureDefinition(name, description, built.Cell, labels, sourceName, built, stack, bias) { Doping = doped };
         }
 
         private Material ReadMaterial(JsonTreeNode node, string path)
@@ -492,7 +529,7 @@ public static partial class StructureFile
             return cut >= 0 ? e.Message[..cut] : e.Message;
         }
 
-        private (CellElement Element, string? Label) ReadElement(JsonTreeNode node, string path)
+        private (CellElement Element, string? Label) ReadElement(JsonTreeNode node, string path, bool allowDoping = false)
         {
             var obj = ExpectObject(node, path);
             if (obj.Properties.Exists(p => p.Name == "fourier"))
@@ -508,7 +545,7 @@ public static partial class StructureFile
             var isDelta = obj.Properties.Exists(p => p.Name == "delta");
             var fields = isDelta
                 ? Fields(obj, path, ["delta", "label"])
-                : Fields(obj, path, ["width", "potential", "mass", "nonParabolicity", "label"]);
+                : Fields(obj, path, allowDoping ? ["width", "potential", "mass", "nonParabolicity", "label", .. DopingFields] : ["width", "potential", "mass", "nonParabolicity", "label"]);
             var label = fields.TryGetValue("label", out var l) ? ReadString(l.Value, path + ".label") : null;
             if (isDelta)
             {
@@ -545,6 +582,89 @@ public static partial class StructureFile
             {
                 throw Error(obj, path, e.Message, e);
             }
+        }
+
+        /// <summary>The doping fields of one layer as read (volume densities cm⁻³, sheet cm⁻², permittivity), with where they stand.</summary>
+        private sealed record FileDoping(double Donors, double Acceptors, double Sheet, double? Permittivity, JsonTreeNode Node, string Path, double? Ionisation = null);
+
+        /// <summary>
+        /// <c>"donors"</c>, <c>"acceptors"</c> (cm⁻³), <c>"sheetDonors"</c> (cm⁻², a donor sheet at the layer's middle) and
+        /// <c>"permittivity"</c> (relative) of one layer; null when the layer gives none of them. A material supplies the
+        /// permittivity when the layer does not.
+        /// </summary>
+        private FileDoping? ReadDoping(JsonTreeObject obj, string path, Material? material)
+        {
+            var present = obj.Properties.Where(p => Array.IndexOf(DopingFields, p.Name) >= 0).ToDictionary(p => p.Name, StringComparer.Ordinal);
+            if (present.Count == 0)
+            {
+                return null;
+            }
+            double Density(string name, Dictionary<string, double> units, string unit, string allowed, double max)
+            {
+                if (!present.TryGetValue(name, out var property))
+                {
+                    return 0;
+                }
+                var value = ReadRawQuantity(property.Value, path + "." + name, units, unit, allowed);
+                if (!(value >= 0 && value <= max))
+                {
+                    throw Error(property.Value, path + "." + name, $"must be between 0 and {Format(max)} {unit}; got {Format(value)} {unit}. See docs/limits.md.");
+                }
+                return value;
+            }
+            var donors = Density("donors", VolumeDensityUnits, "cm^-3", "cm^-3, m^-3, nm^-3", StructureFileLimits.MaxDopingPerCubicCentimetre);
+            var acceptors = Density("acceptors", VolumeDensityUnits, "cm^-3", "cm^-3, m^-3, nm^-3", StructureFileLimits.MaxDopingPerCubicCentimetre);
+            var sheet = Density("sheetDonors", SheetDensityUnits, "cm^-2", "cm^-2, m^-2, nm^-2", StructureFileLimits.MaxSheetDopingPerSquareCentimetre);
+            double? permittivity = material?.StaticRelativePermittivity;
+            if (present.TryGetValue("permittivity", out var eps))
+            {
+                var value = ReadRawQuantity(eps.Value, path + ".permittivity", NoUnits, "", "a bare number: it is relative, without unit");
+                if (!(value >= StructureFileLimits.MinRelativePermittivity && value <= StructureFileLimits.MaxRelativePermittivity))
+                {
+                    throw Error(eps.Value, path + ".permittivity", $"must be a relative permittivity between {Format(StructureFileLimits.MinRelativePermittivity)} and {Format(StructureFileLimits.MaxRelativePermittivity)}; got {Format(value)}. See docs/limits.md.");
+                }
+                permittivity = value;
+            }
+            double? ionisation = null;
+            if (present.TryGetValue("donorIonisationEnergy", out var level))
+            {
+                var value = ReadRawQuantity(level.Value, path + ".donorIonisationEnergy", EnergyUnits, "eV", "eV, meV");
+                if (!(value >= 0 && value <= LayerDoping.MaxDonorIonisationEnergyElectronVolts))
+                {
+                    throw Error(level.Value, path + ".donorIonisationEnergy", $"must be between 0 and {Format(LayerDoping.MaxDonorIonisationEnergyElectronVolts)} eV (the donor level below the band edge); got {Format(value)} eV. See docs/limits.md.");
+                }
+                ionisation = value;
+            }
+            return new FileDoping(donors, acceptors, sheet, permittivity, obj, path, ionisation);
+        }
+
+        /// <summary>The doped cell of a file with doping: every layer needs a permittivity (its own or its material's).</summary>
+        private DopedCell BuildDoping(UnitCell cell, FileDoping?[] doping, JsonTreeArray array, double temperatureKelvin, JsonTreeNode temperatureNode)
+        {
+            var entries = new LayerDoping[doping.Length];
+            for (var i = 0; i < doping.Length; i++)
+            {
+                if (cell.Elements[i] is not Layer)
+                {
+                    entries[i] = LayerDoping.Undoped(1); // a delta barrier: no width, no charge, no permittivity
+                    continue;
+                }
+                var d = doping[i];
+                var permittivity = d?.Permittivity;
+                if (permittivity is null)
+                {
+                    throw Error(d?.Node ?? array.Items[i], string.Create(CultureInfo.InvariantCulture, $"cell[{i}].permittivity"),
+                        "is required in every layer of a doped cell whose material does not supply it (a relative permittivity, e.g. 12.9).");
+                }
+                var entry = d!;
+                entries[i] = Apply(entry.Node, entry.Path, () =>
+                {
+                    var layerDoping = LayerDoping.Create(entry.Donors, entry.Acceptors, permittivity.Value, entry.Sheet);
+                    return entry.Ionisation is { } e ? layerDoping.WithDonorIonisationEnergy(Energy.FromElectronVolts(e)) : layerDoping;
+                });
+            }
+            Apply(temperatureNode, "temperature", () => Preconditions.CheckRange(temperatureKelvin, DopedCell.MinTemperatureKelvin, DopedCell.MaxTemperatureKelvin, "temperature"));
+            return Apply(array, "cell", () => DopedCell.Create(cell, entries, Temperature.FromKelvin(temperatureKelvin)));
         }
 
         /// <summary><c>{"period": L, "constant": V0, "cosine": [a1, …], "sine": [b1, …], "mass": m}</c>: V0 + Σ a_n cos(2πnx/d) + b_n sin(2πnx/d).</summary>

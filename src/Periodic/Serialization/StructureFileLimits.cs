@@ -47,4 +47,16 @@ public static class StructureFileLimits
 
     /// <summary>Largest non-parabolicity, 1/eV (semiconductors: below ~5 /eV).</summary>
     public const double MaxNonParabolicityPerElectronVolt = 100;
+
+    /// <summary>Largest donor or acceptor density, cm⁻³ (about 2 % of the atoms of a III–V crystal; see <see cref="SpaceCharge.LayerDoping"/>).</summary>
+    public const double MaxDopingPerCubicCentimetre = SpaceCharge.LayerDoping.MaxVolumeDensityPerCubicCentimetre;
+
+    /// <summary>Largest sheet (delta) donor density, cm⁻² (about one and a half monolayers of atoms).</summary>
+    public const double MaxSheetDopingPerSquareCentimetre = SpaceCharge.LayerDoping.MaxSheetDensityPerSquareCentimetre;
+
+    /// <summary>Smallest relative permittivity (vacuum).</summary>
+    public const double MinRelativePermittivity = 1;
+
+    /// <summary>Largest relative permittivity (ferroelectrics reach a few thousand).</summary>
+    public const double MaxRelativePermittivity = SpaceCharge.LayerDoping.MaxRelativePermittivity;
 }

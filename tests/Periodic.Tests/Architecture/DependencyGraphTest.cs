@@ -33,10 +33,10 @@ public sealed class DependencyGraphTest
         ["Stacks"] = ["Bands", "Transfer", "Structures", "Units", "Numerics"],
         ["PlaneWaves"] = ["Structures", "Units", "Numerics"], // an independent second method: no transfer matrices
         ["Materials"] = ["Structures", "Units", "Numerics"],
-        ["Serialization"] = ["Stacks", "Materials", "OpticalLattices", "Structures", "Units", "Numerics"],
+        ["Serialization"] = ["SpaceCharge", "Stacks", "Properties", "Bands", "PlaneWaves", "Transfer", "Materials", "OpticalLattices", "Structures", "Units", "Numerics"], // doped cells are validated into SpaceCharge.DopedCell
         ["Optics"] = ["Stacks", "Properties", "Bands", "Transfer", "Materials", "Structures", "Units", "Numerics"],
         ["OpticalLattices"] = ["PlaneWaves", "Properties", "Bands", "Transfer", "Structures", "Units", "Numerics"],
-        ["SpaceCharge"] = [.. Physics, "Materials"],
+        ["SpaceCharge"] = ["Properties", "Bands", "PlaneWaves", "Transfer", "Structures", "Units", "Numerics"],
         ["Design"] = [.. Physics, "Materials", "Optics", "OpticalLattices", "SpaceCharge"],
     };
 

@@ -1,0 +1,84 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using Periodic.Bands;
+using Periodic.Serialization;
+using Periodic.SpaceCharge;
+
+namespace Periodic.Cli.Tests.Commands;
+
+/// <summary>A doped structure file: every command works on the self-consistent cell unless --no-space-charge is given.</summary>
+public sealed class SpaceChargeTest
+{
+    private static string Doped => ToolRunner.Example("doped-superlattice.json");
+
+    [Fact]
+    public void Bands_DopedFile_JsonCarriesTheSelfConsistentSolutionOfTheLibrary()
+    {
+        var run = ToolRunner.Invoke("bands", Doped, "--json");
+        Assert.Equal(0, run.ExitCode);
+        var json = run.Json();
+        var sc = json.GetProperty("selfConsistent");
+        var library = SpaceChargeSolver.Solve(StructureFile.Load(Doped).Doping!);
+        Assert.True(sc.GetProperty("converged").GetBoolean());
+        // Same input, same deterministic computation: the numbers come back bit for bit (shortest round-trip JSON).
+        Assert.Equal(library.FermiLevelElectronVolts, sc.GetProperty("fermiLevel").GetDouble());
+        Assert.Equal(library.Iterations, sc.GetProperty("iterations").GetInt32());
+        Assert.True(sc.GetProperty("neutralityError").GetDouble() <= 1e-10); // the required neutrality
+        var hartree = sc.GetProperty("hartree");
+        Assert.Equal(library.PositionsNanometres.Count, hartree.GetProperty("positions").GetArrayLength());
+        Assert.Equal(library.HartreeElectronVolts[7], hartree.GetProperty("values")[7].GetDouble());
+        Assert.Equal(library.ElectronDensityPerCubicCentimetre.Count, sc.GetProperty("electronDensity").GetProperty("values").GetArrayLength());
+        // The band table is that of the self-consistent cell.
+        var expected = BandSolver.Compute(library.Cell, 4).Structure;
+        Assert.Equal(expected.GetBand(1).BottomElectronVolts, json.GetProperty("bands")[0].GetProperty("bottom").GetDouble(), 1e-12);
+    }
+
+    [Fact]
+    public void Bands_NoSpaceCharge_GivesTheRigidBands()
+    {
+        var run = ToolRunner.Invoke("bands", Doped, "--json", "--no-space-charge");
+        Assert.Equal(0, run.ExitCode);
+        var json = run.Json();
+        Assert.False(json.TryGetProperty("selfConsistent", out _));
+        var rigid = BandStructure.Compute(StructureFile.Load(Doped).Cell, 4);
+        Assert.Equal(rigid.GetBand(1).BottomElectronVolts, json.GetProperty("bands")[0].GetProperty("bottom").GetDouble());
+    }
+
+    [Fact]
+    public void Table_DopedFile_PrintsASummaryLine()
+    {
+        var run = ToolRunner.Invoke("dispersion", Doped, "--points", "5");
+        Assert.Equal(0, run.ExitCode);
+        Assert.Contains("Self-consistent (Schrödinger–Poisson) potential at 77 K", run.Stdout);
+    }
+
+    [Fact]
+    public void Bands_MoreAcceptorsThanDonors_ExitsTwoWithOneLine()
+    {
+        var file = ToolRunner.TempFile("""
+            {"name": "p", "temperature": 300, "cell": [{"width": 4, "potential": 0, "mass": 0.067, "permittivity": 12.9, "donors": 1e17, "acceptors": 3e17}]}
+            """);
+        var run = ToolRunner.Invoke("bands", file, "--json");
+        Assert.Equal(2, run.ExitCode);
+        Assert.Equal("", run.Stdout);
+        Assert.Contains("holes are not modelled", run.Stderr);
+        Assert.Single(run.Stderr.Trim().Split('\n'));
+    }
+
+    [Fact]
+    public void Plot_Profile_DopedFile_WritesThePicture()
+    {
+        var path = Path.Combine(Path.GetTempPath(), $"periodic-sc-{Guid.NewGuid():N}.png");
+        try
+        {
+            var run = ToolRunner.Invoke("plot", Doped, "--show", "profile", "--out", path);
+            Assert.Equal(0, run.ExitCode);
+            Assert.True(new FileInfo(path).Length > 1000);
+        }
+        finally
+        {
+            File.Delete(path);
+        }
+    }
+}
