@@ -5,7 +5,7 @@ using Periodic.Stacks;
 
 namespace Periodic.Optics;
 
-/// <summary>Settings of <see cref="IntersubbandSpectrum.Compute"/>. Defaults live in <see cref="Default"/>.</summary>
+/// <summary>Settings of <see cref="IntersubbandSpectrum.Compute(Stacks.LayerStack, IntersubbandOptions?)"/>. Defaults live in <see cref="Default"/>.</summary>
 public sealed record IntersubbandOptions
 {
     /// <summary>The defaults: the well's mass as reference, bound states only, 20 nm domain margin, 1 % domain tolerance.</summary>
@@ -43,9 +43,6 @@ public sealed record IntersubbandOptions
 
     /// <summary>Settings of the resonance search (quasi-bound states).</summary>
     public ResonanceSearchOptions Resonances { get; init; } = ResonanceSearchOptions.Default;
-
-    /// <summary>The largest number of wavefunction samples held at once (levels × quadrature nodes), 20,000,000 (160 MB).</summary>
-    public const long MaxSamples = 20_000_000;
 
     internal void Validate(string paramName)
     {
