@@ -152,10 +152,11 @@ public sealed class IntersubbandSpectrum
         var normError = 0.0;
         var n = profile.Count;
         var norms = new double[n];
+        var layout = new NodeLayout(profile.Kernel, bound.Levels[0].EnergyElectronVolts, bound.Levels[nb - 1].EnergyElectronVolts);
         for (var i = 0; i < nb; i++)
         {
             waves[i] = bound.GetWavefunction(i);
-            states[i] = KernelState.Of(waves[i]);
+            states[i] = KernelState.Of(waves[i]).WithNodes(layout);
             var e = bound.Levels[i].EnergyElectronVolts;
             states[i].ElementNorms(norms, out var pLeft, out var pRight);
             double norm = pLeft + pRight, mass = pLeft * stack.LeftLead.MassElectronMasses + pRight * profile.RightLead.MassElectronMasses;

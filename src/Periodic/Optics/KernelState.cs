@@ -18,8 +18,26 @@ namespace Periodic.Optics;
 /// </remarks>
 internal sealed class KernelState
 {
-    private KernelState(CompiledCell kernel, double energy, double[] psi, double[] w, double leftDecay, double rightDecay)
+    private KernelState(CompiledCell kernel, double energy, double[] psi, double[] w, double leftDecay, double rightDecay, int join = int.MaxValue)
     {
+        // Each element's two ends from one exact propagation at this energy: from its left end before the join of the two shooting
+        // pieces, from its right end after it (as the wavefunction itself is represented). The closed forms then integrate exactly the
+        // represented function, which the eigenvalue's tolerance and the join's small kink would otherwise spoil.
+        var n = kernel.Count;
+        _ends = new ElementEnds[n];
+        for (var i = 0; i < n; i++)
+        {
+            if (i < join)
+            {
+                var (u1, w1) = kernel.Across(i, energy, psi[i], w[i], forward: true);
+                _ends[i] = new ElementEnds(psi[i], w[i], u1, w1);
+            }
+            else
+            {
+                var (u0, w0) = kernel.Across(i, energy, psi[i + 1], w[i + 1], forward: false);
+                _ends[i] = new ElementEnds(u0, w0, psi[i + 1], w[i + 1]);
+            }
+        }
         Kernel = kernel;
         EnergyElectronVolts = energy;
         Psi = psi;
@@ -44,7 +62,47 @@ internal sealed class KernelState
     /// <summary>κ of the decaying tail into the right lead, 1/nm; 0: no tail.</summary>
     internal double RightDecayPerNanometre { get; }
 
-    internal ElementEnds Ends(int i) => new(Psi[i], DerivativeOverMass[i], Psi[i + 1], DerivativeOverMass[i + 1]);
+    private readonly ElementEnds[] _ends;
+
+    /// <summary>The state at both ends of element <paramref name="i"/>, the two ends joined by one exact propagation.</summary>
+    internal ElementEnds Ends(int i) => _ends[i];
+
+    /// <summary>
+    /// Quadrature nodes shared by a set of states of one sequence (null: none): where two of them are too close in energy for
+    /// the kernel's closed form, the quadrature then reuses each state's node values instead of recomputing them per pair.
+    /// </summary>
+    internal NodeLayout? Nodes { get; private set; }
+
+    private double[]? _nodePsi;
+    private double[]? _nodeW;
+
+    /// <summary>Shares <paramref name="layout"/> (built for an energy window holding this state's energy).</summary>
+    internal KernelState WithNodes(NodeLayout layout)
+    {
+        Nodes = layout;
+        return this;
+    }
+
+    /// <summary>
+    /// ψ and ψ′/m at the nodes of <see cref="Nodes"/> in element <paramref name="i"/>, computed on first use per element
+    /// (idempotent, so a race only repeats the work).
+    /// </summary>
+    private (double[] Psi, double[] W) NodeValues(int i)
+    {
+        var layout = Nodes!;
+        var psi = _nodePsi ??= new double[layout.Count];
+        var w = _nodeW ??= new double[layout.Count];
+        var done = _sampled ??= new bool[Kernel.Count];
+        if (!done[i] && layout.Panels[i] > 0)
+        {
+            var span = new Range(layout.Offsets[i], layout.Offsets[i + 1]);
+            Kernel.SampleNodes(i, EnergyElectronVolts, Ends(i), layout.Panels[i], psi.AsSpan(span), w.AsSpan(span));
+            done[i] = true;
+        }
+        return (psi, w);
+    }
+
+    private bool[]? _sampled;
 
     /// <summary>A bound state on its own stack, with its tails.</summary>
     internal static KernelState Of(BoundWavefunction wave)
@@ -55,7 +113,7 @@ internal sealed class KernelState
         var w = new double[n + 1];
         wave.BoundaryStates(psi, w);
         var e = wave.EnergyElectronVolts;
-        return new KernelState(profile.Kernel, e, psi, w, profile.LeftDecay(e), profile.RightDecay(e));
+        return new KernelState(profile.Kernel, e, psi, w, profile.LeftDecay(e), profile.RightDecay(e), wave.JoinIndex);
     }
 
     /// <summary>
@@ -66,6 +124,7 @@ internal sealed class KernelState
     {
         var inner = Of(wave);
         var n = inner.Psi.Length - 1;
+        var join = wave.JoinIndex + 1;
         var psi = new double[n + 3];
         var w = new double[n + 3];
         Array.Copy(inner.Psi, 0, psi, 1, n + 1);
@@ -77,7 +136,7 @@ internal sealed class KernelState
         w[0] = inner.LeftDecayPerNanometre / stack.Stack.LeftLead.MassElectronMasses * psi[0];
         psi[n + 2] = psi[n + 1] * Math.Exp(-inner.RightDecayPerNanometre * rightMargin);
         w[n + 2] = -inner.RightDecayPerNanometre / stack.RightLead.MassElectronMasses * psi[n + 2];
-        return new KernelState(domain, inner.EnergyElectronVolts, psi, w, 0, 0);
+        return new KernelState(domain, inner.EnergyElectronVolts, psi, w, 0, 0, join);
     }
 
     /// <summary>A state on a finite domain (no tails), from its boundary values.</summary>
@@ -86,7 +145,7 @@ internal sealed class KernelState
     /// <summary>
     /// ∫ψ_aψ_b, ∫(x − origin)ψ_aψ_b and ∫ψ_aψ_b′ over the whole line (tails included) for two states on sequences with the same
     /// element boundaries; x from the start of the sequence. <paramref name="normScale"/>: the size of the two states' norms
-    /// (1: normalised; 0: unknown), which lets the kernel take its closed form where a barrier's share is negligible.
+    /// (1: normalised or of order one), against which the kernel judges its closed form's rounding.
     /// </summary>
     internal static (double Overlap, double Moment, double Momentum) Pair(KernelState a, KernelState b, double originNanometres, double normScale = 1)
     {
@@ -95,9 +154,25 @@ internal sealed class KernelState
         double overlap = 0, moment = 0, momentum = 0;
         for (var i = 0; i < n; i++)
         {
-            var pair = ReferenceEquals(a.Kernel, b.Kernel)
-                ? kernel.PairIntegrals(i, a.EnergyElectronVolts, a.Ends(i), b.EnergyElectronVolts, b.Ends(i), normScale)
-                : CompiledCell.PairQuadrature(a.Kernel, i, a.EnergyElectronVolts, a.Ends(i), b.Kernel, b.EnergyElectronVolts, b.Ends(i));
+            PairMoments pair;
+            if (!ReferenceEquals(a.Kernel, b.Kernel))
+            {
+                pair = CompiledCell.PairQuadrature(a.Kernel, i, a.EnergyElectronVolts, a.Ends(i), b.Kernel, b.EnergyElectronVolts, b.Ends(i));
+            }
+            else if (!kernel.TryPairClosedForm(i, a.EnergyElectronVolts, a.Ends(i), b.EnergyElectronVolts, b.Ends(i), normScale, out pair))
+            {
+                if (a.Nodes is { } layout && ReferenceEquals(layout, b.Nodes))
+                {
+                    var (psiA, _) = a.NodeValues(i);
+                    var (psiB, wB) = b.NodeValues(i);
+                    var span = new Range(layout.Offsets[i], layout.Offsets[i + 1]);
+                    pair = kernel.NodePair(i, b.EnergyElectronVolts, layout.Panels[i], psiA.AsSpan(span), psiB.AsSpan(span), wB.AsSpan(span));
+                }
+                else
+                {
+                    pair = CompiledCell.PairQuadrature(kernel, i, a.EnergyElectronVolts, a.Ends(i), kernel, b.EnergyElectronVolts, b.Ends(i));
+                }
+            }
             overlap += pair.Overlap;
             moment += pair.LocalMoment + (kernel.Start(i) - originNanometres) * pair.Overlap;
             momentum += pair.Momentum;
@@ -131,4 +206,25 @@ internal sealed class KernelState
         leftTail = LeftDecayPerNanometre > 0 ? Psi[0] * Psi[0] / (2 * LeftDecayPerNanometre) : 0;
         rightTail = RightDecayPerNanometre > 0 ? Psi[^1] * Psi[^1] / (2 * RightDecayPerNanometre) : 0;
     }
+}
+
+/// <summary>Per element of one sequence: the quadrature panels for an energy window and where each element's nodes start.</summary>
+internal sealed class NodeLayout
+{
+    internal NodeLayout(CompiledCell kernel, double lowerElectronVolts, double upperElectronVolts)
+    {
+        Panels = new int[kernel.Count];
+        Offsets = new int[kernel.Count + 1];
+        for (var i = 0; i < kernel.Count; i++)
+        {
+            Panels[i] = kernel.Panels(i, lowerElectronVolts, upperElectronVolts);
+            Offsets[i + 1] = Offsets[i] + Panels[i] * Numerics.GaussLegendre.Twenty.Order;
+        }
+    }
+
+    internal int[] Panels { get; }
+
+    internal int[] Offsets { get; }
+
+    internal int Count => Offsets[^1];
 }

@@ -109,7 +109,7 @@ public sealed class MinibandTransitions
                 for (var q = 0; q < 2; q++)
                 {
                     // The kernel's exact integrals of the real basis solutions, combined bilinearly.
-                    var (o, m, _) = KernelState.Pair(basis1[p], basis2[q], 0, normScale: 0);
+                    var (o, m, _) = KernelState.Pair(basis1[p], basis2[q], 0);
                     var weight = Complex.Conjugate(c1[p]) * c2[q];
                     overlap += weight * o;
                     moment += weight * m;

@@ -149,6 +149,9 @@ public sealed class BoundWavefunction
         }
     }
 
+    /// <summary>Elements before this index are represented from their left end (the left shooting piece), the others from their right end.</summary>
+    internal int JoinIndex => _leftPiece;
+
     /// <summary>The compiled stack the state lives on.</summary>
     internal StackProfile Profile => _profile;
 

@@ -19,13 +19,6 @@ internal readonly record struct PairMoments(double Overlap, double LocalMoment, 
 internal sealed partial class CompiledCell
 {
     /// <summary>
-    /// The closed form is used when |E_a − E_b| is at least this fraction of the element's energy scale (the largest |E − V| at
-    /// either end, and C/(m w²)): its two divisions by E_a − E_b then cost at most (1/this)² = 1e6 ulps of the element's own
-    /// magnitudes (≈ 1e-10 relative); closer energies take the quadrature.
-    /// </summary>
-    internal const double PairClosedFormMinSeparation = 1e-3;
-
-    /// <summary>
     /// ∫ψ_aψ_b, ∫yψ_aψ_b and ∫ψ_aψ_b′ over element <paramref name="i"/> for two states of this sequence at energies
     /// <paramref name="ea"/> and <paramref name="eb"/>, each given by its values at both ends of the element.
     /// </summary>
@@ -37,10 +30,12 @@ internal sealed partial class CompiledCell
     /// ∫ψ_aψ_b = C[W]/ΔE; G = ((2V − E_a − E_b)/(mΔE))ψ_aψ_b − (2C/ΔE)w_a w_b has G′ = W + (2V′/(mΔE))ψ_aψ_b, so
     /// ∫W = [G] − (2V′/(mΔE))∫ψ_aψ_b and ∫yψ_aψ_b = (C/ΔE)([yW] − ∫W); and ∫ψ_aψ_b′ = m∫ψ_a w_b = ½[ψ_aψ_b] + ½m∫W.
     /// Every integral is then a closed form in the end values: no sampling.</para>
-    /// <para>Where E_a and E_b are too close for that (<see cref="PairClosedFormMinSeparation"/>), for a non-parabolic layer
-    /// (the two masses differ) and for equal energies, the integrals are taken by 20-point Gauss–Legendre quadrature on panels
-    /// of at most a quarter wave or decay length of the closed-form states (<see cref="PairQuadrature"/>), exact to rounding for
-    /// these entire functions. A delta barrier has zero width: all three are zero.</para>
+    /// <para>The two divisions by ΔE amplify rounding: the closed form is taken where a first-order bound on its error (machine
+    /// epsilon times the terms that cancel, times e^(κw) under a barrier, where the propagation's intermediates exceed the end
+    /// values), stays below <see cref="PairAbsoluteTolerance"/> of the states' norms. Elsewhere (close energies, a
+    /// non-parabolic layer whose two masses differ, equal energies) the integrals are taken by 20-point Gauss–Legendre
+    /// quadrature of the closed-form states on panels of at most half a wave or decay length (<see cref="PairQuadrature"/>),
+    /// exact to rounding for these entire functions. A delta barrier has zero width: all three are zero.</para>
     /// </remarks>
     /// <param name="i">The element.</param>
     /// <param name="ea">Energy of state a, eV.</param>
@@ -48,16 +43,23 @@ internal sealed partial class CompiledCell
     /// <param name="eb">Energy of state b, eV.</param>
     /// <param name="b">State b at the element's ends.</param>
     /// <param name="normScale">
-    /// The size of ∫ψ_a² and ∫ψ_b² over the whole line (1 for normalised states; 0 when unknown): the closed form is also taken
-    /// where the energies are close relative to the element's scale but its rounding error, estimated term by term, stays below
-    /// <see cref="PairAbsoluteTolerance"/> of it (a barrier the states barely reach, whose |E − V| dwarfs E_a − E_b).
+    /// The size of ∫ψ_a² and ∫ψ_b² over the whole line (1 for normalised states or states of order one); the closed form is
+    /// taken where its estimated rounding error stays below <see cref="PairAbsoluteTolerance"/> of it; 0 forces the quadrature.
     /// </param>
-    internal PairMoments PairIntegrals(int i, double ea, in ElementEnds a, double eb, in ElementEnds b, double normScale = 0)
+    internal PairMoments PairIntegrals(int i, double ea, in ElementEnds a, double eb, in ElementEnds b, double normScale = 1) =>
+        TryPairClosedForm(i, ea, a, eb, b, normScale, out var pair) ? pair : PairQuadrature(this, i, ea, a, this, eb, b);
+
+    /// <summary>
+    /// The closed form of <see cref="PairIntegrals"/> where it is well conditioned (true), else false and nothing; a delta gives
+    /// zeros (true).
+    /// </summary>
+    internal bool TryPairClosedForm(int i, double ea, in ElementEnds a, double eb, in ElementEnds b, double normScale, out PairMoments pair)
     {
+        pair = default;
         switch (_kinds[i])
         {
             case ElementKind.Delta:
-                return default;
+                return true;
             case ElementKind.Layer:
             case ElementKind.LinearLayer:
                 break;
@@ -72,12 +74,17 @@ internal sealed partial class CompiledCell
         var v1 = v0 + slope * width;
         var mass = _data[at + ElementData.Mass];
         var de = ea - eb;
-        var scale = Math.Max(Math.Max(Math.Max(Math.Abs(ea - v0), Math.Abs(ea - v1)), Math.Max(Math.Abs(eb - v0), Math.Abs(eb - v1))), C / (mass * width * width));
         var parabolic = _kinds[i] == ElementKind.LinearLayer || _data[at + ElementData.MassSlope] == 0;
-        if (!parabolic || de == 0 || !(Math.Abs(de) >= PairClosedFormMinSeparation * scale
-            || ClosedFormError(a, b, de, v0, v1, ea + eb, slope, mass, width) <= PairAbsoluteTolerance * normScale))
+        if (!parabolic || de == 0)
         {
-            return PairQuadrature(this, i, ea, a, this, eb, b);
+            return false;
+        }
+        // The end values are consistent to rounding of the largest intermediate of the propagation across the element, which
+        // under a barrier exceeds them by up to e^(κw).
+        var growth = Math.Exp(Math.Min(700, Math.Sqrt(Math.Max(0, mass / C * Math.Max(Math.Max(v0, v1) - Math.Min(ea, eb), 0))) * width));
+        if (!(growth * ClosedFormError(a, b, de, v0, v1, ea + eb, slope, mass, width) <= PairAbsoluteTolerance * normScale))
+        {
+            return false;
         }
         var w0 = a.U0 * b.W0 - b.U0 * a.W0;
         var w1 = a.U1 * b.W1 - b.U1 * a.W1;
@@ -87,7 +94,8 @@ internal sealed partial class CompiledCell
         var integralW = g1 - g0 - 2 * slope / (mass * de) * overlap;
         var moment = C / de * (width * w1 - integralW);
         var momentum = 0.5 * (a.U1 * b.U1 - a.U0 * b.U0) + 0.5 * mass * integralW;
-        return new PairMoments(overlap, moment, momentum);
+        pair = new PairMoments(overlap, moment, momentum);
+        return true;
     }
 
     /// <summary>Absolute rounding error, relative to the states' norms, below which the closed form is taken whatever ΔE.</summary>
@@ -117,9 +125,9 @@ internal sealed partial class CompiledCell
     /// e.g. electrons and holes of one structure, or the same sequence twice).
     /// </summary>
     /// <remarks>
-    /// 20-point Gauss–Legendre (W. H. Press et al., Numerical Recipes, 3rd ed., §4.6) on panels with √|s|·h ≤ π/2 for both
-    /// states (as for ∫ψ² in <see cref="Propagate"/>), the states evaluated in closed form at each node by
-    /// <see cref="StateInside"/>.
+    /// 20-point Gauss–Legendre (W. H. Press et al., Numerical Recipes, 3rd ed., §4.6) on panels with √|s|·h ≤ π for both
+    /// states (<see cref="Panels"/>), the states evaluated in closed form at each node by
+    /// <see cref="StateInside"/> (<see cref="SampleNodes"/>, <see cref="NodePair"/>).
     /// </remarks>
     internal static PairMoments PairQuadrature(CompiledCell kernelA, int i, double ea, in ElementEnds a, CompiledCell kernelB, double eb, in ElementEnds b)
     {
@@ -127,24 +135,68 @@ internal sealed partial class CompiledCell
         {
             return default;
         }
-        var width = kernelA._data[ElementData.Stride * i + ElementData.Width];
-        var reach = Math.Max(kernelA.Reach(i, ea), kernelB.Reach(i, eb));
-        var panels = (int)Math.Clamp(Math.Ceiling(reach / (0.5 * Math.PI)), 1, int.MaxValue / 2);
-        var h = width / panels;
+        var panels = Math.Max(kernelA.Panels(i, ea, ea), kernelB.Panels(i, eb, eb));
+        var count = panels * GaussLegendre.Twenty.Order;
+        Span<double> psiA = count <= 512 ? stackalloc double[count] : new double[count];
+        Span<double> psiB = count <= 512 ? stackalloc double[count] : new double[count];
+        Span<double> wB = count <= 512 ? stackalloc double[count] : new double[count];
+        kernelA.SampleNodes(i, ea, a, panels, psiA, default);
+        kernelB.SampleNodes(i, eb, b, panels, psiB, wB);
+        return kernelB.NodePair(i, eb, panels, psiA, psiB, wB);
+    }
+
+    /// <summary>
+    /// Panels of the quadrature over element <paramref name="i"/> for states with energies in [<paramref name="lower"/>,
+    /// <paramref name="upper"/>]: √|s|·h ≤ π for every one of them (|s| is largest at an end of the window), so a product of two
+    /// turns or grows by at most 2π per panel, where the 20-point rule's error term, of order (2π)^40/40!·(20!)⁴/(40!)², is
+    /// far below rounding; 0 for a delta.
+    /// </summary>
+    internal int Panels(int i, double lower, double upper) => _kinds[i] == ElementKind.Delta
+        ? 0
+        : (int)Math.Clamp(Math.Ceiling(Math.Max(Reach(i, lower), Reach(i, upper)) / Math.PI), 1, int.MaxValue / 2);
+
+    /// <summary>
+    /// ψ (and ψ′/m where <paramref name="derivativeOverMass"/> is not empty) of a state at the 20 Gauss–Legendre nodes of each of
+    /// <paramref name="panels"/> equal panels of element <paramref name="i"/>, by <see cref="StateInside"/>.
+    /// </summary>
+    internal void SampleNodes(int i, double e, in ElementEnds ends, int panels, Span<double> psi, Span<double> derivativeOverMass)
+    {
         var rule = GaussLegendre.Twenty;
-        double overlap = 0, moment = 0, momentum = 0;
+        var h = _data[ElementData.Stride * i + ElementData.Width] / panels;
+        var q = 0;
         for (var p = 0; p < panels; p++)
         {
-            for (var g = 0; g < rule.Order; g++)
+            for (var g = 0; g < rule.Order; g++, q++)
             {
-                var y = (p + 0.5 + 0.5 * rule.Nodes[g]) * h;
+                StateInside(i, e, ends, (p + 0.5 + 0.5 * rule.Nodes[g]) * h, out psi[q], out var w);
+                if (!derivativeOverMass.IsEmpty)
+                {
+                    derivativeOverMass[q] = w;
+                }
+            }
+        }
+    }
+
+    /// <summary>
+    /// The integrals of a pair from its samples at the nodes of <see cref="SampleNodes"/> (state b, of energy <paramref name="eb"/>,
+    /// of this sequence, for the mass in ψ_b′ = m·w_b).
+    /// </summary>
+    internal PairMoments NodePair(int i, double eb, int panels, ReadOnlySpan<double> psiA, ReadOnlySpan<double> psiB, ReadOnlySpan<double> wB)
+    {
+        var rule = GaussLegendre.Twenty;
+        var h = _data[ElementData.Stride * i + ElementData.Width] / panels;
+        var mass = MassAt(i, eb);
+        double overlap = 0, moment = 0, momentum = 0;
+        var q = 0;
+        for (var p = 0; p < panels; p++)
+        {
+            for (var g = 0; g < rule.Order; g++, q++)
+            {
                 var weight = 0.5 * h * rule.Weights[g];
-                kernelA.StateInside(i, ea, a, y, out var psiA, out _);
-                kernelB.StateInside(i, eb, b, y, out var psiB, out var wB);
-                var product = weight * psiA * psiB;
+                var product = weight * psiA[q] * psiB[q];
                 overlap += product;
-                moment += product * y;
-                momentum += weight * psiA * kernelB.MassAt(i, eb) * wB;
+                moment += product * (p + 0.5 + 0.5 * rule.Nodes[g]) * h;
+                momentum += weight * psiA[q] * mass * wB[q];
             }
         }
         return new PairMoments(overlap, moment, momentum);
@@ -161,14 +213,9 @@ internal sealed partial class CompiledCell
         {
             return 0;
         }
-        var at = ElementData.Stride * i;
-        var width = _data[at + ElementData.Width];
-        var v0 = _data[at + ElementData.Potential];
-        var slope = _kinds[i] == ElementKind.LinearLayer ? _data[at + ElementData.PotentialSlope] : 0;
-        var mass = _data[at + ElementData.Mass];
+        var width = _data[ElementData.Stride * i + ElementData.Width];
         var de = ea - eb;
-        var scale = Math.Max(Math.Max(Math.Abs(ea - v0), Math.Abs(ea - v0 - slope * width)), Math.Max(Math.Max(Math.Abs(eb - v0), Math.Abs(eb - v0 - slope * width)), C / (mass * width * width)));
-        var closed = (_kinds[i] == ElementKind.LinearLayer || _data[at + ElementData.MassSlope] == 0) && Math.Abs(de) >= PairClosedFormMinSeparation * scale;
+        var closed = TryPairClosedForm(i, ea, a, eb, b, 1, out _);
         var wronskian0 = a.U0 * b.W0 - b.U0 * a.W0;
         var panels = (int)Math.Clamp(Math.Ceiling(Math.Max(Reach(i, ea), Reach(i, eb)) / (0.5 * Math.PI)), 1, int.MaxValue / 2);
         var h = width / panels;
@@ -329,6 +376,33 @@ internal sealed partial class CompiledCell
             default:
                 throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
                     $"element {i} is a smooth segment; integrals of states over it come from Propagate."), nameof(i));
+        }
+    }
+
+    /// <summary>
+    /// The state across element <paramref name="i"/>, unscaled: from (u, w) at its left end to its right end
+    /// (<paramref name="forward"/>), or from its right end to its left end. A delta applies its jump of ψ′/m.
+    /// </summary>
+    internal (double U, double W) Across(int i, double e, double u, double w, bool forward)
+    {
+        switch (_kinds[i])
+        {
+            case ElementKind.Delta:
+                return forward ? (u, w + DeltaJump(i) * u) : (u, w - DeltaJump(i) * u);
+            case ElementKind.Layer:
+            {
+                var width = _data[ElementData.Stride * i + ElementData.Width];
+                return LayerStateAt(i, e, u, w, forward ? width : -width);
+            }
+            case ElementKind.LinearLayer:
+            {
+                ElementMatrix(i, e, out var m11, out var m12, out var m21, out var m22, out var logScale);
+                var grow = Math.Exp(logScale);
+                return forward ? ((m11 * u + m12 * w) * grow, (m21 * u + m22 * w) * grow) : ((m22 * u - m12 * w) * grow, (-m21 * u + m11 * w) * grow);
+            }
+            default:
+                throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
+                    $"element {i} is a smooth segment; states of pairs are carried across layers and deltas only."), nameof(i));
         }
     }
 
