@@ -14,7 +14,7 @@ public sealed partial class BoundStateSpectrumTest
     {
         // A wall (left lead 1e5 eV) and a layer whose potential rises as F·x under a negative bias: a triangular well with levels
         // E_n = −a_n (C F²/m)^(1/3), a_n the zeros of Ai (M. Abramowitz, I. A. Stegun, Handbook of Mathematical Functions,
-        // Table 10.13: a_1 = −2.33810741, a_2 = −4.08794944, a_3 = −5.52055983) [read]. Each layer is propagated by the biased
+        // Table 10.13: a_1 = −2.33810741, a_2 = −4.08794944, a_3 = −5.52055983; from memory). Each layer is propagated by the biased
         // kernel (Airy functions or the sublayer series) and the levels found by its Sturm count.
         const double mass = 0.067, width = 200, drop = 0.4, wall = 1e5;
         var stack = LayerStack.Create(Lead.Create(Energy.FromElectronVolts(wall), EffectiveMass.FromElectronMasses(mass)),
