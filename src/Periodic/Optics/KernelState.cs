@@ -38,6 +38,7 @@ internal sealed class KernelState
                 _ends[i] = new ElementEnds(u0, w0, psi[i + 1], w[i + 1]);
             }
         }
+        _join = join;
         Kernel = kernel;
         EnergyElectronVolts = energy;
         Psi = psi;
@@ -63,6 +64,7 @@ internal sealed class KernelState
     internal double RightDecayPerNanometre { get; }
 
     private readonly ElementEnds[] _ends;
+    private readonly int _join;
 
     /// <summary>The state at both ends of element <paramref name="i"/>, the two ends joined by one exact propagation.</summary>
     internal ElementEnds Ends(int i) => _ends[i];
@@ -201,7 +203,7 @@ internal sealed class KernelState
     {
         for (var i = 0; i < Kernel.Count; i++)
         {
-            destination[i] = Kernel.SquareIntegral(i, EnergyElectronVolts, Ends(i));
+            destination[i] = Kernel.SquareIntegral(i, EnergyElectronVolts, Ends(i), fromLeft: i < _join);
         }
         leftTail = LeftDecayPerNanometre > 0 ? Psi[0] * Psi[0] / (2 * LeftDecayPerNanometre) : 0;
         rightTail = RightDecayPerNanometre > 0 ? Psi[^1] * Psi[^1] / (2 * RightDecayPerNanometre) : 0;

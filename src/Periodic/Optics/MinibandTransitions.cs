@@ -162,8 +162,8 @@ public sealed class MinibandTransitions
         double n00 = 0, n01 = 0, n11 = 0;
         for (var j = 0; j < n; j++)
         {
-            n00 += profile.Kernel.SquareIntegral(j, energy, basis[0].Ends(j));
-            n11 += profile.Kernel.SquareIntegral(j, energy, basis[1].Ends(j));
+            n00 += profile.Kernel.SquareIntegral(j, energy, basis[0].Ends(j), fromLeft: true);
+            n11 += profile.Kernel.SquareIntegral(j, energy, basis[1].Ends(j), fromLeft: true);
             n01 += profile.Kernel.PairIntegrals(j, energy, basis[0].Ends(j), energy, basis[1].Ends(j)).Overlap;
         }
         var norm = a.Magnitude * a.Magnitude * n00 + 2 * (Complex.Conjugate(a) * b2).Real * n01 + b2.Magnitude * b2.Magnitude * n11;

@@ -91,8 +91,8 @@ internal sealed class QuasiBoundState
         double a00 = 0, a01 = 0, a11 = 0, d00 = 0, d01 = 0, d11 = 0;
         for (var i = 0; i < n; i++)
         {
-            var p00 = kernel.SquareIntegral(i, energy, basis[0].Ends(i));
-            var p11 = kernel.SquareIntegral(i, energy, basis[1].Ends(i));
+            var p00 = kernel.SquareIntegral(i, energy, basis[0].Ends(i), fromLeft: true);
+            var p11 = kernel.SquareIntegral(i, energy, basis[1].Ends(i), fromLeft: true);
             var p01 = kernel.PairIntegrals(i, energy, basis[0].Ends(i), energy, basis[1].Ends(i)).Overlap;
             d00 += p00; d01 += p01; d11 += p11;
             if (i >= 1 && i <= n - 2)

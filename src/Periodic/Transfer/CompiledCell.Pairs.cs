@@ -351,12 +351,12 @@ internal sealed partial class CompiledCell
     }
 
     /// <summary>
-    /// ∫ψ² over element <paramref name="i"/> for the state with end values <paramref name="ends"/> at <paramref name="e"/>: in closed
-    /// form for a uniform layer (<see cref="LogLayerIntegral"/>), by quadrature for a linear one (<see cref="LogLinearLayerIntegral"/>),
-    /// each taken from the end where |ψ| is smaller, from which the state grows into the element (so a decaying state's
-    /// growing part, zero up to rounding, is not amplified); zero for a delta.
+    /// ∫ψ² over element <paramref name="i"/> for the state with end values <paramref name="ends"/> at <paramref name="e"/>, taken
+    /// from the end the state was propagated from (<paramref name="fromLeft"/>: the left one), whose values represent it
+    /// exactly: in closed form for a uniform layer (<see cref="LogLayerIntegral"/>), by quadrature for a linear one
+    /// (<see cref="LogLinearLayerIntegral"/>); zero for a delta.
     /// </summary>
-    internal double SquareIntegral(int i, double e, in ElementEnds ends)
+    internal double SquareIntegral(int i, double e, in ElementEnds ends, bool fromLeft)
     {
         switch (_kinds[i])
         {
@@ -365,12 +365,12 @@ internal sealed partial class CompiledCell
             case ElementKind.Layer:
             {
                 LayerCoefficients(i, e, out var mass, out _);
-                return Math.Abs(ends.U0) <= Math.Abs(ends.U1)
+                return fromLeft
                     ? Math.Exp(LogLayerIntegral(i, e, ends.U0, mass * ends.W0))
                     : Math.Exp(LogLayerIntegral(i, e, ends.U1, -mass * ends.W1));
             }
             case ElementKind.LinearLayer:
-                return Math.Abs(ends.U0) <= Math.Abs(ends.U1)
+                return fromLeft
                     ? Math.Exp(LogLinearLayerIntegral(i, e, ends.U0, ends.W0, fromLeft: true))
                     : Math.Exp(LogLinearLayerIntegral(i, e, ends.U1, ends.W1, fromLeft: false));
             default:
