@@ -99,7 +99,7 @@ internal sealed partial class CompiledCell
     }
 
     /// <summary>Absolute rounding error, relative to the states' norms, below which the closed form is taken whatever ΔE.</summary>
-    internal const double PairAbsoluteTolerance = 1e-13;
+    internal const double PairAbsoluteTolerance = 1e-12;
 
     /// <summary>
     /// A first-order bound on the rounding error of the closed form's three results (the largest of δ∫ψ_aψ_b, δ∫yψ_aψ_b/w and
