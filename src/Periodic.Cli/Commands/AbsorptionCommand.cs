@@ -39,6 +39,7 @@ internal static class AbsorptionCommand
         var command = new Command("absorption", "Intersubband absorption alpha(hbar w) of a stack for light polarised along the growth axis, from a sheet density or Fermi level at a temperature.");
         command.Arguments.Add(file);
         stackOptions.AddTo(command, false);
+        command.Options.Add(stackOptions.Bias);
         foreach (var option in new Option[] { temperature, density, fermi, linewidth, shape, index, depolarisation, permittivity, repeats })
         {
             command.Options.Add(option);
@@ -103,7 +104,7 @@ internal static class AbsorptionCommand
             }
             var structure = Common.RequireRigid(Common.Load(result, result.GetValue(file)!), "absorption");
             var stack = stackOptions.Build(result, structure);
-            var spectrum = IntersubbandSpectrum.Compute(stack);
+            var spectrum = TransitionsCommand.Compute(stack, TransitionsCommand.ChooseBias(result, stackOptions, structure), null);
             var options = new AbsorptionOptions
             {
                 TemperatureKelvin = t,
@@ -264,6 +265,7 @@ internal static class AbsorptionCommand
         var stack = spectrum.Stack;
         var length = stack.Thickness.Nanometres;
         var pad = Math.Max(2, 0.15 * length);
+        var drop = spectrum.Bias.ElectronVolts;
         // The profile: step through the written-out layers.
         var xs = new List<double> { -pad, 0 };
         var vs = new List<double> { stack.LeftLead.Potential.ElectronVolts, stack.LeftLead.Potential.ElectronVolts };
@@ -277,19 +279,20 @@ internal static class AbsorptionCommand
                 {
                     if (element is Structures.Layer layer)
                     {
+                        // Under bias the potential drops linearly across the stack.
                         xs.Add(x);
-                        vs.Add(layer.Potential.ElectronVolts);
+                        vs.Add(layer.Potential.ElectronVolts - drop * x / length);
                         x += layer.Width.Nanometres;
                         xs.Add(x);
-                        vs.Add(layer.Potential.ElectronVolts);
+                        vs.Add(layer.Potential.ElectronVolts - drop * x / length);
                     }
                 }
             }
         }
         xs.Add(length);
-        vs.Add(stack.RightLead.Potential.ElectronVolts);
+        vs.Add(stack.RightLead.Potential.ElectronVolts - drop);
         xs.Add(length + pad);
-        vs.Add(stack.RightLead.Potential.ElectronVolts);
+        vs.Add(stack.RightLead.Potential.ElectronVolts - drop);
         var profile = plot.Add.ScatterLine(xs.ToArray(), vs.ToArray());
         profile.Color = Color.FromHex("#404040");
         profile.LineWidth = 2;

@@ -22,7 +22,7 @@ internal static class TransitionsCommand
     private static readonly string[] Carriers = ["electron", "heavy-hole", "light-hole", "interband"];
 
     internal const string IntersubbandLimits =
-        "Single-band envelope-function model (BenDaniel-Duke), light polarised along the growth axis, flat bands; band offsets and masses are uncertain by 10 % or more: confirm design numbers by measurement.";
+        "Single-band envelope-function model (BenDaniel-Duke), light polarised along the growth axis, flat bands or a uniform field from the bias (no space charge, no self-consistent potential); no excitons or many-body effects beyond the optional depolarisation shift; band offsets and masses are uncertain by 10 % or more: confirm design numbers by measurement.";
 
     internal const string InterbandLimits =
         "Single-band model for each carrier (no heavy/light-hole mixing, no strain), envelope overlaps only (no Kane/Bloch factor). Excitons are not modelled: their binding, typically 5-10 meV in GaAs wells, lowers the real edge and emission line by that much.";
@@ -41,6 +41,8 @@ internal static class TransitionsCommand
         public Option<double?> LeadPotential { get; } = new("--lead-potential") { Description = "Potential of both leads, eV (default: the file's stack, else the first layer's)." };
 
         public Option<double?> LeadMass { get; } = new("--lead-mass") { Description = "Effective mass in both leads, m0 (default: the file's stack, else the first layer's)." };
+
+        public Option<double?> Bias { get; } = TransmissionCommand.BiasOption();
 
         public void AddTo(Command command, bool withInterband)
         {
@@ -107,6 +109,7 @@ internal static class TransitionsCommand
         var command = new Command("transitions", "Optical transitions of a stack: intersubband energies, dipoles |z_if| and oscillator strengths with the f-sum check, or interband e-hh/e-lh energies, overlaps and wavelengths.");
         command.Arguments.Add(file);
         stackOptions.AddTo(command, true);
+        command.Options.Add(stackOptions.Bias);
         command.Options.Add(continuum);
         command.Options.Add(margin);
         command.Options.Add(mass);
@@ -130,13 +133,17 @@ internal static class TransitionsCommand
             string text;
             if (result.GetValue(stackOptions.Carrier) == "interband")
             {
+                if (result.GetValue(stackOptions.Bias) is { } b && b != 0)
+                {
+                    throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--bias {b:R} eV cannot be applied with --carrier interband: interband spectra are computed flat-band only. Allowed: --bias 0 or no --bias."));
+                }
                 text = RenderInterband(structure, result.GetValue(stackOptions.Periods), format);
             }
             else
             {
                 var stack = stackOptions.Build(result, structure);
                 var options = new IntersubbandOptions { ReferenceMassElectronMasses = m, IncludeQuasiBound = result.GetValue(continuum), DomainMarginNanometres = d ?? 20 };
-                text = Render(structure, IntersubbandSpectrum.Compute(stack, options), format);
+                text = Render(structure, Compute(stack, ChooseBias(result, stackOptions, structure), options), format);
             }
             Common.Emit(text, result.GetValue(output));
             return 0;
@@ -146,6 +153,33 @@ internal static class TransitionsCommand
 
     private static string R(double value) => Table.Number(value, "R");
 
+    /// <summary>
+    /// The bias for an intersubband spectrum: <c>--bias</c>, else the file's <c>stack.bias</c>; only for the file's own carrier (a
+    /// hole band's energies run the other way, and the file's bias belongs to its own stack).
+    /// </summary>
+    internal static (double ElectronVolts, string Source) ChooseBias(ParseResult result, StackOptions stackOptions, StructureDefinition structure)
+    {
+        var bias = TransmissionCommand.ChooseBias(result.GetValue(stackOptions.Bias), structure);
+        var carrier = result.GetValue(stackOptions.Carrier);
+        if (bias.ElectronVolts != 0 && carrier != "electron")
+        {
+            throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                $"{bias.Source} {bias.ElectronVolts:R} eV cannot be applied with --carrier {carrier}: a bias applies to the file's own carrier only. Allowed: --bias 0 for this carrier."));
+        }
+        return bias;
+    }
+
+    /// <summary>The spectrum under <paramref name="bias"/>; the library's refusal of a bias (an element that cannot take a field, too many elements) becomes a usage error.</summary>
+    internal static IntersubbandSpectrum Compute(LayerStack stack, (double ElectronVolts, string Source) bias, IntersubbandOptions? options)
+    {
+        if (bias.ElectronVolts == 0)
+        {
+            return IntersubbandSpectrum.Compute(stack, options);
+        }
+        TransmissionCommand.Compile(stack, bias.ElectronVolts, bias.Source); // validates the bias with the transmission's messages
+        return IntersubbandSpectrum.ComputeUnderBias(stack, Energy.FromElectronVolts(bias.ElectronVolts), options);
+    }
+
     public static string Render(StructureDefinition structure, IntersubbandSpectrum spectrum, OutputFormat format)
     {
         if (format == OutputFormat.Json)
@@ -153,9 +187,10 @@ internal static class TransitionsCommand
             return Common.Json(w =>
             {
                 Common.StructureHeader(w, structure);
-                Common.Units(w, ("energy", "eV"), ("dipole", "nm"), ("wavelength", "um"), ("width", "eV"), ("mass", "m0"), ("thickness", "nm"));
+                Common.Units(w, ("energy", "eV"), ("dipole", "nm"), ("wavelength", "um"), ("width", "eV"), ("mass", "m0"), ("thickness", "nm"), ("bias", "eV"), ("domain", "nm"));
                 w.WriteString("model", IntersubbandLimits);
                 w.WriteNumber("referenceMass", spectrum.ReferenceMassElectronMasses);
+                w.Number("bias", spectrum.Bias.ElectronVolts);
                 w.WriteNumber("normalisationError", spectrum.NormalisationError);
                 w.WriteStartObject("stack");
                 w.WriteNumber("thickness", spectrum.Stack.Thickness.Nanometres);
@@ -186,6 +221,12 @@ internal static class TransitionsCommand
                     w.WriteStartObject();
                     w.WriteNumber("from", t.From);
                     w.WriteNumber("to", t.To);
+                    w.WriteString("kind", Kind(spectrum, t));
+                    if (Domain(spectrum, t) is { } domain)
+                    {
+                        w.Number("domainStart", domain.Start);
+                        w.Number("domainEnd", domain.End);
+                    }
                     w.Number("energy", t.EnergyElectronVolts);
                     w.Number("wavelength", t.WavelengthMicrometres);
                     w.WriteBoolean("resolved", t.IsResolved);
@@ -229,15 +270,20 @@ internal static class TransitionsCommand
             });
         }
         var csv = format == OutputFormat.Csv;
-        var table = new Table("from", "to", csv ? "energy (eV)" : "energy (meV)", "wavelength (um)", "|z| (nm)", "f", "f_p", "status");
+        var table = new Table("from", "to", csv ? "energy (eV)" : "energy (meV)", "wavelength (um)", "|z| (nm)", "f", "f_p", "kind", "domain start (nm)", "domain end (nm)", "domain change", "status");
         foreach (var t in spectrum.Transitions)
         {
+            var domain = Domain(spectrum, t);
             table.Add(Table.Integer(t.From), Table.Integer(t.To),
                 csv ? R(t.EnergyElectronVolts) : Table.Number(t.EnergyElectronVolts * 1000, "F4"),
                 csv ? R(t.WavelengthMicrometres) : Table.Number(t.WavelengthMicrometres, "G6"),
                 t.IsResolved ? (csv ? R(Math.Abs(t.DipoleNanometres)) : Table.Number(Math.Abs(t.DipoleNanometres), "G8")) : "n/a",
                 t.IsResolved ? (csv ? R(t.OscillatorStrength) : Table.Number(t.OscillatorStrength, "G8")) : "n/a",
                 t.HasMomentumForm ? (csv ? R(t.MomentumOscillatorStrength) : Table.Number(t.MomentumOscillatorStrength, "G8")) : "n/a",
+                Kind(spectrum, t),
+                domain is { } a ? (csv ? R(a.Start) : Table.Number(a.Start, "G6")) : "",
+                domain is { } b ? (csv ? R(b.End) : Table.Number(b.End, "G6")) : "",
+                domain is null ? "" : csv ? R(t.DomainChangeFraction) : Table.Number(t.DomainChangeFraction, "G3"),
                 t.IsResolved ? "ok" : t.Status);
         }
         if (csv)
@@ -245,7 +291,12 @@ internal static class TransitionsCommand
             return table.ToCsv();
         }
         var text = Common.TableTitle(structure) + string.Create(CultureInfo.InvariantCulture,
-            $"{spectrum.BoundCount} bound and {Common.Plural(spectrum.Levels.Count - spectrum.BoundCount, "quasi-bound level")}; f with m* = {spectrum.ReferenceMassElectronMasses:G6} m0; integrals to {spectrum.NormalisationError:G2}\n");
+            $"{spectrum.BoundCount} bound and {Common.Plural(spectrum.Levels.Count - spectrum.BoundCount, "quasi-bound level")}; bias eU = {spectrum.Bias.ElectronVolts:G6} eV; f with m* = {spectrum.ReferenceMassElectronMasses:G6} m0; integrals to {spectrum.NormalisationError:G2}\n");
+        if (spectrum.Levels.FirstOrDefault(l => l.IsQuasiBound) is { } q)
+        {
+            text += string.Create(CultureInfo.InvariantCulture,
+                $"quasi-bound levels are normalised on [{q.DomainStartNanometres:G6}, {q.DomainEndNanometres:G6}] nm (the stack plus a margin of each lead); 'domain change' is the change of |z| when the margin is doubled\n");
+        }
         text += "levels (eV): " + string.Join(", ", spectrum.Levels.Select(l => string.Create(CultureInfo.InvariantCulture,
             $"{l.Number}: {l.EnergyElectronVolts:G8}{(l.IsQuasiBound ? string.Create(CultureInfo.InvariantCulture, $" (quasi-bound, width {l.WidthElectronVolts:G3})") : "")}"))) + "\n\n";
         text += table.ToText();
@@ -253,6 +304,22 @@ internal static class TransitionsCommand
         text += string.Create(CultureInfo.InvariantCulture,
             $"\nf-sum from level 1: {sum.BoundStrength:G8} (bound) + {sum.QuasiBoundStrength:G8} (quasi-bound) of {sum.ExpectedStrength:G8}; the rest, {sum.MissingStrength:G4}, lies in the continuum.\n");
         return text + IntersubbandLimits + "\n";
+    }
+
+    /// <summary>"bound-bound", "bound-quasi-bound" or "quasi-bound-quasi-bound".</summary>
+    private static string Kind(IntersubbandSpectrum spectrum, IntersubbandTransition t) =>
+        (spectrum.Levels[t.From - 1].IsQuasiBound, spectrum.Levels[t.To - 1].IsQuasiBound) switch
+        {
+            (false, false) => "bound-bound",
+            (false, true) => "bound-quasi-bound",
+            _ => "quasi-bound-quasi-bound",
+        };
+
+    /// <summary>The finite domain a transition's dipole is taken on (null: the whole line, between bound states).</summary>
+    private static (double Start, double End)? Domain(IntersubbandSpectrum spectrum, IntersubbandTransition t)
+    {
+        var upper = spectrum.Levels[t.To - 1];
+        return upper.IsQuasiBound ? (upper.DomainStartNanometres, upper.DomainEndNanometres) : null;
     }
 
     public static string RenderInterband(StructureDefinition structure, int? periods, OutputFormat format)

@@ -152,6 +152,10 @@ public sealed class AbsorptionSpectrum
             }
             var i = transition.From - 1;
             var f = transition.To - 1;
+            if (i >= nb)
+            {
+                continue; // between two quasi-bound levels: neither is occupied in this model
+            }
             var difference = occupations[i] - (f < nb ? occupations[f] : 0);
             var bare = transition.EnergyElectronVolts;
             var shift = 0.0;
@@ -178,64 +182,27 @@ public sealed class AbsorptionSpectrum
         public double Evaluate(double x) => density(x) - target;
     }
 
-    /// <summary>S = ∫F² dz, F(z) = ∫_{−∞}^z ψ_iψ_f, nm: closed-form lead tails, nested Gauss–Legendre inside.</summary>
+    /// <summary>
+    /// S = ∫F² dz, F(z) = ∫_{−∞}^z ψ_iψ_f, nm: the lead tails in closed form (F = P e^{Kz}/K on the left, −P e^{−K(z−L)}/K on the
+    /// right, the total overlap being zero), each element by the kernel (<see cref="Transfer.CompiledCell.CumulativeSquare"/>).
+    /// </summary>
     internal static double DepolarisationLength(IntersubbandSpectrum spectrum, int i, int f)
     {
-        var grid = spectrum.Grid;
-        var profile = grid.Profile;
-        var stack = spectrum.Stack;
-        var rule = GaussLegendre.Twenty;
-        var ei = spectrum.Levels[i].EnergyElectronVolts;
-        var ef = spectrum.Levels[f].EnergyElectronVolts;
-        var waveI = spectrum.Waves[i];
-        var waveF = spectrum.Waves[f];
-        var l = profile.Boundaries[^1];
-        double kl = stack.LeftLead.DecayConstantPerNanometre(ei) + stack.LeftLead.DecayConstantPerNanometre(ef);
-        double kr = stack.RightLead.DecayConstantPerNanometre(ei) + stack.RightLead.DecayConstantPerNanometre(ef);
-        var pl = waveI.ValueAt(0) * waveF.ValueAt(0);
-        var pr = waveI.ValueAt(l) * waveF.ValueAt(l);
-        // Left lead: F = P e^{Kz}/K; right lead: F = −P e^{−K(z−L)}/K (the total overlap is zero).
+        var a = spectrum.States[i];
+        var b = spectrum.States[f];
+        var kernel = a.Kernel;
+        var n = kernel.Count;
+        double kl = a.LeftDecayPerNanometre + b.LeftDecayPerNanometre;
+        double kr = a.RightDecayPerNanometre + b.RightDecayPerNanometre;
+        var pl = a.Psi[0] * b.Psi[0];
+        var pr = a.Psi[n] * b.Psi[n];
         var s = pl * pl / (2 * kl * kl * kl) + pr * pr / (2 * kr * kr * kr);
         var cumulative = pl / kl;
-        var inner = new double[rule.Nodes.Length];
-        var valuesI = new double[rule.Nodes.Length];
-        var valuesF = new double[rule.Nodes.Length];
-        var n = rule.Nodes.Length;
-        for (var j = 0; j < profile.Count; j++)
+        for (var j = 0; j < n; j++)
         {
-            var count = grid.LayerStart[j + 1] - grid.LayerStart[j];
-            if (count == 0)
-            {
-                continue;
-            }
-            var pieces = count / n;
-            var h = profile.Width(j) / pieces;
-            for (var p = 0; p < pieces; p++)
-            {
-                var a = profile.Boundaries[j] + p * h;
-                var first = grid.LayerStart[j] + p * n;
-                for (var q = 0; q < n; q++)
-                {
-                    var x = grid.Positions[first + q];
-                    for (var r = 0; r < n; r++)
-                    {
-                        inner[r] = a + 0.5 * (x - a) * (rule.Nodes[r] + 1);
-                    }
-                    waveI.Evaluate(inner, valuesI);
-                    waveF.Evaluate(inner, valuesF);
-                    double partial = 0;
-                    for (var r = 0; r < n; r++)
-                    {
-                        partial += 0.5 * (x - a) * rule.Weights[r] * valuesI[r] * valuesF[r];
-                    }
-                    var value = cumulative + partial;
-                    s += grid.Weights[first + q] * value * value;
-                }
-                for (var q = 0; q < n; q++)
-                {
-                    cumulative += grid.Weights[first + q] * spectrum.Samples[i][first + q] * spectrum.Samples[f][first + q];
-                }
-            }
+            var ends = (a.Ends(j), b.Ends(j));
+            s += kernel.CumulativeSquare(j, a.EnergyElectronVolts, ends.Item1, b.EnergyElectronVolts, ends.Item2, cumulative);
+            cumulative += kernel.PairIntegrals(j, a.EnergyElectronVolts, ends.Item1, b.EnergyElectronVolts, ends.Item2).Overlap;
         }
         return s;
     }

@@ -100,8 +100,7 @@ public sealed class InterbandSpectrum
         {
             throw new ArgumentException("recipe binds no electron level between its leads: interband transitions need at least one.", nameof(recipe));
         }
-        var profileE = new StackProfile(stackE, options.MaxElements, nameof(recipe));
-        var holes = new List<(Carrier Carrier, BuiltStructure Built, LayerStack Stack, BoundStateSpectrum Spectrum, StackProfile Profile)>();
+        var holes = new List<(Carrier Carrier, BuiltStructure Built, LayerStack Stack, BoundStateSpectrum Spectrum)>();
         foreach (var carrier in new[] { Carrier.HeavyHole, Carrier.LightHole })
         {
             var holeRecipe = electronRecipe.WithCarrier(carrier);
@@ -114,7 +113,7 @@ public sealed class InterbandSpectrum
             var built = holeRecipe.Build();
             var stack = StackOf(built, leftLeadMaterial, rightLeadMaterial);
             var spectrum = BoundStateSpectrum.Find(stack, options);
-            holes.Add((carrier, built, stack, spectrum, new StackProfile(stack, options.MaxElements, nameof(recipe))));
+            holes.Add((carrier, built, stack, spectrum));
         }
         if (holes.Sum(h => h.Spectrum.Levels.Count) == 0)
         {
@@ -122,19 +121,12 @@ public sealed class InterbandSpectrum
                 nameof(recipe));
         }
 
-        var windows = new List<(StackProfile, double, double)> { (profileE, electrons.Levels[0].EnergyElectronVolts, electrons.Levels[^1].EnergyElectronVolts) };
-        foreach (var h in holes.Where(h => h.Spectrum.Levels.Count > 0))
-        {
-            windows.Add((h.Profile, h.Spectrum.Levels[0].EnergyElectronVolts, h.Spectrum.Levels[^1].EnergyElectronVolts));
-        }
-        var grid = LayerIntegrals.Create(profileE, windows);
-        var length = stackE.Thickness.Nanometres;
-        var electronStates = Sample(grid, electrons, stackE, length);
+        var electronStates = States(electrons);
         var electronAbsolute = electrons.Levels.Select(l => builtE.ToAbsoluteElectronVolts(l.EnergyElectronVolts)).ToArray();
         var transitions = new List<InterbandTransition>();
         double[] heavyAbsolute = [], lightAbsolute = [];
         BoundStateSpectrum? heavy = null, light = null;
-        foreach (var (carrier, built, stack, spectrum, _) in holes)
+        foreach (var (carrier, built, _, spectrum) in holes)
         {
             var absolute = spectrum.Levels.Select(l => built.ToAbsoluteElectronVolts(l.EnergyElectronVolts)).ToArray();
             if (carrier == Carrier.HeavyHole)
@@ -147,17 +139,14 @@ public sealed class InterbandSpectrum
                 light = spectrum;
                 lightAbsolute = absolute;
             }
-            var holeStates = Sample(grid, spectrum, stack, length);
+            var holeStates = States(spectrum);
             for (var n = 0; n < electronStates.Length; n++)
             {
                 for (var m = 0; m < holeStates.Length; m++)
                 {
-                    var e = electronStates[n];
-                    var h = holeStates[m];
-                    grid.Inside(e.Values, h.Values, out var overlap, out _);
-                    grid.LeftTail(e.Left, e.KappaLeft, h.Left, h.KappaLeft, out var left, out _);
-                    grid.RightTail(e.Right, e.KappaRight, h.Right, h.KappaRight, out var right, out _);
-                    transitions.Add(new InterbandTransition(n + 1, carrier, m + 1, electronAbsolute[n] - absolute[m], overlap + left + right));
+                    // Electron and hole states obey different equations on the same layers: the kernel's quadrature of the pair.
+                    var (overlap, _, _) = KernelState.Pair(electronStates[n], holeStates[m], 0);
+                    transitions.Add(new InterbandTransition(n + 1, carrier, m + 1, electronAbsolute[n] - absolute[m], overlap));
                 }
             }
         }
@@ -179,18 +168,12 @@ public sealed class InterbandSpectrum
         return Lead.Create(layer.Potential, layer.Mass);
     }
 
-    private readonly record struct SampledState(double[] Values, double Left, double Right, double KappaLeft, double KappaRight);
-
-    private static SampledState[] Sample(LayerIntegrals grid, BoundStateSpectrum spectrum, LayerStack stack, double length)
+    private static KernelState[] States(BoundStateSpectrum spectrum)
     {
-        var states = new SampledState[spectrum.Levels.Count];
+        var states = new KernelState[spectrum.Levels.Count];
         for (var i = 0; i < states.Length; i++)
         {
-            var wave = spectrum.GetWavefunction(i);
-            var values = new double[grid.Count];
-            grid.Sample(wave, values, out var left, out var right);
-            var e = spectrum.Levels[i].EnergyElectronVolts;
-            states[i] = new SampledState(values, left, right, stack.LeftLead.DecayConstantPerNanometre(e), stack.RightLead.DecayConstantPerNanometre(e));
+            states[i] = KernelState.Of(spectrum.GetWavefunction(i));
         }
         return states;
     }

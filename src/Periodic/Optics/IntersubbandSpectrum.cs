@@ -17,13 +17,14 @@ namespace Periodic.Optics;
 /// <remarks>
 /// <para>Model: single-band envelope functions with BenDaniel–Duke matching; only the field component along z couples
 /// states of one band (common practice, e.g. M. Helm, in Semiconductors and Semimetals vol. 62, 2000). The stack is
-/// flat-band: a field is modelled by the caller as a staircase of thin layers. Excitonic and many-body effects are not
+/// flat-band, or under a uniform field (<see cref="ComputeUnderBias(LayerStack, Energy, IntersubbandOptions?)"/>: no space charge). Excitonic and many-body effects are not
 /// modelled here (see <see cref="AbsorptionSpectrum"/> for the depolarisation shift).</para>
 /// <para>Method: the bound states and their wavefunctions come from <see cref="BoundStateSpectrum"/>; the integrals
-/// ∫ψ_i z ψ_f are composite Gauss–Legendre sums per layer that are exact to rounding for these entire functions,
-/// plus the exponential tails in the leads in closed form. The momentum form uses the exact identity
-/// ∫ψ_iψ_f′ = ½Σ_j m_j ∫_j G, G(z) = (E_i − E_f)/(ħ²/2m₀)·∫_{−∞}^z ψ_iψ_f, so it needs only the same layer
-/// integrals. Reference mass: f = 2m*ω|z|²/ħ with m* = <see cref="ReferenceMassElectronMasses"/>.</para>
+/// ∫ψ_iψ_f, ∫ψ_i z ψ_f and ∫ψ_iψ_f′ are the propagation kernel's element integrals of pairs of states: closed forms in the
+/// states' values at the element ends from the Wronskian identities of the BenDaniel–Duke equation (exact for uniform layers
+/// and for layers under a field), with 20-point Gauss–Legendre quadrature of the closed-form states, exact to rounding, only
+/// where two energies nearly coincide or a layer is non-parabolic; plus the exponential tails in the leads in closed form.
+/// No wavefunction is sampled on a grid. Reference mass: f = 2m*ω|z|²/ħ with m* = <see cref="ReferenceMassElectronMasses"/>.</para>
 /// </remarks>
 public sealed class IntersubbandSpectrum
 {
@@ -34,14 +35,14 @@ public sealed class IntersubbandSpectrum
     private readonly double[,] _boundDipoles;
     private readonly double[] _quasiBoundSums;
 
-    private IntersubbandSpectrum(LayerStack stack, BoundStateSpectrum bound, OpticalLevel[] levels, IntersubbandTransition[] transitions,
+    private IntersubbandSpectrum(LayerStack stack, double bias, BoundStateSpectrum bound, OpticalLevel[] levels, IntersubbandTransition[] transitions,
         double[,] boundDipoles, double[] quasiBoundSums, double referenceMass, double normError, IntersubbandOptions options,
-        LayerIntegrals grid, BoundWavefunction[] waves, double[][] samples)
+        BoundWavefunction[] waves, KernelState[] states)
     {
-        Grid = grid;
         Waves = waves;
-        Samples = samples;
+        States = states;
         Stack = stack;
+        Bias = Energy.FromElectronVolts(bias);
         BoundStates = bound;
         _levels = levels;
         _transitions = transitions;
@@ -57,6 +58,9 @@ public sealed class IntersubbandSpectrum
     /// <summary>The stack.</summary>
     public LayerStack Stack { get; }
 
+    /// <summary>The potential drop eU across the stack (a uniform field; zero for a flat stack).</summary>
+    public Energy Bias { get; }
+
     /// <summary>The bound states the levels come from.</summary>
     public BoundStateSpectrum BoundStates { get; }
 
@@ -66,152 +70,148 @@ public sealed class IntersubbandSpectrum
     /// <summary>Number of bound levels (the first ones of <see cref="Levels"/>).</summary>
     public int BoundCount => _boundDipoles.GetLength(0);
 
-    /// <summary>Every upward transition from a bound level to any higher level, ordered by From, then To.</summary>
+    /// <summary>
+    /// Every upward transition from a bound level to any higher level, then (with quasi-bound levels) every upward transition
+    /// between two quasi-bound levels; ordered by From, then To.
+    /// </summary>
     public IReadOnlyList<IntersubbandTransition> Transitions { get; }
 
     /// <summary>The mass m* of the oscillator strengths, m0.</summary>
     public double ReferenceMassElectronMasses { get; }
 
-    /// <summary>Largest |∫ψ² − 1| of the bound states on the quadrature grid: the accuracy the integrals reached.</summary>
+    /// <summary>
+    /// Largest |∫ψ² − 1| of the bound states, the element integrals summed independently of the normalisation that made them 1:
+    /// the accuracy the integrals reached.
+    /// </summary>
     public double NormalisationError { get; }
 
     /// <summary>The options used.</summary>
     public IntersubbandOptions Options { get; }
 
-    internal LayerIntegrals Grid { get; }
-
     internal BoundWavefunction[] Waves { get; }
 
-    /// <summary>Bound-state wavefunctions on <see cref="Grid"/>.</summary>
-    internal double[][] Samples { get; }
+    /// <summary>The bound states as the kernel's integrals take them.</summary>
+    internal KernelState[] States { get; }
 
-    /// <summary>Computes the levels and every transition of <paramref name="stack"/>.</summary>
+    /// <summary>Computes the levels and every transition of <paramref name="stack"/> (flat, no bias).</summary>
     /// <exception cref="ArgumentNullException"><paramref name="stack"/> is null.</exception>
-    /// <exception cref="ArgumentException">The stack has no bound state to start from, holds an element other than layers and delta
-    /// barriers, or needs more than <see cref="IntersubbandOptions.MaxSamples"/> wavefunction samples.</exception>
+    /// <exception cref="ArgumentException">The stack has no bound state to start from, or holds an element other than layers and
+    /// delta barriers.</exception>
     /// <exception cref="ArgumentOutOfRangeException">An option is out of range.</exception>
-    public static IntersubbandSpectrum Compute(LayerStack stack, IntersubbandOptions? options = null)
+    public static IntersubbandSpectrum Compute(LayerStack stack, IntersubbandOptions? options = null) => ComputeUnderBias(stack, default, options);
+
+    /// <summary>
+    /// Computes the levels and every transition of <paramref name="stack"/> under an applied bias <paramref name="bias"/> = eU: a
+    /// uniform field across the layers, the right lead's band edge lowered by eU (as
+    /// <see cref="StackTransmission.Create(LayerStack, Energy)"/>). States below both lead edges stay bound (the leads are flat);
+    /// states above the higher edge are the biased stack's transmission resonances, quasi-bound, each normalised on the stated
+    /// finite domain (<see cref="IntersubbandOptions.DomainMarginNanometres"/>) whose convergence is reported per transition.
+    /// </summary>
+    /// <remarks>
+    /// Between the two lead edges a state can leak into the lower lead only; such states are neither bound nor transmission
+    /// peaks and are not computed (the result's levels say which energies they cover). The field is that of an ideal capacitor:
+    /// no space charge, no self-consistent potential.
+    /// </remarks>
+    /// <exception cref="ArgumentNullException"><paramref name="stack"/> is null.</exception>
+    /// <exception cref="ArgumentException">As <see cref="Compute(LayerStack, IntersubbandOptions?)"/>, and what
+    /// <see cref="StackTransmission.Create(LayerStack, Energy)"/> refuses under a non-zero bias (non-parabolic layers, too many elements).</exception>
+    /// <exception cref="ArgumentOutOfRangeException">An option or the bias is out of range.</exception>
+    public static IntersubbandSpectrum ComputeUnderBias(LayerStack stack, Energy bias, IntersubbandOptions? options = null)
     {
         ArgumentNullException.ThrowIfNull(stack);
         options ??= IntersubbandOptions.Default;
         options.Validate(nameof(options));
-        var bound = BoundStateSpectrum.Find(stack, options.BoundStates);
+        var drop = bias.ElectronVolts;
+        var bound = drop == 0 ? BoundStateSpectrum.Find(stack, options.BoundStates) : BoundStateSpectrum.FindUnderBias(stack, bias, options.BoundStates);
         if (bound.Levels.Count == 0)
         {
             throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
-                $"stack has no bound state below its lead band edge ({bound.ContinuumEdgeElectronVolts:G6} eV): intersubband transitions need at least one level to start from."),
+                $"stack has no bound state below its lead band edge ({bound.ContinuumEdgeElectronVolts:G6} eV{(drop == 0 ? "" : string.Create(CultureInfo.InvariantCulture, $", the lower of the two leads under the bias {drop:G6} eV"))}): intersubband transitions need at least one level to start from."),
                 nameof(stack));
         }
-        var profile = new StackProfile(stack, options.BoundStates.MaxElements, nameof(stack));
+        var profile = bound.Profile;
         var referenceMass = options.ReferenceMassElectronMasses ?? WellMass(profile, stack);
         var nb = bound.Levels.Count;
 
-        // Quasi-bound energies first: the grid must resolve the highest state.
         var resonances = new List<Resonance>();
         if (options.IncludeQuasiBound)
         {
-            var edge = Math.Max(stack.LeftLead.PotentialElectronVolts, stack.RightLead.PotentialElectronVolts);
+            var edge = Math.Max(stack.LeftLead.PotentialElectronVolts, profile.RightLead.PotentialElectronVolts);
             var top = Math.Max(edge, profile.Count == 0 ? edge : MaxPotential(profile));
             var upper = options.QuasiBoundUpperElectronVolts ?? top + 0.5 * (top - profile.MinimumPotentialElectronVolts);
             if (upper > edge)
             {
-                var transmission = StackTransmission.Create(stack);
+                var transmission = StackTransmission.Create(stack, bias);
                 resonances.AddRange(transmission.FindResonances(edge, upper, options.Resonances).Resonances);
             }
         }
-        var lowest = bound.Levels[0].EnergyElectronVolts;
-        var highest = bound.Levels[nb - 1].EnergyElectronVolts;
-        var grid = LayerIntegrals.Create(profile, lowest, highest);
-        if ((long)nb * grid.Count > IntersubbandOptions.MaxSamples)
-        {
-            throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
-                $"stack needs {nb} levels × {grid.Count} quadrature nodes = {(long)nb * grid.Count} wavefunction samples; at most {IntersubbandOptions.MaxSamples} are held at once (memory). Compute fewer levels (options.BoundStates.MaxLevels) or a thinner stack."),
-                nameof(stack));
-        }
 
         var waves = new BoundWavefunction[nb];
-        var samples = new double[nb][];
-        var left = new double[nb];
-        var right = new double[nb];
-        var kappaLeft = new double[nb];
-        var kappaRight = new double[nb];
+        var states = new KernelState[nb];
         var levels = new List<OpticalLevel>();
         var normError = 0.0;
         var n = profile.Count;
+        var norms = new double[n];
+        var layout = new NodeLayout(profile.Kernel, bound.Levels[0].EnergyElectronVolts, bound.Levels[nb - 1].EnergyElectronVolts);
         for (var i = 0; i < nb; i++)
         {
             waves[i] = bound.GetWavefunction(i);
-            samples[i] = new double[grid.Count];
-            grid.Sample(waves[i], samples[i], out left[i], out right[i]);
+            states[i] = KernelState.Of(waves[i]).WithNodes(layout);
             var e = bound.Levels[i].EnergyElectronVolts;
-            kappaLeft[i] = stack.LeftLead.DecayConstantPerNanometre(e);
-            kappaRight[i] = stack.RightLead.DecayConstantPerNanometre(e);
-            grid.LeftTail(left[i], kappaLeft[i], left[i], kappaLeft[i], out var pLeft, out _);
-            grid.RightTail(right[i], kappaRight[i], right[i], kappaRight[i], out var pRight, out _);
-            double norm = pLeft + pRight, mass = pLeft * stack.LeftLead.MassElectronMasses + pRight * stack.RightLead.MassElectronMasses;
-            double inverse = pLeft / stack.LeftLead.MassElectronMasses + pRight / stack.RightLead.MassElectronMasses;
+            states[i].ElementNorms(norms, out var pLeft, out var pRight);
+            double norm = pLeft + pRight, mass = pLeft * stack.LeftLead.MassElectronMasses + pRight * profile.RightLead.MassElectronMasses;
+            double inverse = pLeft / stack.LeftLead.MassElectronMasses + pRight / profile.RightLead.MassElectronMasses;
             for (var j = 0; j < n; j++)
             {
-                double p = 0;
-                for (var q = grid.LayerStart[j]; q < grid.LayerStart[j + 1]; q++)
+                if (profile.IsDelta(j))
                 {
-                    p += grid.Weights[q] * samples[i][q] * samples[i][q];
+                    continue;
                 }
-                profile.Kernel.LayerCoefficients(j, e, out var mj, out _);
-                norm += p;
-                mass += p * mj;
-                inverse += p / mj;
+                var mj = MassAt(profile, j, e);
+                norm += norms[j];
+                mass += norms[j] * mj;
+                inverse += norms[j] / mj;
             }
             normError = Math.Max(normError, Math.Abs(norm - 1));
-            var wave = waves[i];
             levels.Add(new OpticalLevel(i + 1, e, bound.Levels[i].ErrorElectronVolts, false, 0, bound.Levels[i].IsResolved, mass / norm, inverse / norm,
-                double.NegativeInfinity, double.PositiveInfinity, wave.ValueAt));
+                double.NegativeInfinity, double.PositiveInfinity, waves[i].ValueAt));
         }
 
-        // Bound-to-bound dipoles and momentum forms.
+        // Bound-to-bound dipoles and momentum forms: the kernel's exact element integrals plus the lead tails.
         var parabolic = IsParabolic(profile);
         var dipoles = new double[nb, nb];
         var momentum = new double[nb, nb];
-        var overlap = new double[n];
-        var moment = new double[n];
+        var origin = 0.5 * profile.Boundaries[n];
         for (var i = 0; i < nb; i++)
         {
             for (var f = i + 1; f < nb; f++)
             {
-                grid.PerLayer(samples[i], samples[f], overlap, moment);
-                grid.LeftTail(left[i], kappaLeft[i], left[f], kappaLeft[f], out var oLeft, out var zLeft);
-                grid.RightTail(right[i], kappaRight[i], right[f], kappaRight[f], out var oRight, out var zRight);
-                var z = zLeft + zRight;
-                // Σ_j m_j ∫_j F, F(x) = ∫_{−∞}^x ψ_iψ_f, in coordinates measured from the grid's origin.
-                var origin = grid.OriginNanometres;
-                var cumulative = oLeft;
-                var weighted = stack.LeftLead.MassElectronMasses * ((0 - origin) * cumulative - zLeft);
-                for (var j = 0; j < n; j++)
-                {
-                    z += moment[j];
-                    var a = profile.Boundaries[j] - origin;
-                    var b = profile.Boundaries[j + 1] - origin;
-                    var next = cumulative + overlap[j];
-                    weighted += profile.Mass(j) * (b * next - a * cumulative - moment[j]);
-                    cumulative = next;
-                }
-                weighted += stack.RightLead.MassElectronMasses * (-(profile.Boundaries[n] - origin) * cumulative - zRight);
+                var (_, z, p) = KernelState.Pair(states[i], states[f], origin);
                 dipoles[i, f] = dipoles[f, i] = z;
-                var de = bound.Levels[f].EnergyElectronVolts - bound.Levels[i].EnergyElectronVolts;
-                momentum[i, f] = 0.5 * (-de / C) * weighted; // ∫ψ_i ψ_f′, 1/nm
+                momentum[i, f] = p; // ∫ψ_i ψ_f′, 1/nm
             }
         }
 
-        // Quasi-bound levels.
+        // Quasi-bound levels, each on the domain and on the domain with twice the margin.
+        var margin = options.DomainMarginNanometres;
+        var domain = resonances.Count > 0 ? QuasiBoundState.DomainOf(stack, drop, margin, options.BoundStates.MaxElements) : null;
+        var wide = resonances.Count > 0 ? QuasiBoundState.DomainOf(stack, drop, 2 * margin, options.BoundStates.MaxElements) : null;
         var quasi = new List<(QuasiBoundState State, QuasiBoundState Check, Resonance Resonance)>();
         foreach (var resonance in resonances)
         {
-            var state = QuasiBoundState.Create(stack, resonance.EnergyElectronVolts, options.DomainMarginNanometres, lowest, options.BoundStates.MaxElements);
-            var check = QuasiBoundState.Create(stack, resonance.EnergyElectronVolts, 2 * options.DomainMarginNanometres, lowest, options.BoundStates.MaxElements);
+            var state = QuasiBoundState.Create(domain!, resonance.EnergyElectronVolts, margin);
+            var check = QuasiBoundState.Create(wide!, resonance.EnergyElectronVolts, 2 * margin);
             quasi.Add((state, check, resonance));
-            var (mass, inverse) = MassMoments(state, stack);
+            var (mass, inverse) = MassMoments(state);
             levels.Add(new OpticalLevel(nb + quasi.Count, resonance.EnergyElectronVolts, resonance.EnergyErrorElectronVolts, true, resonance.WidthElectronVolts,
                 true, mass, inverse, state.DomainStartNanometres, state.DomainEndNanometres, state.ValueAt));
+        }
+        var onDomain = new KernelState[quasi.Count > 0 ? nb : 0];
+        var onWide = new KernelState[onDomain.Length];
+        for (var i = 0; i < onDomain.Length; i++)
+        {
+            onDomain[i] = KernelState.OnDomain(waves[i], domain!.Kernel);
+            onWide[i] = KernelState.OnDomain(waves[i], wide!.Kernel);
         }
 
         var transitions = new List<IntersubbandTransition>();
@@ -237,19 +237,10 @@ public sealed class IntersubbandSpectrum
             {
                 var (state, check, resonance) = quasi[r];
                 var de = resonance.EnergyElectronVolts - ei;
-                var z = DomainDipole(waves[i], state, stack);
-                var z2 = DomainDipole(waves[i], check, stack);
+                var z = DomainDipole(onDomain[i], state.State, margin, stack);
+                var z2 = DomainDipole(onWide[i], check.State, 2 * margin, stack);
                 var change = Math.Abs(Math.Abs(z2) - Math.Abs(z)) / Math.Max(Math.Abs(z), double.Epsilon);
-                string? problem = null;
-                if (!bound.Levels[i].IsResolved)
-                {
-                    problem = "the lower level is not separable from its neighbour";
-                }
-                else if (!(change <= options.DomainTolerance))
-                {
-                    problem = string.Create(CultureInfo.InvariantCulture,
-                        $"the quasi-bound state is not localised: |z| changed by {change:P2} when the normalisation domain's margin was doubled ({options.DomainMarginNanometres:G6} → {2 * options.DomainMarginNanometres:G6} nm); tolerance {options.DomainTolerance:P2}");
-                }
+                var problem = !bound.Levels[i].IsResolved ? "the lower level is not separable from its neighbour" : DomainProblem(change, options);
                 var strength = referenceMass * de * z * z / C;
                 if (problem is null)
                 {
@@ -258,8 +249,33 @@ public sealed class IntersubbandSpectrum
                 transitions.Add(new IntersubbandTransition(i + 1, nb + r + 1, de, z, strength, 0, false, change, problem));
             }
         }
-        return new IntersubbandSpectrum(stack, bound, [.. levels], [.. transitions], dipoles, quasiSums, referenceMass, normError, options,
-            grid, waves, samples);
+        // Between two quasi-bound levels (both in the continuum): both on the same domain, checked on twice the margin.
+        for (var a = 0; a < quasi.Count; a++)
+        {
+            for (var b = a + 1; b < quasi.Count; b++)
+            {
+                var de = quasi[b].Resonance.EnergyElectronVolts - quasi[a].Resonance.EnergyElectronVolts;
+                var z = DomainDipole(quasi[a].State.State, quasi[b].State.State, margin, stack);
+                var z2 = DomainDipole(quasi[a].Check.State, quasi[b].Check.State, 2 * margin, stack);
+                var change = Math.Abs(Math.Abs(z2) - Math.Abs(z)) / Math.Max(Math.Abs(z), double.Epsilon);
+                var problem = !(de > 0) ? "the two resonances are not separated" : DomainProblem(change, options);
+                transitions.Add(new IntersubbandTransition(nb + a + 1, nb + b + 1, de, z, referenceMass * de * z * z / C, 0, false, change, problem));
+            }
+        }
+        return new IntersubbandSpectrum(stack, drop, bound, [.. levels], [.. transitions], dipoles, quasiSums, referenceMass, normError, options,
+            waves, states);
+    }
+
+    private static string? DomainProblem(double change, IntersubbandOptions options) => change <= options.DomainTolerance
+        ? null
+        : string.Create(CultureInfo.InvariantCulture,
+            $"the quasi-bound state is not localised: |z| changed by {change:P2} when the normalisation domain's margin was doubled ({options.DomainMarginNanometres:G6} → {2 * options.DomainMarginNanometres:G6} nm); tolerance {options.DomainTolerance:P2}");
+
+    /// <summary>m(E) of layer <paramref name="j"/> (a layer under bias: its constant mass), m₀.</summary>
+    private static double MassAt(StackProfile profile, int j, double e)
+    {
+        profile.Kernel.LayerCoefficients(j, e, out var mass, out _);
+        return mass;
     }
 
     private static double WellMass(StackProfile profile, LayerStack stack)
@@ -300,50 +316,33 @@ public sealed class IntersubbandSpectrum
         return true;
     }
 
-    private static (double Mass, double Inverse) MassMoments(QuasiBoundState state, LayerStack stack)
+    private static (double Mass, double Inverse) MassMoments(QuasiBoundState state)
     {
-        var grid = state.Grid;
-        var profile = grid.Profile;
+        var profile = state.Domain;
+        var norms = new double[profile.Count];
+        state.State.ElementNorms(norms, out _, out _);
         double mass = 0, inverse = 0;
         for (var j = 0; j < profile.Count; j++)
         {
-            double p = 0;
-            for (var q = grid.LayerStart[j]; q < grid.LayerStart[j + 1]; q++)
+            if (!profile.IsDelta(j))
             {
-                p += grid.Weights[q] * state.Samples[q] * state.Samples[q];
+                var mj = MassAt(profile, j, state.EnergyElectronVolts);
+                mass += norms[j] * mj;
+                inverse += norms[j] / mj;
             }
-            profile.Kernel.LayerCoefficients(j, state.EnergyElectronVolts, out var mj, out _);
-            mass += p * mj;
-            inverse += p / mj;
         }
         return (mass, inverse);
     }
 
-    /// <summary>⟨bound|z|quasi-bound⟩ on the quasi-bound state's domain, z from the middle of the stack.</summary>
-    private static double DomainDipole(BoundWavefunction wave, QuasiBoundState state, LayerStack stack)
-    {
-        var grid = state.Grid;
-        var positions = new double[grid.Count];
-        for (var q = 0; q < positions.Length; q++)
-        {
-            positions[q] = grid.Positions[q] - state.MarginNanometres;
-        }
-        var values = new double[grid.Count];
-        wave.Evaluate(positions, values);
-        var middle = 0.5 * stack.Thickness.Nanometres;
-        double z = 0;
-        for (var q = 0; q < positions.Length; q++)
-        {
-            z += grid.Weights[q] * (positions[q] - middle) * values[q] * state.Samples[q];
-        }
-        return z;
-    }
+    /// <summary>⟨a|z|b⟩ on a quasi-bound state's domain, z from the middle of the stack.</summary>
+    private static double DomainDipole(KernelState a, KernelState b, double margin, LayerStack stack) =>
+        KernelState.Pair(a, b, margin + 0.5 * stack.Thickness.Nanometres).Moment;
 
     /// <summary>The transition from level <paramref name="from"/> to level <paramref name="to"/> (both counted from 1, from below to).</summary>
-    /// <exception cref="ArgumentOutOfRangeException">A number is out of range, <paramref name="from"/> is not a bound level, or <paramref name="to"/> is not above it.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">A number is out of range, or <paramref name="to"/> is not above <paramref name="from"/>.</exception>
     public IntersubbandTransition Transition(int from, int to)
     {
-        Preconditions.CheckRange(from, 1, BoundCount);
+        Preconditions.CheckRange(from, 1, _levels.Length - 1);
         Preconditions.CheckRange(to, from + 1, _levels.Length);
         foreach (var transition in _transitions)
         {

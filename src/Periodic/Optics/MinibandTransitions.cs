@@ -22,8 +22,8 @@ namespace Periodic.Optics;
 /// matrix element of Bloch states (E. I. Blount, Solid State Physics 13, 305 (1962): X_12 = i⟨u_1|∂_k u_2⟩ = iħ v_12/(E_2 − E_1))
 /// is evaluated through the velocity v = ½{p, 1/m(z)} with the exact identity
 /// z_12(k) = ∫_cell z ψ_1*ψ_2 + (ħ²/2m₀) d G(0)/(E_2 − E_1), G = ψ_1* ψ_2′/m − ψ_1*′ψ_2/m, which follows from
-/// G′ = (E_1 − E_2)/(ħ²/2m₀)·ψ_1*ψ_2 and the periodicity of G; the integrals use the same Gauss–Legendre layer quadrature as
-/// <see cref="IntersubbandSpectrum"/>. |z_12(k)| does not depend on the cell's origin or the Bloch phases.</para>
+/// G′ = (E_1 − E_2)/(ħ²/2m₀)·ψ_1*ψ_2 and the periodicity of G; the integrals are the kernel's exact element integrals of pairs of states
+/// (<see cref="CompiledCell.PairIntegrals"/>), as in <see cref="IntersubbandSpectrum"/>. |z_12(k)| does not depend on the cell's origin or the Bloch phases.</para>
 /// <para>Joint density of states per unit length of the superlattice, per eV and per in-plane state (spin excluded):
 /// g_J(E) = (1/π) Σ 1/|dE_21/dk| over the k in (0, π/d) where E_21(k) = E (both ±k counted), with E_21 interpolated
 /// linearly between the k samples (error O(Δk²) away from the van Hove edges, where g_J diverges as 1/√).</para>
@@ -94,9 +94,6 @@ public sealed class MinibandTransitions
         var e1 = new double[points];
         var e2 = new double[points];
         var dipole = new double[points];
-        var lowest = bands.Bands[lowerBand - 1].BottomElectronVolts;
-        var highest = bands.Bands[upperBand - 1].TopElectronVolts;
-        var grid = LayerIntegrals.Create(profile, lowest, highest);
         var worst = 0.0;
         for (var i = 0; i < points; i++)
         {
@@ -104,15 +101,19 @@ public sealed class MinibandTransitions
             k[i] = Math.PI / d * i / (points - 1);
             e1[i] = bands.EnergyAt(lowerBand, k[i]);
             e2[i] = bands.EnergyAt(upperBand, k[i]);
-            var (psi1, g1) = Bloch(profile, grid, e1[i], k[i] * d);
-            var (psi2, g2) = Bloch(profile, grid, e2[i], k[i] * d);
+            var (basis1, c1, g1) = Bloch(profile, e1[i], k[i] * d);
+            var (basis2, c2, g2) = Bloch(profile, e2[i], k[i] * d);
             Complex overlap = 0, moment = 0;
-            var origin = 0.0;
-            for (var q = 0; q < grid.Count; q++)
+            for (var p = 0; p < 2; p++)
             {
-                var p = grid.Weights[q] * Complex.Conjugate(psi1[q]) * psi2[q];
-                overlap += p;
-                moment += p * (grid.Positions[q] - origin);
+                for (var q = 0; q < 2; q++)
+                {
+                    // The kernel's exact integrals of the real basis solutions, combined bilinearly.
+                    var (o, m, _) = KernelState.Pair(basis1[p], basis2[q], 0);
+                    var weight = Complex.Conjugate(c1[p]) * c2[q];
+                    overlap += weight * o;
+                    moment += weight * m;
+                }
             }
             var g = Complex.Conjugate(g1.Psi) * g2.W - Complex.Conjugate(g1.W) * g2.Psi;
             var z = moment + C * d * g / (e2[i] - e1[i]);
@@ -122,15 +123,17 @@ public sealed class MinibandTransitions
         return new MinibandTransitions(lowerBand, upperBand, k, e1, e2, dipole, worst, d);
     }
 
-    /// <summary>The normalised Bloch state with e^{iθ} across the cell, on the grid, and its (ψ, ψ′/m) at the cell start.</summary>
-    private static (Complex[] Values, (Complex Psi, Complex W) Start) Bloch(StackProfile profile, LayerIntegrals grid, double energy, double theta)
+    /// <summary>
+    /// The Bloch state with e^{iθ} across the cell at <paramref name="energy"/> as c₀φ₀ + c₁φ₁ of the two real solutions starting
+    /// from (1, 0) and (0, 1), normalised on the cell, and its (ψ, ψ′/m) at the cell start.
+    /// </summary>
+    private static (KernelState[] Basis, Complex[] Coefficients, (Complex Psi, Complex W) Start) Bloch(StackProfile profile, double energy, double theta)
     {
         var n = profile.Count;
-        // Transfer matrix of the cell from the two real solutions (1, 0) and (0, 1).
-        var columns = new double[2][][];
-        for (var basis = 0; basis < 2; basis++)
+        var basis = new KernelState[2];
+        for (var b = 0; b < 2; b++)
         {
-            double u = basis == 0 ? 1 : 0, w = basis == 0 ? 0 : 1, log = 0;
+            double u = b == 0 ? 1 : 0, w = b == 0 ? 0 : 1, log = 0;
             var us = new double[n + 1];
             var ws = new double[n + 1];
             us[0] = u; ws[0] = w;
@@ -140,49 +143,32 @@ public sealed class MinibandTransitions
                 var scale = Math.Exp(log);
                 us[j + 1] = u * scale; ws[j + 1] = w * scale;
             }
-            columns[basis] = [us, ws];
+            basis[b] = KernelState.OnDomain(profile.Kernel, energy, us, ws);
         }
-        double m11 = columns[0][0][n], m21 = columns[0][1][n], m12 = columns[1][0][n], m22 = columns[1][1][n];
+        double m11 = basis[0].Psi[n], m21 = basis[0].DerivativeOverMass[n], m12 = basis[1].Psi[n], m22 = basis[1].DerivativeOverMass[n];
         var lambda = Complex.FromPolarCoordinates(1, theta);
         // (M − λ)v = 0: v = (m12, λ − m11), or (λ − m22, m21) when m12 is the smaller.
-        Complex a, b;
+        Complex a, b2;
         if (Math.Abs(m12) + Complex.Abs(lambda - m11) >= Math.Abs(m21) + Complex.Abs(lambda - m22))
         {
             a = m12;
-            b = lambda - m11;
+            b2 = lambda - m11;
         }
         else
         {
             a = lambda - m22;
-            b = m21;
+            b2 = m21;
         }
-        var values = new Complex[grid.Count];
+        double n00 = 0, n01 = 0, n11 = 0;
         for (var j = 0; j < n; j++)
         {
-            if (grid.LayerStart[j] == grid.LayerStart[j + 1])
-            {
-                continue;
-            }
-            var u = a * columns[0][0][j] + b * columns[1][0][j];
-            var w = a * columns[0][1][j] + b * columns[1][1][j];
-            profile.Kernel.LayerCoefficients(j, energy, out var mass, out var s);
-            for (var q = grid.LayerStart[j]; q < grid.LayerStart[j + 1]; q++)
-            {
-                UniformLayerPropagator.Evaluate(s, grid.Positions[q] - profile.Boundaries[j], out var c, out var sinc, out _, out _, out var logScale);
-                values[q] = (c * u + mass * sinc * w) * Math.Exp(logScale);
-            }
+            n00 += profile.Kernel.SquareIntegral(j, energy, basis[0].Ends(j), fromLeft: true);
+            n11 += profile.Kernel.SquareIntegral(j, energy, basis[1].Ends(j), fromLeft: true);
+            n01 += profile.Kernel.PairIntegrals(j, energy, basis[0].Ends(j), energy, basis[1].Ends(j)).Overlap;
         }
-        double norm = 0;
-        for (var q = 0; q < values.Length; q++)
-        {
-            norm += grid.Weights[q] * (values[q].Real * values[q].Real + values[q].Imaginary * values[q].Imaginary);
-        }
+        var norm = a.Magnitude * a.Magnitude * n00 + 2 * (Complex.Conjugate(a) * b2).Real * n01 + b2.Magnitude * b2.Magnitude * n11;
         var factor = 1 / Math.Sqrt(norm);
-        for (var q = 0; q < values.Length; q++)
-        {
-            values[q] *= factor;
-        }
-        return (values, (a * factor, b * factor));
+        return (basis, [a * factor, b2 * factor], (a * factor, b2 * factor));
     }
 
     /// <summary>

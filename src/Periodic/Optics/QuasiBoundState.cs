@@ -10,7 +10,7 @@ namespace Periodic.Optics;
 
 /// <summary>
 /// The real solution at a resonance energy above both lead band edges that is most concentrated in the stack,
-/// normalised on the stack plus a margin of each lead.
+/// normalised on the stack plus a margin of each lead (at zero bias or under one).
 /// </summary>
 /// <remarks>
 /// Method: at energy E the real solutions form a two-dimensional space. Of all of them this takes the one that
@@ -18,43 +18,35 @@ namespace Periodic.Optics;
 /// (a² = ψ² + (mψ′/(m k))² at the interface): a 2 × 2 generalised symmetric eigenproblem. At a narrow resonance
 /// this is the quasi-bound state of the Breit–Wigner picture (e.g. L. D. Landau, E. M. Lifshitz, Quantum
 /// Mechanics, §134); for a broad peak the weight in the leads dominates and the dipoles depend on the margin,
-/// which the caller checks by doubling it.
+/// which the caller checks by doubling it. The two basis solutions are propagated through the kernel (under bias its
+/// linear-potential layers); every integral is the kernel's (<see cref="CompiledCell.PairIntegrals"/>).
 /// </remarks>
 internal sealed class QuasiBoundState
 {
-    private readonly StackProfile _profile;
-    private readonly double[] _u;
-    private readonly double[] _w;
-    private readonly double[] _log;
-
-    private QuasiBoundState(StackProfile profile, double energy, double margin, double[] u, double[] w, double[] log, double[] samples, LayerIntegrals grid)
+    private QuasiBoundState(StackProfile domain, double energy, double margin, KernelState state)
     {
-        _profile = profile;
+        Domain = domain;
         EnergyElectronVolts = energy;
         MarginNanometres = margin;
-        _u = u;
-        _w = w;
-        _log = log;
-        Samples = samples;
-        Grid = grid;
+        State = state;
     }
 
     internal double EnergyElectronVolts { get; }
 
     internal double MarginNanometres { get; }
 
-    /// <summary>The grid of the extended stack (positions shifted by the margin relative to the original stack).</summary>
-    internal LayerIntegrals Grid { get; }
+    /// <summary>The stack with one margin layer of each lead added outside (the field, under bias, acts on the stack only).</summary>
+    internal StackProfile Domain { get; }
 
-    /// <summary>ψ on <see cref="Grid"/>, normalised on the domain.</summary>
-    internal double[] Samples { get; }
+    /// <summary>The state on <see cref="Domain"/>, normalised on it.</summary>
+    internal KernelState State { get; }
 
     internal double DomainStartNanometres => -MarginNanometres;
 
-    internal double DomainEndNanometres => _profile.Boundaries[^1] - MarginNanometres;
+    internal double DomainEndNanometres => Domain.Boundaries[^1] - MarginNanometres;
 
-    /// <summary>Builds the state at <paramref name="energy"/> for <paramref name="stack"/>, its grid fine enough for energies down to <paramref name="lowest"/>.</summary>
-    internal static QuasiBoundState Create(LayerStack stack, double energy, double margin, double lowest, long maxElements)
+    /// <summary>The domain of <paramref name="stack"/> with <paramref name="margin"/> nm of each lead, under <paramref name="bias"/> eV.</summary>
+    internal static StackProfile DomainOf(LayerStack stack, double bias, double margin, long maxElements)
     {
         var leftLayer = Layer.Create(Length.FromNanometres(margin), stack.LeftLead.Potential, stack.LeftLead.Mass);
         var rightLayer = Layer.Create(Length.FromNanometres(margin), stack.RightLead.Potential, stack.RightLead.Mass);
@@ -62,56 +54,59 @@ internal sealed class QuasiBoundState
         parts.AddRange(stack.Parts);
         parts.Add(StackPart.Single(rightLayer));
         var extended = LayerStack.Create(stack.LeftLead, parts, stack.RightLead);
-        var profile = new StackProfile(extended, maxElements + 2, nameof(stack));
-        var n = profile.Count;
-        var grid = LayerIntegrals.Create(profile, Math.Min(lowest, energy), energy);
+        return new StackProfile(extended, maxElements + 2, nameof(stack), bias, 1);
+    }
 
-        // Two independent real solutions from the left end of the domain.
-        var states = new double[2][][];
-        for (var basis = 0; basis < 2; basis++)
+    /// <summary>Builds the state at <paramref name="energy"/> on <paramref name="domain"/> (from <see cref="DomainOf"/>).</summary>
+    internal static QuasiBoundState Create(StackProfile domain, double energy, double margin)
+    {
+        var kernel = domain.Kernel;
+        var n = kernel.Count;
+
+        // Two independent real solutions from the left end of the domain, scaled by one factor each so the largest is order one.
+        var basis = new KernelState[2];
+        for (var b = 0; b < 2; b++)
         {
-            double u0 = basis == 0 ? 1 : 0, w0 = basis == 0 ? 0 : 1, log = 0;
+            double u = b == 0 ? 1 : 0, w = b == 0 ? 0 : 1, log = 0;
             var us = new double[n + 1];
             var ws = new double[n + 1];
             var logs = new double[n + 1];
-            us[0] = u0; ws[0] = w0; logs[0] = log;
+            us[0] = u; ws[0] = w;
             for (var i = 0; i < n; i++)
             {
-                profile.Kernel.StepForward(i, energy, ref u0, ref w0, ref log);
-                us[i + 1] = u0; ws[i + 1] = w0; logs[i + 1] = log;
+                kernel.StepForward(i, energy, ref u, ref w, ref log);
+                us[i + 1] = u; ws[i + 1] = w; logs[i + 1] = log;
             }
-            states[basis] = [us, ws, logs];
-        }
-        // Bring both to one scale per boundary so that they can be combined.
-        var common = new double[n + 1];
-        for (var i = 0; i <= n; i++)
-        {
-            common[i] = Math.Max(states[0][2][i], states[1][2][i]);
-        }
-        var phi = new double[2][];
-        for (var basis = 0; basis < 2; basis++)
-        {
-            phi[basis] = new double[grid.Count];
-            Sample(profile, grid, energy, states[basis][0], states[basis][1], Rescale(states[basis][2], common), common, phi[basis]);
+            var top = logs.Max();
+            for (var i = 0; i <= n; i++)
+            {
+                var f = Math.Exp(logs[i] - top);
+                us[i] *= f;
+                ws[i] *= f;
+            }
+            basis[b] = KernelState.OnDomain(kernel, energy, us, ws);
         }
 
-        // Gram matrix over the original stack (elements 1 … n − 2) and the lead amplitudes at its two interfaces.
-        double a00 = 0, a01 = 0, a11 = 0;
-        for (var q = grid.LayerStart[1]; q < grid.LayerStart[n - 1]; q++)
+        // Gram matrices over the stack (elements 1 … n − 2) and over the whole domain.
+        double a00 = 0, a01 = 0, a11 = 0, d00 = 0, d01 = 0, d11 = 0;
+        for (var i = 0; i < n; i++)
         {
-            a00 += grid.Weights[q] * phi[0][q] * phi[0][q];
-            a01 += grid.Weights[q] * phi[0][q] * phi[1][q];
-            a11 += grid.Weights[q] * phi[1][q] * phi[1][q];
+            var p00 = kernel.SquareIntegral(i, energy, basis[0].Ends(i), fromLeft: true);
+            var p11 = kernel.SquareIntegral(i, energy, basis[1].Ends(i), fromLeft: true);
+            var p01 = kernel.PairIntegrals(i, energy, basis[0].Ends(i), energy, basis[1].Ends(i)).Overlap;
+            d00 += p00; d01 += p01; d11 += p11;
+            if (i >= 1 && i <= n - 2)
+            {
+                a00 += p00; a01 += p01; a11 += p11;
+            }
         }
+        // Lead amplitudes at the stack's two interfaces.
         double b00 = 0, b01 = 0, b11 = 0;
-        foreach (var (boundary, lead) in new[] { (1, stack.LeftLead), (n - 1, stack.RightLead) })
+        foreach (var (boundary, lead) in new[] { (1, domain.Stack.LeftLead), (n - 1, domain.RightLead) })
         {
-            var k = lead.WavenumberPerNanometre(energy);
-            var r = lead.MassElectronMasses / k;
-            var f0 = Math.Exp(states[0][2][boundary] - common[boundary]);
-            var f1 = Math.Exp(states[1][2][boundary] - common[boundary]);
-            double u0 = states[0][0][boundary] * f0, w0 = states[0][1][boundary] * f0 * r;
-            double u1 = states[1][0][boundary] * f1, w1 = states[1][1][boundary] * f1 * r;
+            var r = lead.MassElectronMasses / lead.WavenumberPerNanometre(energy);
+            double u0 = basis[0].Psi[boundary], w0 = basis[0].DerivativeOverMass[boundary] * r;
+            double u1 = basis[1].Psi[boundary], w1 = basis[1].DerivativeOverMass[boundary] * r;
             b00 += u0 * u0 + w0 * w0;
             b01 += u0 * u1 + w0 * w1;
             b11 += u1 * u1 + w1 * w1;
@@ -136,84 +131,35 @@ internal sealed class QuasiBoundState
             c0 = a11 - lambda * b11;
             c1 = -(a01 - lambda * b01);
         }
-        var u = new double[n + 1];
-        var w2 = new double[n + 1];
-        for (var i = 0; i <= n; i++)
-        {
-            var f0 = Math.Exp(states[0][2][i] - common[i]);
-            var f1 = Math.Exp(states[1][2][i] - common[i]);
-            u[i] = c0 * states[0][0][i] * f0 + c1 * states[1][0][i] * f1;
-            w2[i] = c0 * states[0][1][i] * f0 + c1 * states[1][1][i] * f1;
-        }
-        var samples = new double[grid.Count];
-        for (var q = 0; q < samples.Length; q++)
-        {
-            samples[q] = c0 * phi[0][q] + c1 * phi[1][q];
-        }
-        double norm = 0;
-        for (var q = 0; q < samples.Length; q++)
-        {
-            norm += grid.Weights[q] * samples[q] * samples[q];
-        }
+        var norm = c0 * c0 * d00 + 2 * c0 * c1 * d01 + c1 * c1 * d11;
         var scale = 1 / Math.Sqrt(norm);
-        for (var q = 0; q < samples.Length; q++)
-        {
-            samples[q] *= scale;
-        }
-        var logScale = Math.Log(scale);
+        var psi = new double[n + 1];
+        var dw = new double[n + 1];
         for (var i = 0; i <= n; i++)
         {
-            common[i] += logScale;
+            psi[i] = scale * (c0 * basis[0].Psi[i] + c1 * basis[1].Psi[i]);
+            dw[i] = scale * (c0 * basis[0].DerivativeOverMass[i] + c1 * basis[1].DerivativeOverMass[i]);
         }
-        return new QuasiBoundState(profile, energy, margin, u, w2, common, samples, grid);
-    }
-
-    private static double[] Rescale(double[] log, double[] common)
-    {
-        var factors = new double[log.Length];
-        for (var i = 0; i < log.Length; i++)
-        {
-            factors[i] = Math.Exp(log[i] - common[i]);
-        }
-        return factors;
-    }
-
-    /// <summary>ψ on the grid from the states (u, w)·factor·e^log at the left end of each element.</summary>
-    private static void Sample(StackProfile profile, LayerIntegrals grid, double energy, double[] u, double[] w, double[] factor, double[] log, double[] destination)
-    {
-        for (var j = 0; j < profile.Count; j++)
-        {
-            if (grid.LayerStart[j] == grid.LayerStart[j + 1])
-            {
-                continue;
-            }
-            profile.Kernel.LayerCoefficients(j, energy, out var mass, out var s);
-            for (var q = grid.LayerStart[j]; q < grid.LayerStart[j + 1]; q++)
-            {
-                UniformLayerPropagator.Evaluate(s, grid.Positions[q] - profile.Boundaries[j], out var c, out var sinc, out _, out _, out var logScale);
-                destination[q] = (c * u[j] + mass * sinc * w[j]) * factor[j] * Math.Exp(log[j] + logScale);
-            }
-        }
+        return new QuasiBoundState(domain, energy, margin, KernelState.OnDomain(kernel, energy, psi, dw));
     }
 
     /// <summary>ψ at a position of the original stack's frame, nm^(−1/2); zero outside the domain.</summary>
     internal double ValueAt(double positionNanometres)
     {
         var x = positionNanometres + MarginNanometres;
-        var boundaries = _profile.Boundaries;
-        var n = _profile.Count;
+        var boundaries = Domain.Boundaries;
+        var n = Domain.Count;
         if (x < 0 || x > boundaries[n])
         {
             return 0;
         }
         // The last layer of positive width that starts at or before x (a linear scan: this serves plots, not the integrals).
         var i = n - 1;
-        while (i > 0 && (boundaries[i] > x || _profile.IsDelta(i)))
+        while (i > 0 && (boundaries[i] > x || Domain.IsDelta(i)))
         {
             i--;
         }
-        _profile.Kernel.LayerCoefficients(i, EnergyElectronVolts, out var mass, out var s);
-        UniformLayerPropagator.Evaluate(s, x - boundaries[i], out var c, out var sinc, out _, out _, out var logScale);
-        return (c * _u[i] + mass * sinc * _w[i]) * Math.Exp(_log[i] + logScale);
+        Domain.Kernel.StateInside(i, EnergyElectronVolts, State.Ends(i), x - boundaries[i], out var psi, out _);
+        return psi;
     }
 }

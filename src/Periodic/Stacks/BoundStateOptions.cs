@@ -6,7 +6,7 @@ using System.Globalization;
 namespace Periodic.Stacks;
 
 /// <summary>
-/// Tolerances and limits of the bound-state search (<see cref="BoundStateSpectrum.Find"/>), validated when created.
+/// Tolerances and limits of the bound-state search (<see cref="BoundStateSpectrum.Find(LayerStack, BoundStateOptions?)"/>), validated when created.
 /// Every default is a constant here; <see cref="Default"/> uses them all.
 /// </summary>
 public sealed class BoundStateOptions

@@ -48,7 +48,10 @@ public sealed class BoundStateSpectrum
     /// <summary>The stack.</summary>
     public LayerStack Stack => _profile.Stack;
 
-    /// <summary>The stack written out and compiled (for the level sensitivities).</summary>
+    /// <summary>The potential drop eU across the stack the states were found under (zero: flat).</summary>
+    public Units.Energy Bias => Units.Energy.FromElectronVolts(_profile.BiasElectronVolts);
+
+    /// <summary>The compiled stack (under its bias).</summary>
     internal StackProfile Profile => _profile;
 
     /// <summary>The levels found, lowest first (at most <see cref="BoundStateOptions.MaxLevels"/>).</summary>
@@ -75,8 +78,36 @@ public sealed class BoundStateSpectrum
     {
         ArgumentNullException.ThrowIfNull(stack);
         options ??= BoundStateOptions.Default;
-        var profile = new StackProfile(stack, options.MaxElements, nameof(stack));
-        var edge = Math.Min(stack.LeftLead.PotentialElectronVolts, stack.RightLead.PotentialElectronVolts);
+        return Find(new StackProfile(stack, options.MaxElements, nameof(stack)), options);
+    }
+
+    /// <summary>
+    /// Finds every bound state of <paramref name="stack"/> under an applied bias (as <see cref="StackTransmission.Create(LayerStack, Units.Energy)"/>:
+    /// a uniform field across the layers, the right lead's band edge lowered by <paramref name="bias"/> = eU): the states below
+    /// both lead band edges, which stay bound because the leads are flat. States above the lower edge can leak into that lead:
+    /// they are resonances (<see cref="StackTransmission.FindResonances"/>), not bound states.
+    /// </summary>
+    /// <remarks>
+    /// Each layer under the field is propagated exactly (Airy functions or the sublayer power series of the linear-potential
+    /// propagator) and its zeros of ψ are counted on sublayers short enough to hold at most one (Sturm comparison), so the
+    /// count, and with it the guarantee that no level is missed, holds as at zero bias. No space charge is modelled: the field
+    /// is that of an ideal capacitor.
+    /// </remarks>
+    /// <exception cref="ArgumentNullException"><paramref name="stack"/> is null.</exception>
+    /// <exception cref="ArgumentException">As <see cref="Find(LayerStack, BoundStateOptions?)"/>, and under a non-zero bias what
+    /// <see cref="StackTransmission.Create(LayerStack, Units.Energy)"/> refuses (a non-parabolic layer, too many elements).</exception>
+    /// <exception cref="ArgumentOutOfRangeException">An option or the bias is out of range.</exception>
+    public static BoundStateSpectrum FindUnderBias(LayerStack stack, Units.Energy bias, BoundStateOptions? options = null)
+    {
+        StackTransmission.CheckBias(stack, bias);
+        options ??= BoundStateOptions.Default;
+        return Find(new StackProfile(stack, options.MaxElements, nameof(stack), bias.ElectronVolts, 0), options);
+    }
+
+    internal static BoundStateSpectrum Find(StackProfile profile, BoundStateOptions options)
+    {
+        var stack = profile.Stack;
+        var edge = Math.Min(stack.LeftLead.PotentialElectronVolts, profile.RightLead.PotentialElectronVolts);
         // Binding energies below 1e-15 eV (relative to max(1, |edge|)) are not resolvable: the count stops there.
         var top = edge - ThresholdMarginElectronVolts * Math.Max(1, Math.Abs(edge));
         var lowestValid = profile.LowestValidEnergyElectronVolts;

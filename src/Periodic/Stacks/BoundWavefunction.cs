@@ -45,7 +45,7 @@ public sealed class BoundWavefunction
         var kappaLeft = profile.LeftDecay(e);
         var kappaRight = profile.RightDecay(e);
         var mLeft = profile.Stack.LeftLead.MassElectronMasses;
-        var mRight = profile.Stack.RightLead.MassElectronMasses;
+        var mRight = profile.RightLead.MassElectronMasses;
         double u = 1, w = kappaLeft / mLeft, log = 0;
         uL[0] = u; wL[0] = w; lL[0] = log;
         for (var i = 0; i < n; i++)
@@ -102,6 +102,14 @@ public sealed class BoundWavefunction
                 logs[i + 1] = double.NegativeInfinity;
                 continue;
             }
+            if (!profile.Kernel.IsLayer(i))
+            {
+                // A layer under bias (linear potential): quadrature of the exactly propagated state.
+                logs[i + 1] = i < j
+                    ? profile.Kernel.LogLinearLayerIntegral(i, e, uL[i], wL[i], fromLeft: true) + 2 * lL[i]
+                    : profile.Kernel.LogLinearLayerIntegral(i, e, uR[i + 1], wR[i + 1], fromLeft: false) + 2 * (lR[i + 1] + logLambda);
+                continue;
+            }
             profile.Kernel.LayerCoefficients(i, e, out var mass, out _);
             logs[i + 1] = i < j
                 ? profile.Kernel.LogLayerIntegral(i, e, uL[i], mass * wL[i]) + 2 * lL[i]
@@ -126,6 +134,26 @@ public sealed class BoundWavefunction
     }
 
     private readonly int _leftPiece;
+
+    /// <summary>
+    /// The state at every element boundary, unscaled: <paramref name="psi"/>[i] = ψ and <paramref name="derivativeOverMass"/>[i] = ψ′/m
+    /// at the left end of element i (index Count: the right end of the stack), for the kernel's integrals of pairs of states.
+    /// </summary>
+    internal void BoundaryStates(Span<double> psi, Span<double> derivativeOverMass)
+    {
+        for (var i = 0; i < _u.Length; i++)
+        {
+            var scale = Math.Exp(_log[i]);
+            psi[i] = _u[i] * scale;
+            derivativeOverMass[i] = _w[i] * scale;
+        }
+    }
+
+    /// <summary>Elements before this index are represented from their left end (the left shooting piece), the others from their right end.</summary>
+    internal int JoinIndex => _leftPiece;
+
+    /// <summary>The compiled stack the state lives on.</summary>
+    internal StackProfile Profile => _profile;
 
     private static double LogNorm(double u, double w, double mu) => 0.5 * Math.Log(u * u + mu * mu * w * w);
 

@@ -15,6 +15,16 @@ namespace Periodic.Stacks;
 internal sealed class StackProfile
 {
     internal StackProfile(LayerStack stack, long maxElements, string paramName)
+        : this(stack, maxElements, paramName, 0, 0)
+    {
+    }
+
+    /// <summary>
+    /// The stack under a bias <paramref name="biasElectronVolts"/> = eU (as <see cref="StackTransmission.Create(LayerStack, Units.Energy)"/>:
+    /// a uniform field across the layers, the right lead lowered by eU), the field acting on all elements but the first and last
+    /// <paramref name="marginElements"/> (margins of lead material that a caller added outside the stack); bias 0 is the flat stack.
+    /// </summary>
+    internal StackProfile(LayerStack stack, long maxElements, string paramName, double biasElectronVolts, int marginElements)
     {
         Stack = stack;
         if (stack.ElementCount > maxElements)
@@ -54,7 +64,33 @@ internal sealed class StackProfile
             }
         }
         Elements = written;
-        Kernel = new CompiledCell(written, paramName);
+        if (biasElectronVolts == 0)
+        {
+            Kernel = new CompiledCell(written, paramName);
+            RightLead = stack.RightLead;
+        }
+        else
+        {
+            double inside = 0;
+            for (var j = marginElements; j < n - marginElements; j++)
+            {
+                inside += written[j] is Layer layer ? layer.Width.Nanometres : 0;
+            }
+            Kernel = new CompiledCell(written, biasElectronVolts / inside, marginElements, n - 1 - marginElements, paramName);
+            RightLead = Lead.Create(Units.Energy.FromElectronVolts(stack.RightLead.PotentialElectronVolts - biasElectronVolts), stack.RightLead.Mass);
+            vMin = Math.Min(stack.LeftLead.PotentialElectronVolts, RightLead.PotentialElectronVolts);
+            for (var j = 0; j < n; j++)
+            {
+                if (Kernel.IsDelta(j))
+                {
+                    continue;
+                }
+                var (width, potential, _, _) = Kernel.LayerData(j);
+                var slope = Kernel.LinearLayerData(j, out _, out _, out var s, out _) ? s : 0;
+                vMin = Math.Min(vMin, Math.Min(potential, potential + slope * width));
+            }
+        }
+        BiasElectronVolts = biasElectronVolts;
         MinimumPotentialElectronVolts = vMin;
         DeltaWellStrengthElectronVoltNanometres = deltaWellStrength;
     }
@@ -63,6 +99,12 @@ internal sealed class StackProfile
 
     /// <summary>The stack's elements written out, in order (element i of <see cref="Kernel"/> is Elements[i]).</summary>
     internal CellElement[] Elements { get; }
+
+    /// <summary>The right lead as the states see it: the stack's, lowered by the bias.</summary>
+    internal Lead RightLead { get; }
+
+    /// <summary>The potential drop eU across the stack, eV (0: flat).</summary>
+    internal double BiasElectronVolts { get; }
 
     /// <summary>The compiled elements and the propagation kernel over them.</summary>
     internal CompiledCell Kernel { get; }
@@ -83,7 +125,7 @@ internal sealed class StackProfile
 
     internal double LeftDecay(double e) => Stack.LeftLead.DecayConstantPerNanometre(e);
 
-    internal double RightDecay(double e) => Stack.RightLead.DecayConstantPerNanometre(e);
+    internal double RightDecay(double e) => RightLead.DecayConstantPerNanometre(e);
 
     /// <summary>
     /// Number of bound states strictly below <paramref name="e"/> (e below both lead edges): the zeros on the
@@ -99,7 +141,7 @@ internal sealed class StackProfile
             zeros += Kernel.StepForward(i, e, ref u, ref w, ref log);
         }
         // In the right lead ψ = A e^{κ(x−L)} + B e^{−κ(x−L)}; it has one more zero iff u(L) and A have opposite signs.
-        var tail = Stack.RightLead.MassElectronMasses * w / RightDecay(e);
+        var tail = RightLead.MassElectronMasses * w / RightDecay(e);
         var growing = u + tail;
         if (u * growing < 0)
         {

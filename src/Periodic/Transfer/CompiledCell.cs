@@ -40,7 +40,7 @@ internal readonly record struct ElementMoments(double Norm, double FirstMoment, 
 /// <para>Zero counts: the Sturm oscillation theorem counts eigenvalues by the zeros of ψ; per layer the zeros in (0, w] come
 /// from the Prüfer phase (<see cref="LayerZeros"/>), per Magnus step in closed form.</para>
 /// </remarks>
-internal sealed class CompiledCell
+internal sealed partial class CompiledCell
 {
     private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
 
@@ -91,27 +91,45 @@ internal sealed class CompiledCell
     /// <summary>
     /// Compiles <paramref name="elements"/> under a uniform field: every layer gets the potential V(x) = V − field·x (x from the
     /// start of the sequence), propagated exactly by <see cref="LinearLayerPropagator"/> (Airy functions or a sublayer series);
-    /// deltas keep their strength. Parabolic layers and deltas only (the caller checks); such a compiled sequence offers
-    /// <see cref="ElementMatrix"/> (and <see cref="LinearLayerData"/>) only.
+    /// deltas keep their strength. Parabolic layers and deltas only (the caller checks). Such a compiled sequence offers
+    /// <see cref="ElementMatrix"/>, state propagation (<see cref="StepForward"/> with its zero count, <see cref="StepBackward"/>,
+    /// <see cref="ScaledLayerValue"/>) and the integrals of states (<see cref="LogLinearLayerIntegral"/>, <see cref="PairIntegrals"/>).
     /// </summary>
     internal CompiledCell(ReadOnlySpan<CellElement> elements, double fieldElectronVoltsPerNanometre, string paramName)
+        : this(elements, fieldElectronVoltsPerNanometre, 0, elements.Length - 1, paramName)
+    {
+    }
+
+    /// <summary>
+    /// As <see cref="CompiledCell(ReadOnlySpan{CellElement}, double, string)"/> with the field acting on elements
+    /// <paramref name="first"/> … <paramref name="last"/> only: V(x) = V − field·(x − x_first) there, the elements before
+    /// unchanged, the layers after lowered by the whole drop (flat); a stack between flat leads with a margin of each lead.
+    /// </summary>
+    internal CompiledCell(ReadOnlySpan<CellElement> elements, double fieldElectronVoltsPerNanometre, int first, int last, string paramName)
         : this(elements, paramName)
     {
-        for (var i = 0; i < _kinds.Length; i++)
+        var origin = Boundaries[Math.Min(first, _kinds.Length)];
+        var drop = fieldElectronVoltsPerNanometre * (Boundaries[Math.Min(last + 1, _kinds.Length)] - origin);
+        for (var i = first; i < _kinds.Length; i++)
         {
             if (_kinds[i] != ElementKind.Layer)
             {
                 continue;
             }
             var at = ElementData.Stride * i;
+            if (i > last)
+            {
+                _data[at + ElementData.Potential] -= drop;
+                continue;
+            }
             _kinds[i] = ElementKind.LinearLayer;
-            _data[at + ElementData.Potential] -= fieldElectronVoltsPerNanometre * Boundaries[i];
+            _data[at + ElementData.Potential] -= fieldElectronVoltsPerNanometre * (Boundaries[i] - origin);
             _data[at + ElementData.PotentialSlope] = -fieldElectronVoltsPerNanometre;
         }
         IsBiased = true;
     }
 
-    /// <summary>True when the layers carry a linear potential (<see cref="ElementMatrix"/> only).</summary>
+    /// <summary>True when layers carry a linear potential (no transfer products with derivatives, no trace-only kernel).</summary>
     internal bool IsBiased { get; }
 
     /// <summary>Number of elements.</summary>
@@ -477,6 +495,13 @@ internal sealed class CompiledCell
                 log += logScale;
                 break;
             }
+            case ElementKind.LinearLayer:
+            {
+                var at = ElementData.Stride * i;
+                zeros = LinearLayerPropagator.PropagateCounting(e, _data[at + ElementData.Potential], _data[at + ElementData.PotentialSlope],
+                    _data[at + ElementData.Width], _data[at + ElementData.Mass], ref u, ref w, ref log);
+                break;
+            }
             default:
                 zeros = _segments![i]!.PropagateState(e, ref u, ref w, ref log, forward: true);
                 break;
@@ -504,6 +529,17 @@ internal sealed class CompiledCell
                 log += logScale;
                 break;
             }
+            case ElementKind.LinearLayer:
+            {
+                // The inverse of a unimodular matrix is its adjugate.
+                ElementMatrix(i, e, out var m11, out var m12, out var m21, out var m22, out var logScale);
+                var u0 = m22 * u - m12 * w;
+                var w0 = -m21 * u + m11 * w;
+                u = u0;
+                w = w0;
+                log += logScale;
+                break;
+            }
             default:
                 _segments![i]!.PropagateState(e, ref u, ref w, ref log, forward: false);
                 break;
@@ -517,6 +553,15 @@ internal sealed class CompiledCell
     /// </summary>
     internal double ScaledLayerValue(int i, double e, double u, double w, double t, out double logScale)
     {
+        if (_kinds[i] == ElementKind.LinearLayer)
+        {
+            var at = ElementData.Stride * i;
+            double v0 = _data[at + ElementData.Potential], slope = _data[at + ElementData.PotentialSlope], width = _data[at + ElementData.Width];
+            var start = t >= 0 ? 0 : width + t;
+            LinearLayerPropagator.Evaluate(e, v0 + slope * start, slope, Math.Abs(t), _data[at + ElementData.Mass],
+                out var m11, out var m12, out _, out var m22, out logScale);
+            return t >= 0 ? m11 * u + m12 * w : m22 * u - m12 * w;
+        }
         LayerCoefficients(i, e, out var mass, out var s);
         UniformLayerPropagator.Values(s, Math.Abs(t), out var c, out var sinc, out logScale);
         return t >= 0 ? c * u + mass * sinc * w : c * u - mass * sinc * w;

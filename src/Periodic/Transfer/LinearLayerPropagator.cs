@@ -177,6 +177,35 @@ internal static class LinearLayerPropagator
         m11 = p11; m12 = p12; m21 = p21; m22 = p22;
     }
 
+    /// <summary>
+    /// Propagates the state (u, w)·e^log = (ψ, ψ′/m) across the layer, left to right, by the sublayer series, and returns the
+    /// zeros of ψ in (0, w] (a zero at the far end counts). Exact count: on a sublayer k_max·h ≤ 1 &lt; π, so by the Sturm
+    /// comparison theorem ψ has at most one zero there, and a zero of a non-trivial solution is simple (a sign change).
+    /// </summary>
+    internal static int PropagateCounting(double e, double v0, double slope, double width, double mass, ref double u, ref double w, ref double log)
+    {
+        var scale = mass / C;
+        var n = SublayerCount(e, v0, slope, width, mass);
+        var h = width / n;
+        var bh3 = scale * slope * h * h * h;
+        var zeros = 0;
+        for (var j = 0; j < n; j++)
+        {
+            var aj = scale * (v0 + slope * (j * h) - e);
+            Sublayer(aj * h * h, bh3, out var s11, out var hu, out var vh, out var s22);
+            var u1 = s11 * u + mass * h * vh * w;
+            var w1 = hu / (h * mass) * u + s22 * w;
+            if (u != 0 && (u1 == 0 || (u1 < 0) != (u < 0)))
+            {
+                zeros++;
+            }
+            u = u1;
+            w = w1;
+            ScaledProduct.Renormalise(ref u, ref w, ref log);
+        }
+        return zeros;
+    }
+
     /// <summary>Sublayers of the series form: n ≥ k_max·w and n ≥ βw, so that |a|h² ≤ 1 and |b|h³ ≤ 1 on each.</summary>
     internal static int SublayerCount(double e, double v0, double slope, double width, double mass)
     {

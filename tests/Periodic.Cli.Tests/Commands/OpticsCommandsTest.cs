@@ -98,4 +98,52 @@ public sealed class OpticsCommandsTest
         // The default grid has 400 points over the line ± 6 FWHM: the sampled peak lies within one grid step of the line.
         Assert.Equal(line.GetProperty("energy").GetDouble(), peak.GetProperty("energy").GetDouble(), 0.001);
     }
+
+    [Fact]
+    public void Transitions_Bias_ReportsItAndShiftsSymmetricStackByHalf()
+    {
+        // A symmetric stack under a small bias eU: each level moves by −eU/2 to first order (Hellmann–Feynman with V = −eU·x/L,
+        // the state's mean of x/L being 1/2 by symmetry) [derived]; the transition energy moves only at second order.
+        var file = ToolRunner.TempFile("""{"name": "well", "cell": [{"width": 10, "potential": 0.3, "mass": 0.067}, {"width": 8, "potential": 0, "mass": 0.067}, {"width": 10, "potential": 0.3, "mass": 0.067}], "stack": {"periods": 1, "leads": {"potential": 0.3, "mass": 0.067}}}""");
+        var flat = ToolRunner.Invoke("transitions", file, "--json");
+        var biased = ToolRunner.Invoke("transitions", file, "--json", "--bias", "1e-6");
+        Assert.True(biased.ExitCode == 0, biased.Stderr);
+        Assert.Equal(1e-6, biased.Json().GetProperty("bias").GetDouble());
+        var e0 = flat.Json().GetProperty("levels")[0].GetProperty("energy").GetDouble();
+        var e1 = biased.Json().GetProperty("levels")[0].GetProperty("energy").GetDouble();
+        // Second order ≈ (eU)²/E ≈ 1e-11 eV, and the level tolerance 1e-12 eV: 1e-10.
+        Assert.Equal(e0 - 0.5e-6, e1, 1e-10);
+        Assert.Equal("bound-bound", biased.Json().GetProperty("transitions")[0].GetProperty("kind").GetString());
+        Assert.Contains("no space charge", biased.Json().GetProperty("model").GetString());
+    }
+
+    [Fact]
+    public void Transitions_Continuum_SaysWhichStatesAreQuasiBoundAndOnWhatDomain()
+    {
+        // A 10 nm well between 8 nm barriers 0.5 eV high, leads at 0.06 eV: level 1 bound, the next well levels quasi-bound.
+        var file = ToolRunner.TempFile("""{"name": "leaky", "cell": [{"width": 8, "potential": 0.5, "mass": 0.067}, {"width": 10, "potential": 0, "mass": 0.067}, {"width": 8, "potential": 0.5, "mass": 0.067}], "stack": {"periods": 1, "leads": {"potential": 0.06, "mass": 0.067}}}""");
+        var run = ToolRunner.Invoke("transitions", file, "--json", "--continuum", "--margin", "15");
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        var kinds = run.Json().GetProperty("transitions").EnumerateArray().Select(t => t.GetProperty("kind").GetString()).ToList();
+        Assert.Contains("bound-quasi-bound", kinds);
+        Assert.Contains("quasi-bound-quasi-bound", kinds);
+        var quasi = run.Json().GetProperty("transitions").EnumerateArray().First(t => t.GetProperty("kind").GetString() == "bound-quasi-bound");
+        // The domain is the 26 nm stack plus the 15 nm margin of each lead, in the stack's frame.
+        Assert.Equal(-15, quasi.GetProperty("domainStart").GetDouble(), 1e-12);
+        Assert.Equal(26 + 15, quasi.GetProperty("domainEnd").GetDouble(), 1e-12);
+        var csv = ToolRunner.Invoke("transitions", file, "--csv", "--continuum");
+        Assert.Contains("quasi-bound-quasi-bound", csv.Stdout);
+        Assert.Contains("domain start (nm)", csv.Stdout.Split('\n')[0]);
+    }
+
+    [Fact]
+    public void Transitions_BiasWithInterband_ExitsTwoNamingBias()
+    {
+        var run = ToolRunner.Invoke("transitions", ToolRunner.Example("infrared-well.json"), "--carrier", "interband", "--bias", "0.1");
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("--bias", run.Stderr);
+        run = ToolRunner.Invoke("absorption", FiniteWell(8, 0.3, 0.067), "--density", "1e11", "--bias", "nan");
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("--bias", run.Stderr);
+    }
 }

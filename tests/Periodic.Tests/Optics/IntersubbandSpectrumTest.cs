@@ -10,7 +10,7 @@ using Periodic.Units;
 
 namespace Periodic.Tests.Optics;
 
-public class IntersubbandSpectrumTest
+public partial class IntersubbandSpectrumTest
 {
     private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
 

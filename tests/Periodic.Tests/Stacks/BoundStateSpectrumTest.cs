@@ -10,7 +10,7 @@ using Xunit.Abstractions;
 
 namespace Periodic.Tests.Stacks;
 
-public sealed class BoundStateSpectrumTest(ITestOutputHelper output)
+public sealed partial class BoundStateSpectrumTest(ITestOutputHelper output)
 {
     private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
 

@@ -8,7 +8,7 @@ using Periodic.Units;
 
 namespace Periodic.Tests.Transfer;
 
-public sealed class CompiledCellTest
+public sealed partial class CompiledCellTest
 {
     private const double C = ClosedForms.C;
 
