@@ -68,14 +68,22 @@ internal static partial class SweepCommand
             {
                 var finished = mine.Length - pending.Length;
                 var options = new ParallelOptions { MaxDegreeOfParallelism = workers };
+                // The journal of one batch is written while the next is computed; the time the loop waits for it is
+                // the journal's share of the run.
+                Task? writing = null;
+                void AwaitJournal()
+                {
+                    var journalStart = clock.Elapsed;
+                    writing?.GetAwaiter().GetResult();
+                    journalTime += clock.Elapsed - journalStart;
+                }
                 for (var start = 0; start < pending.Length; start += BatchSize)
                 {
                     var batch = pending.AsSpan(start, Math.Min(BatchSize, pending.Length - start)).ToArray();
                     var computed = new SweepRow[batch.Length];
                     Parallel.For(0, batch.Length, options, i => computed[i] = runner.Evaluate(batch[i]));
-                    var journalStart = clock.Elapsed;
-                    journal.Append(computed);
-                    journalTime += clock.Elapsed - journalStart;
+                    AwaitJournal();
+                    writing = Task.Run(() => journal.Append(computed));
                     foreach (var row in computed)
                     {
                         rows[row.Design] = row;
@@ -83,6 +91,7 @@ internal static partial class SweepCommand
                     finished += batch.Length;
                     progress.Report(finished);
                 }
+                AwaitJournal();
             }
             var computeSeconds = (clock.Elapsed - journalTime).TotalSeconds;
             var journalSeconds = journalTime.TotalSeconds;
