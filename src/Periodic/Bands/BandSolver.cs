@@ -33,17 +33,16 @@ public static class BandSolver
     /// <summary>Computes the lowest <paramref name="count"/> bands of <paramref name="cell"/>.</summary>
     /// <param name="cell">The cell.</param>
     /// <param name="count">Number of bands, 1 to 10,000.</param>
-    /// <param name="relativeTolerance">For smooth segments: the relative edge tolerance of the refinement, in [1e-14, 1e-2]
-    /// (<see cref="RefinementOptions.DefaultRelativeTolerance"/> by default); cells without segments are solved to the
-    /// band search's own tolerances.</param>
+    /// <param name="options">For smooth segments that the plane-wave method does not take: tolerance and budget of the
+    /// refinement (<see cref="RefinementOptions.Default"/> when null); cells without segments are solved to the band search's
+    /// own tolerances.</param>
     /// <exception cref="ArgumentNullException"><paramref name="cell"/> is null.</exception>
     /// <exception cref="ArgumentOutOfRangeException">A value lies outside its range.</exception>
     /// <exception cref="BandSearchException">A band search could not complete.</exception>
-    public static BandSolution Compute(UnitCell cell, int count, double relativeTolerance = RefinementOptions.DefaultRelativeTolerance)
+    public static BandSolution Compute(UnitCell cell, int count, RefinementOptions? options = null)
     {
         ArgumentNullException.ThrowIfNull(cell);
         Preconditions.CheckRange(count, 1, 10000);
-        Preconditions.CheckRange(relativeTolerance, 1e-14, 1e-2);
         if (!HasSmoothSegments(cell))
         {
             var exact = BandStructure.Compute(cell, count);
@@ -59,22 +58,24 @@ public static class BandSolver
                 Spectral = spectral,
             };
         }
-        var refined = RefinedBandStructure.Compute(cell, count, RefinementOptions.Create(relativeTolerance));
+        var refined = RefinedBandStructure.Compute(cell, count, options ?? RefinementOptions.Default);
         return FromRefined(refined);
     }
 
     /// <summary>Computes every band whose bottom lies below <paramref name="energyLimit"/> (at least one band).</summary>
     /// <exception cref="ArgumentNullException"><paramref name="cell"/> is null.</exception>
-    /// <exception cref="ArgumentOutOfRangeException">More than 10,000 bands lie below the limit, the limit is outside the
-    /// model's energy range, or the tolerance is outside [1e-14, 1e-2].</exception>
+    /// <param name="cell">The cell.</param>
+    /// <param name="energyLimit">Every band whose bottom lies below this energy.</param>
+    /// <param name="options">As for <see cref="Compute"/>.</param>
+    /// <exception cref="ArgumentOutOfRangeException">More than 10,000 bands lie below the limit, or the limit is outside the
+    /// model's energy range.</exception>
     /// <exception cref="BandSearchException">A band search could not complete.</exception>
-    public static BandSolution ComputeBelow(UnitCell cell, Energy energyLimit, double relativeTolerance = RefinementOptions.DefaultRelativeTolerance)
+    public static BandSolution ComputeBelow(UnitCell cell, Energy energyLimit, RefinementOptions? options = null)
     {
         ArgumentNullException.ThrowIfNull(cell);
-        Preconditions.CheckRange(relativeTolerance, 1e-14, 1e-2);
         var coarse = BandStructure.ComputeBelow(cell, energyLimit);
         return HasSmoothSegments(cell)
-            ? Compute(cell, coarse.Bands.Count, relativeTolerance)
+            ? Compute(cell, coarse.Bands.Count, options)
             : new BandSolution(coarse, BandSolverMethod.Exact, coarse.MaxEdgeErrorElectronVolts, 0, true, null);
     }
 
