@@ -36,4 +36,13 @@ internal static class ElementaryFunctions
         var um1 = u - 1;
         return um1 == -1 ? -1 : um1 * x / Math.Log(u);
     }
+
+    /// <summary>
+    /// ln(1 + e^x) (softplus) for either sign of x without overflow, accurate to a few ulps also where e^x is tiny (far
+    /// below a Fermi level), where Math.Log(1 + e^x) as written returns 0.
+    /// </summary>
+    /// <remarks>x + ln(1 + e^(−x)) for x &gt; 0, ln(1 + e^x) otherwise, with MathNet.Numerics' log1p (measured accurate to
+    /// rounding, unlike its expm1).</remarks>
+    internal static double Softplus(double x) =>
+        x > 0 ? x + MathNet.Numerics.SpecialFunctions.Log1p(Math.Exp(-x)) : MathNet.Numerics.SpecialFunctions.Log1p(Math.Exp(x));
 }

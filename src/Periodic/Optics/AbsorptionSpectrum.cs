@@ -101,7 +101,7 @@ public sealed class AbsorptionSpectrum
             double sum = 0;
             for (var i = 0; i < nb; i++)
             {
-                sum += dos[i] * kt * TsuEsakiIntegrator.Softplus((fermi - spectrum.Levels[i].EnergyElectronVolts) / kt);
+                sum += dos[i] * kt * Periodic.Numerics.ElementaryFunctions.Softplus((fermi - spectrum.Levels[i].EnergyElectronVolts) / kt);
             }
             return sum;
         }
@@ -130,7 +130,7 @@ public sealed class AbsorptionSpectrum
         var occupations = new double[nb];
         for (var i = 0; i < nb; i++)
         {
-            occupations[i] = dos[i] * kt * TsuEsakiIntegrator.Softplus((fermiLevel - spectrum.Levels[i].EnergyElectronVolts) / kt);
+            occupations[i] = dos[i] * kt * Periodic.Numerics.ElementaryFunctions.Softplus((fermiLevel - spectrum.Levels[i].EnergyElectronVolts) / kt);
         }
 
         var warnings = new List<string>();

@@ -214,8 +214,8 @@ public sealed partial class BandProperties
         {
             return x > 0 ? Math.Exp(-x) / (1 + Math.Exp(-x)) : 1 / (1 + Math.Exp(x));
         }
-        // k_BT·ln(1 + e^(−x)), stable for either sign of x.
-        return x > 0 ? kT * Math.Log(1 + Math.Exp(-x)) : kT * (-x + Math.Log(1 + Math.Exp(x)));
+        // k_BT·ln(1 + e^(−x)), also where e^(−x) is tiny (far above the Fermi level).
+        return kT * Periodic.Numerics.ElementaryFunctions.Softplus(-x);
     }
 
     private FermiLevelSolution SolveFermiLevel(double target, double kT, double temperatureKelvin, double tolerance, bool superlattice, string paramName)

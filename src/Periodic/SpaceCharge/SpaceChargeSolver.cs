@@ -264,7 +264,7 @@ public static class SpaceChargeSolver
             double total = 0;
             for (var s = 0; s < _states; s++)
             {
-                total += _weights[s] * _kT * Softplus((mu - _energies[s]) / _kT);
+                total += _weights[s] * _kT * ElementaryFunctions.Softplus((mu - _energies[s]) / _kT);
             }
             return total;
         }
@@ -393,7 +393,7 @@ public static class SpaceChargeSolver
                 for (var i = 0; i < n; i++)
                 {
                     var x = (mu - e - (u[i] - _reference[i])) / _kT;
-                    density[i] += w * row[i] * _kT * Softplus(x);
+                    density[i] += w * row[i] * _kT * ElementaryFunctions.Softplus(x);
                     derivative[i] -= w * row[i] * Logistic(x);
                 }
             }
@@ -526,18 +526,5 @@ public static class SpaceChargeSolver
         }
     }
 
-    /// <summary>ln(1 + e^x) for either sign of x, accurate to a few ulps also where e^x is tiny (deep below the Fermi level).</summary>
-    private static double Softplus(double x) => x > 0 ? x + LogOnePlus(Math.Exp(-x)) : LogOnePlus(Math.Exp(x));
-
-    /// <summary>
-    /// ln(1 + y) for y ≥ 0 without the cancellation of Math.Log(1 + y) at small y: ln(u)·y/(u − 1) with u = 1 + y rounded
-    /// (D. Goldberg, ACM Comput. Surv. 23, 5 (1991), Theorem 4).
-    /// </summary>
-    private static double LogOnePlus(double y)
-    {
-        var u = 1 + y;
-        return u == 1 ? y : Math.Log(u) * y / (u - 1);
-    }
-
-    private static double Logistic(double x) => x > 0 ? 1 / (1 + Math.Exp(-x)) : Math.Exp(x) / (1 + Math.Exp(x));
+    private static double Logistic(double x) => MathNet.Numerics.SpecialFunctions.Logistic(x);
 }

@@ -141,9 +141,6 @@ internal static class TsuEsakiIntegrator
     /// </summary>
     internal static double Supply(double x, double u) =>
         Math.Abs(u) > 1
-            ? Softplus(x) - Softplus(x - u)
+            ? ElementaryFunctions.Softplus(x) - ElementaryFunctions.Softplus(x - u)
             : SpecialFunctions.Log1p(ElementaryFunctions.ExpM1(u) * SpecialFunctions.Logistic(x - u));
-
-    /// <summary>ln(1 + e^x) without overflow.</summary>
-    internal static double Softplus(double x) => x > 0 ? x + SpecialFunctions.Log1p(Math.Exp(-x)) : SpecialFunctions.Log1p(Math.Exp(x));
 }

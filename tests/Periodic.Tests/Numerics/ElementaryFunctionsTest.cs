@@ -110,4 +110,29 @@ public sealed class ElementaryFunctionsTest
         var naive = Math.Exp(1e-10) - 1;
         Assert.True(Math.Abs(RelativeErrorAgainstSeries(1e-10, naive)) > 1e-9);
     }
+
+    /// <summary>
+    /// Softplus ln(1 + e^x) against the series ln(1 + z) = z − z²/2 + z³/3 − … (Abramowitz and Stegun 4.1.24) with
+    /// z = e^(−|x|): for |x| ≥ 20, z ≤ 2e-9 and the first two terms leave an error below z³/3 ≈ 3e-27 of the result's
+    /// z, far under the 4 ε asserted; x = 0 gives ln 2 exactly rounded. Far below a Fermi level (x = −40, −700) the result is
+    /// e^x itself, where ln(1 + e^x) as written returns 0.
+    /// </summary>
+    [Theory]
+    [InlineData(-700.0)]
+    [InlineData(-40.0)]
+    [InlineData(-20.0)]
+    [InlineData(20.0)]
+    [InlineData(40.0)]
+    public void Softplus_FarFromZero_MatchesTheSeriesOfLog1p(double x)
+    {
+        var z = Math.Exp(-Math.Abs(x));
+        var tail = z - z * z / 2;
+        var expected = x > 0 ? x + tail : tail;
+        var actual = ElementaryFunctions.Softplus(x);
+        Assert.True(Math.Abs(actual - expected) <= Tolerance * expected, $"softplus({x}) = {actual:R}, series {expected:R}");
+    }
+
+    /// <summary>ln(1 + e⁰) = ln 2 (to the rounding of Math.Log(2); a fact of arithmetic, no source needed).</summary>
+    [Fact]
+    public void Softplus_AtZero_IsLogTwo() => Assert.Equal(Math.Log(2), ElementaryFunctions.Softplus(0), 15);
 }
