@@ -140,13 +140,13 @@ internal static class PlotCommand
             {
                 "in-plane" => InPlaneEdges(structure, n, result.GetValue(inPlane) ?? 1.0),
                 "drift" => Drift(structure, FieldCommands.SetUpDrift(structure, bandIndex, scatteringPs, driftKelvin, result.GetValue(maxField))),
-                "ladder" => Ladder(structure, FieldCommands.FindLadder(structure, bandIndex, p ?? 30, result.GetValue(field))),
+                "ladder" => Ladder(structure, FieldCommands.FindLadder(Common.RequireRigid(structure, "plot --show ladder"), bandIndex, p ?? 30, result.GetValue(field))),
                 "dispersion" => structure.OpticalLattice is { } lattice
                     ? LatticeOutput.DispersionPlot(structure, lattice, n, DisplayUnits.Lattice(lattice, latticeUnit)) : Dispersion(structure, n),
                 "dos" => Dos(structure, n, energies, latticeUnit),
                 "profile" => Profile(structure, n, p ?? 3, latticeUnit),
                 "stack" => Stack(structure, stackPeriods, TransmissionCommand.ChooseBias(u, structure), latticeUnit),
-                "iv" => CurrentVoltage(structure, stackPeriods, IvBias(u, structure), mu!.Value,
+                "iv" => CurrentVoltage(Common.RequireRigid(structure, "plot --show iv"), stackPeriods, IvBias(u, structure), mu!.Value,
                     t ?? structure.Materials?.Temperature.Kelvin ?? throw new UsageException("give --temperature K (the structure file has no material temperature).")),
                 _ => Transmission(structure, n, stackPeriods, energies, TransmissionCommand.ChooseBias(u, structure), latticeUnit),
             };

@@ -81,4 +81,16 @@ public sealed class SpaceChargeTest
             File.Delete(path);
         }
     }
+
+    [Theory]
+    [InlineData("ladder", "--field", "10")]
+    [InlineData("iv", "--fermi-level", "0.05")]
+    public void Plot_LadderOrIv_DopedFile_ExitsTwoPointingToTheRigidBands(string show, string option, string value)
+    {
+        var path = Path.Combine(Path.GetTempPath(), $"periodic-sc-{Guid.NewGuid():N}.png");
+        var run = ToolRunner.Invoke("plot", Doped, "--show", show, option, value, "--out", path);
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("--no-space-charge", run.Stderr);
+        Assert.False(File.Exists(path));
+    }
 }
