@@ -170,7 +170,9 @@ int32_t periodic_cell_create_optical_lattice(double wavelength_nm, double depth_
 /** Intersubband transitions of a stack at zero bias for light polarised along the growth axis, as the .NET
  *  library's IntersubbandSpectrum.Compute(stack) with its default options: every pair of bound levels,
  *  ordered by from, then to. Levels are numbered from 1 upwards, exactly as periodic_stack_bound_levels lists
- *  them. For transition i: from[i] < to[i]; energies_ev[i] = E_to - E_from (eV); dipoles_nm[i] the dipole
+ *  them. For transition i: from[i] < to[i]; energies_ev[i] = E_to - E_from (eV), of the levels refined to
+ *  1e-16 eV for the optics (so within the bound-level error bounds of the differences of periodic_stack_bound_levels'
+ *  energies, not bit for bit equal to them); dipoles_nm[i] the dipole
  *  <from|z|to> (nm, signed: the wavefunctions are real and positive in the left lead); oscillator_strengths[i]
  *  f = 2 m* w |z|^2 / hbar (length form, dimensionless) with m* from periodic_stack_transitions_accuracy;
  *  resolved[i] = 1, or 0 where the two levels are closer than double precision separates (wells behind very
