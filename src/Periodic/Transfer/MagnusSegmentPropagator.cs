@@ -13,7 +13,7 @@ namespace Periodic.Transfer;
 /// </summary>
 /// <remarks>
 /// <para>Closed form: Ω² = −ζ·I with ζ = −(α² + βγ), so exp(Ω) = cos√ζ·I + (sin√ζ/√ζ)·Ω, evaluated by
-/// <see cref="UniformLayerPropagator.Evaluate"/> with s = ζ and unit width (series near ζ = 0, division by
+/// <see cref="UniformLayerPropagator.EvaluateShortStep"/> with s = ζ and unit width (series near ζ = 0, division by
 /// e^√(−ζ) for evanescent steps so deep barriers never overflow). Since Ω is linear in E, the exact
 /// energy derivative of each step is dM/dE = ζ′(∂c/∂ζ·I + ∂S/∂ζ·Ω) + S·Ω′ with ζ′ = 2αα₁ + βγ₁.</para>
 /// <para>Zero count: the step is the exact solution over the step of the constant-coefficient system
@@ -214,7 +214,7 @@ internal sealed class MagnusSegmentPropagator
         var gamma = _gamma0[j] - g1 * e;
         zeta = -(alpha * alpha + beta * gamma);
         var dzeta = 2 * alpha * a1 + beta * g1;
-        UniformLayerPropagator.Evaluate(zeta, 1.0, out var c, out var s, out var dcdz, out var dsdz, out logScale);
+        UniformLayerPropagator.EvaluateShortStep(zeta, 1.0, out var c, out var s, out var dcdz, out var dsdz, out logScale);
         m11 = c + s * alpha;
         m22 = c - s * alpha;
         m12 = s * beta;

@@ -129,28 +129,56 @@ internal static class UniformLayerPropagator
         var z = s * width * width;
         if (Math.Abs(z) < 1.0)
         {
-            // Horner in z for c = Σ cS[j] z^j, S/w = Σ sS[j] z^j, dS/ds = w³ Σ (j+1) sS[j+1] z^j.
-            const int terms = DerivativeSeriesTerms;
-            double cSum = CSeries[terms], sSum = SSeries[terms], dSum = terms * SSeries[terms];
-            for (var j = terms - 1; j >= 0; j--)
-            {
-                cSum = cSum * z + CSeries[j];
-                sSum = sSum * z + SSeries[j];
-                if (j >= 1)
-                {
-                    dSum = dSum * z + j * SSeries[j];
-                }
-            }
-            c = cSum;
-            sinc = sSum * width;
-            dSds = dSum * width * width * width;
-            dcds = -0.5 * width * sinc;
+            SeriesWithDerivatives(z, width, DerivativeSeriesTerms, out c, out sinc, out dcds, out dSds);
             logScale = 0;
             return;
         }
         ScaledOutsideSeries(s, width, out c, out sinc, out logScale);
         dcds = -0.5 * width * sinc;
         dSds = (width * c - sinc) / (2 * s);
+    }
+
+    /// <summary>
+    /// As <see cref="Evaluate"/> for the many short steps of a Magnus mesh, where |z| is typically 1e-6 to 1e-3: the series
+    /// is cut at the number of terms |z| needs rather than at the worst case |z| → 1. For |z| &lt; 1e-4 four terms leave
+    /// out |z|⁵/10! &lt; 3e-27 of c and 5|z|⁴/11! &lt; 2e-23 of ∂S/∂s (relative to its leading 1/6), for |z| &lt; 1e-2 six terms
+    /// leave out |z|⁷/14! &lt; 2e-25 and 7|z|⁶/15! &lt; 6e-24: all far below an ulp of the results.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    internal static void EvaluateShortStep(double s, double width, out double c, out double sinc, out double dcds, out double dSds, out double logScale)
+    {
+        var z = s * width * width;
+        var size = Math.Abs(z);
+        if (size < 1.0)
+        {
+            SeriesWithDerivatives(z, width, size < 1e-4 ? 4 : size < 1e-2 ? 6 : DerivativeSeriesTerms, out c, out sinc, out dcds, out dSds);
+            logScale = 0;
+            return;
+        }
+        ScaledOutsideSeries(s, width, out c, out sinc, out logScale);
+        dcds = -0.5 * width * sinc;
+        dSds = (width * c - sinc) / (2 * s);
+    }
+
+    /// <summary>The Taylor series of c, S, ∂c/∂s, ∂S/∂s in z = s·w² (|z| &lt; 1), Horner to <paramref name="terms"/>.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static void SeriesWithDerivatives(double z, double width, int terms, out double c, out double sinc, out double dcds, out double dSds)
+    {
+        // Horner in z for c = Σ cS[j] z^j, S/w = Σ sS[j] z^j, dS/ds = w³ Σ (j+1) sS[j+1] z^j.
+        double cSum = CSeries[terms], sSum = SSeries[terms], dSum = terms * SSeries[terms];
+        for (var j = terms - 1; j >= 0; j--)
+        {
+            cSum = cSum * z + CSeries[j];
+            sSum = sSum * z + SSeries[j];
+            if (j >= 1)
+            {
+                dSum = dSum * z + j * SSeries[j];
+            }
+        }
+        c = cSum;
+        sinc = sSum * width;
+        dSds = dSum * width * width * width;
+        dcds = -0.5 * width * sinc;
     }
 
     /// <summary>c and S for |s·w²| ≥ 1, scaled by e^(−κw) for every barrier.</summary>
