@@ -260,9 +260,9 @@ public sealed class ValidationTest
         AssertRejects(() => m.WithLatticeConstant(Length.FromNanometres(bad)), "nanometres", bad);
         AssertRejects(() => m.WithVarshni(bad, Temperature.FromKelvin(204)), "varshniAlphaElectronVoltsPerKelvin", bad);
         AssertRejects(() => m.WithVarshni(5.4e-4, Temperature.FromKelvin(bad)), "kelvin", bad);
-        AssertRejects(() => TernaryAlloy.AlGaAs.WithGapBowing(bad), "gapBowingElectronVolts", bad);
+        AssertRejects(() => TernaryAlloy.AlGaAs.WithGapBowing(Energy.FromElectronVolts(bad)), "electronVolts", bad);
         AssertRejects(() => TernaryAlloy.AlGaAs.WithElectronMassBowing(bad), "electronMassBowingElectronMasses", bad);
-        AssertRejects(() => TernaryAlloy.AlGaAs.WithValenceBandOffsetBowing(bad), "valenceBandOffsetBowingElectronVolts", bad);
+        AssertRejects(() => TernaryAlloy.AlGaAs.WithValenceBandOffsetBowing(Energy.FromElectronVolts(bad)), "electronVolts", bad);
         AssertRejects(() => ModelLimits.Default.WithMaximumLatticeMismatch(bad), "maximumLatticeMismatch", bad);
         AssertRejects(() => ModelLimits.Default.WithMinimumMonolayers(bad), "minimumMonolayers", bad);
         AssertRejects(() => ModelLimits.Default.WithMaximumEnergyFractions(bad, 0.5), "maximumParabolicEnergyFraction", bad);
