@@ -34,10 +34,10 @@ public sealed class SpectralBandStructure
     /// <summary>Most bands the spectral path computes at once (the plane-wave solver returns at most 200 energies per wavevector).</summary>
     public const int MaxBandCount = 199;
 
-    private readonly double[] _errors;
-
     /// <summary>Tolerance at the floor of <see cref="PlaneWaveOptions"/>: the basis grows until the change between sizes is rounding.</summary>
     private static readonly PlaneWaveOptions ToRounding = PlaneWaveOptions.Create(1e-15);
+
+    private readonly double[] _errors;
 
     private SpectralBandStructure(BandStructure bands, double[] errors, bool converged, double relativeTolerance, int basisSize, double scale)
     {
