@@ -38,7 +38,7 @@ public class SweepBenchmarks
     }
 
     [Benchmark]
-    public double LibrarySerial() => Sum(BandSweep.Compute(_cells, Bands, maxDegreeOfParallelism: 1));
+    public double LibrarySerial() => Sum(BandSweep.Compute(_cells, Bands, BandSweepOptions.Create(maxDegreeOfParallelism: 1)));
 
     [Benchmark]
     public double LibraryParallel() => Sum(BandSweep.Compute(_cells, Bands));

@@ -74,7 +74,7 @@ internal static class DisplayUnits
     {
         LatticeEnergyUnit.Recoil => new EnergyUnit("E_R", lattice.RecoilEnergy.ElectronVolts, string.Create(CultureInfo.InvariantCulture,
             $"energies in recoil units E_R = hbar^2 k_L^2 / 2m = h x {OpticalLattice.ToHertz(lattice.RecoilEnergy.ElectronVolts) / 1e3:G6} kHz = {lattice.RecoilEnergy.ElectronVolts:G6} eV")),
-        LatticeEnergyUnit.Kilohertz => new EnergyUnit("kHz", OpticalLattice.FromHertz(1e3), "energies as frequencies E/h in kHz"),
+        LatticeEnergyUnit.Kilohertz => new EnergyUnit("kHz", OpticalLattice.FromHertz(1e3).ElectronVolts, "energies as frequencies E/h in kHz"),
         _ => EnergyUnit.ElectronVolt,
     };
 

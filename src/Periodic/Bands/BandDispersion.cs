@@ -32,9 +32,6 @@ namespace Periodic.Bands;
 /// </remarks>
 public sealed class BandDispersion
 {
-    /// <summary>Default absolute tolerance on E(k), eV.</summary>
-    public const double DefaultAbsoluteToleranceElectronVolts = 1e-13;
-
     /// <summary>Largest degree of one piece before it is halved.</summary>
     public const int MaxDegree = 64;
 
@@ -119,15 +116,14 @@ public sealed class BandDispersion
     /// <summary>Inverts band <paramref name="bandIndex"/> of <paramref name="bands"/>.</summary>
     /// <param name="bands">The band structure.</param>
     /// <param name="bandIndex">1-based band index, a band that <paramref name="bands"/> holds.</param>
-    /// <param name="absoluteToleranceElectronVolts">Target accuracy, in [1e-15, 1e-3] eV.</param>
+    /// <param name="options">The target accuracy (<see cref="BandDispersionOptions.Default"/>, 1e-13 eV, when null).</param>
     /// <exception cref="ArgumentNullException"><paramref name="bands"/> is null.</exception>
-    /// <exception cref="ArgumentOutOfRangeException">No such band, or the tolerance is outside its range.</exception>
-    public static BandDispersion Create(BandStructure bands, int bandIndex, double absoluteToleranceElectronVolts = DefaultAbsoluteToleranceElectronVolts)
+    /// <exception cref="ArgumentOutOfRangeException">No such band.</exception>
+    public static BandDispersion Create(BandStructure bands, int bandIndex, BandDispersionOptions? options = null)
     {
         ArgumentNullException.ThrowIfNull(bands);
         var band = bands.GetBand(bandIndex);
-        Preconditions.CheckRange(absoluteToleranceElectronVolts, 1e-15, 1e-3);
-        return CreateCore(bands, bandIndex, band, absoluteToleranceElectronVolts);
+        return CreateCore(bands, bandIndex, band, (options ?? BandDispersionOptions.Default).AbsoluteToleranceElectronVolts);
     }
 
     /// <summary>
@@ -172,16 +168,16 @@ public sealed class BandDispersion
     }
 
     /// <summary>
-    /// Effectively computes <c>destination[i] = E_n(wavevectorsPerNanometre[i])</c> in eV. Does not
+    /// Effectively computes <c>destinationElectronVolts[i] = E_n(wavevectorsPerNanometre[i])</c> in eV. Does not
     /// allocate; every wavevector is checked before anything is written; in place when both spans start
     /// at the same address.
     /// </summary>
     /// <exception cref="ArgumentException">The destination is shorter than the input, or a wavevector is outside the first zone.</exception>
     // Straight to optimised code: a short-lived process (the command-line tool) evaluates millions of points before tiered compilation would promote it.
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    public void EnergiesAt(ReadOnlySpan<double> wavevectorsPerNanometre, Span<double> destination)
+    public void EnergiesAt(ReadOnlySpan<double> wavevectorsPerNanometre, Span<double> destinationElectronVolts)
     {
-        Preconditions.CheckDestination(wavevectorsPerNanometre.Length, destination.Length, nameof(wavevectorsPerNanometre), nameof(destination));
+        Preconditions.CheckDestination(wavevectorsPerNanometre.Length, destinationElectronVolts.Length, nameof(wavevectorsPerNanometre), nameof(destinationElectronVolts));
         if (wavevectorsPerNanometre.Length == 0)
         {
             return;
@@ -195,7 +191,7 @@ public sealed class BandDispersion
                 throw ZoneError(nameof(wavevectorsPerNanometre), string.Create(CultureInfo.InvariantCulture, $"wavevectorsPerNanometre[{j}]"), k);
             }
         }
-        var output = destination[..wavevectorsPerNanometre.Length];
+        var output = destinationElectronVolts[..wavevectorsPerNanometre.Length];
         // x = cos(|k| d); cos is even, so |k| is not needed. A scalar loop rather than TensorPrimitives: the vector
         // kernels run unoptimised (tier 0) for their first calls, which in a short-lived process costs more than they save.
         for (var j = 0; j < output.Length; j++)

@@ -312,7 +312,7 @@ public sealed partial class BandStructure
     }
 
     /// <summary>
-    /// Effectively computes <c>destination[i] = E_n(wavevectorsPerNanometre[i])</c> in eV for band
+    /// Effectively computes <c>destinationElectronVolts[i] = E_n(wavevectorsPerNanometre[i])</c> in eV for band
     /// <paramref name="bandIndex"/>. From <see cref="FastPathMinimumPoints"/> wavevectors on, the band's
     /// Chebyshev inversion (<see cref="DispersionOf"/>, built once and kept) evaluates them, about 70 times
     /// faster than a root search per point; its accuracy is that dispersion's
@@ -320,13 +320,13 @@ public sealed partial class BandStructure
     /// Shorter spans use the root search of <see cref="EnergyAt"/>. Allocates only when the inversion is first built.
     /// </summary>
     /// <exception cref="ArgumentException">The destination is shorter than the input, or a wavevector is outside the first zone (destination is then unchanged).</exception>
-    public void EnergiesAt(int bandIndex, ReadOnlySpan<double> wavevectorsPerNanometre, Span<double> destination)
+    public void EnergiesAt(int bandIndex, ReadOnlySpan<double> wavevectorsPerNanometre, Span<double> destinationElectronVolts)
     {
         var band = GetBand(bandIndex);
-        Preconditions.CheckDestination(wavevectorsPerNanometre.Length, destination.Length, nameof(wavevectorsPerNanometre), nameof(destination));
+        Preconditions.CheckDestination(wavevectorsPerNanometre.Length, destinationElectronVolts.Length, nameof(wavevectorsPerNanometre), nameof(destinationElectronVolts));
         if (wavevectorsPerNanometre.Length >= FastPathMinimumPoints)
         {
-            DispersionOf(bandIndex).EnergiesAt(wavevectorsPerNanometre, destination);
+            DispersionOf(bandIndex).EnergiesAt(wavevectorsPerNanometre, destinationElectronVolts);
             return;
         }
         // Validate every wavevector before writing anything: no partial output on a bad element.
@@ -336,7 +336,7 @@ public sealed partial class BandStructure
         }
         for (var i = 0; i < wavevectorsPerNanometre.Length; i++)
         {
-            destination[i] = EnergyAtPhase(band, ReducedPhase(wavevectorsPerNanometre[i], i));
+            destinationElectronVolts[i] = EnergyAtPhase(band, ReducedPhase(wavevectorsPerNanometre[i], i));
         }
     }
 

@@ -15,27 +15,24 @@ namespace Periodic.Bands;
 public static class BandSweep
 {
     /// <summary>
-    /// Effectively computes <c>result[i] = BandStructure.Compute(cells[i], bandCount, options)</c>.
+    /// Effectively computes <c>result[i] = BandStructure.Compute(cells[i], bandCount, options.Search)</c>.
     /// Cells are distributed over threads in contiguous ranges with <see cref="Parallel.ForEach{TSource}(System.Collections.Concurrent.Partitioner{TSource}, ParallelOptions, Action{TSource})"/>;
     /// results are written by index, so their order and values do not depend on the thread count.
     /// </summary>
     /// <param name="cells">The cells; none may be null.</param>
     /// <param name="bandCount">Bands per cell, 1 to 10,000.</param>
-    /// <param name="options">Tolerances; when null, each cell gets the defaults scaled to its energy scale, as in <see cref="BandStructure.Compute(UnitCell, int, BandSearchOptions?)"/>.</param>
-    /// <param name="maxDegreeOfParallelism">Threads to use: −1 for all cores, 1 for serial, or any positive count.</param>
+    /// <param name="options">The search tolerances and the thread count (<see cref="BandSweepOptions.Default"/> when null: each cell
+    /// gets the defaults scaled to its energy scale, as in <see cref="BandStructure.Compute(UnitCell, int, BandSearchOptions?)"/>, on all cores).</param>
     /// <exception cref="ArgumentNullException"><paramref name="cells"/> is null.</exception>
     /// <exception cref="ArgumentException">A cell is null.</exception>
-    /// <exception cref="ArgumentOutOfRangeException"><paramref name="bandCount"/> or <paramref name="maxDegreeOfParallelism"/> is out of range.</exception>
+    /// <exception cref="ArgumentOutOfRangeException"><paramref name="bandCount"/> is out of range.</exception>
     /// <exception cref="BandSearchException">The search failed for a cell; the message names the lowest such cell index. No partial result is returned.</exception>
-    public static BandStructure[] Compute(IReadOnlyList<UnitCell> cells, int bandCount, BandSearchOptions? options = null, int maxDegreeOfParallelism = -1)
+    public static BandStructure[] Compute(IReadOnlyList<UnitCell> cells, int bandCount, BandSweepOptions? options = null)
     {
         ArgumentNullException.ThrowIfNull(cells);
         Preconditions.CheckRange(bandCount, 1, 10000);
-        if (maxDegreeOfParallelism == 0 || maxDegreeOfParallelism < -1)
-        {
-            throw new ArgumentOutOfRangeException(nameof(maxDegreeOfParallelism), maxDegreeOfParallelism,
-                string.Create(CultureInfo.InvariantCulture, $"maxDegreeOfParallelism must be -1 (all cores) or at least 1; got {maxDegreeOfParallelism}."));
-        }
+        var sweep = options ?? BandSweepOptions.Default;
+        var (search, maxDegreeOfParallelism) = (sweep.Search, sweep.MaxDegreeOfParallelism);
         for (var i = 0; i < cells.Count; i++)
         {
             if (cells[i] is null)
@@ -80,7 +77,7 @@ public static class BandSweep
         {
             try
             {
-                results[i] = BandStructure.Compute(cells[i], bandCount, options);
+                results[i] = BandStructure.Compute(cells[i], bandCount, search);
             }
             catch (BandSearchException exception)
             {

@@ -25,17 +25,17 @@ namespace Periodic.Bands;
 /// transfer matrix of the same cell on a Magnus mesh four times finer than the segment's own (and finer still for
 /// deep lattices, in proportion to √(depth/E_R)), and that
 /// count is checked at the middle of every band and gap against the spectral edges.</para>
-/// <para>Tolerance: an edge E has converged when its error is at most relativeTolerance × max(|E|, S), with
+/// <para>Tolerance: an edge E has converged when its error is at most <see cref="PlaneWaveOptions.RelativeTolerance"/> × max(|E|, S), with
 /// S = max(V_max − V_min, ħ²(π/d)²/2m) the cell's energy scale (for an optical lattice S is the larger of the
 /// depth and the recoil energy).</para>
 /// </remarks>
 public sealed class SpectralBandStructure
 {
-    /// <summary>Default relative tolerance of <see cref="Converged"/>.</summary>
-    public const double DefaultRelativeTolerance = 1e-12;
-
     /// <summary>Most bands the spectral path computes at once (the plane-wave solver returns at most 200 energies per wavevector).</summary>
     public const int MaxBandCount = 199;
+
+    /// <summary>Tolerance at the floor of <see cref="PlaneWaveOptions"/>: the basis grows until the change between sizes is rounding.</summary>
+    private static readonly PlaneWaveOptions ToRounding = PlaneWaveOptions.Create(1e-15);
 
     private readonly double[] _errors;
 
@@ -89,15 +89,16 @@ public sealed class SpectralBandStructure
     /// <summary>Computes the lowest <paramref name="count"/> bands of a cell made of one Fourier-series segment.</summary>
     /// <param name="cell">A cell for which <see cref="AppliesTo"/> is true.</param>
     /// <param name="count">Number of bands, 1 to <see cref="MaxBandCount"/>.</param>
-    /// <param name="relativeTolerance">In [1e-14, 1e-2]: the accuracy <see cref="Converged"/> reports on.</param>
+    /// <param name="options">The relative tolerance <see cref="Converged"/> reports on (<see cref="PlaneWaveOptions.Default"/>, 1e-12, when
+    /// null); the edges themselves are always computed to the rounding level.</param>
     /// <exception cref="ArgumentNullException"><paramref name="cell"/> is null.</exception>
     /// <exception cref="ArgumentException">The cell is not one Fourier segment, or a value lies outside its range.</exception>
     /// <exception cref="BandSearchException">The oscillation count disagrees with the spectral edges.</exception>
-    public static SpectralBandStructure Compute(UnitCell cell, int count, double relativeTolerance = DefaultRelativeTolerance)
+    public static SpectralBandStructure Compute(UnitCell cell, int count, PlaneWaveOptions? options = null)
     {
         ArgumentNullException.ThrowIfNull(cell);
         Preconditions.CheckRange(count, 1, MaxBandCount);
-        Preconditions.CheckRange(relativeTolerance, 1e-14, 1e-2);
+        var relativeTolerance = (options ?? PlaneWaveOptions.Default).RelativeTolerance;
         if (cell.Elements.Count != 1 || cell.Elements[0] is not FourierSegment segment)
         {
             throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
@@ -107,8 +108,8 @@ public sealed class SpectralBandStructure
         var boundary = Math.PI / solver.PeriodNanometres;
         // Tolerance at the floor, so the basis grows until the change between sizes is rounding: the last change then
         // measures the error of the larger basis instead of overstating it by the factor of one enlargement.
-        var centre = solver.EnergiesAt(0, count + 1, 1e-15);
-        var edge = solver.EnergiesAt(boundary, count + 1, 1e-15);
+        var centre = solver.EnergiesAt(0, count + 1, ToRounding);
+        var edge = solver.EnergiesAt(boundary, count + 1, ToRounding);
         var edges = new double[2 * count + 1];
         var errors = new double[2 * count + 1];
         for (var i = 0; i <= 2 * count; i++)
@@ -117,7 +118,7 @@ public sealed class SpectralBandStructure
             var band = i % 2 == 0 ? i / 2 + 1 : (i + 1) / 2;
             var atCentre = (band % 2 == 1) == (i % 2 == 0);
             var spectrum = atCentre ? centre : edge;
-            edges[i] = spectrum.Energies[band - 1];
+            edges[i] = spectrum.EnergiesElectronVolts[band - 1];
             errors[i] = spectrum.EstimatedErrorsElectronVolts[band - 1];
         }
         var scale = solver.EnergyScaleElectronVolts;

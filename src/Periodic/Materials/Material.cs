@@ -91,28 +91,38 @@ public sealed class Material
     /// <summary>The material's name (for an alloy, its formula with the composition).</summary>
     public string Name { get; }
 
-    /// <summary>Γ-valley band gap at 0 K, eV.</summary>
-    public double BandGapAtZeroKelvinElectronVolts { get; }
+    /// <summary>Γ-valley band gap at 0 K.</summary>
+    public Energy BandGapAtZeroKelvin => Energy.FromElectronVolts(BandGapAtZeroKelvinElectronVolts);
+
+    internal double BandGapAtZeroKelvinElectronVolts { get; }
 
     /// <summary>Varshni α in eV/K (the table quotes meV/K).</summary>
     public double VarshniAlphaElectronVoltsPerKelvin { get; }
 
-    /// <summary>Varshni β in K.</summary>
-    public double VarshniBetaKelvin { get; }
+    /// <summary>Varshni β (a temperature).</summary>
+    public Temperature VarshniBeta => Temperature.FromKelvin(VarshniBetaKelvin);
+
+    internal double VarshniBetaKelvin { get; }
 
     /// <summary>Γ-valley conduction-band effective mass at the band edge (taken independent of temperature).</summary>
     public EffectiveMass ElectronMass => EffectiveMass.FromElectronMasses(ElectronMassElectronMasses);
 
     internal double ElectronMassElectronMasses { get; }
 
-    /// <summary>Valence-band maximum on the absolute scale of the table, eV (taken independent of temperature).</summary>
-    public double ValenceBandOffsetElectronVolts { get; }
+    /// <summary>Valence-band maximum on the absolute scale of the table (taken independent of temperature).</summary>
+    public Energy ValenceBandOffset => Energy.FromElectronVolts(ValenceBandOffsetElectronVolts);
 
-    /// <summary>Cubic lattice constant a, nm.</summary>
-    public double LatticeConstantNanometres { get; }
+    internal double ValenceBandOffsetElectronVolts { get; }
 
-    /// <summary>One monolayer along [001], a/2, nm.</summary>
-    public double MonolayerNanometres => 0.5 * LatticeConstantNanometres;
+    /// <summary>Cubic lattice constant a.</summary>
+    public Length LatticeConstant => Length.FromNanometres(LatticeConstantNanometres);
+
+    internal double LatticeConstantNanometres { get; }
+
+    /// <summary>The thickness of one monolayer along [001], a/2.</summary>
+    public Length MonolayerThickness => Length.FromNanometres(MonolayerNanometres);
+
+    internal double MonolayerNanometres => 0.5 * LatticeConstantNanometres;
 
     /// <summary>Heavy-hole mass along [001]; null when no value is available.</summary>
     public EffectiveMass? HeavyHoleMass => HeavyHoleMassElectronMasses is { } m ? EffectiveMass.FromElectronMasses(m) : null;

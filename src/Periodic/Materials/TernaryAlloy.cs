@@ -2,6 +2,7 @@
 // Copyright (c) 2026 Periodic contributors
 
 using System.Globalization;
+using Periodic.Units;
 
 namespace Periodic.Materials;
 
@@ -82,17 +83,23 @@ public sealed class TernaryAlloy
     /// <summary>The binary at x = 0 (GaAs for AlGaAs and InGaAs, AlAs for InAlAs).</summary>
     public Material MaterialAtZero { get; }
 
-    /// <summary>Composition-independent part b₀ of the Γ-gap bowing b_g(x) = b₀ + b₁·x, eV.</summary>
-    public double GapBowingElectronVolts { get; }
+    /// <summary>Composition-independent part b₀ of the Γ-gap bowing b_g(x) = b₀ + b₁·x.</summary>
+    public Energy GapBowing => Energy.FromElectronVolts(GapBowingElectronVolts);
 
-    /// <summary>Composition slope b₁ of the Γ-gap bowing b_g(x) = b₀ + b₁·x, eV.</summary>
-    public double GapBowingSlopeElectronVolts { get; }
+    /// <summary>Composition slope b₁ of the Γ-gap bowing b_g(x) = b₀ + b₁·x.</summary>
+    public Energy GapBowingSlope => Energy.FromElectronVolts(GapBowingSlopeElectronVolts);
+
+    internal double GapBowingElectronVolts { get; }
+
+    internal double GapBowingSlopeElectronVolts { get; }
 
     /// <summary>Bowing of the conduction-band mass, m₀.</summary>
     public double ElectronMassBowingElectronMasses { get; }
 
-    /// <summary>Bowing of the valence-band offset, eV.</summary>
-    public double ValenceBandOffsetBowingElectronVolts { get; }
+    /// <summary>Bowing of the valence-band offset.</summary>
+    public Energy ValenceBandOffsetBowing => Energy.FromElectronVolts(ValenceBandOffsetBowingElectronVolts);
+
+    internal double ValenceBandOffsetBowingElectronVolts { get; }
 
     /// <summary>Lowest x at which Γ is the lowest conduction minimum.</summary>
     public double DirectCompositionMinimum { get; }
@@ -129,11 +136,12 @@ public sealed class TernaryAlloy
         return Material.Derived(FormulaAt(x), gap, alpha, beta, mass, vbo, lattice, heavy, light, direct, Source).WithInterpolatedPermittivity(permittivity);
     }
 
-    /// <summary>A copy with another Γ-gap bowing b_g(x) = b₀ + b₁·x, eV.</summary>
-    /// <exception cref="ArgumentOutOfRangeException">A value is not finite.</exception>
-    public TernaryAlloy WithGapBowing(double gapBowingElectronVolts, double gapBowingSlopeElectronVolts = 0) =>
-        new(Name, _formulaA, _formulaB, _anion, MaterialAtOne, MaterialAtZero, Preconditions.CheckFinite(gapBowingElectronVolts),
-            Preconditions.CheckFinite(gapBowingSlopeElectronVolts), ElectronMassBowingElectronMasses, ValenceBandOffsetBowingElectronVolts,
+    /// <summary>A copy with another Γ-gap bowing b_g(x) = b₀ + b₁·x (either may be negative).</summary>
+    /// <param name="gapBowing">b₀.</param>
+    /// <param name="gapBowingSlope">b₁ (default 0: a composition-independent bowing).</param>
+    public TernaryAlloy WithGapBowing(Energy gapBowing, Energy gapBowingSlope = default) =>
+        new(Name, _formulaA, _formulaB, _anion, MaterialAtOne, MaterialAtZero, gapBowing.ElectronVolts,
+            gapBowingSlope.ElectronVolts, ElectronMassBowingElectronMasses, ValenceBandOffsetBowingElectronVolts,
             DirectCompositionMinimum, DirectCompositionMaximum, Source + "; gap bowing from caller");
 
     /// <summary>A copy with another electron-mass bowing, m₀.</summary>
@@ -143,11 +151,10 @@ public sealed class TernaryAlloy
             Preconditions.CheckFinite(electronMassBowingElectronMasses), ValenceBandOffsetBowingElectronVolts,
             DirectCompositionMinimum, DirectCompositionMaximum, Source + "; mass bowing from caller");
 
-    /// <summary>A copy with another valence-band-offset bowing, eV.</summary>
-    /// <exception cref="ArgumentOutOfRangeException">The value is not finite.</exception>
-    public TernaryAlloy WithValenceBandOffsetBowing(double valenceBandOffsetBowingElectronVolts) =>
+    /// <summary>A copy with another valence-band-offset bowing (it may be negative).</summary>
+    public TernaryAlloy WithValenceBandOffsetBowing(Energy valenceBandOffsetBowing) =>
         new(Name, _formulaA, _formulaB, _anion, MaterialAtOne, MaterialAtZero, GapBowingElectronVolts, GapBowingSlopeElectronVolts,
-            ElectronMassBowingElectronMasses, Preconditions.CheckFinite(valenceBandOffsetBowingElectronVolts),
+            ElectronMassBowingElectronMasses, valenceBandOffsetBowing.ElectronVolts,
             DirectCompositionMinimum, DirectCompositionMaximum, Source + "; VBO bowing from caller");
 
     /// <summary>A copy with other endpoint binaries (for example with an overridden parameter).</summary>

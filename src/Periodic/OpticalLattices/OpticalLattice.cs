@@ -109,12 +109,14 @@ public sealed class OpticalLattice
     public double ToRecoilEnergies(double energyElectronVolts) => energyElectronVolts / RecoilEnergy.ElectronVolts;
 
     /// <summary>Converts an energy in eV to the frequency E/h, Hz.</summary>
+    /// <exception cref="ArgumentOutOfRangeException">The energy is not finite.</exception>
     public static double ToHertz(double energyElectronVolts) =>
-        energyElectronVolts * PhysicalConstants.ElementaryChargeCoulombs / PhysicalConstants.PlanckJouleSeconds;
+        Preconditions.CheckFinite(energyElectronVolts) * PhysicalConstants.ElementaryChargeCoulombs / PhysicalConstants.PlanckJouleSeconds;
 
-    /// <summary>Converts a frequency E/h in Hz to an energy in eV.</summary>
-    public static double FromHertz(double frequencyHertz) =>
-        frequencyHertz * PhysicalConstants.PlanckJouleSeconds / PhysicalConstants.ElementaryChargeCoulombs;
+    /// <summary>The energy h·f of a frequency f in Hz.</summary>
+    /// <exception cref="ArgumentOutOfRangeException">The frequency is not finite.</exception>
+    public static Energy FromHertz(double frequencyHertz) =>
+        Energy.FromElectronVolts(Preconditions.CheckFinite(frequencyHertz) * PhysicalConstants.PlanckJouleSeconds / PhysicalConstants.ElementaryChargeCoulombs);
 
     /// <summary>Converts a Bloch wavevector in 1/nm to units of k_L (the zone boundary of the first wave is at 1).</summary>
     public double ToLatticeWavenumbers(double wavevectorPerNanometre) => wavevectorPerNanometre / LatticeWavenumberPerNanometre;

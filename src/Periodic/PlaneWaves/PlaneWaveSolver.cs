@@ -22,7 +22,7 @@ namespace Periodic.PlaneWaves;
 /// real symmetric when the potential and the inverse mass are even (cosine terms only), complex
 /// Hermitian otherwise.</para>
 /// <para>Basis size: N grows (by half, at least 8) until every requested energy changes by at most
-/// relativeTolerance × max(|E|, energy scale) between two sizes; that change is reported as the error
+/// <see cref="PlaneWaveOptions.RelativeTolerance"/> × max(|E|, energy scale) between two sizes; that change is reported as the error
 /// estimate, floored at the rounding level 8ε·(|E| + S) of the energies (S the cell's energy scale; a dense
 /// eigensolve followed by a Rayleigh–Ritz step reaches that level, see the internal Solve). When the change reaches that floor
 /// first, the search stops there (a larger basis would only add rounding) and <see cref="PlaneWaveSpectrum.Converged"/>
@@ -35,9 +35,6 @@ namespace Periodic.PlaneWaves;
 /// </remarks>
 public sealed class PlaneWaveSolver
 {
-    /// <summary>Default relative tolerance of the basis-size search.</summary>
-    public const double DefaultRelativeTolerance = 1e-12;
-
     /// <summary>Largest N (the basis holds 2N + 1 plane waves).</summary>
     public const int MaxHarmonicCutoff = 400;
 
@@ -138,17 +135,17 @@ public sealed class PlaneWaveSolver
 
     /// <summary>
     /// The lowest <paramref name="bandCount"/> Bloch energies at wavevector <paramref name="wavevectorPerNanometre"/>,
-    /// with the basis enlarged until they converge to <paramref name="relativeTolerance"/>.
+    /// with the basis enlarged until they converge to the options' relative tolerance.
     /// </summary>
     /// <param name="wavevectorPerNanometre">Any finite k (1/nm); energies are periodic in k with period 2π/d.</param>
     /// <param name="bandCount">1 to 200.</param>
-    /// <param name="relativeTolerance">In [1e-15, 1e-2], relative to max(|E|, energy scale of the cell).</param>
+    /// <param name="options">The tolerance, relative to max(|E|, energy scale of the cell); <see cref="PlaneWaveOptions.Default"/> when null.</param>
     /// <exception cref="ArgumentOutOfRangeException">A value lies outside its range.</exception>
-    public PlaneWaveSpectrum EnergiesAt(double wavevectorPerNanometre, int bandCount, double relativeTolerance = DefaultRelativeTolerance)
+    public PlaneWaveSpectrum EnergiesAt(double wavevectorPerNanometre, int bandCount, PlaneWaveOptions? options = null)
     {
         Preconditions.CheckFinite(wavevectorPerNanometre);
         Preconditions.CheckRange(bandCount, 1, 200);
-        Preconditions.CheckRange(relativeTolerance, 1e-15, 1e-2);
+        var relativeTolerance = (options ?? PlaneWaveOptions.Default).RelativeTolerance;
         // The matrix is solved in units of the energy scale (MathNet's iteration is tuned for entries of order one).
         var n = InitialCutoff(bandCount);
         var previous = Solve(wavevectorPerNanometre, n, bandCount, false).Energies;
@@ -335,7 +332,7 @@ public sealed class PlaneWaveSpectrum
         WavevectorPerNanometre = k;
         _energies = energies;
         _errors = (double[])errors.Clone();
-        Energies = Array.AsReadOnly(_energies);
+        EnergiesElectronVolts = Array.AsReadOnly(_energies);
         EstimatedErrorsElectronVolts = Array.AsReadOnly(_errors);
         BasisSize = basisSize;
         Converged = converged;
@@ -346,7 +343,7 @@ public sealed class PlaneWaveSpectrum
     public double WavevectorPerNanometre { get; }
 
     /// <summary>The energies E₁(k) ≤ E₂(k) ≤ …, eV.</summary>
-    public IReadOnlyList<double> Energies { get; }
+    public IReadOnlyList<double> EnergiesElectronVolts { get; }
 
     /// <summary>Estimated error of each energy (its change over the last basis enlargement), eV.</summary>
     public IReadOnlyList<double> EstimatedErrorsElectronVolts { get; }

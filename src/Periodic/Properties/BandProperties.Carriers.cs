@@ -9,9 +9,6 @@ namespace Periodic.Properties;
 
 public sealed partial class BandProperties
 {
-    /// <summary>Default absolute tolerance of the Fermi-level searches, eV.</summary>
-    public const double DefaultFermiLevelToleranceElectronVolts = 1e-12;
-
     /// <summary>Bands whose bottom lies more than this many k_BT above max(μ, lowest band bottom) are left out (occupation below e^−40 ≈ 4e-18).</summary>
     private const double OccupationCutoff = 40;
 
@@ -71,18 +68,20 @@ public sealed partial class BandProperties
     /// <summary>
     /// The Fermi level (eV) at which the 1D carrier density equals <paramref name="densityPerNanometre"/>,
     /// by Brent's method on the monotone n(μ) (R. P. Brent, Algorithms for Minimization without Derivatives,
-    /// 1973, ch. 4), to <paramref name="absoluteToleranceElectronVolts"/>.
+    /// 1973, ch. 4), to the options' absolute tolerance.
     /// </summary>
+    /// <param name="densityPerNanometre">The target density, 1/nm; positive and finite.</param>
+    /// <param name="temperature">The temperature.</param>
+    /// <param name="options">The tolerance (<see cref="FermiLevelOptions.Default"/>, 1e-12 eV, when null).</param>
     /// <remarks>At T = 0 a density that fills whole bands exactly is reached anywhere in the gap above them; the
     /// level returned then lies somewhere in that gap.</remarks>
-    /// <exception cref="ArgumentOutOfRangeException">The density is not positive and finite, or needs bands that were not computed; the temperature or tolerance is out of range.</exception>
-    public FermiLevelSolution FermiLevelForLinearDensity(double densityPerNanometre, Temperature temperature,
-        double absoluteToleranceElectronVolts = DefaultFermiLevelToleranceElectronVolts)
+    /// <exception cref="ArgumentOutOfRangeException">The density is not positive and finite, or needs bands that were not computed.</exception>
+    public FermiLevelSolution FermiLevelForLinearDensity(double densityPerNanometre, Temperature temperature, FermiLevelOptions? options = null)
     {
         Preconditions.CheckPositiveFinite(densityPerNanometre);
         var temperatureKelvin = temperature.Kelvin;
         var kT = CheckTemperature(temperatureKelvin);
-        Preconditions.CheckRange(absoluteToleranceElectronVolts, 1e-15, 1.0);
+        var absoluteToleranceElectronVolts = (options ?? FermiLevelOptions.Default).AbsoluteToleranceElectronVolts;
         var factor = 2 / (Math.PI * _d);
         return SolveFermiLevel(densityPerNanometre / factor, kT, temperatureKelvin, absoluteToleranceElectronVolts, false, nameof(densityPerNanometre));
     }
@@ -90,17 +89,21 @@ public sealed partial class BandProperties
     /// <summary>
     /// The Fermi level (eV) at which the superlattice carrier density equals
     /// <paramref name="densityPerCubicNanometre"/> (in-plane mass <paramref name="inPlaneMass"/>), by Brent's method
-    /// to <paramref name="absoluteToleranceElectronVolts"/>.
+    /// to the options' absolute tolerance.
     /// </summary>
-    /// <exception cref="ArgumentOutOfRangeException">The density is not positive and finite, or needs bands that were not computed; the temperature, mass or tolerance is out of range.</exception>
+    /// <param name="densityPerCubicNanometre">The target density, 1/nm³; positive and finite.</param>
+    /// <param name="temperature">The temperature.</param>
+    /// <param name="inPlaneMass">The in-plane mass (not the default mass).</param>
+    /// <param name="options">The tolerance (<see cref="FermiLevelOptions.Default"/>, 1e-12 eV, when null).</param>
+    /// <exception cref="ArgumentOutOfRangeException">The density is not positive and finite, or needs bands that were not computed; the mass is out of range.</exception>
     public FermiLevelSolution FermiLevelForSuperlatticeDensity(double densityPerCubicNanometre, Temperature temperature, EffectiveMass inPlaneMass,
-        double absoluteToleranceElectronVolts = DefaultFermiLevelToleranceElectronVolts)
+        FermiLevelOptions? options = null)
     {
         Preconditions.CheckPositiveFinite(densityPerCubicNanometre);
         var temperatureKelvin = temperature.Kelvin;
         var kT = CheckTemperature(temperatureKelvin);
         var factor = SuperlatticeFactor(inPlaneMass) * 2 / (Math.PI * _d);
-        Preconditions.CheckRange(absoluteToleranceElectronVolts, 1e-15, 1.0);
+        var absoluteToleranceElectronVolts = (options ?? FermiLevelOptions.Default).AbsoluteToleranceElectronVolts;
         return SolveFermiLevel(densityPerCubicNanometre / factor, kT, temperatureKelvin, absoluteToleranceElectronVolts, true, nameof(densityPerCubicNanometre));
     }
 

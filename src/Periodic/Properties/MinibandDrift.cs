@@ -103,12 +103,12 @@ public sealed class MinibandDrift
 
     /// <summary>The drift of a band given by its cosine series E(k) = Σ_j t_j cos(jkd) (no gap above is known).</summary>
     /// <param name="coefficientsElectronVolts">t_0, t_1, … in eV; at least two, all finite.</param>
-    /// <param name="periodNanometres">d &gt; 0, nm.</param>
+    /// <param name="period">The period d; positive.</param>
     /// <param name="scatteringTimeSeconds">τ &gt; 0, s.</param>
     /// <param name="temperature">T, at most 10,000 K (default 0 K).</param>
     /// <exception cref="ArgumentException">Fewer than two coefficients, or one is not finite.</exception>
     /// <exception cref="ArgumentOutOfRangeException">d, τ or T out of range.</exception>
-    public static MinibandDrift FromCosineSeries(ReadOnlySpan<double> coefficientsElectronVolts, double periodNanometres, double scatteringTimeSeconds, Temperature temperature = default)
+    public static MinibandDrift FromCosineSeries(ReadOnlySpan<double> coefficientsElectronVolts, Length period, double scatteringTimeSeconds, Temperature temperature = default)
     {
         if (coefficientsElectronVolts.Length < 2)
         {
@@ -123,7 +123,7 @@ public sealed class MinibandDrift
                     $"coefficientsElectronVolts[{j}] must be finite; got {Preconditions.Format(coefficientsElectronVolts[j])}."), nameof(coefficientsElectronVolts));
             }
         }
-        Preconditions.CheckPositiveFinite(periodNanometres);
+        var periodNanometres = Preconditions.CheckPositiveFinite(period.Nanometres, nameof(period));
         var temperatureKelvin = CheckArguments(scatteringTimeSeconds, temperature);
         return new MinibandDrift(0, periodNanometres, coefficientsElectronVolts.ToArray(), scatteringTimeSeconds, temperatureKelvin, double.PositiveInfinity);
     }

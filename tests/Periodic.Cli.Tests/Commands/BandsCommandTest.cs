@@ -260,7 +260,7 @@ public sealed class BandsSmoothTest
         Assert.StartsWith($"band,bottom ({symbol}),top ({symbol}),width ({symbol})", lines[0], StringComparison.Ordinal);
         var lattice = StructureFile.Load(file).OpticalLattice!;
         // One unit in eV: E_R of the lattice, h x 1 kHz (E = h f), or 1.
-        var divisor = unit switch { "recoil" => lattice.RecoilEnergy.ElectronVolts, "kHz" => Periodic.OpticalLattices.OpticalLattice.FromHertz(1e3), _ => 1.0 };
+        var divisor = unit switch { "recoil" => lattice.RecoilEnergy.ElectronVolts, "kHz" => Periodic.OpticalLattices.OpticalLattice.FromHertz(1e3).ElectronVolts, _ => 1.0 };
         for (var n = 0; n < 4; n++)
         {
             var bottom = json.GetProperty("bands")[n].GetProperty("bottom").GetDouble();

@@ -159,7 +159,7 @@ public sealed class BandDispersionTest
         Assert.Contains("wavevectorsPerNanometre[1]", exception.Message);
         Assert.All(destination, value => Assert.Equal(0, value));
         Assert.Equal("wavevectorPerNanometre", Assert.Throws<ArgumentOutOfRangeException>(() => dispersion.EnergyAt(double.NaN)).ParamName);
-        Assert.Equal("destination", Assert.Throws<ArgumentException>(() => dispersion.EnergiesAt([0.1, 0.2], new double[1])).ParamName);
+        Assert.Equal("destinationElectronVolts", Assert.Throws<ArgumentException>(() => dispersion.EnergiesAt([0.1, 0.2], new double[1])).ParamName);
     }
 
     [Fact]
@@ -167,7 +167,7 @@ public sealed class BandDispersionTest
     {
         var bands = BandStructure.Compute(KronigPenney(), 2);
         Assert.Equal("bandIndex", Assert.Throws<ArgumentOutOfRangeException>(() => BandDispersion.Create(bands, 3)).ParamName);
-        Assert.Equal("absoluteToleranceElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => BandDispersion.Create(bands, 1, 0)).ParamName);
+        Assert.Equal("absoluteToleranceElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => BandDispersion.Create(bands, 1, BandDispersionOptions.Create(0))).ParamName);
         Assert.Equal("bands", Assert.Throws<ArgumentNullException>(() => BandDispersion.Create(null!, 1)).ParamName);
     }
 

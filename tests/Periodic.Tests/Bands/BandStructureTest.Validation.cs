@@ -80,7 +80,7 @@ public sealed partial class BandStructureTest
     {
         var bands = BandStructure.Compute(SimpleCell(), 2);
         var error = Assert.Throws<ArgumentException>(() => bands.EnergiesAt(1, [0.0, 0.1, 0.2], new double[1]));
-        Assert.Equal("destination", error.ParamName);
+        Assert.Equal("destinationElectronVolts", error.ParamName);
         Assert.Contains("length 1", error.Message, StringComparison.Ordinal);
     }
 

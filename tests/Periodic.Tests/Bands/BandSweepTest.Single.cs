@@ -14,7 +14,7 @@ public sealed partial class BandSweepTest
     public void BandSweep_MatchesSingleComputations()
     {
         var cells = Enumerable.Range(0, 6).Select(i => UnitCell.KronigPenney(Length.FromNanometres(3 + i), Length.FromNanometres(2), Energy.FromElectronVolts(0.3), EffectiveMass.FromElectronMasses(0.067))).ToArray();
-        var swept = BandSweep.Compute(cells, 2, maxDegreeOfParallelism: 2);
+        var swept = BandSweep.Compute(cells, 2, BandSweepOptions.Create(maxDegreeOfParallelism: 2));
         Assert.Equal(cells.Length, swept.Length);
         for (var i = 0; i < cells.Length; i++)
         {

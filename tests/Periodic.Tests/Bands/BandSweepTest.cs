@@ -21,9 +21,9 @@ public sealed partial class BandSweepTest
     public void Compute_Parallel_BitwiseEqualToSerialAndToSingleCells()
     {
         var cells = Cells(97);
-        var serial = BandSweep.Compute(cells, 4, maxDegreeOfParallelism: 1);
+        var serial = BandSweep.Compute(cells, 4, BandSweepOptions.Create(maxDegreeOfParallelism: 1));
         var parallel = BandSweep.Compute(cells, 4);
-        var two = BandSweep.Compute(cells, 4, maxDegreeOfParallelism: 2);
+        var two = BandSweep.Compute(cells, 4, BandSweepOptions.Create(maxDegreeOfParallelism: 2));
         for (var i = 0; i < cells.Length; i++)
         {
             var single = BandStructure.Compute(cells[i], 4);
@@ -65,7 +65,7 @@ public sealed partial class BandSweepTest
         Assert.Equal("cells", Assert.Throws<ArgumentNullException>(() => BandSweep.Compute(null!, 1)).ParamName);
         Assert.Equal("cells", Assert.Throws<ArgumentException>(() => BandSweep.Compute([cells[0], null!], 1)).ParamName);
         Assert.Equal("bandCount", Assert.Throws<ArgumentOutOfRangeException>(() => BandSweep.Compute(cells, 0)).ParamName);
-        Assert.Equal("maxDegreeOfParallelism", Assert.Throws<ArgumentOutOfRangeException>(() => BandSweep.Compute(cells, 1, maxDegreeOfParallelism: 0)).ParamName);
+        Assert.Equal("maxDegreeOfParallelism", Assert.Throws<ArgumentOutOfRangeException>(() => BandSweep.Compute(cells, 1, BandSweepOptions.Create(maxDegreeOfParallelism: 0))).ParamName);
     }
 
     [Fact]

@@ -395,8 +395,8 @@ public sealed class NoNaNTest(ITestOutputHelper output)
                 Finite(m.KaneNonParabolicityPerElectronVolt(Temperature.FromKelvin(input.T)), "Kane alpha");
                 Finite(m.ElectronMassElectronMasses, "mass");
                 Assert.True(m.ElectronMassElectronMasses > 0, m.ToString());
-                Finite(m.LatticeConstantNanometres, "a");
-                Finite(m.MonolayerNanometres, "monolayer");
+                Finite(m.LatticeConstant.Nanometres, "a");
+                Finite(m.MonolayerThickness.Nanometres, "monolayer");
                 Finite(m.LatticeMismatchTo(Material.GaAs), "mismatch");
                 Assert.False(string.IsNullOrWhiteSpace(m.Describe()));
             }

@@ -66,7 +66,7 @@ public sealed class SpanApi
 
     public override string ToString() => Name;
 
-    private static readonly Periodic.Properties.MinibandDrift Drift = Periodic.Properties.MinibandDrift.FromCosineSeries([0.01, -0.01], 6, 1e-13);
+    private static readonly Periodic.Properties.MinibandDrift Drift = Periodic.Properties.MinibandDrift.FromCosineSeries([0.01, -0.01], Length.FromNanometres(6), 1e-13);
 
     /// <summary>Room for the other destination of a two-destination method (longer than any input here).</summary>
     private static readonly double[] Scratch = new double[64];
@@ -96,7 +96,7 @@ public sealed class SpanApi
         [
             new("AbsorptionSpectrum.Evaluate", "photonEnergiesElectronVolts", "destinationPerCentimetre", absorption.Evaluate, absorption.AbsorptionPerCentimetre, Spread(0.05, 0.3, 7), -0.1),
             new("CellTransfer.Traces", "energiesElectronVolts", "destination", Fixtures.Transfer.Traces, e => Fixtures.Transfer.Dispersion(e).Trace, Spread(-0.1, 0.9, 7), double.NaN),
-            new("BandStructure.EnergiesAt", "wavevectorsPerNanometre", "destination", (i, d) => Fixtures.Bands.EnergiesAt(1, i, d), k => Fixtures.Bands.EnergyAt(1, k), ks, 2 * kMax),
+            new("BandStructure.EnergiesAt", "wavevectorsPerNanometre", "destinationElectronVolts", (i, d) => Fixtures.Bands.EnergiesAt(1, i, d), k => Fixtures.Bands.EnergyAt(1, k), ks, 2 * kMax),
             new("BandProperties.DensitiesOfStates", "energiesElectronVolts", "destinationPerElectronVoltNanometre", p.DensitiesOfStates, p.DensityOfStatesPerElectronVoltNanometre, inBand, double.NaN),
             new("BandProperties.IntegratedDensitiesOfStates", "energiesElectronVolts", "destinationPerNanometre", p.IntegratedDensitiesOfStates, p.IntegratedDensityOfStatesPerNanometre, inBand, double.NaN),
             new("BandProperties.SuperlatticeDensitiesOfStates", "energiesElectronVolts", "destinationPerElectronVoltCubicNanometre", (i, d) => p.SuperlatticeDensitiesOfStates(i, mass, d), e => p.SuperlatticeDensityOfStatesPerElectronVoltCubicNanometre(e, mass), inBand, double.NaN),
@@ -111,7 +111,7 @@ public sealed class SpanApi
             // Documented: within 1e-13 × elements × max|M| of Traces; entries of M are O(10) for this cell in [−0.1, 0.9] eV, so 1e-13·2·50.
             new("CellTransfer.TracesVectorized", "energiesElectronVolts", "destination", Fixtures.Transfer.TracesVectorized, e => Fixtures.Transfer.Dispersion(e).Trace, Spread(-0.1, 0.9, 7), double.NaN, tolerance: 1e-11),
             // The batch sums the same Chebyshev series in another order (observed: 2 ulps apart); 1e-15 eV is rounding level at |E| < 1 eV.
-            new("BandDispersion.EnergiesAt", "wavevectorsPerNanometre", "destination", Fixtures.Dispersion.EnergiesAt, Fixtures.Dispersion.EnergyAt, ks, 2 * kMax, tolerance: 1e-15),
+            new("BandDispersion.EnergiesAt", "wavevectorsPerNanometre", "destinationElectronVolts", Fixtures.Dispersion.EnergiesAt, Fixtures.Dispersion.EnergyAt, ks, 2 * kMax, tolerance: 1e-15),
             new("BlochFunction.Evaluate (real)", "positionsNanometres", "destinationReal", (i, d) => Fixtures.Bloch.Evaluate(i, d, Scratch), x => Fixtures.Bloch.ValueAt(x).Real, positions, double.NaN),
             new("BlochFunction.Evaluate (imaginary)", "positionsNanometres", "destinationImaginary", (i, d) => Fixtures.Bloch.Evaluate(i, Scratch, d), x => Fixtures.Bloch.ValueAt(x).Imaginary, positions, double.NaN),
             // u(x) = e^(−ikx) ψ(x) (Bloch's theorem); the product with e^(−ikx) rounds differently from the library's own: 1e-14 of |ψ| ≲ 1 nm^(−1/2).

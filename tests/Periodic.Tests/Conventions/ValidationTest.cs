@@ -260,9 +260,9 @@ public sealed class ValidationTest
         AssertRejects(() => m.WithLatticeConstant(Length.FromNanometres(bad)), "nanometres", bad);
         AssertRejects(() => m.WithVarshni(bad, Temperature.FromKelvin(204)), "varshniAlphaElectronVoltsPerKelvin", bad);
         AssertRejects(() => m.WithVarshni(5.4e-4, Temperature.FromKelvin(bad)), "kelvin", bad);
-        AssertRejects(() => TernaryAlloy.AlGaAs.WithGapBowing(bad), "gapBowingElectronVolts", bad);
+        AssertRejects(() => TernaryAlloy.AlGaAs.WithGapBowing(Energy.FromElectronVolts(bad)), "electronVolts", bad);
         AssertRejects(() => TernaryAlloy.AlGaAs.WithElectronMassBowing(bad), "electronMassBowingElectronMasses", bad);
-        AssertRejects(() => TernaryAlloy.AlGaAs.WithValenceBandOffsetBowing(bad), "valenceBandOffsetBowingElectronVolts", bad);
+        AssertRejects(() => TernaryAlloy.AlGaAs.WithValenceBandOffsetBowing(Energy.FromElectronVolts(bad)), "electronVolts", bad);
         AssertRejects(() => ModelLimits.Default.WithMaximumLatticeMismatch(bad), "maximumLatticeMismatch", bad);
         AssertRejects(() => ModelLimits.Default.WithMinimumMonolayers(bad), "minimumMonolayers", bad);
         AssertRejects(() => ModelLimits.Default.WithMaximumEnergyFractions(bad, 0.5), "maximumParabolicEnergyFraction", bad);
@@ -295,6 +295,13 @@ public sealed class ValidationTest
         AssertRejects(() => BoundStateOptions.Create(maxElements: 0), "maxElements", 0);
         AssertRejects(() => ResonanceSearchOptions.Create(scanPoints: 1), "scanPoints", 1);
         AssertRejects(() => CurrentDensityOptions.Create(relativeTolerance: double.NaN), "relativeTolerance", double.NaN);
+        AssertRejects(() => Periodic.PlaneWaves.PlaneWaveOptions.Create(relativeTolerance: double.NaN), "relativeTolerance", double.NaN);
+        AssertRejects(() => Periodic.PlaneWaves.PlaneWaveOptions.Create(relativeTolerance: 1e-16), "relativeTolerance", 1e-16);
+        AssertRejects(() => BandDispersionOptions.Create(absoluteToleranceElectronVolts: 0), "absoluteToleranceElectronVolts", 0.0);
+        AssertRejects(() => BandDispersionOptions.Create(absoluteToleranceElectronVolts: 1e-2), "absoluteToleranceElectronVolts", 1e-2);
+        AssertRejects(() => Periodic.Properties.FermiLevelOptions.Create(absoluteToleranceElectronVolts: double.PositiveInfinity), "absoluteToleranceElectronVolts", double.PositiveInfinity);
+        AssertRejects(() => BandSweepOptions.Create(maxDegreeOfParallelism: -2), "maxDegreeOfParallelism", -2);
+        AssertRejects(() => BandSweepOptions.Create(maxDegreeOfParallelism: 0), "maxDegreeOfParallelism", 0);
     }
 
 }

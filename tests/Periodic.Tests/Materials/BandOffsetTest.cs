@@ -47,7 +47,7 @@ public sealed class BandOffsetTest
         // InAs/GaSb is the textbook broken-gap (type III) pair: the InAs conduction edge lies below the
         // GaSb valence edge, by about 0.1–0.15 eV (common practice, no single source; from memory).
         var o = BandOffset.Between(Material.InAs, Material.GaSb, Temperature.FromKelvin(0));
-        var overlap = Material.GaSb.ValenceBandOffsetElectronVolts - Material.InAs.ConductionBandEdgeElectronVolts(Temperature.FromKelvin(0));
+        var overlap = Material.GaSb.ValenceBandOffset.ElectronVolts - Material.InAs.ConductionBandEdgeElectronVolts(Temperature.FromKelvin(0));
         Assert.InRange(overlap, 0.10, 0.20);
         Assert.True(o.ValenceElectronVolts > Material.InAs.BandGapElectronVolts(Temperature.FromKelvin(0)));
     }

@@ -26,7 +26,7 @@ public sealed class BuiltStructureTest
         // Potentials: reference = lowest Ec (GaAs) = 0; barrier = Ec(AlGaAs) − Ec(GaAs) with the
         // Varshni gaps (Vurgaftman et al. 2001, from memory), derived here independently; 1e-12 eV.
         var alloy = TernaryAlloy.AlGaAs.At(0.3);
-        var expectedBarrier = alloy.ValenceBandOffsetElectronVolts + alloy.BandGapElectronVolts(Temperature.FromKelvin(77)) - (-0.80 + 1.519 - 0.5405e-3 * 77 * 77 / (77 + 204));
+        var expectedBarrier = alloy.ValenceBandOffset.ElectronVolts + alloy.BandGapElectronVolts(Temperature.FromKelvin(77)) - (-0.80 + 1.519 - 0.5405e-3 * 77 * 77 / (77 + 204));
         Assert.Equal(0, well.PotentialElectronVolts);
         Assert.Equal(expectedBarrier, barrier.PotentialElectronVolts, 1e-12);
         Assert.Equal(-0.80 + 1.519 - 0.5405e-3 * 77 * 77 / (77 + 204), built.ReferenceElectronVolts, 1e-12);

@@ -27,13 +27,13 @@ public sealed class MaterialTest
         // Values from memory of Vurgaftman et al. (2001) (see Table above). Tolerance: 1e-12 relative,
         // only unit conversion (meV/K -> eV/K, Å -> nm) separates table and code.
         var m = Material.FromName(name);
-        Assert.Equal(gap, m.BandGapAtZeroKelvinElectronVolts, 1e-12);
+        Assert.Equal(gap, m.BandGapAtZeroKelvin.ElectronVolts, 1e-12);
         Assert.Equal(alphaMilli * 1e-3, m.VarshniAlphaElectronVoltsPerKelvin, 1e-15);
-        Assert.Equal(beta, m.VarshniBetaKelvin, 1e-12);
+        Assert.Equal(beta, m.VarshniBeta.Kelvin, 1e-12);
         Assert.Equal(mass, m.ElectronMassElectronMasses, 1e-12);
-        Assert.Equal(vbo, m.ValenceBandOffsetElectronVolts, 1e-12);
-        Assert.Equal(latticeAngstrom / 10, m.LatticeConstantNanometres, 1e-12);
-        Assert.Equal(latticeAngstrom / 20, m.MonolayerNanometres, 1e-12);
+        Assert.Equal(vbo, m.ValenceBandOffset.ElectronVolts, 1e-12);
+        Assert.Equal(latticeAngstrom / 10, m.LatticeConstant.Nanometres, 1e-12);
+        Assert.Equal(latticeAngstrom / 20, m.MonolayerThickness.Nanometres, 1e-12);
         Assert.Equal(ParameterStatus.FromMemory, m.StatusOf(MaterialParameter.BandGapAtZeroKelvin));
         Assert.Equal(ParameterStatus.FromMemory, m.StatusOf(MaterialParameter.ValenceBandOffset));
         Assert.Contains("from memory", m.Source, StringComparison.Ordinal);
@@ -62,7 +62,7 @@ public sealed class MaterialTest
         // Varshni law Eg(T) = Eg(0) − αT²/(T + β) (Varshni, Physica 34, 149 (1967)) gives Eg(0) at T = 0 exactly.
         foreach (var m in Material.Binaries)
         {
-            Assert.Equal(m.BandGapAtZeroKelvinElectronVolts, m.BandGapElectronVolts(Temperature.FromKelvin(0)));
+            Assert.Equal(m.BandGapAtZeroKelvin.ElectronVolts, m.BandGapElectronVolts(Temperature.FromKelvin(0)));
         }
     }
 
@@ -71,7 +71,7 @@ public sealed class MaterialTest
     {
         // E_c = VBO + Eg(T) (the convention of Vurgaftman et al. 2001: VBO independent of T). Exact up to one rounding.
         var m = Material.InAs;
-        Assert.Equal(m.ValenceBandOffsetElectronVolts + m.BandGapElectronVolts(Temperature.FromKelvin(150)), m.ConductionBandEdgeElectronVolts(Temperature.FromKelvin(150)), 1e-15);
+        Assert.Equal(m.ValenceBandOffset.ElectronVolts + m.BandGapElectronVolts(Temperature.FromKelvin(150)), m.ConductionBandEdgeElectronVolts(Temperature.FromKelvin(150)), 1e-15);
     }
 
     [Fact]
@@ -94,7 +94,7 @@ public sealed class MaterialTest
         Assert.Equal(0.0665, custom.ElectronMassElectronMasses);
         Assert.Equal(ParameterStatus.CallerSupplied, custom.StatusOf(MaterialParameter.ElectronMass));
         Assert.Equal(ParameterStatus.FromMemory, custom.StatusOf(MaterialParameter.BandGapAtZeroKelvin));
-        Assert.Equal(Material.GaAs.BandGapAtZeroKelvinElectronVolts, custom.BandGapAtZeroKelvinElectronVolts);
+        Assert.Equal(Material.GaAs.BandGapAtZeroKelvin.ElectronVolts, custom.BandGapAtZeroKelvin.ElectronVolts);
         Assert.Equal(0.067, Material.GaAs.ElectronMassElectronMasses); // the original is unchanged
 
         var v = Material.GaAs.WithElectronMass(EffectiveMass.FromElectronMasses(0.0665)).WithVarshni(0.5e-3, Temperature.FromKelvin(200)).WithValenceBandOffset(Energy.FromElectronVolts(-0.8)).WithLatticeConstant(Length.FromNanometres(0.5653))

@@ -25,13 +25,13 @@ public sealed class TernaryAlloyPropertiesTest
             foreach (var alloy in alloys)
             {
                 var m = alloy.At(x);
-                double lo = Math.Min(alloy.MaterialAtOne.LatticeConstantNanometres, alloy.MaterialAtZero.LatticeConstantNanometres);
-                double hi = Math.Max(alloy.MaterialAtOne.LatticeConstantNanometres, alloy.MaterialAtZero.LatticeConstantNanometres);
-                if (m.LatticeConstantNanometres < lo - 1e-15 || m.LatticeConstantNanometres > hi + 1e-15)
+                double lo = Math.Min(alloy.MaterialAtOne.LatticeConstant.Nanometres, alloy.MaterialAtZero.LatticeConstant.Nanometres);
+                double hi = Math.Max(alloy.MaterialAtOne.LatticeConstant.Nanometres, alloy.MaterialAtZero.LatticeConstant.Nanometres);
+                if (m.LatticeConstant.Nanometres < lo - 1e-15 || m.LatticeConstant.Nanometres > hi + 1e-15)
                 {
                     return false;
                 }
-                if (m.BandGapElectronVolts(Periodic.Units.Temperature.FromKelvin(t)) > m.BandGapAtZeroKelvinElectronVolts)
+                if (m.BandGapElectronVolts(Periodic.Units.Temperature.FromKelvin(t)) > m.BandGapAtZeroKelvin.ElectronVolts)
                 {
                     return false;
                 }

@@ -17,10 +17,10 @@ public sealed class TernaryAlloyTest
             foreach (var (x, binary) in new[] { (0.0, alloy.MaterialAtZero), (1.0, alloy.MaterialAtOne) })
             {
                 var m = alloy.At(x);
-                Assert.Equal(binary.BandGapAtZeroKelvinElectronVolts, m.BandGapAtZeroKelvinElectronVolts, 1e-15);
+                Assert.Equal(binary.BandGapAtZeroKelvin.ElectronVolts, m.BandGapAtZeroKelvin.ElectronVolts, 1e-15);
                 Assert.Equal(binary.ElectronMassElectronMasses, m.ElectronMassElectronMasses, 1e-15);
-                Assert.Equal(binary.ValenceBandOffsetElectronVolts, m.ValenceBandOffsetElectronVolts, 1e-15);
-                Assert.Equal(binary.LatticeConstantNanometres, m.LatticeConstantNanometres, 1e-15);
+                Assert.Equal(binary.ValenceBandOffset.ElectronVolts, m.ValenceBandOffset.ElectronVolts, 1e-15);
+                Assert.Equal(binary.LatticeConstant.Nanometres, m.LatticeConstant.Nanometres, 1e-15);
                 Assert.Equal(binary.HeavyHoleMassElectronMasses!.Value, m.HeavyHoleMassElectronMasses!.Value, 1e-14);
             }
         }
@@ -34,7 +34,7 @@ public sealed class TernaryAlloyTest
         {
             var expected = (1 - x) * 1.519 + x * 3.099 - x * (1 - x) * (-0.127 + 1.310 * x);
             // Tolerance 1e-12 eV: the same formula, only the order of rounding differs.
-            Assert.Equal(expected, TernaryAlloy.AlGaAs.At(x).BandGapAtZeroKelvinElectronVolts, 1e-12);
+            Assert.Equal(expected, TernaryAlloy.AlGaAs.At(x).BandGapAtZeroKelvin.ElectronVolts, 1e-12);
         }
         Assert.Equal("Al0.3Ga0.7As", TernaryAlloy.AlGaAs.At(0.3).Name);
         Assert.Equal(ParameterStatus.Derived, TernaryAlloy.AlGaAs.At(0.3).StatusOf(MaterialParameter.ElectronMass));
@@ -99,11 +99,11 @@ public sealed class TernaryAlloyTest
     public void With_ReplacesBowing()
     {
         // With zero bowing the gap is the straight line between the binaries (Vegard-like, exact).
-        var linear = TernaryAlloy.InGaAs.WithGapBowing(0).WithElectronMassBowing(0).WithValenceBandOffsetBowing(0);
+        var linear = TernaryAlloy.InGaAs.WithGapBowing(Energy.FromElectronVolts(0)).WithElectronMassBowing(0).WithValenceBandOffsetBowing(Energy.FromElectronVolts(0));
         var m = linear.At(0.25);
-        Assert.Equal(0.25 * 0.417 + 0.75 * 1.519, m.BandGapAtZeroKelvinElectronVolts, 1e-12);
+        Assert.Equal(0.25 * 0.417 + 0.75 * 1.519, m.BandGapAtZeroKelvin.ElectronVolts, 1e-12);
         Assert.Equal(0.25 * 0.026 + 0.75 * 0.067, m.ElectronMassElectronMasses, 1e-12);
-        Assert.Equal(0.25 * -0.59 + 0.75 * -0.80, m.ValenceBandOffsetElectronVolts, 1e-12);
+        Assert.Equal(0.25 * -0.59 + 0.75 * -0.80, m.ValenceBandOffset.ElectronVolts, 1e-12);
         var heavier = TernaryAlloy.AlGaAs.WithEndpoints(Material.AlAs, Material.GaAs.WithElectronMass(EffectiveMass.FromElectronMasses(0.07)));
         Assert.Equal(0.07, heavier.At(0).ElectronMassElectronMasses);
         Assert.False(TernaryAlloy.AlGaAs.WithDirectCompositionRange(0, 0.2).At(0.3).IsGammaValleyLowest);
@@ -124,9 +124,9 @@ public sealed class TernaryAlloyTest
         // practice) must agree within 1 meV at 300 K for Al0.3Ga0.7As, as the docs claim.
         var x = 0.3;
         var alloy = TernaryAlloy.AlGaAs.At(x);
-        var shiftAlloy = alloy.BandGapAtZeroKelvinElectronVolts - alloy.BandGapElectronVolts(Temperature.FromKelvin(300));
-        var shiftBinaries = x * (Material.AlAs.BandGapAtZeroKelvinElectronVolts - Material.AlAs.BandGapElectronVolts(Temperature.FromKelvin(300)))
-            + (1 - x) * (Material.GaAs.BandGapAtZeroKelvinElectronVolts - Material.GaAs.BandGapElectronVolts(Temperature.FromKelvin(300)));
+        var shiftAlloy = alloy.BandGapAtZeroKelvin.ElectronVolts - alloy.BandGapElectronVolts(Temperature.FromKelvin(300));
+        var shiftBinaries = x * (Material.AlAs.BandGapAtZeroKelvin.ElectronVolts - Material.AlAs.BandGapElectronVolts(Temperature.FromKelvin(300)))
+            + (1 - x) * (Material.GaAs.BandGapAtZeroKelvin.ElectronVolts - Material.GaAs.BandGapElectronVolts(Temperature.FromKelvin(300)));
         Assert.True(Math.Abs(shiftAlloy - shiftBinaries) < 1e-3);
     }
 }

@@ -26,7 +26,7 @@ public sealed class OpticalLatticeTest
         // Common practice: E_R/h ≈ 2.03 kHz for 87Rb at 1064 nm.
         Assert.InRange(expectedHertz, 2020, 2040);
         Assert.Equal(1.0, lattice.ToLatticeWavenumbers(Math.PI / lattice.LatticePeriod.Nanometres), 1e-15);
-        Assert.Equal(123.0, OpticalLattice.ToHertz(OpticalLattice.FromHertz(123.0)), 1e-12);
+        Assert.Equal(123.0, OpticalLattice.ToHertz(OpticalLattice.FromHertz(123.0).ElectronVolts), 1e-12);
     }
 
     [Theory]

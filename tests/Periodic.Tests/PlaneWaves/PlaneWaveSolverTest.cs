@@ -24,7 +24,7 @@ public sealed class PlaneWaveSolverTest
         var expected = Enumerable.Range(-5, 11).Select(n => C * Math.Pow(k + 2 * Math.PI * n, 2) / 0.5).OrderBy(e => e).Take(5).ToArray();
         for (var i = 0; i < 5; i++)
         {
-            Assert.Equal(expected[i], result.Energies[i], 1e-14 * expected[i]);
+            Assert.Equal(expected[i], result.EnergiesElectronVolts[i], 1e-14 * expected[i]);
         }
         Assert.True(result.Converged);
     }
@@ -38,12 +38,12 @@ public sealed class PlaneWaveSolverTest
         Assert.True(solver.IsRealSymmetric);
         var centre = solver.EnergiesAt(0, 3);
         var boundary = solver.EnergiesAt(Math.PI, 3);
-        AssertRelative(-40.256779547, centre.Energies[0] / Recoil, 1e-9);
-        AssertRelative(-21.314860622, centre.Energies[1] / Recoil, 1e-9);
-        AssertRelative(-3.522164727, centre.Energies[2] / Recoil, 1e-9);
-        AssertRelative(-40.256778985, boundary.Energies[0] / Recoil, 1e-9);
-        AssertRelative(-21.314899691, boundary.Energies[1] / Recoil, 1e-9);
-        AssertRelative(-3.520941527, boundary.Energies[2] / Recoil, 1e-9);
+        AssertRelative(-40.256779547, centre.EnergiesElectronVolts[0] / Recoil, 1e-9);
+        AssertRelative(-21.314860622, centre.EnergiesElectronVolts[1] / Recoil, 1e-9);
+        AssertRelative(-3.522164727, centre.EnergiesElectronVolts[2] / Recoil, 1e-9);
+        AssertRelative(-40.256778985, boundary.EnergiesElectronVolts[0] / Recoil, 1e-9);
+        AssertRelative(-21.314899691, boundary.EnergiesElectronVolts[1] / Recoil, 1e-9);
+        AssertRelative(-3.520941527, boundary.EnergiesElectronVolts[2] / Recoil, 1e-9);
     }
 
     [Theory]
@@ -55,12 +55,12 @@ public sealed class PlaneWaveSolverTest
         // Independent tridiagonal Mathieu reference (exact to rounding): the reported estimate must bound the
         // true error, with 1e-15 E_R slack for the reference's own rounding.
         var solver = PlaneWaveSolver.Create(FourierSegment.Cosine(Period, Energy.FromElectronVolts(2 * q * Recoil), EffectiveMass.FreeElectron));
-        var centre = solver.EnergiesAt(0, 3, 1e-10);
+        var centre = solver.EnergiesAt(0, 3, PlaneWaveOptions.Create(1e-10));
         double[] reference = [MathieuReference.A(0, q), MathieuReference.B(2, q), MathieuReference.A(2, q)];
         Assert.True(centre.BasisSize > 0);
         for (var i = 0; i < 3; i++)
         {
-            var error = Math.Abs(centre.Energies[i] - reference[i] * Recoil);
+            var error = Math.Abs(centre.EnergiesElectronVolts[i] - reference[i] * Recoil);
             Assert.True(error <= centre.EstimatedErrorsElectronVolts[i] + 1e-15 * Recoil * Math.Max(1, Math.Abs(reference[i])),
                 $"q = {q}, level {i}: true {error:G3} eV, reported {centre.EstimatedErrorsElectronVolts[i]:G3} eV");
         }
@@ -78,7 +78,7 @@ public sealed class PlaneWaveSolverTest
         var b = sine.EnergiesAt(1.3, 4);
         for (var i = 0; i < 4; i++)
         {
-            Assert.Equal(a.Energies[i], b.Energies[i], 1e-11 * Recoil);
+            Assert.Equal(a.EnergiesElectronVolts[i], b.EnergiesElectronVolts[i], 1e-11 * Recoil);
         }
     }
 
@@ -92,7 +92,7 @@ public sealed class PlaneWaveSolverTest
         var b = solver.EnergiesAt(0.4 + 2 * Math.PI, 3);
         for (var i = 0; i < 3; i++)
         {
-            Assert.Equal(a.Energies[i], b.Energies[i], 1e-11 * Recoil);
+            Assert.Equal(a.EnergiesElectronVolts[i], b.EnergiesElectronVolts[i], 1e-11 * Recoil);
         }
     }
 
@@ -102,7 +102,7 @@ public sealed class PlaneWaveSolverTest
         var solver = PlaneWaveSolver.Create(Period, default, [0.4], [], EffectiveMass.FreeElectron);
         Assert.Equal("wavevectorPerNanometre", Assert.Throws<ArgumentOutOfRangeException>(() => solver.EnergiesAt(double.NaN, 2)).ParamName);
         Assert.Equal("bandCount", Assert.Throws<ArgumentOutOfRangeException>(() => solver.EnergiesAt(0, 0)).ParamName);
-        Assert.Equal("relativeTolerance", Assert.Throws<ArgumentOutOfRangeException>(() => solver.EnergiesAt(0, 2, 0.5)).ParamName);
+        Assert.Equal("relativeTolerance", Assert.Throws<ArgumentOutOfRangeException>(() => solver.EnergiesAt(0, 2, PlaneWaveOptions.Create(0.5))).ParamName);
         Assert.Equal("segment", Assert.Throws<ArgumentNullException>(() => PlaneWaveSolver.Create(null!)).ParamName);
         Assert.Equal("inverseMassConstantPerElectronMass", Assert.Throws<ArgumentOutOfRangeException>(
             () => PlaneWaveSolver.CreateWithInverseMass(Period, default, [0.4], [], 1.0, [2.0], [])).ParamName);

@@ -67,7 +67,7 @@ public sealed partial class CarrierDensityTest
         }
         Assert.Equal("electronVolts", Assert.ThrowsAny<ArgumentException>(() => p.LinearCarrierDensity(Energy.FromElectronVolts(double.NaN), Temperature.FromKelvin(300))).ParamName);
         Assert.Equal("inPlaneMass", Assert.ThrowsAny<ArgumentException>(() => p.SuperlatticeCarrierDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(300), default)).ParamName);
-        Assert.Equal("absoluteToleranceElectronVolts", Assert.ThrowsAny<ArgumentException>(() => p.FermiLevelForLinearDensity(0.1, Temperature.FromKelvin(300), 0)).ParamName);
+        Assert.Equal("absoluteToleranceElectronVolts", Assert.ThrowsAny<ArgumentException>(() => p.FermiLevelForLinearDensity(0.1, Temperature.FromKelvin(300), FermiLevelOptions.Create(0))).ParamName);
         // Very high T needs bands that were not computed: a documented ArgumentOutOfRangeException, not a wrong number.
         Assert.ThrowsAny<ArgumentOutOfRangeException>(() => p.LinearCarrierDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(1e5)));
         // A density above what the computed bands can hold.

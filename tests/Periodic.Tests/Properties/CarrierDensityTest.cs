@@ -182,6 +182,6 @@ public sealed partial class CarrierDensityTest(ITestOutputHelper output)
         Assert.Equal("densityPerNanometre", Assert.Throws<ArgumentOutOfRangeException>(() => props.FermiLevelForLinearDensity(0, Temperature.FromKelvin(300))).ParamName);
         Assert.Equal("densityPerCubicNanometre", Assert.Throws<ArgumentOutOfRangeException>(() => props.FermiLevelForSuperlatticeDensity(1e9, Temperature.FromKelvin(300), mass)).ParamName);
         Assert.Equal("inPlaneMass", Assert.Throws<ArgumentOutOfRangeException>(() => props.SuperlatticeCarrierDensity(Energy.FromElectronVolts(0.05), Temperature.FromKelvin(300), default)).ParamName);
-        Assert.Equal("absoluteToleranceElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => props.FermiLevelForLinearDensity(0.1, Temperature.FromKelvin(300), 0)).ParamName);
+        Assert.Equal("absoluteToleranceElectronVolts", Assert.Throws<ArgumentOutOfRangeException>(() => props.FermiLevelForLinearDensity(0.1, Temperature.FromKelvin(300), FermiLevelOptions.Create(0))).ParamName);
     }
 }

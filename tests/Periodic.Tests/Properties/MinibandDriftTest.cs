@@ -21,7 +21,7 @@ public sealed class MinibandDriftTest(ITestOutputHelper output)
         // L. Esaki and R. Tsu, IBM J. Res. Dev. 14, 61 (1970): E = (Δ/2)(1 − cos kd), carriers starting at the band bottom,
         // v = (Δd/2ħ)·ω_Bτ/(1 + (ω_Bτ)²), ω_B = eFd/ħ; peak at ω_Bτ = 1 with v = Δd/4ħ (derived).
         const double width = 0.02, d = 6.0, tau = 1e-13;
-        var drift = MinibandDrift.FromCosineSeries([width / 2, -width / 2], d, tau);
+        var drift = MinibandDrift.FromCosineSeries([width / 2, -width / 2], Length.FromNanometres(d), tau);
         var worst = 0.0;
         foreach (var field in new[] { 1e4, 3e5, 1.0973e6, 4e6, 5e7 })
         {
@@ -47,8 +47,8 @@ public sealed class MinibandDriftTest(ITestOutputHelper output)
         // Solidi B 73, 327 (1976), from memory; derived from f₀ ∝ e^{(Δ/2kT) cos kd}); Bessel functions from MathNet.
         const double width = 0.02, d = 6.0, tau = 1e-13, temperature = 150;
         var kT = temperature * 1.380649e-23 / 1.602176634e-19;
-        var cold = MinibandDrift.FromCosineSeries([width / 2, -width / 2], d, tau);
-        var warm = MinibandDrift.FromCosineSeries([width / 2, -width / 2], d, tau, Temperature.FromKelvin(temperature));
+        var cold = MinibandDrift.FromCosineSeries([width / 2, -width / 2], Length.FromNanometres(d), tau);
+        var warm = MinibandDrift.FromCosineSeries([width / 2, -width / 2], Length.FromNanometres(d), tau, Temperature.FromKelvin(temperature));
         var ratio = SpecialFunctions.BesselI1(width / (2 * kT)) / SpecialFunctions.BesselI0(width / (2 * kT));
         var relative = Math.Abs(warm.VelocityAt(1e6) / cold.VelocityAt(1e6) - ratio) / ratio;
         output.WriteLine($"ratio {warm.VelocityAt(1e6) / cold.VelocityAt(1e6):R}, I1/I0 = {ratio:R}, relative difference {relative:E2}");

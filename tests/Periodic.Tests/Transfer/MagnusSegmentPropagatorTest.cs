@@ -111,8 +111,8 @@ public sealed class MagnusSegmentPropagatorTest
         for (var n = 1; n <= 3; n++)
         {
             var band = transfer.Structure.GetBand(n);
-            double bottom = Math.Min(centre.Energies[n - 1], boundary.Energies[n - 1]);
-            double top = Math.Max(centre.Energies[n - 1], boundary.Energies[n - 1]);
+            double bottom = Math.Min(centre.EnergiesElectronVolts[n - 1], boundary.EnergiesElectronVolts[n - 1]);
+            double top = Math.Max(centre.EnergiesElectronVolts[n - 1], boundary.EnergiesElectronVolts[n - 1]);
             Assert.True(Math.Abs(band.BottomElectronVolts - bottom) <= 1e-9 * Math.Max(scale, Math.Abs(bottom)), $"band {n} bottom {band.BottomElectronVolts:R} vs {bottom:R}");
             Assert.True(Math.Abs(band.TopElectronVolts - top) <= 1e-9 * Math.Max(scale, Math.Abs(top)), $"band {n} top {band.TopElectronVolts:R} vs {top:R}");
         }
