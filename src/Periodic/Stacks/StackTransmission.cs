@@ -31,6 +31,7 @@ public sealed class StackTransmission
     private readonly CompiledPart[] _parts;
     private readonly CompiledCell? _biased; // under bias: every element written out, layers with a linear potential; null at zero bias
     private readonly PhaseGuide[] _guides; // under bias: the repeated cells and the energy shift of each copy
+    private readonly (double Lower, double Upper) _affordableEnergies = (double.NegativeInfinity, double.PositiveInfinity); // under bias: see AffordableEnergies
 
     // Distinct layer materials (potential, mass, mass slope) for choosing the reference impedance.
     private readonly double[] _potentials;
@@ -117,6 +118,7 @@ public sealed class StackTransmission
             }
         }
         _biased = new CompiledCell(written, field, nameof(stack));
+        _affordableEnergies = AffordableEnergies(_biased);
         _potentials = materials.Select(m => m.V).ToArray();
         _masses = materials.Select(m => m.M).ToArray();
         _slopes = new double[materials.Count];
@@ -441,6 +443,10 @@ public sealed class StackTransmission
     /// </summary>
     private void CheckBiasedCost(double energyElectronVolts, string name, string paramName)
     {
+        if (energyElectronVolts >= _affordableEnergies.Lower && energyElectronVolts <= _affordableEnergies.Upper)
+        {
+            return; // every layer is within its sublayer budget (see AffordableEnergies): no per-layer check per energy
+        }
         for (var i = 0; i < (_biased?.Count ?? 0); i++)
         {
             if (!_biased!.LinearLayerData(i, out var width, out var potentialAtLeft, out var slope, out var mass))
@@ -455,6 +461,37 @@ public sealed class StackTransmission
                         $"{name} = {Preconditions.Format(energyElectronVolts)} eV is too far from the potential of element {i} of the biased stack: its exact propagation would need {count} sublayers (k_max times width), at most {LinearLayerPropagator.MaxSublayers} are allowed."));
             }
         }
+    }
+
+    /// <summary>
+    /// The energies at which no layer of the biased stack exceeds <see cref="LinearLayerPropagator.MaxSublayers"/>: a layer
+    /// from V₀ to V₁ needs ⌈max(√(m/C·|V − E|), ∛(m/C·|slope|))·w⌉ sublayers (<see cref="LinearLayerPropagator.SublayerCount"/>),
+    /// within budget while |V − E| ≤ (N/w)²·C/m at both ends. Shrunk by 1e-6 relative so that rounding at the border cannot
+    /// admit an energy the exact count would refuse; energies outside take the exact per-layer check. Empty when the slope
+    /// term alone exceeds the budget.
+    /// </summary>
+    private static (double Lower, double Upper) AffordableEnergies(CompiledCell elements)
+    {
+        double lower = double.NegativeInfinity, upper = double.PositiveInfinity;
+        const double budget = LinearLayerPropagator.MaxSublayers * (1 - 1e-6);
+        for (var i = 0; i < elements.Count; i++)
+        {
+            if (!elements.LinearLayerData(i, out var width, out var v0, out var slope, out var mass) || width <= 0)
+            {
+                continue;
+            }
+            var scale = mass / C;
+            if (Math.Cbrt(Math.Abs(scale * slope)) * width > budget)
+            {
+                return (double.PositiveInfinity, double.NegativeInfinity);
+            }
+            var reach = budget / width;
+            var allowed = reach * reach / scale;
+            var v1 = v0 + slope * width;
+            lower = Math.Max(lower, Math.Max(v0, v1) - allowed);
+            upper = Math.Min(upper, Math.Min(v0, v1) + allowed);
+        }
+        return (lower, upper);
     }
 
     private void CheckEnergies(ReadOnlySpan<double> energies)

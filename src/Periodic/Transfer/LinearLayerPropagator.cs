@@ -62,9 +62,13 @@ internal static class LinearLayerPropagator
     internal const int SeriesPreferredSublayers = 64;
 
     /// <summary>Which form <see cref="Evaluate"/> uses for these arguments.</summary>
-    internal static Method Choose(double e, double v0, double slope, double width, double mass)
+    internal static Method Choose(double e, double v0, double slope, double width, double mass) => Choose(e, v0, slope, width, mass, out _);
+
+    /// <summary>As <see cref="Choose(double, double, double, double, double)"/>, also returning the series' sublayer count.</summary>
+    private static Method Choose(double e, double v0, double slope, double width, double mass, out int sublayers)
     {
-        if (slope == 0 || SublayerCount(e, v0, slope, width, mass) <= SeriesPreferredSublayers)
+        sublayers = SublayerCount(e, v0, slope, width, mass);
+        if (slope == 0 || sublayers <= SeriesPreferredSublayers)
         {
             return Method.Series;
         }
@@ -77,18 +81,18 @@ internal static class LinearLayerPropagator
             : Method.Series;
     }
 
-    /// <summary>The transfer matrix across the layer, by the form <see cref="Choose"/> picks.</summary>
+    /// <summary>The transfer matrix across the layer, by the form <see cref="Choose(double, double, double, double, double)"/> picks.</summary>
     internal static Method Evaluate(double e, double v0, double slope, double width, double mass,
         out double m11, out double m12, out double m21, out double m22, out double logScale)
     {
-        var method = Choose(e, v0, slope, width, mass);
+        var method = Choose(e, v0, slope, width, mass, out var sublayers);
         if (method == Method.Airy)
         {
             EvaluateAiry(e, v0, slope, width, mass, out m11, out m12, out m21, out m22, out logScale);
         }
         else
         {
-            EvaluateSeries(e, v0, slope, width, mass, out m11, out m12, out m21, out m22, out logScale);
+            SeriesProduct(e, v0, slope, width, mass, sublayers, out m11, out m12, out m21, out m22, out logScale);
         }
         return method;
     }
@@ -139,11 +143,15 @@ internal static class LinearLayerPropagator
 
     /// <summary>The sublayer power-series form (any slope, including zero).</summary>
     internal static void EvaluateSeries(double e, double v0, double slope, double width, double mass,
+        out double m11, out double m12, out double m21, out double m22, out double logScale) =>
+        SeriesProduct(e, v0, slope, width, mass, SublayerCount(e, v0, slope, width, mass), out m11, out m12, out m21, out m22, out logScale);
+
+    /// <summary>The sublayer power-series form on <paramref name="n"/> sublayers (<see cref="SublayerCount"/>).</summary>
+    private static void SeriesProduct(double e, double v0, double slope, double width, double mass, int n,
         out double m11, out double m12, out double m21, out double m22, out double logScale)
     {
         var scale = mass / C;
         var b = scale * slope;
-        var n = SublayerCount(e, v0, slope, width, mass);
         var h = width / n;
         double p11 = 1, p12 = 0, p21 = 0, p22 = 1;
         logScale = 0;

@@ -367,6 +367,21 @@ public sealed class StackTransmissionBiasTest(ITestOutputHelper output)
     }
 
     [Fact]
+    public void Evaluate_EnergyAtTheSublayerBudget_IsRefusedOnlyBeyondIt()
+    {
+        // The budget is exact: a 10 nm layer needs ⌈√(m/C·|V − E|)·w⌉ sublayers (the series form's rule), so at most
+        // 10⁶ of them allow |V − E| up to (10⁶/w)²·C/m ≈ 5.7e9 eV here. 0.1 % on either side of that (5.7e6 eV, far more
+        // than the 0.3 eV spread of the potentials under bias) must pass and be refused; the per-stack window that skips
+        // the per-layer check must not admit anything beyond.
+        var stack = LayerStack.Create(Ground, Ground, Slab(10, 0.2), Slab(10, 0));
+        var transmission = StackTransmission.Create(stack, Ev(0.1));
+        var limit = 1e10 * C / 0.067;
+        Assert.Throws<ArgumentOutOfRangeException>(() => transmission.Evaluate(limit * 1.001));
+        Assert.True(double.IsFinite(transmission.Evaluate(limit * 0.999).Log10Transmission));
+        Assert.Throws<ArgumentOutOfRangeException>(() => transmission.Evaluate(-limit * 1.001));
+    }
+
+    [Fact]
     public void Create_Biased_ReportsBiasAndShiftedLead()
     {
         var stack = LayerStack.Create(Ground, Lead.Create(Ev(0.05), GaAs), Slab(5, 0.2));
