@@ -40,6 +40,11 @@ internal sealed class KernelState
             }
         }
         _join = join;
+        _growth = new double[n];
+        for (var i = 0; i < n; i++)
+        {
+            _growth[i] = kernel.PairGrowth(i, energy);
+        }
         Kernel = kernel;
         EnergyElectronVolts = energy;
         Psi = psi;
@@ -65,6 +70,9 @@ internal sealed class KernelState
     internal double RightDecayPerNanometre { get; }
 
     private readonly ElementEnds[] _ends;
+
+    /// <summary>The kernel's <see cref="CompiledCell.PairGrowth"/> of each element at this state's energy.</summary>
+    private readonly double[] _growth;
     private readonly int _join;
 
     /// <summary>The state at both ends of element <paramref name="i"/>, the two ends joined by one exact propagation.</summary>
@@ -194,7 +202,8 @@ internal sealed class KernelState
             {
                 pair = CompiledCell.PairQuadrature(a.Kernel, i, a.EnergyElectronVolts, a.Ends(i), b.Kernel, b.EnergyElectronVolts, b.Ends(i));
             }
-            else if (!kernel.TryPairClosedForm(i, a.EnergyElectronVolts, a.Ends(i), b.EnergyElectronVolts, b.Ends(i), normScale, out pair))
+            else if (!kernel.TryPairClosedForm(i, a.EnergyElectronVolts, a.Ends(i), b.EnergyElectronVolts, b.Ends(i), normScale,
+                a.EnergyElectronVolts <= b.EnergyElectronVolts ? a._growth[i] : b._growth[i], out pair))
             {
                 if (shared is not null)
                 {

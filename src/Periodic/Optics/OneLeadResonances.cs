@@ -106,9 +106,11 @@ internal static class OneLeadResonances
         {
             slopes[i] = (samples[i + 1].Phase - samples[i].Phase) / (samples[i + 1].Energy - samples[i].Energy);
         }
-        for (var i = 0; i < m; i++)
+        // The first and last intervals are left out: towards the closed lead's edge the tail 1/(2κ) makes the delay rise without
+        // a peak, and a level turns the phase over several steps, so its peak never sits in an end interval.
+        for (var i = 1; i < m - 1; i++)
         {
-            if (!((i == 0 || slopes[i] > slopes[i - 1]) && (i == m - 1 || slopes[i] >= slopes[i + 1])))
+            if (!(slopes[i] > slopes[i - 1] && slopes[i] >= slopes[i + 1]))
             {
                 continue;
             }
@@ -126,9 +128,12 @@ internal static class OneLeadResonances
             {
                 continue;
             }
-            var (energy, error, delay) = Maximise(profile, samples[Math.Max(0, i - 1)].Energy, samples[Math.Min(m, i + 2)].Energy,
+            var (energy, error, delay) = Maximise(profile, samples[i - 1].Energy, samples[i + 2].Energy,
                 options.AbsoluteToleranceElectronVolts);
-            if (delay > 0 && double.IsFinite(delay))
+            // A maximum at an end of its bracket is the rising edge of the window, not a peak.
+            var bracketLow = samples[i - 1].Energy;
+            var bracketHigh = samples[i + 2].Energy;
+            if (delay > 0 && double.IsFinite(delay) && energy - error > bracketLow && energy + error < bracketHigh)
             {
                 found.Add(new OneLeadResonance(energy - shift, error, 2 / delay));
             }

@@ -53,7 +53,15 @@ internal sealed partial class CompiledCell
     /// The closed form of <see cref="PairIntegrals"/> where it is well conditioned (true), else false and nothing; a delta gives
     /// zeros (true).
     /// </summary>
-    internal bool TryPairClosedForm(int i, double ea, in ElementEnds a, double eb, in ElementEnds b, double normScale, out PairMoments pair)
+    internal bool TryPairClosedForm(int i, double ea, in ElementEnds a, double eb, in ElementEnds b, double normScale, out PairMoments pair) =>
+        TryPairClosedForm(i, ea, a, eb, b, normScale, double.NaN, out pair);
+
+    /// <summary>
+    /// <see cref="TryPairClosedForm(int, double, in ElementEnds, double, in ElementEnds, double, out PairMoments)"/> with the
+    /// growth factor <see cref="PairGrowth"/> of the lower of the two energies given (NaN: computed here), so that a caller
+    /// pairing many states reuses one per state and element.
+    /// </summary>
+    internal bool TryPairClosedForm(int i, double ea, in ElementEnds a, double eb, in ElementEnds b, double normScale, double growth, out PairMoments pair)
     {
         pair = default;
         switch (_kinds[i])
@@ -88,8 +96,7 @@ internal sealed partial class CompiledCell
         {
             return false;
         }
-        var exponent = Math.Sqrt(Math.Max(0, mass / C * Math.Max(Math.Max(v0, v1) - Math.Min(ea, eb), 0))) * width;
-        if (!(Math.Exp(Math.Min(700, exponent)) * error <= allowed))
+        if (!((double.IsNaN(growth) ? PairGrowth(i, Math.Min(ea, eb)) : growth) * error <= allowed))
         {
             return false;
         }
@@ -103,6 +110,26 @@ internal sealed partial class CompiledCell
         var momentum = 0.5 * (a.U1 * b.U1 - a.U0 * b.U0) + 0.5 * mass * integralW;
         pair = new PairMoments(overlap, moment, momentum);
         return true;
+    }
+
+    /// <summary>
+    /// e^(κw) of layer <paramref name="i"/> at energy <paramref name="e"/> (κ from the layer's highest potential; 1 where the state
+    /// oscillates; capped at e^700): how far the propagation's intermediates across the element can exceed its end values, the
+    /// factor on the closed form's rounding. Larger at a lower energy, so a pair takes the value of its lower state.
+    /// </summary>
+    internal double PairGrowth(int i, double e)
+    {
+        if (_kinds[i] == ElementKind.Delta)
+        {
+            return 1;
+        }
+        var at = ElementData.Stride * i;
+        var width = _data[at + ElementData.Width];
+        var v0 = _data[at + ElementData.Potential];
+        var slope = _kinds[i] == ElementKind.LinearLayer ? _data[at + ElementData.PotentialSlope] : 0;
+        var mass = _data[at + ElementData.Mass];
+        var exponent = Math.Sqrt(Math.Max(0, mass / C * Math.Max(Math.Max(v0, v0 + slope * width) - e, 0))) * width;
+        return Math.Exp(Math.Min(700, exponent));
     }
 
     /// <summary>Absolute rounding error, relative to the states' norms, below which the closed form is taken whatever ΔE.</summary>
