@@ -34,7 +34,7 @@ internal sealed partial class CompiledCell
     /// epsilon times the terms that cancel, times e^(κw) under a barrier, where the propagation's intermediates exceed the end
     /// values), stays below <see cref="PairAbsoluteTolerance"/> of the states' norms. Elsewhere (close energies, a
     /// non-parabolic layer whose two masses differ, equal energies) the integrals are taken by 20-point Gauss–Legendre
-    /// quadrature of the closed-form states on panels of at most half a wave or decay length (<see cref="PairQuadrature"/>),
+    /// quadrature of the closed-form states on panels of phase or decay exponent at most 3π (<see cref="PairQuadrature"/>),
     /// exact to rounding for these entire functions. A delta barrier has zero width: all three are zero.</para>
     /// </remarks>
     /// <param name="i">The element.</param>
