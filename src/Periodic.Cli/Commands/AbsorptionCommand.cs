@@ -31,6 +31,7 @@ internal static class AbsorptionCommand
         var permittivity = Common.NumberOption("--permittivity", "1", "10.9", "Relative permittivity for the depolarisation shift (default n^2).");
         var repeats = new Option<int>("--repeats") { Description = "Copies of the stack in one optical pass, for the fraction absorbed per pass (default 1).", DefaultValueFactory = _ => 1 };
         var grid = new EnergyGridOptions();
+        var continuum = new Option<bool>("--continuum") { Description = "Also take lines to quasi-bound final states (as transitions --continuum; their widths are reported by transitions, the line width stays --linewidth)." };
         var plot = new Option<string?>("--plot") { Description = "Also draw alpha(hbar w) to this .png or .svg file." };
         var plotLevels = new Option<string?>("--plot-levels") { Description = "Also draw the potential profile with the levels and |psi|^2 to this .png or .svg file." };
         var json = Common.JsonOption();
@@ -40,7 +41,7 @@ internal static class AbsorptionCommand
         command.Arguments.Add(file);
         stackOptions.AddTo(command, false);
         command.Options.Add(stackOptions.Bias);
-        foreach (var option in new Option[] { temperature, density, fermi, linewidth, shape, index, depolarisation, permittivity, repeats })
+        foreach (var option in new Option[] { temperature, density, fermi, linewidth, shape, index, depolarisation, permittivity, repeats, continuum })
         {
             command.Options.Add(option);
         }
@@ -104,7 +105,8 @@ internal static class AbsorptionCommand
             }
             var structure = Common.RequireRigid(Common.Load(result, result.GetValue(file)!), "absorption");
             var stack = stackOptions.Build(result, structure);
-            var spectrum = TransitionsCommand.Compute(stack, TransitionsCommand.ChooseBias(result, stackOptions, structure), null);
+            var spectrum = TransitionsCommand.Compute(stack, TransitionsCommand.ChooseBias(result, stackOptions, structure),
+                result.GetValue(continuum) ? new IntersubbandOptions { IncludeQuasiBound = true } : null);
             var options = new AbsorptionOptions
             {
                 TemperatureKelvin = t,

@@ -100,7 +100,7 @@ internal static class TransitionsCommand
     {
         var file = Common.FileArgument();
         var stackOptions = new StackOptions();
-        var continuum = new Option<bool>("--continuum") { Description = "Also take quasi-bound final states from the stack's transmission resonances above the lead band edges." };
+        var continuum = new Option<bool>("--continuum") { Description = "Also take quasi-bound final states: the stack's transmission resonances above both lead band edges and, where the edges differ (--bias), the states between them that leak into the lower lead." };
         var margin = Common.NumberOption("--margin", "nm", "20", "Lead margin of the domain a quasi-bound state is normalised on, nm (default 20; its dipoles are checked with twice the margin).");
         var mass = Common.NumberOption("--mass", "m0", "0.067", "Mass m* of the oscillator strengths f = 2m*w|z|^2/hbar, m0 (default: the well's, i.e. the layer with the lowest potential).");
         var json = Common.JsonOption();

@@ -17,7 +17,11 @@ public sealed record IntersubbandOptions
     /// </summary>
     public double? ReferenceMassElectronMasses { get; init; }
 
-    /// <summary>Also take quasi-bound final states from the stack's transmission resonances above the lead band edges (default false).</summary>
+    /// <summary>
+    /// Also take quasi-bound final states (default false): the stack's transmission resonances above both lead band edges, and,
+    /// where the two edges differ (under bias, or leads of different materials), the states between them that leak into the
+    /// lower lead only.
+    /// </summary>
     public bool IncludeQuasiBound { get; init; }
 
     /// <summary>

@@ -108,9 +108,10 @@ public sealed class IntersubbandSpectrum
     /// finite domain (<see cref="IntersubbandOptions.DomainMarginNanometres"/>) whose convergence is reported per transition.
     /// </summary>
     /// <remarks>
-    /// Between the two lead edges a state can leak into the lower lead only; such states are neither bound nor transmission
-    /// peaks and are not computed (the result's levels say which energies they cover). The field is that of an ideal capacitor:
-    /// no space charge, no self-consistent potential.
+    /// Between the two lead edges a state leaks into the lower lead only; with <see cref="IntersubbandOptions.IncludeQuasiBound"/>
+    /// such states are quasi-bound levels too: energy and width Γ from the reflection phase of the open lead (the peak of the
+    /// Wigner delay dΦ/dE = 2/Γ), normalised on the same finite domain. The field is that of an ideal capacitor: no space
+    /// charge, no self-consistent potential.
     /// </remarks>
     /// <exception cref="ArgumentNullException"><paramref name="stack"/> is null.</exception>
     /// <exception cref="ArgumentException">As <see cref="Compute(LayerStack, IntersubbandOptions?)"/>, and what
@@ -133,16 +134,25 @@ public sealed class IntersubbandSpectrum
         var referenceMass = options.ReferenceMassElectronMasses ?? WellMass(profile, stack);
         var nb = bound.Levels.Count;
 
-        var resonances = new List<Resonance>();
+        // Quasi-bound levels: between the two lead edges (open into the lower lead only; their width from the reflection phase),
+        // then the transmission resonances above both edges (their width the peak's FWHM).
+        var resonances = new List<(double Energy, double Error, double Width, bool OneLead)>();
         if (options.IncludeQuasiBound)
         {
             var edge = Math.Max(stack.LeftLead.PotentialElectronVolts, profile.RightLead.PotentialElectronVolts);
             var top = Math.Max(edge, profile.Count == 0 ? edge : MaxPotential(profile));
             var upper = options.QuasiBoundUpperElectronVolts ?? top + 0.5 * (top - profile.MinimumPotentialElectronVolts);
+            foreach (var r in OneLeadResonances.Find(stack, drop, options.BoundStates.MaxElements, upper, options.Resonances))
+            {
+                resonances.Add((r.EnergyElectronVolts, r.ErrorElectronVolts, r.WidthElectronVolts, true));
+            }
             if (upper > edge)
             {
                 var transmission = StackTransmission.Create(stack, bias);
-                resonances.AddRange(transmission.FindResonances(edge, upper, options.Resonances).Resonances);
+                foreach (var r in transmission.FindResonances(edge, upper, options.Resonances).Resonances)
+                {
+                    resonances.Add((r.EnergyElectronVolts, r.EnergyErrorElectronVolts, r.WidthElectronVolts, false));
+                }
             }
         }
 
@@ -196,14 +206,18 @@ public sealed class IntersubbandSpectrum
         var margin = options.DomainMarginNanometres;
         var domain = resonances.Count > 0 ? QuasiBoundState.DomainOf(stack, drop, margin, options.BoundStates.MaxElements) : null;
         var wide = resonances.Count > 0 ? QuasiBoundState.DomainOf(stack, drop, 2 * margin, options.BoundStates.MaxElements) : null;
-        var quasi = new List<(QuasiBoundState State, QuasiBoundState Check, Resonance Resonance)>();
+        var quasi = new List<(QuasiBoundState State, QuasiBoundState Check, double Energy)>();
         foreach (var resonance in resonances)
         {
-            var state = QuasiBoundState.Create(domain!, resonance.EnergyElectronVolts, margin);
-            var check = QuasiBoundState.Create(wide!, resonance.EnergyElectronVolts, 2 * margin);
-            quasi.Add((state, check, resonance));
+            var state = resonance.OneLead
+                ? QuasiBoundState.CreateOpenToOneLead(domain!, resonance.Energy, margin)
+                : QuasiBoundState.Create(domain!, resonance.Energy, margin);
+            var check = resonance.OneLead
+                ? QuasiBoundState.CreateOpenToOneLead(wide!, resonance.Energy, 2 * margin)
+                : QuasiBoundState.Create(wide!, resonance.Energy, 2 * margin);
+            quasi.Add((state, check, resonance.Energy));
             var (mass, inverse) = MassMoments(state);
-            levels.Add(new OpticalLevel(nb + quasi.Count, resonance.EnergyElectronVolts, resonance.EnergyErrorElectronVolts, true, resonance.WidthElectronVolts,
+            levels.Add(new OpticalLevel(nb + quasi.Count, resonance.Energy, resonance.Error, true, resonance.Width,
                 true, mass, inverse, state.DomainStartNanometres, state.DomainEndNanometres, state.ValueAt));
         }
         var onDomain = new KernelState[quasi.Count > 0 ? nb : 0];
@@ -236,7 +250,7 @@ public sealed class IntersubbandSpectrum
             for (var r = 0; r < quasi.Count; r++)
             {
                 var (state, check, resonance) = quasi[r];
-                var de = resonance.EnergyElectronVolts - ei;
+                var de = resonance - ei;
                 var z = DomainDipole(onDomain[i], state.State, margin, stack);
                 var z2 = DomainDipole(onWide[i], check.State, 2 * margin, stack);
                 var change = Math.Abs(Math.Abs(z2) - Math.Abs(z)) / Math.Max(Math.Abs(z), double.Epsilon);
@@ -254,7 +268,7 @@ public sealed class IntersubbandSpectrum
         {
             for (var b = a + 1; b < quasi.Count; b++)
             {
-                var de = quasi[b].Resonance.EnergyElectronVolts - quasi[a].Resonance.EnergyElectronVolts;
+                var de = quasi[b].Energy - quasi[a].Energy;
                 var z = DomainDipole(quasi[a].State.State, quasi[b].State.State, margin, stack);
                 var z2 = DomainDipole(quasi[a].Check.State, quasi[b].Check.State, 2 * margin, stack);
                 var change = Math.Abs(Math.Abs(z2) - Math.Abs(z)) / Math.Max(Math.Abs(z), double.Epsilon);

@@ -1,6 +1,7 @@
 // SPDX-License-Identifier: MIT
 // Copyright (c) 2026 Periodic contributors
 
+using System.Numerics.Tensors;
 using Periodic.Stacks;
 using Periodic.Transfer;
 
@@ -39,6 +40,11 @@ internal sealed class KernelState
             }
         }
         _join = join;
+        _growth = new double[n];
+        for (var i = 0; i < n; i++)
+        {
+            _growth[i] = kernel.PairGrowth(i, energy);
+        }
         Kernel = kernel;
         EnergyElectronVolts = energy;
         Psi = psi;
@@ -64,6 +70,9 @@ internal sealed class KernelState
     internal double RightDecayPerNanometre { get; }
 
     private readonly ElementEnds[] _ends;
+
+    /// <summary>The kernel's <see cref="CompiledCell.PairGrowth"/> of each element at this state's energy.</summary>
+    private readonly double[] _growth;
     private readonly int _join;
 
     /// <summary>The state at both ends of element <paramref name="i"/>, the two ends joined by one exact propagation.</summary>
@@ -75,9 +84,6 @@ internal sealed class KernelState
     /// </summary>
     internal NodeLayout? Nodes { get; private set; }
 
-    private double[]? _nodePsi;
-    private double[]? _nodeW;
-
     /// <summary>Shares <paramref name="layout"/> (built for an energy window holding this state's energy).</summary>
     internal KernelState WithNodes(NodeLayout layout)
     {
@@ -86,25 +92,41 @@ internal sealed class KernelState
     }
 
     /// <summary>
-    /// ψ and ψ′/m at the nodes of <see cref="Nodes"/> in element <paramref name="i"/>, computed on first use per element
-    /// (idempotent, so a race only repeats the work).
+    /// Samples element <paramref name="i"/> at the nodes of <see cref="Nodes"/> on first use: ψ_a·weight and ψ_a·weight·x (this
+    /// state as the left factor a of a pair; x from the middle of the sequence) and ψ_b, m·ψ′_b/m (as the right factor b).
+    /// Idempotent, so a race only repeats the work.
     /// </summary>
-    private (double[] Psi, double[] W) NodeValues(int i)
+    private void EnsureSampled(int i)
     {
         var layout = Nodes!;
-        var psi = _nodePsi ??= new double[layout.Count];
-        var w = _nodeW ??= new double[layout.Count];
         var done = _sampled ??= new bool[Kernel.Count];
-        if (!done[i] && layout.Panels[i] > 0)
+        if (done[i] || layout.Panels[i] == 0)
         {
-            var span = new Range(layout.Offsets[i], layout.Offsets[i + 1]);
-            Kernel.SampleNodes(i, EnergyElectronVolts, Ends(i), layout.Panels[i], psi.AsSpan(span), w.AsSpan(span));
-            done[i] = true;
+            return;
         }
-        return (psi, w);
+        var count = layout.Count;
+        var psi = _nodePsi ??= new double[count];
+        var mw = _nodeMassW ??= new double[count];
+        var weighted = _nodeWeighted ??= new double[count];
+        var moment = _nodeMoment ??= new double[count];
+        var span = new Range(layout.Offsets[i], layout.Offsets[i + 1]);
+        Kernel.SampleNodes(i, EnergyElectronVolts, Ends(i), layout.Panels[i], psi.AsSpan(span), mw.AsSpan(span));
+        var mass = Kernel.MassAt(i, EnergyElectronVolts);
+        var (start, end) = (layout.Offsets[i], layout.Offsets[i + 1]);
+        for (var q = start; q < end; q++)
+        {
+            mw[q] *= mass;
+            weighted[q] = layout.Weights[q] * psi[q];
+            moment[q] = weighted[q] * layout.Positions[q];
+        }
+        done[i] = true;
     }
 
     private bool[]? _sampled;
+    private double[]? _nodePsi;
+    private double[]? _nodeMassW;
+    private double[]? _nodeWeighted;
+    private double[]? _nodeMoment;
 
     /// <summary>A bound state on its own stack, with its tails.</summary>
     internal static KernelState Of(BoundWavefunction wave)
@@ -154,6 +176,25 @@ internal sealed class KernelState
         var kernel = a.Kernel;
         var n = kernel.Count;
         double overlap = 0, moment = 0, momentum = 0;
+        // Elements where the closed form is ill conditioned and both states share node samples: consecutive ones are summed as
+        // one run of Gauss–Legendre nodes (three dot products).
+        var shared = a.Nodes is { } layout && ReferenceEquals(layout, b.Nodes) && ReferenceEquals(a.Kernel, b.Kernel) ? a.Nodes : null;
+        var run = -1;
+        void Flush(int end)
+        {
+            if (run < 0)
+            {
+                return;
+            }
+            var span = new Range(shared!.Offsets[run], shared.Offsets[end]);
+            var weighted = a._nodeWeighted.AsSpan(span);
+            var psiB = b._nodePsi.AsSpan(span);
+            var runOverlap = TensorPrimitives.Dot<double>(weighted, psiB);
+            overlap += runOverlap;
+            moment += TensorPrimitives.Dot<double>(a._nodeMoment.AsSpan(span), psiB) + (shared.MiddleNanometres - originNanometres) * runOverlap;
+            momentum += TensorPrimitives.Dot<double>(weighted, b._nodeMassW.AsSpan(span));
+            run = -1;
+        }
         for (var i = 0; i < n; i++)
         {
             PairMoments pair;
@@ -161,24 +202,27 @@ internal sealed class KernelState
             {
                 pair = CompiledCell.PairQuadrature(a.Kernel, i, a.EnergyElectronVolts, a.Ends(i), b.Kernel, b.EnergyElectronVolts, b.Ends(i));
             }
-            else if (!kernel.TryPairClosedForm(i, a.EnergyElectronVolts, a.Ends(i), b.EnergyElectronVolts, b.Ends(i), normScale, out pair))
+            else if (!kernel.TryPairClosedForm(i, a.EnergyElectronVolts, a.Ends(i), b.EnergyElectronVolts, b.Ends(i), normScale,
+                a.EnergyElectronVolts <= b.EnergyElectronVolts ? a._growth[i] : b._growth[i], out pair))
             {
-                if (a.Nodes is { } layout && ReferenceEquals(layout, b.Nodes))
+                if (shared is not null)
                 {
-                    var (psiA, _) = a.NodeValues(i);
-                    var (psiB, wB) = b.NodeValues(i);
-                    var span = new Range(layout.Offsets[i], layout.Offsets[i + 1]);
-                    pair = kernel.NodePair(i, b.EnergyElectronVolts, layout.Panels[i], psiA.AsSpan(span), psiB.AsSpan(span), wB.AsSpan(span));
+                    a.EnsureSampled(i);
+                    b.EnsureSampled(i);
+                    if (run < 0)
+                    {
+                        run = i;
+                    }
+                    continue;
                 }
-                else
-                {
-                    pair = CompiledCell.PairQuadrature(kernel, i, a.EnergyElectronVolts, a.Ends(i), kernel, b.EnergyElectronVolts, b.Ends(i));
-                }
+                pair = CompiledCell.PairQuadrature(kernel, i, a.EnergyElectronVolts, a.Ends(i), kernel, b.EnergyElectronVolts, b.Ends(i));
             }
+            Flush(i);
             overlap += pair.Overlap;
             moment += pair.LocalMoment + (kernel.Start(i) - originNanometres) * pair.Overlap;
             momentum += pair.Momentum;
         }
+        Flush(n);
         if (a.LeftDecayPerNanometre > 0 && b.LeftDecayPerNanometre > 0)
         {
             var product = a.Psi[0] * b.Psi[0];
@@ -210,17 +254,41 @@ internal sealed class KernelState
     }
 }
 
-/// <summary>Per element of one sequence: the quadrature panels for an energy window and where each element's nodes start.</summary>
+/// <summary>
+/// Per element of one sequence: the quadrature panels for an energy window, where each element's nodes start, and every node's
+/// Gauss–Legendre weight and position (from the middle of the sequence).
+/// </summary>
 internal sealed class NodeLayout
 {
     internal NodeLayout(CompiledCell kernel, double lowerElectronVolts, double upperElectronVolts)
     {
+        var rule = Numerics.GaussLegendre.Twenty;
         Panels = new int[kernel.Count];
         Offsets = new int[kernel.Count + 1];
         for (var i = 0; i < kernel.Count; i++)
         {
             Panels[i] = kernel.Panels(i, lowerElectronVolts, upperElectronVolts);
-            Offsets[i + 1] = Offsets[i] + Panels[i] * Numerics.GaussLegendre.Twenty.Order;
+            Offsets[i + 1] = Offsets[i] + Panels[i] * rule.Order;
+        }
+        MiddleNanometres = 0.5 * kernel.Boundaries[kernel.Count];
+        Weights = new double[Count];
+        Positions = new double[Count];
+        for (var i = 0; i < kernel.Count; i++)
+        {
+            if (Panels[i] == 0)
+            {
+                continue;
+            }
+            var h = kernel.LayerData(i).Width / Panels[i];
+            var q = Offsets[i];
+            for (var p = 0; p < Panels[i]; p++)
+            {
+                for (var g = 0; g < rule.Order; g++, q++)
+                {
+                    Weights[q] = 0.5 * h * rule.Weights[g];
+                    Positions[q] = kernel.Start(i) - MiddleNanometres + (p + 0.5 + 0.5 * rule.Nodes[g]) * h;
+                }
+            }
         }
     }
 
@@ -229,4 +297,13 @@ internal sealed class NodeLayout
     internal int[] Offsets { get; }
 
     internal int Count => Offsets[^1];
+
+    /// <summary>Half the sequence's length, nm: the origin of <see cref="Positions"/>.</summary>
+    internal double MiddleNanometres { get; }
+
+    /// <summary>The quadrature weight of each node, nm.</summary>
+    internal double[] Weights { get; }
+
+    /// <summary>Each node's position from the middle of the sequence, nm.</summary>
+    internal double[] Positions { get; }
 }

@@ -32,16 +32,22 @@ public sealed class OpticalLevel
     /// <summary>Position in the list, counted from 1 upwards in energy (bound states first, then quasi-bound ones).</summary>
     public int Number { get; }
 
-    /// <summary>Energy, eV (a quasi-bound state: the energy of its transmission peak).</summary>
+    /// <summary>Energy, eV (a quasi-bound state: the energy of its transmission peak, or of its reflection-phase slope's peak).</summary>
     public double EnergyElectronVolts { get; }
 
     /// <summary>Error bound of <see cref="EnergyElectronVolts"/>, eV.</summary>
     public double ErrorElectronVolts { get; }
 
-    /// <summary>True for a quasi-bound state (above both lead band edges).</summary>
+    /// <summary>
+    /// True for a quasi-bound state: above both lead band edges (a transmission resonance), or between them (open into the lower
+    /// lead only, from the reflection phase).
+    /// </summary>
     public bool IsQuasiBound { get; }
 
-    /// <summary>The resonance's full width at half maximum, eV (0 for a bound state; +∞ when the peak has no half-maximum width).</summary>
+    /// <summary>
+    /// The quasi-bound state's width Γ, eV: the transmission peak's full width at half maximum above both lead edges (+∞ when the
+    /// peak has no half-maximum width), 2/(dΦ/dE) at the peak of the reflection phase's slope between them; 0 for a bound state.
+    /// </summary>
     public double WidthElectronVolts { get; }
 
     /// <summary>False when the level could not be separated from a neighbour (see <see cref="Stacks.BoundLevel.IsResolved"/>).</summary>

@@ -143,6 +143,63 @@ internal sealed class QuasiBoundState
         return new QuasiBoundState(domain, energy, margin, KernelState.OnDomain(kernel, energy, psi, dw));
     }
 
+    /// <summary>
+    /// The state at <paramref name="energy"/>, between the two lead edges of <paramref name="domain"/>, that decays into the closed
+    /// lead (the one whose edge lies above the energy): unique up to a factor, propagated from the domain's end in that lead
+    /// (where it is the exact exponential) towards the open lead, and normalised on the domain.
+    /// </summary>
+    internal static QuasiBoundState CreateOpenToOneLead(StackProfile domain, double energy, double margin)
+    {
+        var kernel = domain.Kernel;
+        var n = kernel.Count;
+        var left = domain.Stack.LeftLead;
+        var right = domain.RightLead;
+        var us = new double[n + 1];
+        var ws = new double[n + 1];
+        var logs = new double[n + 1];
+        double u = 1, log = 0;
+        if (left.PotentialElectronVolts > right.PotentialElectronVolts)
+        {
+            var w = left.DecayConstantPerNanometre(energy) / left.MassElectronMasses;
+            us[0] = u; ws[0] = w;
+            for (var i = 0; i < n; i++)
+            {
+                kernel.StepForward(i, energy, ref u, ref w, ref log);
+                us[i + 1] = u; ws[i + 1] = w; logs[i + 1] = log;
+            }
+        }
+        else
+        {
+            var w = -right.DecayConstantPerNanometre(energy) / right.MassElectronMasses;
+            us[n] = u; ws[n] = w;
+            for (var i = n - 1; i >= 0; i--)
+            {
+                kernel.StepBackward(i, energy, ref u, ref w, ref log);
+                us[i] = u; ws[i] = w; logs[i] = log;
+            }
+        }
+        var top = logs.Max();
+        for (var i = 0; i <= n; i++)
+        {
+            var f = Math.Exp(logs[i] - top);
+            us[i] *= f;
+            ws[i] *= f;
+        }
+        var raw = KernelState.OnDomain(kernel, energy, us, ws);
+        double norm = 0;
+        for (var i = 0; i < n; i++)
+        {
+            norm += kernel.SquareIntegral(i, energy, raw.Ends(i), fromLeft: true);
+        }
+        var scale = 1 / Math.Sqrt(norm);
+        for (var i = 0; i <= n; i++)
+        {
+            us[i] *= scale;
+            ws[i] *= scale;
+        }
+        return new QuasiBoundState(domain, energy, margin, KernelState.OnDomain(kernel, energy, us, ws));
+    }
+
     /// <summary>ψ at a position of the original stack's frame, nm^(−1/2); zero outside the domain.</summary>
     internal double ValueAt(double positionNanometres)
     {

@@ -137,6 +137,27 @@ public sealed class OpticsCommandsTest
     }
 
     [Fact]
+    public void Transitions_ContinuumUnderBias_GivesLevelBetweenLeadEdgesWithWidth()
+    {
+        // A 10 nm well between 15 nm barriers 0.4 eV high: under eU = 0.25 eV the right lead's edge is at 0.15 eV and the third
+        // well level (≈ 0.30 eV flat, moved down by about eU/2 [derived: first-order Stark shift of a centred level]) lies between
+        // the edges: a quasi-bound level with a width, reached from the bound levels below; absorption takes it with --continuum.
+        var file = ToolRunner.TempFile("""{"name": "tilted", "cell": [{"width": 15, "potential": 0.4, "mass": 0.067}, {"width": 10, "potential": 0, "mass": 0.067}, {"width": 15, "potential": 0.4, "mass": 0.067}], "stack": {"periods": 1, "leads": {"potential": 0.4, "mass": 0.067}}}""");
+        var run = ToolRunner.Invoke("transitions", file, "--json", "--continuum", "--bias", "0.25");
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        var level = run.Json().GetProperty("levels").EnumerateArray().First(l => l.GetProperty("kind").GetString() == "quasi-bound");
+        Assert.InRange(level.GetProperty("energy").GetDouble(), 0.15, 0.4);
+        Assert.InRange(level.GetProperty("width").GetDouble(), 1e-9, 0.01);
+        var number = level.GetProperty("level").GetInt32();
+        Assert.Contains(run.Json().GetProperty("transitions").EnumerateArray(),
+            t => t.GetProperty("to").GetInt32() == number && t.GetProperty("kind").GetString() == "bound-quasi-bound");
+        var flat = ToolRunner.Invoke("transitions", file, "--json", "--bias", "0.25");
+        Assert.DoesNotContain(flat.Json().GetProperty("levels").EnumerateArray(), l => l.GetProperty("kind").GetString() == "quasi-bound");
+        var absorption = ToolRunner.Invoke("absorption", file, "--density", "1e11", "--temperature", "10", "--bias", "0.25", "--continuum", "--json");
+        Assert.True(absorption.ExitCode == 0, absorption.Stderr);
+    }
+
+    [Fact]
     public void Transitions_BiasWithInterband_ExitsTwoNamingBias()
     {
         var run = ToolRunner.Invoke("transitions", ToolRunner.Example("infrared-well.json"), "--carrier", "interband", "--bias", "0.1");

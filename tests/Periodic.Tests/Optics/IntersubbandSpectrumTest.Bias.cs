@@ -61,6 +61,30 @@ public partial class IntersubbandSpectrumTest
     }
 
     [Fact]
+    public void ComputeUnderBias_LevelAboveLowerLeadEdge_IsQuasiBoundWithWidth()
+    {
+        // A 10 nm well between 15 nm barriers 0.4 eV high (leads of the barrier): three bound levels when flat (the finite well,
+        // Griffiths §2.6: z0 = (L/2)√(2mV0)/ħ ≈ 4.2 > π). Under eU = 0.25 eV the right lead's edge drops to 0.15 eV while the third
+        // level moves down by about eU/2 (first-order Stark shift of a level in the middle [derived]) to ≈ 0.18 eV: between the
+        // two edges, it leaks into the right lead only. It is computed only with quasi-bound states requested, with a width
+        // between zero and the level spacing, and levels 1 and 2 stay bound below 0.15 eV.
+        const double mass = 0.067, bias = 0.25;
+        var stack = LayerStack.Create(Lead(0.4, mass), Lead(0.4, mass), L(15, 0.4, mass), L(10, 0, mass), L(15, 0.4, mass));
+        Assert.Equal(3, IntersubbandSpectrum.Compute(stack).BoundCount);
+        var bound = Biased(stack, bias);
+        Assert.Equal(2, bound.Levels.Count);
+        var open = Biased(stack, bias, new IntersubbandOptions { IncludeQuasiBound = true, QuasiBoundUpperElectronVolts = 0.4 });
+        Assert.Equal(2, open.BoundCount);
+        var level = open.Levels[2];
+        Assert.True(level.IsQuasiBound);
+        Assert.InRange(level.EnergyElectronVolts, 0.4 - bias, 0.4);
+        Assert.InRange(level.WidthElectronVolts, 1e-9, 0.01);
+        var t = open.Transition(2, 3);
+        Assert.Equal(level.EnergyElectronVolts - open.Levels[1].EnergyElectronVolts, t.EnergyElectronVolts, 1e-15);
+        Assert.True(double.IsFinite(t.DomainChangeFraction));
+    }
+
+    [Fact]
     public void Compute_BiasToZero_IsContinuous()
     {
         // A symmetric stack: by the Hellmann–Feynman theorem a level moves as dE/dU = ⟨∂V/∂U⟩ = −1/2 at U = 0 (V = −U·x/L in the

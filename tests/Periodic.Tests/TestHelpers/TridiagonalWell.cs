@@ -99,18 +99,20 @@ internal sealed class TridiagonalWell
     }
 
     /// <summary>The eigenvector of eigenvalue λ by inverse iteration, normalised to Σ h ψ² = 1.</summary>
-    internal double[] Eigenvector(double lambda)
+    internal double[] Eigenvector(double lambda) => Eigenvector(lambda + 1e-10 * Math.Max(1, Math.Abs(lambda)), 4);
+
+    /// <summary><paramref name="iterations"/> steps of inverse iteration with <paramref name="shift"/> from <paramref name="start"/> (or a fixed vector), normalised to Σ h ψ² = 1.</summary>
+    internal double[] Eigenvector(double shift, int iterations, double[]? start = null)
     {
         var n = _diagonal.Length;
         var x = new double[n];
         for (var i = 0; i < n; i++)
         {
-            x[i] = 1 + 0.1 * Math.Sin(0.37 * i);
+            x[i] = start?[i] ?? 1 + 0.1 * Math.Sin(0.37 * i);
         }
-        var shift = lambda + 1e-10 * Math.Max(1, Math.Abs(lambda));
         var c = new double[n];
         var y = new double[n];
-        for (var iteration = 0; iteration < 4; iteration++)
+        for (var iteration = 0; iteration < iterations; iteration++)
         {
             // Thomas algorithm for (H − shift) y = x.
             var denominator = _diagonal[0] - shift;
@@ -139,6 +141,111 @@ internal sealed class TridiagonalWell
             }
         }
         return x;
+    }
+
+    /// <summary>
+    /// The lowest <paramref name="count"/> eigenpairs in [<paramref name="lo"/>, <paramref name="hi"/>], as a tuned sparse solver
+    /// would get them: bisection on Sturm counts shared by all wanted eigenvalues (each count narrows every bracket it falls in,
+    /// as LAPACK's dstebz does) until each eigenvalue is isolated and its bracket is 1e-4 of its width at isolation, then inverse
+    /// iteration from the bracket's middle (Golub and Van Loan, §8.4) until the residual ‖(T − ρ)x‖ of the Rayleigh quotient ρ
+    /// stops falling, ρ the eigenvalue (its error is of the order of the squared residual over the gap). Vectors normalised to
+    /// Σ h ψ² = 1 with a positive sum.
+    /// </summary>
+    internal (double[] Values, double[][] Vectors) LowestEigenpairs(int count, double lo, double hi)
+    {
+        var lower = new double[count];
+        var upper = new double[count];
+        var countLower = new int[count];
+        var countUpper = new int[count];
+        Array.Fill(lower, lo);
+        Array.Fill(upper, hi);
+        Array.Fill(countLower, CountBelow(lo));
+        Array.Fill(countUpper, CountBelow(hi));
+        var values = new double[count];
+        var vectors = new double[count][];
+        var buffer = new double[_diagonal.Length];
+        void Narrow(double mid)
+        {
+            var below = CountBelow(mid);
+            for (var j = 0; j < count; j++)
+            {
+                if (mid > lower[j] && mid < upper[j])
+                {
+                    if (below > j)
+                    {
+                        upper[j] = mid;
+                        countUpper[j] = below;
+                    }
+                    else
+                    {
+                        lower[j] = mid;
+                        countLower[j] = below;
+                    }
+                }
+            }
+        }
+        for (var k = 0; k < count; k++)
+        {
+            // Isolated: the bracket holds eigenvalue k alone (k below its lower end, k + 1 below its upper end).
+            while ((countLower[k] != k || countUpper[k] != k + 1) && upper[k] - lower[k] > 1e-15 * Math.Max(1, Math.Abs(upper[k])))
+            {
+                Narrow(0.5 * (lower[k] + upper[k]));
+            }
+            var target = 1e-4 * (upper[k] - lower[k]);
+            while (upper[k] - lower[k] > Math.Max(target, 1e-15 * Math.Max(1, Math.Abs(upper[k]))))
+            {
+                Narrow(0.5 * (lower[k] + upper[k]));
+            }
+            var shift = 0.5 * (lower[k] + upper[k]);
+            var x = Eigenvector(shift, 1);
+            var rho = RayleighQuotient(x, buffer, out var residual);
+            for (var iteration = 0; iteration < 6; iteration++)
+            {
+                var next = Eigenvector(shift, 1, x);
+                var nextRho = RayleighQuotient(next, buffer, out var nextResidual);
+                x = next;
+                rho = nextRho;
+                if (!(nextResidual < 0.5 * residual))
+                {
+                    break;
+                }
+                residual = nextResidual;
+            }
+            values[k] = rho;
+            vectors[k] = x;
+        }
+        return (values, vectors);
+    }
+
+    /// <summary>xᵀTx/xᵀx and the residual ‖Tx − ρx‖/‖x‖ (<paramref name="y"/>: room for Tx).</summary>
+    private double RayleighQuotient(double[] x, double[] y, out double residual)
+    {
+        var n = _diagonal.Length;
+        double xx = 0, xtx = 0;
+        for (var i = 0; i < n; i++)
+        {
+            var v = _diagonal[i] * x[i];
+            if (i > 0)
+            {
+                v += _offDiagonal[i - 1] * x[i - 1];
+            }
+            if (i < n - 1)
+            {
+                v += _offDiagonal[i] * x[i + 1];
+            }
+            y[i] = v;
+            xx += x[i] * x[i];
+            xtx += x[i] * v;
+        }
+        var rho = xtx / xx;
+        double r = 0;
+        for (var i = 0; i < n; i++)
+        {
+            var d = y[i] - rho * x[i];
+            r += d * d;
+        }
+        residual = Math.Sqrt(r / xx);
+        return rho;
     }
 
     /// <summary>Σ h x_i ψ_a ψ_b with x_i = (i + 1)h − origin.</summary>
