@@ -129,7 +129,7 @@ internal static class TransitionsCommand
             {
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--margin must lie in (0, 10000] nm; got {dm:R}."));
             }
-            var structure = Common.RequireRigid(Common.Load(result, result.GetValue(file)!), "transitions");
+            var structure = Common.RequireRigidOptics(result, Common.Load(result.GetValue(file)!), "transitions");
             string text;
             if (result.GetValue(stackOptions.Carrier) == "interband")
             {

@@ -50,6 +50,15 @@ internal sealed class StackOptions
     /// <summary>N periods of the cell when <paramref name="periods"/> is given, else the file's stack; the lead options replace both leads' values.</summary>
     public static (LayerStack Stack, string Description) Choose(StructureDefinition structure, int? periods, double? potential, double? mass)
     {
+        if (structure.SelfConsistentStack is not null)
+        {
+            var option = periods is not null ? "--periods" : potential is not null ? "--lead-potential" : mass is not null ? "--lead-mass" : null;
+            if (option is not null)
+            {
+                throw new UsageException($"{option} cannot be combined with the self-consistent stack of a doped file: the space charge is solved for the file's own stack and leads; drop {option}, or add --no-space-charge for the rigid bands.");
+            }
+            return (structure.Stack!, "the file's stack, self-consistent (with lead buffers)");
+        }
         if (periods is { } n)
         {
             var built = TransmissionCommand.BuildStack(structure, n, potential, mass);

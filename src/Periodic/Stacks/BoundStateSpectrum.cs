@@ -104,10 +104,18 @@ public sealed class BoundStateSpectrum
         return Find(new StackProfile(stack, options.MaxElements, nameof(stack), bias.ElectronVolts, 0), options);
     }
 
-    internal static BoundStateSpectrum Find(StackProfile profile, BoundStateOptions options)
+    internal static BoundStateSpectrum Find(StackProfile profile, BoundStateOptions options) =>
+        Find(profile, Math.Min(profile.Stack.LeftLead.PotentialElectronVolts, profile.RightLead.PotentialElectronVolts), options);
+
+    /// <summary>
+    /// Every state of a closed box (<see cref="StackProfile.HardWalls"/>) below <paramref name="ceilingElectronVolts"/>, with
+    /// the same proof of completeness (the Dirichlet oscillation count) and refinement as between leads.
+    /// </summary>
+    internal static BoundStateSpectrum FindInBox(StackProfile profile, double ceilingElectronVolts, BoundStateOptions options) =>
+        Find(profile, ceilingElectronVolts, options);
+
+    private static BoundStateSpectrum Find(StackProfile profile, double edge, BoundStateOptions options)
     {
-        var stack = profile.Stack;
-        var edge = Math.Min(stack.LeftLead.PotentialElectronVolts, profile.RightLead.PotentialElectronVolts);
         // Binding energies below 1e-15 eV (relative to max(1, |edge|)) are not resolvable: the count stops there.
         var top = edge - ThresholdMarginElectronVolts * Math.Max(1, Math.Abs(edge));
         var lowestValid = profile.LowestValidEnergyElectronVolts;

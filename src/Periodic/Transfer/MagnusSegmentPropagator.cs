@@ -145,6 +145,107 @@ internal sealed class MagnusSegmentPropagator
     }
 
     /// <summary>
+    /// ψ at offset <paramref name="t"/> inside the segment, divided by e^logScale: for t ≥ +0 from the state (u, w) at its left
+    /// end, stepped forwards to the step that holds x = t; for t ≤ −0 (negative zero included: the right end itself) from the state at its right end, stepped backwards to the
+    /// step that holds x = width + t. Inside the step ψ is the cubic Hermite interpolant of the step's end values, the scheme's
+    /// own O(h⁴) model (as in <see cref="PropagateWithMoments"/>); at a step boundary it is the propagated value itself.
+    /// </summary>
+    internal double ScaledValue(double energyElectronVolts, double u, double w, double t, out double logScale)
+    {
+        var n = _beta.Length;
+        double log = 0;
+        if (!double.IsNegative(t))
+        {
+            double x = 0;
+            for (var j = 0; j < n; j++)
+            {
+                var h = Mesh.StepWidth(j);
+                StepMatrix(Mesh, j, energyElectronVolts, out var m11, out var m12, out var m21, out var m22, out _);
+                double u1 = m11 * u + m12 * w, w1 = m21 * u + m22 * w;
+                if (x + h >= t || j == n - 1)
+                {
+                    logScale = log;
+                    return Interpolate(j, Math.Clamp((t - x) / h, 0, 1), u, w, u1, w1);
+                }
+                (u, w) = (u1, w1);
+                x += h;
+                ScaledProduct.Renormalise(ref u, ref w, ref log);
+            }
+        }
+        else
+        {
+            // Distance from the right end, stepping leftwards: step j spans [−(distance + h), −distance] from that end.
+            double distance = 0;
+            for (var j = n - 1; j >= 0; j--)
+            {
+                var h = Mesh.StepWidth(j);
+                StepMatrix(Mesh, j, energyElectronVolts, out var m11, out var m12, out var m21, out var m22, out _);
+                double u0 = m22 * u - m12 * w, w0 = -m21 * u + m11 * w;
+                if (distance + h >= -t || j == 0)
+                {
+                    logScale = log;
+                    return Interpolate(j, Math.Clamp(1 - (-t - distance) / h, 0, 1), u0, w0, u, w);
+                }
+                (u, w) = (u0, w0);
+                distance += h;
+                ScaledProduct.Renormalise(ref u, ref w, ref log);
+            }
+        }
+        logScale = log;
+        return u;
+    }
+
+    /// <summary>
+    /// ln ∫ψ² over the segment for the state (u, w) given at its left end (<paramref name="fromLeft"/>) or its right end, each
+    /// step integrated by the 8-point Gauss–Legendre rule on the cubic Hermite interpolant of its end values (as
+    /// <see cref="PropagateWithMoments"/>), stepping away from the given end with renormalisation so that nothing overflows.
+    /// </summary>
+    internal double LogSquareIntegral(double energyElectronVolts, double u, double w, bool fromLeft)
+    {
+        var rule = GaussLegendre.Eight;
+        var n = _beta.Length;
+        double log = 0, sum = 0; // sum in units of e^(2·log)
+        for (var k = 0; k < n; k++)
+        {
+            var j = fromLeft ? k : n - 1 - k;
+            StepMatrix(Mesh, j, energyElectronVolts, out var m11, out var m12, out var m21, out var m22, out _);
+            double u0, w0, u1, w1;
+            if (fromLeft)
+            {
+                (u0, w0, u1, w1) = (u, w, m11 * u + m12 * w, m21 * u + m22 * w);
+                (u, w) = (u1, w1);
+            }
+            else
+            {
+                (u0, w0, u1, w1) = (m22 * u - m12 * w, -m21 * u + m11 * w, u, w);
+                (u, w) = (u0, w0);
+            }
+            var h = Mesh.StepWidth(j);
+            for (var g = 0; g < rule.Order; g++)
+            {
+                var psi = Interpolate(j, 0.5 + 0.5 * rule.Nodes[g], u0, w0, u1, w1);
+                sum += 0.5 * h * rule.Weights[g] * psi * psi;
+            }
+            var before = log;
+            ScaledProduct.Renormalise(ref u, ref w, ref log);
+            if (log != before)
+            {
+                sum *= Math.Exp(-2 * (log - before));
+            }
+        }
+        return sum > 0 ? Math.Log(sum) + 2 * log : double.NegativeInfinity;
+    }
+
+    /// <summary>ψ at τ ∈ [0, 1] of step <paramref name="j"/> from its end states (ψ, ψ′/m): the cubic Hermite interpolant.</summary>
+    private double Interpolate(int j, double tau, double u0, double w0, double u1, double w1)
+    {
+        var (mLeft, mRight) = Mesh.EndMasses(j);
+        var h = Mesh.StepWidth(j);
+        var basis = Hermite(tau);
+        return basis.H00 * u0 + basis.H10 * h * (w0 * mLeft) + basis.H01 * u1 + basis.H11 * h * (w1 * mRight);
+    }
+
+    /// <summary>
     /// The cubic Hermite basis at τ ∈ [0, 1] (C. de Boor, A Practical Guide to Splines, ch. 4): ψ(τ) = h00·ψ₀ + h10·h·ψ′₀ +
     /// h01·ψ₁ + h11·h·ψ′₁ for a step of width h, and dψ/dx = (d00·ψ₀ + d01·ψ₁)/h + d10·ψ′₀ + d11·ψ′₁. Its error is
     /// h⁴·max|ψ⁗|/384, the order of the Magnus scheme itself.

@@ -11,7 +11,7 @@ using Xunit.Abstractions;
 
 namespace Periodic.Tests.SpaceCharge;
 
-public sealed class SpaceChargeSolverTest(ITestOutputHelper output)
+public sealed partial class SpaceChargeSolverTest(ITestOutputHelper output)
 {
     private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
     private const double KB = PhysicalConstants.BoltzmannElectronVoltsPerKelvin;
