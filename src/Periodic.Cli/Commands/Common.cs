@@ -203,16 +203,6 @@ internal static class Common
     private static bool IsSelfConsistent(ParseResult result, StructureDefinition structure) =>
         !result.GetValue(NoSpaceCharge) && (structure.Doping is not null || structure.StackDoping is not null || structure.SelfConsistent is not null || structure.SelfConsistentStack is not null);
 
-    /// <summary>Refuses a non-zero bias (from <paramref name="source"/>, e.g. --bias) on a self-consistent structure: space charge under bias is not modelled.</summary>
-    public static void RefuseBiasWithSpaceCharge(StructureDefinition structure, double biasElectronVolts, string source)
-    {
-        if (biasElectronVolts != 0 && (structure.SelfConsistent is not null || structure.SelfConsistentStack is not null))
-        {
-            throw new UsageException(string.Create(CultureInfo.InvariantCulture,
-                $"{source} {biasElectronVolts:R} eV cannot be combined with the self-consistent potential of a doped structure: space charge is solved at zero bias only (bias with space charge is not modelled); give 0 eV, or add --no-space-charge for the rigid bands under bias."));
-        }
-    }
-
     /// <summary>
     /// Refuses the self-consistent potential of a doped structure for the optics (<paramref name="command"/>: transitions,
     /// absorption), whose integrals over pairs of states take uniform layers and delta barriers only, not sampled potentials.

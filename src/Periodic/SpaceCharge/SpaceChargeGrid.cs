@@ -29,10 +29,11 @@ internal sealed class SpaceChargeGrid
                 total += intervalsPerElement[e];
             }
         }
-        if (total + 1 > SpaceChargeOptions.MaxGridPoints)
+        var points = periodic ? total : total + 1;
+        if (points > SpaceChargeOptions.MaxGridPoints)
         {
-            throw new ArgumentOutOfRangeException("options", total, string.Create(CultureInfo.InvariantCulture,
-                $"the {(periodic ? "cell of period" : "domain of length")} {length:R} nm needs {total + 1} grid points at a spacing of {maxSpacing:R} nm; at most {SpaceChargeOptions.MaxGridPoints} are allowed (time and memory per iteration grow with them): choose a larger MaxGridSpacingNanometres."));
+            throw new ArgumentOutOfRangeException("options", points, string.Create(CultureInfo.InvariantCulture,
+                $"the {(periodic ? "cell of period" : "domain of length")} {length:R} nm needs {points} grid points at a spacing of {maxSpacing:R} nm; at most {SpaceChargeOptions.MaxGridPoints} are allowed (time and memory per iteration grow with them): choose a larger MaxGridSpacingNanometres."));
         }
         var intervals = (int)total;
         Intervals = intervals;

@@ -255,8 +255,8 @@ internal sealed class FiniteDifferenceSchrodingerPoisson
             var residual = MathNet.Numerics.LinearAlgebra.Vector<double>.Build.Dense(N);
             for (var i = 0; i < N; i++)
             {
-                int before = (i + N - 1) % N, after = (i + 1) % N;
-                double left = _eps[before] / H, right = _eps[i % _eps.Length] / H, volume = H;
+                int before, after;
+                double left, right, volume = H;
                 if (_closed)
                 {
                     // No flux through the ends: the missing coupling is zero and the control volume half.
@@ -264,6 +264,11 @@ internal sealed class FiniteDifferenceSchrodingerPoisson
                     left = i == 0 ? 0 : _eps[i - 1] / H;
                     right = i == N - 1 ? 0 : _eps[i] / H;
                     volume = i == 0 || i == N - 1 ? 0.5 * H : H;
+                }
+                else
+                {
+                    (before, after) = ((i + N - 1) % N, (i + 1) % N);
+                    (left, right) = (_eps[before] / H, _eps[i] / H);
                 }
                 residual[i] = -(right * (u[after] - u[i]) - left * (u[i] - u[before]) - ChargeOverPermittivity * (_fixed[i] - volume * density[i]));
                 jacobian[i, before] += left;
