@@ -102,7 +102,7 @@ internal static class AbsorptionCommand
             {
                 throw new UsageException("photon energies must be positive (eV).");
             }
-            var structure = Common.RequireRigidOptics(result, Common.Load(result.GetValue(file)!), "absorption");
+            var structure = Common.LoadStack(result, result.GetValue(file)!, "absorption", result.GetValue(stackOptions.Bias), usesBias: true);
             var stack = stackOptions.Build(result, structure);
             var spectrum = TransitionsCommand.Compute(stack, TransitionsCommand.ChooseBias(result, stackOptions, structure), null);
             var options = new AbsorptionOptions

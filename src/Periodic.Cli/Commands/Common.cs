@@ -167,7 +167,7 @@ internal static class Common
     }
 
     /// <summary>
-    /// For the finite-stack commands at zero bias (levels, resonances, transmission): a doped file is solved self-consistently
+    /// For the finite-stack commands at zero bias (levels, resonances, transmission, transitions, absorption): a doped file is solved self-consistently
     /// unless --no-space-charge is given. A file whose stack holds dopants gets its stack solved between its leads
     /// (<see cref="SpaceChargeSolver.Solve(DopedStack, SpaceChargeOptions?, IProgress{SpaceChargeProgress}?, CancellationToken)"/>);
     /// a doped cell without such a stack gets the periodic solution, repeated in the stacks built from it. A non-zero
@@ -202,14 +202,6 @@ internal static class Common
     /// <summary>True when the structure's doping (of its cell or of its stack) asks for a self-consistent potential, i.e. without --no-space-charge.</summary>
     private static bool IsSelfConsistent(ParseResult result, StructureDefinition structure) =>
         !result.GetValue(NoSpaceCharge) && (structure.Doping is not null || structure.StackDoping is not null || structure.SelfConsistent is not null || structure.SelfConsistentStack is not null);
-
-    /// <summary>
-    /// Refuses the self-consistent potential of a doped structure for the optics (<paramref name="command"/>: transitions,
-    /// absorption), whose integrals over pairs of states take uniform layers and delta barriers only, not sampled potentials.
-    /// </summary>
-    public static StructureDefinition RequireRigidOptics(ParseResult result, StructureDefinition structure, string command) => !IsSelfConsistent(result, structure)
-        ? structure
-        : throw new UsageException($"{command} does not yet take the self-consistent (sampled) potential of a doped structure: its integrals over pairs of states take uniform layers and delta barriers only; add --no-space-charge for the rigid bands.");
 
     /// <summary>
     /// Refuses the self-consistent potential of a doped structure for <paramref name="command"/>, which works under bias

@@ -58,6 +58,17 @@ internal static class TransitionsCommand
         {
             var carrier = result.GetValue(Carrier)!;
             var periods = result.GetValue(Periods);
+            if (structure.SelfConsistentStack is not null)
+            {
+                // The doped stack's own self-consistent potential: its stack and leads, its electrons.
+                var option = periods is not null ? "--periods" : result.GetValue(LeadPotential) is not null ? "--lead-potential"
+                    : result.GetValue(LeadMass) is not null ? "--lead-mass" : carrier != "electron" ? "--carrier " + carrier : null;
+                if (option is not null)
+                {
+                    throw new UsageException($"{option} cannot be combined with the self-consistent stack of a doped file: the space charge is solved for the file's own stack, leads and electrons; drop {option}, or add --no-space-charge for the rigid bands.");
+                }
+                return structure.Stack!;
+            }
             if (periods is { } p)
             {
                 Common.CheckCount(p, "--periods", 100_000);
@@ -129,10 +140,14 @@ internal static class TransitionsCommand
             {
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--margin must lie in (0, 10000] nm; got {dm:R}."));
             }
-            var structure = Common.RequireRigidOptics(result, Common.Load(result.GetValue(file)!), "transitions");
+            var structure = Common.LoadStack(result, result.GetValue(file)!, "transitions", result.GetValue(stackOptions.Bias), usesBias: true);
             string text;
             if (result.GetValue(stackOptions.Carrier) == "interband")
             {
+                if (structure.SelfConsistent is not null || structure.SelfConsistentStack is not null)
+                {
+                    throw new UsageException("--carrier interband cannot be combined with the self-consistent potential of a doped structure (holes are not modelled in it); add --no-space-charge for the rigid bands.");
+                }
                 if (result.GetValue(stackOptions.Bias) is { } b && b != 0)
                 {
                     throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--bias {b:R} eV cannot be applied with --carrier interband: interband spectra are computed flat-band only. Allowed: --bias 0 or no --bias."));

@@ -130,6 +130,10 @@ public sealed class IntersubbandSpectrum
                 nameof(stack));
         }
         var profile = bound.Profile;
+        if (options.IncludeQuasiBound && profile.Kernel.HasSegments)
+        {
+            throw new ArgumentException("stack holds smooth segments (e.g. a self-consistent potential); quasi-bound levels are computed for uniform layers and delta barriers only: leave IncludeQuasiBound off.", nameof(options));
+        }
         var referenceMass = options.ReferenceMassElectronMasses ?? WellMass(profile, stack);
         var nb = bound.Levels.Count;
 
@@ -272,18 +276,14 @@ public sealed class IntersubbandSpectrum
             $"the quasi-bound state is not localised: |z| changed by {change:P2} when the normalisation domain's margin was doubled ({options.DomainMarginNanometres:G6} → {2 * options.DomainMarginNanometres:G6} nm); tolerance {options.DomainTolerance:P2}");
 
     /// <summary>m(E) of layer <paramref name="j"/> (a layer under bias: its constant mass), m₀.</summary>
-    private static double MassAt(StackProfile profile, int j, double e)
-    {
-        profile.Kernel.LayerCoefficients(j, e, out var mass, out _);
-        return mass;
-    }
+    private static double MassAt(StackProfile profile, int j, double e) => profile.Kernel.MassAt(j, e);
 
     private static double WellMass(StackProfile profile, LayerStack stack)
     {
         var best = -1;
         for (var j = 0; j < profile.Count; j++)
         {
-            if (!profile.IsDelta(j) && (best < 0 || profile.Potential(j) < profile.Potential(best)))
+            if (!profile.IsDelta(j) && (best < 0 || profile.MinimumPotential(j) < profile.MinimumPotential(best)))
             {
                 best = j;
             }
@@ -298,7 +298,7 @@ public sealed class IntersubbandSpectrum
         {
             if (!profile.IsDelta(j))
             {
-                max = Math.Max(max, profile.Potential(j));
+                max = Math.Max(max, profile.MaximumPotential(j));
             }
         }
         return double.IsFinite(max) ? max : profile.MinimumPotentialElectronVolts;

@@ -163,7 +163,7 @@ internal sealed class KernelState
             }
             else if (!kernel.TryPairClosedForm(i, a.EnergyElectronVolts, a.Ends(i), b.EnergyElectronVolts, b.Ends(i), normScale, out pair))
             {
-                if (a.Nodes is { } layout && ReferenceEquals(layout, b.Nodes))
+                if (!kernel.IsSegment(i) && a.Nodes is { } layout && ReferenceEquals(layout, b.Nodes))
                 {
                     var (psiA, _) = a.NodeValues(i);
                     var (psiB, wB) = b.NodeValues(i);

@@ -236,6 +236,146 @@ internal sealed class MagnusSegmentPropagator
         return sum > 0 ? Math.Log(sum) + 2 * log : double.NegativeInfinity;
     }
 
+    /// <summary>The mass averaged over the segment, m₀ (the mean of its Gauss-node masses, weighted by step width).</summary>
+    internal double MeanMass
+    {
+        get
+        {
+            double beta = 0, width = 0;
+            for (var j = 0; j < _beta.Length; j++)
+            {
+                beta += _beta[j];
+                width += Mesh.StepWidth(j);
+            }
+            return beta / width; // β = h(m₁ + m₂)/2
+        }
+    }
+
+    /// <summary>The lowest and highest step-mean potential of the segment, eV (γ₀ = h(V₁ + V₂)/(2C)).</summary>
+    internal (double Minimum, double Maximum) PotentialRange
+    {
+        get
+        {
+            double low = double.PositiveInfinity, high = double.NegativeInfinity;
+            for (var j = 0; j < _beta.Length; j++)
+            {
+                var v = _gamma0[j] / _gamma1[j]; // γ₁ = h/C
+                low = Math.Min(low, v);
+                high = Math.Max(high, v);
+            }
+            return (low, high);
+        }
+    }
+
+    /// <summary>
+    /// The state with end values <paramref name="ends"/> at every step boundary (Count + 1 values of ψ and ψ′/m, unscaled),
+    /// propagated from the end where it is smaller towards the end where it is larger: in its growing direction, where
+    /// propagation keeps its relative accuracy.
+    /// </summary>
+    internal void StepStates(double energyElectronVolts, in ElementEnds ends, Span<double> u, Span<double> w)
+    {
+        var n = _beta.Length;
+        var scale = MeanMass; // compare ψ with m·ψ′/m·(1 nm)
+        var forward = Math.Max(Math.Abs(ends.U0), scale * Math.Abs(ends.W0)) <= Math.Max(Math.Abs(ends.U1), scale * Math.Abs(ends.W1));
+        if (forward)
+        {
+            (u[0], w[0]) = (ends.U0, ends.W0);
+            for (var j = 0; j < n; j++)
+            {
+                StepMatrix(Mesh, j, energyElectronVolts, out var m11, out var m12, out var m21, out var m22, out _);
+                (u[j + 1], w[j + 1]) = (m11 * u[j] + m12 * w[j], m21 * u[j] + m22 * w[j]);
+            }
+        }
+        else
+        {
+            (u[n], w[n]) = (ends.U1, ends.W1);
+            for (var j = n - 1; j >= 0; j--)
+            {
+                StepMatrix(Mesh, j, energyElectronVolts, out var m11, out var m12, out var m21, out var m22, out _);
+                (u[j], w[j]) = (m22 * u[j + 1] - m12 * w[j + 1], -m21 * u[j + 1] + m11 * w[j + 1]);
+            }
+        }
+    }
+
+    /// <summary>
+    /// ∫ψ_aψ_b, ∫yψ_aψ_b (y from the segment's left end) and ∫ψ_aψ_b′ over the segment for state a of
+    /// <paramref name="segmentA"/> and state b of this segment (two segments with the same steps), each given by its end values:
+    /// per step the cubic Hermite interpolants of the step-boundary states (<see cref="StepStates"/>), the scheme's own O(h⁴)
+    /// model, integrated by the 8-point Gauss–Legendre rule, exact for these polynomials of degree at most 7.
+    /// </summary>
+    internal PairMoments PairIntegrals(MagnusSegmentPropagator segmentA, double ea, in ElementEnds a, double eb, in ElementEnds b)
+    {
+        var n = _beta.Length;
+        var ua = new double[n + 1];
+        var wa = new double[n + 1];
+        var ub = new double[n + 1];
+        var wb = new double[n + 1];
+        segmentA.StepStates(ea, a, ua, wa);
+        StepStates(eb, b, ub, wb);
+        var rule = GaussLegendre.Eight;
+        double overlap = 0, moment = 0, momentum = 0, x = 0;
+        for (var j = 0; j < n; j++)
+        {
+            var h = Mesh.StepWidth(j);
+            var (mLeftA, mRightA) = segmentA.Mesh.EndMasses(j);
+            var (mLeft, mRight) = Mesh.EndMasses(j);
+            for (var g = 0; g < rule.Order; g++)
+            {
+                var tau = 0.5 + 0.5 * rule.Nodes[g];
+                var basis = Hermite(tau);
+                var psiA = basis.H00 * ua[j] + basis.H10 * h * (wa[j] * mLeftA) + basis.H01 * ua[j + 1] + basis.H11 * h * (wa[j + 1] * mRightA);
+                var psiB = basis.H00 * ub[j] + basis.H10 * h * (wb[j] * mLeft) + basis.H01 * ub[j + 1] + basis.H11 * h * (wb[j + 1] * mRight);
+                var slopeB = (basis.D00 * ub[j] + basis.D01 * ub[j + 1]) / h + basis.D10 * (wb[j] * mLeft) + basis.D11 * (wb[j + 1] * mRight);
+                var weight = 0.5 * h * rule.Weights[g];
+                overlap += weight * psiA * psiB;
+                moment += weight * (x + tau * h) * psiA * psiB;
+                momentum += weight * psiA * slopeB;
+            }
+            x += h;
+        }
+        return new PairMoments(overlap, moment, momentum);
+    }
+
+    /// <summary>
+    /// ∫F² over the segment, F(y) = <paramref name="start"/> + ∫₀^y ψ_aψ_b, for two states of this segment: on each step the
+    /// Hermite interpolants (as <see cref="PairIntegrals"/>), the inner integral by the 8-point rule on [0, y] and the outer on the
+    /// step, both exact for these polynomials (F has degree 7 in a step).
+    /// </summary>
+    internal double CumulativeSquare(double ea, in ElementEnds a, double eb, in ElementEnds b, double start)
+    {
+        var n = _beta.Length;
+        var ua = new double[n + 1];
+        var wa = new double[n + 1];
+        var ub = new double[n + 1];
+        var wb = new double[n + 1];
+        StepStates(ea, a, ua, wa);
+        StepStates(eb, b, ub, wb);
+        var rule = GaussLegendre.Eight;
+        double sum = 0, f = start;
+        for (var j = 0; j < n; j++)
+        {
+            var h = Mesh.StepWidth(j);
+            double Product(double tau) =>
+                Interpolate(j, tau, ua[j], wa[j], ua[j + 1], wa[j + 1]) * Interpolate(j, tau, ub[j], wb[j], ub[j + 1], wb[j + 1]);
+            for (var g = 0; g < rule.Order; g++)
+            {
+                var tau = 0.5 + 0.5 * rule.Nodes[g];
+                double inner = 0;
+                for (var r = 0; r < rule.Order; r++)
+                {
+                    inner += 0.5 * tau * h * rule.Weights[r] * Product(0.5 * tau * (1 + rule.Nodes[r]));
+                }
+                var value = f + inner;
+                sum += 0.5 * h * rule.Weights[g] * value * value;
+            }
+            for (var r = 0; r < rule.Order; r++)
+            {
+                f += 0.5 * h * rule.Weights[r] * Product(0.5 + 0.5 * rule.Nodes[r]);
+            }
+        }
+        return sum;
+    }
+
     /// <summary>ψ at τ ∈ [0, 1] of step <paramref name="j"/> from its end states (ψ, ψ′/m): the cubic Hermite interpolant.</summary>
     private double Interpolate(int j, double tau, double u0, double w0, double u1, double w1)
     {

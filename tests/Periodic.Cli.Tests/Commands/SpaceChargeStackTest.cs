@@ -1,6 +1,7 @@
 // SPDX-License-Identifier: MIT
 // Copyright (c) 2026 Periodic contributors
 
+using Periodic.Optics;
 using Periodic.Serialization;
 using Periodic.SpaceCharge;
 using Periodic.Stacks;
@@ -96,16 +97,44 @@ public sealed class SpaceChargeStackTest
         Assert.Contains("--periods", run.Stderr);
     }
 
+    [Fact]
+    public void Transitions_DopedStack_AreThoseOfTheSelfConsistentStack()
+    {
+        var run = ToolRunner.Invoke("transitions", Doped, "--json");
+        Assert.Equal(0, run.ExitCode);
+        var json = run.Json();
+        Assert.True(json.GetProperty("selfConsistent").GetProperty("converged").GetBoolean());
+        var expected = IntersubbandSpectrum.Compute(Library().Stack).Transitions[0];
+        var first = json.GetProperty("transitions")[0];
+        Assert.Equal(expected.EnergyElectronVolts, first.GetProperty("energy").GetDouble());
+        Assert.Equal(Math.Abs(expected.DipoleNanometres), first.GetProperty("dipole").GetDouble());
+    }
+
+    [Fact]
+    public void Absorption_DopedStack_Runs()
+    {
+        var run = ToolRunner.Invoke("absorption", Doped, "--json", "--density", "1e12");
+        Assert.Equal(0, run.ExitCode);
+        Assert.True(run.Json().GetProperty("selfConsistent").GetProperty("converged").GetBoolean());
+    }
+
     [Theory]
-    [InlineData("transitions")]
-    [InlineData("absorption")]
     [InlineData("current", "--fermi-level", "0.05")]
-    public void OpticsAndCurrent_DopedStack_ExitTwoPointingToTheRigidBands(string command, params string[] options)
+    [InlineData("ladder", "--field", "10")]
+    public void BiasedCommands_DopedStack_ExitTwoPointingToTheRigidBands(string command, params string[] options)
     {
         var run = ToolRunner.Invoke([command, Doped, "--json", .. options]);
         Assert.Equal(2, run.ExitCode);
         Assert.Contains("--no-space-charge", run.Stderr);
         Assert.Equal("", run.Stdout);
+    }
+
+    [Fact]
+    public void Transitions_DopedStackInterband_ExitsTwo()
+    {
+        var run = ToolRunner.Invoke("transitions", Doped, "--carrier", "interband");
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("--no-space-charge", run.Stderr);
     }
 
     [Fact]
