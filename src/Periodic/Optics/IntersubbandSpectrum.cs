@@ -24,7 +24,9 @@ namespace Periodic.Optics;
 /// states' values at the element ends from the Wronskian identities of the BenDaniel–Duke equation (exact for uniform layers
 /// and for layers under a field), with 20-point Gauss–Legendre quadrature of the closed-form states, exact to rounding, only
 /// where two energies nearly coincide or a layer is non-parabolic; plus the exponential tails in the leads in closed form.
-/// No wavefunction is sampled on a grid. Reference mass: f = 2m*ω|z|²/ħ with m* = <see cref="ReferenceMassElectronMasses"/>.</para>
+/// No wavefunction is sampled on a grid. A smooth segment (e.g. a self-consistent potential) has no closed form: its pairs
+/// are integrated over each Magnus step's cubic Hermite interpolant by the 8-point Gauss–Legendre rule (the scheme's own
+/// O(h⁴) model of the state); quasi-bound levels are not computed for such a stack. Reference mass: f = 2m*ω|z|²/ħ with m* = <see cref="ReferenceMassElectronMasses"/>.</para>
 /// </remarks>
 public sealed class IntersubbandSpectrum
 {
@@ -95,8 +97,8 @@ public sealed class IntersubbandSpectrum
 
     /// <summary>Computes the levels and every transition of <paramref name="stack"/> (flat, no bias).</summary>
     /// <exception cref="ArgumentNullException"><paramref name="stack"/> is null.</exception>
-    /// <exception cref="ArgumentException">The stack has no bound state to start from, or holds an element other than layers and
-    /// delta barriers.</exception>
+    /// <exception cref="ArgumentException">The stack has no bound state to start from, or holds smooth segments while
+    /// <see cref="IntersubbandOptions.IncludeQuasiBound"/> is set.</exception>
     /// <exception cref="ArgumentOutOfRangeException">An option is out of range.</exception>
     public static IntersubbandSpectrum Compute(LayerStack stack, IntersubbandOptions? options = null) => ComputeUnderBias(stack, default, options);
 
