@@ -15,6 +15,10 @@ public sealed class SpaceChargeStackTest
 
     private static SelfConsistentStack Library() => SpaceChargeSolver.Solve(StructureFile.Load(Doped).StackDoping!);
 
+    /// <summary>An energy <paramref name="above"/> eV above the rigid leads' band edge, as the tool's invariant text.</summary>
+    private static string AboveEdge(double above) =>
+        (StructureFile.Load(Doped).Stack!.LeftLead.Potential.ElectronVolts + above).ToString("R", System.Globalization.CultureInfo.InvariantCulture);
+
     [Fact]
     public void Levels_DopedStack_JsonCarriesTheLibrarySolutionAndItsLevels()
     {
@@ -61,18 +65,19 @@ public sealed class SpaceChargeStackTest
     [Fact]
     public void Transmission_DopedStack_IsThatOfTheSelfConsistentStack()
     {
-        var run = ToolRunner.Invoke("transmission", Doped, "--json", "--energies", "0.3,0.35");
+        var energy = AboveEdge(0.1);
+        var run = ToolRunner.Invoke("transmission", Doped, "--json", "--energies", AboveEdge(0.05) + "," + energy);
         Assert.Equal(0, run.ExitCode);
         var json = run.Json();
         Assert.True(json.GetProperty("selfConsistent").GetProperty("converged").GetBoolean());
-        var expected = StackTransmission.Create(Library().Stack).Evaluate(0.35).Transmission;
+        var expected = StackTransmission.Create(Library().Stack).Evaluate(double.Parse(energy, System.Globalization.CultureInfo.InvariantCulture)).Transmission;
         Assert.Equal(expected, json.GetProperty("points")[1].GetProperty("transmission").GetDouble());
     }
 
     [Fact]
     public void Resonances_DopedStack_Runs()
     {
-        var run = ToolRunner.Invoke("resonances", Doped, "--json", "--from", "0.26", "--to", "0.6");
+        var run = ToolRunner.Invoke("resonances", Doped, "--json", "--from", AboveEdge(0.01), "--to", AboveEdge(0.4));
         Assert.Equal(0, run.ExitCode);
         Assert.True(run.Json().GetProperty("selfConsistent").GetProperty("converged").GetBoolean());
     }
@@ -81,7 +86,7 @@ public sealed class SpaceChargeStackTest
     public void Transmission_DopedStackUnderBias_ExitsTwoNamingTheOptionAndWritesNothing()
     {
         var path = Path.Combine(Path.GetTempPath(), $"periodic-scs-{Guid.NewGuid():N}.json");
-        var run = ToolRunner.Invoke("transmission", Doped, "--json", "--energies", "0.3", "--bias", "0.05", "--out", path);
+        var run = ToolRunner.Invoke("transmission", Doped, "--json", "--energies", AboveEdge(0.1), "--bias", "0.05", "--out", path);
         Assert.Equal(2, run.ExitCode);
         Assert.Contains("--bias", run.Stderr);
         Assert.Contains("--no-space-charge", run.Stderr);
