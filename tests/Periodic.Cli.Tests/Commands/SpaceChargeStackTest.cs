@@ -65,8 +65,8 @@ public sealed class SpaceChargeStackTest
     [Fact]
     public void Transmission_DopedStack_IsThatOfTheSelfConsistentStack()
     {
-        var energy = AboveEdge(0.1);
-        var run = ToolRunner.Invoke("transmission", Doped, "--json", "--energies", AboveEdge(0.05) + "," + energy);
+        var energy = AboveEdge(0.35);
+        var run = ToolRunner.Invoke("transmission", Doped, "--json", "--energies", AboveEdge(0.3) + "," + energy);
         Assert.Equal(0, run.ExitCode);
         var json = run.Json();
         Assert.True(json.GetProperty("selfConsistent").GetProperty("converged").GetBoolean());
@@ -77,7 +77,7 @@ public sealed class SpaceChargeStackTest
     [Fact]
     public void Resonances_DopedStack_Runs()
     {
-        var run = ToolRunner.Invoke("resonances", Doped, "--json", "--from", AboveEdge(0.01), "--to", AboveEdge(0.4));
+        var run = ToolRunner.Invoke("resonances", Doped, "--json", "--from", AboveEdge(0.2), "--to", AboveEdge(0.6));
         Assert.Equal(0, run.ExitCode);
         Assert.True(run.Json().GetProperty("selfConsistent").GetProperty("converged").GetBoolean());
     }
