@@ -124,14 +124,12 @@ internal sealed class MagnusSegmentPropagator
         for (var j = 0; j < _beta.Length; j++)
         {
             StepMatrix(Mesh, j, energyElectronVolts, out var m11, out var m12, out var m21, out var m22, out _);
-            var (mLeft, mRight) = Mesh.EndMasses(j);
             var h = Mesh.StepWidth(j);
             double u1 = m11 * u + m12 * w, w1 = m21 * u + m22 * w;
             for (var g = 0; g < rule.Order; g++)
             {
                 var tau = 0.5 + 0.5 * rule.Nodes[g];
-                var basis = Hermite(tau);
-                var psi = basis.H00 * u + basis.H10 * h * (w * mLeft) + basis.H01 * u1 + basis.H11 * h * (w1 * mRight);
+                var psi = Interpolate(j, tau, u, w, u1, w1);
                 var weight = 0.5 * h * rule.Weights[g];
                 var square = psi * psi;
                 norm += weight * square;
@@ -317,14 +315,13 @@ internal sealed class MagnusSegmentPropagator
         for (var j = 0; j < n; j++)
         {
             var h = Mesh.StepWidth(j);
-            var (mLeftA, mRightA) = segmentA.Mesh.EndMasses(j);
             var (mLeft, mRight) = Mesh.EndMasses(j);
             for (var g = 0; g < rule.Order; g++)
             {
                 var tau = 0.5 + 0.5 * rule.Nodes[g];
                 var basis = Hermite(tau);
-                var psiA = basis.H00 * ua[j] + basis.H10 * h * (wa[j] * mLeftA) + basis.H01 * ua[j + 1] + basis.H11 * h * (wa[j + 1] * mRightA);
-                var psiB = basis.H00 * ub[j] + basis.H10 * h * (wb[j] * mLeft) + basis.H01 * ub[j + 1] + basis.H11 * h * (wb[j + 1] * mRight);
+                var psiA = segmentA.Interpolate(j, tau, ua[j], wa[j], ua[j + 1], wa[j + 1]);
+                var psiB = Interpolate(j, tau, ub[j], wb[j], ub[j + 1], wb[j + 1]);
                 var slopeB = (basis.D00 * ub[j] + basis.D01 * ub[j + 1]) / h + basis.D10 * (wb[j] * mLeft) + basis.D11 * (wb[j + 1] * mRight);
                 var weight = 0.5 * h * rule.Weights[g];
                 overlap += weight * psiA * psiB;
