@@ -125,11 +125,12 @@ internal sealed class MagnusSegmentPropagator
         {
             StepMatrix(Mesh, j, energyElectronVolts, out var m11, out var m12, out var m21, out var m22, out _);
             var h = Mesh.StepWidth(j);
+            var (mLeft, mRight) = Mesh.EndMasses(j);
             double u1 = m11 * u + m12 * w, w1 = m21 * u + m22 * w;
             for (var g = 0; g < rule.Order; g++)
             {
                 var tau = 0.5 + 0.5 * rule.Nodes[g];
-                var psi = Interpolate(j, tau, u, w, u1, w1);
+                var psi = Interpolate(h, mLeft, mRight, tau, u, w, u1, w1);
                 var weight = 0.5 * h * rule.Weights[g];
                 var square = psi * psi;
                 norm += weight * square;
@@ -373,11 +374,19 @@ internal sealed class MagnusSegmentPropagator
         return sum;
     }
 
-    /// <summary>ψ at τ ∈ [0, 1] of step <paramref name="j"/> from its end states (ψ, ψ′/m): the cubic Hermite interpolant.</summary>
+    /// <summary>
+    /// ψ at τ ∈ [0, 1] of a step of width <paramref name="h"/> with end masses <paramref name="mLeft"/>, <paramref name="mRight"/>
+    /// (<see cref="SegmentMesh.EndMasses"/>) from its end states (ψ, ψ′/m): the cubic Hermite interpolant.
+    /// </summary>
     private double Interpolate(int j, double tau, double u0, double w0, double u1, double w1)
     {
         var (mLeft, mRight) = Mesh.EndMasses(j);
-        var h = Mesh.StepWidth(j);
+        return Interpolate(Mesh.StepWidth(j), mLeft, mRight, tau, u0, w0, u1, w1);
+    }
+
+    /// <summary>The cubic Hermite interpolant of one step (as the overload above) with its width and end masses given.</summary>
+    private static double Interpolate(double h, double mLeft, double mRight, double tau, double u0, double w0, double u1, double w1)
+    {
         var basis = Hermite(tau);
         return basis.H00 * u0 + basis.H10 * h * (w0 * mLeft) + basis.H01 * u1 + basis.H11 * h * (w1 * mRight);
     }
