@@ -374,17 +374,17 @@ internal sealed class MagnusSegmentPropagator
         return sum;
     }
 
-    /// <summary>
-    /// ψ at τ ∈ [0, 1] of a step of width <paramref name="h"/> with end masses <paramref name="mLeft"/>, <paramref name="mRight"/>
-    /// (<see cref="SegmentMesh.EndMasses"/>) from its end states (ψ, ψ′/m): the cubic Hermite interpolant.
-    /// </summary>
+    /// <summary>ψ at τ ∈ [0, 1] of step <paramref name="j"/> from its end states (ψ, ψ′/m): the cubic Hermite interpolant.</summary>
     private double Interpolate(int j, double tau, double u0, double w0, double u1, double w1)
     {
         var (mLeft, mRight) = Mesh.EndMasses(j);
         return Interpolate(Mesh.StepWidth(j), mLeft, mRight, tau, u0, w0, u1, w1);
     }
 
-    /// <summary>The cubic Hermite interpolant of one step (as the overload above) with its width and end masses given.</summary>
+    /// <summary>
+    /// ψ at τ ∈ [0, 1] of a step of width <paramref name="h"/> with end masses <paramref name="mLeft"/>, <paramref name="mRight"/>
+    /// (<see cref="SegmentMesh.EndMasses"/>) from its end states (ψ, ψ′/m): the cubic Hermite interpolant.
+    /// </summary>
     private static double Interpolate(double h, double mLeft, double mRight, double tau, double u0, double w0, double u1, double w1)
     {
         var basis = Hermite(tau);
