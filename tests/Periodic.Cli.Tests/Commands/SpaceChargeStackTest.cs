@@ -124,7 +124,7 @@ public sealed class SpaceChargeStackTest
     }
 
     [Theory]
-    [InlineData("current", "--fermi-level", "0.05")]
+    [InlineData("current", "--fermi-level", "0.05", "--bias", "0.1")]
     [InlineData("ladder", "--field", "10")]
     public void BiasedCommands_DopedStack_ExitTwoPointingToTheRigidBands(string command, params string[] options)
     {
