@@ -169,7 +169,7 @@ internal static class Common
     /// <summary>
     /// For the finite-stack commands at zero bias (levels, resonances, transmission, transitions, absorption): a doped file is solved self-consistently
     /// unless --no-space-charge is given. A file whose stack holds dopants gets its stack solved between its leads
-    /// (<see cref="SpaceChargeSolver.Solve(DopedStack, SpaceChargeOptions?, IProgress{SpaceChargeProgress}?, CancellationToken)"/>);
+    /// (<see cref="SpaceChargeSolver.SolveStack(DopedStack, SpaceChargeOptions?, IProgress{SpaceChargeProgress}?, CancellationToken)"/>);
     /// a doped cell without such a stack gets the periodic solution, repeated in the stacks built from it. A non-zero
     /// <c>stack.bias</c> is refused: space charge under bias is not modelled.
     /// </summary>
@@ -195,7 +195,7 @@ internal static class Common
             }
         }
         return structure.StackDoping is { } stack
-            ? structure.WithSelfConsistentStack(SpaceChargeSolver.Solve(stack))
+            ? structure.WithSelfConsistentStack(SpaceChargeSolver.SolveStack(stack))
             : structure.WithSelfConsistentCell(SpaceChargeSolver.Solve(structure.Doping!));
     }
 

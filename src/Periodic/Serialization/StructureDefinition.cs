@@ -55,7 +55,7 @@ public sealed partial class StructureDefinition
     /// The doping of the file's finite stack (<see cref="Stack"/>): repeated cells carry the cell's doping, single layers their own
     /// (<c>donors</c>, <c>acceptors</c>, <c>sheetDonors</c>, <c>permittivity</c> in <c>stack.parts</c>), the leads are undoped; null
     /// when the file has no stack or its stack holds no dopants. Solve it with
-    /// <see cref="SpaceChargeSolver.Solve(DopedStack, SpaceChargeOptions?, IProgress{SpaceChargeProgress}?, CancellationToken)"/> and apply the
+    /// <see cref="SpaceChargeSolver.SolveStack(DopedStack, SpaceChargeOptions?, IProgress{SpaceChargeProgress}?, CancellationToken)"/> and apply the
     /// result with <see cref="WithSelfConsistentStack"/>.
     /// </summary>
     public DopedStack? StackDoping { get; internal init; }

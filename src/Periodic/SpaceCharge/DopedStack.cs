@@ -16,7 +16,7 @@ namespace Periodic.SpaceCharge;
 /// Validated at construction; immutable.
 /// </summary>
 /// <remarks>
-/// The self-consistent model (<see cref="SpaceChargeSolver.Solve(DopedStack, SpaceChargeOptions?, IProgress{SpaceChargeProgress}?, CancellationToken)"/>)
+/// The self-consistent model (<see cref="SpaceChargeSolver.SolveStack(DopedStack, SpaceChargeOptions?, IProgress{SpaceChargeProgress}?, CancellationToken)"/>)
 /// takes parabolic uniform layers and delta barriers; the carriers are electrons of the single band, so the stack must hold
 /// more donors than acceptors (holes are not modelled).
 /// </remarks>

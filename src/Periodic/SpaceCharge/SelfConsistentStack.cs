@@ -9,7 +9,7 @@ namespace Periodic.SpaceCharge;
 
 /// <summary>
 /// A converged self-consistent solution of a <see cref="DopedStack"/> at zero bias (from
-/// <see cref="SpaceChargeSolver.Solve(DopedStack, SpaceChargeOptions?, IProgress{SpaceChargeProgress}?, CancellationToken)"/>):
+/// <see cref="SpaceChargeSolver.SolveStack(DopedStack, SpaceChargeOptions?, IProgress{SpaceChargeProgress}?, CancellationToken)"/>):
 /// the stack with the Hartree potential added, as sampled smooth segments, ready for transmission, resonances and bound states;
 /// the Fermi level on the same energy scale; the Hartree potential and the electron density on the grid; and how far the
 /// iteration got. Immutable; a host keeps and reuses it.

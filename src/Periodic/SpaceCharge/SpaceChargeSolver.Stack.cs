@@ -44,7 +44,7 @@ public static partial class SpaceChargeSolver
     /// <exception cref="SpaceChargeException">The iteration did not reach the tolerance within the budget, diverged, or needs more
     /// than <see cref="MaxOccupiedStates"/> states.</exception>
     /// <exception cref="OperationCanceledException">Cancelled.</exception>
-    public static SelfConsistentStack Solve(DopedStack stack, SpaceChargeOptions? options = null, IProgress<SpaceChargeProgress>? progress = null,
+    public static SelfConsistentStack SolveStack(DopedStack stack, SpaceChargeOptions? options = null, IProgress<SpaceChargeProgress>? progress = null,
         CancellationToken cancellationToken = default)
     {
         ArgumentNullException.ThrowIfNull(stack);

@@ -12,7 +12,7 @@ namespace Periodic.SpaceCharge;
 
 /// <summary>
 /// Self-consistent (Schrödinger–Poisson, Hartree) bands of a doped superlattice, and of a finite doped stack between leads at
-/// zero bias (<see cref="Solve(DopedStack, SpaceChargeOptions?, IProgress{SpaceChargeProgress}?, CancellationToken)"/>): the electrons of the cell's minibands,
+/// zero bias (<see cref="SolveStack(DopedStack, SpaceChargeOptions?, IProgress{SpaceChargeProgress}?, CancellationToken)"/>): the electrons of the cell's minibands,
 /// in thermal equilibrium at one Fermi level, and the ionised dopants set the electrostatic potential, which in turn
 /// shapes the minibands.
 /// </summary>

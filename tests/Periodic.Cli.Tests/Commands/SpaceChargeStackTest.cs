@@ -13,7 +13,7 @@ public sealed class SpaceChargeStackTest
 {
     private static string Doped => ToolRunner.Example("modulation-doped-well.json");
 
-    private static SelfConsistentStack Library() => SpaceChargeSolver.Solve(StructureFile.Load(Doped).StackDoping!);
+    private static SelfConsistentStack Library() => SpaceChargeSolver.SolveStack(StructureFile.Load(Doped).StackDoping!);
 
     /// <summary>An energy <paramref name="above"/> eV above the rigid leads' band edge, as the tool's invariant text.</summary>
     private static string AboveEdge(double above) =>

@@ -34,7 +34,7 @@ public sealed partial class SpaceChargeSolverTest
     [Fact]
     public void SolveStack_ModulationDopedWell_NeutralConvergedAndGauss()
     {
-        var result = SpaceChargeSolver.Solve(ModulationDopedWell(), SpaceChargeOptions.Create(maxGridSpacingNanometres: 0.05, leadBufferNanometres: 10));
+        var result = SpaceChargeSolver.SolveStack(ModulationDopedWell(), SpaceChargeOptions.Create(maxGridSpacingNanometres: 0.05, leadBufferNanometres: 10));
         output.WriteLine(result.ToString());
         // Neutrality of the whole domain (stack and lead buffers) to 1e-10 relative, the required accuracy.
         Assert.True(result.NeutralityError <= 1e-10, $"neutrality error {result.NeutralityError}");
@@ -77,7 +77,7 @@ public sealed partial class SpaceChargeSolverTest
             Lead.Create(Energy.FromElectronVolts(0.3), EffectiveMass.FromElectronMasses(0.09)), L(6, 0, 0.067), L(3, 0.3, 0.09), L(6, 0, 0.067));
         var doped = DopedStack.Create(rigid, [[LayerDoping.Create(1e6, 0, 12.9)], [LayerDoping.Undoped(12.2)], [LayerDoping.Create(1e6, 0, 12.9)]],
             Temperature.FromKelvin(77), 12.2, 12.2);
-        var result = SpaceChargeSolver.Solve(doped);
+        var result = SpaceChargeSolver.SolveStack(doped);
         output.WriteLine(result.ToString());
         var exact = BoundStateSpectrum.Find(rigid);
         var self = BoundStateSpectrum.Find(result.Stack);
@@ -111,7 +111,7 @@ public sealed partial class SpaceChargeSolverTest
         for (var g = 0; g < grids.Length; g++)
         {
             var h = grids[g];
-            var result = SpaceChargeSolver.Solve(doped, SpaceChargeOptions.Create(maxGridSpacingNanometres: h, leadBufferNanometres: 10));
+            var result = SpaceChargeSolver.SolveStack(doped, SpaceChargeOptions.Create(maxGridSpacingNanometres: h, leadBufferNanometres: 10));
             library[g] = Observables(result);
             var fd = new FiniteDifferenceSchrodingerPoisson(layers, h, 77, phases: 1, bands: result.OccupiedStates + 5, closed: true);
             fd.Solve();
@@ -138,7 +138,7 @@ public sealed partial class SpaceChargeSolverTest
         var values = new List<(double Drop, double Fermi)>();
         foreach (var buffer in new[] { 5.0, 10, 20 })
         {
-            values.Add(Observables(SpaceChargeSolver.Solve(ModulationDopedWell(), SpaceChargeOptions.Create(leadBufferNanometres: buffer))));
+            values.Add(Observables(SpaceChargeSolver.SolveStack(ModulationDopedWell(), SpaceChargeOptions.Create(leadBufferNanometres: buffer))));
             output.WriteLine($"buffer {buffer} nm: drop {values[^1].Drop:R} eV, mu - E1 {values[^1].Fermi:R} eV");
         }
         Assert.Equal(values[2].Drop, values[1].Drop, 1e-8);
@@ -158,7 +158,7 @@ public sealed partial class SpaceChargeSolverTest
             - Interpolate(periodic.PositionsNanometres, periodic.HartreeElectronVolts, 14);
         const int periods = 9;
         var stack = DopedStack.Create(LayerStack.Periodic(BarrierLead, cell.Cell, periods, BarrierLead), [cell.Doping], cell.Temperature, 12.2, 12.2);
-        var result = SpaceChargeSolver.Solve(stack);
+        var result = SpaceChargeSolver.SolveStack(stack);
         var start = (periods / 2) * cell.Cell.Period.Nanometres;
         double drop = Interpolate(result.PositionsNanometres, result.HartreeElectronVolts, start + 8)
             - Interpolate(result.PositionsNanometres, result.HartreeElectronVolts, start + 14);
@@ -170,7 +170,7 @@ public sealed partial class SpaceChargeSolverTest
     [Fact]
     public void SolveStack_BudgetTooSmall_ThrowsSpaceChargeException()
     {
-        var error = Assert.Throws<SpaceChargeException>(() => SpaceChargeSolver.Solve(ModulationDopedWell(), SpaceChargeOptions.Create(maxIterations: 1)));
+        var error = Assert.Throws<SpaceChargeException>(() => SpaceChargeSolver.SolveStack(ModulationDopedWell(), SpaceChargeOptions.Create(maxIterations: 1)));
         Assert.Equal(1, error.Iterations);
         Assert.Contains("not reached", error.Message);
     }
@@ -180,14 +180,14 @@ public sealed partial class SpaceChargeSolverTest
     {
         using var source = new CancellationTokenSource();
         source.Cancel();
-        Assert.ThrowsAny<OperationCanceledException>(() => SpaceChargeSolver.Solve(ModulationDopedWell(), cancellationToken: source.Token));
+        Assert.ThrowsAny<OperationCanceledException>(() => SpaceChargeSolver.SolveStack(ModulationDopedWell(), cancellationToken: source.Token));
     }
 
     [Fact]
     public void SolveStack_ReportsProgressEveryIteration()
     {
         var reports = new List<SpaceChargeProgress>();
-        var result = SpaceChargeSolver.Solve(ModulationDopedWell(), progress: new SynchronousProgress(reports));
+        var result = SpaceChargeSolver.SolveStack(ModulationDopedWell(), progress: new SynchronousProgress(reports));
         Assert.Equal(result.Iterations, reports.Count);
         Assert.Equal(result.ResidualElectronVolts, reports[^1].ResidualElectronVolts);
     }
