@@ -22,7 +22,7 @@ internal static class TransitionsCommand
     private static readonly string[] Carriers = ["electron", "heavy-hole", "light-hole", "interband"];
 
     internal const string IntersubbandLimits =
-        "Single-band envelope-function model (BenDaniel-Duke), light polarised along the growth axis, flat bands or a uniform field from the bias (no space charge, no self-consistent potential); no excitons or many-body effects beyond the optional depolarisation shift; band offsets and masses are uncertain by 10 % or more: confirm design numbers by measurement.";
+        "Single-band envelope-function model (BenDaniel-Duke), light polarised along the growth axis, flat bands (a doped file: its self-consistent potential at zero bias) or a uniform field from the bias (no space charge under bias); no excitons or many-body effects beyond the optional depolarisation shift; band offsets and masses are uncertain by 10 % or more: confirm design numbers by measurement.";
 
     internal const string InterbandLimits =
         "Single-band model for each carrier (no heavy/light-hole mixing, no strain), envelope overlaps only (no Kane/Bloch factor). Excitons are not modelled: their binding, typically 5-10 meV in GaAs wells, lowers the real edge and emission line by that much.";
