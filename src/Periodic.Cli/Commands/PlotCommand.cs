@@ -584,7 +584,7 @@ internal static class PlotCommand
             // The Fermi level across the picture and n(z) on a right axis; the solution's positions start at the rigid stack,
             // the drawn stack at the outer end of the left lead buffer.
             var fermi = plot.Add.HorizontalLine(unit.From(sc.FermiLevelElectronVolts));
-            fermi.Color = Colors.DarkOrange;
+            fermi.Color = Colors.DarkGreen;
             fermi.LineWidth = 2;
             var nx = sc.PositionsNanometres.Select(p => p + sc.BufferNanometres).ToArray();
             var ny = sc.ElectronDensityPerCubicCentimetre.ToArray();
@@ -596,8 +596,9 @@ internal static class PlotCommand
             density.Axes.YAxis = plot.Axes.Right;
             plot.Axes.Right.Label.Text = string.Create(CultureInfo.InvariantCulture, $"Electron density n(z) (1e{exponent} cm^-3)");
             plot.Axes.Right.Range.Set(0, 1.1 * Math.Max(ny.Max(), 1e-300) / scale);
-            notes.Add(string.Create(CultureInfo.InvariantCulture,
-                $"self-consistent stack (Hartree, {sc.TemperatureKelvin:G4} K, {sc.BufferNanometres:G4} nm of each lead included); solid orange: Fermi level {unit.From(sc.FermiLevelElectronVolts):G5} {unit.Symbol}; blue: n(z), right axis"));
+            plot.Add.Text(string.Create(CultureInfo.InvariantCulture,
+                $"self-consistent stack (Hartree, {sc.TemperatureKelvin:G4} K, {sc.BufferNanometres:G4} nm of each lead included); green: Fermi level {unit.From(sc.FermiLevelElectronVolts):G5} {unit.Symbol}; blue: n(z), right axis"),
+                -0.95 * margin, unit.From(vMin - 0.02 * range)).LabelFontSize = 11;
         }
         if (unit.Note is { } unitNote)
         {
