@@ -211,9 +211,13 @@ internal static class Common
         ? structure
         : throw new UsageException($"{command} does not take the self-consistent potential of a doped structure: it works under bias, and space charge under bias is not modelled (the self-consistent potential is that of zero bias); add --no-space-charge for the rigid bands.");
 
-    /// <summary>The <c>selfConsistent</c> object: how the space-charge iteration ended, μ, the Hartree potential and n(z) on the grid.</summary>
-    public static void SelfConsistentObject(Utf8JsonWriter writer, SelfConsistentCell solution)
+    /// <summary>
+    /// The <c>selfConsistent</c> object: how the space-charge iteration ended, μ, the Hartree potential and n(z) on the grid; for
+    /// a cell its occupied minibands, for a finite stack its occupied states and lead buffers.
+    /// </summary>
+    public static void SelfConsistentObject(Utf8JsonWriter writer, SelfConsistentSolution solution)
     {
+        var stack = solution as SelfConsistentStack;
         writer.WriteStartObject("selfConsistent");
         writer.WriteBoolean("converged", true); // an unconverged iteration throws (exit 1) and writes nothing
         writer.WriteNumber("iterations", solution.Iterations);
@@ -222,35 +226,28 @@ internal static class Common
         writer.WriteNumber("residual", solution.ResidualElectronVolts);
         writer.WriteNumber("tolerance", solution.Options.ToleranceElectronVolts);
         writer.WriteNumber("temperature", solution.TemperatureKelvin);
-        writer.WriteNumber("occupiedBands", solution.OccupiedBands);
+        if (stack is not null)
+        {
+            writer.WriteNumber("occupiedStates", stack.OccupiedStates);
+        }
+        else if (solution is SelfConsistentCell cell)
+        {
+            writer.WriteNumber("occupiedBands", cell.OccupiedBands);
+        }
         writer.WriteNumber("gridSpacing", solution.Options.MaxGridSpacingNanometres);
-        writer.WriteString("model", "Hartree (Schrödinger–Poisson) electrons of the cell's minibands, fully ionised dopants, periodic boundary conditions; no holes, exchange-correlation or bias");
+        if (stack is not null)
+        {
+            writer.WriteNumber("leadBuffer", stack.BufferNanometres);
+        }
+        writer.WriteString("model", stack is not null
+            ? "Hartree (Schrödinger–Poisson) electrons of the finite stack between undoped leads at zero bias: states of the closed domain (stack and lead buffers, hard walls at their outer ends), no field through the ends, neutral domain; no holes, exchange-correlation or bias"
+            : "Hartree (Schrödinger–Poisson) electrons of the cell's minibands, fully ionised dopants, periodic boundary conditions; no holes, exchange-correlation or bias");
         Samples(writer, "hartree", solution.PositionsNanometres, solution.HartreeElectronVolts);
         Samples(writer, "electronDensity", solution.PositionsNanometres, solution.ElectronDensityPerCubicCentimetre);
-        Units(writer, ("fermiLevel", "eV"), ("residual", "eV"), ("tolerance", "eV"), ("temperature", "K"), ("gridSpacing", "nm"),
-            ("positions", "nm"), ("hartree", "eV"), ("electronDensity", "cm^-3"));
-        writer.WriteEndObject();
-    }
-
-    /// <summary>The <c>selfConsistent</c> object of a finite stack: how the iteration ended, μ, the Hartree potential and n(z) on the grid.</summary>
-    public static void SelfConsistentObject(Utf8JsonWriter writer, SelfConsistentStack solution)
-    {
-        writer.WriteStartObject("selfConsistent");
-        writer.WriteBoolean("converged", true); // an unconverged iteration throws (exit 1) and writes nothing
-        writer.WriteNumber("iterations", solution.Iterations);
-        writer.WriteNumber("fermiLevel", solution.FermiLevelElectronVolts);
-        writer.WriteNumber("neutralityError", solution.NeutralityError);
-        writer.WriteNumber("residual", solution.ResidualElectronVolts);
-        writer.WriteNumber("tolerance", solution.Options.ToleranceElectronVolts);
-        writer.WriteNumber("temperature", solution.TemperatureKelvin);
-        writer.WriteNumber("occupiedStates", solution.OccupiedStates);
-        writer.WriteNumber("gridSpacing", solution.Options.MaxGridSpacingNanometres);
-        writer.WriteNumber("leadBuffer", solution.BufferNanometres);
-        writer.WriteString("model", "Hartree (Schrödinger–Poisson) electrons of the finite stack between undoped leads at zero bias: states of the closed domain (stack and lead buffers, hard walls at their outer ends), no field through the ends, neutral domain; no holes, exchange-correlation or bias");
-        Samples(writer, "hartree", solution.PositionsNanometres, solution.HartreeElectronVolts);
-        Samples(writer, "electronDensity", solution.PositionsNanometres, solution.ElectronDensityPerCubicCentimetre);
-        Units(writer, ("fermiLevel", "eV"), ("residual", "eV"), ("tolerance", "eV"), ("temperature", "K"), ("gridSpacing", "nm"), ("leadBuffer", "nm"),
-            ("positions", "nm from the rigid stack's left interface"), ("hartree", "eV"), ("electronDensity", "cm^-3"));
+        var units = new List<(string Name, string Unit)> { ("fermiLevel", "eV"), ("residual", "eV"), ("tolerance", "eV"), ("temperature", "K"), ("gridSpacing", "nm") };
+        units.AddRange(stack is not null ? [("leadBuffer", "nm"), ("positions", "nm from the rigid stack's left interface")] : [("positions", "nm")]);
+        units.AddRange([("hartree", "eV"), ("electronDensity", "cm^-3")]);
+        Units(writer, [.. units]);
         writer.WriteEndObject();
     }
 
@@ -443,11 +440,7 @@ internal static class Common
             writer.WriteEndArray();
         }
         writer.WriteEndObject();
-        if (structure.SelfConsistentStack is { } stackSolution)
-        {
-            SelfConsistentObject(writer, stackSolution);
-        }
-        else if (structure.SelfConsistent is { } solution)
+        if (((SelfConsistentSolution?)structure.SelfConsistentStack ?? structure.SelfConsistent) is { } solution)
         {
             SelfConsistentObject(writer, solution);
         }

@@ -1,7 +1,6 @@
 // SPDX-License-Identifier: MIT
 // Copyright (c) 2026 Periodic contributors
 
-using System.Collections.ObjectModel;
 using System.Globalization;
 using Periodic.Stacks;
 
@@ -17,24 +16,18 @@ namespace Periodic.SpaceCharge;
 /// <remarks>
 /// <see cref="Stack"/> begins with a buffer of left-lead material <see cref="BufferNanometres"/> wide and ends with one of the
 /// right lead's (where the leads' bands bend), so its positions run from 0 at the outer end of the left buffer; its leads are
-/// flat at the potential the buffers reach at their outer ends (zero field there). <see cref="PositionsNanometres"/> are measured
+/// flat at the potential the buffers reach at their outer ends (zero field there). <see cref="SelfConsistentSolution.PositionsNanometres"/> are measured
 /// from the rigid stack's left interface, so the buffers lie at negative positions and beyond the stack's thickness.
 /// </remarks>
-public sealed class SelfConsistentStack
+public sealed class SelfConsistentStack : SelfConsistentSolution
 {
     internal SelfConsistentStack(DopedStack input, LayerStack stack, SpaceChargeOptions options, double[] positions, double[] hartree, double[] density,
         double fermiLevel, double neutralityError, int iterations, double residual, int states, double buffer)
+        : base(options, [.. positions.Select(x => x - buffer)], [.. hartree], [.. density.Select(n => n * 1e21)], fermiLevel, neutralityError, iterations, residual,
+            input.Temperature.Kelvin)
     {
         Input = input;
         Stack = stack;
-        Options = options;
-        PositionsNanometres = new ReadOnlyCollection<double>([.. positions.Select(x => x - buffer)]);
-        HartreeElectronVolts = new ReadOnlyCollection<double>([.. hartree]);
-        ElectronDensityPerCubicCentimetre = new ReadOnlyCollection<double>([.. density.Select(n => n * 1e21)]);
-        FermiLevelElectronVolts = fermiLevel;
-        NeutralityError = neutralityError;
-        Iterations = iterations;
-        ResidualElectronVolts = residual;
         OccupiedStates = states;
         BufferNanometres = buffer;
     }
@@ -45,38 +38,11 @@ public sealed class SelfConsistentStack
     /// <summary>The self-consistent stack: lead buffers and every layer as <see cref="Structures.SampledSegment"/>s of band edge plus Hartree energy, delta barriers as given, between flat leads.</summary>
     public LayerStack Stack { get; }
 
-    /// <summary>The options used.</summary>
-    public SpaceChargeOptions Options { get; }
-
     /// <summary>The width of lead material kept inside the computed domain on each side, nm (<see cref="SpaceChargeOptions.LeadBufferNanometres"/>).</summary>
     public double BufferNanometres { get; }
 
-    /// <summary>The grid positions, nm from the rigid stack's left interface (from −buffer to thickness + buffer).</summary>
-    public IReadOnlyList<double> PositionsNanometres { get; }
-
-    /// <summary>The Hartree potential energy U = −eφ of an electron at each position, eV; zero at the outer end of the left buffer.</summary>
-    public IReadOnlyList<double> HartreeElectronVolts { get; }
-
-    /// <summary>The electron density at each position, cm⁻³.</summary>
-    public IReadOnlyList<double> ElectronDensityPerCubicCentimetre { get; }
-
-    /// <summary>The Fermi level μ that neutralises the domain, eV, on the energy scale of <see cref="Stack"/>.</summary>
-    public double FermiLevelElectronVolts { get; }
-
-    /// <summary>|∫n dz − ∫(N_D⁺ − N_A)dz − sheets| / (donors) over the whole domain (stack and buffers), on the grid.</summary>
-    public double NeutralityError { get; }
-
-    /// <summary>Outer iterations used.</summary>
-    public int Iterations { get; }
-
-    /// <summary>The largest change of the Hartree potential in the last iteration, eV (at most the tolerance).</summary>
-    public double ResidualElectronVolts { get; }
-
     /// <summary>States of the closed domain in the carrier sum (every state below μ + 40 k_BT).</summary>
     public int OccupiedStates { get; }
-
-    /// <summary>The temperature, K.</summary>
-    public double TemperatureKelvin => Input.Temperature.Kelvin;
 
     /// <inheritdoc />
     public override string ToString() => string.Create(CultureInfo.InvariantCulture,
