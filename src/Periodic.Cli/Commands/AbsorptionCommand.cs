@@ -103,7 +103,7 @@ internal static class AbsorptionCommand
             {
                 throw new UsageException("photon energies must be positive (eV).");
             }
-            var structure = Common.RequireRigid(Common.Load(result, result.GetValue(file)!), "absorption");
+            var structure = Common.LoadStack(result, result.GetValue(file)!, "absorption", result.GetValue(stackOptions.Bias), usesBias: true);
             var stack = stackOptions.Build(result, structure);
             var spectrum = TransitionsCommand.Compute(stack, TransitionsCommand.ChooseBias(result, stackOptions, structure),
                 result.GetValue(continuum) ? new IntersubbandOptions { IncludeQuasiBound = true } : null);

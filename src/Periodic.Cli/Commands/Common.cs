@@ -106,7 +106,7 @@ internal static class Common
         {
             return structure;
         }
-        if (structure.SelfConsistent is not null && k != 0)
+        if ((structure.SelfConsistent is not null || structure.SelfConsistentStack is not null) && k != 0)
         {
             throw new UsageException("--in-plane-wavevector cannot be combined with the self-consistent potential of a doped structure (its sampled potential has no in-plane form here); add --no-space-charge for the rigid bands.");
         }
@@ -167,16 +167,57 @@ internal static class Common
     }
 
     /// <summary>
-    /// Refuses the self-consistent cell of a doped structure for <paramref name="command"/>, whose finite-stack bound states or
-    /// biased stacks take uniform layers and delta barriers only (the self-consistent cell's layers are sampled segments).
+    /// For the finite-stack commands at zero bias (levels, resonances, transmission, transitions, absorption): a doped file is solved self-consistently
+    /// unless --no-space-charge is given. A file whose stack holds dopants gets its stack solved between its leads
+    /// (<see cref="SpaceChargeSolver.SolveStack(DopedStack, SpaceChargeOptions?, IProgress{SpaceChargeProgress}?, CancellationToken)"/>);
+    /// a doped cell without such a stack gets the periodic solution, repeated in the stacks built from it. A non-zero
+    /// <c>stack.bias</c> is refused: space charge under bias is not modelled.
     /// </summary>
-    public static StructureDefinition RequireRigid(StructureDefinition structure, string command) => structure.SelfConsistent is null
-        ? structure
-        : throw new UsageException($"{command} does not take the self-consistent (sampled) potential of a doped structure: its finite-stack bound states or biased stacks need uniform layers; add --no-space-charge for the rigid bands.");
-
-    /// <summary>The <c>selfConsistent</c> object: how the space-charge iteration ended, μ, the Hartree potential and n(z) on the grid.</summary>
-    public static void SelfConsistentObject(Utf8JsonWriter writer, SelfConsistentCell solution)
+    /// <param name="result">The parsed command line.</param>
+    /// <param name="path">The structure file.</param>
+    /// <param name="command">The command, for messages.</param>
+    /// <param name="biasOption">The command's --bias, if it has one and it was given (it overrides the file's stack.bias).</param>
+    /// <param name="usesBias">False for a command that computes at zero bias whatever the file says (levels).</param>
+    public static StructureDefinition LoadStack(ParseResult result, string path, string command, double? biasOption, bool usesBias)
     {
+        var structure = Load(path);
+        if (result.GetValue(NoSpaceCharge) || (structure.Doping is null && structure.StackDoping is null))
+        {
+            return structure;
+        }
+        if (usesBias)
+        {
+            var (bias, source) = biasOption is { } u ? (u, "--bias") : (structure.StackBias.ElectronVolts, $"stack.bias of {Printable(structure.SourceName)}");
+            if (bias != 0)
+            {
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                    $"{command}: {source} is {bias:R} eV, but the space charge of a doped structure is solved at zero bias only (bias with space charge is not modelled); give a bias of 0 eV, or add --no-space-charge for the rigid bands under bias."));
+            }
+        }
+        return structure.StackDoping is { } stack
+            ? structure.WithSelfConsistentStack(SpaceChargeSolver.SolveStack(stack))
+            : structure.WithSelfConsistentCell(SpaceChargeSolver.Solve(structure.Doping!));
+    }
+
+    /// <summary>True when the structure's doping (of its cell or of its stack) asks for a self-consistent potential, i.e. without --no-space-charge.</summary>
+    private static bool IsSelfConsistent(ParseResult result, StructureDefinition structure) =>
+        !result.GetValue(NoSpaceCharge) && (structure.Doping is not null || structure.StackDoping is not null || structure.SelfConsistent is not null || structure.SelfConsistentStack is not null);
+
+    /// <summary>
+    /// Refuses the self-consistent potential of a doped structure for <paramref name="command"/>, which works under bias
+    /// (current, ladder) or needs what a sampled potential does not offer: space charge under bias is not modelled.
+    /// </summary>
+    public static StructureDefinition RequireRigid(ParseResult result, StructureDefinition structure, string command) => !IsSelfConsistent(result, structure)
+        ? structure
+        : throw new UsageException($"{command} does not take the self-consistent potential of a doped structure: it works under bias, and space charge under bias is not modelled (the self-consistent potential is that of zero bias); add --no-space-charge for the rigid bands.");
+
+    /// <summary>
+    /// The <c>selfConsistent</c> object: how the space-charge iteration ended, μ, the Hartree potential and n(z) on the grid; for
+    /// a cell its occupied minibands, for a finite stack its occupied states and lead buffers.
+    /// </summary>
+    public static void SelfConsistentObject(Utf8JsonWriter writer, SelfConsistentSolution solution)
+    {
+        var stack = solution as SelfConsistentStack;
         writer.WriteStartObject("selfConsistent");
         writer.WriteBoolean("converged", true); // an unconverged iteration throws (exit 1) and writes nothing
         writer.WriteNumber("iterations", solution.Iterations);
@@ -185,13 +226,28 @@ internal static class Common
         writer.WriteNumber("residual", solution.ResidualElectronVolts);
         writer.WriteNumber("tolerance", solution.Options.ToleranceElectronVolts);
         writer.WriteNumber("temperature", solution.TemperatureKelvin);
-        writer.WriteNumber("occupiedBands", solution.OccupiedBands);
+        if (stack is not null)
+        {
+            writer.WriteNumber("occupiedStates", stack.OccupiedStates);
+        }
+        else if (solution is SelfConsistentCell cell)
+        {
+            writer.WriteNumber("occupiedBands", cell.OccupiedBands);
+        }
         writer.WriteNumber("gridSpacing", solution.Options.MaxGridSpacingNanometres);
-        writer.WriteString("model", "Hartree (Schrödinger–Poisson) electrons of the cell's minibands, fully ionised dopants, periodic boundary conditions; no holes, exchange-correlation or bias");
+        if (stack is not null)
+        {
+            writer.WriteNumber("leadBuffer", stack.BufferNanometres);
+        }
+        writer.WriteString("model", stack is not null
+            ? "Hartree (Schrödinger–Poisson) electrons of the finite stack between undoped leads at zero bias: states of the closed domain (stack and lead buffers, hard walls at their outer ends), no field through the ends, neutral domain; no holes, exchange-correlation or bias"
+            : "Hartree (Schrödinger–Poisson) electrons of the cell's minibands, fully ionised dopants, periodic boundary conditions; no holes, exchange-correlation or bias");
         Samples(writer, "hartree", solution.PositionsNanometres, solution.HartreeElectronVolts);
         Samples(writer, "electronDensity", solution.PositionsNanometres, solution.ElectronDensityPerCubicCentimetre);
-        Units(writer, ("fermiLevel", "eV"), ("residual", "eV"), ("tolerance", "eV"), ("temperature", "K"), ("gridSpacing", "nm"),
-            ("positions", "nm"), ("hartree", "eV"), ("electronDensity", "cm^-3"));
+        var units = new List<(string Name, string Unit)> { ("fermiLevel", "eV"), ("residual", "eV"), ("tolerance", "eV"), ("temperature", "K"), ("gridSpacing", "nm") };
+        units.AddRange(stack is not null ? [("leadBuffer", "nm"), ("positions", "nm from the rigid stack's left interface")] : [("positions", "nm")]);
+        units.AddRange([("hartree", "eV"), ("electronDensity", "cm^-3")]);
+        Units(writer, [.. units]);
         writer.WriteEndObject();
     }
 
@@ -214,7 +270,10 @@ internal static class Common
     }
 
     /// <summary>One line under a text table's title for a self-consistent structure; empty otherwise.</summary>
-    public static string SelfConsistentLine(StructureDefinition structure) => structure.SelfConsistent is { } sc
+    public static string SelfConsistentLine(StructureDefinition structure) => structure.SelfConsistentStack is { } stack
+        ? string.Create(CultureInfo.InvariantCulture,
+            $"Self-consistent (Schrödinger–Poisson) stack at zero bias, {stack.TemperatureKelvin:G6} K: Fermi level {stack.FermiLevelElectronVolts:F6} eV, {Plural(stack.Iterations, "iteration")}, residual {stack.ResidualElectronVolts:G2} eV, neutrality error {stack.NeutralityError:G2}, Hartree potential from {stack.HartreeElectronVolts.Min() * 1e3:F3} to {stack.HartreeElectronVolts.Max() * 1e3:F3} meV; the stack includes {stack.BufferNanometres:G4} nm of each lead (--no-space-charge: rigid stack)\n")
+        : structure.SelfConsistent is { } sc
         ? string.Create(CultureInfo.InvariantCulture,
             $"Self-consistent (Schrödinger–Poisson) potential at {sc.TemperatureKelvin:G6} K: Fermi level {sc.FermiLevelElectronVolts:F6} eV, {Plural(sc.Iterations, "iteration")}, residual {sc.ResidualElectronVolts:G2} eV, neutrality error {sc.NeutralityError:G2}, Hartree potential from {sc.HartreeElectronVolts.Min() * 1e3:F3} to {sc.HartreeElectronVolts.Max() * 1e3:F3} meV (--no-space-charge: rigid bands)\n")
         : structure.Doping is not null ? "Doped structure computed with its rigid bands (--no-space-charge).\n" : "";
@@ -381,7 +440,7 @@ internal static class Common
             writer.WriteEndArray();
         }
         writer.WriteEndObject();
-        if (structure.SelfConsistent is { } solution)
+        if (((SelfConsistentSolution?)structure.SelfConsistentStack ?? structure.SelfConsistent) is { } solution)
         {
             SelfConsistentObject(writer, solution);
         }

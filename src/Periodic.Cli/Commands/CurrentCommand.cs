@@ -73,7 +73,7 @@ internal static class CurrentCommand
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture,
                     $"--temperature must be between {MinTemperatureKelvin} K and {MaxTemperatureKelvin} K; got {given:R}."));
             }
-            var structure = Common.RequireRigid(Common.Load(result, result.GetValue(file)!), "current");
+            var structure = Common.RequireRigid(result, Common.Load(result.GetValue(file)!), "current");
             var kelvin = t ?? structure.Materials?.Temperature.Kelvin
                 ?? throw new UsageException("give --temperature K (the structure file has no material temperature to take it from).");
             if (!(kelvin >= MinTemperatureKelvin && kelvin <= MaxTemperatureKelvin))

@@ -193,7 +193,7 @@ internal static class FieldCommands
             var n = Common.CheckCount(result.GetValue(band), "--band", 100);
             var f = result.GetValue(field);
             var p = Limits.CheckRange("--periods", result.GetValue(periods), WannierStarkLadder.MinPeriods, MaxLadderPeriods);
-            var structure = Common.RequireRigid(Common.Load(result, result.GetValue(file)!), "ladder");
+            var structure = Common.RequireRigid(result, Common.Load(result.GetValue(file)!), "ladder");
             Common.Emit(RenderLadder(structure, FindLadder(structure, n, p, f), format), result.GetValue(output));
             return 0;
         });

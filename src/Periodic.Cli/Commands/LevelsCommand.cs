@@ -51,7 +51,7 @@ internal static class LevelsCommand
             {
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--margin must be between 0 and 1e6 nm; got {given:R}."));
             }
-            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.RequireRigid(Common.Load(result, result.GetValue(file)!), "levels"));
+            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.LoadStack(result, result.GetValue(file)!, "levels", null, usesBias: false));
             var (stack, source) = stackOptions.Build(result, structure);
             var spectrum = Find(stack);
             var energies = spectrum.Levels.Select(l => l.EnergyElectronVolts).ToArray();

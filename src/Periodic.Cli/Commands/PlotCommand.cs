@@ -124,7 +124,10 @@ internal static class PlotCommand
             {
                 throw new UsageException("--show iv needs --fermi-level E (eV, the left contact's Fermi level).");
             }
-            var loaded = Common.Load(result, result.GetValue(file)!);
+            // The stack picture of a doped file shows its stack's own space charge (zero bias); the other pictures the cell's.
+            var loaded = kind == "stack"
+                ? Common.LoadStack(result, result.GetValue(file)!, "plot --show stack", u, usesBias: true)
+                : Common.Load(result, result.GetValue(file)!);
             var latticeUnit = Common.LatticeUnit(result, unitOption, loaded);
             var atInPlane = Common.AtInPlaneWavevector(result, inPlane, loaded); // validates --in-plane-wavevector
             var structure = kind == "in-plane" ? loaded : atInPlane; // there it is the end of the k∥ axis
@@ -140,13 +143,13 @@ internal static class PlotCommand
             {
                 "in-plane" => InPlaneEdges(structure, n, result.GetValue(inPlane) ?? 1.0),
                 "drift" => Drift(structure, FieldCommands.SetUpDrift(structure, bandIndex, scatteringPs, driftKelvin, result.GetValue(maxField))),
-                "ladder" => Ladder(structure, FieldCommands.FindLadder(Common.RequireRigid(structure, "plot --show ladder"), bandIndex, p ?? 30, result.GetValue(field))),
+                "ladder" => Ladder(structure, FieldCommands.FindLadder(Common.RequireRigid(result, structure, "plot --show ladder"), bandIndex, p ?? 30, result.GetValue(field))),
                 "dispersion" => structure.OpticalLattice is { } lattice
                     ? LatticeOutput.DispersionPlot(structure, lattice, n, DisplayUnits.Lattice(lattice, latticeUnit)) : Dispersion(structure, n),
                 "dos" => Dos(structure, n, energies, latticeUnit),
                 "profile" => Profile(structure, n, p ?? 3, latticeUnit),
                 "stack" => Stack(structure, stackPeriods, TransmissionCommand.ChooseBias(u, structure), latticeUnit),
-                "iv" => CurrentVoltage(Common.RequireRigid(structure, "plot --show iv"), stackPeriods, IvBias(u, structure), mu!.Value,
+                "iv" => CurrentVoltage(Common.RequireRigid(result, structure, "plot --show iv"), stackPeriods, IvBias(u, structure), mu!.Value,
                     t ?? structure.Materials?.Temperature.Kelvin ?? throw new UsageException("give --temperature K (the structure file has no material temperature).")),
                 _ => Transmission(structure, n, stackPeriods, energies, TransmissionCommand.ChooseBias(u, structure), latticeUnit),
             };
@@ -576,6 +579,27 @@ internal static class PlotCommand
             line.LinePattern = LinePattern.Dashed;
         }
         notes.Add(string.Create(CultureInfo.InvariantCulture, $"{Common.Plural(peaks.Count, "transmission peak")} dashed"));
+        if (structure.SelfConsistentStack is { } sc)
+        {
+            // The Fermi level across the picture and n(z) on a right axis; the solution's positions start at the rigid stack,
+            // the drawn stack at the outer end of the left lead buffer.
+            var fermi = plot.Add.HorizontalLine(unit.From(sc.FermiLevelElectronVolts));
+            fermi.Color = Colors.DarkGreen;
+            fermi.LineWidth = 2;
+            var nx = sc.PositionsNanometres.Select(p => p + sc.BufferNanometres).ToArray();
+            var ny = sc.ElectronDensityPerCubicCentimetre.ToArray();
+            var exponent = (int)Math.Floor(Math.Log10(Math.Max(ny.Max(), 1)));
+            var scale = Math.Pow(10, exponent);
+            var density = plot.Add.ScatterLine(nx, ny.Select(n => n / scale).ToArray());
+            density.Color = Colors.SteelBlue;
+            density.LineWidth = 1.5f;
+            density.Axes.YAxis = plot.Axes.Right;
+            plot.Axes.Right.Label.Text = string.Create(CultureInfo.InvariantCulture, $"Electron density n(z) (1e{exponent} cm^-3)");
+            plot.Axes.Right.Range.Set(0, 1.1 * Math.Max(ny.Max(), 1e-300) / scale);
+            plot.Add.Text(string.Create(CultureInfo.InvariantCulture,
+                $"self-consistent stack (Hartree, {sc.TemperatureKelvin:G4} K, {sc.BufferNanometres:G4} nm of each lead included); green: Fermi level {unit.From(sc.FermiLevelElectronVolts):G5} {unit.Symbol}; blue: n(z), right axis"),
+                -0.95 * margin, unit.From(vMin - 0.02 * range)).LabelFontSize = 11;
+        }
         if (unit.Note is { } unitNote)
         {
             notes.Add(unitNote);

@@ -43,7 +43,7 @@ internal static class ResonancesCommand
             {
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--to must lie above --from; got --from {low:R} and --to {high:R} eV."));
             }
-            var structure = Common.Load(result, result.GetValue(file)!);
+            var structure = Common.LoadStack(result, result.GetValue(file)!, "resonances", result.GetValue(bias), usesBias: true);
             var (stack, source) = stackOptions.Build(result, structure);
             var u = TransmissionCommand.ChooseBias(result.GetValue(bias), structure);
             var transmission = TransmissionCommand.Compile(stack, u.ElectronVolts, u.Source);

@@ -22,7 +22,7 @@ internal static class TransitionsCommand
     private static readonly string[] Carriers = ["electron", "heavy-hole", "light-hole", "interband"];
 
     internal const string IntersubbandLimits =
-        "Single-band envelope-function model (BenDaniel-Duke), light polarised along the growth axis, flat bands or a uniform field from the bias (no space charge, no self-consistent potential); no excitons or many-body effects beyond the optional depolarisation shift; band offsets and masses are uncertain by 10 % or more: confirm design numbers by measurement.";
+        "Single-band envelope-function model (BenDaniel-Duke), light polarised along the growth axis, flat bands (a doped file: its self-consistent potential at zero bias) or a uniform field from the bias (no space charge under bias); no excitons or many-body effects beyond the optional depolarisation shift; band offsets and masses are uncertain by 10 % or more: confirm design numbers by measurement.";
 
     internal const string InterbandLimits =
         "Single-band model for each carrier (no heavy/light-hole mixing, no strain), envelope overlaps only (no Kane/Bloch factor). Excitons are not modelled: their binding, typically 5-10 meV in GaAs wells, lowers the real edge and emission line by that much.";
@@ -58,6 +58,17 @@ internal static class TransitionsCommand
         {
             var carrier = result.GetValue(Carrier)!;
             var periods = result.GetValue(Periods);
+            if (structure.SelfConsistentStack is not null)
+            {
+                // The doped stack's own self-consistent potential: its stack and leads, its electrons.
+                var option = periods is not null ? "--periods" : result.GetValue(LeadPotential) is not null ? "--lead-potential"
+                    : result.GetValue(LeadMass) is not null ? "--lead-mass" : carrier != "electron" ? "--carrier " + carrier : null;
+                if (option is not null)
+                {
+                    throw new UsageException($"{option} cannot be combined with the self-consistent stack of a doped file: the space charge is solved for the file's own stack, leads and electrons; drop {option}, or add --no-space-charge for the rigid bands.");
+                }
+                return structure.Stack!;
+            }
             if (periods is { } p)
             {
                 Common.CheckCount(p, "--periods", 100_000);
@@ -129,10 +140,14 @@ internal static class TransitionsCommand
             {
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--margin must lie in (0, 10000] nm; got {dm:R}."));
             }
-            var structure = Common.RequireRigid(Common.Load(result, result.GetValue(file)!), "transitions");
+            var structure = Common.LoadStack(result, result.GetValue(file)!, "transitions", result.GetValue(stackOptions.Bias), usesBias: true);
             string text;
             if (result.GetValue(stackOptions.Carrier) == "interband")
             {
+                if (structure.SelfConsistent is not null || structure.SelfConsistentStack is not null)
+                {
+                    throw new UsageException("--carrier interband cannot be combined with the self-consistent potential of a doped structure (holes are not modelled in it); add --no-space-charge for the rigid bands.");
+                }
                 if (result.GetValue(stackOptions.Bias) is { } b && b != 0)
                 {
                     throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--bias {b:R} eV cannot be applied with --carrier interband: interband spectra are computed flat-band only. Allowed: --bias 0 or no --bias."));

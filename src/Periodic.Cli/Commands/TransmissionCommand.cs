@@ -56,7 +56,7 @@ internal static class TransmissionCommand
             {
                 Limits.CheckMass("--lead-mass", m);
             }
-            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.Load(result, result.GetValue(file)!));
+            var structure = Common.AtInPlaneWavevector(result, inPlane, Common.LoadStack(result, result.GetValue(file)!, "transmission", result.GetValue(bias), usesBias: true));
             var (stack, source) = Physics.StackOptions.Choose(structure, n, potential, mass);
             Write(structure, stack, source, energies, ChooseBias(result.GetValue(bias), structure), format, result.GetValue(output));
             return 0;

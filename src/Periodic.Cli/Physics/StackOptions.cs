@@ -50,6 +50,15 @@ internal sealed class StackOptions
     /// <summary>N periods of the cell when <paramref name="periods"/> is given, else the file's stack; the lead options replace both leads' values.</summary>
     public static (LayerStack Stack, string Description) Choose(StructureDefinition structure, int? periods, double? potential, double? mass)
     {
+        if (structure.SelfConsistentStack is not null)
+        {
+            var option = periods is not null ? "--periods" : potential is not null ? "--lead-potential" : mass is not null ? "--lead-mass" : null;
+            if (option is not null)
+            {
+                throw new UsageException($"{option} cannot be combined with the self-consistent stack of a doped file: the space charge is solved for the file's own stack and leads; drop {option}, or add --no-space-charge for the rigid bands.");
+            }
+            return (structure.Stack!, "the file's stack, self-consistent (with lead buffers)");
+        }
         if (periods is { } n)
         {
             var built = TransmissionCommand.BuildStack(structure, n, potential, mass);
@@ -68,11 +77,35 @@ internal sealed class StackOptions
         return (stack, "the file's stack");
     }
 
-    /// <summary>The stack's parts in words, e.g. "2 layers, 10 x cell (2 elements), 1 layer".</summary>
-    public static string Describe(LayerStack stack) =>
-        string.Join(", ", stack.Parts.Select(p => p.IsRepeatedCell
-            ? string.Create(CultureInfo.InvariantCulture, $"{p.Repetitions} x cell ({Common.Plural(p.Cell!.Elements.Count, "element")})")
-            : p.Element is DeltaBarrier ? "delta" : string.Create(CultureInfo.InvariantCulture, $"layer {p.Thickness.Nanometres:G6} nm")));
+    /// <summary>
+    /// The stack's parts in words, e.g. "2 layers, 10 x cell (2 elements), 1 layer"; a run of sampled segments (a self-consistent
+    /// potential) is one entry, "sampled potential 90 nm (32 segments)".
+    /// </summary>
+    public static string Describe(LayerStack stack)
+    {
+        var words = new List<string>();
+        var parts = stack.Parts;
+        for (var i = 0; i < parts.Count; i++)
+        {
+            var p = parts[i];
+            if (p.Element is SampledSegment)
+            {
+                var run = 0;
+                var width = 0.0;
+                for (; i < parts.Count && parts[i].Element is SampledSegment; i++, run++)
+                {
+                    width += parts[i].Thickness.Nanometres;
+                }
+                i--;
+                words.Add(string.Create(CultureInfo.InvariantCulture, $"sampled potential {width:G6} nm ({Common.Plural(run, "segment")})"));
+                continue;
+            }
+            words.Add(p.IsRepeatedCell
+                ? string.Create(CultureInfo.InvariantCulture, $"{p.Repetitions} x cell ({Common.Plural(p.Cell!.Elements.Count, "element")})")
+                : p.Element is DeltaBarrier ? "delta" : string.Create(CultureInfo.InvariantCulture, $"layer {p.Thickness.Nanometres:G6} nm"));
+        }
+        return string.Join(", ", words);
+    }
 
     /// <summary>V(x) of the stack as (x, V) corners, layer by layer, x from 0 at the left lead; under a bias the potential falls by eU·x/L.</summary>
     public static (double[] X, double[] V) Profile(LayerStack stack, double bias)

@@ -24,7 +24,9 @@ namespace Periodic.Optics;
 /// states' values at the element ends from the Wronskian identities of the BenDaniel–Duke equation (exact for uniform layers
 /// and for layers under a field), with 20-point Gauss–Legendre quadrature of the closed-form states, exact to rounding, only
 /// where two energies nearly coincide or a layer is non-parabolic; plus the exponential tails in the leads in closed form.
-/// No wavefunction is sampled on a grid. Reference mass: f = 2m*ω|z|²/ħ with m* = <see cref="ReferenceMassElectronMasses"/>.</para>
+/// No wavefunction is sampled on a grid. A smooth segment (e.g. a self-consistent potential) has no closed form: its pairs
+/// are integrated over each Magnus step's cubic Hermite interpolant by the 8-point Gauss–Legendre rule (the scheme's own
+/// O(h⁴) model of the state); quasi-bound levels are not computed for such a stack. Reference mass: f = 2m*ω|z|²/ħ with m* = <see cref="ReferenceMassElectronMasses"/>.</para>
 /// </remarks>
 public sealed class IntersubbandSpectrum
 {
@@ -95,8 +97,8 @@ public sealed class IntersubbandSpectrum
 
     /// <summary>Computes the levels and every transition of <paramref name="stack"/> (flat, no bias).</summary>
     /// <exception cref="ArgumentNullException"><paramref name="stack"/> is null.</exception>
-    /// <exception cref="ArgumentException">The stack has no bound state to start from, or holds an element other than layers and
-    /// delta barriers.</exception>
+    /// <exception cref="ArgumentException">The stack has no bound state to start from, or holds smooth segments while
+    /// <see cref="IntersubbandOptions.IncludeQuasiBound"/> is set.</exception>
     /// <exception cref="ArgumentOutOfRangeException">An option is out of range.</exception>
     public static IntersubbandSpectrum Compute(LayerStack stack, IntersubbandOptions? options = null) => ComputeUnderBias(stack, default, options);
 
@@ -131,6 +133,10 @@ public sealed class IntersubbandSpectrum
                 nameof(stack));
         }
         var profile = bound.Profile;
+        if (options.IncludeQuasiBound && profile.Kernel.HasSegments)
+        {
+            throw new ArgumentException("stack holds smooth segments (e.g. a self-consistent potential); quasi-bound levels are computed for uniform layers and delta barriers only: leave IncludeQuasiBound off.", nameof(options));
+        }
         var referenceMass = options.ReferenceMassElectronMasses ?? WellMass(profile, stack);
         var nb = bound.Levels.Count;
 
@@ -286,18 +292,14 @@ public sealed class IntersubbandSpectrum
             $"the quasi-bound state is not localised: |z| changed by {change:P2} when the normalisation domain's margin was doubled ({options.DomainMarginNanometres:G6} → {2 * options.DomainMarginNanometres:G6} nm); tolerance {options.DomainTolerance:P2}");
 
     /// <summary>m(E) of layer <paramref name="j"/> (a layer under bias: its constant mass), m₀.</summary>
-    private static double MassAt(StackProfile profile, int j, double e)
-    {
-        profile.Kernel.LayerCoefficients(j, e, out var mass, out _);
-        return mass;
-    }
+    private static double MassAt(StackProfile profile, int j, double e) => profile.Kernel.MassAt(j, e);
 
     private static double WellMass(StackProfile profile, LayerStack stack)
     {
         var best = -1;
         for (var j = 0; j < profile.Count; j++)
         {
-            if (!profile.IsDelta(j) && (best < 0 || profile.Potential(j) < profile.Potential(best)))
+            if (!profile.IsDelta(j) && (best < 0 || profile.MinimumPotential(j) < profile.MinimumPotential(best)))
             {
                 best = j;
             }
@@ -312,7 +314,7 @@ public sealed class IntersubbandSpectrum
         {
             if (!profile.IsDelta(j))
             {
-                max = Math.Max(max, profile.Potential(j));
+                max = Math.Max(max, profile.MaximumPotential(j));
             }
         }
         return double.IsFinite(max) ? max : profile.MinimumPotentialElectronVolts;

@@ -205,7 +205,7 @@ internal sealed class KernelState
             else if (!kernel.TryPairClosedForm(i, a.EnergyElectronVolts, a.Ends(i), b.EnergyElectronVolts, b.Ends(i), normScale,
                 a.EnergyElectronVolts <= b.EnergyElectronVolts ? a._growth[i] : b._growth[i], out pair))
             {
-                if (shared is not null)
+                if (!kernel.IsSegment(i) && shared is not null)
                 {
                     a.EnsureSampled(i);
                     b.EnsureSampled(i);

@@ -52,6 +52,40 @@ public sealed partial class StructureDefinition
     public SelfConsistentCell? SelfConsistent { get; private init; }
 
     /// <summary>
+    /// The doping of the file's finite stack (<see cref="Stack"/>): repeated cells carry the cell's doping, single layers their own
+    /// (<c>donors</c>, <c>acceptors</c>, <c>sheetDonors</c>, <c>permittivity</c> in <c>stack.parts</c>), the leads are undoped; null
+    /// when the file has no stack or its stack holds no dopants. Solve it with
+    /// <see cref="SpaceChargeSolver.SolveStack(DopedStack, SpaceChargeOptions?, IProgress{SpaceChargeProgress}?, CancellationToken)"/> and apply the
+    /// result with <see cref="WithSelfConsistentStack"/>.
+    /// </summary>
+    public DopedStack? StackDoping { get; internal init; }
+
+    /// <summary>The self-consistent solution of the file's stack this structure now carries (from <see cref="WithSelfConsistentStack"/>), or null.</summary>
+    public SelfConsistentStack? SelfConsistentStack { get; private init; }
+
+    /// <summary>
+    /// The same structure with the self-consistent stack of <paramref name="solution"/> in place of the rigid <see cref="Stack"/>
+    /// (lead buffers included, see <see cref="SelfConsistentStack.Stack"/>); the cell stays as it is. The stack's bias must be zero.
+    /// </summary>
+    /// <exception cref="ArgumentNullException"><paramref name="solution"/> is null.</exception>
+    /// <exception cref="ArgumentException">The solution belongs to another stack than this structure's <see cref="StackDoping"/>.</exception>
+    public StructureDefinition WithSelfConsistentStack(SelfConsistentStack solution)
+    {
+        ArgumentNullException.ThrowIfNull(solution);
+        if (StackDoping is null || !ReferenceEquals(solution.Input.Stack, Stack))
+        {
+            throw new ArgumentException("solution must solve this structure's own doped stack (StructureDefinition.StackDoping).", nameof(solution));
+        }
+        return new StructureDefinition(Name, Description, Cell, [.. Labels], SourceName, Materials, solution.Stack, StackBias)
+        {
+            Doping = Doping,
+            StackDoping = StackDoping,
+            SelfConsistent = SelfConsistent,
+            SelfConsistentStack = solution,
+        };
+    }
+
+    /// <summary>
     /// The same structure with the self-consistent cell of <paramref name="solution"/> in place of the rigid cell: the cell, and in
     /// a finite stack every repeated period of the file's cell (single layers and the leads stay as given; the stack's own space
     /// charge, its ends and the leads' Fermi level are not solved).

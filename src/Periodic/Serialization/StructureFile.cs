@@ -252,21 +252,28 @@ public static partial class StructureFile
             {
                 throw Error(array, "cell", e.Message, e);
             }
-            var (stack, bias) = ReadStack(fields, cell);
+            var (stack, bias, stackFile) = ReadStack(fields, cell);
             DopedCell? doped = null;
-            if (doping.Any(d => d is not null))
+            DopedStack? dopedStack = null;
+            var cellDoped = doping.Any(d => d is not null);
+            if (cellDoped || stackFile?.IsDoped == true)
             {
                 if (!fields.TryGetValue("temperature", out var t))
                 {
-                    throw Error(array, "temperature", "is required for a doped cell (it sets the carriers' Fermi–Dirac statistics), e.g. \"temperature\": \"300 K\".");
+                    throw Error(array, "temperature", "is required for a doped cell or stack (it sets the carriers' Fermi–Dirac statistics), e.g. \"temperature\": \"300 K\".");
                 }
-                doped = BuildDoping(cell, doping, array, ReadQuantity(t.Value, "temperature", TemperatureUnits, "K", "K"), t.Value);
+                var kelvin = ReadQuantity(t.Value, "temperature", TemperatureUnits, "K", "K");
+                Apply(t.Value, "temperature", () => Preconditions.CheckRange(kelvin, DopedCell.MinTemperatureKelvin, DopedCell.MaxTemperatureKelvin, "temperature"));
+                // The cell's layers need their permittivities where the cell is doped or the stack repeats it.
+                var entries = cellDoped || stack?.Parts.Any(p => p.IsRepeatedCell) == true ? BuildEntries(cell, doping, array, kelvin, t.Value) : [];
+                doped = cellDoped ? Apply(array, "cell", () => DopedCell.Create(cell, entries, Temperature.FromKelvin(kelvin))) : null;
+                dopedStack = BuildStackDoping(stack, stackFile, entries, kelvin);
             }
             else if (fields.TryGetValue("temperature", out var stray))
             {
                 throw ErrorAt(stray.NameOffset, "temperature", "applies only to a cell of material layers or a doped cell (give \"donors\" in a layer).");
             }
-            return new StructureDefinition(name, description, cell, labels, sourceName, null, stack, bias) { Doping = doped };
+            return new StructureDefinition(name, description, cell, labels, sourceName, null, stack, bias) { Doping = doped, StackDoping = dopedStack };
         }
 
         /// <summary>
@@ -275,19 +282,20 @@ public static partial class StructureFile
         /// <see cref="StackTransmission.MaxBiasedElements"/> elements) here, without computing anything, so the error
         /// names the field.
         /// </summary>
-        private (LayerStack? Stack, Energy Bias) ReadStack(Dictionary<string, JsonTreeProperty> fields, UnitCell cell, BuiltStructure? built = null)
+        private (LayerStack? Stack, Energy Bias, StackFile? File) ReadStack(Dictionary<string, JsonTreeProperty> fields, UnitCell cell, BuiltStructure? built = null)
         {
             if (!fields.TryGetValue("stack", out var property))
             {
-                return (null, default);
+                return (null, default, null);
             }
             var obj = ExpectObject(property.Value, "stack");
             var stackFields = Fields(obj, "stack", ["periods", "parts", "leads", "leftLead", "rightLead", "bias"]);
             List<StackPart>? parts = null;
+            FileDoping?[] partDoping = [null];
             var periods = 0.0;
             if (stackFields.TryGetValue("parts", out var partsProperty))
             {
-                parts = ReadStackParts(partsProperty.Value, stackFields, cell, built);
+                (parts, partDoping) = ReadStackParts(partsProperty.Value, stackFields, cell, built);
             }
             else
             {
@@ -309,8 +317,8 @@ public static partial class StructureFile
                     ?? throw ErrorAt(property.NameOffset, field, "is required: the cell has no uniform layer to take the lead's potential and mass from (give \"leads\": {\"potential\": ..., \"mass\": ...}).");
                 return Lead.Create(first.Potential, first.Mass);
             }
-            var left = both is not null ? ReadLead(both.Value, "stack.leads", built) : stackFields.TryGetValue("leftLead", out var l) ? ReadLead(l.Value, "stack.leftLead", built) : Fallback("stack.leftLead");
-            var right = both is not null ? left : stackFields.TryGetValue("rightLead", out var r) ? ReadLead(r.Value, "stack.rightLead", built) : Fallback("stack.rightLead");
+            var (left, leftPermittivity) = both is not null ? ReadLead(both.Value, "stack.leads", built) : stackFields.TryGetValue("leftLead", out var l) ? ReadLead(l.Value, "stack.leftLead", built) : (Fallback("stack.leftLead"), null);
+            var (right, rightPermittivity) = both is not null ? (left, leftPermittivity) : stackFields.TryGetValue("rightLead", out var r) ? ReadLead(r.Value, "stack.rightLead", built) : (Fallback("stack.rightLead"), null);
             var stack = parts is not null
                 ? Apply(obj, "stack.parts", () => LayerStack.Create(left, parts, right))
                 : Apply(obj, "stack", () => LayerStack.Periodic(left, cell, (int)periods, right));
@@ -323,10 +331,11 @@ public static partial class StructureFile
                     Apply(b.Value, "stack.bias", () => { StackTransmission.CheckBias(stack, bias); return stack; });
                 }
             }
-            return (stack, bias);
+            return (stack, bias, new StackFile(partDoping, leftPermittivity, rightPermittivity, obj));
         }
 
-        private Lead ReadLead(JsonTreeNode node, string path, BuiltStructure? built)
+        /// <summary>A lead and, for a lead of a material, that material's static relative permittivity.</summary>
+        private (Lead Lead, double? Permittivity) ReadLead(JsonTreeNode node, string path, BuiltStructure? built)
         {
             var obj = ExpectObject(node, path);
             if (obj.Properties.Exists(p => p.Name == "material"))
@@ -341,7 +350,7 @@ public static partial class StructureFile
             {
                 throw Error(massNode, path + ".mass", $"must be positive; got {Format(mass)} m0.");
             }
-            return Apply(obj, path, () => Lead.Create(Energy.FromElectronVolts(potential), EffectiveMass.FromElectronMasses(mass)));
+            return (Apply(obj, path, () => Lead.Create(Energy.FromElectronVolts(potential), EffectiveMass.FromElectronMasses(mass))), null);
         }
 
         /// <summary>
@@ -349,7 +358,7 @@ public static partial class StructureFile
         /// layers also <c>{"material": ..., "width": ...}</c>) and repeated cells <c>{"repeat": N}</c> (N periods of the file's cell),
         /// for spacers, cap and emitter layers and defects. Not together with <c>periods</c>.
         /// </summary>
-        private List<StackPart> ReadStackParts(JsonTreeNode node, Dictionary<string, JsonTreeProperty> stackFields, UnitCell cell, BuiltStructure? built)
+        private (List<StackPart> Parts, FileDoping?[] Doping) ReadStackParts(JsonTreeNode node, Dictionary<string, JsonTreeProperty> stackFields, UnitCell cell, BuiltStructure? built)
         {
             if (stackFields.TryGetValue("periods", out var periods))
             {
@@ -361,6 +370,7 @@ public static partial class StructureFile
                     $"must be an array of 1 to {MaxStackParts} parts: layers, deltas or {{\"repeat\": N}}; got {(node is JsonTreeArray a ? a.Items.Count + " parts" : node.KindName)}."));
             }
             var parts = new List<StackPart>(array.Items.Count);
+            var doping = new FileDoping?[array.Items.Count];
             for (var i = 0; i < array.Items.Count; i++)
             {
                 var path = string.Create(CultureInfo.InvariantCulture, $"stack.parts[{i}]");
@@ -380,8 +390,9 @@ public static partial class StructureFile
                     {
                         throw Error(obj, path + ".material", "applies only to a cell of material layers; give width, potential and mass instead.");
                     }
-                    var f = Fields(obj, path, ["material", "width", "label"]);
+                    var f = Fields(obj, path, ["material", "width", "label", .. DopingFields]);
                     var material = ReadMaterial(f["material"].Value, path + ".material");
+                    doping[i] = ReadDoping(obj, path, material) ?? new FileDoping(0, 0, 0, material.StaticRelativePermittivity, obj, path, Given: false);
                     var widthNode = Required(f, obj, path, "width");
                     var width = ReadQuantity(widthNode, path + ".width", LengthUnits, "nm", "nm, Å, pm, µm");
                     if (width <= 0)
@@ -393,15 +404,20 @@ public static partial class StructureFile
                 }
                 else
                 {
-                    var (element, _) = ReadElement(obj, path);
+                    var (element, _) = ReadElement(obj, path, allowDoping: true);
+                    doping[i] = ReadDoping(obj, path, null);
+                    if (doping[i] is not null && element is not Layer)
+                    {
+                        throw Error(obj, path, "only a uniform layer of a stack can carry donors, acceptors or a permittivity.");
+                    }
                     parts.Add(Apply(obj, path, () => StackPart.Single(element)));
                 }
             }
-            return parts;
+            return (parts, doping);
         }
 
         /// <summary><c>{"material": "Al0.3Ga0.7As"}</c>: a lead of a material's band edge and band-edge mass, for a cell of material layers.</summary>
-        private Lead ReadMaterialLead(JsonTreeObject obj, string path, BuiltStructure? built)
+        private (Lead Lead, double? Permittivity) ReadMaterialLead(JsonTreeObject obj, string path, BuiltStructure? built)
         {
             var fields = Fields(obj, path, ["material"]);
             if (built is null)
@@ -410,11 +426,11 @@ public static partial class StructureFile
             }
             var material = ReadMaterial(fields["material"].Value, path + ".material");
             // A lead of the material's band edge and band-edge mass (leads are parabolic), as a layer of it would have.
-            return Apply(fields["material"].Value, path + ".material", () =>
+            return (Apply(fields["material"].Value, path + ".material", () =>
             {
                 var layer = built.LayerOf(material, Length.FromNanometres(1));
                 return Lead.Create(layer.Potential, layer.Mass);
-            });
+            }), material.StaticRelativePermittivity);
         }
 
         /// <summary>A cell of material layers, built by <see cref="StructureRecipe"/> (potentials and masses from the material table).</summary>
@@ -500,9 +516,16 @@ public static partial class StructureFile
                 materialDoping[i] ??= new FileDoping(0, 0, 0, material.StaticRelativePermittivity, obj, path);
             }
             var built = Apply(array, "cell", recipe.Build);
-            var (stack, bias) = ReadStack(fields, built.Cell, built);
-            var doped = anyDoping ? BuildDoping(built.Cell, materialDoping, array, temperature, t.Value) : null;
-            return new StructureDefinition(name, description, built.Cell, labels, sourceName, built, stack, bias) { Doping = doped };
+            var (stack, bias, stackFile) = ReadStack(fields, built.Cell, built);
+            DopedCell? doped = null;
+            DopedStack? dopedStack = null;
+            if (anyDoping || stackFile?.IsDoped == true)
+            {
+                var entries = BuildEntries(built.Cell, materialDoping, array, temperature, t.Value);
+                doped = anyDoping ? Apply(array, "cell", () => DopedCell.Create(built.Cell, entries, Temperature.FromKelvin(temperature))) : null;
+                dopedStack = BuildStackDoping(stack, stackFile, entries, temperature);
+            }
+            return new StructureDefinition(name, description, built.Cell, labels, sourceName, built, stack, bias) { Doping = doped, StackDoping = dopedStack };
         }
 
         private Material ReadMaterial(JsonTreeNode node, string path)
@@ -585,7 +608,7 @@ public static partial class StructureFile
         }
 
         /// <summary>The doping fields of one layer as read (volume densities cm⁻³, sheet cm⁻², permittivity), with where they stand.</summary>
-        private sealed record FileDoping(double Donors, double Acceptors, double Sheet, double? Permittivity, JsonTreeNode Node, string Path, double? Ionisation = null);
+        private sealed record FileDoping(double Donors, double Acceptors, double Sheet, double? Permittivity, JsonTreeNode Node, string Path, double? Ionisation = null, bool Given = true);
 
         /// <summary>
         /// <c>"donors"</c>, <c>"acceptors"</c> (cm⁻³), <c>"sheetDonors"</c> (cm⁻², a donor sheet at the layer's middle) and
@@ -638,8 +661,8 @@ public static partial class StructureFile
             return new FileDoping(donors, acceptors, sheet, permittivity, obj, path, ionisation);
         }
 
-        /// <summary>The doped cell of a file with doping: every layer needs a permittivity (its own or its material's).</summary>
-        private DopedCell BuildDoping(UnitCell cell, FileDoping?[] doping, JsonTreeArray array, double temperatureKelvin, JsonTreeNode temperatureNode)
+        /// <summary>The doping of each cell element of a file with doping: every layer needs a permittivity (its own or its material's).</summary>
+        private LayerDoping[] BuildEntries(UnitCell cell, FileDoping?[] doping, JsonTreeArray array, double temperatureKelvin, JsonTreeNode temperatureNode)
         {
             var entries = new LayerDoping[doping.Length];
             for (var i = 0; i < doping.Length; i++)
@@ -664,7 +687,85 @@ public static partial class StructureFile
                 });
             }
             Apply(temperatureNode, "temperature", () => Preconditions.CheckRange(temperatureKelvin, DopedCell.MinTemperatureKelvin, DopedCell.MaxTemperatureKelvin, "temperature"));
-            return Apply(array, "cell", () => DopedCell.Create(cell, entries, Temperature.FromKelvin(temperatureKelvin)));
+            return entries;
+        }
+
+        /// <summary>
+        /// The doped stack of a file with doping and a stack: repeated cells carry the cell's doping, single layers their own
+        /// (each needs a permittivity, its own or its material's), deltas none; a lead of a material has that material's
+        /// permittivity, a lead given by potential and mass the permittivity of the stack's layer beside it. Null without a stack.
+        /// </summary>
+        private DopedStack? BuildStackDoping(LayerStack? stack, StackFile? file, LayerDoping[] cellEntries, double temperatureKelvin)
+        {
+            if (stack is null || file is null)
+            {
+                return null;
+            }
+            var parts = stack.Parts;
+            var doping = new IReadOnlyList<LayerDoping>[parts.Count];
+            for (var p = 0; p < parts.Count; p++)
+            {
+                if (parts[p].IsRepeatedCell)
+                {
+                    doping[p] = cellEntries;
+                    continue;
+                }
+                if (parts[p].Element is not Layer)
+                {
+                    doping[p] = [LayerDoping.Undoped(1)]; // a delta barrier: no width, no charge
+                    continue;
+                }
+                var path = string.Create(CultureInfo.InvariantCulture, $"stack.parts[{p}]");
+                var entry = file.Parts[p];
+                if (entry?.Permittivity is not { } permittivity)
+                {
+                    throw Error(entry?.Node ?? file.Node, path + ".permittivity",
+                        "is required in every single layer of a doped structure's stack whose material does not supply it (a relative permittivity, e.g. 12.9).");
+                }
+                doping[p] = [Apply(entry.Node, entry.Path, () =>
+                {
+                    var layerDoping = LayerDoping.Create(entry.Donors, entry.Acceptors, permittivity, entry.Sheet);
+                    return entry.Ionisation is { } e ? layerDoping.WithDonorIonisationEnergy(Energy.FromElectronVolts(e)) : layerDoping;
+                })];
+            }
+            // The permittivity of the first (last) layer of the stack written out, for a lead that gives none.
+            double? Beside(bool first)
+            {
+                var order = first ? Enumerable.Range(0, parts.Count) : Enumerable.Range(0, parts.Count).Reverse();
+                foreach (var p in order)
+                {
+                    var elements = parts[p].Cell is { } cell ? cell.Elements : [parts[p].Element!];
+                    var indices = first ? Enumerable.Range(0, elements.Count) : Enumerable.Range(0, elements.Count).Reverse();
+                    foreach (var i in indices)
+                    {
+                        if (elements[i] is Layer)
+                        {
+                            return doping[p][i].RelativePermittivity;
+                        }
+                    }
+                }
+                return null;
+            }
+            // A stack without dopants (e.g. single undoped layers only) is exactly its rigid self: nothing to solve.
+            var hasDopants = false;
+            for (var p = 0; p < parts.Count; p++)
+            {
+                hasDopants |= doping[p].Any(d => d.IsDoped);
+            }
+            if (!hasDopants)
+            {
+                return null;
+            }
+            var left = file.LeftPermittivity ?? Beside(first: true) ?? 1;
+            var right = file.RightPermittivity ?? Beside(first: false) ?? 1;
+            return Apply(file.Node, "stack", () => DopedStack.Create(stack, doping, Temperature.FromKelvin(temperatureKelvin), left, right));
+        }
+
+        /// <summary>What a file's stack says about doping: each single layer's doping fields (null for a repeated cell or none given) and the leads' permittivities where a material supplies them.</summary>
+        private sealed record StackFile(FileDoping?[] Parts, double? LeftPermittivity, double? RightPermittivity, JsonTreeNode Node)
+        {
+            /// <summary>True when a single layer of the stack gives doping fields.</summary>
+            public bool IsDoped => Parts.Any(p => p is { Given: true });
         }
 
         /// <summary><c>{"period": L, "constant": V0, "cosine": [a1, …], "sine": [b1, …], "mass": m}</c>: V0 + Σ a_n cos(2πnx/d) + b_n sin(2πnx/d).</summary>

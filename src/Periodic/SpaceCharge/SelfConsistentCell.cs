@@ -1,7 +1,6 @@
 // SPDX-License-Identifier: MIT
 // Copyright (c) 2026 Periodic contributors
 
-using System.Collections.ObjectModel;
 using System.Globalization;
 using Periodic.Structures;
 
@@ -13,32 +12,28 @@ namespace Periodic.SpaceCharge;
 /// Bloch-function computation of the library, with the Fermi level on the same energy scale, the Hartree potential and
 /// the electron density on the grid, and how far the iteration got. Immutable; a host keeps and reuses it.
 /// </summary>
-public sealed class SelfConsistentCell
+public sealed class SelfConsistentCell : SelfConsistentSolution
 {
     internal SelfConsistentCell(DopedCell input, UnitCell cell, SpaceChargeOptions options, double[] positions, double[] hartree, double[] density,
         double fermiLevel, double neutralityError, int iterations, double residual, int bands)
+        : base(options, [.. positions], Periodic(hartree, 1), Periodic(density, 1e21), fermiLevel, neutralityError, iterations, residual, input.Temperature.Kelvin)
     {
         Input = input;
         Cell = cell;
-        Options = options;
-        var n = hartree.Length;
-        var u = new double[n + 1];
-        var rho = new double[n + 1];
-        Array.Copy(hartree, u, n);
-        u[n] = hartree[0]; // periodic: the cell end repeats the start
+        OccupiedBands = bands;
+    }
+
+    /// <summary>The values at the N nodes of one period, scaled, with the period's end repeating its start.</summary>
+    private static double[] Periodic(double[] values, double scale)
+    {
+        var n = values.Length;
+        var result = new double[n + 1];
         for (var i = 0; i < n; i++)
         {
-            rho[i] = density[i] * 1e21;
+            result[i] = values[i] * scale;
         }
-        rho[n] = rho[0];
-        PositionsNanometres = new ReadOnlyCollection<double>([.. positions]);
-        HartreeElectronVolts = new ReadOnlyCollection<double>(u);
-        ElectronDensityPerCubicCentimetre = new ReadOnlyCollection<double>(rho);
-        FermiLevelElectronVolts = fermiLevel;
-        NeutralityError = neutralityError;
-        Iterations = iterations;
-        ResidualElectronVolts = residual;
-        OccupiedBands = bands;
+        result[n] = result[0];
+        return result;
     }
 
     /// <summary>The doped cell that was solved.</summary>
@@ -47,35 +42,8 @@ public sealed class SelfConsistentCell
     /// <summary>The self-consistent cell: each layer a <see cref="SampledSegment"/> of its band edge plus the Hartree potential, delta barriers as given.</summary>
     public UnitCell Cell { get; }
 
-    /// <summary>The options used.</summary>
-    public SpaceChargeOptions Options { get; }
-
-    /// <summary>The grid positions from the cell start, nm (the last one is the period).</summary>
-    public IReadOnlyList<double> PositionsNanometres { get; }
-
-    /// <summary>The Hartree potential energy U = −eφ of an electron at each position, eV, with zero cell average.</summary>
-    public IReadOnlyList<double> HartreeElectronVolts { get; }
-
-    /// <summary>The electron density at each position, cm⁻³.</summary>
-    public IReadOnlyList<double> ElectronDensityPerCubicCentimetre { get; }
-
-    /// <summary>The Fermi level μ that neutralises the cell, eV, on the energy scale of <see cref="Cell"/>'s bands.</summary>
-    public double FermiLevelElectronVolts { get; }
-
-    /// <summary>|∫n dz − ∫(N_D − N_A)dz − sheets| / (net donors) over one period, on the grid.</summary>
-    public double NeutralityError { get; }
-
-    /// <summary>Outer iterations used.</summary>
-    public int Iterations { get; }
-
-    /// <summary>The largest change of the Hartree potential in the last iteration, eV (at most the tolerance).</summary>
-    public double ResidualElectronVolts { get; }
-
     /// <summary>Minibands in the carrier quadrature (every band whose bottom lies below μ + 40 k_BT).</summary>
     public int OccupiedBands { get; }
-
-    /// <summary>The temperature, K.</summary>
-    public double TemperatureKelvin => Input.Temperature.Kelvin;
 
     /// <inheritdoc />
     public override string ToString() => string.Create(CultureInfo.InvariantCulture,

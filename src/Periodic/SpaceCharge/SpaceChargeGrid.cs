@@ -7,16 +7,17 @@ using Periodic.Structures;
 namespace Periodic.SpaceCharge;
 
 /// <summary>
-/// The periodic grid of one doped cell: nodes x₀ = 0 &lt; x₁ &lt; … &lt; x_N = d (x_N is x₀ of the next period), every
-/// layer split into an even number (at least 4) of equal intervals no wider than the spacing asked for, so each
-/// interface and each layer's middle (where its donor sheet sits) is a node. Holds the finite-volume data of
-/// Poisson's equation: interval permittivities, node control volumes and the fixed charge of each control volume.
+/// The grid of one space-charge domain: nodes x₀ = 0 &lt; x₁ &lt; … &lt; x_N, every layer split into an even number (at least
+/// 4) of equal intervals no wider than the spacing asked for, so each interface and each layer's middle (where its donor sheet
+/// sits) is a node. Periodic (one cell: x_N is x₀ of the next period, N unknowns) or closed (a finite domain: N + 1 unknowns,
+/// no flux through its two ends). Holds the finite-volume data of Poisson's equation: interval permittivities, node control
+/// volumes, the couplings between neighbouring nodes and the fixed charge of each control volume.
 /// </summary>
 internal sealed class SpaceChargeGrid
 {
-    internal SpaceChargeGrid(DopedCell doped, double maxSpacing)
+    internal SpaceChargeGrid(IReadOnlyList<CellElement> elements, IReadOnlyList<LayerDoping> dopings, bool periodic, double maxSpacing, double length)
     {
-        var elements = doped.Cell.Elements;
+        Periodic = periodic;
         var intervalsPerElement = new int[elements.Count];
         long total = 0;
         for (var e = 0; e < elements.Count; e++)
@@ -28,24 +29,35 @@ internal sealed class SpaceChargeGrid
                 total += intervalsPerElement[e];
             }
         }
-        if (total > SpaceChargeOptions.MaxGridPoints)
+        var points = periodic ? total : total + 1;
+        if (points > SpaceChargeOptions.MaxGridPoints)
         {
-            throw new ArgumentOutOfRangeException("options", total, string.Create(CultureInfo.InvariantCulture,
-                $"the cell of period {doped.Cell.Period.Nanometres:R} nm needs {total} grid points at a spacing of {maxSpacing:R} nm; at most {SpaceChargeOptions.MaxGridPoints} are allowed (time and memory per iteration grow with them): choose a larger MaxGridSpacingNanometres."));
+            throw new ArgumentOutOfRangeException("options", points, string.Create(CultureInfo.InvariantCulture,
+                $"the {(periodic ? "cell of period" : "domain of length")} {length:R} nm needs {points} grid points at a spacing of {maxSpacing:R} nm; at most {SpaceChargeOptions.MaxGridPoints} are allowed (time and memory per iteration grow with them): choose a larger MaxGridSpacingNanometres."));
         }
-        var n = (int)total;
+        var intervals = (int)total;
+        Intervals = intervals;
+        var n = periodic ? intervals : intervals + 1;
         Count = n;
-        Positions = new double[n + 1];
-        Widths = new double[n];
-        Permittivity = new double[n];
-        InverseMass = new double[n];
-        NetDoping = new double[n];
+        Positions = new double[intervals + 1];
+        Widths = new double[intervals];
+        Permittivity = new double[intervals];
+        InverseMass = new double[intervals];
+        NetDoping = new double[intervals];
+        PartialDonors = new double[intervals];
+        PartialLevel = new double[intervals];
         Volume = new double[n];
         FixedCharge = new double[n];
-        PartialDonors = new double[n];
-        PartialLevel = new double[n];
         SheetPartial = new double[n];
         SheetLevel = new double[n];
+        HalfBefore = new double[n];
+        HalfAfter = new double[n];
+        IntervalBefore = new int[n];
+        IntervalAfter = new int[n];
+        NodeBefore = new int[n];
+        NodeAfter = new int[n];
+        CouplingBefore = new double[n];
+        CouplingAfter = new double[n];
         ElementStart = new int[elements.Count];
         ElementEnd = new int[elements.Count];
         var node = 0;
@@ -57,7 +69,7 @@ internal sealed class SpaceChargeGrid
             {
                 var m = intervalsPerElement[e];
                 var h = layer.Width.Nanometres / m;
-                var doping = doped.Doping[e];
+                var doping = dopings[e];
                 var partial = doping.DonorIonisationEnergyElectronVolts;
                 for (var j = 0; j < m; j++)
                 {
@@ -88,21 +100,37 @@ internal sealed class SpaceChargeGrid
             }
             ElementEnd[e] = node;
         }
-        Positions[n] = doped.Cell.Period.Nanometres;
-        for (var i = 0; i < n; i++)
+        Positions[intervals] = length;
+        for (var i = 0; i < intervals; i++)
         {
             Widths[i] = Positions[i + 1] - Positions[i];
         }
         for (var i = 0; i < n; i++)
         {
-            var before = i == 0 ? n - 1 : i - 1;
-            Volume[i] = 0.5 * (Widths[before] + Widths[i]);
-            FixedCharge[i] += 0.5 * (Widths[before] * NetDoping[before] + Widths[i] * NetDoping[i]);
+            // Periodic: node 0's left interval is the last one. Closed: the end nodes have only their inner half-interval.
+            var hasBefore = periodic || i > 0;
+            var hasAfter = periodic || i < intervals;
+            IntervalBefore[i] = hasBefore ? (i == 0 ? intervals - 1 : i - 1) : 0;
+            IntervalAfter[i] = hasAfter ? i : intervals - 1;
+            NodeBefore[i] = hasBefore ? (i == 0 ? n - 1 : i - 1) : i;
+            NodeAfter[i] = hasAfter ? (i == n - 1 ? 0 : i + 1) : i;
+            HalfBefore[i] = hasBefore ? 0.5 * Widths[IntervalBefore[i]] : 0;
+            HalfAfter[i] = hasAfter ? 0.5 * Widths[IntervalAfter[i]] : 0;
+            CouplingBefore[i] = hasBefore ? Permittivity[IntervalBefore[i]] / Widths[IntervalBefore[i]] : 0;
+            CouplingAfter[i] = hasAfter ? Permittivity[IntervalAfter[i]] / Widths[IntervalAfter[i]] : 0;
+            Volume[i] = HalfBefore[i] + HalfAfter[i];
+            FixedCharge[i] += HalfBefore[i] * NetDoping[IntervalBefore[i]] + HalfAfter[i] * NetDoping[IntervalAfter[i]];
         }
     }
 
-    /// <summary>Nodes per period N (unknowns of the periodic problem).</summary>
+    /// <summary>True for one cell of a superlattice (periodic), false for a closed finite domain.</summary>
+    internal bool Periodic { get; }
+
+    /// <summary>Unknowns: N for a periodic cell, N + 1 for a closed domain.</summary>
     internal int Count { get; }
+
+    /// <summary>Intervals N.</summary>
+    internal int Intervals { get; }
 
     /// <summary>x₀ … x_N, nm (N + 1 values).</summary>
     internal double[] Positions { get; }
@@ -121,6 +149,30 @@ internal sealed class SpaceChargeGrid
 
     /// <summary>Control volume of node i (half of each neighbouring interval), nm.</summary>
     internal double[] Volume { get; }
+
+    /// <summary>Half the width of the interval before node i, nm (0 at a closed domain's left end).</summary>
+    internal double[] HalfBefore { get; }
+
+    /// <summary>Half the width of the interval after node i, nm (0 at a closed domain's right end).</summary>
+    internal double[] HalfAfter { get; }
+
+    /// <summary>The interval before node i (any valid index where <see cref="HalfBefore"/> is 0).</summary>
+    internal int[] IntervalBefore { get; }
+
+    /// <summary>The interval after node i (any valid index where <see cref="HalfAfter"/> is 0).</summary>
+    internal int[] IntervalAfter { get; }
+
+    /// <summary>The neighbouring node before node i (itself where there is none).</summary>
+    internal int[] NodeBefore { get; }
+
+    /// <summary>The neighbouring node after node i (itself where there is none).</summary>
+    internal int[] NodeAfter { get; }
+
+    /// <summary>ε_r/h of the interval before node i, 1/nm (0 where there is none: no flux through a closed end).</summary>
+    internal double[] CouplingBefore { get; }
+
+    /// <summary>ε_r/h of the interval after node i, 1/nm (0 where there is none).</summary>
+    internal double[] CouplingAfter { get; }
 
     /// <summary>Fixed (dopant) charge of the control volume of node i, elementary charges per nm².</summary>
     internal double[] FixedCharge { get; }

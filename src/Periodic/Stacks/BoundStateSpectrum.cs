@@ -24,8 +24,10 @@ namespace Periodic.Stacks;
 /// its own bracket, so none is missed; each is then refined by Brent's method (R. P. Brent, 1973) on the
 /// normalised coefficient of the growing tail in the right lead, which changes sign exactly once in the
 /// bracket.</para>
-/// <para>The count is proven for parabolic layers. With non-parabolic masses the equation becomes
-/// nonlinear in E and the count is used as it stands.</para>
+/// <para>The count is proven for parabolic layers and for smooth segments (Magnus steps, zeros counted in closed form per
+/// step). With non-parabolic masses the equation becomes nonlinear in E and the count is used as it stands. Internally the
+/// same search serves a closed box (hard walls at the stack's ends instead of leads), the domain of a finite stack's space
+/// charge.</para>
 /// </remarks>
 public sealed class BoundStateSpectrum
 {
@@ -71,8 +73,12 @@ public sealed class BoundStateSpectrum
 
     /// <summary>Finds every bound state of <paramref name="stack"/> (energies below both lead band edges).</summary>
     /// <exception cref="ArgumentNullException"><paramref name="stack"/> is null.</exception>
-    /// <exception cref="ArgumentException">The stack has more written-out elements than <see cref="BoundStateOptions.MaxElements"/>,
-    /// or holds an element other than a layer or a delta barrier (a smooth segment; the message names it).</exception>
+    /// <remarks>
+    /// Smooth segments (sampled or function potentials, e.g. a self-consistent potential) are propagated by the kernel's
+    /// fourth-order Magnus steps, whose zeros are counted exactly for the stepped problem, so the count's proof holds for the
+    /// discretised potential; wavefunctions inside a segment are the cubic Hermite interpolants of its steps (O(h⁴)).
+    /// </remarks>
+    /// <exception cref="ArgumentException">The stack has more written-out elements than <see cref="BoundStateOptions.MaxElements"/>.</exception>
     /// <exception cref="ArgumentOutOfRangeException">An option is out of range.</exception>
     public static BoundStateSpectrum Find(LayerStack stack, BoundStateOptions? options = null)
     {
@@ -104,10 +110,18 @@ public sealed class BoundStateSpectrum
         return Find(new StackProfile(stack, options.MaxElements, nameof(stack), bias.ElectronVolts, 0), options);
     }
 
-    internal static BoundStateSpectrum Find(StackProfile profile, BoundStateOptions options)
+    internal static BoundStateSpectrum Find(StackProfile profile, BoundStateOptions options) =>
+        Find(profile, Math.Min(profile.Stack.LeftLead.PotentialElectronVolts, profile.RightLead.PotentialElectronVolts), options);
+
+    /// <summary>
+    /// Every state of a closed box (<see cref="StackProfile.HardWalls"/>) below <paramref name="ceilingElectronVolts"/>, with
+    /// the same proof of completeness (the Dirichlet oscillation count) and refinement as between leads.
+    /// </summary>
+    internal static BoundStateSpectrum FindInBox(StackProfile profile, double ceilingElectronVolts, BoundStateOptions options) =>
+        Find(profile, ceilingElectronVolts, options);
+
+    private static BoundStateSpectrum Find(StackProfile profile, double edge, BoundStateOptions options)
     {
-        var stack = profile.Stack;
-        var edge = Math.Min(stack.LeftLead.PotentialElectronVolts, profile.RightLead.PotentialElectronVolts);
         // Binding energies below 1e-15 eV (relative to max(1, |edge|)) are not resolvable: the count stops there.
         var top = edge - ThresholdMarginElectronVolts * Math.Max(1, Math.Abs(edge));
         var lowestValid = profile.LowestValidEnergyElectronVolts;

@@ -42,18 +42,20 @@ public sealed class BoundWavefunction
         var uR = new double[n + 1];
         var wR = new double[n + 1];
         var lR = new double[n + 1];
+        var walls = profile.HardWalls;
         var kappaLeft = profile.LeftDecay(e);
         var kappaRight = profile.RightDecay(e);
         var mLeft = profile.Stack.LeftLead.MassElectronMasses;
         var mRight = profile.RightLead.MassElectronMasses;
-        double u = 1, w = kappaLeft / mLeft, log = 0;
+        // Between hard walls ψ starts at zero with a unit slope from each end; between leads it decays into them.
+        double u = walls ? 0 : 1, w = walls ? 1 : kappaLeft / mLeft, log = 0;
         uL[0] = u; wL[0] = w; lL[0] = log;
         for (var i = 0; i < n; i++)
         {
             profile.Kernel.StepForward(i, e, ref u, ref w, ref log);
             uL[i + 1] = u; wL[i + 1] = w; lL[i + 1] = log;
         }
-        u = 1; w = -kappaRight / mRight; log = 0;
+        u = walls ? 0 : 1; w = walls ? 1 : -kappaRight / mRight; log = 0;
         uR[n] = u; wR[n] = w; lR[n] = log;
         for (var i = n - 1; i >= 0; i--)
         {
@@ -62,7 +64,7 @@ public sealed class BoundWavefunction
         }
 
         // Join where both pieces are largest: there the eigenfunction itself is largest.
-        var mu = Math.Min(mLeft / kappaLeft, mRight / kappaRight);
+        var mu = walls ? mLeft * StackProfile.WallLengthNanometres : Math.Min(mLeft / kappaLeft, mRight / kappaRight);
         var best = double.NegativeInfinity;
         for (var i = 0; i <= n; i++)
         {
@@ -93,13 +95,22 @@ public sealed class BoundWavefunction
         }
         // Normalisation: tails in closed form, each layer integrated from the end its piece grows away from.
         var logs = new double[n + 2];
-        logs[0] = 2 * (Math.Log(Math.Abs(_u[0])) + _log[0]) - Math.Log(2 * kappaLeft);
-        logs[n + 1] = 2 * (Math.Log(Math.Abs(_u[n])) + _log[n]) - Math.Log(2 * kappaRight);
+        logs[0] = walls ? double.NegativeInfinity : 2 * (Math.Log(Math.Abs(_u[0])) + _log[0]) - Math.Log(2 * kappaLeft);
+        logs[n + 1] = walls ? double.NegativeInfinity : 2 * (Math.Log(Math.Abs(_u[n])) + _log[n]) - Math.Log(2 * kappaRight);
         for (var i = 0; i < n; i++)
         {
             if (profile.IsDelta(i))
             {
                 logs[i + 1] = double.NegativeInfinity;
+                continue;
+            }
+            if (profile.Kernel.IsSegment(i))
+            {
+                // A smooth segment: its Magnus steps, integrated from the end its piece grows away from.
+                var segment = profile.Kernel.Segment(i);
+                logs[i + 1] = i < j
+                    ? segment.LogSquareIntegral(e, uL[i], wL[i], fromLeft: true) + 2 * lL[i]
+                    : segment.LogSquareIntegral(e, uR[i + 1], wR[i + 1], fromLeft: false) + 2 * (lR[i + 1] + logLambda);
                 continue;
             }
             if (!profile.Kernel.IsLayer(i))
@@ -122,7 +133,7 @@ public sealed class BoundWavefunction
             sum += Math.Exp(value - max);
         }
         var logNorm = max + Math.Log(sum);
-        var sign = _u[0] < 0 ? -1.0 : 1.0;
+        var sign = (walls ? _w[0] : _u[0]) < 0 ? -1.0 : 1.0;
         for (var i = 0; i <= n; i++)
         {
             _log[i] -= 0.5 * logNorm;
@@ -130,7 +141,7 @@ public sealed class BoundWavefunction
             _w[i] *= sign;
         }
         _leftPiece = j;
-        LeadProbability = Math.Exp(logs[0] - logNorm) + Math.Exp(logs[n + 1] - logNorm);
+        LeadProbability = walls ? 0 : Math.Exp(logs[0] - logNorm) + Math.Exp(logs[n + 1] - logNorm);
     }
 
     private readonly int _leftPiece;
@@ -205,6 +216,10 @@ public sealed class BoundWavefunction
     {
         var boundaries = _profile.Boundaries;
         var n = _profile.Count;
+        if (_profile.HardWalls && (x <= 0 || x >= boundaries[n]))
+        {
+            return 0;
+        }
         if (x <= 0)
         {
             return _u[0] * Math.Exp(_log[0] + _profile.LeftDecay(_energy) * x);

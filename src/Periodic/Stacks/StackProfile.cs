@@ -54,6 +54,11 @@ internal sealed class StackProfile
                         case DeltaBarrier delta:
                             deltaWellStrength += Math.Max(0, -delta.StrengthElectronVoltNanometres);
                             break;
+                        case IPotentialSegment segment when biasElectronVolts == 0:
+                            // A smooth segment (e.g. a self-consistent potential): the Magnus steps of the kernel count its zeros exactly
+                            // for the sampled problem, so the oscillation count holds as for layers.
+                            vMin = Math.Min(vMin, segment.MinimumPotential.ElectronVolts);
+                            break;
                         default:
                             throw new ArgumentException(
                                 string.Create(CultureInfo.InvariantCulture, $"stack element {i} is of unsupported type {element.GetType().Name}."),
@@ -95,6 +100,19 @@ internal sealed class StackProfile
         DeltaWellStrengthElectronVoltNanometres = deltaWellStrength;
     }
 
+    /// <summary>
+    /// The stack between hard walls at its two ends (ψ = 0 at x = 0 and at its thickness) instead of its leads: a closed box,
+    /// whose every state is bound (the leads' band edges play no part). Zero bias only.
+    /// </summary>
+    internal StackProfile(LayerStack stack, long maxElements, string paramName, bool hardWalls)
+        : this(stack, maxElements, paramName, 0, 0)
+    {
+        HardWalls = hardWalls;
+    }
+
+    /// <summary>True for a closed box (<see cref="StackProfile(LayerStack, long, string, bool)"/>): ψ vanishes at both ends.</summary>
+    internal bool HardWalls { get; }
+
     internal LayerStack Stack { get; }
 
     /// <summary>The stack's elements written out, in order (element i of <see cref="Kernel"/> is Elements[i]).</summary>
@@ -133,6 +151,10 @@ internal sealed class StackProfile
     /// </summary>
     internal int CountBelow(double e, out double mismatch)
     {
+        if (HardWalls)
+        {
+            return CountBelowInBox(e, out mismatch);
+        }
         var mLeft = Stack.LeftLead.MassElectronMasses;
         double u = 1, w = LeftDecay(e) / mLeft, log = 0;
         var zeros = 0;
@@ -151,4 +173,30 @@ internal sealed class StackProfile
         mismatch = scale > 0 && double.IsFinite(scale) ? (u / scale + tail / scale) / Math.Sqrt((u / scale) * (u / scale) + (tail / scale) * (tail / scale)) : 0.0;
         return zeros;
     }
+
+    /// <summary>
+    /// Number of states of the closed box strictly below <paramref name="e"/>: the zeros in (0, L) of the solution with ψ(0) = 0
+    /// (Sturm oscillation theorem for Dirichlet conditions; G. Teschl, Ordinary Differential Equations and Dynamical Systems,
+    /// AMS 2012, ch. 5). The mismatch is ψ(L) over the size of the state there, which changes sign at each level.
+    /// </summary>
+    private int CountBelowInBox(double e, out double mismatch)
+    {
+        double u = 0, w = 1, log = 0;
+        var zeros = 0;
+        for (var i = 0; i < Kernel.Count; i++)
+        {
+            zeros += Kernel.StepForward(i, e, ref u, ref w, ref log);
+        }
+        if (u == 0)
+        {
+            zeros--; // the far wall itself is not in the open interval
+        }
+        var scale = Stack.LeftLead.MassElectronMasses * WallLengthNanometres;
+        var size = Math.Sqrt(u * u + scale * scale * w * w);
+        mismatch = size > 0 && double.IsFinite(size) ? u / size : 0.0;
+        return zeros;
+    }
+
+    /// <summary>A length (nm) that makes m·ψ′/m comparable with ψ in the closed box's mismatch and join: any fixed scale works.</summary>
+    internal const double WallLengthNanometres = 1;
 }

@@ -72,8 +72,7 @@ internal sealed partial class CompiledCell
             case ElementKind.LinearLayer:
                 break;
             default:
-                throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
-                    $"element {i} is a smooth segment; integrals of pairs of states are defined for layers and deltas."), nameof(i));
+                return false; // a smooth segment: no closed form, its steps are integrated by PairQuadrature
         }
         var at = ElementData.Stride * i;
         var width = _data[at + ElementData.Width];
@@ -169,6 +168,15 @@ internal sealed partial class CompiledCell
         {
             return default;
         }
+        if (kernelA._kinds[i] == ElementKind.Segment || kernelB._kinds[i] == ElementKind.Segment)
+        {
+            if (kernelA._kinds[i] != kernelB._kinds[i])
+            {
+                throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
+                    $"element {i} is a smooth segment in one sequence and not in the other; integrals of pairs need the same kind of element."), nameof(i));
+            }
+            return kernelB._segments![i]!.PairIntegrals(kernelA._segments![i]!, ea, a, eb, b);
+        }
         var panels = Math.Max(kernelA.Panels(i, ea, ea), kernelB.Panels(i, eb, eb));
         var count = panels * GaussLegendre.Twenty.Order;
         Span<double> psiA = count <= 512 ? stackalloc double[count] : new double[count];
@@ -184,9 +192,9 @@ internal sealed partial class CompiledCell
     /// <paramref name="upper"/>]: √|s|·h ≤ 3π for every one of them (|s| is largest at an end of the window), so a product of two
     /// turns or grows by at most αh = 6π per panel. The 20-point rule's error is h(αh)^40(20!)⁴/(41·(40!)³) times the size of the
     /// integrand (the Gauss–Legendre remainder, e.g. Abramowitz and Stegun 25.4.30): 1.6e-21 relative at αh = 6π, far below
-    /// rounding; 0 for a delta.
+    /// rounding; 0 for a delta and for a smooth segment (integrated over its own Magnus steps instead).
     /// </summary>
-    internal int Panels(int i, double lower, double upper) => _kinds[i] == ElementKind.Delta
+    internal int Panels(int i, double lower, double upper) => _kinds[i] is ElementKind.Delta or ElementKind.Segment
         ? 0
         : (int)Math.Clamp(Math.Ceiling(Math.Max(Reach(i, lower), Reach(i, upper)) / (3 * Math.PI)), 1, int.MaxValue / 2);
 
@@ -287,6 +295,10 @@ internal sealed partial class CompiledCell
         if (_kinds[i] == ElementKind.Delta)
         {
             return 0;
+        }
+        if (_kinds[i] == ElementKind.Segment)
+        {
+            return _segments![i]!.CumulativeSquare(ea, a, eb, b, start);
         }
         var width = _data[ElementData.Stride * i + ElementData.Width];
         var de = ea - eb;
@@ -449,8 +461,9 @@ internal sealed partial class CompiledCell
                     ? Math.Exp(LogLinearLayerIntegral(i, e, ends.U0, ends.W0, fromLeft: true))
                     : Math.Exp(LogLinearLayerIntegral(i, e, ends.U1, ends.W1, fromLeft: false));
             default:
-                throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
-                    $"element {i} is a smooth segment; integrals of states over it come from Propagate."), nameof(i));
+                return Math.Exp(fromLeft
+                    ? _segments![i]!.LogSquareIntegral(e, ends.U0, ends.W0, fromLeft: true)
+                    : _segments![i]!.LogSquareIntegral(e, ends.U1, ends.W1, fromLeft: false));
         }
     }
 
@@ -476,8 +489,14 @@ internal sealed partial class CompiledCell
                 return forward ? ((m11 * u + m12 * w) * grow, (m21 * u + m22 * w) * grow) : ((m22 * u - m12 * w) * grow, (-m21 * u + m11 * w) * grow);
             }
             default:
-                throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
-                    $"element {i} is a smooth segment; states of pairs are carried across layers and deltas only."), nameof(i));
+            {
+                // A smooth segment: its Magnus steps, renormalised on the way and scaled back (segments are short enough
+                // that the unscaled end values stay in range for the normalised states the optics carry).
+                double log = 0;
+                _segments![i]!.PropagateState(e, ref u, ref w, ref log, forward);
+                var grow = Math.Exp(log);
+                return (u * grow, w * grow);
+            }
         }
     }
 
@@ -497,12 +516,16 @@ internal sealed partial class CompiledCell
         return Math.Sqrt(Math.Abs(s)) * width;
     }
 
-    /// <summary>The mass m(E) of layer <paramref name="i"/> (a linear layer's constant mass), m₀.</summary>
+    /// <summary>The mass m(E) of layer <paramref name="i"/> (a linear layer's constant mass; a smooth segment's mean mass), m₀.</summary>
     internal double MassAt(int i, double e)
     {
         if (_kinds[i] == ElementKind.LinearLayer)
         {
             return _data[ElementData.Stride * i + ElementData.Mass];
+        }
+        if (_kinds[i] == ElementKind.Segment)
+        {
+            return _segments![i]!.MeanMass;
         }
         LayerCoefficients(i, e, out var mass, out _);
         return mass;

@@ -181,6 +181,9 @@ internal sealed partial class CompiledCell
     /// <summary>True when element <paramref name="i"/> is a uniform layer.</summary>
     internal bool IsLayer(int i) => _kinds[i] == ElementKind.Layer;
 
+    /// <summary>True when element <paramref name="i"/> is a smooth segment (Magnus steps).</summary>
+    internal bool IsSegment(int i) => _kinds[i] == ElementKind.Segment;
+
     /// <summary>The Magnus propagator of segment <paramref name="i"/>.</summary>
     internal MagnusSegmentPropagator Segment(int i) => _segments![i]!;
 
@@ -553,6 +556,10 @@ internal sealed partial class CompiledCell
     /// </summary>
     internal double ScaledLayerValue(int i, double e, double u, double w, double t, out double logScale)
     {
+        if (_kinds[i] == ElementKind.Segment)
+        {
+            return _segments![i]!.ScaledValue(e, u, w, t, out logScale);
+        }
         if (_kinds[i] == ElementKind.LinearLayer)
         {
             var at = ElementData.Stride * i;

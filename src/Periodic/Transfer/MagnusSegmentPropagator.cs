@@ -124,14 +124,13 @@ internal sealed class MagnusSegmentPropagator
         for (var j = 0; j < _beta.Length; j++)
         {
             StepMatrix(Mesh, j, energyElectronVolts, out var m11, out var m12, out var m21, out var m22, out _);
-            var (mLeft, mRight) = Mesh.EndMasses(j);
             var h = Mesh.StepWidth(j);
+            var (mLeft, mRight) = Mesh.EndMasses(j);
             double u1 = m11 * u + m12 * w, w1 = m21 * u + m22 * w;
             for (var g = 0; g < rule.Order; g++)
             {
                 var tau = 0.5 + 0.5 * rule.Nodes[g];
-                var basis = Hermite(tau);
-                var psi = basis.H00 * u + basis.H10 * h * (w * mLeft) + basis.H01 * u1 + basis.H11 * h * (w1 * mRight);
+                var psi = Interpolate(h, mLeft, mRight, tau, u, w, u1, w1);
                 var weight = 0.5 * h * rule.Weights[g];
                 var square = psi * psi;
                 norm += weight * square;
@@ -142,6 +141,254 @@ internal sealed class MagnusSegmentPropagator
             x += h;
         }
         return new ElementMoments(norm, first, quartic);
+    }
+
+    /// <summary>
+    /// ψ at offset <paramref name="t"/> inside the segment, divided by e^logScale: for t ≥ +0 from the state (u, w) at its left
+    /// end, stepped forwards to the step that holds x = t; for t ≤ −0 (negative zero included: the right end itself) from the state at its right end, stepped backwards to the
+    /// step that holds x = width + t. Inside the step ψ is the cubic Hermite interpolant of the step's end values, the scheme's
+    /// own O(h⁴) model (as in <see cref="PropagateWithMoments"/>); at a step boundary it is the propagated value itself.
+    /// </summary>
+    internal double ScaledValue(double energyElectronVolts, double u, double w, double t, out double logScale)
+    {
+        var n = _beta.Length;
+        double log = 0;
+        if (!double.IsNegative(t))
+        {
+            double x = 0;
+            for (var j = 0; j < n; j++)
+            {
+                var h = Mesh.StepWidth(j);
+                StepMatrix(Mesh, j, energyElectronVolts, out var m11, out var m12, out var m21, out var m22, out _);
+                double u1 = m11 * u + m12 * w, w1 = m21 * u + m22 * w;
+                if (x + h >= t || j == n - 1)
+                {
+                    logScale = log;
+                    return Interpolate(j, Math.Clamp((t - x) / h, 0, 1), u, w, u1, w1);
+                }
+                (u, w) = (u1, w1);
+                x += h;
+                ScaledProduct.Renormalise(ref u, ref w, ref log);
+            }
+        }
+        else
+        {
+            // Distance from the right end, stepping leftwards: step j spans [−(distance + h), −distance] from that end.
+            double distance = 0;
+            for (var j = n - 1; j >= 0; j--)
+            {
+                var h = Mesh.StepWidth(j);
+                StepMatrix(Mesh, j, energyElectronVolts, out var m11, out var m12, out var m21, out var m22, out _);
+                double u0 = m22 * u - m12 * w, w0 = -m21 * u + m11 * w;
+                if (distance + h >= -t || j == 0)
+                {
+                    logScale = log;
+                    return Interpolate(j, Math.Clamp(1 - (-t - distance) / h, 0, 1), u0, w0, u, w);
+                }
+                (u, w) = (u0, w0);
+                distance += h;
+                ScaledProduct.Renormalise(ref u, ref w, ref log);
+            }
+        }
+        logScale = log;
+        return u;
+    }
+
+    /// <summary>
+    /// ln ∫ψ² over the segment for the state (u, w) given at its left end (<paramref name="fromLeft"/>) or its right end, each
+    /// step integrated by the 8-point Gauss–Legendre rule on the cubic Hermite interpolant of its end values (as
+    /// <see cref="PropagateWithMoments"/>), stepping away from the given end with renormalisation so that nothing overflows.
+    /// </summary>
+    internal double LogSquareIntegral(double energyElectronVolts, double u, double w, bool fromLeft)
+    {
+        var rule = GaussLegendre.Eight;
+        var n = _beta.Length;
+        double log = 0, sum = 0; // sum in units of e^(2·log)
+        for (var k = 0; k < n; k++)
+        {
+            var j = fromLeft ? k : n - 1 - k;
+            StepMatrix(Mesh, j, energyElectronVolts, out var m11, out var m12, out var m21, out var m22, out _);
+            double u0, w0, u1, w1;
+            if (fromLeft)
+            {
+                (u0, w0, u1, w1) = (u, w, m11 * u + m12 * w, m21 * u + m22 * w);
+                (u, w) = (u1, w1);
+            }
+            else
+            {
+                (u0, w0, u1, w1) = (m22 * u - m12 * w, -m21 * u + m11 * w, u, w);
+                (u, w) = (u0, w0);
+            }
+            var h = Mesh.StepWidth(j);
+            for (var g = 0; g < rule.Order; g++)
+            {
+                var psi = Interpolate(j, 0.5 + 0.5 * rule.Nodes[g], u0, w0, u1, w1);
+                sum += 0.5 * h * rule.Weights[g] * psi * psi;
+            }
+            var before = log;
+            ScaledProduct.Renormalise(ref u, ref w, ref log);
+            if (log != before)
+            {
+                sum *= Math.Exp(-2 * (log - before));
+            }
+        }
+        return sum > 0 ? Math.Log(sum) + 2 * log : double.NegativeInfinity;
+    }
+
+    /// <summary>The mass averaged over the segment, m₀ (the mean of its Gauss-node masses, weighted by step width).</summary>
+    internal double MeanMass
+    {
+        get
+        {
+            double beta = 0, width = 0;
+            for (var j = 0; j < _beta.Length; j++)
+            {
+                beta += _beta[j];
+                width += Mesh.StepWidth(j);
+            }
+            return beta / width; // β = h(m₁ + m₂)/2
+        }
+    }
+
+    /// <summary>The lowest and highest step-mean potential of the segment, eV (γ₀ = h(V₁ + V₂)/(2C)).</summary>
+    internal (double Minimum, double Maximum) PotentialRange
+    {
+        get
+        {
+            double low = double.PositiveInfinity, high = double.NegativeInfinity;
+            for (var j = 0; j < _beta.Length; j++)
+            {
+                var v = _gamma0[j] / _gamma1[j]; // γ₁ = h/C
+                low = Math.Min(low, v);
+                high = Math.Max(high, v);
+            }
+            return (low, high);
+        }
+    }
+
+    /// <summary>
+    /// The state with end values <paramref name="ends"/> at every step boundary (Count + 1 values of ψ and ψ′/m, unscaled),
+    /// propagated from the end where it is smaller towards the end where it is larger: in its growing direction, where
+    /// propagation keeps its relative accuracy.
+    /// </summary>
+    internal void StepStates(double energyElectronVolts, in ElementEnds ends, Span<double> u, Span<double> w)
+    {
+        var n = _beta.Length;
+        var scale = MeanMass; // compare ψ with m·ψ′/m·(1 nm)
+        var forward = Math.Max(Math.Abs(ends.U0), scale * Math.Abs(ends.W0)) <= Math.Max(Math.Abs(ends.U1), scale * Math.Abs(ends.W1));
+        if (forward)
+        {
+            (u[0], w[0]) = (ends.U0, ends.W0);
+            for (var j = 0; j < n; j++)
+            {
+                StepMatrix(Mesh, j, energyElectronVolts, out var m11, out var m12, out var m21, out var m22, out _);
+                (u[j + 1], w[j + 1]) = (m11 * u[j] + m12 * w[j], m21 * u[j] + m22 * w[j]);
+            }
+        }
+        else
+        {
+            (u[n], w[n]) = (ends.U1, ends.W1);
+            for (var j = n - 1; j >= 0; j--)
+            {
+                StepMatrix(Mesh, j, energyElectronVolts, out var m11, out var m12, out var m21, out var m22, out _);
+                (u[j], w[j]) = (m22 * u[j + 1] - m12 * w[j + 1], -m21 * u[j + 1] + m11 * w[j + 1]);
+            }
+        }
+    }
+
+    /// <summary>
+    /// ∫ψ_aψ_b, ∫yψ_aψ_b (y from the segment's left end) and ∫ψ_aψ_b′ over the segment for state a of
+    /// <paramref name="segmentA"/> and state b of this segment (two segments with the same steps), each given by its end values:
+    /// per step the cubic Hermite interpolants of the step-boundary states (<see cref="StepStates"/>), the scheme's own O(h⁴)
+    /// model, integrated by the 8-point Gauss–Legendre rule, exact for these polynomials of degree at most 7.
+    /// </summary>
+    internal PairMoments PairIntegrals(MagnusSegmentPropagator segmentA, double ea, in ElementEnds a, double eb, in ElementEnds b)
+    {
+        var n = _beta.Length;
+        var ua = new double[n + 1];
+        var wa = new double[n + 1];
+        var ub = new double[n + 1];
+        var wb = new double[n + 1];
+        segmentA.StepStates(ea, a, ua, wa);
+        StepStates(eb, b, ub, wb);
+        var rule = GaussLegendre.Eight;
+        double overlap = 0, moment = 0, momentum = 0, x = 0;
+        for (var j = 0; j < n; j++)
+        {
+            var h = Mesh.StepWidth(j);
+            var (mLeft, mRight) = Mesh.EndMasses(j);
+            for (var g = 0; g < rule.Order; g++)
+            {
+                var tau = 0.5 + 0.5 * rule.Nodes[g];
+                var basis = Hermite(tau);
+                var psiA = segmentA.Interpolate(j, tau, ua[j], wa[j], ua[j + 1], wa[j + 1]);
+                var psiB = Interpolate(j, tau, ub[j], wb[j], ub[j + 1], wb[j + 1]);
+                var slopeB = (basis.D00 * ub[j] + basis.D01 * ub[j + 1]) / h + basis.D10 * (wb[j] * mLeft) + basis.D11 * (wb[j + 1] * mRight);
+                var weight = 0.5 * h * rule.Weights[g];
+                overlap += weight * psiA * psiB;
+                moment += weight * (x + tau * h) * psiA * psiB;
+                momentum += weight * psiA * slopeB;
+            }
+            x += h;
+        }
+        return new PairMoments(overlap, moment, momentum);
+    }
+
+    /// <summary>
+    /// ∫F² over the segment, F(y) = <paramref name="start"/> + ∫₀^y ψ_aψ_b, for two states of this segment: on each step the
+    /// Hermite interpolants (as <see cref="PairIntegrals"/>), the inner integral by the 8-point rule on [0, y] and the outer on the
+    /// step, both exact for these polynomials (F has degree 7 in a step).
+    /// </summary>
+    internal double CumulativeSquare(double ea, in ElementEnds a, double eb, in ElementEnds b, double start)
+    {
+        var n = _beta.Length;
+        var ua = new double[n + 1];
+        var wa = new double[n + 1];
+        var ub = new double[n + 1];
+        var wb = new double[n + 1];
+        StepStates(ea, a, ua, wa);
+        StepStates(eb, b, ub, wb);
+        var rule = GaussLegendre.Eight;
+        double sum = 0, f = start;
+        for (var j = 0; j < n; j++)
+        {
+            var h = Mesh.StepWidth(j);
+            double Product(double tau) =>
+                Interpolate(j, tau, ua[j], wa[j], ua[j + 1], wa[j + 1]) * Interpolate(j, tau, ub[j], wb[j], ub[j + 1], wb[j + 1]);
+            for (var g = 0; g < rule.Order; g++)
+            {
+                var tau = 0.5 + 0.5 * rule.Nodes[g];
+                double inner = 0;
+                for (var r = 0; r < rule.Order; r++)
+                {
+                    inner += 0.5 * tau * h * rule.Weights[r] * Product(0.5 * tau * (1 + rule.Nodes[r]));
+                }
+                var value = f + inner;
+                sum += 0.5 * h * rule.Weights[g] * value * value;
+            }
+            for (var r = 0; r < rule.Order; r++)
+            {
+                f += 0.5 * h * rule.Weights[r] * Product(0.5 + 0.5 * rule.Nodes[r]);
+            }
+        }
+        return sum;
+    }
+
+    /// <summary>ψ at τ ∈ [0, 1] of step <paramref name="j"/> from its end states (ψ, ψ′/m): the cubic Hermite interpolant.</summary>
+    private double Interpolate(int j, double tau, double u0, double w0, double u1, double w1)
+    {
+        var (mLeft, mRight) = Mesh.EndMasses(j);
+        return Interpolate(Mesh.StepWidth(j), mLeft, mRight, tau, u0, w0, u1, w1);
+    }
+
+    /// <summary>
+    /// ψ at τ ∈ [0, 1] of a step of width <paramref name="h"/> with end masses <paramref name="mLeft"/>, <paramref name="mRight"/>
+    /// (<see cref="SegmentMesh.EndMasses"/>) from its end states (ψ, ψ′/m): the cubic Hermite interpolant.
+    /// </summary>
+    private static double Interpolate(double h, double mLeft, double mRight, double tau, double u0, double w0, double u1, double w1)
+    {
+        var basis = Hermite(tau);
+        return basis.H00 * u0 + basis.H10 * h * (w0 * mLeft) + basis.H01 * u1 + basis.H11 * h * (w1 * mRight);
     }
 
     /// <summary>

@@ -36,7 +36,7 @@ public sealed class DependencyGraphTest
         ["Serialization"] = ["SpaceCharge", "Stacks", "Properties", "Bands", "PlaneWaves", "Transfer", "Materials", "OpticalLattices", "Structures", "Units", "Numerics"], // doped cells are validated into SpaceCharge.DopedCell
         ["Optics"] = ["Stacks", "Properties", "Bands", "Transfer", "Materials", "Structures", "Units", "Numerics"],
         ["OpticalLattices"] = ["PlaneWaves", "Properties", "Bands", "Transfer", "Structures", "Units", "Numerics"],
-        ["SpaceCharge"] = ["Properties", "Bands", "PlaneWaves", "Transfer", "Structures", "Units", "Numerics"],
+        ["SpaceCharge"] = ["Properties", "Stacks", "Bands", "PlaneWaves", "Transfer", "Structures", "Units", "Numerics"], // finite stacks: states of the closed domain
         ["Design"] = [.. Physics, "Materials", "Optics", "OpticalLattices", "SpaceCharge"],
     };
 

@@ -11,7 +11,7 @@ using Xunit.Abstractions;
 
 namespace Periodic.Tests.SpaceCharge;
 
-public sealed class SpaceChargeSolverTest(ITestOutputHelper output)
+public sealed partial class SpaceChargeSolverTest(ITestOutputHelper output)
 {
     private const double C = PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2;
     private const double KB = PhysicalConstants.BoltzmannElectronVoltsPerKelvin;
@@ -113,13 +113,12 @@ public sealed class SpaceChargeSolverTest(ITestOutputHelper output)
             Assert.Equal(donors, n, 1e-6 * donors); // n = N_D to 1e-6 relative: the k quadrature's error, with margin
         }
         var kT = KB * temperature;
-        var nc = 2 * Math.Pow(mass * kT / (4 * Math.PI * C), 1.5) * 1e21; // cm⁻³ (ħ²/m₀ = 2C)
+        var nc = EffectiveDensityOfStates(mass, kT);
         var eta = result.FermiLevelElectronVolts / kT;
-        // F_{1/2} with t = v² (removes the √t end point, so the rule converges fast): (2/√π)∫₀^√60 2v²/(1 + e^(v² − η)) dv.
-        var fermiIntegral = 2 / Math.Sqrt(Math.PI) * GaussLegendreRule.Integrate(v => 2 * v * v / (1 + Math.Exp(v * v - eta)), 0, Math.Sqrt(60), 256);
-        output.WriteLine($"eta = {eta}, N_c = {nc:E6} cm-3, N_c F(eta) = {nc * fermiIntegral:E10}");
+        var bulk = BulkElectronDensity(mass, kT, eta);
+        output.WriteLine($"eta = {eta}, N_c = {nc:E6} cm-3, N_c F(eta) = {bulk:E10}");
         // The states' quadrature against the 3D integral: 1e-6 relative covers the k quadrature and the 40 kT cutoff (e^-40).
-        Assert.Equal(donors, nc * fermiIntegral, 1e-6 * donors);
+        Assert.Equal(donors, bulk, 1e-6 * donors);
         // Boltzmann: η = ln(N_D/N_c) up to the degeneracy correction N_D/(2^{3/2} N_c) ≈ 1e-3 here (Joyce–Dixon first term, from memory).
         Assert.Equal(Math.Log(donors / nc), eta, 2e-3);
     }
@@ -142,8 +141,7 @@ public sealed class SpaceChargeSolverTest(ITestOutputHelper output)
         var kT = KB * temperature;
         var eta = result.FermiLevelElectronVolts / kT;
         var ionised = donors / (1 + 2 * Math.Exp(eta + binding / kT));
-        var nc = 2 * Math.Pow(mass * kT / (4 * Math.PI * C), 1.5) * 1e21;
-        var bulk = nc * 2 / Math.Sqrt(Math.PI) * GaussLegendreRule.Integrate(v => 2 * v * v / (1 + Math.Exp(v * v - eta)), 0, Math.Sqrt(60), 256);
+        var bulk = BulkElectronDensity(mass, kT, eta);
         output.WriteLine($"eta = {eta}, ionised fraction {ionised / donors}, n = {result.ElectronDensityPerCubicCentimetre[0]:E10}, N_c F = {bulk:E10}");
         Assert.InRange(ionised / donors, 0.2, 0.9); // the statistics matter here: a solver that ignored them would give 1
         // 1e-6 relative: the k quadrature of the folded bands at 30 K (48 nodes per band) and the 40 k_BT cutoff.
@@ -292,6 +290,17 @@ public sealed class SpaceChargeSolverTest(ITestOutputHelper output)
         var error = Assert.Throws<ArgumentOutOfRangeException>(() => SpaceChargeOptions.Create(tolerance, iterations, spacing, nodes));
         Assert.Equal(name, error.ParamName);
     }
+
+    /// <summary>N_c = 2(m k_BT/2πħ²)^{3/2} of a parabolic band, cm⁻³ (ħ²/m₀ = 2C).</summary>
+    private static double EffectiveDensityOfStates(double mass, double kT) => 2 * Math.Pow(mass * kT / (4 * Math.PI * C), 1.5) * 1e21;
+
+    /// <summary>
+    /// n = N_c F_{1/2}(η) of a three-dimensional parabolic band, cm⁻³ (J. S. Blakemore, Semiconductor Statistics, 1962, ch. 3
+    /// [from memory]); F_{1/2} with t = v² (removes the √t end point, so the rule converges fast): (2/√π)∫₀^√60 2v²/(1 + e^(v² − η)) dv
+    /// by MathNet's Gauss–Legendre rule.
+    /// </summary>
+    private static double BulkElectronDensity(double mass, double kT, double eta) => EffectiveDensityOfStates(mass, kT)
+        * 2 / Math.Sqrt(Math.PI) * GaussLegendreRule.Integrate(v => 2 * v * v / (1 + Math.Exp(v * v - eta)), 0, Math.Sqrt(60), 256);
 
     private sealed class SynchronousProgress(List<SpaceChargeProgress> reports) : IProgress<SpaceChargeProgress>
     {

@@ -18,6 +18,8 @@ namespace Periodic.Tests.TestHelpers;
 /// differences with periodic rows, Newton's method with the local-shift density estimate (A. Trellakis et al., J. Appl.
 /// Phys. 81, 7880 (1997)) solved by MathNet's dense LU; μ by bisection on neutrality. Gauge: zero mean of U on the grid.
 /// Second order in h (R. J. LeVeque, Finite Difference Methods for ODEs and PDEs, SIAM 2007, ch. 2).
+/// Closed (a finite stack with lead buffers): ψ = 0 at both ends (one real symmetric matrix of the interior nodes, no Bloch
+/// phase), Poisson with no flux through the ends (half control volumes there), the gauge U = 0 at the left end.
 /// </summary>
 internal sealed class FiniteDifferenceSchrodingerPoisson
 {
@@ -26,8 +28,9 @@ internal sealed class FiniteDifferenceSchrodingerPoisson
 
     internal sealed record LayerSpec(double Width, double Potential, double Mass, double Permittivity, double NetDopingPerCubicCentimetre, double SheetPerSquareCentimetre);
 
-    internal FiniteDifferenceSchrodingerPoisson(IReadOnlyList<LayerSpec> layers, double h, double temperatureKelvin, int phases, int bands)
+    internal FiniteDifferenceSchrodingerPoisson(IReadOnlyList<LayerSpec> layers, double h, double temperatureKelvin, int phases, int bands, bool closed = false)
     {
+        _closed = closed;
         var mass = new List<double>();
         var potential = new List<double>();
         var eps = new List<double>();
@@ -51,7 +54,9 @@ internal sealed class FiniteDifferenceSchrodingerPoisson
             }
             sheets[start + cells / 2] += layer.SheetPerSquareCentimetre * 1e-14;
         }
-        N = mass.Count;
+        var intervals = mass.Count;
+        N = closed ? intervals + 1 : intervals; // unknowns of Poisson's equation
+        sheets.Add(0);
         H = h;
         _mass = [.. mass];
         _eps = [.. eps];
@@ -59,9 +64,12 @@ internal sealed class FiniteDifferenceSchrodingerPoisson
         _fixed = new double[N];
         for (var i = 0; i < N; i++)
         {
-            var before = (i + N - 1) % N;
-            _band[i] = 0.5 * (potential[before] + potential[i]);
-            _fixed[i] = 0.5 * h * (doping[before] + doping[i]) + sheets[i];
+            // Closed ends have one interval only: there the missing side contributes nothing.
+            var before = closed ? Math.Max(i - 1, 0) : (i + N - 1) % N;
+            var after = closed ? Math.Min(i, intervals - 1) : i;
+            double halfBefore = closed && i == 0 ? 0 : 0.5 * h, halfAfter = closed && i == intervals ? 0 : 0.5 * h;
+            _band[i] = 0.5 * (potential[before] + potential[after]);
+            _fixed[i] = halfBefore * doping[before] + halfAfter * doping[after] + sheets[i];
         }
         _kT = temperatureKelvin * PhysicalConstants.BoltzmannElectronVoltsPerKelvin;
         _phases = phases;
@@ -70,6 +78,7 @@ internal sealed class FiniteDifferenceSchrodingerPoisson
         Density = new double[N];
     }
 
+    private readonly bool _closed;
     private readonly double[] _mass;
     private readonly double[] _eps;
     private readonly double[] _band;
@@ -115,6 +124,11 @@ internal sealed class FiniteDifferenceSchrodingerPoisson
 
     private void ComputeStates()
     {
+        if (_closed)
+        {
+            ComputeBoxStates();
+            return;
+        }
         _states = [];
         LowestEnergy = double.PositiveInfinity;
         for (var j = 0; j < _phases; j++)
@@ -155,6 +169,45 @@ internal sealed class FiniteDifferenceSchrodingerPoisson
             }
             LowestEnergy = Math.Min(LowestEnergy, evd.EigenValues[order[0]].Real);
         }
+    }
+
+    /// <summary>The states of the closed domain: ψ = 0 at nodes 0 and N − 1, the interior nodes a real symmetric matrix.</summary>
+    private void ComputeBoxStates()
+    {
+        _states = [];
+        var inner = N - 2;
+        var m = Matrix<double>.Build.Dense(inner, inner);
+        for (var k = 0; k < inner; k++)
+        {
+            var i = k + 1; // grid node; interval i − 1 before it, interval i after it
+            double left = 1 / _mass[i - 1], right = 1 / _mass[i];
+            m[k, k] = C * (left + right) / (H * H) + _band[i] + Hartree[i];
+            if (k + 1 < inner)
+            {
+                m[k, k + 1] = m[k + 1, k] = -C * right / (H * H);
+            }
+        }
+        var evd = m.Evd(MathNet.Numerics.LinearAlgebra.Symmetricity.Symmetric);
+        var order = Enumerable.Range(0, inner).OrderBy(k => evd.EigenValues[k].Real).Take(_bands).ToArray();
+        foreach (var k in order)
+        {
+            var vector = evd.EigenVectors.Column(k);
+            var density = new double[N];
+            double norm = 0, inverseMass = 0;
+            for (var j = 0; j < inner; j++)
+            {
+                var i = j + 1;
+                density[i] = vector[j] * vector[j];
+                norm += density[i] * H;
+                inverseMass += density[i] * H * 0.5 * (1 / _mass[i - 1] + 1 / _mass[i]);
+            }
+            for (var i = 0; i < N; i++)
+            {
+                density[i] /= norm;
+            }
+            _states.Add((evd.EigenValues[k].Real, norm / inverseMass / (2 * Math.PI * C), density));
+        }
+        LowestEnergy = evd.EigenValues[order[0]].Real;
     }
 
     /// <summary>ln(1 + e^x), by MathNet's accurate ln(1 + y) where e^x is tiny.</summary>
@@ -202,12 +255,25 @@ internal sealed class FiniteDifferenceSchrodingerPoisson
             var residual = MathNet.Numerics.LinearAlgebra.Vector<double>.Build.Dense(N);
             for (var i = 0; i < N; i++)
             {
-                int before = (i + N - 1) % N, after = (i + 1) % N;
-                double left = _eps[before] / H, right = _eps[i] / H;
-                residual[i] = -(right * (u[after] - u[i]) - left * (u[i] - u[before]) - ChargeOverPermittivity * (_fixed[i] - H * density[i]));
+                int before, after;
+                double left, right, volume = H;
+                if (_closed)
+                {
+                    // No flux through the ends: the missing coupling is zero and the control volume half.
+                    (before, after) = (Math.Max(i - 1, 0), Math.Min(i + 1, N - 1));
+                    left = i == 0 ? 0 : _eps[i - 1] / H;
+                    right = i == N - 1 ? 0 : _eps[i] / H;
+                    volume = i == 0 || i == N - 1 ? 0.5 * H : H;
+                }
+                else
+                {
+                    (before, after) = ((i + N - 1) % N, (i + 1) % N);
+                    (left, right) = (_eps[before] / H, _eps[i] / H);
+                }
+                residual[i] = -(right * (u[after] - u[i]) - left * (u[i] - u[before]) - ChargeOverPermittivity * (_fixed[i] - volume * density[i]));
                 jacobian[i, before] += left;
                 jacobian[i, after] += right;
-                jacobian[i, i] += -left - right + ChargeOverPermittivity * H * derivative[i];
+                jacobian[i, i] += -left - right + ChargeOverPermittivity * volume * derivative[i];
             }
             var delta = jacobian.Solve(residual);
             var largest = delta.AbsoluteMaximum();
@@ -218,8 +284,8 @@ internal sealed class FiniteDifferenceSchrodingerPoisson
             }
             if (largest < 1e-13)
             {
-                var mean = u.Average();
-                return [.. u.Select(v => v - mean)];
+                var gauge = _closed ? u[0] : u.Average();
+                return [.. u.Select(v => v - gauge)];
             }
         }
         throw new InvalidOperationException("Newton did not converge in the finite-difference reference");
