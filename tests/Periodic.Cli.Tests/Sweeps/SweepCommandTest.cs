@@ -156,7 +156,7 @@ public sealed partial class SweepCommandTest
         var folder = Folder();
         var spec = Spec(folder, """{"field": "cell[0].width", "values": [4, 5]}""");
         var output = Path.Combine(folder, "o.csv");
-        File.WriteAllText(output + ".journal", "{\"periodicSweepJournal\":1,\"fingerprint\":\"0000\"}\n");
+        File.WriteAllText(output + ".journal", "{\"periodicSweepJournal\":2,\"fingerprint\":\"0000\"}\n");
         var run = ToolRunner.Invoke("sweep", spec, "--out", output);
         Assert.Equal(2, run.ExitCode);
         Assert.Contains("journal of another sweep", run.Stderr);
