@@ -94,20 +94,6 @@ public sealed partial class SweepCommandTest
     }
 
     [Fact]
-    public void Sweep_JournalOfAnEarlierFormat_IsRefusedWithItsReason()
-    {
-        var folder = Folder();
-        var spec = Spec(folder, """{"field": "cell[0].width", "values": [4, 5]}""");
-        var output = Path.Combine(folder, "o.csv");
-        File.WriteAllText(output + ".journal", "{\"periodicSweepJournal\":1,\"fingerprint\":\"0123456789abcdef\",\"shard\":\"0/1\",\"columns\":13}\n{\"d\":0,\"v\":[4]}\n");
-        var run = ToolRunner.Invoke("sweep", spec, "--out", output);
-        Assert.Equal(2, run.ExitCode);
-        Assert.Contains("another version of periodic", run.Stderr);
-        Assert.Contains("Delete it", run.Stderr);
-        Assert.False(File.Exists(output));
-    }
-
-    [Fact]
     public void Sweep_JournalWithAFailedRowAndATornLine_ResumesThemBitForBit()
     {
         // A journal written by hand in the documented format: design 0 finished (with an error holding a comma), design 1
