@@ -5,16 +5,19 @@
 # spent writing output (the journal of finished rows while running plus the final table, from the tool's --verbose
 # timing line). Prints a Markdown table and the ratios; commit it under benchmarks/results/DATE/.
 # Usage: benchmarks/sweep-scaling.sh [repeats] [sweep file]   (a few minutes; needs a free second core: check uptime first)
+# SWEEP_TOOL=path/to/Periodic.Cli.dll measures that build instead of building this checkout (e.g. an older commit's, to
+# compare side by side); SWEEP_ENV="NAME=VALUE" runs the tool with that environment variable set.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 repeats="${1:-3}"
-dotnet build src/Periodic.Cli -c Release -v:q -nologo >/dev/null
-tool="src/Periodic.Cli/bin/Release/net10.0/Periodic.Cli.dll"
+if [ -z "${SWEEP_TOOL:-}" ]; then dotnet build src/Periodic.Cli -c Release -v:q -nologo >/dev/null; fi
+tool="${SWEEP_TOOL:-src/Periodic.Cli/bin/Release/net10.0/Periodic.Cli.dll}"
 spec="${2:-docs/examples/sweeps/scaling-1e5.json}"
 work="$(mktemp -d)"; trap 'rm -rf "$work"' EXIT
 cores="$(nproc)"
 if [ "$cores" -lt 2 ]; then echo "needs at least 2 cores to compare parallel with serial; this machine has $cores" >&2; exit 1; fi
-echo "load before: $(cut -d' ' -f1-3 /proc/loadavg)"
+echo "tool: $tool ${SWEEP_ENV:-}"
+echo "load before: $(cut -d' ' -f1-3 /proc/loadavg); CPU over 2 s: $(top -bn2 -d2 | grep '%Cpu' | tail -1)"
 echo "| run | threads | wall (s) | compute (s) | journal (s) | table (s) | write share |"
 echo "|---|---|---|---|---|---|---|"
 declare -a serial parallel serialWall parallelWall shares
@@ -22,7 +25,7 @@ for r in $(seq "$repeats"); do
     for threads in 1 "$cores"; do
         rm -f "$work/t$threads.csv" "$work/t$threads.csv.journal"
         start=$(date +%s.%N)
-        line=$(dotnet "$tool" sweep "$spec" --threads "$threads" --out "$work/t$threads.csv" --verbose 2>&1 >/dev/null | grep 'designs computed')
+        line=$(env ${SWEEP_ENV:-} dotnet "$tool" sweep "$spec" --threads "$threads" --out "$work/t$threads.csv" --verbose 2>&1 >/dev/null | grep 'designs computed')
         end=$(date +%s.%N)
         # "periodic: N designs computed in C s on T threads; journal written in J s; table written in W s"
         read -r compute journal table < <(sed -E 's/.* computed in ([0-9.]+) s on .* journal written in ([0-9.]+) s; table written in ([0-9.]+) s.*/\1 \2 \3/' <<<"$line")
@@ -39,4 +42,4 @@ for r in $(seq 0 $((repeats - 1))); do
         'BEGIN { printf "run %d: parallel speed-up %.2f x (compute), %.2f x (whole process); write share of the parallel run %.1f %%\n", r, s / p, sw / pw, 100 * w }'
 done
 echo "acceptance: speed-up >= 1.8 x on 2 cores; write share <= 10 %"
-echo "load after: $(cut -d' ' -f1-3 /proc/loadavg)"
+echo "load after: $(cut -d' ' -f1-3 /proc/loadavg); CPU over 2 s: $(top -bn2 -d2 | grep '%Cpu' | tail -1)"

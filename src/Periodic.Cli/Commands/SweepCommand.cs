@@ -50,7 +50,7 @@ internal static partial class SweepCommand
             var mine = Enumerable.Range(0, sweep.DesignCount).Where(d => d % of == index).ToArray();
             var shardText = of == 1 ? null : string.Create(CultureInfo.InvariantCulture, $"{index}/{of}");
             var identity = string.Create(CultureInfo.InvariantCulture,
-                $"{{\"periodicSweepJournal\":1,\"fingerprint\":\"{sweep.Fingerprint}\",\"shard\":\"{index}/{of}\",\"columns\":{runner.Columns.Count}}}");
+                $"{{\"periodicSweepJournal\":{SweepJournal.Format},\"fingerprint\":\"{sweep.Fingerprint}\",\"shard\":\"{index}/{of}\",\"columns\":{runner.Columns.Count}}}");
             var rows = new SweepRow?[sweep.DesignCount];
             using var journal = SweepJournal.Open(outPath, identity, runner.Columns.Count);
             foreach (var row in journal.Done)
@@ -97,13 +97,13 @@ internal static partial class SweepCommand
             var journalSeconds = journalTime.TotalSeconds;
             var tableStart = clock.Elapsed;
             var table = new SweepTable(runner.Columns, sweep.Fingerprint, sweep.DesignCount, shardText, mine.Select(d => rows[d]!).ToArray());
-            table.Write(outPath);
+            table.Write(outPath, workers);
             journal.Complete();
             if (result.GetValue(Common.Verbose))
             {
                 // Where the time went: computing the designs against writing (the journal of finished rows while running, then the table).
                 Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,
-                    $"periodic: {pending.Length} designs computed in {computeSeconds:F3} s on {workers} threads; journal written in {journalSeconds:F3} s; table written in {(clock.Elapsed - tableStart).TotalSeconds:F3} s"));
+                    $"periodic: {pending.Length} designs computed in {computeSeconds:F3} s on {workers} threads; journal written in {journalSeconds:F3} s; table written in {(clock.Elapsed - tableStart).TotalSeconds:F3} s; {(runner.UsesTemplate ? "each design built from the structure read once" : "each design read as a document")}"));
             }
             var failed = table.Rows.Count(r => r.Error is not null);
             Console.Out.WriteLine(string.Create(CultureInfo.InvariantCulture,

@@ -20,6 +20,19 @@ namespace Periodic.Cli.Sweeps;
 /// </summary>
 internal sealed class SweepRunner(SweepSpec spec)
 {
+    /// <summary>
+    /// Set (to any value) to read every design as a document even where <see cref="SweepTemplate"/> applies: the reference
+    /// the short way is tested against.
+    /// </summary>
+    internal const string DocumentPathVariable = "PERIODIC_SWEEP_READ_EVERY_DESIGN";
+
+    // The short way from a design's values to its cell, where the sweep allows it (null: read each design's document).
+    private readonly SweepTemplate? _template =
+        Environment.GetEnvironmentVariable(DocumentPathVariable) is { Length: > 0 } ? null : SweepTemplate.TryCreate(spec);
+
+    /// <summary>True when designs are built from the structure read once rather than each read as a document.</summary>
+    public bool UsesTemplate => _template is not null;
+
     /// <summary>The columns of a row after the design number, with their units.</summary>
     public IReadOnlyList<(string Name, string Unit)> Columns { get; } = BuildColumns(spec);
 
@@ -101,6 +114,11 @@ internal sealed class SweepRunner(SweepSpec spec)
         }
         try
         {
+            if (_template?.TryBuild(parameters) is { } cell)
+            {
+                // Bands only (the template's condition): the same cell as the document would give, solved the same way.
+                return new SweepRow(index, values, EvaluateBands(cell, values, parameters.Length, SensitivityStart));
+            }
             var document = spec.Structure.DeepClone().AsObject();
             for (var j = 0; j < parameters.Length; j++)
             {
@@ -111,7 +129,7 @@ internal sealed class SweepRunner(SweepSpec spec)
             string? error = null;
             if (spec.Bands > 0)
             {
-                error = EvaluateBands(structure, values, k, SensitivityStart);
+                error = EvaluateBands(structure.Cell, values, k, SensitivityStart);
                 k += 6 * spec.Bands;
             }
             var outputs = spec.Outputs;
@@ -173,10 +191,10 @@ internal sealed class SweepRunner(SweepSpec spec)
     }
 
     /// <summary>Band edges, widths, masses and gaps from column <paramref name="k"/> on, and (with sensitivities) the edge derivatives in their own columns.</summary>
-    private string? EvaluateBands(StructureDefinition structure, double?[] values, int k, int sensitivity)
+    private string? EvaluateBands(Periodic.Structures.UnitCell cell, double?[] values, int k, int sensitivity)
     {
         {
-            var solved = BandSolver.Compute(structure.Cell, spec.Bands);
+            var solved = BandSolver.Compute(cell, spec.Bands);
             var bands = solved.Structure;
             var properties = BandProperties.Create(bands);
             for (var n = 1; n <= spec.Bands; n++)

@@ -55,7 +55,9 @@ internal sealed class SweepTable
     }
 
     /// <summary>Writes the table to <paramref name="path"/> through the tool's safe output rules.</summary>
-    public void Write(string path)
+    /// <param name="path">A .csv or .parquet path.</param>
+    /// <param name="maxDegreeOfParallelism">Threads that format CSV rows (-1: all cores); the bytes are the same for any number.</param>
+    public void Write(string path, int maxDegreeOfParallelism = -1)
     {
         var parquet = IsParquet(path, OutputFile.Option);
         OutputFile.WriteAtomically(path, stream =>
@@ -66,40 +68,77 @@ internal sealed class SweepTable
             }
             else
             {
-                WriteCsv(stream);
+                WriteCsv(stream, maxDegreeOfParallelism);
             }
         });
     }
 
-    private void WriteCsv(Stream stream)
+    /// <summary>Rows formatted by one task, then written in order.</summary>
+    private const int RowsPerChunk = 1024;
+
+    private void WriteCsv(Stream stream, int maxDegreeOfParallelism)
     {
-        using var writer = new StreamWriter(stream, new UTF8Encoding(false), 1 << 16, leaveOpen: true) { NewLine = "\n" };
-        writer.Write("design");
+        var header = new StringBuilder("design");
         foreach (var (name, unit) in Columns)
         {
-            writer.Write(',');
-            writer.Write(Csv.Escape($"{name} ({unit})"));
+            header.Append(',').Append(Csv.Escape($"{name} ({unit})"));
         }
-        writer.Write(",error\n");
-        Span<char> number = stackalloc char[32];
-        foreach (var row in Rows)
+        header.Append(",error\n");
+        stream.Write(new UTF8Encoding(false).GetBytes(header.ToString()));
+        // Formatting doubles in shortest round-trip form is most of the work: chunks of rows are formatted to UTF-8 on all
+        // the threads at once, a window of chunks at a time (bounded memory), and written in design order.
+        var threads = maxDegreeOfParallelism > 0 ? maxDegreeOfParallelism : Environment.ProcessorCount;
+        var window = new byte[]?[Math.Max(1, 4 * threads)];
+        var lengths = new int[window.Length];
+        var chunks = (Rows.Count + RowsPerChunk - 1) / RowsPerChunk;
+        var options = new ParallelOptions { MaxDegreeOfParallelism = threads };
+        for (var first = 0; first < chunks; first += window.Length)
         {
-            writer.Write(row.Design.ToString(CultureInfo.InvariantCulture));
+            var count = Math.Min(window.Length, chunks - first);
+            Parallel.For(0, count, options, c => lengths[c] = FormatRows((first + c) * RowsPerChunk, Math.Min(Rows.Count, (first + c + 1) * RowsPerChunk), ref window[c]));
+            for (var c = 0; c < count; c++)
+            {
+                stream.Write(window[c]!, 0, lengths[c]);
+            }
+        }
+    }
+
+    /// <summary>Rows <paramref name="start"/> to <paramref name="end"/> (exclusive) as CSV lines in <paramref name="buffer"/>; returns the byte count.</summary>
+    private int FormatRows(int start, int end, ref byte[]? buffer)
+    {
+        buffer ??= new byte[1 << 16];
+        var length = 0;
+        for (var i = start; i < end; i++)
+        {
+            var row = Rows[i];
+            var error = row.Error is null ? null : Csv.Escape(row.Error);
+            // design, then each value (at most 24 bytes in round-trip form) after its comma, the error, the line break
+            var most = 11 + 25 * row.Values.Length + 1 + (error is null ? 0 : Encoding.UTF8.GetMaxByteCount(error.Length)) + 1;
+            if (buffer.Length - length < most)
+            {
+                Array.Resize(ref buffer, Math.Max(2 * buffer.Length, length + most));
+            }
+            var line = buffer.AsSpan(length);
+            row.Design.TryFormat(line, out var written, default, CultureInfo.InvariantCulture);
+            var k = written;
             foreach (var value in row.Values)
             {
-                writer.Write(',');
-                if (value is { } x && x.TryFormat(number, out var written, "R", CultureInfo.InvariantCulture))
+                line[k++] = (byte)',';
+                if (value is { } x)
                 {
-                    writer.Write(number[..written]);
+                    x.TryFormat(line[k..], out written, "R", CultureInfo.InvariantCulture);
+                    k += written;
                 }
             }
-            writer.Write(',');
-            if (row.Error is not null)
+            line[k++] = (byte)',';
+            if (error is not null)
             {
-                writer.Write(Csv.Escape(row.Error));
+                k += Encoding.UTF8.GetBytes(error, line[k..]);
             }
-            writer.Write('\n');
+            line[k++] = (byte)'\n';
+            length += k;
         }
+        return length;
     }
 
     private async Task WriteParquet(Stream stream)

@@ -150,16 +150,19 @@ public sealed partial class SweepCommandTest
         Assert.False(File.Exists(journal));
     }
 
-    [Fact]
-    public void Sweep_JournalOfAnotherSweep_IsRefused()
+    [Theory]
+    [InlineData("{\"periodicSweepJournal\":2,\"fingerprint\":\"0000\"}\n", "journal of another sweep")]
+    // A journal of the earlier format (JSON rows) says so: this version does not resume it.
+    [InlineData("{\"periodicSweepJournal\":1,\"fingerprint\":\"0123456789abcdef\",\"shard\":\"0/1\",\"columns\":13}\n{\"d\":0,\"v\":[4]}\n", "another version of periodic (another journal format); this version does not resume it. Delete it")]
+    public void Sweep_JournalOfAnotherSweepOrFormat_IsRefused(string journal, string message)
     {
         var folder = Folder();
         var spec = Spec(folder, """{"field": "cell[0].width", "values": [4, 5]}""");
         var output = Path.Combine(folder, "o.csv");
-        File.WriteAllText(output + ".journal", "{\"periodicSweepJournal\":1,\"fingerprint\":\"0000\"}\n");
+        File.WriteAllText(output + ".journal", journal);
         var run = ToolRunner.Invoke("sweep", spec, "--out", output);
         Assert.Equal(2, run.ExitCode);
-        Assert.Contains("journal of another sweep", run.Stderr);
+        Assert.Contains(message, run.Stderr);
         Assert.False(File.Exists(output));
     }
 
