@@ -94,10 +94,17 @@ internal static class DispersionCommand
             {
                 k[i] = K(start + i);
             }
-            // On a long grid every block goes through the inversion, so the output equals EnergiesAt on the whole grid.
+            // On a long grid every block goes through the inversion. The Bloch cosines come from a scalar loop: a short-lived
+            // process pays more for compiling the library's vector cosine than it saves (whole-process measurement,
+            // benchmarks/results/2026-12-03-medium/SUMMARY.md); the energies equal EnergiesAtBlochCosines of Math.Cos(k·d).
             if (Fast)
             {
-                bands.DispersionOf(band).EnergiesAt(k, energies);
+                var d = bands.PeriodNanometres;
+                for (var i = 0; i < k.Length; i++)
+                {
+                    energies[i] = Math.Cos(k[i] * d);
+                }
+                bands.DispersionOf(band).EnergiesAtBlochCosines(energies, energies);
             }
             else
             {

@@ -3,7 +3,6 @@
 
 using System.Globalization;
 using System.Numerics.Tensors;
-using System.Runtime.CompilerServices;
 using Periodic.Numerics;
 
 namespace Periodic.Bands;
@@ -173,8 +172,6 @@ public sealed class BandDispersion
     /// at the same address.
     /// </summary>
     /// <exception cref="ArgumentException">The destination is shorter than the input, or a wavevector is outside the first zone.</exception>
-    // Straight to optimised code: a short-lived process (the command-line tool) evaluates millions of points before tiered compilation would promote it.
-    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public void EnergiesAt(ReadOnlySpan<double> wavevectorsPerNanometre, Span<double> destinationElectronVolts)
     {
         Preconditions.CheckDestination(wavevectorsPerNanometre.Length, destinationElectronVolts.Length, nameof(wavevectorsPerNanometre), nameof(destinationElectronVolts));
@@ -192,14 +189,43 @@ public sealed class BandDispersion
             }
         }
         var output = destinationElectronVolts[..wavevectorsPerNanometre.Length];
-        // x = cos(|k| d); cos is even, so |k| is not needed. A scalar loop rather than TensorPrimitives: the vector
-        // kernels run unoptimised (tier 0) for their first calls, which in a short-lived process costs more than they save.
-        for (var j = 0; j < output.Length; j++)
+        // x = cos(|k| d), vectorised; cos is even, so |k| is not needed. (A short-lived process that evaluates few points pays
+        // more for compiling the vector kernel than it saves: it may form the cosines itself and call EnergiesAtBlochCosines.)
+        TensorPrimitives.Multiply(wavevectorsPerNanometre, _period, output);
+        TensorPrimitives.Cos(output, output);
+        EnergiesAtCosinesInPlace(output);
+    }
+
+    /// <summary>
+    /// Effectively computes <c>destinationElectronVolts[i] = E_n(k)</c> at the Bloch cosines <c>blochCosines[i] = cos(k·d)</c>
+    /// (the dispersion relation's own variable: D(E) = 2 cos kd), for callers that already hold them, e.g. a scalar loop of
+    /// <see cref="Math.Cos"/> in a short-lived process that should not compile the vector kernels <see cref="EnergiesAt"/>
+    /// uses. Bitwise equal to <see cref="EnergiesAt"/> where the cosines are bitwise equal. Does not allocate; every cosine is
+    /// checked before anything is written; in place when both spans start at the same address.
+    /// </summary>
+    /// <exception cref="ArgumentException">The destination is shorter than the input, or a cosine is not a finite number in [−1, 1].</exception>
+    public void EnergiesAtBlochCosines(ReadOnlySpan<double> blochCosines, Span<double> destinationElectronVolts)
+    {
+        Preconditions.CheckDestination(blochCosines.Length, destinationElectronVolts.Length, nameof(blochCosines), nameof(destinationElectronVolts));
+        for (var j = 0; j < blochCosines.Length; j++)
         {
-            output[j] = Math.Cos(wavevectorsPerNanometre[j] * _period);
+            var x = blochCosines[j];
+            if (!(Math.Abs(x) <= 1))
+            {
+                throw new ArgumentOutOfRangeException(nameof(blochCosines), x,
+                    string.Create(CultureInfo.InvariantCulture, $"blochCosines[{j}] must be cos(k·d), a finite number in [-1, 1]; got {Preconditions.Format(x)}."));
+            }
         }
+        var output = destinationElectronVolts[..blochCosines.Length];
+        blochCosines.CopyTo(output);
+        EnergiesAtCosinesInPlace(output);
+    }
+
+    /// <summary>Replaces each Bloch cosine x = cos(kd) of <paramref name="output"/> by E_n at it.</summary>
+    private void EnergiesAtCosinesInPlace(Span<double> output)
+    {
         // Four points per step when they share a piece: their Clenshaw recurrences are independent
-        // chains, which the processor overlaps (one chain alone is latency bound).
+        // chains, which the processor overlaps (one chain alone is latency bound). The vector cosine may exceed 1 by an ulp.
         var i = 0;
         for (; i + 3 < output.Length; i += 4)
         {
@@ -236,7 +262,6 @@ public sealed class BandDispersion
 
     private double EnergyAtCosine(double x) => EnergyInPiece(PieceOf(x), x);
 
-    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private int PieceOf(double x)
     {
         int low = 0, high = _degrees.Length - 1;
@@ -267,7 +292,6 @@ public sealed class BandDispersion
         return Clenshaw(_offsets[piece], degree, t);
     }
 
-    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private double Clenshaw(int offset, int degree, double t)
     {
         var c = _coefficients.AsSpan(offset, degree + 1);
@@ -283,7 +307,6 @@ public sealed class BandDispersion
     }
 
     /// <summary>Clenshaw's recurrence for four arguments at once (per argument the arithmetic of <see cref="Clenshaw"/>).</summary>
-    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private void ClenshawQuad(int offset, int degree, double t0, double t1, double t2, double t3, Span<double> destination)
     {
         var c = _coefficients.AsSpan(offset, degree + 1);

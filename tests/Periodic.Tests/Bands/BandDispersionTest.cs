@@ -3,6 +3,7 @@
 
 using Periodic.Bands;
 using Periodic.Structures;
+using Periodic.Transfer;
 using Periodic.Units;
 
 namespace Periodic.Tests.Bands;
@@ -160,6 +161,48 @@ public sealed class BandDispersionTest
         Assert.All(destination, value => Assert.Equal(0, value));
         Assert.Equal("wavevectorPerNanometre", Assert.Throws<ArgumentOutOfRangeException>(() => dispersion.EnergyAt(double.NaN)).ParamName);
         Assert.Equal("destinationElectronVolts", Assert.Throws<ArgumentException>(() => dispersion.EnergiesAt([0.1, 0.2], new double[1])).ParamName);
+    }
+
+    [Theory]
+    [MemberData(nameof(Cells))]
+    public void EnergiesAtBlochCosines_SolveTheDispersionRelation(double barrierNanometres, double barrierElectronVolts)
+    {
+        // Bloch's theorem for a cell of transfer matrix M: Tr M(E) = 2 cos kd (Kronig and Penney 1931; Ashcroft and Mermin
+        // ch. 8, Problem 1). E_n at a Bloch cosine x must make D(E)/2 = x: |D/2 − x| ≤ |D′/2|·(the inversion's error
+        // estimate) + 1e-13 for the rounding of D. The same energies as EnergiesAt within that estimate (the vector cosine
+        // of EnergiesAt may differ from Math.Cos by an ulp).
+        var bands = BandStructure.Compute(KronigPenney(barrierNanometres, barrierElectronVolts), 3);
+        var transfer = CellTransfer.Create(bands.Cell);
+        var k = Zone(bands.PeriodNanometres, 401);
+        var cosines = k.Select(x => Math.Cos(x * bands.PeriodNanometres)).ToArray();
+        for (var n = 1; n <= 3; n++)
+        {
+            var dispersion = bands.DispersionOf(n);
+            var fromCosines = new double[k.Length];
+            var fromWavevectors = new double[k.Length];
+            dispersion.EnergiesAtBlochCosines(cosines, fromCosines);
+            dispersion.EnergiesAt(k, fromWavevectors);
+            for (var i = 0; i < k.Length; i++)
+            {
+                var value = transfer.Dispersion(fromCosines[i]);
+                Assert.True(Math.Abs(value.Trace / 2 - cosines[i]) <= Math.Abs(value.TraceDerivativePerElectronVolt / 2) * dispersion.ErrorEstimateElectronVolts + 1e-13,
+                    $"band {n}, x = {cosines[i]}: D/2 = {value.Trace / 2}");
+                Assert.Equal(fromWavevectors[i], fromCosines[i], dispersion.ErrorEstimateElectronVolts);
+            }
+        }
+    }
+
+    [Fact]
+    public void EnergiesAtBlochCosines_OutsideUnitInterval_ThrowsBeforeWritingAnything()
+    {
+        var dispersion = BandStructure.Compute(KronigPenney(), 1).DispersionOf(1);
+        var destination = new double[3];
+        var exception = Assert.Throws<ArgumentOutOfRangeException>(() => dispersion.EnergiesAtBlochCosines([0.5, 1.0000001, -0.5], destination));
+        Assert.Equal("blochCosines", exception.ParamName);
+        Assert.Contains("blochCosines[1]", exception.Message);
+        Assert.All(destination, value => Assert.Equal(0, value));
+        Assert.Throws<ArgumentOutOfRangeException>(() => dispersion.EnergiesAtBlochCosines([double.NaN], destination));
+        Assert.Equal("destinationElectronVolts", Assert.Throws<ArgumentException>(() => dispersion.EnergiesAtBlochCosines([0.1, 0.2], new double[1])).ParamName);
     }
 
     [Fact]
