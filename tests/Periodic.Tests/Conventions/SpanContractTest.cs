@@ -112,6 +112,10 @@ public sealed class SpanApi
             new("CellTransfer.TracesVectorized", "energiesElectronVolts", "destination", Fixtures.Transfer.TracesVectorized, e => Fixtures.Transfer.Dispersion(e).Trace, Spread(-0.1, 0.9, 7), double.NaN, tolerance: 1e-11),
             // The batch sums the same Chebyshev series in another order (observed: 2 ulps apart); 1e-15 eV is rounding level at |E| < 1 eV.
             new("BandDispersion.EnergiesAt", "wavevectorsPerNanometre", "destinationElectronVolts", Fixtures.Dispersion.EnergiesAt, Fixtures.Dispersion.EnergyAt, ks, 2 * kMax, tolerance: 1e-15),
+            // The same series at x = cos(kd) given directly; the scalar twin goes back through k = acos(x)/d, whose cosine may
+            // differ from x by an ulp (|dE/dx| ≲ 1 eV here): 1e-15 eV as for EnergiesAt.
+            new("BandDispersion.EnergiesAtBlochCosines", "blochCosines", "destinationElectronVolts", Fixtures.Dispersion.EnergiesAtBlochCosines,
+                x => Fixtures.Dispersion.EnergyAt(Math.Acos(x) / Fixtures.Bands.PeriodNanometres), ks.Select(k => Math.Cos(k * Fixtures.Bands.PeriodNanometres)).ToArray(), 1.5, tolerance: 1e-15),
             new("BlochFunction.Evaluate (real)", "positionsNanometres", "destinationReal", (i, d) => Fixtures.Bloch.Evaluate(i, d, Scratch), x => Fixtures.Bloch.ValueAt(x).Real, positions, double.NaN),
             new("BlochFunction.Evaluate (imaginary)", "positionsNanometres", "destinationImaginary", (i, d) => Fixtures.Bloch.Evaluate(i, Scratch, d), x => Fixtures.Bloch.ValueAt(x).Imaginary, positions, double.NaN),
             // u(x) = e^(−ikx) ψ(x) (Bloch's theorem); the product with e^(−ikx) rounds differently from the library's own: 1e-14 of |ψ| ≲ 1 nm^(−1/2).
