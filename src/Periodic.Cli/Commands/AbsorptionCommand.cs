@@ -54,7 +54,7 @@ internal static class AbsorptionCommand
         command.SetAction(result =>
         {
             var format = Common.Format(result, json, csv);
-            var t = result.GetValue(temperature) ?? 77;
+            var t = result.GetValue(temperature) ?? AbsorptionOptions.DefaultTemperatureKelvin;
             if (!(t >= AbsorptionOptions.MinTemperatureKelvin && t <= AbsorptionOptions.MaxTemperatureKelvin))
             {
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture,
@@ -70,12 +70,12 @@ internal static class AbsorptionCommand
             {
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--density must lie in (0, 1e15] per cm^2; got {nv:R}."));
             }
-            var gamma = result.GetValue(linewidth) ?? 0.005;
+            var gamma = result.GetValue(linewidth) ?? AbsorptionOptions.DefaultLinewidthElectronVolts;
             if (!(gamma > 0 && gamma <= 1))
             {
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--linewidth (FWHM) must lie in (0, 1] eV; got {gamma:R}."));
             }
-            var refractive = result.GetValue(index) ?? 3.3;
+            var refractive = result.GetValue(index) ?? AbsorptionOptions.DefaultRefractiveIndex;
             if (!(refractive >= 1 && refractive <= 10))
             {
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--index must lie in [1, 10]; got {refractive:R}."));
@@ -106,20 +106,13 @@ internal static class AbsorptionCommand
             var structure = Common.LoadStack(result, result.GetValue(file)!, "absorption", result.GetValue(stackOptions.Bias), usesBias: true);
             var stack = stackOptions.Build(result, structure);
             var spectrum = TransitionsCommand.Compute(stack, TransitionsCommand.ChooseBias(result, stackOptions, structure),
-                result.GetValue(continuum) ? new IntersubbandOptions { IncludeQuasiBound = true } : null);
-            var options = new AbsorptionOptions
-            {
-                TemperatureKelvin = t,
-                SheetDensityPerSquareCentimetre = n,
-                FermiLevelElectronVolts = ef,
-                LinewidthElectronVolts = gamma,
-                Shape = result.GetValue(shape) == "gaussian" ? LineShape.Gaussian : LineShape.Lorentzian,
-                RefractiveIndex = refractive,
-                Depolarisation = result.GetValue(depolarisation),
-                RelativePermittivity = eps,
-                PassRepeats = copies,
-            };
-            var absorption = AbsorptionSpectrum.Compute(spectrum, options);
+                result.GetValue(continuum) ? IntersubbandOptions.Create(includeQuasiBound: true) : null);
+            var options = AbsorptionOptions.Create(temperatureKelvin: t, linewidthElectronVolts: gamma,
+                shape: result.GetValue(shape) == "gaussian" ? LineShape.Gaussian : LineShape.Lorentzian, refractiveIndex: refractive,
+                depolarisation: result.GetValue(depolarisation), relativePermittivity: eps, passRepeats: copies);
+            var absorption = n is { } sheetDensity
+                ? AbsorptionSpectrum.Compute(spectrum, sheetDensity, options)
+                : AbsorptionSpectrum.ComputeAtFermiLevel(spectrum, ef!.Value, options);
             var energies = given ?? DefaultGrid(absorption);
             var alpha = new double[energies.Length];
             absorption.Evaluate(energies, alpha);

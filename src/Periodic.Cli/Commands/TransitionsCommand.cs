@@ -157,7 +157,8 @@ internal static class TransitionsCommand
             else
             {
                 var stack = stackOptions.Build(result, structure);
-                var options = new IntersubbandOptions { ReferenceMassElectronMasses = m, IncludeQuasiBound = result.GetValue(continuum), DomainMarginNanometres = d ?? 20 };
+                var options = IntersubbandOptions.Create(referenceMassElectronMasses: m, includeQuasiBound: result.GetValue(continuum),
+                    domainMarginNanometres: d ?? IntersubbandOptions.DefaultDomainMarginNanometres);
                 text = Render(structure, Compute(stack, ChooseBias(result, stackOptions, structure), options), format);
             }
             Common.Emit(text, result.GetValue(output));

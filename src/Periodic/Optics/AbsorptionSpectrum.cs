@@ -80,15 +80,48 @@ public sealed class AbsorptionSpectrum
     /// <summary>The length α is averaged over: the stack thickness, nm.</summary>
     public double ThicknessNanometres => Spectrum.Stack.Thickness.Nanometres;
 
-    /// <summary>Computes the spectrum of <paramref name="spectrum"/> under <paramref name="options"/>.</summary>
-    /// <exception cref="ArgumentNullException">An argument is null.</exception>
-    /// <exception cref="ArgumentException">Neither or both of the density and the Fermi level are given.</exception>
-    /// <exception cref="ArgumentOutOfRangeException">An option is out of range (the message names it).</exception>
-    public static AbsorptionSpectrum Compute(IntersubbandSpectrum spectrum, AbsorptionOptions options)
+    /// <summary>
+    /// Computes the spectrum of <paramref name="spectrum"/> with <paramref name="sheetDensityPerSquareCentimetre"/> electrons
+    /// in the whole stack (summed over its levels; the Fermi level follows from it) under <paramref name="options"/>.
+    /// </summary>
+    /// <param name="spectrum">The levels and transitions.</param>
+    /// <param name="sheetDensityPerSquareCentimetre">Electrons per cm², in (0, 1e15].</param>
+    /// <param name="options">Temperature, line shape and the rest; null for <see cref="AbsorptionOptions.Default"/>.</param>
+    /// <exception cref="ArgumentNullException"><paramref name="spectrum"/> is null.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">The density is out of range.</exception>
+    public static AbsorptionSpectrum Compute(IntersubbandSpectrum spectrum, double sheetDensityPerSquareCentimetre, AbsorptionOptions? options = null)
     {
         ArgumentNullException.ThrowIfNull(spectrum);
-        ArgumentNullException.ThrowIfNull(options);
-        options.Validate(nameof(options));
+        if (!(sheetDensityPerSquareCentimetre > 0 && sheetDensityPerSquareCentimetre <= 1e15))
+        {
+            throw new ArgumentOutOfRangeException(nameof(sheetDensityPerSquareCentimetre), sheetDensityPerSquareCentimetre,
+                $"sheetDensityPerSquareCentimetre must lie in (0, 1e15] per cm²; got {Preconditions.Format(sheetDensityPerSquareCentimetre)}.");
+        }
+        return ComputeCore(spectrum, sheetDensityPerSquareCentimetre, null, options ?? AbsorptionOptions.Default);
+    }
+
+    /// <summary>
+    /// Computes the spectrum of <paramref name="spectrum"/> with its levels filled up to <paramref name="fermiLevelElectronVolts"/>
+    /// under <paramref name="options"/>.
+    /// </summary>
+    /// <param name="spectrum">The levels and transitions.</param>
+    /// <param name="fermiLevelElectronVolts">The Fermi level, eV on the stack's energy scale; finite.</param>
+    /// <param name="options">Temperature, line shape and the rest; null for <see cref="AbsorptionOptions.Default"/>.</param>
+    /// <exception cref="ArgumentNullException"><paramref name="spectrum"/> is null.</exception>
+    /// <exception cref="ArgumentOutOfRangeException">The Fermi level is not finite.</exception>
+    public static AbsorptionSpectrum ComputeAtFermiLevel(IntersubbandSpectrum spectrum, double fermiLevelElectronVolts, AbsorptionOptions? options = null)
+    {
+        ArgumentNullException.ThrowIfNull(spectrum);
+        if (!double.IsFinite(fermiLevelElectronVolts))
+        {
+            throw new ArgumentOutOfRangeException(nameof(fermiLevelElectronVolts), fermiLevelElectronVolts,
+                $"fermiLevelElectronVolts must be finite; got {Preconditions.Format(fermiLevelElectronVolts)}.");
+        }
+        return ComputeCore(spectrum, null, fermiLevelElectronVolts, options ?? AbsorptionOptions.Default);
+    }
+
+    private static AbsorptionSpectrum ComputeCore(IntersubbandSpectrum spectrum, double? sheetDensity, double? givenFermiLevel, AbsorptionOptions options)
+    {
         var kt = PhysicalConstants.BoltzmannElectronVoltsPerKelvin * options.TemperatureKelvin;
         var nb = spectrum.BoundCount;
         var dos = new double[nb]; // per eV per cm²
@@ -106,13 +139,13 @@ public sealed class AbsorptionSpectrum
             return sum;
         }
         double fermiLevel;
-        if (options.FermiLevelElectronVolts is { } given)
+        if (givenFermiLevel is { } given)
         {
             fermiLevel = given;
         }
         else
         {
-            var target = options.SheetDensityPerSquareCentimetre!.Value;
+            var target = sheetDensity!.Value;
             var lo = spectrum.Levels[0].EnergyElectronVolts - 1;
             while (Density(lo) > target)
             {

@@ -123,7 +123,6 @@ public sealed class IntersubbandSpectrum
     {
         ArgumentNullException.ThrowIfNull(stack);
         options ??= IntersubbandOptions.Default;
-        options.Validate(nameof(options));
         var drop = bias.ElectronVolts;
         var bound = drop == 0 ? BoundStateSpectrum.Find(stack, options.BoundStates) : BoundStateSpectrum.FindUnderBias(stack, bias, options.BoundStates);
         if (bound.Levels.Count == 0)

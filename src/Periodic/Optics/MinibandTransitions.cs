@@ -43,10 +43,10 @@ public sealed class MinibandTransitions
         UpperBand = upper;
         _k = k;
         _energy = e2.Zip(e1, (b, a) => b - a).ToArray();
-        Wavevectors = new ReadOnlyCollection<double>(k);
-        LowerEnergies = new ReadOnlyCollection<double>(e1);
-        UpperEnergies = new ReadOnlyCollection<double>(e2);
-        Dipoles = new ReadOnlyCollection<double>(dipole);
+        WavevectorsPerNanometre = new ReadOnlyCollection<double>(k);
+        LowerEnergiesElectronVolts = new ReadOnlyCollection<double>(e1);
+        UpperEnergiesElectronVolts = new ReadOnlyCollection<double>(e2);
+        DipolesNanometres = new ReadOnlyCollection<double>(dipole);
         OrthogonalityError = orthogonality;
         PeriodNanometres = period;
     }
@@ -61,25 +61,28 @@ public sealed class MinibandTransitions
     public double PeriodNanometres { get; }
 
     /// <summary>The k samples, 1/nm, evenly spaced on [0, π/d].</summary>
-    public IReadOnlyList<double> Wavevectors { get; }
+    public IReadOnlyList<double> WavevectorsPerNanometre { get; }
 
     /// <summary>E_lower(k), eV, at each sample.</summary>
-    public IReadOnlyList<double> LowerEnergies { get; }
+    public IReadOnlyList<double> LowerEnergiesElectronVolts { get; }
 
     /// <summary>E_upper(k), eV, at each sample.</summary>
-    public IReadOnlyList<double> UpperEnergies { get; }
+    public IReadOnlyList<double> UpperEnergiesElectronVolts { get; }
 
     /// <summary>|z_12(k)|, nm, at each sample.</summary>
-    public IReadOnlyList<double> Dipoles { get; }
+    public IReadOnlyList<double> DipolesNanometres { get; }
 
     /// <summary>Largest |⟨ψ_1k|ψ_2k⟩_cell| over the samples: the accuracy the Bloch states and integrals reached (exactly 0 in theory).</summary>
     public double OrthogonalityError { get; }
+
+    /// <summary>Default number of k samples of <see cref="Compute"/>.</summary>
+    public const int DefaultPoints = 101;
 
     /// <summary>Computes the transitions from band <paramref name="lowerBand"/> to band <paramref name="upperBand"/> at <paramref name="points"/> k values.</summary>
     /// <exception cref="ArgumentNullException"><paramref name="bands"/> is null.</exception>
     /// <exception cref="ArgumentOutOfRangeException">A band does not exist, the bands are not in order, or points is outside 2 to 100,000.</exception>
     /// <exception cref="ArgumentException">The cell holds an element other than layers and delta barriers.</exception>
-    public static MinibandTransitions Compute(BandStructure bands, int lowerBand = 1, int upperBand = 2, int points = 101)
+    public static MinibandTransitions Compute(BandStructure bands, int lowerBand = 1, int upperBand = 2, int points = DefaultPoints)
     {
         ArgumentNullException.ThrowIfNull(bands);
         Preconditions.CheckRange(lowerBand, 1, bands.Bands.Count - 1);
@@ -195,5 +198,5 @@ public sealed class MinibandTransitions
 
     /// <inheritdoc />
     public override string ToString() => string.Create(CultureInfo.InvariantCulture,
-        $"Miniband transitions {LowerBand} → {UpperBand}: {_k.Length} k values, E_21 from {_energy.Min():G6} to {_energy.Max():G6} eV, |z_12| from {Dipoles.Min():G6} to {Dipoles.Max():G6} nm, orthogonality {OrthogonalityError:G2}");
+        $"Miniband transitions {LowerBand} → {UpperBand}: {_k.Length} k values, E_21 from {_energy.Min():G6} to {_energy.Max():G6} eV, |z_12| from {DipolesNanometres.Min():G6} to {DipolesNanometres.Max():G6} nm, orthogonality {OrthogonalityError:G2}");
 }

@@ -239,11 +239,9 @@ public sealed class PublicApiConventionsTest
     public void OptionsTypes_AreValidatedAtCreation()
     {
         // DEVELOPERS.md, Conventions ("Options"): a sealed class, no public constructor, a static Create that validates and
-        // a static Default; no settable or init-only property (a value is checked once, where it is made). The two optics
-        // records are the known exceptions, listed in CHANGELOG's "Known inconsistencies"; this list may only shrink.
-        string[] notYetMigrated = ["AbsorptionOptions", "IntersubbandOptions"];
+        // a static Default; no settable or init-only property (a value is checked once, where it is made).
         var offenders = new List<string>();
-        foreach (var t in PublicTypes.Where(t => t.Name.EndsWith("Options", StringComparison.Ordinal) && !notYetMigrated.Contains(t.Name)))
+        foreach (var t in PublicTypes.Where(t => t.Name.EndsWith("Options", StringComparison.Ordinal)))
         {
             var create = t.GetMethod("Create", BindingFlags.Public | BindingFlags.Static);
             var defaults = t.GetProperty("Default", BindingFlags.Public | BindingFlags.Static);

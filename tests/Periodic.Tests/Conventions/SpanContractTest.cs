@@ -91,7 +91,7 @@ public sealed class SpanApi
         var mass = EffectiveMass.FromElectronMasses(0.067);
         var absorption = Periodic.Optics.AbsorptionSpectrum.Compute(
             Periodic.Optics.IntersubbandSpectrum.Compute(Optics.IntersubbandSpectrumTest.Well(8, 0.3, 0.067)),
-            new Periodic.Optics.AbsorptionOptions { SheetDensityPerSquareCentimetre = 1e11 });
+            1e11);
         return
         [
             new("AbsorptionSpectrum.Evaluate", "photonEnergiesElectronVolts", "destinationPerCentimetre", absorption.Evaluate, absorption.AbsorptionPerCentimetre, Spread(0.05, 0.3, 7), -0.1),

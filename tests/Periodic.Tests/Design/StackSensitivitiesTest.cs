@@ -206,14 +206,14 @@ public sealed class StackSensitivitiesTest
     public void OfTransition_MatchesRichardsonExtrapolatedDifferences()
     {
         var layers = DoubleWell;
-        var spectrum = IntersubbandSpectrum.Compute(WellStack(layers, out var built), new IntersubbandOptions { BoundStates = TightLevels });
+        var spectrum = IntersubbandSpectrum.Compute(WellStack(layers, out var built), IntersubbandOptions.Create(boundStates: TightLevels));
         Assert.NotEmpty(spectrum.Transitions);
         foreach (var transition in spectrum.Transitions)
         {
             for (var j = 0; j < layers.Length; j++)
             {
                 double Energy(double value) => IntersubbandSpectrum.Compute(WellStack(With(layers, j, LayerQuantity.Width, value), out _),
-                    new IntersubbandOptions { BoundStates = TightLevels }).Transitions.First(t => t.From == transition.From && t.To == transition.To).EnergyElectronVolts;
+                    IntersubbandOptions.Create(boundStates: TightLevels)).Transitions.First(t => t.From == transition.From && t.To == transition.To).EnergyElectronVolts;
                 var numeric = Richardson(Energy, layers[j].W, Step(LayerQuantity.Width, layers[j].W));
                 var exact = StackSensitivities.OfTransition(spectrum, transition, built[j], LayerQuantity.Width)!.Value;
                 // 1e-7 relative, the design-loop bound.
@@ -235,7 +235,7 @@ public sealed class StackSensitivitiesTest
             built = l.Select(x => L(x.W, x.V, x.M)).ToArray();
             return LayerStack.Create(LeadOf(0.2, 0.08), built.Select(x => StackPart.Single(x)), LeadOf(0.2, 0.08));
         }
-        var options = new IntersubbandOptions { BoundStates = TightLevels, Resonances = TightPeaks, IncludeQuasiBound = true, QuasiBoundUpperElectronVolts = 0.4 };
+        var options = IntersubbandOptions.Create(boundStates: TightLevels, resonances: TightPeaks, includeQuasiBound: true, quasiBoundUpperElectronVolts: 0.4);
         var spectrum = IntersubbandSpectrum.Compute(Stack(layers, out var built), options);
         var toQuasiBound = spectrum.Transitions.Where(t => spectrum.Levels[t.To - 1].IsQuasiBound).ToArray();
         Assert.NotEmpty(toQuasiBound);

@@ -19,7 +19,7 @@ public class AbsorptionSpectrumTest
         // One occupied subband: n = (m kT/πħ²) ln(1 + e^{(E_F − E_1)/kT}) with m/(πħ²) = m/(2π C) per eV per nm²
         // (/work/shared/REFERENCES.md, "Space charge" [derived]), solved for E_F in closed form here.
         var spectrum = Well();
-        var absorption = AbsorptionSpectrum.Compute(spectrum, new AbsorptionOptions { TemperatureKelvin = 10, SheetDensityPerSquareCentimetre = 1e11 });
+        var absorption = AbsorptionSpectrum.Compute(spectrum, 1e11, AbsorptionOptions.Create(temperatureKelvin: 10));
         var kt = PhysicalConstants.BoltzmannElectronVoltsPerKelvin * 10;
         var dos = spectrum.Levels[0].MeanMassElectronMasses / (2 * Math.PI * C); // per eV per nm²
         var expected = spectrum.Levels[0].EnergyElectronVolts + kt * Math.Log(Math.Exp(1e11 * 1e-14 / (dos * kt)) - 1);
@@ -34,8 +34,8 @@ public class AbsorptionSpectrumTest
         // Integrated absorption of N oscillators of strength f: ∫α dω = π e² N f / (2 n c ε₀ m) (classical Lorentz oscillator,
         // e.g. M. Fox, Optical Properties of Solids, ch. 2 — from memory), here for the 1 → 2 line: N = Δn/L, m = m*.
         var spectrum = Well();
-        var options = new AbsorptionOptions { TemperatureKelvin = 10, SheetDensityPerSquareCentimetre = 5e11, Shape = LineShape.Gaussian, LinewidthElectronVolts = 0.004 };
-        var absorption = AbsorptionSpectrum.Compute(spectrum, options);
+        var options = AbsorptionOptions.Create(temperatureKelvin: 10, shape: LineShape.Gaussian, linewidthElectronVolts: 0.004);
+        var absorption = AbsorptionSpectrum.Compute(spectrum, 5e11, options);
         var line = absorption.Lines.Single(l => l.From == 1 && l.To == 2);
         var e0 = line.EnergyElectronVolts;
         // Only the 1 → 2 line within ±10 FWHM (the 1 → 3 line is parity forbidden, 2 → 3 is empty at 10 K).
@@ -82,8 +82,7 @@ public class AbsorptionSpectrumTest
     {
         // The depolarisation shift is a blue shift growing with the density (Allen, Tsui, Vinter 1976).
         var spectrum = Well();
-        double Shift(double density) => AbsorptionSpectrum.Compute(spectrum,
-            new AbsorptionOptions { TemperatureKelvin = 10, SheetDensityPerSquareCentimetre = density, Depolarisation = true }).Lines[0].DepolarisationShiftElectronVolts;
+        double Shift(double density) => AbsorptionSpectrum.Compute(spectrum, density, AbsorptionOptions.Create(temperatureKelvin: 10, depolarisation: true)).Lines[0].DepolarisationShiftElectronVolts;
         var low = Shift(1e11);
         var high = Shift(1e12);
         Assert.True(low > 0 && high > low);
@@ -95,12 +94,14 @@ public class AbsorptionSpectrumTest
     public void Compute_BadInput_NamesTheOption()
     {
         var spectrum = Well();
-        var e = Assert.Throws<ArgumentOutOfRangeException>(() => AbsorptionSpectrum.Compute(spectrum, new AbsorptionOptions { SheetDensityPerSquareCentimetre = 1e11, LinewidthElectronVolts = -0.001 }));
-        Assert.Contains("LinewidthElectronVolts", e.Message);
-        e = Assert.Throws<ArgumentOutOfRangeException>(() => AbsorptionSpectrum.Compute(spectrum, new AbsorptionOptions { SheetDensityPerSquareCentimetre = 1e11, TemperatureKelvin = 5000 }));
-        Assert.Contains("TemperatureKelvin", e.Message);
-        var both = Assert.Throws<ArgumentException>(() => AbsorptionSpectrum.Compute(spectrum, new AbsorptionOptions { SheetDensityPerSquareCentimetre = 1e11, FermiLevelElectronVolts = 0.05 }));
-        Assert.Contains("exactly one", both.Message);
+        var e = Assert.Throws<ArgumentOutOfRangeException>(() => AbsorptionOptions.Create(linewidthElectronVolts: -0.001));
+        Assert.Equal("linewidthElectronVolts", e.ParamName);
+        e = Assert.Throws<ArgumentOutOfRangeException>(() => AbsorptionOptions.Create(temperatureKelvin: 5000));
+        Assert.Equal("temperatureKelvin", e.ParamName);
+        e = Assert.Throws<ArgumentOutOfRangeException>(() => AbsorptionSpectrum.Compute(spectrum, -1e11));
+        Assert.Equal("sheetDensityPerSquareCentimetre", e.ParamName);
+        e = Assert.Throws<ArgumentOutOfRangeException>(() => AbsorptionSpectrum.ComputeAtFermiLevel(spectrum, double.NaN));
+        Assert.Equal("fermiLevelElectronVolts", e.ParamName);
     }
 
     [Fact]
@@ -108,8 +109,8 @@ public class AbsorptionSpectrumTest
     {
         // Beer–Lambert: the fraction absorbed by N copies is 1 − (1 − A₁)^N (common practice, no single source).
         var spectrum = Well();
-        var one = AbsorptionSpectrum.Compute(spectrum, new AbsorptionOptions { SheetDensityPerSquareCentimetre = 1e12 });
-        var fifty = AbsorptionSpectrum.Compute(spectrum, new AbsorptionOptions { SheetDensityPerSquareCentimetre = 1e12, PassRepeats = 50 });
+        var one = AbsorptionSpectrum.Compute(spectrum, 1e12);
+        var fifty = AbsorptionSpectrum.Compute(spectrum, 1e12, AbsorptionOptions.Create(passRepeats: 50));
         var e0 = one.Lines[0].EnergyElectronVolts;
         // Rounding of 1 − A₁ and the power: 1e-14.
         Assert.Equal(1 - Math.Pow(1 - one.PassAbsorption(e0), 50), fifty.PassAbsorption(e0), 1e-14);

@@ -49,7 +49,7 @@ public partial class IntersubbandSpectrumTest
         var expectedShift = SecondOrder(2) - SecondOrder(1);
 
         var stack = LayerStack.Create(Lead(v0, mass), Lead(v0, mass), L(barrier, v0, mass), L(width, 0, mass), L(barrier, v0, mass));
-        var options = new IntersubbandOptions { BoundStates = BoundStateOptions.Create(maxLevels: 2) };
+        var options = IntersubbandOptions.Create(boundStates: BoundStateOptions.Create(maxLevels: 2));
         var flat = IntersubbandSpectrum.Compute(stack, options);
         var biased = Biased(stack, field * stack.Thickness.Nanometres, options);
         var shift = biased.Transition(1, 2).EnergyElectronVolts - flat.Transition(1, 2).EnergyElectronVolts;
@@ -73,7 +73,7 @@ public partial class IntersubbandSpectrumTest
         Assert.Equal(3, IntersubbandSpectrum.Compute(stack).BoundCount);
         var bound = Biased(stack, bias);
         Assert.Equal(2, bound.Levels.Count);
-        var open = Biased(stack, bias, new IntersubbandOptions { IncludeQuasiBound = true, QuasiBoundUpperElectronVolts = 0.4 });
+        var open = Biased(stack, bias, IntersubbandOptions.Create(includeQuasiBound: true, quasiBoundUpperElectronVolts: 0.4));
         Assert.Equal(2, open.BoundCount);
         var level = open.Levels[2];
         Assert.True(level.IsQuasiBound);
@@ -121,7 +121,7 @@ public partial class IntersubbandSpectrumTest
     [Fact]
     public void Compute_TwoQuasiBoundLevels_DipoleMatchesTheClosedWell()
     {
-        var spectrum = IntersubbandSpectrum.Compute(LeakyWell(0.06), new IntersubbandOptions { IncludeQuasiBound = true, QuasiBoundUpperElectronVolts = 0.45 });
+        var spectrum = IntersubbandSpectrum.Compute(LeakyWell(0.06), IntersubbandOptions.Create(includeQuasiBound: true, quasiBoundUpperElectronVolts: 0.45));
         Assert.Equal(1, spectrum.BoundCount);
         var reference = FiniteWellReference.Solve(10, 0.5, 0.067);
         var quasi = spectrum.Levels.Where(l => l.IsQuasiBound).ToList();
@@ -145,7 +145,7 @@ public partial class IntersubbandSpectrumTest
     {
         // Under a small bias the resonances of the biased stack (exact Airy layers) and their dipoles on the finite domain move
         // continuously: 1e-5 eV of bias moves them by ≲ 1e-5 (first order, as for the bound levels above).
-        var options = new IntersubbandOptions { IncludeQuasiBound = true, QuasiBoundUpperElectronVolts = 0.45 };
+        var options = IntersubbandOptions.Create(includeQuasiBound: true, quasiBoundUpperElectronVolts: 0.45);
         var flat = IntersubbandSpectrum.Compute(LeakyWell(0.06), options);
         var biased = Biased(LeakyWell(0.06), 1e-5, options);
         Assert.Equal(flat.Levels.Count, biased.Levels.Count);

@@ -59,7 +59,7 @@ public partial class IntersubbandSpectrumTest
     {
         var lead = Lead(0.3, 0.067);
         var segments = LayerStack.Create(lead, lead, Flat(6, 0, 0.067));
-        var error = Assert.Throws<ArgumentException>(() => IntersubbandSpectrum.Compute(segments, new IntersubbandOptions { IncludeQuasiBound = true }));
+        var error = Assert.Throws<ArgumentException>(() => IntersubbandSpectrum.Compute(segments, IntersubbandOptions.Create(includeQuasiBound: true)));
         Assert.Equal("options", error.ParamName);
     }
 }

@@ -42,7 +42,7 @@ public partial class IntersubbandSpectrumTest
         foreach (var v0 in new[] { 1e4, 1e6 })
         {
             // Only the two lowest of the thousands of levels are needed.
-            var spectrum = IntersubbandSpectrum.Compute(Well(width, v0, mass), new IntersubbandOptions { BoundStates = BoundStateOptions.Create(maxLevels: 2) });
+            var spectrum = IntersubbandSpectrum.Compute(Well(width, v0, mass), IntersubbandOptions.Create(boundStates: BoundStateOptions.Create(maxLevels: 2)));
             var t = spectrum.Transition(1, 2);
             // A finite wall lets ψ leak by 1/κ on each side: the leading correction is of relative order 2/(κL),
             // so allow 3/(κL) (κL ≈ 133 at 10⁴ eV, 1330 at 10⁶ eV).
@@ -237,11 +237,11 @@ public partial class IntersubbandSpectrumTest
     [Fact]
     public void Compute_BadOptions_NameTheOption()
     {
-        var stack = Well(10, 0.3, 0.067);
-        var e = Assert.Throws<ArgumentOutOfRangeException>(() => IntersubbandSpectrum.Compute(stack, new IntersubbandOptions { ReferenceMassElectronMasses = -1 }));
-        Assert.Contains("ReferenceMassElectronMasses", e.Message);
-        e = Assert.Throws<ArgumentOutOfRangeException>(() => IntersubbandSpectrum.Compute(stack, new IntersubbandOptions { DomainMarginNanometres = 0 }));
-        Assert.Contains("DomainMarginNanometres", e.Message);
+        // Checked where the options are made (house style): the exception names the parameter.
+        var e = Assert.Throws<ArgumentOutOfRangeException>(() => IntersubbandOptions.Create(referenceMassElectronMasses: -1));
+        Assert.Equal("referenceMassElectronMasses", e.ParamName);
+        e = Assert.Throws<ArgumentOutOfRangeException>(() => IntersubbandOptions.Create(domainMarginNanometres: 0));
+        Assert.Equal("domainMarginNanometres", e.ParamName);
     }
 
     [Fact]
@@ -252,7 +252,7 @@ public partial class IntersubbandSpectrumTest
         // must hardly change when the margin doubles; a T = 1 peak of a symmetric double barrier (REFERENCES.md) marks it.
         const double mass = 0.067;
         var stack = LayerStack.Create(Lead(0.1, mass), Lead(0.1, mass), L(5, 0.5, mass), L(8, 0, mass), L(5, 0.5, mass));
-        var spectrum = IntersubbandSpectrum.Compute(stack, new IntersubbandOptions { IncludeQuasiBound = true, QuasiBoundUpperElectronVolts = 0.3 });
+        var spectrum = IntersubbandSpectrum.Compute(stack, IntersubbandOptions.Create(includeQuasiBound: true, quasiBoundUpperElectronVolts: 0.3));
         Assert.Equal(1, spectrum.BoundCount);
         var quasi = spectrum.Levels.Where(l => l.IsQuasiBound).ToArray();
         Assert.NotEmpty(quasi);

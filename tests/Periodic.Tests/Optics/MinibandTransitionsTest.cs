@@ -44,7 +44,7 @@ public class MinibandTransitionsTest
         }
         foreach (var i in new[] { 1, 2, 3 })
         {
-            var k = result.Wavevectors[i];
+            var k = result.WavevectorsPerNanometre[i];
             const double delta = 1e-4;
             var u1 = Periodic(1, k);
             var plus = Periodic(2, k + delta);
@@ -69,7 +69,7 @@ public class MinibandTransitionsTest
                 berry += weights[q] * Complex.Conjugate(u1[q]) * derivative;
             }
             // Central difference error O(δ²) ≈ 1e-8 relative; rounding of the difference ≈ 1e-16/δ = 1e-12: 1e-6.
-            Assert.Equal(berry.Magnitude, result.Dipoles[i], 1e-6 * berry.Magnitude);
+            Assert.Equal(berry.Magnitude, result.DipolesNanometres[i], 1e-6 * berry.Magnitude);
         }
         Assert.True(result.OrthogonalityError < 1e-12);
     }
@@ -80,7 +80,7 @@ public class MinibandTransitionsTest
         // Every k in (0, π/d) (and its −k) contributes one transition: ∫g_J dE = (1/π)(π/d) = 1/d [derived].
         var bands = Superlattice();
         var result = MinibandTransitions.Compute(bands, 1, 2, 201);
-        var energies = result.UpperEnergies.Zip(result.LowerEnergies, (b, a) => b - a).ToArray();
+        var energies = result.UpperEnergiesElectronVolts.Zip(result.LowerEnergiesElectronVolts, (b, a) => b - a).ToArray();
         var lo = energies.Min();
         var hi = energies.Max();
         const int steps = 200_000;
