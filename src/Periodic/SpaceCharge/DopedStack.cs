@@ -90,6 +90,11 @@ public sealed class DopedStack
             for (var i = 0; i < given.Count; i++)
             {
                 var doping = copy[p][i] = given[i] ?? throw new ArgumentNullException(nameof(partDoping), string.Create(CultureInfo.InvariantCulture, $"partDoping[{p}][{i}] is null."));
+                if (doping.AcceptorIonisationEnergyElectronVolts is not null)
+                {
+                    throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
+                        $"partDoping[{p}][{i}] gives an acceptor level; the finite-stack model has no valence band (holes are modelled in periodic cells only), so its acceptors are fully ionised: give none."), nameof(partDoping));
+                }
                 switch (elements[i])
                 {
                     case Layer layer when layer.NonParabolicityPerElectronVolt == 0:

@@ -64,28 +64,72 @@ public static partial class SpaceChargeSolver
     {
         ArgumentNullException.ThrowIfNull(cell);
         options ??= SpaceChargeOptions.Default;
-        var grid = new SpaceChargeGrid(cell.Cell.Elements, cell.Doping, periodic: true, options.MaxGridSpacingNanometres, cell.Cell.Period.Nanometres);
+        var valence = cell.ValenceBands;
+        double[]? edges = null;
+        if (valence.Count > 0)
+        {
+            // The first valence band's edge of each layer, on the electron scale: where its acceptor level sits above.
+            var holeElements = valence[0].Cell.Elements;
+            edges = new double[holeElements.Count];
+            for (var e = 0; e < edges.Length; e++)
+            {
+                edges[e] = valence[0].EdgeElectronVolts - ((Layer)holeElements[e]).Potential.ElectronVolts;
+            }
+        }
+        var grid = new SpaceChargeGrid(cell.Cell.Elements, cell.Doping, periodic: true, options.MaxGridSpacingNanometres, cell.Cell.Period.Nanometres, edges);
         var core = new SchrodingerPoisson(grid, cell.Temperature, options);
-        var bands = 1;
-        UnitCell? sampled = null;
         var rule = GaussLegendre.OfOrder(options.WavevectorNodes);
+        // Carrier 0: the electrons; then one per valence band, its potential V_h − U (hole energies count downwards).
+        var carriers = new BlochCarrier[1 + valence.Count];
+        carriers[0] = new BlochCarrier(cell.Cell, false, 0, null, "electron");
+        for (var b = 0; b < valence.Count; b++)
+        {
+            carriers[b + 1] = new BlochCarrier(valence[b].Cell, true, valence[b].EdgeElectronVolts, grid.InverseMassOf(valence[b].Cell.Elements), valence[b].Name);
+        }
         double ComputeStates()
         {
-            sampled = BuildCell(cell.Cell, grid, core.Hartree);
-            return ComputeBlochStates(core, sampled, rule, ref bands, cancellationToken);
+            foreach (var carrier in carriers)
+            {
+                carrier.Sampled = BuildCell(carrier.Rigid, grid, core.Hartree, carrier.IsHole ? -1 : 1);
+            }
+            return ComputeBlochStates(core, carriers, rule, cancellationToken);
         }
-        return core.Iterate(ComputeStates, (iterations, residual, mu) => new SelfConsistentCell(cell, sampled!, options, grid.Positions, core.Hartree,
-            core.Density, mu, core.NeutralityError(), iterations, residual, bands), progress, cancellationToken);
+        return core.Iterate(ComputeStates, (iterations, residual, mu) => new SelfConsistentCell(cell, carriers[0].Sampled!, options, grid.Positions, core.Hartree,
+            core.Density, core.HoleDensity, mu, core.NeutralityError(), iterations, residual, carriers[0].Bands,
+            [.. carriers.Skip(1).Select(c => c.Sampled!)], [.. carriers.Skip(1).Select(c => c.Bands)]), progress, cancellationToken);
+    }
+
+    /// <summary>One carrier of a periodic cell: its rigid cell, its self-consistent cell of the present iteration and the bands it occupies.</summary>
+    private sealed class BlochCarrier(UnitCell rigid, bool isHole, double edge, double[]? inverseMass, string name)
+    {
+        public UnitCell Rigid { get; } = rigid;
+
+        public bool IsHole { get; } = isHole;
+
+        /// <summary>A hole cell's zero on the electron scale, eV.</summary>
+        public double Edge { get; } = edge;
+
+        /// <summary>1/m per grid interval (null: the electrons' own, from the grid).</summary>
+        public double[]? InverseMass { get; } = inverseMass;
+
+        public string Name { get; } = name;
+
+        public UnitCell? Sampled { get; set; }
+
+        /// <summary>Bands in the quadrature (0 until the first iteration; then that of the last one, a starting guess for the next).</summary>
+        public int Bands { get; set; }
+
+        public BandStructure? Structure { get; set; }
     }
 
     /// <summary>The rigid cell with U added: each layer a sampled segment on the grid, delta barriers kept.</summary>
-    private static UnitCell BuildCell(UnitCell rigid, SpaceChargeGrid grid, double[] hartree)
+    private static UnitCell BuildCell(UnitCell rigid, SpaceChargeGrid grid, double[] hartree, double sign = 1)
     {
         var elements = rigid.Elements;
         var built = new CellElement[elements.Count];
         for (var e = 0; e < elements.Count; e++)
         {
-            built[e] = elements[e] is Layer layer ? Sampled(layer, grid, grid.ElementStart[e], grid.ElementEnd[e], hartree, layer.Width.Nanometres) : elements[e];
+            built[e] = elements[e] is Layer layer ? Sampled(layer, grid, grid.ElementStart[e], grid.ElementEnd[e], hartree, layer.Width.Nanometres, sign) : elements[e];
         }
         return UnitCell.Create(built);
     }
@@ -93,8 +137,9 @@ public static partial class SpaceChargeSolver
     /// <summary>
     /// Layer <paramref name="layer"/>'s nodes <paramref name="start"/> … <paramref name="end"/> as a sampled segment of its band
     /// edge plus U (a periodic grid's node N is node 0); <paramref name="width"/>, where given, is the segment's exact width.
+    /// A hole band (<paramref name="sign"/> −1) takes V − U: its energies count downwards.
     /// </summary>
-    internal static SampledSegment Sampled(Layer layer, SpaceChargeGrid grid, int start, int end, double[] hartree, double? width = null)
+    internal static SampledSegment Sampled(Layer layer, SpaceChargeGrid grid, int start, int end, double[] hartree, double? width = null, double sign = 1)
     {
         var x = new double[end - start + 1];
         var v = new double[x.Length];
@@ -102,7 +147,7 @@ public static partial class SpaceChargeSolver
         {
             var node = start + j;
             x[j] = grid.Positions[node] - grid.Positions[start];
-            v[j] = layer.Potential.ElectronVolts + hartree[node == grid.Count ? 0 : node];
+            v[j] = layer.Potential.ElectronVolts + sign * hartree[node == grid.Count ? 0 : node];
         }
         if (width is { } w)
         {
@@ -111,44 +156,67 @@ public static partial class SpaceChargeSolver
         return SampledSegment.Create(x, v, layer.Mass);
     }
 
-    /// <summary>Bloch states of the cell on the quadrature; returns the neutral Fermi level. Adds bands until the next lies above μ + 40 k_BT.</summary>
-    private static double ComputeBlochStates(SchrodingerPoisson core, UnitCell cell, GaussLegendre rule, ref int bands, CancellationToken cancellationToken)
+    /// <summary>
+    /// Bloch states of every carrier on the quadrature; returns the neutral Fermi level. Starts from the first band of each
+    /// carrier and adds the next band of a carrier until it lies more than 40 k_BT beyond μ on the side where that carrier is
+    /// scarce (above μ for electrons, below it for holes).
+    /// </summary>
+    private static double ComputeBlochStates(SchrodingerPoisson core, BlochCarrier[] carriers, GaussLegendre rule, CancellationToken cancellationToken)
     {
-        var count = bands;
-        var structure = BandStructure.Compute(cell, count + 1);
         core.ClearStates();
-        for (var band = 1; ; band++)
+        foreach (var carrier in carriers)
         {
-            if (band > count)
-            {
-                count = band;
-                if (count > MaxOccupiedBands)
-                {
-                    throw new SpaceChargeException(0, double.NaN, string.Create(CultureInfo.InvariantCulture,
-                        $"more than {MaxOccupiedBands} minibands lie below mu + {OccupationCutoff} kT; the doping or temperature is beyond what the quadrature over bands is bounded to"));
-                }
-                structure = BandStructure.Compute(cell, count + 1);
-            }
+            // The last iteration's band count (plus the next band's edge) is computed at once: the count barely changes.
+            carrier.Structure = BandStructure.Compute(carrier.Sampled!, Math.Max(1, carrier.Bands) + 1);
+            carrier.Bands = 0;
             cancellationToken.ThrowIfCancellationRequested();
-            AddBand(core, structure, band, rule);
+            AddBand(core, carrier, 1, rule);
+        }
+        while (true)
+        {
             var mu = core.FermiLevel();
-            if (structure.GetBand(band + 1).BottomElectronVolts >= mu + OccupationCutoff * core.KT)
+            var added = false;
+            foreach (var carrier in carriers)
             {
-                bands = band;
+                var next = carrier.Bands + 1;
+                if (next > carrier.Structure!.Bands.Count)
+                {
+                    carrier.Structure = BandStructure.Compute(carrier.Sampled!, next + 1);
+                }
+                var bottom = carrier.Structure.GetBand(next).BottomElectronVolts;
+                // Electrons: band bottom E above μ; holes: the band's top on the electron scale, edge − E, below μ.
+                var beyond = carrier.IsHole ? bottom - (carrier.Edge - mu) : bottom - mu;
+                if (beyond < OccupationCutoff * core.KT)
+                {
+                    if (next > MaxOccupiedBands)
+                    {
+                        throw new SpaceChargeException(0, double.NaN, string.Create(CultureInfo.InvariantCulture,
+                            $"more than {MaxOccupiedBands} {carrier.Name} minibands lie within {OccupationCutoff} kT of mu; the doping or temperature is beyond what the quadrature over bands is bounded to"));
+                    }
+                    cancellationToken.ThrowIfCancellationRequested();
+                    AddBand(core, carrier, next, rule);
+                    added = true;
+                }
+            }
+            if (!added)
+            {
                 return mu;
             }
         }
     }
 
-    private static void AddBand(SchrodingerPoisson core, BandStructure structure, int band, GaussLegendre rule)
+    private static void AddBand(SchrodingerPoisson core, BlochCarrier carrier, int band, GaussLegendre rule)
     {
+        var structure = carrier.Structure!;
         var d = structure.PeriodNanometres;
         for (var j = 0; j < rule.Order; j++)
         {
             var theta = 0.5 * Math.PI * (1 + rule.Nodes[j]);
             var function = BlochFunction.CreateUnrefined(structure, band, theta / d);
             function.ProbabilityDensities(core.Positions, core.BeginState());
-            core.EndState(function.EnergyElectronVolts, 0.5 * rule.Weights[j]);
+            var energy = carrier.IsHole ? carrier.Edge - function.EnergyElectronVolts : function.EnergyElectronVolts;
+            core.EndState(energy, 0.5 * rule.Weights[j], carrier.IsHole, carrier.InverseMass);
         }
+        carrier.Bands = band;
     }
 }
