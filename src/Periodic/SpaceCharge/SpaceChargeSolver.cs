@@ -116,10 +116,21 @@ public static partial class SpaceChargeSolver
 
         public UnitCell? Sampled { get; set; }
 
-        /// <summary>Bands in the quadrature (0 until the first iteration; then that of the last one, a starting guess for the next).</summary>
+        /// <summary>Bands in the quadrature (0 until the first iteration and while the carrier holds no state; a starting guess for the next iteration).</summary>
         public int Bands { get; set; }
 
         public BandStructure? Structure { get; set; }
+
+        /// <summary>Whether the carrier holds states (see <see cref="ComputeBlochStates"/>).</summary>
+        public bool Active { get; set; }
+
+        /// <summary>How far band <paramref name="band"/>'s edge lies beyond μ on the carrier's own scale, eV (negative: on the occupied side).</summary>
+        public double Beyond(int band, double mu)
+        {
+            var bottom = Structure!.GetBand(band).BottomElectronVolts;
+            // Electrons: band bottom E above μ; holes: the band's top on the electron scale, edge − E, below μ.
+            return IsHole ? bottom - (Edge - mu) : bottom - mu;
+        }
     }
 
     /// <summary>The rigid cell with U added: each layer a sampled segment on the grid, delta barriers kept.</summary>
@@ -157,50 +168,85 @@ public static partial class SpaceChargeSolver
     }
 
     /// <summary>
-    /// Bloch states of every carrier on the quadrature; returns the neutral Fermi level. Starts from the first band of each
-    /// carrier and adds the next band of a carrier until it lies more than 40 k_BT beyond μ on the side where that carrier is
-    /// scarce (above μ for electrons, below it for holes).
+    /// Bloch states of every carrier on the quadrature; returns the neutral Fermi level. A carrier takes part while its lowest
+    /// band (on its own scale: electrons upwards, holes downwards) lies less than 40 k_BT beyond μ; it is dropped once that band
+    /// lies more than 42 k_BT beyond (the margin keeps a carrier at the threshold from flipping), and then holds no state: its
+    /// density, below e^−40 of its band's, counts as zero. A carrier that takes part has every band whose bottom lies less than
+    /// max(40 k_BT, b₁ + 20 k_BT) beyond μ, b₁ its lowest band's distance beyond μ: at least e^−40 for the carriers that set μ,
+    /// and e^−20 relative to its own density for a minority carrier.
     /// </summary>
     private static double ComputeBlochStates(SchrodingerPoisson core, BlochCarrier[] carriers, GaussLegendre rule, CancellationToken cancellationToken)
     {
-        core.ClearStates();
+        var cutoff = OccupationCutoff * core.KT;
         foreach (var carrier in carriers)
         {
             // The last iteration's band count (plus the next band's edge) is computed at once: the count barely changes.
             carrier.Structure = BandStructure.Compute(carrier.Sampled!, Math.Max(1, carrier.Bands) + 1);
-            carrier.Bands = 0;
-            cancellationToken.ThrowIfCancellationRequested();
-            AddBand(core, carrier, 1, rule);
         }
-        while (true)
+        if (!carriers.Any(c => c.Active))
         {
-            var mu = core.FermiLevel();
-            var added = false;
             foreach (var carrier in carriers)
             {
-                var next = carrier.Bands + 1;
-                if (next > carrier.Structure!.Bands.Count)
+                carrier.Active = true;
+            }
+        }
+        for (var restart = 0; ; restart++)
+        {
+            core.ClearStates();
+            foreach (var carrier in carriers)
+            {
+                carrier.Bands = 0;
+                if (carrier.Active)
                 {
-                    carrier.Structure = BandStructure.Compute(carrier.Sampled!, next + 1);
-                }
-                var bottom = carrier.Structure.GetBand(next).BottomElectronVolts;
-                // Electrons: band bottom E above μ; holes: the band's top on the electron scale, edge − E, below μ.
-                var beyond = carrier.IsHole ? bottom - (carrier.Edge - mu) : bottom - mu;
-                if (beyond < OccupationCutoff * core.KT)
-                {
-                    if (next > MaxOccupiedBands)
-                    {
-                        throw new SpaceChargeException(0, double.NaN, string.Create(CultureInfo.InvariantCulture,
-                            $"more than {MaxOccupiedBands} {carrier.Name} minibands lie within {OccupationCutoff} kT of mu; the doping or temperature is beyond what the quadrature over bands is bounded to"));
-                    }
                     cancellationToken.ThrowIfCancellationRequested();
-                    AddBand(core, carrier, next, rule);
-                    added = true;
+                    AddBand(core, carrier, 1, rule);
                 }
             }
-            if (!added)
+            var dropped = false;
+            while (!dropped)
             {
-                return mu;
+                var mu = core.FermiLevel();
+                var added = false;
+                foreach (var carrier in carriers)
+                {
+                    var first = carrier.Beyond(1, mu);
+                    if (!carrier.Active)
+                    {
+                        if (first < cutoff)
+                        {
+                            carrier.Active = true;
+                            AddBand(core, carrier, 1, rule);
+                            added = true;
+                        }
+                        continue;
+                    }
+                    if (first > cutoff + 2 * core.KT && carriers.Count(c => c.Active) > 1 && restart < 2 * carriers.Length)
+                    {
+                        carrier.Active = false;
+                        dropped = true;
+                        break;
+                    }
+                    var next = carrier.Bands + 1;
+                    if (next > carrier.Structure!.Bands.Count)
+                    {
+                        carrier.Structure = BandStructure.Compute(carrier.Sampled!, next + 1);
+                    }
+                    if (carrier.Beyond(next, mu) < Math.Max(cutoff, first + 0.5 * cutoff))
+                    {
+                        if (next > MaxOccupiedBands)
+                        {
+                            throw new SpaceChargeException(0, double.NaN, string.Create(CultureInfo.InvariantCulture,
+                                $"more than {MaxOccupiedBands} {carrier.Name} minibands lie within {OccupationCutoff} kT of mu; the doping or temperature is beyond what the quadrature over bands is bounded to"));
+                        }
+                        cancellationToken.ThrowIfCancellationRequested();
+                        AddBand(core, carrier, next, rule);
+                        added = true;
+                    }
+                }
+                if (!dropped && !added)
+                {
+                    return mu;
+                }
             }
         }
     }
