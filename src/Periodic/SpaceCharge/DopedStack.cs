@@ -18,7 +18,8 @@ namespace Periodic.SpaceCharge;
 /// <remarks>
 /// The self-consistent model (<see cref="SpaceChargeSolver.SolveStack(DopedStack, SpaceChargeOptions?, IProgress{SpaceChargeProgress}?, CancellationToken)"/>)
 /// takes parabolic uniform layers and delta barriers; the carriers are electrons of the single band, so the stack must hold
-/// more donors than acceptors (holes are not modelled).
+/// more donors than acceptors and acceptors cannot have a level (holes are not modelled in finite stacks; periodic cells model
+/// them, <see cref="DopedCell.ValenceBands"/>).
 /// </remarks>
 public sealed class DopedStack
 {

@@ -14,7 +14,7 @@ namespace Periodic.SpaceCharge;
 /// Self-consistent (Schrödinger–Poisson, Hartree) bands of a doped superlattice, and of a finite doped stack between leads at
 /// zero bias (<see cref="SolveStack(DopedStack, SpaceChargeOptions?, IProgress{SpaceChargeProgress}?, CancellationToken)"/>): the electrons of the cell's minibands,
 /// in thermal equilibrium at one Fermi level, and the ionised dopants set the electrostatic potential, which in turn
-/// shapes the minibands.
+/// shapes the minibands; holes of the cell's valence bands, where given, take part at the same Fermi level.
 /// </summary>
 /// <remarks>
 /// <para>Model. Electrons occupy the Bloch states ψ_nk of the cell with potential V(z) + U(z) (V the rigid band edge, U the
@@ -36,10 +36,17 @@ namespace Periodic.SpaceCharge;
 /// the outer loop converge in a handful of iterations where plain potential mixing oscillates. The loop stops when
 /// max|U_new − U⁰| falls below <see cref="SpaceChargeOptions.ToleranceElectronVolts"/>; the result reports the cell,
 /// states, density and Fermi level of U⁰, with that last change as its residual.</para>
+/// <para>Holes: a cell given valence bands (<see cref="DopedCell.ValenceBands"/>) has the holes of each as carriers too, in the
+/// Bloch states of its hole cell with potential V_h − U (hole energies count downwards), each state of electron energy E
+/// holding (m∥/πħ²)·k_BT·ln(1 + e^((E − μ)/k_BT)) holes per area at the same μ; Poisson's equation then has +p, and neutrality
+/// p − n + N_D⁺ − N_A⁻ = 0 fixes μ. A carrier whose lowest band lies more than 42 k_BT beyond μ holds no state (density
+/// zero); one that takes part sums every band within max(40 k_BT, b₁ + 20 k_BT) of μ, b₁ its lowest band's distance.
+/// Single parabolic hole bands: no heavy/light-hole mixing, no split-off band, no strain.</para>
 /// <para>Donors are fully ionised unless their layer gives an ionisation energy (<see cref="LayerDoping.WithDonorIonisationEnergy"/>):
 /// then N_D⁺ = N_D/(1 + 2e^((μ − E_D)/k_BT)) follows the local level E_D = V + U − E_b in the neutrality condition and in
-/// the Newton steps. Not modelled: holes (acceptors are fixed negative charge only, always ionised), exchange and
-/// correlation, bias. Grid error: the Poisson discretisation and the piecewise-linear potential are second order in the
+/// the Newton steps; acceptors likewise with <see cref="LayerDoping.WithAcceptorIonisationEnergy"/>, N_A⁻ = N_A/(1 + 4e^((E_A − μ)/k_BT)),
+/// E_A = E_v + U + E_b. Not modelled: holes of a cell without valence bands and of finite stacks (acceptors are fixed negative
+/// charge there), exchange and correlation, bias. Grid error: the Poisson discretisation and the piecewise-linear potential are second order in the
 /// spacing; measure it by halving <see cref="SpaceChargeOptions.MaxGridSpacingNanometres"/>.</para>
 /// </remarks>
 public static partial class SpaceChargeSolver
