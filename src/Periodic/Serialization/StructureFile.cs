@@ -704,26 +704,21 @@ public static partial class StructureFile
                 }
                 permittivity = value;
             }
-            double? ionisation = null;
-            if (present.TryGetValue("donorIonisationEnergy", out var level))
+            double? Level(string name, double max, string where)
             {
-                var value = ReadRawQuantity(level.Value, path + ".donorIonisationEnergy", EnergyUnits, "eV", "eV, meV");
-                if (!(value >= 0 && value <= LayerDoping.MaxDonorIonisationEnergyElectronVolts))
+                if (!present.TryGetValue(name, out var level))
                 {
-                    throw Error(level.Value, path + ".donorIonisationEnergy", $"must be between 0 and {Format(LayerDoping.MaxDonorIonisationEnergyElectronVolts)} eV (the donor level below the band edge); got {Format(value)} eV. See docs/limits.md.");
+                    return null;
                 }
-                ionisation = value;
-            }
-            double? acceptorIonisation = null;
-            if (present.TryGetValue("acceptorIonisationEnergy", out var acceptorLevel))
-            {
-                var value = ReadRawQuantity(acceptorLevel.Value, path + ".acceptorIonisationEnergy", EnergyUnits, "eV", "eV, meV");
-                if (!(value >= 0 && value <= LayerDoping.MaxAcceptorIonisationEnergyElectronVolts))
+                var value = ReadRawQuantity(level.Value, path + "." + name, EnergyUnits, "eV", "eV, meV");
+                if (!(value >= 0 && value <= max))
                 {
-                    throw Error(acceptorLevel.Value, path + ".acceptorIonisationEnergy", $"must be between 0 and {Format(LayerDoping.MaxAcceptorIonisationEnergyElectronVolts)} eV (the acceptor level above the valence-band edge); got {Format(value)} eV. See docs/limits.md.");
+                    throw Error(level.Value, path + "." + name, $"must be between 0 and {Format(max)} eV ({where}); got {Format(value)} eV. See docs/limits.md.");
                 }
-                acceptorIonisation = value;
+                return value;
             }
+            var ionisation = Level("donorIonisationEnergy", LayerDoping.MaxDonorIonisationEnergyElectronVolts, "the donor level below the band edge");
+            var acceptorIonisation = Level("acceptorIonisationEnergy", LayerDoping.MaxAcceptorIonisationEnergyElectronVolts, "the acceptor level above the valence-band edge");
             return new FileDoping(donors, acceptors, sheet, permittivity, obj, path, ionisation, AcceptorIonisation: acceptorIonisation);
         }
 
