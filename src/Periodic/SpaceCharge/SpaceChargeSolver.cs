@@ -93,6 +93,13 @@ public static partial class SpaceChargeSolver
         {
             carriers[b + 1] = new BlochCarrier(valence[b].Cell, true, valence[b].EdgeElectronVolts, grid.InverseMassOf(valence[b].Cell.Elements), valence[b].Name);
         }
+        // The first iteration starts from the carriers the net doping calls for (both when it is zero); the Fermi level then
+        // adds a minority carrier that matters, so this only saves computing states that would be dropped.
+        var net = cell.NetDonorsPerSquareNanometre;
+        for (var c = 0; c < carriers.Length; c++)
+        {
+            carriers[c].Active = carriers.Length == 1 || net == 0 || (net > 0) != carriers[c].IsHole;
+        }
         double ComputeStates()
         {
             foreach (var carrier in carriers)
@@ -187,8 +194,9 @@ public static partial class SpaceChargeSolver
         var cutoff = OccupationCutoff * core.KT;
         foreach (var carrier in carriers)
         {
-            // The last iteration's band count (plus the next band's edge) is computed at once: the count barely changes.
-            carrier.Structure = BandStructure.Compute(carrier.Sampled!, Math.Max(1, carrier.Bands) + 1);
+            // The last iteration's band count (plus the next band's edge) is computed at once: the count barely changes. A carrier
+            // without states needs only its lowest band's edge.
+            carrier.Structure = BandStructure.Compute(carrier.Sampled!, carrier.Active ? Math.Max(1, carrier.Bands) + 1 : 1);
         }
         if (!carriers.Any(c => c.Active))
         {
