@@ -823,7 +823,7 @@ public static partial class StructureFile
             }
             catch (ArgumentException e) when (holes && e.ParamName == "partDoping")
             {
-                refusal = $"the space charge of the finite stack of {sourceName} is not solved: {Describe(e)} (holes are modelled in periodic cells only); add --no-space-charge for the rigid stack.";
+                refusal = $"the space charge of the finite stack of {sourceName} is not solved: {Describe(e).TrimEnd('.')}; add --no-space-charge for the rigid stack.";
                 return null;
             }
             catch (ArgumentException e)

@@ -124,7 +124,7 @@ public sealed class DopedCell
         if (bands.Length == 0 && !(net > 0))
         {
             throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
-                $"doping must hold more donors than acceptors per period (electrons are the only mobile carriers; holes are not modelled); net donors per period = {net * 1e14:R} /cm2."), nameof(doping));
+                $"doping must hold more donors than acceptors per period (without valence bands electrons are the only mobile carriers and holes are not modelled: give valenceBands for a p-type or compensated cell); net donors per period = {net * 1e14:R} /cm2."), nameof(doping));
         }
         return new DopedCell(cell, copy, temperature, net, bands);
     }

@@ -119,7 +119,7 @@ public sealed class DopedStack
         if (!(net > 0))
         {
             throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
-                $"partDoping must hold more donors than acceptors in the stack (electrons are the only mobile carriers; holes are not modelled); net donors = {net * 1e14:R} /cm2."), nameof(partDoping));
+                $"partDoping must hold more donors than acceptors in the stack (electrons are the only mobile carriers of a finite stack: holes are modelled in periodic cells only); net donors = {net * 1e14:R} /cm2."), nameof(partDoping));
         }
         return new DopedStack(stack, copy, temperature, leftLeadRelativePermittivity, rightLeadRelativePermittivity, net);
     }
