@@ -194,6 +194,10 @@ internal static class Common
                     $"{command}: {source} is {bias:R} eV, but the space charge of a doped structure is solved at zero bias only (bias with space charge is not modelled); give a bias of 0 eV, or add --no-space-charge for the rigid bands under bias."));
             }
         }
+        if (structure.StackSpaceChargeRefusal is { } refusal)
+        {
+            throw new UsageException($"{command}: {Printable(refusal)}");
+        }
         return structure.StackDoping is { } stack
             ? structure.WithSelfConsistentStack(SpaceChargeSolver.SolveStack(stack))
             : structure.WithSelfConsistentCell(SpaceChargeSolver.Solve(structure.Doping!));
@@ -234,6 +238,22 @@ internal static class Common
         {
             writer.WriteNumber("occupiedBands", cell.OccupiedBands);
         }
+        var valence = (solution as SelfConsistentCell)?.Input.ValenceBands ?? [];
+        if (valence.Count > 0)
+        {
+            // Each valence band whose holes are carriers: its name, its edge on the energy scale of the bands, the hole minibands summed.
+            var cellSolution = (SelfConsistentCell)solution;
+            writer.WriteStartArray("valenceBands");
+            for (var b = 0; b < valence.Count; b++)
+            {
+                writer.WriteStartObject();
+                writer.WriteString("name", valence[b].Name);
+                writer.WriteNumber("edge", valence[b].EdgeElectronVolts);
+                writer.WriteNumber("occupiedBands", cellSolution.OccupiedValenceBands[b]);
+                writer.WriteEndObject();
+            }
+            writer.WriteEndArray();
+        }
         writer.WriteNumber("gridSpacing", solution.Options.MaxGridSpacingNanometres);
         if (stack is not null)
         {
@@ -241,12 +261,22 @@ internal static class Common
         }
         writer.WriteString("model", stack is not null
             ? "Hartree (Schrödinger–Poisson) electrons of the finite stack between undoped leads at zero bias: states of the closed domain (stack and lead buffers, hard walls at their outer ends), no field through the ends, neutral domain; no holes, exchange-correlation or bias"
+            : valence.Count > 0
+            ? "Hartree (Schrödinger–Poisson) electrons and holes of the cell's minibands at one Fermi level, holes of each valence band in a single parabolic band (no heavy/light-hole mixing, no split-off band, no strain), dopants fully ionised unless a level is given, periodic boundary conditions; no exchange-correlation or bias"
             : "Hartree (Schrödinger–Poisson) electrons of the cell's minibands, fully ionised dopants, periodic boundary conditions; no holes, exchange-correlation or bias");
         Samples(writer, "hartree", solution.PositionsNanometres, solution.HartreeElectronVolts);
         Samples(writer, "electronDensity", solution.PositionsNanometres, solution.ElectronDensityPerCubicCentimetre);
+        if (valence.Count > 0)
+        {
+            Samples(writer, "holeDensity", solution.PositionsNanometres, solution.HoleDensityPerCubicCentimetre);
+        }
         var units = new List<(string Name, string Unit)> { ("fermiLevel", "eV"), ("residual", "eV"), ("tolerance", "eV"), ("temperature", "K"), ("gridSpacing", "nm") };
         units.AddRange(stack is not null ? [("leadBuffer", "nm"), ("positions", "nm from the rigid stack's left interface")] : [("positions", "nm")]);
         units.AddRange([("hartree", "eV"), ("electronDensity", "cm^-3")]);
+        if (valence.Count > 0)
+        {
+            units.AddRange([("holeDensity", "cm^-3"), ("edge", "eV")]);
+        }
         Units(writer, [.. units]);
         writer.WriteEndObject();
     }
@@ -276,6 +306,8 @@ internal static class Common
         : structure.SelfConsistent is { } sc
         ? string.Create(CultureInfo.InvariantCulture,
             $"Self-consistent (Schrödinger–Poisson) potential at {sc.TemperatureKelvin:G6} K: Fermi level {sc.FermiLevelElectronVolts:F6} eV, {Plural(sc.Iterations, "iteration")}, residual {sc.ResidualElectronVolts:G2} eV, neutrality error {sc.NeutralityError:G2}, Hartree potential from {sc.HartreeElectronVolts.Min() * 1e3:F3} to {sc.HartreeElectronVolts.Max() * 1e3:F3} meV (--no-space-charge: rigid bands)\n")
+            + (sc.Input.ValenceBands.Count == 0 ? "" : string.Create(CultureInfo.InvariantCulture,
+                $"Carriers: electrons up to {sc.ElectronDensityPerCubicCentimetre.Max():G4} cm^-3, holes ({string.Join(", ", sc.Input.ValenceBands.Select(b => b.Name))}; single parabolic bands, no band mixing or strain) up to {sc.HoleDensityPerCubicCentimetre.Max():G4} cm^-3\n"))
         : structure.Doping is not null ? "Doped structure computed with its rigid bands (--no-space-charge).\n" : "";
 
     public static StructureDefinition Load(string path)

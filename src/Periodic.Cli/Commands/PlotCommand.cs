@@ -731,24 +731,36 @@ internal static class PlotCommand
             fermiLabel.LabelFontColor = Colors.DarkOrange;
             var nx = new List<double>();
             var ny = new List<double>();
+            var py = new List<double>();
             for (var p = 0; p < periods; p++)
             {
                 for (var i = 0; i < sc.PositionsNanometres.Count; i++)
                 {
                     nx.Add(p * d + sc.PositionsNanometres[i]);
                     ny.Add(sc.ElectronDensityPerCubicCentimetre[i]);
+                    py.Add(sc.HoleDensityPerCubicCentimetre[i]);
                 }
             }
-            var exponent = (int)Math.Floor(Math.Log10(Math.Max(ny.Max(), 1)));
+            // With holes the right axis holds p(z) too, scaled to the larger of the two (a p-type cell may hold no electrons).
+            var holes = sc.Input.ValenceBands.Count > 0;
+            var largest = Math.Max(ny.Max(), holes ? py.Max() : 0);
+            var exponent = (int)Math.Floor(Math.Log10(Math.Max(largest, 1)));
             var scale = Math.Pow(10, exponent);
             var density = plot.Add.ScatterLine(nx.ToArray(), ny.Select(v => v / scale).ToArray());
             density.Color = Colors.SteelBlue;
             density.LineWidth = 1.5f;
             density.Axes.YAxis = plot.Axes.Right;
-            plot.Axes.Right.Label.Text = string.Create(CultureInfo.InvariantCulture, $"Electron density n(z) (1e{exponent} cm^-3)");
-            plot.Axes.Right.Range.Set(0, 1.1 * ny.Max() / scale);
+            if (holes)
+            {
+                var holeLine = plot.Add.ScatterLine(nx.ToArray(), py.Select(v => v / scale).ToArray());
+                holeLine.Color = Colors.Crimson;
+                holeLine.LineWidth = 1.5f;
+                holeLine.Axes.YAxis = plot.Axes.Right;
+            }
+            plot.Axes.Right.Label.Text = string.Create(CultureInfo.InvariantCulture, $"{(holes ? "Carrier densities n(z), p(z)" : "Electron density n(z)")} (1e{exponent} cm^-3)");
+            plot.Axes.Right.Range.Set(0, 1.1 * Math.Max(largest, 1e-300) / scale);
             plot.Add.Text(string.Create(CultureInfo.InvariantCulture,
-                $"self-consistent potential (Hartree, {sc.TemperatureKelvin:G4} K); blue: n(z), right axis"), 0.01 * periods * d, low + 0.04 * (high - low)).LabelFontSize = 11;
+                $"self-consistent potential (Hartree, {sc.TemperatureKelvin:G4} K); blue: n(z){(holes ? ", red: p(z) (single-band holes)" : "")}, right axis"), 0.01 * periods * d, low + 0.04 * (high - low)).LabelFontSize = 11;
         }
         plot.Axes.SetLimits(-0.02 * periods * d, periods * d * 1.3, low, high);
         plot.Add.Text("shaded: minibands of the infinite superlattice of this cell" + (unit.Note is { } note ? "\n" + note : ""), 0.01 * periods * d, high - 0.02 * (high - low)).LabelFontSize = 12;

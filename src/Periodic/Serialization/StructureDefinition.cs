@@ -60,6 +60,13 @@ public sealed partial class StructureDefinition
     /// </summary>
     public DopedStack? StackDoping { get; internal init; }
 
+    /// <summary>
+    /// Why the space charge of the file's doped stack is not solved although its cell's is, or null: a stack of material layers
+    /// whose holes would matter (no more donors than acceptors, or an acceptor level), which the finite-stack model, electrons
+    /// only, does not take. <see cref="StackDoping"/> is then null; the rigid stack is still available.
+    /// </summary>
+    public string? StackSpaceChargeRefusal { get; internal init; }
+
     /// <summary>The self-consistent solution of the file's stack this structure now carries (from <see cref="WithSelfConsistentStack"/>), or null.</summary>
     public SelfConsistentStack? SelfConsistentStack { get; private init; }
 
@@ -109,6 +116,7 @@ public sealed partial class StructureDefinition
         {
             Doping = Doping,
             SelfConsistent = solution,
+            StackSpaceChargeRefusal = StackSpaceChargeRefusal,
         };
     }
 

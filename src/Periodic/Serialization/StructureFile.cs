@@ -67,7 +67,7 @@ public static partial class StructureFile
 
     private static readonly Dictionary<string, double> NoUnits = new(StringComparer.Ordinal);
 
-    private static readonly string[] DopingFields = ["donors", "acceptors", "sheetDonors", "permittivity", "donorIonisationEnergy"];
+    private static readonly string[] DopingFields = ["donors", "acceptors", "sheetDonors", "permittivity", "donorIonisationEnergy", "acceptorIonisationEnergy"];
 
     private static readonly Dictionary<string, double> InverseEnergyUnits = new(StringComparer.Ordinal)
     {
@@ -267,7 +267,7 @@ public static partial class StructureFile
                 // The cell's layers need their permittivities where the cell is doped or the stack repeats it.
                 var entries = cellDoped || stack?.Parts.Any(p => p.IsRepeatedCell) == true ? BuildEntries(cell, doping, array, kelvin, t.Value) : [];
                 doped = cellDoped ? Apply(array, "cell", () => DopedCell.Create(cell, entries, Temperature.FromKelvin(kelvin))) : null;
-                dopedStack = BuildStackDoping(stack, stackFile, entries, kelvin);
+                dopedStack = BuildStackDoping(stack, stackFile, entries, kelvin, holes: false, out _);
             }
             else if (fields.TryGetValue("temperature", out var stray))
             {
@@ -519,13 +519,48 @@ public static partial class StructureFile
             var (stack, bias, stackFile) = ReadStack(fields, built.Cell, built);
             DopedCell? doped = null;
             DopedStack? dopedStack = null;
+            string? stackRefusal = null;
             if (anyDoping || stackFile?.IsDoped == true)
             {
                 var entries = BuildEntries(built.Cell, materialDoping, array, temperature, t.Value);
-                doped = anyDoping ? Apply(array, "cell", () => DopedCell.Create(built.Cell, entries, Temperature.FromKelvin(temperature))) : null;
-                dopedStack = BuildStackDoping(stack, stackFile, entries, temperature);
+                var valence = anyDoping ? ValenceBands(recipe, built, fields, materialDoping) : [];
+                doped = anyDoping ? Apply(array, "cell", () => DopedCell.Create(built.Cell, entries, Temperature.FromKelvin(temperature), valence)) : null;
+                dopedStack = BuildStackDoping(stack, stackFile, entries, temperature, valence.Length > 0, out stackRefusal);
             }
-            return new StructureDefinition(name, description, built.Cell, labels, sourceName, built, stack, bias) { Doping = doped, StackDoping = dopedStack };
+            return new StructureDefinition(name, description, built.Cell, labels, sourceName, built, stack, bias)
+            {
+                Doping = doped, StackDoping = dopedStack, StackSpaceChargeRefusal = stackRefusal,
+            };
+        }
+
+        /// <summary>
+        /// The valence bands of a doped cell of material layers whose holes are carriers: heavy holes, and light holes, each where
+        /// every layer's material has that mass (single parabolic bands; the hole cell of the same recipe, its zero at the highest
+        /// valence-band edge). A doped cell must be described for electrons; acceptors need at least one valence band.
+        /// </summary>
+        private ValenceBand[] ValenceBands(StructureRecipe recipe, BuiltStructure built, Dictionary<string, JsonTreeProperty> fields, FileDoping?[] doping)
+        {
+            if (recipe.Carrier != Carrier.Electron)
+            {
+                throw Error(fields["carrier"].Value, "carrier",
+                    "must be \"electron\" (the default) in a doped cell: the space-charge model takes the conduction band as the cell and adds the holes of the valence band itself.");
+            }
+            var bands = new List<ValenceBand>();
+            foreach (var (carrier, name) in new[] { (Carrier.HeavyHole, "heavy holes"), (Carrier.LightHole, "light holes") })
+            {
+                if (recipe.Layers.All(l => (carrier == Carrier.HeavyHole ? l.Material.HeavyHoleMass : l.Material.LightHoleMass) is not null))
+                {
+                    var holes = recipe.WithNonParabolicity(false).WithCarrier(carrier).Build();
+                    bands.Add(ValenceBand.Create(holes.Cell, Energy.FromElectronVolts(holes.ReferenceElectronVolts - built.ReferenceElectronVolts), name));
+                }
+            }
+            if (bands.Count == 0 && Array.Find(doping, d => d is not null && (d.Acceptors > 0 || d.AcceptorIonisation is not null)) is { } acceptor)
+            {
+                var material = recipe.Layers.First(l => l.Material.HeavyHoleMass is null).Material;
+                throw Error(acceptor.Node, acceptor.Path + ".acceptors",
+                    $"needs the holes of a valence band, but material {material.Name} has no heavy-hole mass (nor does every material have a light-hole mass): give the material one, or no acceptors.");
+            }
+            return [.. bands];
         }
 
         private Material ReadMaterial(JsonTreeNode node, string path)
@@ -608,12 +643,22 @@ public static partial class StructureFile
         }
 
         /// <summary>The doping fields of one layer as read (volume densities cm⁻³, sheet cm⁻², permittivity), with where they stand.</summary>
-        private sealed record FileDoping(double Donors, double Acceptors, double Sheet, double? Permittivity, JsonTreeNode Node, string Path, double? Ionisation = null, bool Given = true);
+        private sealed record FileDoping(double Donors, double Acceptors, double Sheet, double? Permittivity, JsonTreeNode Node, string Path, double? Ionisation = null,
+            bool Given = true, double? AcceptorIonisation = null)
+        {
+            /// <summary>The layer's <see cref="LayerDoping"/> with permittivity <paramref name="permittivity"/> and its dopant levels.</summary>
+            public LayerDoping ToLayerDoping(double permittivity)
+            {
+                var layerDoping = LayerDoping.Create(Donors, Acceptors, permittivity, Sheet);
+                layerDoping = Ionisation is { } e ? layerDoping.WithDonorIonisationEnergy(Energy.FromElectronVolts(e)) : layerDoping;
+                return AcceptorIonisation is { } a ? layerDoping.WithAcceptorIonisationEnergy(Energy.FromElectronVolts(a)) : layerDoping;
+            }
+        }
 
         /// <summary>
         /// <c>"donors"</c>, <c>"acceptors"</c> (cm⁻³), <c>"sheetDonors"</c> (cm⁻², a donor sheet at the layer's middle) and
-        /// <c>"permittivity"</c> (relative) of one layer; null when the layer gives none of them. A material supplies the
-        /// permittivity when the layer does not.
+        /// <c>"permittivity"</c> (relative) of one layer, and the dopants' levels; null when the layer gives none of them. A material
+        /// supplies the permittivity when the layer does not. Acceptors need the valence band that only a material supplies.
         /// </summary>
         private FileDoping? ReadDoping(JsonTreeObject obj, string path, Material? material)
         {
@@ -621,6 +666,17 @@ public static partial class StructureFile
             if (present.Count == 0)
             {
                 return null;
+            }
+            if (material is null)
+            {
+                foreach (var field in new[] { "acceptors", "acceptorIonisationEnergy" })
+                {
+                    if (present.TryGetValue(field, out var stray))
+                    {
+                        throw ErrorAt(stray.NameOffset, path + "." + field,
+                            "applies only to a layer of a material ({\"material\": \"GaAs\", ...}): acceptors make holes, and a layer given by potential and mass describes the conduction band alone, without the valence band the holes live in.");
+                    }
+                }
             }
             double Density(string name, Dictionary<string, double> units, string unit, string allowed, double max)
             {
@@ -648,17 +704,22 @@ public static partial class StructureFile
                 }
                 permittivity = value;
             }
-            double? ionisation = null;
-            if (present.TryGetValue("donorIonisationEnergy", out var level))
+            double? Level(string name, double max, string where)
             {
-                var value = ReadRawQuantity(level.Value, path + ".donorIonisationEnergy", EnergyUnits, "eV", "eV, meV");
-                if (!(value >= 0 && value <= LayerDoping.MaxDonorIonisationEnergyElectronVolts))
+                if (!present.TryGetValue(name, out var level))
                 {
-                    throw Error(level.Value, path + ".donorIonisationEnergy", $"must be between 0 and {Format(LayerDoping.MaxDonorIonisationEnergyElectronVolts)} eV (the donor level below the band edge); got {Format(value)} eV. See docs/limits.md.");
+                    return null;
                 }
-                ionisation = value;
+                var value = ReadRawQuantity(level.Value, path + "." + name, EnergyUnits, "eV", "eV, meV");
+                if (!(value >= 0 && value <= max))
+                {
+                    throw Error(level.Value, path + "." + name, $"must be between 0 and {Format(max)} eV ({where}); got {Format(value)} eV. See docs/limits.md.");
+                }
+                return value;
             }
-            return new FileDoping(donors, acceptors, sheet, permittivity, obj, path, ionisation);
+            var ionisation = Level("donorIonisationEnergy", LayerDoping.MaxDonorIonisationEnergyElectronVolts, "the donor level below the band edge");
+            var acceptorIonisation = Level("acceptorIonisationEnergy", LayerDoping.MaxAcceptorIonisationEnergyElectronVolts, "the acceptor level above the valence-band edge");
+            return new FileDoping(donors, acceptors, sheet, permittivity, obj, path, ionisation, AcceptorIonisation: acceptorIonisation);
         }
 
         /// <summary>The doping of each cell element of a file with doping: every layer needs a permittivity (its own or its material's).</summary>
@@ -680,11 +741,7 @@ public static partial class StructureFile
                         "is required in every layer of a doped cell whose material does not supply it (a relative permittivity, e.g. 12.9).");
                 }
                 var entry = d!;
-                entries[i] = Apply(entry.Node, entry.Path, () =>
-                {
-                    var layerDoping = LayerDoping.Create(entry.Donors, entry.Acceptors, permittivity.Value, entry.Sheet);
-                    return entry.Ionisation is { } e ? layerDoping.WithDonorIonisationEnergy(Energy.FromElectronVolts(e)) : layerDoping;
-                });
+                entries[i] = Apply(entry.Node, entry.Path, () => entry.ToLayerDoping(permittivity.Value));
             }
             Apply(temperatureNode, "temperature", () => Preconditions.CheckRange(temperatureKelvin, DopedCell.MinTemperatureKelvin, DopedCell.MaxTemperatureKelvin, "temperature"));
             return entries;
@@ -695,8 +752,14 @@ public static partial class StructureFile
         /// (each needs a permittivity, its own or its material's), deltas none; a lead of a material has that material's
         /// permittivity, a lead given by potential and mass the permittivity of the stack's layer beside it. Null without a stack.
         /// </summary>
-        private DopedStack? BuildStackDoping(LayerStack? stack, StackFile? file, LayerDoping[] cellEntries, double temperatureKelvin)
+        /// <remarks>
+        /// With <paramref name="holes"/> (a cell of material layers), a stack the finite-stack model cannot take because its holes
+        /// would matter (no more donors than acceptors, or an acceptor level) is not an error of the file: the cell's commands work,
+        /// and <paramref name="refusal"/> says why the stack's space charge is not solved.
+        /// </remarks>
+        private DopedStack? BuildStackDoping(LayerStack? stack, StackFile? file, LayerDoping[] cellEntries, double temperatureKelvin, bool holes, out string? refusal)
         {
+            refusal = null;
             if (stack is null || file is null)
             {
                 return null;
@@ -722,11 +785,7 @@ public static partial class StructureFile
                     throw Error(entry?.Node ?? file.Node, path + ".permittivity",
                         "is required in every single layer of a doped structure's stack whose material does not supply it (a relative permittivity, e.g. 12.9).");
                 }
-                doping[p] = [Apply(entry.Node, entry.Path, () =>
-                {
-                    var layerDoping = LayerDoping.Create(entry.Donors, entry.Acceptors, permittivity, entry.Sheet);
-                    return entry.Ionisation is { } e ? layerDoping.WithDonorIonisationEnergy(Energy.FromElectronVolts(e)) : layerDoping;
-                })];
+                doping[p] = [Apply(entry.Node, entry.Path, () => entry.ToLayerDoping(permittivity))];
             }
             // The permittivity of the first (last) layer of the stack written out, for a lead that gives none.
             double? Beside(bool first)
@@ -758,7 +817,19 @@ public static partial class StructureFile
             }
             var left = file.LeftPermittivity ?? Beside(first: true) ?? 1;
             var right = file.RightPermittivity ?? Beside(first: false) ?? 1;
-            return Apply(file.Node, "stack", () => DopedStack.Create(stack, doping, Temperature.FromKelvin(temperatureKelvin), left, right));
+            try
+            {
+                return DopedStack.Create(stack, doping, Temperature.FromKelvin(temperatureKelvin), left, right);
+            }
+            catch (ArgumentException e) when (holes && e.ParamName == "partDoping")
+            {
+                refusal = $"the space charge of the finite stack of {sourceName} is not solved: {Describe(e).TrimEnd('.')}; add --no-space-charge for the rigid stack.";
+                return null;
+            }
+            catch (ArgumentException e)
+            {
+                throw Error(file.Node, "stack", Describe(e), e);
+            }
         }
 
         /// <summary>What a file's stack says about doping: each single layer's doping fields (null for a repeated cell or none given) and the leads' permittivities where a material supplies them.</summary>

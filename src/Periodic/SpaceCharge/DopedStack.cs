@@ -18,7 +18,8 @@ namespace Periodic.SpaceCharge;
 /// <remarks>
 /// The self-consistent model (<see cref="SpaceChargeSolver.SolveStack(DopedStack, SpaceChargeOptions?, IProgress{SpaceChargeProgress}?, CancellationToken)"/>)
 /// takes parabolic uniform layers and delta barriers; the carriers are electrons of the single band, so the stack must hold
-/// more donors than acceptors (holes are not modelled).
+/// more donors than acceptors and acceptors cannot have a level (holes are not modelled in finite stacks; periodic cells model
+/// them, <see cref="DopedCell.ValenceBands"/>).
 /// </remarks>
 public sealed class DopedStack
 {
@@ -90,6 +91,11 @@ public sealed class DopedStack
             for (var i = 0; i < given.Count; i++)
             {
                 var doping = copy[p][i] = given[i] ?? throw new ArgumentNullException(nameof(partDoping), string.Create(CultureInfo.InvariantCulture, $"partDoping[{p}][{i}] is null."));
+                if (doping.AcceptorIonisationEnergyElectronVolts is not null)
+                {
+                    throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
+                        $"partDoping[{p}][{i}] gives an acceptor level; the finite-stack model has no valence band (holes are modelled in periodic cells only), so its acceptors are fully ionised: give none."), nameof(partDoping));
+                }
                 switch (elements[i])
                 {
                     case Layer layer when layer.NonParabolicityPerElectronVolt == 0:
@@ -113,7 +119,7 @@ public sealed class DopedStack
         if (!(net > 0))
         {
             throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
-                $"partDoping must hold more donors than acceptors in the stack (electrons are the only mobile carriers; holes are not modelled); net donors = {net * 1e14:R} /cm2."), nameof(partDoping));
+                $"partDoping must hold more donors than acceptors in the stack (electrons are the only mobile carriers of a finite stack: holes are modelled in periodic cells only); net donors = {net * 1e14:R} /cm2."), nameof(partDoping));
         }
         return new DopedStack(stack, copy, temperature, leftLeadRelativePermittivity, rightLeadRelativePermittivity, net);
     }

@@ -12,8 +12,9 @@ namespace Periodic.SpaceCharge;
 /// </summary>
 /// <remarks>
 /// Dopants are fully ionised by default (every donor gives its electron to the bands, every acceptor takes one from the
-/// valence band, whose holes are not modelled); <see cref="WithDonorIonisationEnergy"/> makes the donors' ionisation
-/// follow the Fermi level. Bounds: volume densities up to <see cref="MaxVolumeDensityPerCubicCentimetre"/>
+/// valence band; its holes are carriers where the cell has a valence band, <see cref="DopedCell.ValenceBands"/>);
+/// <see cref="WithDonorIonisationEnergy"/> and <see cref="WithAcceptorIonisationEnergy"/> make the ionisation follow the
+/// Fermi level (an acceptor level needs the cell's valence band). Bounds: volume densities up to <see cref="MaxVolumeDensityPerCubicCentimetre"/>
 /// (about 2 % of the atoms of a III–V crystal, beyond any doping level that stays a crystal), sheet densities up to
 /// <see cref="MaxSheetDensityPerSquareCentimetre"/> (about one and a half monolayers of atoms), relative permittivity
 /// between 1 (vacuum) and <see cref="MaxRelativePermittivity"/>.
@@ -35,9 +36,20 @@ public sealed class LayerDoping
     /// <summary>Degeneracy factor g of a donor level (spin: two states, one electron), in N_D⁺ = N_D/(1 + g·e^((μ − E_D)/k_BT)).</summary>
     public const double DonorDegeneracy = 2;
 
-    private LayerDoping(double donors, double acceptors, double sheet, double permittivity, double? ionisation = null)
+    /// <summary>
+    /// Degeneracy factor g of an acceptor level, in N_A⁻ = N_A/(1 + g·e^((E_A − μ)/k_BT)): 4 for a shallow acceptor in a cubic
+    /// semiconductor (spin and the two degenerate heavy- and light-hole bands at the valence-band top; S. M. Sze, Physics of
+    /// Semiconductor Devices, 2nd ed., ch. 1).
+    /// </summary>
+    public const double AcceptorDegeneracy = 4;
+
+    /// <summary>The largest acceptor ionisation energy accepted, eV (shallow acceptors in III–V crystals: tens of meV).</summary>
+    public const double MaxAcceptorIonisationEnergyElectronVolts = 1;
+
+    private LayerDoping(double donors, double acceptors, double sheet, double permittivity, double? ionisation = null, double? acceptorIonisation = null)
     {
         DonorIonisationEnergyElectronVolts = ionisation;
+        AcceptorIonisationEnergyElectronVolts = acceptorIonisation;
         DonorsPerCubicCentimetre = donors;
         AcceptorsPerCubicCentimetre = acceptors;
         SheetDonorsPerSquareCentimetre = sheet;
@@ -60,7 +72,7 @@ public sealed class LayerDoping
     /// The donors' ionisation energy E_b (the donor level lies E_b below the local conduction-band edge V + U), eV; null
     /// for full ionisation (the default). With a value, N_D⁺ = N_D/(1 + g·e^((μ − E_c + E_b)/k_BT)) with g =
     /// <see cref="DonorDegeneracy"/> (S. M. Sze, Physics of Semiconductor Devices, 2nd ed., ch. 1), for the volume donors and
-    /// the sheet; acceptors stay fully ionised.
+    /// the sheet.
     /// </summary>
     public double? DonorIonisationEnergyElectronVolts { get; }
 
@@ -68,7 +80,22 @@ public sealed class LayerDoping
     /// <exception cref="ArgumentOutOfRangeException">The energy lies outside its range.</exception>
     public LayerDoping WithDonorIonisationEnergy(Energy donorIonisationEnergy) => new(DonorsPerCubicCentimetre, AcceptorsPerCubicCentimetre,
         SheetDonorsPerSquareCentimetre, RelativePermittivity,
-        Preconditions.CheckRange(donorIonisationEnergy.ElectronVolts, 0, MaxDonorIonisationEnergyElectronVolts, nameof(donorIonisationEnergy)));
+        Preconditions.CheckRange(donorIonisationEnergy.ElectronVolts, 0, MaxDonorIonisationEnergyElectronVolts, nameof(donorIonisationEnergy)),
+        AcceptorIonisationEnergyElectronVolts);
+
+    /// <summary>
+    /// The acceptors' ionisation energy E_b (the acceptor level lies E_b above the local valence-band edge E_v + U), eV; null
+    /// for full ionisation (the default). With a value, N_A⁻ = N_A/(1 + g·e^((E_v + E_b − μ)/k_BT)) with g =
+    /// <see cref="AcceptorDegeneracy"/> (S. M. Sze, Physics of Semiconductor Devices, 2nd ed., ch. 1); the valence-band edge is
+    /// that of the cell's first valence band, so the cell needs one (<see cref="DopedCell.Create(Periodic.Structures.UnitCell, IReadOnlyList{LayerDoping}, Temperature, IReadOnlyList{ValenceBand})"/>).
+    /// </summary>
+    public double? AcceptorIonisationEnergyElectronVolts { get; }
+
+    /// <summary>A copy whose acceptors are ionised incompletely, with ionisation energy <paramref name="acceptorIonisationEnergy"/> in [0, 1] eV.</summary>
+    /// <exception cref="ArgumentOutOfRangeException">The energy lies outside its range.</exception>
+    public LayerDoping WithAcceptorIonisationEnergy(Energy acceptorIonisationEnergy) => new(DonorsPerCubicCentimetre, AcceptorsPerCubicCentimetre,
+        SheetDonorsPerSquareCentimetre, RelativePermittivity, DonorIonisationEnergyElectronVolts,
+        Preconditions.CheckRange(acceptorIonisationEnergy.ElectronVolts, 0, MaxAcceptorIonisationEnergyElectronVolts, nameof(acceptorIonisationEnergy)));
 
     /// <summary>True when the element carries any dopant.</summary>
     public bool IsDoped => DonorsPerCubicCentimetre > 0 || AcceptorsPerCubicCentimetre > 0 || SheetDonorsPerSquareCentimetre > 0;
@@ -105,5 +132,7 @@ public sealed class LayerDoping
     /// <inheritdoc />
     public override string ToString() => string.Create(CultureInfo.InvariantCulture,
         $"N_D = {DonorsPerCubicCentimetre:G4} /cm3, N_A = {AcceptorsPerCubicCentimetre:G4} /cm3, sheet {SheetDonorsPerSquareCentimetre:G4} /cm2, eps_r = {RelativePermittivity:G4}")
-        + (DonorIonisationEnergyElectronVolts is { } e ? string.Create(CultureInfo.InvariantCulture, $", donor level {e * 1e3:G4} meV below the band edge") : ", fully ionised");
+        + (DonorIonisationEnergyElectronVolts is { } e ? string.Create(CultureInfo.InvariantCulture, $", donor level {e * 1e3:G4} meV below the band edge") : "")
+        + (AcceptorIonisationEnergyElectronVolts is { } a ? string.Create(CultureInfo.InvariantCulture, $", acceptor level {a * 1e3:G4} meV above the valence-band edge") : "")
+        + (DonorIonisationEnergyElectronVolts is null && AcceptorIonisationEnergyElectronVolts is null ? ", fully ionised" : "");
 }

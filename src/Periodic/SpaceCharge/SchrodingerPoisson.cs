@@ -8,15 +8,19 @@ using Periodic.Units;
 namespace Periodic.SpaceCharge;
 
 /// <summary>
-/// The part of the self-consistent iteration that a periodic cell and a finite stack share: the electron states of one
-/// iteration (each a density on the grid, an energy and a weight), the Fermi level of charge neutrality, the nonlinear
-/// Poisson equation of the predictor–corrector step solved by Newton's method, the donors' ionisation, and the outer loop.
+/// The part of the self-consistent iteration that a periodic cell and a finite stack share: the carrier states of one
+/// iteration (electrons and, where a valence band is modelled, holes; each a density on the grid, an energy and a weight),
+/// the Fermi level of charge neutrality, the nonlinear Poisson equation of the predictor–corrector step solved by Newton's
+/// method, the dopants' ionisation, and the outer loop.
 /// Buffers are reused across iterations (no allocation growth with the iteration count).
 /// </summary>
 /// <remarks>
-/// Each state s holds (m∥/πħ²)·q_s·k_BT·ln(1 + e^((μ − E_s)/k_BT)) electrons per area, q_s the quadrature weight of its
-/// wavevector (1 for a state of a closed domain), with density |ψ_s|² normalised on the grid's own control volumes, so that
-/// the discrete domain is neutral to rounding (J. H. Davies, The Physics of Low-Dimensional Semiconductors, 1998, ch. 3).
+/// Each electron state s holds (m∥/πħ²)·q_s·k_BT·ln(1 + e^((μ − E_s)/k_BT)) electrons per area, q_s the quadrature weight of
+/// its wavevector (1 for a state of a closed domain), with density |ψ_s|² normalised on the grid's own control volumes, so
+/// that the discrete domain is neutral to rounding (J. H. Davies, The Physics of Low-Dimensional Semiconductors, 1998, ch. 3).
+/// A hole state, its energy E_s on the electron scale (the energy of the electron missing from it), holds
+/// (m∥/πħ²)·q_s·k_BT·ln(1 + e^((E_s − μ)/k_BT)) holes per area (1 − f of the same Fermi–Dirac function). Every carrier and
+/// every incompletely ionised dopant depends on μ − U only, so one bordered Newton system serves them all.
 /// </remarks>
 internal sealed class SchrodingerPoisson
 {
@@ -47,6 +51,7 @@ internal sealed class SchrodingerPoisson
     private double[] _densities = [];
     private double[] _energies = [];
     private double[] _weights = [];
+    private double[] _signs = [];
     private int _states;
     private double _finalFermiLevel;
 
@@ -61,6 +66,7 @@ internal sealed class SchrodingerPoisson
         Hartree = new double[n];
         Next = new double[n];
         Density = new double[n];
+        HoleDensity = new double[n];
         _reference = new double[n];
         _diagonal = new double[n];
         _residual = new double[n];
@@ -90,6 +96,9 @@ internal sealed class SchrodingerPoisson
     /// <summary>The electron density at the unknowns, nm⁻³ (after <see cref="FillDensity"/>: that of U⁰).</summary>
     internal double[] Density { get; }
 
+    /// <summary>The hole density at the unknowns, nm⁻³ (after <see cref="FillDensity"/>: that of U⁰; zero without hole states).</summary>
+    internal double[] HoleDensity { get; }
+
     /// <summary>States in the present set.</summary>
     internal int StateCount => _states;
 
@@ -109,23 +118,26 @@ internal sealed class SchrodingerPoisson
             Array.Resize(ref _densities, Math.Max(needed, 2 * _densities.Length));
             Array.Resize(ref _energies, _densities.Length / n);
             Array.Resize(ref _weights, _densities.Length / n);
+            Array.Resize(ref _signs, _densities.Length / n);
         }
         return _densities.AsSpan(_states * n, n);
     }
 
     /// <summary>
     /// Completes the state begun by <see cref="BeginState"/>: normalises it on the grid's own control volumes (so that the
-    /// discrete domain is exactly neutral) and takes its in-plane mass 1/⟨1/m⟩ over the same volumes.
+    /// discrete domain is exactly neutral) and takes its in-plane mass 1/⟨1/m⟩ over the same volumes (the electrons' masses,
+    /// or <paramref name="holeInverseMass"/> per interval for a hole band). A hole state's energy is on the electron scale.
     /// </summary>
-    internal void EndState(double energyElectronVolts, double quadratureWeight)
+    internal void EndState(double energyElectronVolts, double quadratureWeight, bool hole = false, double[]? holeInverseMass = null)
     {
+        var masses = holeInverseMass ?? _grid.InverseMass;
         var n = _grid.Count;
         var row = _densities.AsSpan(_states * n, n);
         double norm = 0, inverseMass = 0;
         for (var i = 0; i < n; i++)
         {
             norm += row[i] * _grid.Volume[i];
-            inverseMass += row[i] * (_grid.HalfBefore[i] * _grid.InverseMass[_grid.IntervalBefore[i]] + _grid.HalfAfter[i] * _grid.InverseMass[_grid.IntervalAfter[i]]);
+            inverseMass += row[i] * (_grid.HalfBefore[i] * masses[_grid.IntervalBefore[i]] + _grid.HalfAfter[i] * masses[_grid.IntervalAfter[i]]);
         }
         var scale = 1 / norm;
         for (var i = 0; i < n; i++)
@@ -136,26 +148,40 @@ internal sealed class SchrodingerPoisson
         const double massFactor = 1 / (2 * Math.PI * PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2); // m∥/(πħ²) per m₀, 1/(eV nm²)
         _energies[_states] = energyElectronVolts;
         _weights[_states] = quadratureWeight * mass * massFactor;
+        _signs[_states] = hole ? -1 : 1;
         _states++;
     }
 
-    /// <summary>Electrons per area of the present states at μ (each state's density integrates to 1 on the grid).</summary>
-    private double Electrons(double mu)
+    /// <summary>Electrons and holes per area of the present states at μ (each state's density integrates to 1 on the grid).</summary>
+    private (double Electrons, double Holes) Carriers(double mu)
     {
-        double total = 0;
+        double electrons = 0, holes = 0;
         for (var s = 0; s < _states; s++)
         {
-            total += _weights[s] * KT * ElementaryFunctions.Softplus((mu - _energies[s]) / KT);
+            var sign = _signs[s];
+            var amount = _weights[s] * KT * ElementaryFunctions.Softplus(sign * (mu - _energies[s]) / KT);
+            if (sign > 0)
+            {
+                electrons += amount;
+            }
+            else
+            {
+                holes += amount;
+            }
         }
-        return total;
+        return (electrons, holes);
     }
 
     private readonly struct NeutralityFunction(SchrodingerPoisson owner) : IRealFunction
     {
-        public double Evaluate(double x) => owner.Electrons(x) - owner._target - owner.IonisedTotal(x);
+        public double Evaluate(double x)
+        {
+            var (electrons, holes) = owner.Carriers(x);
+            return electrons - holes - owner._target - owner.IonisedTotal(x);
+        }
     }
 
-    /// <summary>Incompletely ionised donors per area at μ in the present potential U⁰ (0 when every donor is ionised).</summary>
+    /// <summary>Net charge of the incompletely ionised dopants per area, N_D⁺ − N_A⁻, at μ in the present potential U⁰ (0 when every dopant is ionised).</summary>
     private double IonisedTotal(double mu)
     {
         if (!_grid.HasPartialIonisation)
@@ -171,8 +197,9 @@ internal sealed class SchrodingerPoisson
     }
 
     /// <summary>
-    /// Ionised donors (of the incompletely ionised kind) in the control volume of node i at Fermi level μ and Hartree
-    /// energy U_i, nm⁻², and the derivative with respect to U_i: N⁺ = N/(1 + g·e^((μ − E_D − U)/k_BT)).
+    /// Net charge of the incompletely ionised dopants in the control volume of node i at Fermi level μ and Hartree energy
+    /// U_i, nm⁻², and its derivative with respect to U_i: N_D⁺ − N_A⁻ with N_D⁺ = N_D/(1 + g_D·e^((μ − E_D − U)/k_BT)) and
+    /// N_A⁻ = N_A/(1 + g_A·e^((E_A + U − μ)/k_BT)) (S. M. Sze, Physics of Semiconductor Devices, 2nd ed., ch. 1).
     /// </summary>
     private double Ionised(double mu, int i, double u, out double derivative)
     {
@@ -182,22 +209,28 @@ internal sealed class SchrodingerPoisson
             return 0;
         }
         int before = _grid.IntervalBefore[i], after = _grid.IntervalAfter[i];
-        var (a, da) = Donor(_grid.HalfBefore[i] * _grid.PartialDonors[before], _grid.PartialLevel[before], mu, u);
-        var (b, db) = Donor(_grid.HalfAfter[i] * _grid.PartialDonors[after], _grid.PartialLevel[after], mu, u);
-        var (c, dc) = Donor(_grid.SheetPartial[i], _grid.SheetLevel[i], mu, u);
-        derivative = da + db + dc;
-        return a + b + c;
+        const double gd = LayerDoping.DonorDegeneracy, ga = LayerDoping.AcceptorDegeneracy;
+        var (a, da) = Fraction(_grid.HalfBefore[i] * _grid.PartialDonors[before], (mu - _grid.PartialLevel[before] - u) / KT, gd);
+        var (b, db) = Fraction(_grid.HalfAfter[i] * _grid.PartialDonors[after], (mu - _grid.PartialLevel[after] - u) / KT, gd);
+        var (c, dc) = Fraction(_grid.SheetPartial[i], (mu - _grid.SheetLevel[i] - u) / KT, gd);
+        var (p, dp) = Fraction(_grid.HalfBefore[i] * _grid.PartialAcceptors[before], (_grid.PartialAcceptorLevel[before] + u - mu) / KT, ga);
+        var (q, dq) = Fraction(_grid.HalfAfter[i] * _grid.PartialAcceptors[after], (_grid.PartialAcceptorLevel[after] + u - mu) / KT, ga);
+        // Both kinds grow more positive as U rises (the donor level empties, the acceptor level fills less).
+        derivative = da + db + dc + dp + dq;
+        return a + b + c - p - q;
     }
 
-    private (double Value, double Derivative) Donor(double amount, double level, double mu, double u)
+    /// <summary>
+    /// amount/(1 + g·e^x) and amount·g·e^x/(1 + g·e^x)²/k_BT (the derivative with respect to U of the charge it stands for,
+    /// with x = ±(μ − level − U)/k_BT).
+    /// </summary>
+    private (double Value, double Derivative) Fraction(double amount, double x, double g)
     {
         if (amount == 0)
         {
             return (0, 0);
         }
-        const double g = LayerDoping.DonorDegeneracy;
-        var x = (mu - level - u) / KT;
-        // f = 1/(1 + g e^x) and df/dU = g e^x/(1 + g e^x)²/k_BT, written with e^(−x) for x > 0 so nothing overflows.
+        // f = 1/(1 + g e^x) and |df/dU| = g e^x/(1 + g e^x)²/k_BT, written with e^(−x) for x > 0 so nothing overflows.
         double f, slope;
         if (x > 0)
         {
@@ -217,11 +250,20 @@ internal sealed class SchrodingerPoisson
     /// <summary>The Fermi level that neutralises the domain with the present states (Brent's method, R. P. Brent, 1973, ch. 4).</summary>
     internal double FermiLevel()
     {
-        var lowest = double.PositiveInfinity;
+        // The bracket grows from the lowest electron state (or, with hole states only, the highest hole state).
+        double lowestElectron = double.PositiveInfinity, highestHole = double.NegativeInfinity;
         for (var s = 0; s < _states; s++)
         {
-            lowest = Math.Min(lowest, _energies[s]);
+            if (_signs[s] > 0)
+            {
+                lowestElectron = Math.Min(lowestElectron, _energies[s]);
+            }
+            else
+            {
+                highestHole = Math.Max(highestHole, _energies[s]);
+            }
         }
+        var lowest = double.IsFinite(lowestElectron) ? lowestElectron : highestHole;
         var function = new NeutralityFunction(this);
         double step = KT, low = lowest - step, high = lowest + step;
         for (var attempt = 0; function.Evaluate(low) > 0; attempt++)
@@ -242,6 +284,13 @@ internal sealed class SchrodingerPoisson
         {
             throw new SpaceChargeException(0, double.NaN, "the Fermi level search for charge neutrality did not converge");
         }
+        var (electrons, holes) = Carriers(result.Root);
+        if (!(electrons + holes > 0))
+        {
+            // A compensated domain so cold that e^(−gap/2k_BT) underflows: no carrier fixes μ or screens the potential.
+            throw new SpaceChargeException(0, double.NaN, string.Create(CultureInfo.InvariantCulture,
+                $"the neutral domain holds no free carrier within the double range at {KT:R} eV = k_BT (compensated doping at a temperature too low for its gap); the Fermi level is not determined"));
+        }
         return result.Root;
     }
 
@@ -253,7 +302,7 @@ internal sealed class SchrodingerPoisson
         }
     }
 
-    /// <summary>Density at the nodes for U = U⁰ (the reported n(z)), nm⁻³.</summary>
+    /// <summary>Densities at the nodes for U = U⁰ (the reported n(z) and p(z)), nm⁻³.</summary>
     internal void FillDensity(double mu)
     {
         _finalFermiLevel = mu;
@@ -262,35 +311,42 @@ internal sealed class SchrodingerPoisson
         Evaluate(mu, Next, Density, _diagonal);
     }
 
-    /// <summary>n_i(U) with every state shifted by U_i − U⁰_i, and ∂n_i/∂U_i.</summary>
+    /// <summary>n_i(U) and p_i(U) (into <see cref="HoleDensity"/>) with every state shifted by U_i − U⁰_i, and ∂(n_i − p_i)/∂U_i.</summary>
     private void Evaluate(double mu, double[] u, double[] density, double[] derivative)
     {
         var n = _grid.Count;
         Array.Clear(density);
+        Array.Clear(HoleDensity);
         Array.Clear(derivative);
         for (var s = 0; s < _states; s++)
         {
             var row = _densities.AsSpan(s * n, n);
-            double w = _weights[s], e = _energies[s];
+            double w = _weights[s], e = _energies[s], sign = _signs[s];
+            var target = sign > 0 ? density : HoleDensity;
             for (var i = 0; i < n; i++)
             {
-                var x = (mu - e - (u[i] - _reference[i])) / KT;
-                density[i] += w * row[i] * KT * ElementaryFunctions.Softplus(x);
+                // An electron state fills as μ − U rises, a hole state empties: ∂n/∂U = −w·ψ²·σ(x), ∂p/∂U = +w·ψ²·σ(x).
+                var x = sign * (mu - e - (u[i] - _reference[i])) / KT;
+                target[i] += w * row[i] * KT * ElementaryFunctions.Softplus(x);
                 derivative[i] -= w * row[i] * Logistic(x);
             }
         }
     }
 
-    /// <summary>Relative |∫n − ∫(N_D⁺ − N_A) − sheets| over the domain.</summary>
+    /// <summary>
+    /// Relative |∫(p − n) + ∫(N_D⁺ − N_A⁻) + sheets| over the domain, relative to the free carriers ∫(n + p) (for electrons
+    /// alone: to the net donors they neutralise).
+    /// </summary>
     internal double NeutralityError()
     {
-        double electrons = 0;
+        double electrons = 0, holes = 0;
         for (var i = 0; i < _grid.Count; i++)
         {
             electrons += Density[i] * _grid.Volume[i];
+            holes += HoleDensity[i] * _grid.Volume[i];
         }
-        var donors = _target + IonisedTotal(_finalFermiLevel);
-        return Math.Abs(electrons - donors) / donors;
+        var fixedCharge = _target + IonisedTotal(_finalFermiLevel);
+        return Math.Abs(holes - electrons + fixedCharge) / (electrons + holes);
     }
 
     /// <summary>
@@ -322,9 +378,9 @@ internal sealed class SchrodingerPoisson
             {
                 int before = _grid.NodeBefore[i], after = _grid.NodeAfter[i];
                 double right = _grid.CouplingAfter[i], left = _grid.CouplingBefore[i];
-                // r = −F(U): F_i = ε∇²U − (e/ε₀)(fixed − V n); ∂F_i/∂U_i = −left − right + (e/ε₀)V ∂n/∂U; ∂F_i/∂μ = −(e/ε₀)V ∂n/∂U.
+                // r = −F(U): F_i = ε∇²U − (e/ε₀)(fixed − V(n − p)); ∂F_i/∂U_i = −left − right + (e/ε₀)V ∂(n − p)/∂U; ∂F_i/∂μ = −(e/ε₀)V ∂(n − p)/∂U.
                 var ionised = Ionised(mu, i, u[i], out var ionisedSlope);
-                _residual[i] = -(right * (u[after] - u[i]) - left * (u[i] - u[before]) - c * (_grid.FixedCharge[i] + ionised - _grid.Volume[i] * Density[i]));
+                _residual[i] = -(right * (u[after] - u[i]) - left * (u[i] - u[before]) - c * (_grid.FixedCharge[i] + ionised - _grid.Volume[i] * (Density[i] - HoleDensity[i])));
                 var d = c * (_grid.Volume[i] * _diagonal[i] - ionisedSlope);
                 _scratchA[i] = left;
                 _scratchC[i] = right;

@@ -1,6 +1,7 @@
 // SPDX-License-Identifier: MIT
 // Copyright (c) 2026 Periodic contributors
 
+using System.Collections.ObjectModel;
 using System.Globalization;
 using Periodic.Structures;
 
@@ -15,12 +16,15 @@ namespace Periodic.SpaceCharge;
 public sealed class SelfConsistentCell : SelfConsistentSolution
 {
     internal SelfConsistentCell(DopedCell input, UnitCell cell, SpaceChargeOptions options, double[] positions, double[] hartree, double[] density,
-        double fermiLevel, double neutralityError, int iterations, double residual, int bands)
-        : base(options, [.. positions], Periodic(hartree, 1), Periodic(density, 1e21), fermiLevel, neutralityError, iterations, residual, input.Temperature.Kelvin)
+        double[] holeDensity, double fermiLevel, double neutralityError, int iterations, double residual, int bands, UnitCell[] valenceCells, int[] valenceBands)
+        : base(options, [.. positions], Periodic(hartree, 1), Periodic(density, 1e21), Periodic(holeDensity, 1e21), fermiLevel, neutralityError, iterations,
+            residual, input.Temperature.Kelvin)
     {
         Input = input;
         Cell = cell;
         OccupiedBands = bands;
+        ValenceCells = new ReadOnlyCollection<UnitCell>(valenceCells);
+        OccupiedValenceBands = new ReadOnlyCollection<int>(valenceBands);
     }
 
     /// <summary>The values at the N nodes of one period, scaled, with the period's end repeating its start.</summary>
@@ -42,10 +46,20 @@ public sealed class SelfConsistentCell : SelfConsistentSolution
     /// <summary>The self-consistent cell: each layer a <see cref="SampledSegment"/> of its band edge plus the Hartree potential, delta barriers as given.</summary>
     public UnitCell Cell { get; }
 
-    /// <summary>Minibands in the carrier quadrature (every band whose bottom lies below μ + 40 k_BT).</summary>
+    /// <summary>Minibands in the carrier quadrature (every band whose bottom lies below μ + 40 k_BT; the lowest one always).</summary>
     public int OccupiedBands { get; }
+
+    /// <summary>
+    /// Per valence band of the input (<see cref="DopedCell.ValenceBands"/>), its self-consistent hole cell: each layer a
+    /// <see cref="SampledSegment"/> of its hole potential minus the Hartree energy (hole energies count downwards; on the
+    /// electron scale a hole energy E is <see cref="ValenceBand.EdgeElectronVolts"/> − E). Empty for electrons only.
+    /// </summary>
+    public IReadOnlyList<UnitCell> ValenceCells { get; }
+
+    /// <summary>Per valence band, the hole minibands in the carrier quadrature (every band within 40 k_BT of μ; the highest one always).</summary>
+    public IReadOnlyList<int> OccupiedValenceBands { get; }
 
     /// <inheritdoc />
     public override string ToString() => string.Create(CultureInfo.InvariantCulture,
-        $"Self-consistent cell: converged in {Iterations} iteration(s) (residual {ResidualElectronVolts:G3} eV), mu = {FermiLevelElectronVolts:G10} eV, neutrality error {NeutralityError:G3}, {OccupiedBands} band(s), {PositionsNanometres.Count} grid points");
+        $"Self-consistent cell: converged in {Iterations} iteration(s) (residual {ResidualElectronVolts:G3} eV), mu = {FermiLevelElectronVolts:G10} eV, neutrality error {NeutralityError:G3}, {OccupiedBands} band(s){(ValenceCells.Count > 0 ? $", hole bands {string.Join("/", OccupiedValenceBands)}" : "")}, {PositionsNanometres.Count} grid points");
 }

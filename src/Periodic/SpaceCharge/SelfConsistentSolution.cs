@@ -7,17 +7,18 @@ namespace Periodic.SpaceCharge;
 
 /// <summary>
 /// What every converged self-consistent solution reports (<see cref="SelfConsistentCell"/>, <see cref="SelfConsistentStack"/>):
-/// the Fermi level, the Hartree potential and the electron density on the grid, and how far the iteration got. Immutable.
+/// the Fermi level, the Hartree potential and the electron and hole densities on the grid, and how far the iteration got. Immutable.
 /// </summary>
 public abstract class SelfConsistentSolution
 {
     private protected SelfConsistentSolution(SpaceChargeOptions options, double[] positions, double[] hartree, double[] densityPerCubicCentimetre,
-        double fermiLevel, double neutralityError, int iterations, double residual, double temperatureKelvin)
+        double[] holeDensityPerCubicCentimetre, double fermiLevel, double neutralityError, int iterations, double residual, double temperatureKelvin)
     {
         Options = options;
         PositionsNanometres = new ReadOnlyCollection<double>(positions);
         HartreeElectronVolts = new ReadOnlyCollection<double>(hartree);
         ElectronDensityPerCubicCentimetre = new ReadOnlyCollection<double>(densityPerCubicCentimetre);
+        HoleDensityPerCubicCentimetre = new ReadOnlyCollection<double>(holeDensityPerCubicCentimetre);
         FermiLevelElectronVolts = fermiLevel;
         NeutralityError = neutralityError;
         Iterations = iterations;
@@ -37,10 +38,13 @@ public abstract class SelfConsistentSolution
     /// <summary>The electron density at each position, cm⁻³.</summary>
     public IReadOnlyList<double> ElectronDensityPerCubicCentimetre { get; }
 
+    /// <summary>The hole density at each position, summed over the valence bands, cm⁻³ (zero everywhere when no valence band is modelled).</summary>
+    public IReadOnlyList<double> HoleDensityPerCubicCentimetre { get; }
+
     /// <summary>The Fermi level μ that neutralises the cell or domain, eV, on the energy scale of the solution's bands or levels.</summary>
     public double FermiLevelElectronVolts { get; }
 
-    /// <summary>|∫n dz − ∫(N_D⁺ − N_A)dz − sheets| / (donors) over one period or the whole domain, on the grid.</summary>
+    /// <summary>|∫(p − n)dz + ∫(N_D⁺ − N_A⁻)dz + sheets| / ∫(n + p)dz over one period or the whole domain, on the grid.</summary>
     public double NeutralityError { get; }
 
     /// <summary>Outer iterations used.</summary>

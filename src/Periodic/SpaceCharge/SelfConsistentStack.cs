@@ -23,8 +23,8 @@ public sealed class SelfConsistentStack : SelfConsistentSolution
 {
     internal SelfConsistentStack(DopedStack input, LayerStack stack, SpaceChargeOptions options, double[] positions, double[] hartree, double[] density,
         double fermiLevel, double neutralityError, int iterations, double residual, int states, double buffer)
-        : base(options, [.. positions.Select(x => x - buffer)], [.. hartree], [.. density.Select(n => n * 1e21)], fermiLevel, neutralityError, iterations, residual,
-            input.Temperature.Kelvin)
+        : base(options, [.. positions.Select(x => x - buffer)], [.. hartree], [.. density.Select(n => n * 1e21)], new double[positions.Length], fermiLevel,
+            neutralityError, iterations, residual, input.Temperature.Kelvin)
     {
         Input = input;
         Stack = stack;

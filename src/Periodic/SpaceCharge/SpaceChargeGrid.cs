@@ -15,7 +15,15 @@ namespace Periodic.SpaceCharge;
 /// </summary>
 internal sealed class SpaceChargeGrid
 {
-    internal SpaceChargeGrid(IReadOnlyList<CellElement> elements, IReadOnlyList<LayerDoping> dopings, bool periodic, double maxSpacing, double length)
+    /// <param name="elements">The domain's elements.</param>
+    /// <param name="dopings">One per element.</param>
+    /// <param name="periodic">A cell (true) or a closed domain.</param>
+    /// <param name="maxSpacing">Largest spacing, nm.</param>
+    /// <param name="length">The domain's length, nm.</param>
+    /// <param name="valenceEdges">Per element, the rigid valence-band edge on the electron energy scale, eV (where holes are
+    /// modelled: the acceptor level of an incompletely ionised layer lies its ionisation energy above it); null otherwise.</param>
+    internal SpaceChargeGrid(IReadOnlyList<CellElement> elements, IReadOnlyList<LayerDoping> dopings, bool periodic, double maxSpacing, double length,
+        IReadOnlyList<double>? valenceEdges = null)
     {
         Periodic = periodic;
         var intervalsPerElement = new int[elements.Count];
@@ -46,6 +54,8 @@ internal sealed class SpaceChargeGrid
         NetDoping = new double[intervals];
         PartialDonors = new double[intervals];
         PartialLevel = new double[intervals];
+        PartialAcceptors = new double[intervals];
+        PartialAcceptorLevel = new double[intervals];
         Volume = new double[n];
         FixedCharge = new double[n];
         SheetPartial = new double[n];
@@ -71,17 +81,28 @@ internal sealed class SpaceChargeGrid
                 var h = layer.Width.Nanometres / m;
                 var doping = dopings[e];
                 var partial = doping.DonorIonisationEnergyElectronVolts;
+                var partialAcceptor = doping.AcceptorIonisationEnergyElectronVolts;
+                if (partialAcceptor is not null && valenceEdges is null)
+                {
+                    throw new InvalidOperationException("an acceptor level needs the valence-band edge (validated by DopedCell)");
+                }
                 for (var j = 0; j < m; j++)
                 {
                     Positions[node + j] = x + layer.Width.Nanometres * j / m;
                     Widths[node + j] = h;
                     Permittivity[node + j] = doping.RelativePermittivity;
                     InverseMass[node + j] = 1 / layer.Mass.ElectronMasses;
-                    NetDoping[node + j] = partial is null ? doping.NetVolumePerCubicNanometre : -doping.AcceptorsPerCubicNanometre;
+                    NetDoping[node + j] = partial is null && partialAcceptor is null ? doping.NetVolumePerCubicNanometre
+                        : (partial is null ? doping.DonorsPerCubicNanometre : 0) - (partialAcceptor is null ? doping.AcceptorsPerCubicNanometre : 0);
                     if (partial is { } binding)
                     {
                         PartialDonors[node + j] = doping.DonorsPerCubicNanometre;
                         PartialLevel[node + j] = layer.Potential.ElectronVolts - binding;
+                    }
+                    if (partialAcceptor is { } acceptorBinding)
+                    {
+                        PartialAcceptors[node + j] = doping.AcceptorsPerCubicNanometre;
+                        PartialAcceptorLevel[node + j] = valenceEdges![e] + acceptorBinding;
                     }
                 }
                 if (partial is { } sheetBinding)
@@ -94,7 +115,7 @@ internal sealed class SpaceChargeGrid
                 {
                     FixedCharge[node + m / 2] += doping.SheetPerSquareNanometre;
                 }
-                HasPartialIonisation |= partial is not null;
+                HasPartialIonisation |= partial is not null || partialAcceptor is not null;
                 node += m;
                 x += layer.Width.Nanometres;
             }
@@ -183,13 +204,36 @@ internal sealed class SpaceChargeGrid
     /// <summary>Rigid donor level of interval i (band edge minus ionisation energy), eV; the Hartree energy adds to it.</summary>
     internal double[] PartialLevel { get; }
 
+    /// <summary>Acceptors of interval i that ionise incompletely, nm⁻³ (zero where acceptors are fully ionised).</summary>
+    internal double[] PartialAcceptors { get; }
+
+    /// <summary>Rigid acceptor level of interval i (valence-band edge plus ionisation energy, electron scale), eV; the Hartree energy adds to it.</summary>
+    internal double[] PartialAcceptorLevel { get; }
+
+    /// <summary>1/m of each interval for another band of the same elements (a valence band's hole masses), 1/m₀.</summary>
+    internal double[] InverseMassOf(IReadOnlyList<CellElement> elements)
+    {
+        var result = new double[Intervals];
+        for (var e = 0; e < elements.Count; e++)
+        {
+            if (elements[e] is Layer layer)
+            {
+                for (var i = ElementStart[e]; i < ElementEnd[e]; i++)
+                {
+                    result[i] = 1 / layer.Mass.ElectronMasses;
+                }
+            }
+        }
+        return result;
+    }
+
     /// <summary>Sheet donors at node i that ionise incompletely, nm⁻².</summary>
     internal double[] SheetPartial { get; }
 
     /// <summary>Rigid donor level of the sheet at node i, eV.</summary>
     internal double[] SheetLevel { get; }
 
-    /// <summary>True when some donors ionise incompletely.</summary>
+    /// <summary>True when some donors or acceptors ionise incompletely.</summary>
     internal bool HasPartialIonisation { get; }
 
     /// <summary>First node of element e (its left interface).</summary>

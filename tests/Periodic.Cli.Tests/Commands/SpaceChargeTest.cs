@@ -54,25 +54,71 @@ public sealed class SpaceChargeTest
     }
 
     [Fact]
-    public void Bands_MoreAcceptorsThanDonors_ExitsTwoWithOneLine()
+    public void Bands_AcceptorsInAPlainPotentialLayer_ExitsTwoNamingTheField()
     {
+        // A layer given by potential and mass has no valence band for the holes the acceptors make.
         var file = ToolRunner.TempFile("""
             {"name": "p", "temperature": 300, "cell": [{"width": 4, "potential": 0, "mass": 0.067, "permittivity": 12.9, "donors": 1e17, "acceptors": 3e17}]}
             """);
         var run = ToolRunner.Invoke("bands", file, "--json");
         Assert.Equal(2, run.ExitCode);
         Assert.Equal("", run.Stdout);
-        Assert.Contains("holes are not modelled", run.Stderr);
+        Assert.Contains("cell[0].acceptors", run.Stderr);
+        Assert.Contains("valence band", run.Stderr);
         Assert.Single(run.Stderr.Trim().Split('\n'));
     }
 
+    private static string PDoped => ToolRunner.Example("p-doped-superlattice.json");
+
     [Fact]
-    public void Plot_Profile_DopedFile_WritesThePicture()
+    public void Bands_PTypeMaterialFile_JsonCarriesTheHoleDensityOfTheLibrary()
+    {
+        var run = ToolRunner.Invoke("bands", PDoped, "--json");
+        Assert.Equal(0, run.ExitCode);
+        var sc = run.Json().GetProperty("selfConsistent");
+        var library = SpaceChargeSolver.Solve(StructureFile.Load(PDoped).Doping!);
+        // Same input, same deterministic computation: bit for bit (shortest round-trip JSON).
+        Assert.Equal(library.FermiLevelElectronVolts, sc.GetProperty("fermiLevel").GetDouble());
+        Assert.True(sc.GetProperty("neutralityError").GetDouble() <= 1e-10); // the required neutrality
+        var holes = sc.GetProperty("holeDensity").GetProperty("values");
+        Assert.Equal(library.HoleDensityPerCubicCentimetre.Count, holes.GetArrayLength());
+        Assert.Equal(library.HoleDensityPerCubicCentimetre[10], holes[10].GetDouble());
+        Assert.Equal(sc.GetProperty("electronDensity").GetProperty("values").GetArrayLength(), holes.GetArrayLength());
+        Assert.Equal("cm^-3", sc.GetProperty("units").GetProperty("holeDensity").GetString());
+        var bands = sc.GetProperty("valenceBands");
+        Assert.Equal("heavy holes", bands[0].GetProperty("name").GetString());
+        Assert.Equal("light holes", bands[1].GetProperty("name").GetString());
+        Assert.Contains("single parabolic band", sc.GetProperty("model").GetString());
+    }
+
+    [Fact]
+    public void Levels_PTypeCellWithStack_ExitsTwoNamingWhatIsNotModelled()
+    {
+        // The cell's holes are modelled; a finite stack's are not: its space charge is refused, the rigid stack offered.
+        var file = ToolRunner.TempFile("""
+            {"name": "p", "temperature": 77, "cell": [
+              {"material": "Al0.3Ga0.7As", "width": 4, "acceptors": "5e18 cm^-3"},
+              {"material": "GaAs", "width": 8}],
+             "stack": {"periods": 2, "leads": {"material": "Al0.3Ga0.7As"}}}
+            """);
+        var run = ToolRunner.Invoke("levels", file, "--json");
+        Assert.Equal(2, run.ExitCode);
+        Assert.Equal("", run.Stdout);
+        Assert.Contains("holes are modelled in periodic cells only", run.Stderr);
+        Assert.Contains("--no-space-charge", run.Stderr);
+        Assert.Single(run.Stderr.Trim().Split('\n'));
+        Assert.Equal(0, ToolRunner.Invoke("levels", file, "--json", "--no-space-charge").ExitCode);
+    }
+
+    [Theory]
+    [InlineData("doped-superlattice.json")]
+    [InlineData("p-doped-superlattice.json")] // holes only: the density axis is scaled to p(z)
+    public void Plot_Profile_DopedFile_WritesThePicture(string example)
     {
         var path = Path.Combine(Path.GetTempPath(), $"periodic-sc-{Guid.NewGuid():N}.png");
         try
         {
-            var run = ToolRunner.Invoke("plot", Doped, "--show", "profile", "--out", path);
+            var run = ToolRunner.Invoke("plot", ToolRunner.Example(example), "--show", "profile", "--out", path);
             Assert.Equal(0, run.ExitCode);
             Assert.True(new FileInfo(path).Length > 1000);
         }

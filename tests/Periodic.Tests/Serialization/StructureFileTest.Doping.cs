@@ -14,14 +14,13 @@ public sealed partial class StructureFileTest
     {
         var structure = StructureFile.Parse("""
             {"name": "doped", "temperature": "77 K", "cell": [
-              {"width": 4, "potential": 0.25, "mass": 0.092, "permittivity": 12.2, "donors": "2e18 cm^-3", "acceptors": 1e17},
+              {"width": 4, "potential": 0.25, "mass": 0.092, "permittivity": 12.2, "donors": "2e18 cm^-3"},
               {"delta": 0.01},
               {"width": 8, "potential": 0, "mass": 0.067, "permittivity": 12.9, "sheetDonors": "0.01 nm^-2"}]}
             """, "doped.json");
         var doping = Assert.IsType<Periodic.SpaceCharge.DopedCell>(structure.Doping);
         Assert.Equal(77, doping.Temperature.Kelvin);
         Assert.Equal(2e18, doping.Doping[0].DonorsPerCubicCentimetre);
-        Assert.Equal(1e17, doping.Doping[0].AcceptorsPerCubicCentimetre);
         Assert.Equal(12.2, doping.Doping[0].RelativePermittivity);
         Assert.False(doping.Doping[1].IsDoped);
         Assert.Equal(1e12, doping.Doping[2].SheetDonorsPerSquareCentimetre, 1e-3); // 1 nm⁻² = 1e14 cm⁻² (definition of the units)
@@ -74,7 +73,8 @@ public sealed partial class StructureFileTest
     [InlineData("""{"width": 4, "potential": 0, "mass": 0.067, "donors": 1e17}""", "cell[0].permittivity")]
     [InlineData("""{"width": 4, "potential": 0, "mass": 0.067, "permittivity": 12, "sheetDonors": "1e16 cm^-2"}""", "cell[0].sheetDonors")]
     [InlineData("""{"width": 4, "potential": 0, "mass": 0.067, "permittivity": 12, "donors": "1e17 furlongs"}""", "cell[0].donors")]
-    [InlineData("""{"width": 4, "potential": 0, "mass": 0.067, "permittivity": 12, "donors": 1e17, "acceptors": 2e17}""", "cell")]
+    [InlineData("""{"width": 4, "potential": 0, "mass": 0.067, "permittivity": 12, "donors": 1e17, "acceptors": 2e17}""", "cell[0].acceptors")]
+    [InlineData("""{"width": 4, "potential": 0, "mass": 0.067, "permittivity": 12, "donors": 1e17, "acceptorIonisationEnergy": 0.02}""", "cell[0].acceptorIonisationEnergy")]
     public void Parse_BadDoping_NamesTheFieldWithItsPlace(string layer, string field)
     {
         var json = "{\"name\": \"bad\", \"temperature\": 300,\n \"cell\": [" + layer + "]}";
@@ -97,5 +97,55 @@ public sealed partial class StructureFileTest
         var error = Assert.Throws<StructureFileException>(() => StructureFile.Parse(
             """{"name": "t", "temperature": 300, "cell": [{"width": 4, "potential": 0, "mass": 0.067}]}""", "t.json"));
         Assert.Equal("temperature", error.Field);
+    }
+
+    [Fact]
+    public void Parse_MaterialAcceptors_ModelHeavyAndLightHoles()
+    {
+        var structure = StructureFile.Parse("""
+            {"name": "p", "temperature": "77 K", "cell": [
+              {"material": "Al0.3Ga0.7As", "width": 4, "acceptors": "5e18 cm^-3", "acceptorIonisationEnergy": "26 meV"},
+              {"material": "GaAs", "width": 8}]}
+            """, "p.json");
+        var doping = structure.Doping!;
+        Assert.Equal(5e18, doping.Doping[0].AcceptorsPerCubicCentimetre);
+        Assert.Equal(0.026, doping.Doping[0].AcceptorIonisationEnergyElectronVolts!.Value, 1e-15); // 1 meV = 1e-3 eV
+        Assert.Equal(["heavy holes", "light holes"], doping.ValenceBands.Select(b => b.Name));
+        // The hole cells are the recipe built for each hole carrier; the edge is the highest valence-band edge below the lowest
+        // conduction-band edge, i.e. minus the GaAs gap at 77 K here (both edges belong to GaAs): Varshni's law with GaAs's
+        // parameters (Vurgaftman et al. 2001 [from memory]: 1.519 eV, 0.5405 meV/K, 204 K).
+        var gap = 1.519 - 0.5405e-3 * 77 * 77 / (77 + 204);
+        Assert.All(doping.ValenceBands, b => Assert.Equal(-gap, b.EdgeElectronVolts, 1e-12));
+        var heavy = StructureRecipe.Create(Periodic.Units.Temperature.FromKelvin(77)).WithCarrier(Carrier.HeavyHole)
+            .Add(RecipeLayer.Create(StructureRecipe.ParseMaterial("Al0.3Ga0.7As"), Periodic.Units.Length.FromNanometres(4)))
+            .Add(RecipeLayer.Create(Material.GaAs, Periodic.Units.Length.FromNanometres(8))).Build();
+        for (var i = 0; i < 2; i++)
+        {
+            var (expected, actual) = ((Periodic.Structures.Layer)heavy.Cell.Elements[i], (Periodic.Structures.Layer)doping.ValenceBands[0].Cell.Elements[i]);
+            Assert.Equal(expected.Potential.ElectronVolts, actual.Potential.ElectronVolts);
+            Assert.Equal(expected.Mass.ElectronMasses, actual.Mass.ElectronMasses);
+        }
+    }
+
+    [Fact]
+    public void Parse_DopedHoleCarrierFile_IsRefused()
+    {
+        var error = Assert.Throws<StructureFileException>(() => StructureFile.Parse(
+            """{"name": "h", "temperature": 300, "carrier": "heavyHole", "cell": [{"material": "GaAs", "width": 4, "acceptors": 1e17}]}""", "h.json"));
+        Assert.Equal("carrier", error.Field);
+    }
+
+    [Fact]
+    public void Parse_PTypeCellWithStack_CellLoadsAndStackSpaceChargeIsRefused()
+    {
+        var structure = StructureFile.Parse("""
+            {"name": "p", "temperature": 77, "cell": [
+              {"material": "Al0.3Ga0.7As", "width": 4, "acceptors": "5e18 cm^-3"},
+              {"material": "GaAs", "width": 8}],
+             "stack": {"periods": 3, "leads": {"material": "Al0.3Ga0.7As"}}}
+            """, "p.json");
+        Assert.NotNull(structure.Doping);
+        Assert.Null(structure.StackDoping);
+        Assert.Contains("holes are modelled in periodic cells only", structure.StackSpaceChargeRefusal);
     }
 }

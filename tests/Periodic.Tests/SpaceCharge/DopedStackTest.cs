@@ -38,6 +38,11 @@ public sealed class DopedStackTest
         Assert.Equal("temperature", Assert.Throws<ArgumentOutOfRangeException>(() => DopedStack.Create(Stack, good, Temperature.FromKelvin(0), 12, 12)).ParamName);
         Assert.Equal("leftLeadRelativePermittivity", Assert.Throws<ArgumentOutOfRangeException>(() => DopedStack.Create(Stack, good, t, 0, 12)).ParamName);
         Assert.Equal("rightLeadRelativePermittivity", Assert.Throws<ArgumentOutOfRangeException>(() => DopedStack.Create(Stack, good, t, 12, double.NaN)).ParamName);
+        // An acceptor level needs a valence band, which the finite-stack model does not have.
+        var level = LayerDoping.Create(2e18, 1e18, 12.2).WithAcceptorIonisationEnergy(Energy.FromElectronVolts(0.026));
+        var error = Assert.Throws<ArgumentException>(() => DopedStack.Create(Stack, [[level], good[1]], t, 12, 12));
+        Assert.Equal("partDoping", error.ParamName);
+        Assert.Contains("acceptor level", error.Message);
         var delta = LayerStack.Create(Barrier, Barrier, L(5, 0, 0.067), DeltaBarrier.Create(0.1));
         Assert.Equal("partDoping", Assert.Throws<ArgumentException>(() =>
             DopedStack.Create(delta, [[LayerDoping.Create(1e18, 0, 12.9)], [LayerDoping.Create(1e18, 0, 12)]], t, 12, 12)).ParamName);
