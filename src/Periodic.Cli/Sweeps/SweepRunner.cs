@@ -128,19 +128,21 @@ internal sealed class SweepRunner(SweepSpec spec, bool rigidBands = false)
                 FieldPath.Set(document, spec.Parameters[j].Field, parameters[j]);
             }
             var structure = StructureFile.Parse(Encoding.UTF8.GetBytes(document.ToJsonString()), string.Create(CultureInfo.InvariantCulture, $"design {index}"));
-            if (!rigidBands)
-            {
-                structure = SelfConsistent(structure);
-            }
+            var outputs = spec.Outputs;
+            var needsStack = outputs.NeedsLevels || outputs.Resonances > 0;
+            // As the commands load a doped file: the bands of the self-consistent cell, the stack quantities of the
+            // self-consistent stack (or of the self-consistent cell repeated, when the stack itself holds no dopants).
+            var cellNeeded = spec.Bands > 0 || (needsStack && structure.StackDoping is null && structure.StackSpaceChargeRefusal is null);
+            var cellView = rigidBands || structure.Doping is null || !cellNeeded ? structure : SelfConsistentCell(structure);
             var k = parameters.Length;
             string? error = null;
             if (spec.Bands > 0)
             {
-                error = EvaluateBands(structure.Cell, values, k, SensitivityStart);
+                error = EvaluateBands(cellView.Cell, values, k, SensitivityStart);
                 k += 6 * spec.Bands;
             }
-            var outputs = spec.Outputs;
-            var stack = outputs.NeedsLevels || outputs.Resonances > 0 ? StackQuantities.Solve(structure, outputs.NeedsLevels, outputs.Resonances > 0) : null;
+            var stackView = !needsStack || rigidBands ? structure : SelfConsistentStack(structure, cellView);
+            var stack = needsStack ? StackQuantities.Solve(stackView, outputs.NeedsLevels, outputs.Resonances > 0) : null;
             for (var n = 1; n <= outputs.Levels; n++)
             {
                 values[k++] = stack!.Level(n);
@@ -204,30 +206,47 @@ internal sealed class SweepRunner(SweepSpec spec, bool rigidBands = false)
     public bool SolvesSpaceCharge => !rigidBands && StructureFile.Parse(Encoding.UTF8.GetBytes(spec.Structure.ToJsonString()), "structure") is var s
         && (s.Doping is not null || s.StackDoping is not null);
 
-    /// <summary>
-    /// The self-consistent form of a doped design (its stack between its leads where the stack holds the dopants, else its
-    /// periodic cell), as the commands load it; an undoped design unchanged.
-    /// </summary>
-    private StructureDefinition SelfConsistent(StructureDefinition structure)
+    /// <summary>The design with its doped periodic cell solved self-consistently (as the cell commands load it).</summary>
+    private StructureDefinition SelfConsistentCell(StructureDefinition structure)
     {
-        if (structure.Doping is null && structure.StackDoping is null)
+        RefuseSensitivities();
+        return structure.WithSelfConsistentCell(Periodic.SpaceCharge.SpaceChargeSolver.Solve(structure.Doping!));
+    }
+
+    /// <summary>
+    /// The design for its stack quantities, as the stack commands load it: its doped stack solved between its leads at zero bias
+    /// only; a stack without dopants of its own takes <paramref name="cellView"/> (the self-consistent cell repeated, or the
+    /// undoped design itself).
+    /// </summary>
+    private StructureDefinition SelfConsistentStack(StructureDefinition structure, StructureDefinition cellView)
+    {
+        if (structure.StackSpaceChargeRefusal is { } refusal)
+        {
+            throw new ArgumentException(refusal);
+        }
+        if (structure.StackDoping is null && structure.Doping is null)
         {
             return structure;
         }
+        RefuseSensitivities();
+        if (structure.StackBias.ElectronVolts != 0)
+        {
+            throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
+                $"stack.bias is {structure.StackBias.ElectronVolts:R} eV, but the space charge of a doped stack is solved at zero bias only (bias with space charge is not modelled); run with --no-space-charge for the rigid bands under bias."));
+        }
+        if (structure.StackDoping is null)
+        {
+            return cellView;
+        }
+        return structure.WithSelfConsistentStack(Periodic.SpaceCharge.SpaceChargeSolver.SolveStack(structure.StackDoping!));
+    }
+
+    private void RefuseSensitivities()
+    {
         if (spec.Sensitivities)
         {
             throw new ArgumentException("sensitivities of a doped design are not computed: the exact derivatives hold the potential fixed, and the self-consistent potential moves with every parameter; run with --no-space-charge for the rigid bands' derivatives.");
         }
-        if (structure.StackDoping is { } stack)
-        {
-            if (structure.StackBias.ElectronVolts != 0)
-            {
-                throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
-                    $"stack.bias is {structure.StackBias.ElectronVolts:R} eV, but the space charge of a doped stack is solved at zero bias only (bias with space charge is not modelled); run with --no-space-charge for the rigid bands under bias."));
-            }
-            return structure.WithSelfConsistentStack(Periodic.SpaceCharge.SpaceChargeSolver.SolveStack(stack));
-        }
-        return structure.WithSelfConsistentCell(Periodic.SpaceCharge.SpaceChargeSolver.Solve(structure.Doping!));
     }
 
     /// <summary>Band edges, widths, masses and gaps from column <paramref name="k"/> on, and (with sensitivities) the edge derivatives in their own columns.</summary>
