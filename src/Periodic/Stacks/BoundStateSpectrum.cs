@@ -206,10 +206,12 @@ public sealed class BoundStateSpectrum
         }
 
         /// <summary>
-        /// Newton's method on the matching angle with its exact energy derivative, safeguarded by the count: every evaluation
-        /// also counts, and so narrows the bracket [lower, upper] that holds exactly this level; a step that leaves it is
-        /// replaced by bisection. Once a step is within the tolerance, the point it came from bounds the level on one side
-        /// and a count at the tolerance beyond the new estimate on the other, so the level is proven within the tolerance.
+        /// Newton's method on the coefficient of the growing tail with its exact energy derivative, safeguarded by the count:
+        /// every evaluation also counts, and so narrows the bracket [lower, upper] that holds exactly this level; a step that
+        /// leaves it is replaced by Newton's step from the bracket's other end, else by bisection. Once a step is within the
+        /// tolerance, the point it came from bounds the level on one side and a count at the tolerance beyond the new estimate
+        /// on the other, so the level is proven within the tolerance; where rounding makes the count disagree (a tolerance at
+        /// the limit of double precision), bisection on the count finishes.
         /// </summary>
         private BoundLevel RefineNewton(Probe lower, Probe upper, double tolerance)
         {
@@ -219,22 +221,25 @@ public sealed class BoundStateSpectrum
             var fraction = lower.Mismatch / (lower.Mismatch - upper.Mismatch);
             var x = lo + (double.IsFinite(fraction) ? Math.Clamp(fraction, 0.1, 0.9) : 0.5) * (hi - lo);
             var evaluations = 0;
+            // Newton's step from the bracket's ends where an evaluation with the derivative set them (NaN: not yet).
+            double stepLo = double.NaN, stepHi = double.NaN;
             while (evaluations < MaxNewtonSteps && hi - lo > tolerance)
             {
-                var count = profile.CountBelow(x, _scratch, out var angle, out var slope);
+                var count = profile.CountBelow(x, _scratch, out var mismatch, out var slope);
                 evaluations++;
+                var next = x - mismatch / slope;
                 if (count <= index)
                 {
-                    lo = x;
+                    (lo, stepLo) = (x, next);
                 }
                 else
                 {
-                    hi = x;
+                    (hi, stepHi) = (x, next);
                 }
-                var next = x - angle / slope;
                 if (!(next > lo && next < hi))
                 {
-                    x = 0.5 * (lo + hi);
+                    var other = x == lo ? stepHi : stepLo;
+                    x = other > lo && other < hi ? other : 0.5 * (lo + hi);
                     continue;
                 }
                 var step = Math.Abs(next - x);
@@ -242,9 +247,10 @@ public sealed class BoundStateSpectrum
                 {
                     // x bounds the level on its side, within the tolerance of next; a count proves the other side.
                     var beyond = next > x ? next + tolerance : next - tolerance;
+                    var error = Math.Max(step, FloatingPoint.MachineEpsilon * Math.Abs(next));
                     if (next > x ? hi <= beyond : lo >= beyond)
                     {
-                        return new BoundLevel(index, next, Math.Max(step, FloatingPoint.MachineEpsilon * Math.Abs(next)), evaluations, true);
+                        return new BoundLevel(index, next, error, evaluations, true);
                     }
                     evaluations++;
                     if (Count(beyond, out _) <= index)
@@ -257,10 +263,28 @@ public sealed class BoundStateSpectrum
                     }
                     if (lo <= next && next <= hi)
                     {
-                        return new BoundLevel(index, next, Math.Max(step, FloatingPoint.MachineEpsilon * Math.Abs(next)), evaluations, true);
+                        return new BoundLevel(index, next, error, evaluations, true);
                     }
-                    x = 0.5 * (lo + hi);
-                    continue;
+                    // Rounding moves the count's step past the estimate: look for it at doubling distances, then bisect.
+                    for (var reach = 2 * tolerance; next > x ? next + reach < hi : next - reach > lo; reach *= 2)
+                    {
+                        var probe = next > x ? next + reach : next - reach;
+                        evaluations++;
+                        var above = Count(probe, out _) > index;
+                        if (above)
+                        {
+                            hi = probe;
+                        }
+                        else
+                        {
+                            lo = probe;
+                        }
+                        if (above == next > x)
+                        {
+                            break;
+                        }
+                    }
+                    break;
                 }
                 x = next;
             }

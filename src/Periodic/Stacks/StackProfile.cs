@@ -113,6 +113,8 @@ internal sealed class StackProfile
     /// <summary>True for a closed box (<see cref="StackProfile(LayerStack, long, string, bool)"/>): ψ vanishes at both ends.</summary>
     internal bool HardWalls { get; }
 
+
+
     internal LayerStack Stack { get; }
 
     /// <summary>The stack's elements written out, in order (element i of <see cref="Kernel"/> is Elements[i]).</summary>
@@ -183,16 +185,16 @@ internal sealed class StackProfile
     internal bool HasEnergyDerivative => Kernel.HasEnergyDerivative;
 
     /// <summary>
-    /// As <see cref="CountBelow(double, out double, Span{double})"/>, with the matching angle β = arctan(A/B) ∈ [−π/2, π/2] and
-    /// its exact energy derivative <paramref name="slope"/> (1/eV), where A and B are the coefficients of the growing and the
-    /// decaying tail in the right lead (between hard walls: ψ(L) and the wall length times m·ψ′/m there). β vanishes exactly at
-    /// the levels, and a Newton step −β/β′ moves towards the nearest one.
+    /// As <see cref="CountBelow(double, out double, Span{double})"/>, with the coefficient A of the growing tail in the right lead
+    /// of the solution that decays into the left one (between hard walls: ψ(L)), which vanishes exactly at the levels and is
+    /// smooth in E, and its exact energy derivative: <paramref name="mismatch"/> = A/s and <paramref name="slope"/> = (dA/dE)/s
+    /// (1/eV) for some s &gt; 0 that changes with the energy, so only their ratio, the Newton step −A/A′, is meaningful.
     /// </summary>
-    internal int CountBelow(double e, Span<double> scratch, out double angle, out double slope)
+    internal int CountBelow(double e, Span<double> scratch, out double mismatch, out double slope)
     {
         double u, w, du, dw, log = 0;
         int zeros;
-        double a, b, da, db;
+        double growing, growingSlope;
         if (HardWalls)
         {
             (u, w, du, dw) = (0, 1, 0, 0);
@@ -201,8 +203,7 @@ internal sealed class StackProfile
             {
                 zeros--; // the far wall itself is not in the open interval
             }
-            var length = Stack.LeftLead.MassElectronMasses * WallLengthNanometres;
-            (a, b, da, db) = (u, length * w, du, length * dw);
+            (growing, growingSlope) = (u, du);
         }
         else
         {
@@ -218,17 +219,11 @@ internal sealed class StackProfile
             {
                 zeros++;
             }
-            (a, b, da, db) = (u + tail, u - tail, du + dtail, du - dtail);
+            (growing, growingSlope) = (u + tail, du + dtail);
         }
-        var size = Math.Max(Math.Abs(a), Math.Abs(b));
-        if (!(size > 0) || !double.IsFinite(size))
-        {
-            (angle, slope) = (0, double.NaN);
-            return zeros;
-        }
-        (a, b, da, db) = (a / size, b / size, da / size, db / size);
-        angle = Math.Atan2(b < 0 ? -a : a, Math.Abs(b));
-        slope = (da * b - a * db) / (a * a + b * b);
+        // Only the ratio matters (both carry the pass's scale e^log): bring them to order one.
+        var size = Math.Max(Math.Abs(growing), Math.Abs(growingSlope));
+        (mismatch, slope) = size > 0 && double.IsFinite(size) ? (growing / size, growingSlope / size) : (0.0, double.NaN);
         return zeros;
     }
 

@@ -94,19 +94,7 @@ internal sealed partial class CompiledCell
             }
             return sum;
         }
-        for (var k = 0; k < classes; k++)
-        {
-            var i = table.Representative[k];
-            LayerCoefficients(i, e, out var mass, out var s);
-            var width = _data[ElementData.Stride * i + ElementData.Width];
-            UniformLayerPropagator.Values(s, width, out var c, out var sinc, out var logScale);
-            var at = ClassStride * k;
-            scratch[at] = c;
-            scratch[at + 1] = mass * sinc;
-            scratch[at + 2] = -(s / mass) * sinc;
-            scratch[at + 3] = logScale;
-            scratch[at + 4] = WholeHalfTurns(s, width);
-        }
+        FillValueClasses(table, e, scratch);
         var classOf = table.ClassOf;
         var zeros = 0;
         var quadrant = FloorQuadrant(u, w);
@@ -132,6 +120,142 @@ internal sealed partial class CompiledCell
         return zeros;
     }
 
+    /// <summary>The table entries of every distinct layer at <paramref name="e"/>: the values of <see cref="StepForward"/>, bit for bit.</summary>
+    private void FillValueClasses(LayerClassTable table, double e, Span<double> scratch)
+    {
+        for (var k = 0; k < table.Representative.Length; k++)
+        {
+            var i = table.Representative[k];
+            LayerCoefficients(i, e, out var mass, out var s);
+            var width = _data[ElementData.Stride * i + ElementData.Width];
+            UniformLayerPropagator.Values(s, width, out var c, out var sinc, out var logScale);
+            var at = ClassStride * k;
+            scratch[at] = c;
+            scratch[at + 1] = mass * sinc;
+            scratch[at + 2] = -(s / mass) * sinc;
+            scratch[at + 3] = logScale;
+            scratch[at + 4] = WholeHalfTurns(s, width);
+        }
+    }
+
+    /// <summary>
+    /// The state (u, w)·e^log at every element boundary: forwards from (<paramref name="u"/>, <paramref name="w"/>) at the start
+    /// (<paramref name="us"/> index 0) or backwards from it at the end (index Count), as repeated <see cref="StepForward"/> or
+    /// <see cref="StepBackward"/> would give, bit for bit. Each span holds Count + 1 entries.
+    /// </summary>
+    internal void ShootStates(double e, double u, double w, bool forward, Span<double> us, Span<double> ws, Span<double> logs, Span<double> scratch)
+    {
+        var n = _kinds.Length;
+        var table = scratch.IsEmpty ? null : ClassTable();
+        var cached = table is not null && table.Representative.Length > 0 && scratch.Length >= ClassStride * table.Representative.Length;
+        if (cached)
+        {
+            FillValueClasses(table!, e, scratch);
+        }
+        double log = 0;
+        var at = forward ? 0 : n;
+        (us[at], ws[at], logs[at]) = (u, w, log);
+        for (var step = 0; step < n; step++)
+        {
+            var i = forward ? step : n - 1 - step;
+            var k = cached ? table!.ClassOf[i] : -1;
+            if (k < 0)
+            {
+                if (forward)
+                {
+                    StepForward(i, e, ref u, ref w, ref log);
+                }
+                else
+                {
+                    StepBackward(i, e, ref u, ref w, ref log);
+                }
+            }
+            else
+            {
+                var entry = ClassStride * k;
+                double c = scratch[entry], m12 = scratch[entry + 1], m21 = scratch[entry + 2];
+                (u, w) = forward ? (c * u + m12 * w, m21 * u + c * w) : (c * u - m12 * w, -m21 * u + c * w);
+                log += scratch[entry + 3];
+                ScaledProduct.Renormalise(ref u, ref w, ref log);
+            }
+            at = forward ? i + 1 : i;
+            (us[at], ws[at], logs[at]) = (u, w, log);
+        }
+    }
+
+    /// <summary>
+    /// Fills <paramref name="scratch"/> with the per-layer numbers of <see cref="TabledLogLayerIntegral"/>
+    /// at <paramref name="e"/>; false (and nothing filled) when the sequence has no table or the scratch is short.
+    /// </summary>
+    internal bool FillIntegralClasses(double e, Span<double> scratch)
+    {
+        var table = scratch.IsEmpty ? null : ClassTable();
+        if (table is null || table.Representative.Length == 0 || scratch.Length < ClassStride * table.Representative.Length)
+        {
+            return false;
+        }
+        for (var k = 0; k < table.Representative.Length; k++)
+        {
+            var at = ClassStride * k;
+            LayerIntegralCoefficients(table.Representative[k], e, out scratch[at], out scratch[at + 1], out scratch[at + 2], out scratch[at + 3], out scratch[at + 4]);
+        }
+        return true;
+    }
+
+    /// <summary>
+    /// <see cref="LogLayerIntegral"/> from the numbers <see cref="FillIntegralClasses"/> put in
+    /// <paramref name="table"/> (the same value; an empty table computes them here).
+    /// </summary>
+    internal double TabledLogLayerIntegral(int i, double e, double a, double b, ReadOnlySpan<double> table)
+    {
+        double flag, n1, n2, n3, n4;
+        if (table.IsEmpty)
+        {
+            LayerIntegralCoefficients(i, e, out flag, out n1, out n2, out n3, out n4);
+        }
+        else
+        {
+            var at = ClassStride * _classes!.ClassOf[i];
+            (flag, n1, n2, n3, n4) = (table[at], table[at + 1], table[at + 2], table[at + 3], table[at + 4]);
+        }
+        double integral, logExtra = 0;
+        if (flag > 0)
+        {
+            // A thick barrier: ψ in decaying exponentials, scaled by e^(2κw).
+            double kappa = n1, q = n2, width = n3;
+            var alpha = 0.5 * (a + b / kappa);
+            var beta = 0.5 * (a - b / kappa);
+            integral = alpha * alpha * (1 - q) / (2 * kappa) + beta * beta * q * (1 - q) / (2 * kappa) + 2 * alpha * beta * width * q;
+            logExtra = 2 * n4;
+        }
+        else
+        {
+            integral = a * a * n1 + 2 * a * b * n2 + b * b * n3;
+        }
+        return integral > 0 ? Math.Log(integral) + logExtra : double.NegativeInfinity;
+    }
+
+    /// <summary>
+    /// The numbers of ∫ψ² over layer <paramref name="i"/> that do not depend on the state: for a thick barrier (s·w² ≤ −1) a flag,
+    /// κ, e^(−2κw), w and κw; otherwise 0 and the integrals of c², c·S and S² (<see cref="UniformLayerPropagator.SquareIntegrals"/>).
+    /// </summary>
+    private void LayerIntegralCoefficients(int i, double e, out double flag, out double n1, out double n2, out double n3, out double n4)
+    {
+        LayerCoefficients(i, e, out _, out var s);
+        var width = _data[ElementData.Stride * i + ElementData.Width];
+        var z = s * width * width;
+        if (s < 0 && z <= -1)
+        {
+            var kappa = Math.Sqrt(-s);
+            var theta = kappa * width;
+            (flag, n1, n2, n3, n4) = (1, kappa, Math.Exp(-2 * theta), width, theta);
+            return;
+        }
+        UniformLayerPropagator.UnscaledValues(s, width, out var c, out var sinc);
+        UniformLayerPropagator.SquareIntegrals(s, width, c, sinc, out n1, out n2, out n3);
+        (flag, n4) = (0, 0);
+    }
+
     /// <summary>
     /// As <see cref="Shoot"/>, and also propagates the exact energy derivative (du, dw)·e^log of the state (given at the start,
     /// e.g. from the energy dependence of a lead's decay constant). Not for layers under a field (<see cref="HasEnergyDerivative"/>).
@@ -149,30 +273,39 @@ internal sealed partial class CompiledCell
             }
         }
         Span<double> own = stackalloc double[ClassStride];
+        var classOf = cached ? table!.ClassOf : null;
         var zeros = 0;
         var quadrant = FloorQuadrant(u, w);
         for (var i = 0; i < _kinds.Length; i++)
         {
+            var k = classOf is null ? -1 : classOf[i];
+            if (k >= 0 || _kinds[i] == ElementKind.Layer)
+            {
+                Span<double> source = own;
+                var at = 0;
+                if (k >= 0)
+                {
+                    source = scratch;
+                    at = ClassStride * k;
+                }
+                else
+                {
+                    FillDerivativeClass(i, e, own);
+                }
+                double c = source[at], m12 = source[at + 1], m21 = source[at + 2], d11 = source[at + 5], d12 = source[at + 6], d21 = source[at + 7];
+                var u1 = c * u + m12 * w;
+                var w1 = m21 * u + c * w;
+                var du1 = d11 * u + d12 * w + c * du + m12 * dw;
+                var dw1 = d21 * u + d11 * w + m21 * du + c * dw;
+                var next = FloorQuadrant(u1, w1);
+                zeros += ParityLayerZeros(i, e, source[at + 4], u, w, u1, w1, quadrant, next);
+                (u, w, du, dw, quadrant) = (u1, w1, du1, dw1, next);
+                log += source[at + 3];
+                ScaledProduct.Renormalise(ref u, ref w, ref du, ref dw, ref log);
+                continue;
+            }
             switch (_kinds[i])
             {
-                case ElementKind.Layer:
-                {
-                    var entries = cached ? scratch.Slice(ClassStride * table!.ClassOf[i], ClassStride) : own;
-                    if (!cached)
-                    {
-                        FillDerivativeClass(i, e, own);
-                    }
-                    double c = entries[0], m12 = entries[1], m21 = entries[2], d11 = entries[5], d12 = entries[6], d21 = entries[7];
-                    var u1 = c * u + m12 * w;
-                    var w1 = m21 * u + c * w;
-                    var du1 = d11 * u + d12 * w + c * du + m12 * dw;
-                    var dw1 = d21 * u + d11 * w + m21 * du + c * dw;
-                    var next = FloorQuadrant(u1, w1);
-                    zeros += ParityLayerZeros(i, e, entries[4], u, w, u1, w1, quadrant, next);
-                    (u, w, du, dw, quadrant) = (u1, w1, du1, dw1, next);
-                    log += entries[3];
-                    break;
-                }
                 case ElementKind.Delta:
                 {
                     var jump = DeltaJump(i);
