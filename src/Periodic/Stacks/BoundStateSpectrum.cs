@@ -21,9 +21,13 @@ namespace Periodic.Stacks;
 /// "Sturm oscillation and comparison theorems", in Sturm–Liouville Theory: Past and Present, Birkhäuser
 /// 2005). Zeros are counted layer by layer with the core's Prüfer-angle count, and the zero beyond the
 /// last interface from the sign of the growing tail. Bisection on this count isolates every level in
-/// its own bracket, so none is missed; each is then refined by Brent's method (R. P. Brent, 1973) on the
-/// normalised coefficient of the growing tail in the right lead, which changes sign exactly once in the
-/// bracket.</para>
+/// its own bracket, so none is missed; each is then refined by Newton's method on the coefficient of the growing tail in
+/// the right lead, which vanishes exactly once in the bracket, with its exact energy derivative propagated through the
+/// stack beside the state, every step safeguarded by the count (a step that leaves the bracket is replaced, and the
+/// result is proven by the count within the tolerance; e.g. W. H. Press et al., Numerical Recipes, 3rd ed., §9.4, for
+/// the safeguarded Newton step). Under a bias, where the layers' energy derivative is not propagated, Brent's method
+/// (R. P. Brent, 1973) on the normalised coefficient takes its place. The matrices of a layer that the stack repeats
+/// are formed once per energy and reused for every copy.</para>
 /// <para>The count is proven for parabolic layers and for smooth segments (Magnus steps, zeros counted in closed form per
 /// step). With non-parabolic masses the equation becomes nonlinear in E and the count is used as it stands. Internally the
 /// same search serves a closed box (hard walls at the stack's ends instead of leads), the domain of a finite stack's space

@@ -130,10 +130,7 @@ internal struct ScaledProduct
         if (max > RenormaliseAbove || (max < RenormaliseBelow && max > 0))
         {
             var exponent = Math.ILogB(max);
-            u = Math.ScaleB(u, -exponent);
-            w = Math.ScaleB(w, -exponent);
-            du = Math.ScaleB(du, -exponent);
-            dw = Math.ScaleB(dw, -exponent);
+            (u, w, du, dw) = (Math.ScaleB(u, -exponent), Math.ScaleB(w, -exponent), Math.ScaleB(du, -exponent), Math.ScaleB(dw, -exponent));
             log += exponent * Math.Log(2.0);
         }
     }
