@@ -21,9 +21,13 @@ namespace Periodic.Stacks;
 /// "Sturm oscillation and comparison theorems", in Sturm–Liouville Theory: Past and Present, Birkhäuser
 /// 2005). Zeros are counted layer by layer with the core's Prüfer-angle count, and the zero beyond the
 /// last interface from the sign of the growing tail. Bisection on this count isolates every level in
-/// its own bracket, so none is missed; each is then refined by Brent's method (R. P. Brent, 1973) on the
-/// normalised coefficient of the growing tail in the right lead, which changes sign exactly once in the
-/// bracket.</para>
+/// its own bracket, so none is missed; each is then refined by Newton's method on the coefficient of the growing tail in
+/// the right lead, which vanishes exactly once in the bracket, with its exact energy derivative propagated through the
+/// stack beside the state, every step safeguarded by the count (a step that leaves the bracket is replaced, and the
+/// result is proven by the count within the tolerance; e.g. W. H. Press et al., Numerical Recipes, 3rd ed., §9.4, for
+/// the safeguarded Newton step). Under a bias, where the layers' energy derivative is not propagated, Brent's method
+/// (R. P. Brent, 1973) on the normalised coefficient takes its place. The matrices of a layer that the stack repeats
+/// are formed once per energy and reused for every copy.</para>
 /// <para>The count is proven for parabolic layers and for smooth segments (Magnus steps, zeros counted in closed form per
 /// step). With non-parabolic masses the equation becomes nonlinear in E and the count is used as it stands. Internally the
 /// same search serves a closed box (hard walls at the stack's ends instead of leads), the domain of a finite stack's space
@@ -125,12 +129,13 @@ public sealed class BoundStateSpectrum
         // Binding energies below 1e-15 eV (relative to max(1, |edge|)) are not resolvable: the count stops there.
         var top = edge - ThresholdMarginElectronVolts * Math.Max(1, Math.Abs(edge));
         var lowestValid = profile.LowestValidEnergyElectronVolts;
+        var search = new Search(profile, options);
 
         // A floor with no level below: the lowest potential, lowered further for delta wells until the count is zero.
         var margin = Math.Max(1e-3, Math.Abs(edge - profile.MinimumPotentialElectronVolts));
         var bottom = profile.MinimumPotentialElectronVolts - margin;
         var guard = 0;
-        while (bottom > lowestValid && profile.CountBelow(bottom, out _) > 0 && guard++ < 200)
+        while (bottom > lowestValid && search.Count(bottom, out _) > 0 && guard++ < 200)
         {
             margin *= 2;
             bottom = profile.MinimumPotentialElectronVolts - margin;
@@ -143,87 +148,196 @@ public sealed class BoundStateSpectrum
         {
             return new BoundStateSpectrum(profile, [], 0, bottom, edge, options);
         }
-        var countBottom = profile.CountBelow(bottom, out _);
-        var total = profile.CountBelow(top, out _);
-        var levels = new List<BoundLevel>();
-        Isolate(profile, bottom, countBottom, top, total, options, levels);
+        var countBottom = search.Count(bottom, out var mismatchBottom);
+        var total = search.Count(top, out var mismatchTop);
+        search.Isolate(new Probe(bottom, countBottom, mismatchBottom), new Probe(top, total, mismatchTop));
+        var levels = search.Levels;
         levels.Sort((x, y) => x.Index.CompareTo(y.Index));
         return new BoundStateSpectrum(profile, levels.ToArray(), total, bottom, edge, options);
     }
 
-    private struct Mismatch(StackProfile profile) : IRealFunction
+    /// <summary>An energy where the count was taken: the count below it and the normalised mismatch there.</summary>
+    private readonly record struct Probe(double Energy, int Count, double Mismatch);
+
+    private struct Mismatch(StackProfile profile, double[] scratch) : IRealFunction
     {
         public readonly double Evaluate(double x)
         {
-            profile.CountBelow(x, out var g);
+            profile.CountBelow(x, out var g, scratch);
             return g;
         }
     }
 
-    private static void Isolate(StackProfile profile, double a, int countA, double b, int countB, BoundStateOptions options, List<BoundLevel> levels)
+    /// <summary>One search: the stack, the options, the kernel's scratch (allocated once, reused by every evaluation) and the levels found.</summary>
+    private sealed class Search(StackProfile profile, BoundStateOptions options)
     {
-        if (countB <= countA || countA >= options.MaxLevels)
-        {
-            return;
-        }
-        var tolerance = Math.Max(options.AbsoluteToleranceElectronVolts, options.RelativeTolerance * Math.Max(Math.Abs(a), Math.Abs(b)));
-        if (countB - countA == 1)
-        {
-            levels.Add(Refine(profile, a, b, countA, tolerance, options));
-            return;
-        }
-        var mid = 0.5 * (a + b);
-        if (b - a <= tolerance || mid <= a || mid >= b)
-        {
-            // Levels closer than the tolerance: report them together, flagged.
-            for (var n = countA; n < countB && n < options.MaxLevels; n++)
-            {
-                levels.Add(new BoundLevel(n, mid, 0.5 * (b - a), 0, false));
-            }
-            return;
-        }
-        var countMid = profile.CountBelow(mid, out _);
-        Isolate(profile, a, countA, mid, countMid, options, levels);
-        Isolate(profile, mid, countMid, b, countB, options, levels);
-    }
+        /// <summary>Newton steps per level before the search falls back to bisection on the count.</summary>
+        private const int MaxNewtonSteps = 100;
 
-    private static BoundLevel Refine(StackProfile profile, double a, double b, int index, double tolerance, BoundStateOptions options)
-    {
-        var function = new Mismatch(profile);
-        var root = RootFinding.Brent(ref function, a, b, options.AbsoluteToleranceElectronVolts, options.RelativeTolerance, 300);
-        var checkLower = Math.Max(a, Math.Min(root.Lower, root.Root - tolerance));
-        var checkUpper = Math.Min(b, Math.Max(root.Upper, root.Root + tolerance));
-        var iterations = 0;
-        if (root.Status == RootStatus.Converged && profile.CountBelow(checkLower, out _) <= index && profile.CountBelow(checkUpper, out _) >= index + 1)
+        private readonly double[] _scratch = new double[profile.ShootingScratchLength];
+
+        internal List<BoundLevel> Levels { get; } = [];
+
+        internal int Count(double e, out double mismatch) => profile.CountBelow(e, out mismatch, _scratch);
+
+        internal void Isolate(Probe lower, Probe upper)
         {
-            if (root.ErrorBound <= tolerance)
+            if (upper.Count <= lower.Count || lower.Count >= options.MaxLevels)
             {
-                return new BoundLevel(index, root.Root, root.ErrorBound, root.Iterations, true);
+                return;
             }
-            // A converged step larger than the tolerance (an exact zero hit early): finish on the count.
-            a = checkLower;
-            b = checkUpper;
-            iterations = root.Iterations;
-        }
-        // Bisection on the count alone (always converges, guaranteed bracket).
-        while (b - a > tolerance && iterations < 2000)
-        {
+            double a = lower.Energy, b = upper.Energy;
+            var tolerance = Math.Max(options.AbsoluteToleranceElectronVolts, options.RelativeTolerance * Math.Max(Math.Abs(a), Math.Abs(b)));
+            if (upper.Count - lower.Count == 1)
+            {
+                Levels.Add(profile.HasEnergyDerivative ? RefineNewton(lower, upper, tolerance) : RefineBrent(a, b, lower.Count, tolerance));
+                return;
+            }
             var mid = 0.5 * (a + b);
-            if (mid <= a || mid >= b)
+            if (b - a <= tolerance || mid <= a || mid >= b)
             {
-                break;
+                // Levels closer than the tolerance: report them together, flagged.
+                for (var n = lower.Count; n < upper.Count && n < options.MaxLevels; n++)
+                {
+                    Levels.Add(new BoundLevel(n, mid, 0.5 * (b - a), 0, false));
+                }
+                return;
             }
-            if (profile.CountBelow(mid, out _) <= index)
-            {
-                a = mid;
-            }
-            else
-            {
-                b = mid;
-            }
-            iterations++;
+            var countMid = Count(mid, out var mismatchMid);
+            var middle = new Probe(mid, countMid, mismatchMid);
+            Isolate(lower, middle);
+            Isolate(middle, upper);
         }
-        return new BoundLevel(index, 0.5 * (a + b), 0.5 * (b - a), iterations, true);
+
+        /// <summary>
+        /// Newton's method on the coefficient of the growing tail with its exact energy derivative, safeguarded by the count:
+        /// every evaluation also counts, and so narrows the bracket [lower, upper] that holds exactly this level; a step that
+        /// leaves it is replaced by Newton's step from the bracket's other end, else by bisection. Once a step is within the
+        /// tolerance, the point it came from bounds the level on one side and a count at the tolerance beyond the new estimate
+        /// on the other, so the level is proven within the tolerance; where rounding makes the count disagree (a tolerance at
+        /// the limit of double precision), bisection on the count finishes.
+        /// </summary>
+        private BoundLevel RefineNewton(Probe lower, Probe upper, double tolerance)
+        {
+            var index = lower.Count;
+            double lo = lower.Energy, hi = upper.Energy;
+            // Start from the regula falsi point of the normalised mismatch, kept off the ends of the bracket.
+            var fraction = lower.Mismatch / (lower.Mismatch - upper.Mismatch);
+            var x = lo + (double.IsFinite(fraction) ? Math.Clamp(fraction, 0.1, 0.9) : 0.5) * (hi - lo);
+            var evaluations = 0;
+            // Newton's step from the bracket's ends where an evaluation with the derivative set them (NaN: not yet).
+            double stepLo = double.NaN, stepHi = double.NaN;
+            while (evaluations < MaxNewtonSteps && hi - lo > tolerance)
+            {
+                var count = profile.CountBelow(x, _scratch, out var mismatch, out var slope);
+                evaluations++;
+                var next = x - mismatch / slope;
+                if (count <= index)
+                {
+                    (lo, stepLo) = (x, next);
+                }
+                else
+                {
+                    (hi, stepHi) = (x, next);
+                }
+                if (!(next > lo && next < hi))
+                {
+                    var other = x == lo ? stepHi : stepLo;
+                    x = other > lo && other < hi ? other : 0.5 * (lo + hi);
+                    continue;
+                }
+                var step = Math.Abs(next - x);
+                if (step <= tolerance)
+                {
+                    // x bounds the level on its side, within the tolerance of next; a count proves the other side.
+                    var beyond = next > x ? next + tolerance : next - tolerance;
+                    var error = Math.Max(step, FloatingPoint.MachineEpsilon * Math.Abs(next));
+                    if (next > x ? hi <= beyond : lo >= beyond)
+                    {
+                        return new BoundLevel(index, next, error, evaluations, true);
+                    }
+                    evaluations++;
+                    if (Count(beyond, out _) <= index)
+                    {
+                        lo = beyond;
+                    }
+                    else
+                    {
+                        hi = beyond;
+                    }
+                    if (lo <= next && next <= hi)
+                    {
+                        return new BoundLevel(index, next, error, evaluations, true);
+                    }
+                    // Rounding moves the count's step past the estimate: look for it at doubling distances, then bisect.
+                    for (var reach = 2 * tolerance; next > x ? next + reach < hi : next - reach > lo; reach *= 2)
+                    {
+                        var probe = next > x ? next + reach : next - reach;
+                        evaluations++;
+                        var above = Count(probe, out _) > index;
+                        if (above)
+                        {
+                            hi = probe;
+                        }
+                        else
+                        {
+                            lo = probe;
+                        }
+                        if (above == next > x)
+                        {
+                            break;
+                        }
+                    }
+                    break;
+                }
+                x = next;
+            }
+            return Bisect(lo, hi, index, tolerance, evaluations);
+        }
+
+        private BoundLevel RefineBrent(double a, double b, int index, double tolerance)
+        {
+            var function = new Mismatch(profile, _scratch);
+            var root = RootFinding.Brent(ref function, a, b, options.AbsoluteToleranceElectronVolts, options.RelativeTolerance, 300);
+            var checkLower = Math.Max(a, Math.Min(root.Lower, root.Root - tolerance));
+            var checkUpper = Math.Min(b, Math.Max(root.Upper, root.Root + tolerance));
+            var iterations = 0;
+            if (root.Status == RootStatus.Converged && Count(checkLower, out _) <= index && Count(checkUpper, out _) >= index + 1)
+            {
+                if (root.ErrorBound <= tolerance)
+                {
+                    return new BoundLevel(index, root.Root, root.ErrorBound, root.Iterations, true);
+                }
+                // A converged step larger than the tolerance (an exact zero hit early): finish on the count.
+                a = checkLower;
+                b = checkUpper;
+                iterations = root.Iterations;
+            }
+            return Bisect(a, b, index, tolerance, iterations);
+        }
+
+        /// <summary>Bisection on the count alone (always converges, guaranteed bracket).</summary>
+        private BoundLevel Bisect(double a, double b, int index, double tolerance, int iterations)
+        {
+            while (b - a > tolerance && iterations < 2000)
+            {
+                var mid = 0.5 * (a + b);
+                if (mid <= a || mid >= b)
+                {
+                    break;
+                }
+                if (Count(mid, out _) <= index)
+                {
+                    a = mid;
+                }
+                else
+                {
+                    b = mid;
+                }
+                iterations++;
+            }
+            return new BoundLevel(index, 0.5 * (a + b), 0.5 * (b - a), iterations, true);
+        }
     }
 
     /// <summary>

@@ -48,20 +48,10 @@ public sealed class BoundWavefunction
         var mLeft = profile.Stack.LeftLead.MassElectronMasses;
         var mRight = profile.RightLead.MassElectronMasses;
         // Between hard walls ψ starts at zero with a unit slope from each end; between leads it decays into them.
-        double u = walls ? 0 : 1, w = walls ? 1 : kappaLeft / mLeft, log = 0;
-        uL[0] = u; wL[0] = w; lL[0] = log;
-        for (var i = 0; i < n; i++)
-        {
-            profile.Kernel.StepForward(i, e, ref u, ref w, ref log);
-            uL[i + 1] = u; wL[i + 1] = w; lL[i + 1] = log;
-        }
-        u = walls ? 0 : 1; w = walls ? 1 : -kappaRight / mRight; log = 0;
-        uR[n] = u; wR[n] = w; lR[n] = log;
-        for (var i = n - 1; i >= 0; i--)
-        {
-            profile.Kernel.StepBackward(i, e, ref u, ref w, ref log);
-            uR[i] = u; wR[i] = w; lR[i] = log;
-        }
+        // The matrices of repeated layers are formed once for the energy (the kernel's table in scratch).
+        var scratch = new double[profile.ShootingScratchLength];
+        profile.Kernel.ShootStates(e, walls ? 0 : 1, walls ? 1 : kappaLeft / mLeft, forward: true, uL, wL, lL, scratch);
+        profile.Kernel.ShootStates(e, walls ? 0 : 1, walls ? 1 : -kappaRight / mRight, forward: false, uR, wR, lR, scratch);
 
         // Join where both pieces are largest: there the eigenfunction itself is largest.
         var mu = walls ? mLeft * StackProfile.WallLengthNanometres : Math.Min(mLeft / kappaLeft, mRight / kappaRight);
@@ -94,6 +84,7 @@ public sealed class BoundWavefunction
             }
         }
         // Normalisation: tails in closed form, each layer integrated from the end its piece grows away from.
+        ReadOnlySpan<double> integrals = profile.Kernel.FillIntegralClasses(e, scratch) ? scratch : default;
         var logs = new double[n + 2];
         logs[0] = walls ? double.NegativeInfinity : 2 * (Math.Log(Math.Abs(_u[0])) + _log[0]) - Math.Log(2 * kappaLeft);
         logs[n + 1] = walls ? double.NegativeInfinity : 2 * (Math.Log(Math.Abs(_u[n])) + _log[n]) - Math.Log(2 * kappaRight);
@@ -123,8 +114,8 @@ public sealed class BoundWavefunction
             }
             profile.Kernel.LayerCoefficients(i, e, out var mass, out _);
             logs[i + 1] = i < j
-                ? profile.Kernel.LogLayerIntegral(i, e, uL[i], mass * wL[i]) + 2 * lL[i]
-                : profile.Kernel.LogLayerIntegral(i, e, uR[i + 1], -mass * wR[i + 1]) + 2 * (lR[i + 1] + logLambda);
+                ? profile.Kernel.TabledLogLayerIntegral(i, e, uL[i], mass * wL[i], integrals) + 2 * lL[i]
+                : profile.Kernel.TabledLogLayerIntegral(i, e, uR[i + 1], -mass * wR[i + 1], integrals) + 2 * (lR[i + 1] + logLambda);
         }
         var max = logs.Max();
         double sum = 0;

@@ -72,6 +72,13 @@ public readonly record struct Lead
         return deficit > 0 ? Math.Sqrt(MassElectronMasses * deficit / PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2) : 0.0;
     }
 
+    /// <summary>dκ/dE = −m/(2Cκ) below the band edge (C = ħ²/2m₀), 1/(nm eV): the decay constant's slope for energy derivatives of states.</summary>
+    internal double DecayConstantSlope(double energyElectronVolts)
+    {
+        var kappa = DecayConstantPerNanometre(energyElectronVolts);
+        return kappa > 0 ? -MassElectronMasses / (2 * PhysicalConstants.HbarSquaredOverTwoElectronMassEvNm2 * kappa) : double.NegativeInfinity;
+    }
+
     internal void Validate(string paramName)
     {
         if (!(MassElectronMasses > 0))

@@ -113,6 +113,8 @@ internal sealed class StackProfile
     /// <summary>True for a closed box (<see cref="StackProfile(LayerStack, long, string, bool)"/>): ψ vanishes at both ends.</summary>
     internal bool HardWalls { get; }
 
+
+
     internal LayerStack Stack { get; }
 
     /// <summary>The stack's elements written out, in order (element i of <see cref="Kernel"/> is Elements[i]).</summary>
@@ -149,19 +151,21 @@ internal sealed class StackProfile
     /// Number of bound states strictly below <paramref name="e"/> (e below both lead edges): the zeros on the
     /// whole line of the solution that decays into the left lead (Sturm oscillation theorem).
     /// </summary>
-    internal int CountBelow(double e, out double mismatch)
+    internal int CountBelow(double e, out double mismatch) => CountBelow(e, out mismatch, default);
+
+    /// <summary>
+    /// As <see cref="CountBelow(double, out double)"/>, with <paramref name="scratch"/> (<see cref="ShootingScratchLength"/>
+    /// doubles, or fewer to step element by element) for the kernel's per-energy table of repeated layers; the same numbers.
+    /// </summary>
+    internal int CountBelow(double e, out double mismatch, Span<double> scratch)
     {
         if (HardWalls)
         {
-            return CountBelowInBox(e, out mismatch);
+            return CountBelowInBox(e, out mismatch, scratch);
         }
         var mLeft = Stack.LeftLead.MassElectronMasses;
         double u = 1, w = LeftDecay(e) / mLeft, log = 0;
-        var zeros = 0;
-        for (var i = 0; i < Kernel.Count; i++)
-        {
-            zeros += Kernel.StepForward(i, e, ref u, ref w, ref log);
-        }
+        var zeros = Kernel.Shoot(e, ref u, ref w, ref log, scratch);
         // In the right lead ψ = A e^{κ(x−L)} + B e^{−κ(x−L)}; it has one more zero iff u(L) and A have opposite signs.
         var tail = RightLead.MassElectronMasses * w / RightDecay(e);
         var growing = u + tail;
@@ -174,19 +178,64 @@ internal sealed class StackProfile
         return zeros;
     }
 
+    /// <summary>Scratch doubles for <see cref="CountBelow(double, out double, Span{double})"/> and <see cref="CountBelow(double, Span{double}, out double, out double)"/>.</summary>
+    internal int ShootingScratchLength => Kernel.ShootingScratchLength;
+
+    /// <summary>True when <see cref="CountBelow(double, Span{double}, out double, out double)"/> applies (no bias).</summary>
+    internal bool HasEnergyDerivative => Kernel.HasEnergyDerivative;
+
+    /// <summary>
+    /// As <see cref="CountBelow(double, out double, Span{double})"/>, with the coefficient A of the growing tail in the right lead
+    /// of the solution that decays into the left one (between hard walls: ψ(L)), which vanishes exactly at the levels and is
+    /// smooth in E, and its exact energy derivative: <paramref name="mismatch"/> = A/s and <paramref name="slope"/> = (dA/dE)/s
+    /// (1/eV) for some s &gt; 0 that changes with the energy, so only their ratio, the Newton step −A/A′, is meaningful.
+    /// </summary>
+    internal int CountBelow(double e, Span<double> scratch, out double mismatch, out double slope)
+    {
+        double u, w, du, dw, log = 0;
+        int zeros;
+        double growing, growingSlope;
+        if (HardWalls)
+        {
+            (u, w, du, dw) = (0, 1, 0, 0);
+            zeros = Kernel.ShootWithDerivative(e, ref u, ref w, ref du, ref dw, ref log, scratch);
+            if (u == 0)
+            {
+                zeros--; // the far wall itself is not in the open interval
+            }
+            (growing, growingSlope) = (u, du);
+        }
+        else
+        {
+            var leftLead = Stack.LeftLead;
+            var mLeft = leftLead.MassElectronMasses;
+            (u, w, du, dw) = (1, LeftDecay(e) / mLeft, 0, leftLead.DecayConstantSlope(e) / mLeft);
+            zeros = Kernel.ShootWithDerivative(e, ref u, ref w, ref du, ref dw, ref log, scratch);
+            var mRight = RightLead.MassElectronMasses;
+            var kappa = RightDecay(e);
+            var tail = mRight * w / kappa;
+            var dtail = mRight * dw / kappa - tail * RightLead.DecayConstantSlope(e) / kappa;
+            if (u * (u + tail) < 0)
+            {
+                zeros++;
+            }
+            (growing, growingSlope) = (u + tail, du + dtail);
+        }
+        // Only the ratio matters (both carry the pass's scale e^log): bring them to order one.
+        var size = Math.Max(Math.Abs(growing), Math.Abs(growingSlope));
+        (mismatch, slope) = size > 0 && double.IsFinite(size) ? (growing / size, growingSlope / size) : (0.0, double.NaN);
+        return zeros;
+    }
+
     /// <summary>
     /// Number of states of the closed box strictly below <paramref name="e"/>: the zeros in (0, L) of the solution with ψ(0) = 0
     /// (Sturm oscillation theorem for Dirichlet conditions; G. Teschl, Ordinary Differential Equations and Dynamical Systems,
     /// AMS 2012, ch. 5). The mismatch is ψ(L) over the size of the state there, which changes sign at each level.
     /// </summary>
-    private int CountBelowInBox(double e, out double mismatch)
+    private int CountBelowInBox(double e, out double mismatch, Span<double> scratch)
     {
         double u = 0, w = 1, log = 0;
-        var zeros = 0;
-        for (var i = 0; i < Kernel.Count; i++)
-        {
-            zeros += Kernel.StepForward(i, e, ref u, ref w, ref log);
-        }
+        var zeros = Kernel.Shoot(e, ref u, ref w, ref log, scratch);
         if (u == 0)
         {
             zeros--; // the far wall itself is not in the open interval

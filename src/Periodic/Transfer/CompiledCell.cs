@@ -612,30 +612,7 @@ internal sealed partial class CompiledCell
     /// ln ∫ψ² over layer <paramref name="i"/> for ψ = a·c(y) + b·S(y), y measured from the end the state is given at (b = m·ψ′/m
     /// there, pointing into the layer); in closed form, with thick barriers in decaying exponentials so nothing overflows.
     /// </summary>
-    internal double LogLayerIntegral(int i, double e, double a, double b)
-    {
-        LayerCoefficients(i, e, out _, out var s);
-        var width = _data[ElementData.Stride * i + ElementData.Width];
-        var z = s * width * width;
-        double integral, logExtra = 0;
-        if (s < 0 && z <= -1)
-        {
-            var kappa = Math.Sqrt(-s);
-            var theta = kappa * width;
-            var q = Math.Exp(-2 * theta);
-            var alpha = 0.5 * (a + b / kappa);
-            var beta = 0.5 * (a - b / kappa);
-            integral = alpha * alpha * (1 - q) / (2 * kappa) + beta * beta * q * (1 - q) / (2 * kappa) + 2 * alpha * beta * width * q;
-            logExtra = 2 * theta;
-        }
-        else
-        {
-            UniformLayerPropagator.UnscaledValues(s, width, out var c, out var sinc);
-            UniformLayerPropagator.SquareIntegrals(s, width, c, sinc, out var cc, out var cs, out var ss);
-            integral = a * a * cc + 2 * a * b * cs + b * b * ss;
-        }
-        return integral > 0 ? Math.Log(integral) + logExtra : double.NegativeInfinity;
-    }
+    internal double LogLayerIntegral(int i, double e, double a, double b) => TabledLogLayerIntegral(i, e, a, b, default);
 
     /// <summary>
     /// Propagates the real state (u₀, w₀) = (ψ, ψ′/m) at the start through every element at energy <paramref name="e"/>,

@@ -121,4 +121,17 @@ internal struct ScaledProduct
             log += exponent * Math.Log(2.0);
         }
     }
+
+    /// <summary>As <see cref="Renormalise(ref double, ref double, ref double)"/> for a state and its derivative, by one power of two set by the larger.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    internal static void Renormalise(ref double u, ref double w, ref double du, ref double dw, ref double log)
+    {
+        var max = Math.Max(Math.Max(Math.Abs(u), Math.Abs(w)), Math.Max(Math.Abs(du), Math.Abs(dw)));
+        if (max > RenormaliseAbove || (max < RenormaliseBelow && max > 0))
+        {
+            var exponent = Math.ILogB(max);
+            (u, w, du, dw) = (Math.ScaleB(u, -exponent), Math.ScaleB(w, -exponent), Math.ScaleB(du, -exponent), Math.ScaleB(dw, -exponent));
+            log += exponent * Math.Log(2.0);
+        }
+    }
 }

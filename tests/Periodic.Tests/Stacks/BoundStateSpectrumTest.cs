@@ -230,6 +230,37 @@ public sealed partial class BoundStateSpectrumTest(ITestOutputHelper output)
         Assert.Equal(spectrum.TotalCount, spectrum.CountBelow(0.3));
     }
 
+    [Theory]
+    [InlineData(1e-12)]
+    [InlineData(1e-16)]
+    public void Find_TwentyCoupledWells_ProvesEveryLevelWithinItsTolerance(double tolerance)
+    {
+        // 8 nm wells (0.067 m0) between 10 nm barriers of 0.26 eV (0.092 m0), a demo design: one such well holds two levels
+        // (ceil(2 z0/π) with z0 = (a/2)·sqrt(2mV)/ħ ≈ 2.7; Griffiths, Introduction to Quantum Mechanics, §2.6), and N coupled
+        // wells split each into N (common practice, no single source), so both minibands of 20 levels each lie below the edge.
+        var well = Slab(8, 0);
+        var barrier = Layer.Create(Length.FromNanometres(10), Energy.FromElectronVolts(0.26), EffectiveMass.FromElectronMasses(0.092));
+        var lead = Lead.Like(barrier);
+        var stack = LayerStack.Create(lead, [StackPart.Repeat(UnitCell.Create(well, barrier), 19), StackPart.Single(well)], lead);
+        var spectrum = BoundStateSpectrum.Find(stack, BoundStateOptions.Create(absoluteToleranceElectronVolts: tolerance));
+        Assert.Equal(40, spectrum.TotalCount);
+        Assert.Equal(40, spectrum.Levels.Count);
+        for (var i = 0; i < spectrum.Levels.Count; i++)
+        {
+            var level = spectrum.Levels[i];
+            Assert.True(level.IsResolved);
+            var bound = Math.Max(tolerance, 4e-16 * Math.Abs(level.EnergyElectronVolts));
+            Assert.True(level.ErrorElectronVolts <= bound, $"level {i}: error {level.ErrorElectronVolts:E2} eV");
+            if (tolerance >= 1e-12)
+            {
+                // The count, the proof that no level is missed, puts level i within its tolerance (twice it, clear of rounding
+                // in the count, which moves the step of a miniband level by about 1e-15 eV).
+                Assert.Equal(i, spectrum.CountBelow(level.EnergyElectronVolts - 2 * bound));
+                Assert.Equal(i + 1, spectrum.CountBelow(level.EnergyElectronVolts + 2 * bound));
+            }
+        }
+    }
+
     [Fact]
     public void Find_DeltaWell_HasItsSingleTextbookLevel()
     {
