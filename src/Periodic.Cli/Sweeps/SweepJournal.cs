@@ -10,7 +10,7 @@ namespace Periodic.Cli.Sweeps;
 /// <summary>
 /// The finished rows of a sweep that is still running, beside its output (<c>OUT.journal</c>), so that a killed
 /// sweep restarted with the same command redoes none of them. The first line says which sweep and shard the journal
-/// belongs to (and its format, <see cref="Format"/>); then one line per design: <c>DESIGN,V1,…,VN,E</c> where each value is
+/// belongs to (and its format, <see cref="Format"/>); then one line per design (in the order they finish): <c>DESIGN,V1,…,VN,E</c> where each value is
 /// the 16 hexadecimal digits of its IEEE 754 bits (read back bit for bit, and far cheaper to write than decimal) or empty
 /// where none, and <c>E</c> is empty or <c>!</c> followed by the design's error. Only lines ended by a line break count: a
 /// line cut short by the kill is dropped and its design recomputed. The journal is deleted once the output file is written.
@@ -24,7 +24,6 @@ internal sealed class SweepJournal : IDisposable
     public const int Format = 2;
 
     private readonly FileStream _stream;
-    private byte[] _line = new byte[1024];
     private long _lastDiskSync = System.Diagnostics.Stopwatch.GetTimestamp();
 
     private SweepJournal(string path, FileStream stream, List<SweepRow> done)
@@ -88,43 +87,58 @@ internal sealed class SweepJournal : IDisposable
         return new SweepJournal(path, stream, done);
     }
 
-    /// <summary>Appends finished rows and hands them to the operating system (and to the disk at most every <see cref="DiskSyncInterval"/>).</summary>
-    public void Append(IEnumerable<SweepRow> rows)
+    /// <summary>
+    /// One finished design's journal line (UTF-8, ended by a line break) appended at <paramref name="length"/> in
+    /// <paramref name="buffer"/>, which grows when it must. Formatting needs no journal: the sweep's workers do it.
+    /// </summary>
+    public static void AppendLine(int design, ReadOnlySpan<double?> values, string? error, ref byte[] buffer, ref int length)
     {
-        foreach (var row in rows)
+        var most = 12 + 17 * values.Length + (error is null ? 0 : Encoding.UTF8.GetMaxByteCount(error.Length) + 1) + 2;
+        if (buffer.Length - length < most)
         {
-            var length = 0;
-            var error = row.Error is null ? 0 : Encoding.UTF8.GetMaxByteCount(row.Error.Length) + 1;
-            var most = 12 + 17 * row.Values.Length + error + 2;
-            if (_line.Length < most)
-            {
-                _line = new byte[Math.Max(most, 2 * _line.Length)];
-            }
-            var line = _line.AsSpan();
-            row.Design.TryFormat(line, out var written, default, CultureInfo.InvariantCulture);
-            length += written;
-            foreach (var value in row.Values)
-            {
-                line[length++] = (byte)',';
-                if (value is { } x)
-                {
-                    BitConverter.DoubleToUInt64Bits(x).TryFormat(line[length..], out written, "x16", CultureInfo.InvariantCulture);
-                    length += written;
-                }
-            }
-            line[length++] = (byte)',';
-            if (row.Error is not null)
-            {
-                line[length++] = (byte)'!';
-                length += Encoding.UTF8.GetBytes(row.Error, line[length..]);
-            }
-            line[length++] = (byte)'\n';
-            _stream.Write(line[..length]);
+            Array.Resize(ref buffer, Math.Max(2 * buffer.Length, length + most));
         }
-        // Every batch reaches the operating system at once, so a killed sweep (SIGKILL, a scheduler's preemption) loses
-        // no finished row. Forcing it onto the disk costs a few milliseconds per call on shared storage, so it happens at
-        // most once per DiskSyncInterval: a machine crash loses at most that much work, which the resumed run recomputes
-        // (a torn last line is dropped; see Open).
+        var line = buffer.AsSpan(length);
+        design.TryFormat(line, out var k, default, CultureInfo.InvariantCulture);
+        foreach (var value in values)
+        {
+            line[k++] = (byte)',';
+            if (value is { } x)
+            {
+                WriteHexadecimal(BitConverter.DoubleToUInt64Bits(x), line.Slice(k, 16));
+                k += 16;
+            }
+        }
+        line[k++] = (byte)',';
+        if (error is not null)
+        {
+            line[k++] = (byte)'!';
+            k += Encoding.UTF8.GetBytes(error, line[k..]);
+        }
+        line[k++] = (byte)'\n';
+        length += k;
+    }
+
+    /// <summary>The 16 lower-case hexadecimal digits of <paramref name="bits"/>, most significant first (as the "x16" format writes them).</summary>
+    private static void WriteHexadecimal(ulong bits, Span<byte> digits)
+    {
+        for (var i = 15; i >= 0; i--)
+        {
+            digits[i] = (byte)"0123456789abcdef"[(int)(bits & 0xF)];
+            bits >>= 4;
+        }
+    }
+
+    /// <summary>Appends journal lines that <see cref="AppendLine"/> formatted.</summary>
+    public void Write(ReadOnlySpan<byte> lines) => _stream.Write(lines);
+
+    /// <summary>Hands the appended lines to the operating system (and to the disk at most every <see cref="DiskSyncInterval"/>).</summary>
+    public void Flush()
+    {
+        // Finished rows reach the operating system as they are handed over, so a killed sweep (SIGKILL, a scheduler's
+        // preemption) loses no row written before. Forcing them onto the disk costs a few milliseconds per call on shared
+        // storage, so it happens at most once per DiskSyncInterval: a machine crash loses at most that much work, which the
+        // resumed run recomputes (a torn last line is dropped; see Open).
         var now = System.Diagnostics.Stopwatch.GetTimestamp();
         var synced = System.Diagnostics.Stopwatch.GetElapsedTime(_lastDiskSync, now) >= DiskSyncInterval;
         _stream.Flush(flushToDisk: synced);
@@ -143,7 +157,7 @@ internal sealed class SweepJournal : IDisposable
 
     public void Dispose() => _stream.Dispose();
 
-    /// <summary>A row line as <see cref="Append"/> writes it, or null when it is not one (damaged).</summary>
+    /// <summary>A row line as <see cref="AppendLine"/> writes it, or null when it is not one (damaged).</summary>
     private static SweepRow? TryParse(string line, int columns)
     {
         var rest = line.AsSpan();

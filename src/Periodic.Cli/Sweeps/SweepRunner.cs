@@ -106,6 +106,16 @@ internal sealed class SweepRunner(SweepSpec spec)
     public SweepRow Evaluate(int index)
     {
         var values = new double?[Columns.Count];
+        return new SweepRow(index, values, Evaluate(index, values));
+    }
+
+    /// <summary>
+    /// Computes design <paramref name="index"/> into <paramref name="values"/> (one per column, null where none; a buffer the
+    /// caller reuses); returns the design's error, or null when it has none.
+    /// </summary>
+    public string? Evaluate(int index, double?[] values)
+    {
+        Array.Clear(values);
         Span<double> parameters = stackalloc double[spec.Parameters.Count];
         spec.Plan.Values(index, parameters);
         for (var j = 0; j < parameters.Length; j++)
@@ -117,7 +127,7 @@ internal sealed class SweepRunner(SweepSpec spec)
             if (_template?.TryBuild(parameters) is { } cell)
             {
                 // Bands only (the template's condition): the same cell as the document would give, solved the same way.
-                return new SweepRow(index, values, EvaluateBands(cell, values, parameters.Length, SensitivityStart));
+                return EvaluateBands(cell, values, parameters.Length, SensitivityStart);
             }
             var document = spec.Structure.DeepClone().AsObject();
             for (var j = 0; j < parameters.Length; j++)
@@ -181,12 +191,12 @@ internal sealed class SweepRunner(SweepSpec spec)
                     }
                 }
             }
-            return new SweepRow(index, values, error);
+            return error;
         }
         catch (Exception e) when (e is StructureFileException or ArgumentException or ArithmeticException or InvalidOperationException
             or PeriodicComputationException or UsageException)
         {
-            return new SweepRow(index, values, OneLine(e.Message));
+            return OneLine(e.Message);
         }
     }
 

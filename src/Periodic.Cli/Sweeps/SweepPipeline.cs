@@ -1,0 +1,260 @@
+// SPDX-License-Identifier: MIT
+// Copyright (c) 2026 Periodic contributors
+
+using System.Diagnostics;
+using System.Runtime.ExceptionServices;
+using Periodic.Cli.Output;
+
+namespace Periodic.Cli.Sweeps;
+
+/// <summary>
+/// Runs a sweep's designs on worker threads and streams the rows, in design order, into the output while they compute.
+/// </summary>
+/// <remarks>
+/// The designs (this shard's, in order) are cut into chunks of <see cref="DesignsPerChunk"/>. Each worker takes the next
+/// chunk (a shared counter: no barrier, a fast worker just takes more), computes its designs into a reused buffer and
+/// formats them itself: the CSV lines and, for designs not resumed from the journal, the journal lines, into the chunk's
+/// pooled byte buffers. The calling thread hands the chunks over in design order: CSV bytes to the output stream, journal
+/// lines to the journal. At most <see cref="ChunksInFlight"/> chunks are between a worker and the output, so memory stays
+/// bounded and no row is kept once written. Parquet (one row group, so the same bytes as a table written at once) keeps
+/// the rows and writes them after the last design. The rows are those each design gives alone: the same bytes for any
+/// number of workers.
+/// </remarks>
+internal sealed class SweepPipeline
+{
+    /// <summary>Designs per chunk: a few milliseconds of work, so that the end of the run waits little for the last chunk.</summary>
+    private const int DesignsPerChunk = 64;
+
+    private readonly SweepRunner _runner;
+    private readonly int[] _designs;
+    private readonly SweepRow?[] _resumed;
+    private readonly SweepJournal _journal;
+    private readonly int _workers;
+    private readonly bool _parquet;
+    private readonly Chunk[] _slots;
+    private readonly int _chunkCount;
+    private readonly object _gate = new();
+    private int _nextChunk = -1;
+    private ExceptionDispatchInfo? _failure;
+
+    /// <param name="runner">Computes a design.</param>
+    /// <param name="designs">The designs to output (this shard's), in design order.</param>
+    /// <param name="resumed">Rows a previous run finished, by design number (null: compute the design).</param>
+    /// <param name="journal">Where the newly computed rows go as they are written.</param>
+    /// <param name="workers">Worker threads.</param>
+    /// <param name="parquet">True to keep the rows for a Parquet table, false to stream CSV.</param>
+    public SweepPipeline(SweepRunner runner, int[] designs, SweepRow?[] resumed, SweepJournal journal, int workers, bool parquet)
+    {
+        _runner = runner;
+        _designs = designs;
+        _resumed = resumed;
+        _journal = journal;
+        _workers = workers;
+        _parquet = parquet;
+        _chunkCount = (designs.Length + DesignsPerChunk - 1) / DesignsPerChunk;
+        _slots = new Chunk[ChunksInFlight];
+        for (var s = 0; s < _slots.Length; s++)
+        {
+            _slots[s] = new Chunk();
+        }
+        Rows = parquet ? new SweepRow[designs.Length] : null;
+    }
+
+    private int ChunksInFlight => 4 * _workers + 4;
+
+    /// <summary>For Parquet, the rows in design order once <see cref="Run"/> has returned; null for CSV.</summary>
+    public SweepRow[]? Rows { get; }
+
+    /// <summary>Wall time from the start of <see cref="Run"/> until the last chunk was handed over.</summary>
+    public TimeSpan Elapsed { get; private set; }
+
+    /// <summary>Time the workers spent formatting CSV and journal lines, summed over the workers.</summary>
+    public TimeSpan FormatTime { get; private set; }
+
+    /// <summary>Time the handing-over thread spent writing to the output and the journal (it runs beside the workers).</summary>
+    public TimeSpan WriteTime { get; private set; }
+
+    /// <summary>Time the workers spent computing designs, summed over the workers.</summary>
+    public TimeSpan ComputeTime { get; private set; }
+
+    /// <summary>Rows that hold an error (computed or resumed).</summary>
+    public int Failed { get; private set; }
+
+    /// <summary>Designs computed (not resumed from the journal).</summary>
+    public int Computed { get; private set; }
+
+    /// <summary>
+    /// Computes every design and writes the CSV rows (not the header) to <paramref name="output"/> in design order
+    /// (for Parquet, fills <see cref="Rows"/>); the newly computed rows go to the journal.
+    /// </summary>
+    public void Run(Stream? output, Progress progress)
+    {
+        var clock = Stopwatch.StartNew();
+        using var free = new SemaphoreSlim(_slots.Length, _slots.Length);
+        using var cancel = new CancellationTokenSource();
+        var workerTimes = new (long Compute, long Format, int Computed, int Failed)[_workers];
+        var threads = new Thread[_workers];
+        for (var w = 0; w < threads.Length; w++)
+        {
+            var worker = w;
+            threads[w] = new Thread(() => workerTimes[worker] = Work(free, cancel.Token)) { IsBackground = true, Name = "sweep worker" };
+            threads[w].Start();
+        }
+        long writing = 0;
+        try
+        {
+            var finished = 0;
+            var unflushed = false;
+            for (var c = 0; c < _chunkCount; c++)
+            {
+                var slot = _slots[c % _slots.Length];
+                while (true)
+                {
+                    lock (_gate)
+                    {
+                        _failure?.Throw();
+                        if (slot.Number == c)
+                        {
+                            break;
+                        }
+                    }
+                    // Nothing ready: the journal lines written so far go to the operating system while the workers compute.
+                    if (unflushed)
+                    {
+                        var flushStart = Stopwatch.GetTimestamp();
+                        _journal.Flush();
+                        writing += Stopwatch.GetTimestamp() - flushStart;
+                        unflushed = false;
+                    }
+                    lock (_gate)
+                    {
+                        while (slot.Number != c && _failure is null)
+                        {
+                            Monitor.Wait(_gate);
+                        }
+                    }
+                }
+                var start = Stopwatch.GetTimestamp();
+                output?.Write(slot.Csv, 0, slot.CsvLength);
+                _journal.Write(slot.Journal.AsSpan(0, slot.JournalLength));
+                writing += Stopwatch.GetTimestamp() - start;
+                unflushed = true;
+                finished += slot.Count;
+                free.Release();
+                progress.Report(finished);
+            }
+            var last = Stopwatch.GetTimestamp();
+            _journal.Flush();
+            writing += Stopwatch.GetTimestamp() - last;
+        }
+        finally
+        {
+            cancel.Cancel();
+            foreach (var thread in threads)
+            {
+                thread.Join();
+            }
+        }
+        Elapsed = clock.Elapsed;
+        WriteTime = Stopwatch.GetElapsedTime(0, writing);
+        ComputeTime = Stopwatch.GetElapsedTime(0, workerTimes.Sum(t => t.Compute));
+        FormatTime = Stopwatch.GetElapsedTime(0, workerTimes.Sum(t => t.Format));
+        Computed = workerTimes.Sum(t => t.Computed);
+        Failed = workerTimes.Sum(t => t.Failed);
+    }
+
+    /// <summary>One worker's loop; returns its compute and format times (timestamp ticks) and its computed designs.</summary>
+    private (long Compute, long Format, int Computed, int Failed) Work(SemaphoreSlim free, CancellationToken cancel)
+    {
+        // Kept in locals, not in a shared array, so that the workers never write to the same cache line.
+        (long Compute, long Format, int Computed, int Failed) time = default;
+        var values = new double?[_runner.Columns.Count];
+        try
+        {
+            while (true)
+            {
+                free.Wait(cancel);
+                var c = Interlocked.Increment(ref _nextChunk);
+                if (c >= _chunkCount)
+                {
+                    return time;
+                }
+                var slot = _slots[c % _slots.Length];
+                slot.CsvLength = 0;
+                slot.JournalLength = 0;
+                var first = c * DesignsPerChunk;
+                var end = Math.Min(_designs.Length, first + DesignsPerChunk);
+                for (var i = first; i < end; i++)
+                {
+                    var design = _designs[i];
+                    var t0 = Stopwatch.GetTimestamp();
+                    ReadOnlySpan<double?> row;
+                    string? error;
+                    var done = _resumed[design];
+                    var fresh = done is null;
+                    if (done is null)
+                    {
+                        error = _runner.Evaluate(design, values);
+                        row = values;
+                        time.Computed++;
+                    }
+                    else
+                    {
+                        error = done.Error;
+                        row = done.Values;
+                    }
+                    var t1 = Stopwatch.GetTimestamp();
+                    if (Rows is not null)
+                    {
+                        Rows[i] = done ?? new SweepRow(design, values.ToArray(), error);
+                    }
+                    else
+                    {
+                        SweepTable.AppendCsvRow(design, row, error, ref slot.Csv, ref slot.CsvLength);
+                    }
+                    if (fresh)
+                    {
+                        SweepJournal.AppendLine(design, row, error, ref slot.Journal, ref slot.JournalLength);
+                    }
+                    if (error is not null)
+                    {
+                        time.Failed++;
+                    }
+                    var t2 = Stopwatch.GetTimestamp();
+                    time.Compute += t1 - t0;
+                    time.Format += t2 - t1;
+                }
+                lock (_gate)
+                {
+                    slot.Count = end - first;
+                    slot.Number = c;
+                    Monitor.PulseAll(_gate);
+                }
+            }
+        }
+        catch (OperationCanceledException) when (cancel.IsCancellationRequested)
+        {
+            // The run stopped (another worker failed, or writing did): nothing more to compute.
+        }
+        catch (Exception e)
+        {
+            lock (_gate)
+            {
+                _failure ??= ExceptionDispatchInfo.Capture(e);
+                Monitor.PulseAll(_gate);
+            }
+        }
+        return time;
+    }
+
+    /// <summary>One chunk's formatted lines, reused for chunk numbers that are <see cref="ChunksInFlight"/> apart.</summary>
+    private sealed class Chunk
+    {
+        public int Number = -1;
+        public int Count;
+        public byte[] Csv = new byte[1 << 15];
+        public int CsvLength;
+        public byte[] Journal = new byte[1 << 15];
+        public int JournalLength;
+    }
+}
