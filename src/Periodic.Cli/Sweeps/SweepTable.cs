@@ -129,8 +129,8 @@ internal sealed class SweepTable
     public static void AppendCsvRow(int design, ReadOnlySpan<double?> values, string? error, ref byte[] buffer, ref int length)
     {
         var escaped = error is null ? null : Csv.Escape(error);
-        // design, then each value (at most 24 bytes in round-trip form) after its comma, the error, the line break
-        var most = 11 + 25 * values.Length + 1 + (escaped is null ? 0 : Encoding.UTF8.GetMaxByteCount(escaped.Length)) + 1;
+        // design, then each value (shortest round-trip form, the same bytes as "R") after its comma, the error, the line break
+        var most = 11 + (ShortestDecimal.MaxBytes + 1) * values.Length + 1 + (escaped is null ? 0 : Encoding.UTF8.GetMaxByteCount(escaped.Length)) + 1;
         if (buffer.Length - length < most)
         {
             Array.Resize(ref buffer, Math.Max(2 * buffer.Length, length + most));
@@ -143,8 +143,7 @@ internal sealed class SweepTable
             line[k++] = (byte)',';
             if (value is { } x)
             {
-                x.TryFormat(line[k..], out written, "R", CultureInfo.InvariantCulture);
-                k += written;
+                k += ShortestDecimal.Format(x, line[k..]);
             }
         }
         line[k++] = (byte)',';
