@@ -50,6 +50,11 @@ internal static partial class SweepCommand
                 $"{{\"periodicSweepJournal\":{SweepJournal.Format},\"fingerprint\":\"{sweep.Fingerprint}\",\"shard\":\"{index}/{of}\",\"columns\":{runner.Columns.Count}}}");
             var rows = new SweepRow?[sweep.DesignCount];
             using var journal = SweepJournal.Open(outPath, identity, runner.Columns.Count);
+            if (journal.Resumed)
+            {
+                // Resuming a killed run: its partial output (the temporary file its rows streamed into) goes.
+                OutputFile.RemoveStaleTemporaries(outPath);
+            }
             foreach (var row in journal.Done)
             {
                 if (row.Design < 0 || row.Design >= rows.Length || row.Design % of != index)
@@ -85,14 +90,17 @@ internal static partial class SweepCommand
             if (result.GetValue(Common.Verbose))
             {
                 // Where the time went. The workers compute the designs and format their rows (CSV and journal lines); the
-                // calling thread writes them in design order while the workers go on; the tail is what follows the last row
-                // (Parquet's table, the flush to disk, the rename). The output's share of the run is the workers' formatting
-                // time spread over the workers, plus the writing thread's time, plus the tail, over the whole run.
-                var formatWall = pipeline.FormatTime.TotalSeconds / workers;
+                // calling thread writes them in design order beside the workers; the tail is what follows the last row
+                // (Parquet's table, the flush to disk, the rename). Output's share of the run: its share of the processor
+                // time while the designs computed, applied to that phase, plus the tail, over the whole run.
+                var compute = pipeline.ComputeTime.TotalSeconds;
+                var format = pipeline.FormatTime.TotalSeconds;
+                var write = pipeline.WriteTime.TotalSeconds;
                 var tail = (total - pipeline.Elapsed).TotalSeconds;
-                var share = (formatWall + pipeline.WriteTime.TotalSeconds + tail) / total.TotalSeconds;
+                var outputShare = compute + format + write > 0 ? (format + write) / (compute + format + write) : 0;
+                var share = (outputShare * pipeline.Elapsed.TotalSeconds + tail) / total.TotalSeconds;
                 Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,
-                    $"periodic: {pipeline.Computed} designs computed in {pipeline.Elapsed.TotalSeconds:F3} s on {workers} threads (rows formatted by the workers in {pipeline.FormatTime.TotalSeconds:F3} s of their {(pipeline.ComputeTime + pipeline.FormatTime).TotalSeconds:F3} s); output written in {pipeline.WriteTime.TotalSeconds:F3} s beside them, then {tail:F3} s to finish the file; output share {100 * share:F1} %; whole run {total.TotalSeconds:F3} s; {(runner.UsesTemplate ? "each design built from the structure read once" : "each design read as a document")}"));
+                    $"periodic: {pipeline.Computed} designs computed in {pipeline.Elapsed.TotalSeconds:F3} s on {workers} threads ({(ThreadClock.IsProcessorTime ? "processor" : "wall")} time: designs {compute:F3} s, formatting rows {format:F3} s, writing {write:F3} s); then {tail:F3} s to finish the file; output share {100 * share:F1} %; whole run {total.TotalSeconds:F3} s; {(runner.UsesTemplate ? "each design built from the structure read once" : "each design read as a document")}"));
             }
             Console.Out.WriteLine(string.Create(CultureInfo.InvariantCulture,
                 $"{mine.Length} designs{(shardText is null ? "" : $" (shard {shardText} of {sweep.DesignCount})")}, {failed} failed (their rows give the error); written to {outPath}"));

@@ -222,28 +222,7 @@ internal static class ShortestDecimal
     /// <summary>.NET's "R" layout of ± <paramref name="digits"/> × 10^<paramref name="exponent"/>.</summary>
     private static int Layout(bool negative, ulong digits, int exponent, Span<byte> destination)
     {
-        // At most 17 digits, written two at a time from the right.
-        Span<byte> text = stackalloc byte[20];
-        var at = 20;
-        var d = digits;
-        while (d >= 100)
-        {
-            var pair = (int)(d % 100);
-            d /= 100;
-            text[--at] = DigitPairs[2 * pair + 1];
-            text[--at] = DigitPairs[2 * pair];
-        }
-        if (d >= 10)
-        {
-            text[--at] = DigitPairs[2 * (int)d + 1];
-            text[--at] = DigitPairs[2 * (int)d];
-        }
-        else
-        {
-            text[--at] = (byte)('0' + (int)d);
-        }
-        var count = 20 - at;
-        var significant = text[at..];
+        var count = DecimalLength(digits);
         // The decimal point sits after `scale` digits (value = 0.d1d2… × 10^scale).
         var scale = exponent + count;
         var k = 0;
@@ -253,12 +232,17 @@ internal static class ShortestDecimal
         }
         if (scale > 17 || scale < -3)
         {
-            destination[k++] = significant[0];
+            // d.ddd…E±XX: the digits one place on, the first moved before the point.
+            WriteDigits(digits, destination.Slice(k + 1, count));
+            destination[k] = destination[k + 1];
             if (count > 1)
             {
-                destination[k++] = (byte)'.';
-                significant[1..].CopyTo(destination[k..]);
-                k += count - 1;
+                destination[k + 1] = (byte)'.';
+                k += count + 1;
+            }
+            else
+            {
+                k++;
             }
             destination[k++] = (byte)'E';
             var power = scale - 1;
@@ -267,9 +251,10 @@ internal static class ShortestDecimal
             if (power >= 100)
             {
                 destination[k++] = (byte)('0' + power / 100);
+                power %= 100;
             }
-            destination[k++] = (byte)('0' + power / 10 % 10);
-            destination[k++] = (byte)('0' + power % 10);
+            destination[k++] = DigitPairs[2 * power];
+            destination[k++] = DigitPairs[2 * power + 1];
         }
         else if (scale <= 0)
         {
@@ -277,25 +262,76 @@ internal static class ShortestDecimal
             destination[k++] = (byte)'.';
             destination.Slice(k, -scale).Fill((byte)'0');
             k += -scale;
-            significant.CopyTo(destination[k..]);
+            WriteDigits(digits, destination.Slice(k, count));
             k += count;
         }
         else if (scale < count)
         {
-            significant[..scale].CopyTo(destination[k..]);
-            k += scale;
-            destination[k++] = (byte)'.';
-            significant[scale..].CopyTo(destination[k..]);
-            k += count - scale;
+            // ddd.ddd: the digits one place on, those before the point moved back.
+            WriteDigits(digits, destination.Slice(k + 1, count));
+            destination.Slice(k + 1, scale).CopyTo(destination[k..]);
+            destination[k + scale] = (byte)'.';
+            k += count + 1;
         }
         else
         {
-            significant.CopyTo(destination[k..]);
+            WriteDigits(digits, destination.Slice(k, count));
             k += count;
             destination.Slice(k, scale - count).Fill((byte)'0');
             k += scale - count;
         }
         return k;
+    }
+
+    /// <summary>Decimal digits of <paramref name="value"/> (1 to 17 here).</summary>
+    private static int DecimalLength(ulong value)
+    {
+        // ⌊log10⌋ from the bit length (1233/4096 ≈ log10 2), one too small at most.
+        var guess = ((64 - BitOperations.LeadingZeroCount(value | 1)) * 1233) >> 12;
+        return guess + (value >= PowersOfTen[guess] ? 1 : 0);
+    }
+
+    private static ReadOnlySpan<ulong> PowersOfTen =>
+    [
+        1, 10, 100, 1_000, 10_000, 100_000, 1_000_000, 10_000_000, 100_000_000, 1_000_000_000, 10_000_000_000,
+        100_000_000_000, 1_000_000_000_000, 10_000_000_000_000, 100_000_000_000_000, 1_000_000_000_000_000,
+        10_000_000_000_000_000, 100_000_000_000_000_000, 1_000_000_000_000_000_000, 10_000_000_000_000_000_000,
+    ];
+
+    /// <summary>All <paramref name="destination"/>.Length digits of <paramref name="value"/>, eight at a time in 32-bit arithmetic.</summary>
+    private static void WriteDigits(ulong value, Span<byte> destination)
+    {
+        var end = destination.Length;
+        while (value >= 100_000_000)
+        {
+            var high = value / 100_000_000;
+            WriteEight((uint)(value - high * 100_000_000), destination.Slice(end - 8, 8));
+            value = high;
+            end -= 8;
+        }
+        var rest = (uint)value;
+        while (end >= 2)
+        {
+            var pair = (int)(rest % 100);
+            rest /= 100;
+            destination[--end] = DigitPairs[2 * pair + 1];
+            destination[--end] = DigitPairs[2 * pair];
+        }
+        if (end == 1)
+        {
+            destination[0] = (byte)('0' + (int)rest);
+        }
+    }
+
+    private static void WriteEight(uint value, Span<byte> destination)
+    {
+        for (var end = 8; end > 0; end -= 2)
+        {
+            var pair = (int)(value % 100);
+            value /= 100;
+            destination[end - 1] = DigitPairs[2 * pair + 1];
+            destination[end - 2] = DigitPairs[2 * pair];
+        }
     }
 
     private static ReadOnlySpan<byte> DigitPairs =>
@@ -321,11 +357,17 @@ internal static class ShortestDecimal
 
     private static bool MultipleOfPowerOf2(ulong value, int p) => (value & ((1UL << p) - 1)) == 0;
 
-    /// <summary>(m × multiplier) >> shift, with the 128-bit multiplier and shift ≥ 64 (the result fits 64 bits).</summary>
+    /// <summary>(m × multiplier) >> shift for the 128-bit multiplier and 64 &lt; shift &lt; 128 (the result fits 64 bits).</summary>
     private static ulong MulShift(ulong m, (ulong Low, ulong High) multiplier, int shift)
     {
         var carry = Math.BigMul(m, multiplier.Low, out _); // the high half of m × low: the low half cannot reach the result
-        var high = (UInt128)m * multiplier.High;
-        return (ulong)((high + carry) >> (shift - 64));
+        var high = Math.BigMul(m, multiplier.High, out var low);
+        var sum = low + carry;
+        if (sum < carry)
+        {
+            high++;
+        }
+        var distance = shift - 64;
+        return (high << (64 - distance)) | (sum >> distance);
     }
 }

@@ -26,8 +26,9 @@ internal sealed class SweepJournal : IDisposable
     private readonly FileStream _stream;
     private long _lastDiskSync = System.Diagnostics.Stopwatch.GetTimestamp();
 
-    private SweepJournal(string path, FileStream stream, List<SweepRow> done)
+    private SweepJournal(string path, FileStream stream, List<SweepRow> done, bool resumed)
     {
+        Resumed = resumed;
         Path = path;
         _stream = stream;
         Done = done;
@@ -35,6 +36,9 @@ internal sealed class SweepJournal : IDisposable
 
     /// <summary>Where the journal lives.</summary>
     public string Path { get; }
+
+    /// <summary>True when the journal was there already: a previous run of the same sweep was stopped.</summary>
+    public bool Resumed { get; }
 
     /// <summary>Rows a previous run of the same sweep finished.</summary>
     public IReadOnlyList<SweepRow> Done { get; }
@@ -47,7 +51,8 @@ internal sealed class SweepJournal : IDisposable
     {
         var path = outPath + ".journal";
         var done = new List<SweepRow>();
-        if (File.Exists(path))
+        var resumed = File.Exists(path);
+        if (resumed)
         {
             var text = File.ReadAllText(path, Encoding.UTF8);
             // Only lines ended by a line break are whole; what follows the last one was cut short by a kill.
@@ -84,7 +89,7 @@ internal sealed class SweepJournal : IDisposable
             File.WriteAllText(path, identity + "\n", new UTF8Encoding(false));
         }
         var stream = new FileStream(path, FileMode.Append, FileAccess.Write, FileShare.Read, 1 << 16);
-        return new SweepJournal(path, stream, done);
+        return new SweepJournal(path, stream, done, resumed);
     }
 
     /// <summary>
@@ -122,12 +127,19 @@ internal sealed class SweepJournal : IDisposable
     /// <summary>The 16 lower-case hexadecimal digits of <paramref name="bits"/>, most significant first (as the "x16" format writes them).</summary>
     private static void WriteHexadecimal(ulong bits, Span<byte> digits)
     {
-        for (var i = 15; i >= 0; i--)
+        // A byte at a time, from a table of the 256 two-digit forms.
+        var pairs = HexadecimalPairs;
+        for (var i = 14; i >= 0; i -= 2)
         {
-            digits[i] = (byte)"0123456789abcdef"[(int)(bits & 0xF)];
-            bits >>= 4;
+            var b = (int)(bits & 0xFF) * 2;
+            digits[i] = pairs[b];
+            digits[i + 1] = pairs[b + 1];
+            bits >>= 8;
         }
     }
+
+    private static ReadOnlySpan<byte> HexadecimalPairs =>
+        "000102030405060708090a0b0c0d0e0f101112131415161718191a1b1c1d1e1f202122232425262728292a2b2c2d2e2f303132333435363738393a3b3c3d3e3f404142434445464748494a4b4c4d4e4f505152535455565758595a5b5c5d5e5f606162636465666768696a6b6c6d6e6f707172737475767778797a7b7c7d7e7f808182838485868788898a8b8c8d8e8f909192939495969798999a9b9c9d9e9fa0a1a2a3a4a5a6a7a8a9aaabacadaeafb0b1b2b3b4b5b6b7b8b9babbbcbdbebfc0c1c2c3c4c5c6c7c8c9cacbcccdcecfd0d1d2d3d4d5d6d7d8d9dadbdcdddedfe0e1e2e3e4e5e6e7e8e9eaebecedeeeff0f1f2f3f4f5f6f7f8f9fafbfcfdfeff"u8;
 
     /// <summary>Appends journal lines that <see cref="AppendLine"/> formatted.</summary>
     public void Write(ReadOnlySpan<byte> lines) => _stream.Write(lines);

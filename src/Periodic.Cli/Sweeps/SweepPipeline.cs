@@ -3,6 +3,7 @@
 
 using System.Diagnostics;
 using System.Runtime.ExceptionServices;
+using System.Runtime.InteropServices;
 using Periodic.Cli.Output;
 
 namespace Periodic.Cli.Sweeps;
@@ -60,7 +61,8 @@ internal sealed class SweepPipeline
         Rows = parquet ? new SweepRow[designs.Length] : null;
     }
 
-    private int ChunksInFlight => 4 * _workers + 4;
+    // Enough that the workers never wait while the output is forced onto the disk (about 0.1 s of work; a few MB).
+    private int ChunksInFlight => 32 * _workers + 16;
 
     /// <summary>For Parquet, the rows in design order once <see cref="Run"/> has returned; null for CSV.</summary>
     public SweepRow[]? Rows { get; }
@@ -68,13 +70,13 @@ internal sealed class SweepPipeline
     /// <summary>Wall time from the start of <see cref="Run"/> until the last chunk was handed over.</summary>
     public TimeSpan Elapsed { get; private set; }
 
-    /// <summary>Time the workers spent formatting CSV and journal lines, summed over the workers.</summary>
+    /// <summary>Processor time the workers spent formatting CSV and journal lines, summed over the workers (see <see cref="ThreadClock"/>).</summary>
     public TimeSpan FormatTime { get; private set; }
 
-    /// <summary>Time the handing-over thread spent writing to the output and the journal (it runs beside the workers).</summary>
+    /// <summary>Processor time the handing-over thread spent writing to the output and the journal (it runs beside the workers).</summary>
     public TimeSpan WriteTime { get; private set; }
 
-    /// <summary>Time the workers spent computing designs, summed over the workers.</summary>
+    /// <summary>Processor time the workers spent computing designs, summed over the workers (see <see cref="ThreadClock"/>).</summary>
     public TimeSpan ComputeTime { get; private set; }
 
     /// <summary>Rows that hold an error (computed or resumed).</summary>
@@ -105,6 +107,7 @@ internal sealed class SweepPipeline
         {
             var finished = 0;
             var unflushed = false;
+            long unsynced = 0;
             for (var c = 0; c < _chunkCount; c++)
             {
                 var slot = _slots[c % _slots.Length];
@@ -121,9 +124,10 @@ internal sealed class SweepPipeline
                     // Nothing ready: the journal lines written so far go to the operating system while the workers compute.
                     if (unflushed)
                     {
-                        var flushStart = Stopwatch.GetTimestamp();
+                        var flushStart = ThreadClock.Nanoseconds();
                         _journal.Flush();
-                        writing += Stopwatch.GetTimestamp() - flushStart;
+                        BackgroundDiskFlush(output, ref unsynced);
+                        writing += ThreadClock.Nanoseconds() - flushStart;
                         unflushed = false;
                     }
                     lock (_gate)
@@ -134,18 +138,19 @@ internal sealed class SweepPipeline
                         }
                     }
                 }
-                var start = Stopwatch.GetTimestamp();
+                var start = ThreadClock.Nanoseconds();
                 output?.Write(slot.Csv, 0, slot.CsvLength);
+                unsynced += slot.CsvLength;
                 _journal.Write(slot.Journal.AsSpan(0, slot.JournalLength));
-                writing += Stopwatch.GetTimestamp() - start;
+                writing += ThreadClock.Nanoseconds() - start;
                 unflushed = true;
                 finished += slot.Count;
                 free.Release();
                 progress.Report(finished);
             }
-            var last = Stopwatch.GetTimestamp();
+            var last = ThreadClock.Nanoseconds();
             _journal.Flush();
-            writing += Stopwatch.GetTimestamp() - last;
+            writing += ThreadClock.Nanoseconds() - last;
         }
         finally
         {
@@ -156,19 +161,50 @@ internal sealed class SweepPipeline
             }
         }
         Elapsed = clock.Elapsed;
-        WriteTime = Stopwatch.GetElapsedTime(0, writing);
-        ComputeTime = Stopwatch.GetElapsedTime(0, workerTimes.Sum(t => t.Compute));
-        FormatTime = Stopwatch.GetElapsedTime(0, workerTimes.Sum(t => t.Format));
+        WriteTime = TimeSpan.FromTicks(writing / 100);
+        ComputeTime = TimeSpan.FromTicks(workerTimes.Sum(t => t.Compute) / 100);
+        FormatTime = TimeSpan.FromTicks(workerTimes.Sum(t => t.Format) / 100);
         Computed = workerTimes.Sum(t => t.Computed);
         Failed = workerTimes.Sum(t => t.Failed);
     }
 
-    /// <summary>One worker's loop; returns its compute and format times (timestamp ticks) and its computed designs.</summary>
+    /// <summary>
+    /// While the workers compute, the output written so far is forced onto the disk every <see cref="DiskFlushBytes"/>, so
+    /// that the flush the output needs before it replaces --out (<see cref="OutputFile"/>) is left only the last part.
+    /// </summary>
+    private static void BackgroundDiskFlush(Stream? output, ref long unsynced)
+    {
+        if (output is FileStream file && unsynced >= DiskFlushBytes)
+        {
+            unsynced = 0;
+            try
+            {
+                file.Flush(flushToDisk: true);
+            }
+            catch (IOException)
+            {
+                // A device or FIFO has no disk to flush to; the final flush reports real failures.
+                unsynced = long.MinValue;
+            }
+        }
+    }
+
+    /// <summary>Output bytes between flushes to disk while the designs compute.</summary>
+    private const long DiskFlushBytes = 4 << 20;
+
+    /// <summary>One worker's loop; returns its compute and format times (nanoseconds of the thread's processor time) and its counts.</summary>
     private (long Compute, long Format, int Computed, int Failed) Work(SemaphoreSlim free, CancellationToken cancel)
     {
         // Kept in locals, not in a shared array, so that the workers never write to the same cache line.
         (long Compute, long Format, int Computed, int Failed) time = default;
-        var values = new double?[_runner.Columns.Count];
+        var columns = _runner.Columns.Count;
+        // A chunk's rows: computed first, then formatted (two clock readings per chunk, not per design).
+        var values = new double?[DesignsPerChunk][];
+        for (var i = 0; i < values.Length; i++)
+        {
+            values[i] = new double?[columns];
+        }
+        var errors = new string?[DesignsPerChunk];
         try
         {
             while (true)
@@ -184,35 +220,32 @@ internal sealed class SweepPipeline
                 slot.JournalLength = 0;
                 var first = c * DesignsPerChunk;
                 var end = Math.Min(_designs.Length, first + DesignsPerChunk);
+                var t0 = ThreadClock.Nanoseconds();
                 for (var i = first; i < end; i++)
                 {
                     var design = _designs[i];
-                    var t0 = Stopwatch.GetTimestamp();
-                    ReadOnlySpan<double?> row;
-                    string? error;
-                    var done = _resumed[design];
-                    var fresh = done is null;
-                    if (done is null)
+                    if (_resumed[design] is null)
                     {
-                        error = _runner.Evaluate(design, values);
-                        row = values;
+                        errors[i - first] = _runner.Evaluate(design, values[i - first]);
                         time.Computed++;
                     }
-                    else
-                    {
-                        error = done.Error;
-                        row = done.Values;
-                    }
-                    var t1 = Stopwatch.GetTimestamp();
+                }
+                var t1 = ThreadClock.Nanoseconds();
+                for (var i = first; i < end; i++)
+                {
+                    var design = _designs[i];
+                    var done = _resumed[design];
+                    var row = done?.Values ?? values[i - first];
+                    var error = done is null ? errors[i - first] : done.Error;
                     if (Rows is not null)
                     {
-                        Rows[i] = done ?? new SweepRow(design, values.ToArray(), error);
+                        Rows[i] = done ?? new SweepRow(design, values[i - first].ToArray(), error);
                     }
                     else
                     {
                         SweepTable.AppendCsvRow(design, row, error, ref slot.Csv, ref slot.CsvLength);
                     }
-                    if (fresh)
+                    if (done is null)
                     {
                         SweepJournal.AppendLine(design, row, error, ref slot.Journal, ref slot.JournalLength);
                     }
@@ -220,10 +253,10 @@ internal sealed class SweepPipeline
                     {
                         time.Failed++;
                     }
-                    var t2 = Stopwatch.GetTimestamp();
-                    time.Compute += t1 - t0;
-                    time.Format += t2 - t1;
                 }
+                var t2 = ThreadClock.Nanoseconds();
+                time.Compute += t1 - t0;
+                time.Format += t2 - t1;
                 lock (_gate)
                 {
                     slot.Count = end - first;
@@ -257,4 +290,57 @@ internal sealed class SweepPipeline
         public byte[] Journal = new byte[1 << 15];
         public int JournalLength;
     }
+}
+
+/// <summary>
+/// The calling thread's processor time where the system gives it (Linux: <c>clock_gettime(CLOCK_THREAD_CPUTIME_ID)</c>), else
+/// wall time: on a busy machine a thread's wall time also counts the time other processes held its core.
+/// </summary>
+internal static class ThreadClock
+{
+    private const int ThreadCpuTimeClock = 3; // CLOCK_THREAD_CPUTIME_ID on Linux
+
+    private static readonly bool UsesProcessorTime = OperatingSystem.IsLinux() && TryRead(out _);
+
+    /// <summary>True when <see cref="Nanoseconds"/> counts the thread's processor time rather than wall time.</summary>
+    public static bool IsProcessorTime => UsesProcessorTime;
+
+    /// <summary>A reading in nanoseconds; only differences between readings on one thread mean something.</summary>
+    public static long Nanoseconds()
+    {
+        if (UsesProcessorTime && TryRead(out var nanoseconds))
+        {
+            return nanoseconds;
+        }
+        return (long)(Stopwatch.GetTimestamp() * (1e9 / Stopwatch.Frequency));
+    }
+
+    private static bool TryRead(out long nanoseconds)
+    {
+        nanoseconds = 0;
+        try
+        {
+            if (ClockGetTime(ThreadCpuTimeClock, out var time) != 0)
+            {
+                return false;
+            }
+            nanoseconds = time.Seconds * 1_000_000_000 + time.Nanoseconds;
+            return true;
+        }
+        catch (Exception e) when (e is DllNotFoundException or EntryPointNotFoundException)
+        {
+            return false;
+        }
+    }
+
+    [StructLayout(LayoutKind.Sequential)]
+    private struct TimeSpec
+    {
+        public long Seconds;
+        public long Nanoseconds;
+    }
+
+    // Runtime marshalling (DllImport) rather than the LibraryImport generator, which needs unsafe code enabled.
+    [DllImport("libc.so.6", EntryPoint = "clock_gettime", ExactSpelling = true)]
+    private static extern int ClockGetTime(int clock, out TimeSpec time);
 }
