@@ -100,7 +100,7 @@ internal static partial class SweepCommand
                 var outputShare = compute + format + write > 0 ? (format + write) / (compute + format + write) : 0;
                 var share = (outputShare * pipeline.Elapsed.TotalSeconds + tail) / total.TotalSeconds;
                 Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,
-                    $"periodic: {pipeline.Computed} designs computed in {pipeline.Elapsed.TotalSeconds:F3} s on {workers} threads ({(ThreadClock.IsProcessorTime ? "processor" : "wall")} time: designs {compute:F3} s, formatting rows {format:F3} s, writing {write:F3} s); then {tail:F3} s to finish the file; output share {100 * share:F1} %; whole run {total.TotalSeconds:F3} s; {(runner.UsesTemplate ? "each design built from the structure read once" : "each design read as a document")}"));
+                    $"periodic: {pipeline.Computed} designs computed in {pipeline.Elapsed.TotalSeconds:F3} s on {workers} threads ({(ThreadClock.IsProcessorTime ? "processor" : "wall")} time: designs {compute:F3} s, formatting rows {format:F3} s, writing {write:F3} s); then {tail:F3} s to finish the file; output share {100 * share:F1} %; whole run {total.TotalSeconds:F3} s; garbage collections {GC.CollectionCount(0)} (pauses {GC.GetTotalPauseDuration().TotalSeconds:F3} s); {(runner.UsesTemplate ? "each design built from the structure read once" : "each design read as a document")}"));
             }
             Console.Out.WriteLine(string.Create(CultureInfo.InvariantCulture,
                 $"{mine.Length} designs{(shardText is null ? "" : $" (shard {shardText} of {sweep.DesignCount})")}, {failed} failed (their rows give the error); written to {outPath}"));

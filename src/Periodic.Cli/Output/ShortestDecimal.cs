@@ -170,22 +170,14 @@ internal static class ShortestDecimal
             while (vp / 10 > vm / 10)
             {
                 vmIsTrailingZeros &= vm % 10 == 0;
-                vrIsTrailingZeros &= lastRemovedDigit == 0;
-                lastRemovedDigit = (int)(vr % 10);
-                vr /= 10;
-                vp /= 10;
-                vm /= 10;
+                RemoveDigit(ref vr, ref vp, ref vm, ref lastRemovedDigit, ref vrIsTrailingZeros);
                 removed++;
             }
             if (vmIsTrailingZeros)
             {
                 while (vm % 10 == 0)
                 {
-                    vrIsTrailingZeros &= lastRemovedDigit == 0;
-                    lastRemovedDigit = (int)(vr % 10);
-                    vr /= 10;
-                    vp /= 10;
-                    vm /= 10;
+                    RemoveDigit(ref vr, ref vp, ref vm, ref lastRemovedDigit, ref vrIsTrailingZeros);
                     removed++;
                 }
             }
@@ -217,6 +209,16 @@ internal static class ShortestDecimal
             output = vr + (vr == vm || roundUp ? 1UL : 0UL);
         }
         return (output, e10 + removed);
+    }
+
+    /// <summary>Drops the last digit of the value and of both bounds, keeping whether all digits dropped from the value were zeros.</summary>
+    private static void RemoveDigit(ref ulong vr, ref ulong vp, ref ulong vm, ref int lastRemovedDigit, ref bool vrIsTrailingZeros)
+    {
+        vrIsTrailingZeros &= lastRemovedDigit == 0;
+        lastRemovedDigit = (int)(vr % 10);
+        vr /= 10;
+        vp /= 10;
+        vm /= 10;
     }
 
     /// <summary>.NET's "R" layout of ± <paramref name="digits"/> × 10^<paramref name="exponent"/>.</summary>

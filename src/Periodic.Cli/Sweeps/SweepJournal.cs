@@ -88,7 +88,8 @@ internal sealed class SweepJournal : IDisposable
         {
             File.WriteAllText(path, identity + "\n", new UTF8Encoding(false));
         }
-        var stream = new FileStream(path, FileMode.Append, FileAccess.Write, FileShare.Read, 1 << 16);
+        // Unbuffered: the lines come a chunk of designs at a time, already gathered in one buffer.
+        var stream = new FileStream(path, FileMode.Append, FileAccess.Write, FileShare.Read, 0);
         return new SweepJournal(path, stream, done, resumed);
     }
 
