@@ -13,13 +13,14 @@ namespace Periodic.Cli.Sweeps;
 /// </summary>
 /// <remarks>
 /// The designs (this shard's, in order) are cut into chunks of <see cref="DesignsPerChunk"/>. Each worker takes the next
-/// chunk (a shared counter: no barrier, a fast worker just takes more), computes its designs into a reused buffer and
+/// chunk (a shared counter: no barrier, a fast worker just takes more), computes its designs into reused buffers and
 /// formats them itself: the CSV lines and, for designs not resumed from the journal, the journal lines, into the chunk's
-/// pooled byte buffers. The calling thread hands the chunks over in design order: CSV bytes to the output stream, journal
-/// lines to the journal. At most <see cref="ChunksInFlight"/> chunks are between a worker and the output, so memory stays
-/// bounded and no row is kept once written. Parquet (one row group, so the same bytes as a table written at once) keeps
-/// the rows and writes them after the last design. The rows are those each design gives alone: the same bytes for any
-/// number of workers.
+/// pooled byte buffers. Then whichever worker finds the next chunk in design order ready writes it (and every ready chunk
+/// after it) to the output and the journal, so <c>--threads N</c> runs N threads and no more; the calling thread only
+/// shows progress and forces the output written so far onto the disk now and then. At most <see cref="ChunksInFlight"/>
+/// chunks are between a worker and the output, so memory stays bounded and no row is kept once written. Parquet (one row
+/// group, so the same bytes as a table written at once) keeps the rows and writes them after the last design. The rows
+/// are those each design gives alone: the same bytes for any number of workers.
 /// </remarks>
 internal sealed class SweepPipeline
 {
@@ -34,8 +35,13 @@ internal sealed class SweepPipeline
     private readonly bool _parquet;
     private readonly Chunk[] _slots;
     private readonly int _chunkCount;
-    private readonly object _gate = new();
+    private readonly object _writer = new();
+    private readonly ManualResetEventSlim _finished = new();
     private int _nextChunk = -1;
+    private int _nextToWrite;
+    private long _bytesWritten;
+    private int _designsWritten;
+    private Stream? _output;
     private ExceptionDispatchInfo? _failure;
 
     /// <param name="runner">Computes a design.</param>
@@ -73,7 +79,7 @@ internal sealed class SweepPipeline
     /// <summary>Processor time the workers spent formatting CSV and journal lines, summed over the workers (see <see cref="ThreadClock"/>).</summary>
     public TimeSpan FormatTime { get; private set; }
 
-    /// <summary>Processor time the handing-over thread spent writing to the output and the journal (it runs beside the workers).</summary>
+    /// <summary>Processor time the workers spent writing to the output and the journal, summed over the workers.</summary>
     public TimeSpan WriteTime { get; private set; }
 
     /// <summary>Processor time the workers spent computing designs, summed over the workers (see <see cref="ThreadClock"/>).</summary>
@@ -92,9 +98,16 @@ internal sealed class SweepPipeline
     public void Run(Stream? output, Progress progress)
     {
         var clock = Stopwatch.StartNew();
+        _output = output;
+        // Taken before the workers start (FileStream flushes its buffer when it hands out its handle).
+        var disk = output is FileStream file && OperatingSystem.IsLinux() ? file.SafeFileHandle : null;
         using var free = new SemaphoreSlim(_slots.Length, _slots.Length);
         using var cancel = new CancellationTokenSource();
-        var workerTimes = new (long Compute, long Format, int Computed, int Failed)[_workers];
+        if (_chunkCount == 0)
+        {
+            _finished.Set();
+        }
+        var workerTimes = new (long Compute, long Format, long Write, int Computed, int Failed)[_workers];
         var threads = new Thread[_workers];
         for (var w = 0; w < threads.Length; w++)
         {
@@ -102,55 +115,28 @@ internal sealed class SweepPipeline
             threads[w] = new Thread(() => workerTimes[worker] = Work(free, cancel.Token)) { IsBackground = true, Name = "sweep worker" };
             threads[w].Start();
         }
-        long writing = 0;
         try
         {
-            var finished = 0;
-            var unflushed = false;
-            long unsynced = 0;
-            for (var c = 0; c < _chunkCount; c++)
+            long synced = 0;
+            while (!_finished.Wait(100))
             {
-                var slot = _slots[c % _slots.Length];
-                while (true)
+                progress.Report(Volatile.Read(ref _designsWritten));
+                // The page cache is written to the disk while the designs compute, so that the flush the output needs before
+                // it replaces --out (OutputFile) is left only the last part: fsync(2) from this thread, which waits anyway,
+                // while the workers go on writing.
+                var written = Volatile.Read(ref _bytesWritten);
+                if (disk is not null && written - synced >= DiskFlushBytes)
                 {
-                    lock (_gate)
+                    synced = written;
+                    if (FileSync(disk) != 0)
                     {
-                        _failure?.Throw();
-                        if (slot.Number == c)
-                        {
-                            break;
-                        }
-                    }
-                    // Nothing ready: the journal lines written so far go to the operating system while the workers compute.
-                    if (unflushed)
-                    {
-                        var flushStart = ThreadClock.Nanoseconds();
-                        _journal.Flush();
-                        BackgroundDiskFlush(output, ref unsynced);
-                        writing += ThreadClock.Nanoseconds() - flushStart;
-                        unflushed = false;
-                    }
-                    lock (_gate)
-                    {
-                        while (slot.Number != c && _failure is null)
-                        {
-                            Monitor.Wait(_gate);
-                        }
+                        disk = null; // a file that cannot be synchronised (a device, a FIFO): the final flush reports real failures
                     }
                 }
-                var start = ThreadClock.Nanoseconds();
-                output?.Write(slot.Csv, 0, slot.CsvLength);
-                unsynced += slot.CsvLength;
-                _journal.Write(slot.Journal.AsSpan(0, slot.JournalLength));
-                writing += ThreadClock.Nanoseconds() - start;
-                unflushed = true;
-                finished += slot.Count;
-                free.Release();
-                progress.Report(finished);
             }
-            var last = ThreadClock.Nanoseconds();
+            _failure?.Throw();
+            progress.Report(_designsWritten);
             _journal.Flush();
-            writing += ThreadClock.Nanoseconds() - last;
         }
         finally
         {
@@ -161,42 +147,63 @@ internal sealed class SweepPipeline
             }
         }
         Elapsed = clock.Elapsed;
-        WriteTime = TimeSpan.FromTicks(writing / 100);
         ComputeTime = TimeSpan.FromTicks(workerTimes.Sum(t => t.Compute) / 100);
         FormatTime = TimeSpan.FromTicks(workerTimes.Sum(t => t.Format) / 100);
+        WriteTime = TimeSpan.FromTicks(workerTimes.Sum(t => t.Write) / 100);
         Computed = workerTimes.Sum(t => t.Computed);
         Failed = workerTimes.Sum(t => t.Failed);
-    }
-
-    /// <summary>
-    /// While the workers compute, the output written so far is forced onto the disk every <see cref="DiskFlushBytes"/>, so
-    /// that the flush the output needs before it replaces --out (<see cref="OutputFile"/>) is left only the last part.
-    /// </summary>
-    private static void BackgroundDiskFlush(Stream? output, ref long unsynced)
-    {
-        if (output is FileStream file && unsynced >= DiskFlushBytes)
-        {
-            unsynced = 0;
-            try
-            {
-                file.Flush(flushToDisk: true);
-            }
-            catch (IOException)
-            {
-                // A device or FIFO has no disk to flush to; the final flush reports real failures.
-                unsynced = long.MinValue;
-            }
-        }
     }
 
     /// <summary>Output bytes between flushes to disk while the designs compute.</summary>
     private const long DiskFlushBytes = 4 << 20;
 
+    /// <summary>
+    /// Writes the chunks that are next in design order and ready, unless another worker is at it (that one then writes what
+    /// this worker just made ready, since it looks again after it lets go). Returns the processor time spent.
+    /// </summary>
+    private long WriteReady(SemaphoreSlim free)
+    {
+        long spent = 0;
+        while (Monitor.TryEnter(_writer))
+        {
+            var start = ThreadClock.Nanoseconds();
+            try
+            {
+                while (_nextToWrite < _chunkCount && Volatile.Read(ref _slots[_nextToWrite % _slots.Length].Number) == _nextToWrite)
+                {
+                    var slot = _slots[_nextToWrite % _slots.Length];
+                    _output?.Write(slot.Csv, 0, slot.CsvLength);
+                    _journal.Write(slot.Journal.AsSpan(0, slot.JournalLength));
+                    Volatile.Write(ref _bytesWritten, _bytesWritten + slot.CsvLength);
+                    Volatile.Write(ref _designsWritten, _designsWritten + slot.Count);
+                    _nextToWrite++;
+                    free.Release();
+                }
+                _journal.Flush();
+                if (_nextToWrite == _chunkCount)
+                {
+                    _finished.Set();
+                }
+            }
+            finally
+            {
+                Monitor.Exit(_writer);
+                spent += ThreadClock.Nanoseconds() - start;
+            }
+            // A chunk made ready while this worker held the writer found it taken: look again.
+            if (_nextToWrite >= _chunkCount || Volatile.Read(ref _slots[_nextToWrite % _slots.Length].Number) != _nextToWrite)
+            {
+                break;
+            }
+        }
+        return spent;
+    }
+
     /// <summary>One worker's loop; returns its compute and format times (nanoseconds of the thread's processor time) and its counts.</summary>
-    private (long Compute, long Format, int Computed, int Failed) Work(SemaphoreSlim free, CancellationToken cancel)
+    private (long Compute, long Format, long Write, int Computed, int Failed) Work(SemaphoreSlim free, CancellationToken cancel)
     {
         // Kept in locals, not in a shared array, so that the workers never write to the same cache line.
-        (long Compute, long Format, int Computed, int Failed) time = default;
+        (long Compute, long Format, long Write, int Computed, int Failed) time = default;
         var columns = _runner.Columns.Count;
         // A chunk's rows: computed first, then formatted (two clock readings per chunk, not per design).
         var values = new double?[DesignsPerChunk][];
@@ -257,12 +264,9 @@ internal sealed class SweepPipeline
                 var t2 = ThreadClock.Nanoseconds();
                 time.Compute += t1 - t0;
                 time.Format += t2 - t1;
-                lock (_gate)
-                {
-                    slot.Count = end - first;
-                    slot.Number = c;
-                    Monitor.PulseAll(_gate);
-                }
+                slot.Count = end - first;
+                Volatile.Write(ref slot.Number, c);
+                time.Write += WriteReady(free);
             }
         }
         catch (OperationCanceledException) when (cancel.IsCancellationRequested)
@@ -271,14 +275,15 @@ internal sealed class SweepPipeline
         }
         catch (Exception e)
         {
-            lock (_gate)
-            {
-                _failure ??= ExceptionDispatchInfo.Capture(e);
-                Monitor.PulseAll(_gate);
-            }
+            Interlocked.CompareExchange(ref _failure, ExceptionDispatchInfo.Capture(e), null);
+            _finished.Set();
         }
         return time;
     }
+
+    // Runtime marshalling (DllImport) rather than the LibraryImport generator, which needs unsafe code enabled.
+    [DllImport("libc.so.6", EntryPoint = "fsync", ExactSpelling = true)]
+    private static extern int FileSync(Microsoft.Win32.SafeHandles.SafeFileHandle file);
 
     /// <summary>One chunk's formatted lines, reused for chunk numbers that are <see cref="ChunksInFlight"/> apart.</summary>
     private sealed class Chunk
