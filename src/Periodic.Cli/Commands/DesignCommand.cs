@@ -32,6 +32,11 @@ internal static class DesignCommand
         command.SetAction(result =>
         {
             var spec = DesignSpec.Load(result.GetValue(file)!);
+            var parsed = Periodic.Serialization.StructureFile.Parse(System.Text.Encoding.UTF8.GetBytes(spec.Structure.ToJsonString()), "structure");
+            if ((parsed.Doping is not null || parsed.StackDoping is not null) && !result.GetValue(Common.NoSpaceCharge))
+            {
+                throw new UsageException("design: the structure is doped, but design adjusts rigid bands: its exact derivatives hold the potential fixed, and the self-consistent potential moves with every width; add --no-space-charge to design on the rigid bands (then check the result with the commands, which solve the space charge), or scan the doped design with 'periodic sweep'.");
+            }
             var report = Run(spec);
             Common.Emit(result.GetValue(json) ? RenderJson(spec, report) : RenderTable(spec, report), result.GetValue(output));
             return 0;

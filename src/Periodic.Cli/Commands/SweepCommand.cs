@@ -37,7 +37,12 @@ internal static partial class SweepCommand
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--threads must be between 1 and 1024; got {workers}."));
             }
             var sweep = SweepSpec.Load(result.GetValue(spec)!);
-            var runner = new SweepRunner(sweep);
+            var rigid = result.GetValue(Common.NoSpaceCharge);
+            var runner = new SweepRunner(sweep, rigid);
+            if (sweep.Sensitivities && runner.SolvesSpaceCharge)
+            {
+                throw new UsageException("sweep: the structure is doped, so each design is solved self-consistently, and sensitivities of a self-consistent design are not computed (the exact derivatives hold the potential fixed); add --no-space-charge for the rigid bands and their derivatives, or drop \"sensitivities\".");
+            }
             const long MaximumCells = 50_000_000; // 400 MB of doubles held until the table is written
             if ((long)sweep.DesignCount * runner.Columns.Count > MaximumCells)
             {
@@ -47,7 +52,7 @@ internal static partial class SweepCommand
             var mine = Enumerable.Range(0, sweep.DesignCount).Where(d => d % of == index).ToArray();
             var shardText = of == 1 ? null : string.Create(CultureInfo.InvariantCulture, $"{index}/{of}");
             var identity = string.Create(CultureInfo.InvariantCulture,
-                $"{{\"periodicSweepJournal\":{SweepJournal.Format},\"fingerprint\":\"{sweep.Fingerprint}\",\"shard\":\"{index}/{of}\",\"columns\":{runner.Columns.Count}}}");
+                $"{{\"periodicSweepJournal\":{SweepJournal.Format},\"fingerprint\":\"{sweep.Fingerprint}\",\"shard\":\"{index}/{of}\",\"columns\":{runner.Columns.Count}{(rigid ? ",\"rigidBands\":true" : "")}}}");
             var rows = new SweepRow?[sweep.DesignCount];
             using var journal = SweepJournal.Open(outPath, identity, runner.Columns.Count);
             if (journal.Resumed)

@@ -132,7 +132,9 @@ internal static class FieldUnits
         return last switch
         {
             "width" or "period" or "positions" => "nm",
-            "potential" or "potentials" or "bias" or "constant" or "cosine" or "sine" => "eV",
+            "potential" or "potentials" or "bias" or "constant" or "cosine" or "sine" or "donorIonisationEnergy" => "eV",
+            "donors" or "acceptors" => "cm^-3",
+            "sheetDonors" => "cm^-2",
             "mass" or "masses" => "m0",
             "temperature" => "K",
             "delta" => "eV nm",

@@ -17,8 +17,11 @@ namespace Periodic.Cli.Sweeps;
 /// read by the same structure-file reader as every command (so a design that makes an invalid layer fails the way
 /// a file would), and solved by the library's band solver as <c>periodic bands</c> is. With sensitivities on, each band
 /// edge's exact derivative with respect to each varied layer field (<see cref="EdgeSensitivities"/>) follows.
+/// A doped design (donors or acceptors in its cell or stack) is solved self-consistently first, as every command does,
+/// unless <paramref name="rigidBands"/> (--no-space-charge); its sensitivities are refused (they would hold the potential
+/// fixed, which a self-consistent design's is not).
 /// </summary>
-internal sealed class SweepRunner(SweepSpec spec)
+internal sealed class SweepRunner(SweepSpec spec, bool rigidBands = false)
 {
     /// <summary>
     /// Set (to any value) to read every design as a document even where <see cref="SweepTemplate"/> applies: the reference
@@ -135,6 +138,10 @@ internal sealed class SweepRunner(SweepSpec spec)
                 FieldPath.Set(document, spec.Parameters[j].Field, parameters[j]);
             }
             var structure = StructureFile.Parse(Encoding.UTF8.GetBytes(document.ToJsonString()), string.Create(CultureInfo.InvariantCulture, $"design {index}"));
+            if (!rigidBands)
+            {
+                structure = SelfConsistent(structure);
+            }
             var k = parameters.Length;
             string? error = null;
             if (spec.Bands > 0)
@@ -198,6 +205,39 @@ internal sealed class SweepRunner(SweepSpec spec)
         {
             return OneLine(e.Message);
         }
+    }
+
+    /// <summary>
+    /// True when the sweep's own structure (before any parameter is written in) is doped and will be solved self-consistently,
+    /// i.e. without --no-space-charge.
+    /// </summary>
+    public bool SolvesSpaceCharge => !rigidBands && StructureFile.Parse(Encoding.UTF8.GetBytes(spec.Structure.ToJsonString()), "structure") is var s
+        && (s.Doping is not null || s.StackDoping is not null);
+
+    /// <summary>
+    /// The self-consistent form of a doped design (its stack between its leads where the stack holds the dopants, else its
+    /// periodic cell), as the commands load it; an undoped design unchanged.
+    /// </summary>
+    private StructureDefinition SelfConsistent(StructureDefinition structure)
+    {
+        if (structure.Doping is null && structure.StackDoping is null)
+        {
+            return structure;
+        }
+        if (spec.Sensitivities)
+        {
+            throw new ArgumentException("sensitivities of a doped design are not computed: the exact derivatives hold the potential fixed, and the self-consistent potential moves with every parameter; run with --no-space-charge for the rigid bands' derivatives.");
+        }
+        if (structure.StackDoping is { } stack)
+        {
+            if (structure.StackBias.ElectronVolts != 0)
+            {
+                throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
+                    $"stack.bias is {structure.StackBias.ElectronVolts:R} eV, but the space charge of a doped stack is solved at zero bias only (bias with space charge is not modelled); run with --no-space-charge for the rigid bands under bias."));
+            }
+            return structure.WithSelfConsistentStack(Periodic.SpaceCharge.SpaceChargeSolver.SolveStack(stack));
+        }
+        return structure.WithSelfConsistentCell(Periodic.SpaceCharge.SpaceChargeSolver.Solve(structure.Doping!));
     }
 
     /// <summary>Band edges, widths, masses and gaps from column <paramref name="k"/> on, and (with sensitivities) the edge derivatives in their own columns.</summary>

@@ -95,7 +95,9 @@ public static class StackSensitivities
     /// <summary>
     /// d(energy of <paramref name="transition"/>)/d(<paramref name="quantity"/> of <paramref name="layer"/>): the derivative of
     /// the upper level's energy minus that of the lower, each by the level rule (bound) or the resonance rule
-    /// (quasi-bound); null where either has none.
+    /// (quasi-bound); null where either has none. A quasi-bound level between the two lead edges (open into the lower lead
+    /// only, <see cref="IntersubbandOptions.IncludeQuasiBound"/>) transmits nothing, so it has no peak and its transitions
+    /// no derivative here: null.
     /// </summary>
     /// <param name="spectrum">The intersubband spectrum the transition belongs to.</param>
     /// <param name="transition">One of <see cref="IntersubbandSpectrum.Transitions"/>.</param>

@@ -192,18 +192,16 @@ public sealed class IntersubbandSpectrum
                 double.NegativeInfinity, double.PositiveInfinity, waves[i].ValueAt));
         }
 
-        // Bound-to-bound dipoles and momentum forms: the kernel's exact element integrals plus the lead tails.
+        // Bound-to-bound dipoles and momentum forms: Gauss–Legendre over the exact states at the shared nodes, plus the lead tails.
         var parabolic = IsParabolic(profile);
         var dipoles = new double[nb, nb];
         var momentum = new double[nb, nb];
-        var origin = 0.5 * profile.Boundaries[n];
+        KernelState.AllPairs(states, dipoles, momentum); // ∫xψ_iψ_f (nm) and ∫ψ_i ψ_f′ (1/nm), i < f
         for (var i = 0; i < nb; i++)
         {
             for (var f = i + 1; f < nb; f++)
             {
-                var (_, z, p) = KernelState.Pair(states[i], states[f], origin);
-                dipoles[i, f] = dipoles[f, i] = z;
-                momentum[i, f] = p; // ∫ψ_i ψ_f′, 1/nm
+                dipoles[f, i] = dipoles[i, f];
             }
         }
 

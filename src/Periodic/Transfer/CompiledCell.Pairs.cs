@@ -2,6 +2,7 @@
 // Copyright (c) 2026 Periodic contributors
 
 using System.Globalization;
+using System.Numerics.Tensors;
 using Periodic.Numerics;
 
 namespace Periodic.Transfer;
@@ -210,10 +211,15 @@ internal sealed partial class CompiledCell
         if (_kinds[i] == ElementKind.Layer)
         {
             LayerCoefficients(i, e, out var mass, out var s);
-            var kappaWidth = Math.Sqrt(Math.Max(0, -s)) * width;
-            if (s < 0 && s * width * width <= -1 && kappaWidth < 700)
+            var z = s * width * width;
+            if (z <= -1 && Math.Sqrt(-s) * width < 700)
             {
                 SampleBarrier(Math.Sqrt(-s), width, mass, ends, panels, psi, derivativeOverMass);
+                return;
+            }
+            if (z >= 1)
+            {
+                SampleWell(Math.Sqrt(s), width, mass, ends, panels, psi, derivativeOverMass);
                 return;
             }
         }
@@ -231,32 +237,99 @@ internal sealed partial class CompiledCell
         }
     }
 
-    /// <summary>
-    /// <see cref="SampleNodes"/> under a uniform barrier (κw ≥ 1): the two-sided form of <see cref="StateInside"/>,
-    /// ψ(y) = [ψ(0)·sinh κ(w − y) + ψ(w)·sinh κy]/sinh κw, written in the decaying exponentials a = e^{−κy}, b = e^{−κ(w − y)},
-    /// D = e^{−κw} = ab: sinh κ(w − y)/sinh κw = (a − Db)/(1 − D²), sinh κy/sinh κw = (b − Da)/(1 − D²), and the cosh
-    /// ratios with + (one exponential per node instead of three hyperbolic evaluations; no weight exceeds one).
-    /// </summary>
-    private static void SampleBarrier(double kappa, double width, double mass, in ElementEnds ends, int panels, Span<double> psi, Span<double> derivativeOverMass)
+    /// <summary>The offsets from the element's left end of the 20 Gauss–Legendre nodes of each of <paramref name="panels"/> equal panels.</summary>
+    private static void NodeOffsets(double width, int panels, Span<double> destination)
     {
         var rule = GaussLegendre.Twenty;
         var h = width / panels;
-        var d = Math.Exp(-kappa * width);
-        var inverse = 1 / (1 - d * d);
         var q = 0;
         for (var p = 0; p < panels; p++)
         {
             for (var g = 0; g < rule.Order; g++, q++)
             {
-                var y = (p + 0.5 + 0.5 * rule.Nodes[g]) * h;
-                var a = Math.Exp(-kappa * y);
-                var b = Math.Exp(-kappa * (width - y));
-                psi[q] = (ends.U0 * (a - d * b) + ends.U1 * (b - d * a)) * inverse;
-                if (!derivativeOverMass.IsEmpty)
+                destination[q] = (p + 0.5 + 0.5 * rule.Nodes[g]) * h;
+            }
+        }
+    }
+
+    /// <summary>
+    /// <see cref="SampleNodes"/> in an oscillating uniform layer (kw ≥ 1): ψ(y) = ψ(0)·cos ky + (m·w(0)/k)·sin ky and
+    /// ψ′/m = −(k/m)·ψ(0)·sin ky + w(0)·cos ky (<see cref="LayerStateAt"/> written out). The nodes of a panel lie in pairs
+    /// y = c ± d about its middle c, and every panel has the same offsets d, so the sines and cosines come from the angle-addition
+    /// formulas with one sine and cosine per panel and one per offset: about half a sine and cosine per node.
+    /// </summary>
+    private static void SampleWell(double k, double width, double mass, in ElementEnds ends, int panels, Span<double> psi, Span<double> derivativeOverMass)
+    {
+        var rule = GaussLegendre.Twenty;
+        var order = rule.Order;
+        var half = order / 2; // the 20-point rule has no node at the middle; Nodes[order − 1 − g] = −Nodes[g]
+        var h = width / panels;
+        Span<double> sinD = stackalloc double[half];
+        Span<double> cosD = stackalloc double[half];
+        for (var g = 0; g < half; g++)
+        {
+            (sinD[g], cosD[g]) = Math.SinCos(k * 0.5 * h * rule.Nodes[order - 1 - g]);
+        }
+        double u = ends.U0, b = mass * ends.W0 / k, c = -k / mass * ends.U0, w = ends.W0;
+        var withDerivative = !derivativeOverMass.IsEmpty;
+        for (var p = 0; p < panels; p++)
+        {
+            var (sinC, cosC) = Math.SinCos(k * (p + 0.5) * h);
+            var at = p * order;
+            for (var g = 0; g < half; g++)
+            {
+                // Node order − 1 − g at c + d, node g at c − d.
+                var cosPlus = cosC * cosD[g] - sinC * sinD[g];
+                var sinPlus = sinC * cosD[g] + cosC * sinD[g];
+                var cosMinus = cosC * cosD[g] + sinC * sinD[g];
+                var sinMinus = sinC * cosD[g] - cosC * sinD[g];
+                psi[at + order - 1 - g] = u * cosPlus + b * sinPlus;
+                psi[at + g] = u * cosMinus + b * sinMinus;
+                if (withDerivative)
                 {
-                    derivativeOverMass[q] = kappa / mass * (-ends.U0 * (a + d * b) + ends.U1 * (b + d * a)) * inverse;
+                    derivativeOverMass[at + order - 1 - g] = c * sinPlus + w * cosPlus;
+                    derivativeOverMass[at + g] = c * sinMinus + w * cosMinus;
                 }
             }
+        }
+    }
+
+    /// <summary>
+    /// <see cref="SampleNodes"/> under a uniform barrier (κw ≥ 1): the two-sided form of <see cref="StateInside"/>,
+    /// ψ(y) = [ψ(0)·sinh κ(w − y) + ψ(w)·sinh κy]/sinh κw, written in the decaying exponentials a = e^{−κy}, b = e^{−κ(w − y)},
+    /// D = e^{−κw} = ab: sinh κ(w − y)/sinh κw = (a − Db)/(1 − D²), sinh κy/sinh κw = (b − Da)/(1 − D²), and the cosh
+    /// ratios with + (two exponentials per node, all nodes at once by the vectorised <see cref="TensorPrimitives.Exp{T}(ReadOnlySpan{T}, Span{T})"/>,
+    /// instead of three hyperbolic evaluations; no weight exceeds one).
+    /// </summary>
+    private static void SampleBarrier(double kappa, double width, double mass, in ElementEnds ends, int panels, Span<double> psi, Span<double> derivativeOverMass)
+    {
+        var count = panels * GaussLegendre.Twenty.Order;
+        var rented = count > 256 ? System.Buffers.ArrayPool<double>.Shared.Rent(2 * count) : null;
+        Span<double> buffer = rented is null ? stackalloc double[2 * count] : rented.AsSpan(0, 2 * count);
+        var a = buffer[..count];
+        var b = buffer.Slice(count, count);
+        NodeOffsets(width, panels, a);
+        TensorPrimitives.Subtract(width, a, b);
+        TensorPrimitives.Multiply(a, -kappa, a);
+        TensorPrimitives.Multiply(b, -kappa, b);
+        TensorPrimitives.Exp<double>(a, a);
+        TensorPrimitives.Exp<double>(b, b);
+        var d = Math.Exp(-kappa * width);
+        var inverse = 1 / (1 - d * d);
+        for (var q = 0; q < count; q++)
+        {
+            psi[q] = (ends.U0 * (a[q] - d * b[q]) + ends.U1 * (b[q] - d * a[q])) * inverse;
+        }
+        if (!derivativeOverMass.IsEmpty)
+        {
+            for (var q = 0; q < count; q++)
+            {
+                derivativeOverMass[q] = kappa / mass * (-ends.U0 * (a[q] + d * b[q]) + ends.U1 * (b[q] + d * a[q])) * inverse;
+            }
+        }
+        if (rented is not null)
+        {
+            System.Buffers.ArrayPool<double>.Shared.Return(rented);
         }
     }
 

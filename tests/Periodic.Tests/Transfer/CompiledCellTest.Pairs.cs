@@ -76,6 +76,40 @@ public sealed partial class CompiledCellTest
         Assert.Equal(momentum, pair.Momentum, 1e-9 * width * scale * scale);
     }
 
+    public static TheoryData<double, double, double, int> SampleCases => new()
+    {
+        // Width, potential, energy, panels: an oscillating layer (kw ≈ 5.4, one panel; kw ≈ 27, three panels), a barrier
+        // (κw ≈ 3), a thin barrier below κw = 1 (the general branch), and a nearly flat state (kw ≈ 0.3).
+        { 8.0, 0.0, 0.26, 1 },
+        { 40.0, 0.0, 0.26, 3 },
+        { 10.0, 0.26, 0.2, 1 },
+        { 1.0, 0.26, 0.2, 1 },
+        { 3.0, 0.0, 0.001, 1 },
+    };
+
+    [Theory]
+    [MemberData(nameof(SampleCases))]
+    public void SampleNodes_UniformLayer_MatchesTheSolutionAtEveryNode(double width, double v, double e, int panels)
+    {
+        const double mass = 0.067;
+        var cell = new CompiledCell([Layer.Create(Length.FromNanometres(width), Energy.FromElectronVolts(v), EffectiveMass.FromElectronMasses(mass))], "elements");
+        var f = Uniform(e, v, mass, 0.7, -0.4);
+        var rule = Periodic.Numerics.GaussLegendre.Twenty;
+        var psi = new double[panels * rule.Order];
+        var w = new double[psi.Length];
+        cell.SampleNodes(0, e, Ends(f, width, mass), panels, psi, w);
+        var h = width / panels;
+        for (var q = 0; q < psi.Length; q++)
+        {
+            var y = (q / rule.Order + 0.5 + 0.5 * rule.Nodes[q % rule.Order]) * h;
+            // The closed-form solution (Math.Cos/Sin/Cosh/Sinh) against the kernel's angle-addition and exponential forms: both
+            // a few roundings of the same function; 1e-13 of the layer's largest |ψ| and |ψ′/m| covers them.
+            var scale = Math.Max(1, Math.Cosh(Math.Sqrt(Math.Max(0, mass * (v - e) / C)) * width));
+            Assert.Equal(f.Psi(y), psi[q], 1e-13 * scale);
+            Assert.Equal(f.Derivative(y) / mass, w[q], 1e-13 * scale * Math.Sqrt(Math.Abs(mass * (e - v) / C)) / mass);
+        }
+    }
+
     public static TheoryData<double, double, double, double, double> LinearCases => new()
     {
         // Width, potential at the left end, slope (eV/nm), and the two energies; the last pair 1e-6 eV apart.
