@@ -105,16 +105,10 @@ internal sealed class SweepRunner(SweepSpec spec, bool rigidBands = false)
         return columns;
     }
 
-    /// <summary>Computes design <paramref name="index"/>; a design that cannot be built or solved is a row with its error.</summary>
-    public SweepRow Evaluate(int index)
-    {
-        var values = new double?[Columns.Count];
-        return new SweepRow(index, values, Evaluate(index, values));
-    }
-
     /// <summary>
     /// Computes design <paramref name="index"/> into <paramref name="values"/> (one per column, null where none; a buffer the
-    /// caller reuses); returns the design's error, or null when it has none.
+    /// caller reuses); returns the design's error, or null when it has none (a design that cannot be built or solved is a
+    /// row with its error).
     /// </summary>
     public string? Evaluate(int index, double?[] values)
     {
