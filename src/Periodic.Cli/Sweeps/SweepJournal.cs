@@ -24,10 +24,13 @@ internal sealed class SweepJournal : IDisposable
     public const int Format = 2;
 
     private readonly FileStream _stream;
+    private readonly Microsoft.Win32.SafeHandles.SafeFileHandle? _handle;
     private long _lastDiskSync = System.Diagnostics.Stopwatch.GetTimestamp();
 
     private SweepJournal(string path, FileStream stream, List<SweepRow> done, bool resumed)
     {
+        // The stream is unbuffered, so its handle can be synchronised from another thread than the one writing.
+        _handle = OperatingSystem.IsLinux() ? stream.SafeFileHandle : null;
         Resumed = resumed;
         Path = path;
         _stream = stream;
@@ -158,6 +161,23 @@ internal sealed class SweepJournal : IDisposable
         if (synced)
         {
             _lastDiskSync = now;
+        }
+    }
+
+    /// <summary>
+    /// True when <see cref="SyncToDiskIfDue"/> forces the journal onto the disk from any thread (Linux: fsync on its handle);
+    /// otherwise the writing thread calls <see cref="Flush"/>.
+    /// </summary>
+    public bool SyncsFromAnyThread => _handle is not null;
+
+    /// <summary>Forces the lines written so far onto the disk when <see cref="DiskSyncInterval"/> has passed (see <see cref="Flush"/>).</summary>
+    public void SyncToDiskIfDue()
+    {
+        var now = System.Diagnostics.Stopwatch.GetTimestamp();
+        if (_handle is not null && System.Diagnostics.Stopwatch.GetElapsedTime(_lastDiskSync, now) >= DiskSyncInterval)
+        {
+            _lastDiskSync = now;
+            PosixFile.Sync(_handle);
         }
     }
 

@@ -67,8 +67,9 @@ internal sealed class SweepPipeline
         Rows = parquet ? new SweepRow[designs.Length] : null;
     }
 
-    // Enough that the workers never wait while the output is forced onto the disk (about 0.1 s of work; a few MB).
-    private int ChunksInFlight => 32 * _workers + 16;
+    // A few chunks per worker: enough that no worker waits for a slower one's chunk, few enough that the buffers stay in cache
+    // (the disk flushes happen on the calling thread, so no worker waits for the disk).
+    private int ChunksInFlight => 4 * _workers + 4;
 
     /// <summary>For Parquet, the rows in design order once <see cref="Run"/> has returned; null for CSV.</summary>
     public SweepRow[]? Rows { get; }
@@ -121,6 +122,7 @@ internal sealed class SweepPipeline
             while (!_finished.Wait(100))
             {
                 progress.Report(Volatile.Read(ref _designsWritten));
+                _journal.SyncToDiskIfDue();
                 // The page cache is written to the disk while the designs compute, so that the flush the output needs before
                 // it replaces --out (OutputFile) is left only the last part: fsync(2) from this thread, which waits anyway,
                 // while the workers go on writing.
@@ -128,7 +130,7 @@ internal sealed class SweepPipeline
                 if (disk is not null && written - synced >= DiskFlushBytes)
                 {
                     synced = written;
-                    if (FileSync(disk) != 0)
+                    if (!PosixFile.Sync(disk))
                     {
                         disk = null; // a file that cannot be synchronised (a device, a FIFO): the final flush reports real failures
                     }
@@ -179,7 +181,10 @@ internal sealed class SweepPipeline
                     _nextToWrite++;
                     free.Release();
                 }
-                _journal.Flush();
+                if (!_journal.SyncsFromAnyThread)
+                {
+                    _journal.Flush();
+                }
                 if (_nextToWrite == _chunkCount)
                 {
                     _finished.Set();
@@ -223,8 +228,11 @@ internal sealed class SweepPipeline
                     return time;
                 }
                 var slot = _slots[c % _slots.Length];
-                slot.CsvLength = 0;
-                slot.JournalLength = 0;
+                // The chunk's buffers and lengths live in locals while it is formatted: the slots are small objects side by
+                // side, so lengths updated row by row in them would share cache lines between the workers.
+                var csv = slot.Csv;
+                var journal = slot.Journal;
+                int csvLength = 0, journalLength = 0;
                 var first = c * DesignsPerChunk;
                 var end = Math.Min(_designs.Length, first + DesignsPerChunk);
                 var t0 = ThreadClock.Nanoseconds();
@@ -250,11 +258,11 @@ internal sealed class SweepPipeline
                     }
                     else
                     {
-                        SweepTable.AppendCsvRow(design, row, error, ref slot.Csv, ref slot.CsvLength);
+                        SweepTable.AppendCsvRow(design, row, error, ref csv, ref csvLength);
                     }
                     if (done is null)
                     {
-                        SweepJournal.AppendLine(design, row, error, ref slot.Journal, ref slot.JournalLength);
+                        SweepJournal.AppendLine(design, row, error, ref journal, ref journalLength);
                     }
                     if (error is not null)
                     {
@@ -264,6 +272,10 @@ internal sealed class SweepPipeline
                 var t2 = ThreadClock.Nanoseconds();
                 time.Compute += t1 - t0;
                 time.Format += t2 - t1;
+                slot.Csv = csv;
+                slot.CsvLength = csvLength;
+                slot.Journal = journal;
+                slot.JournalLength = journalLength;
                 slot.Count = end - first;
                 Volatile.Write(ref slot.Number, c);
                 time.Write += WriteReady(free);
@@ -280,10 +292,6 @@ internal sealed class SweepPipeline
         }
         return time;
     }
-
-    // Runtime marshalling (DllImport) rather than the LibraryImport generator, which needs unsafe code enabled.
-    [DllImport("libc.so.6", EntryPoint = "fsync", ExactSpelling = true)]
-    private static extern int FileSync(Microsoft.Win32.SafeHandles.SafeFileHandle file);
 
     /// <summary>One chunk's formatted lines, reused for chunk numbers that are <see cref="ChunksInFlight"/> apart.</summary>
     private sealed class Chunk
@@ -348,4 +356,25 @@ internal static class ThreadClock
     // Runtime marshalling (DllImport) rather than the LibraryImport generator, which needs unsafe code enabled.
     [DllImport("libc.so.6", EntryPoint = "clock_gettime", ExactSpelling = true)]
     private static extern int ClockGetTime(int clock, out TimeSpec time);
+}
+
+/// <summary>fsync(2): forces a file's written data onto the disk; safe while another thread writes to the same file.</summary>
+internal static class PosixFile
+{
+    /// <summary>True when the system synchronised the file; false where it cannot (a device, a FIFO) or has no fsync.</summary>
+    public static bool Sync(Microsoft.Win32.SafeHandles.SafeFileHandle file)
+    {
+        try
+        {
+            return FileSync(file) == 0;
+        }
+        catch (Exception e) when (e is DllNotFoundException or EntryPointNotFoundException)
+        {
+            return false;
+        }
+    }
+
+    // Runtime marshalling (DllImport) rather than the LibraryImport generator, which needs unsafe code enabled.
+    [DllImport("libc.so.6", EntryPoint = "fsync", ExactSpelling = true)]
+    private static extern int FileSync(Microsoft.Win32.SafeHandles.SafeFileHandle file);
 }
