@@ -94,8 +94,8 @@ internal static partial class SweepCommand
             journal.Complete();
             if (result.GetValue(Common.Verbose))
             {
-                // Where the time went. The workers compute the designs and format their rows (CSV and journal lines); the
-                // calling thread writes them in design order beside the workers; the tail is what follows the last row
+                // Where the time went. The workers compute the designs, format their rows (CSV and journal lines) and write
+                // them in design order; the tail is what follows the last row
                 // (Parquet's table, the flush to disk, the rename). Output's share of the run: its share of the processor
                 // time while the designs computed, applied to that phase, plus the tail, over the whole run.
                 var compute = pipeline.ComputeTime.TotalSeconds;
