@@ -32,7 +32,6 @@ internal sealed class SweepPipeline
     private readonly SweepRow?[] _resumed;
     private readonly SweepJournal _journal;
     private readonly int _workers;
-    private readonly bool _parquet;
     private readonly Chunk[] _slots;
     private readonly int _chunkCount;
     private readonly object _writer = new();
@@ -57,7 +56,6 @@ internal sealed class SweepPipeline
         _resumed = resumed;
         _journal = journal;
         _workers = workers;
-        _parquet = parquet;
         _chunkCount = (designs.Length + DesignsPerChunk - 1) / DesignsPerChunk;
         _slots = new Chunk[ChunksInFlight];
         for (var s = 0; s < _slots.Length; s++)
