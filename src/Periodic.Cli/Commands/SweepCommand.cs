@@ -15,9 +15,6 @@ namespace Periodic.Cli.Commands;
 /// </summary>
 internal static partial class SweepCommand
 {
-    /// <summary>Designs per batch: computed in parallel, then journaled in design order.</summary>
-    private const int BatchSize = 512;
-
     public static Command Create()
     {
         var spec = new Argument<string>("spec") { Description = "Sweep file (JSON): structure, parameters, design, outputs (docs/sweeps.md)." };
@@ -58,6 +55,11 @@ internal static partial class SweepCommand
                 $"{{\"periodicSweepJournal\":{SweepJournal.Format},\"fingerprint\":\"{sweep.Fingerprint}\",\"shard\":\"{index}/{of}\",\"columns\":{runner.Columns.Count}{(rigid ? ",\"rigidBands\":true" : "")}}}");
             var rows = new SweepRow?[sweep.DesignCount];
             using var journal = SweepJournal.Open(outPath, identity, runner.Columns.Count);
+            if (journal.Resumed)
+            {
+                // Resuming a killed run: its partial output (the temporary file its rows streamed into) goes.
+                OutputFile.RemoveStaleTemporaries(outPath);
+            }
             foreach (var row in journal.Done)
             {
                 if (row.Design < 0 || row.Design >= rows.Length || row.Design % of != index)
@@ -66,53 +68,47 @@ internal static partial class SweepCommand
                 }
                 rows[row.Design] = row;
             }
-            var pending = mine.Where(d => rows[d] is null).ToArray();
+            var parquet = SweepTable.IsParquet(outPath, "--out");
+            var pipeline = new SweepPipeline(runner, mine, rows, journal, workers, parquet);
             var clock = System.Diagnostics.Stopwatch.StartNew();
-            var journalTime = TimeSpan.Zero;
-            using (var progress = new Progress("sweep", mine.Length))
+            var failed = 0;
+            // The output's temporary file is open while the designs compute: the CSV rows stream into it in design order and
+            // it replaces --out only once every row is in (a failure or a kill leaves no partial output; the journal resumes).
+            OutputFile.WriteAtomically(outPath, stream =>
             {
-                var finished = mine.Length - pending.Length;
-                var options = new ParallelOptions { MaxDegreeOfParallelism = workers };
-                // The journal of one batch is written while the next is computed; the time the loop waits for it is
-                // the journal's share of the run.
-                Task? writing = null;
-                void AwaitJournal()
+                if (!parquet)
                 {
-                    var journalStart = clock.Elapsed;
-                    writing?.GetAwaiter().GetResult();
-                    journalTime += clock.Elapsed - journalStart;
+                    SweepTable.WriteCsvHeader(stream, runner.Columns);
                 }
-                for (var start = 0; start < pending.Length; start += BatchSize)
+                using (var progress = new Progress("sweep", mine.Length))
                 {
-                    var batch = pending.AsSpan(start, Math.Min(BatchSize, pending.Length - start)).ToArray();
-                    var computed = new SweepRow[batch.Length];
-                    Parallel.For(0, batch.Length, options, i => computed[i] = runner.Evaluate(batch[i]));
-                    AwaitJournal();
-                    writing = Task.Run(() => journal.Append(computed));
-                    foreach (var row in computed)
-                    {
-                        rows[row.Design] = row;
-                    }
-                    finished += batch.Length;
-                    progress.Report(finished);
+                    pipeline.Run(parquet ? null : stream, progress);
                 }
-                AwaitJournal();
-            }
-            var computeSeconds = (clock.Elapsed - journalTime).TotalSeconds;
-            var journalSeconds = journalTime.TotalSeconds;
-            var tableStart = clock.Elapsed;
-            var table = new SweepTable(runner.Columns, sweep.Fingerprint, sweep.DesignCount, shardText, mine.Select(d => rows[d]!).ToArray());
-            table.Write(outPath, workers);
+                if (parquet)
+                {
+                    new SweepTable(runner.Columns, sweep.Fingerprint, sweep.DesignCount, shardText, pipeline.Rows!).WriteParquet(stream).GetAwaiter().GetResult();
+                }
+                failed = pipeline.Failed;
+            });
+            var total = clock.Elapsed;
             journal.Complete();
             if (result.GetValue(Common.Verbose))
             {
-                // Where the time went: computing the designs against writing (the journal of finished rows while running, then the table).
+                // Where the time went. The workers compute the designs, format their rows (CSV and journal lines) and write
+                // them in design order; the tail is what follows the last row
+                // (Parquet's table, the flush to disk, the rename). Output's share of the run: its share of the processor
+                // time while the designs computed, applied to that phase, plus the tail, over the whole run.
+                var compute = pipeline.ComputeTime.TotalSeconds;
+                var format = pipeline.FormatTime.TotalSeconds;
+                var write = pipeline.WriteTime.TotalSeconds;
+                var tail = (total - pipeline.Elapsed).TotalSeconds;
+                var outputShare = compute + format + write > 0 ? (format + write) / (compute + format + write) : 0;
+                var share = (outputShare * pipeline.Elapsed.TotalSeconds + tail) / total.TotalSeconds;
                 Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,
-                    $"periodic: {pending.Length} designs computed in {computeSeconds:F3} s on {workers} threads; journal written in {journalSeconds:F3} s; table written in {(clock.Elapsed - tableStart).TotalSeconds:F3} s; {(runner.UsesTemplate ? "each design built from the structure read once" : "each design read as a document")}"));
+                    $"periodic: {pipeline.Computed} designs computed in {pipeline.Elapsed.TotalSeconds:F3} s on {workers} threads ({(ThreadClock.IsProcessorTime ? "processor" : "wall")} time: designs {compute:F3} s, formatting rows {format:F3} s, writing {write:F3} s); then {tail:F3} s to finish the file; output share {100 * share:F1} %; whole run {total.TotalSeconds:F3} s; garbage collections {GC.CollectionCount(0)} (pauses {GC.GetTotalPauseDuration().TotalSeconds:F3} s); {(runner.UsesTemplate ? "each design built from the structure read once" : "each design read as a document")}"));
             }
-            var failed = table.Rows.Count(r => r.Error is not null);
             Console.Out.WriteLine(string.Create(CultureInfo.InvariantCulture,
-                $"{table.Rows.Count} designs{(shardText is null ? "" : $" (shard {shardText} of {sweep.DesignCount})")}, {failed} failed (their rows give the error); written to {outPath}"));
+                $"{mine.Length} designs{(shardText is null ? "" : $" (shard {shardText} of {sweep.DesignCount})")}, {failed} failed (their rows give the error); written to {outPath}"));
             return 0;
         });
         return command;

@@ -63,6 +63,29 @@ internal static class OutputFile
             stream.Write(bytes);
         });
 
+    /// <summary>
+    /// Removes the temporary files a killed writer of <paramref name="path"/> left beside it (<c>.NAME.XXXXXXXX.tmp</c>): for a
+    /// command that resumes after SIGKILL (a sweep streams its rows into the temporary file while it computes).
+    /// </summary>
+    public static void RemoveStaleTemporaries(string path)
+    {
+        var target = FinalTarget(Path.GetFullPath(path));
+        var directory = Path.GetDirectoryName(target)!;
+        if (!Directory.Exists(directory))
+        {
+            return;
+        }
+        var prefix = "." + Path.GetFileName(target) + ".";
+        foreach (var file in Directory.EnumerateFiles(directory, prefix + "*.tmp"))
+        {
+            var middle = Path.GetFileName(file)[prefix.Length..^".tmp".Length];
+            if (middle.Length == 8 && middle.All(char.IsAsciiHexDigitLower) && !PendingTemporaries.ContainsKey(file))
+            {
+                TryDelete(file);
+            }
+        }
+    }
+
     /// <summary>Where the bytes go and how, or a refusal that names the option and the path.</summary>
     private static (string Path, FileKind Kind) Check(string path)
     {

@@ -105,10 +105,14 @@ internal sealed class SweepRunner(SweepSpec spec, bool rigidBands = false)
         return columns;
     }
 
-    /// <summary>Computes design <paramref name="index"/>; a design that cannot be built or solved is a row with its error.</summary>
-    public SweepRow Evaluate(int index)
+    /// <summary>
+    /// Computes design <paramref name="index"/> into <paramref name="values"/> (one per column, null where none; a buffer the
+    /// caller reuses); returns the design's error, or null when it has none (a design that cannot be built or solved is a
+    /// row with its error).
+    /// </summary>
+    public string? Evaluate(int index, double?[] values)
     {
-        var values = new double?[Columns.Count];
+        Array.Clear(values);
         Span<double> parameters = stackalloc double[spec.Parameters.Count];
         spec.Plan.Values(index, parameters);
         for (var j = 0; j < parameters.Length; j++)
@@ -120,7 +124,7 @@ internal sealed class SweepRunner(SweepSpec spec, bool rigidBands = false)
             if (_template?.TryBuild(parameters) is { } cell)
             {
                 // Bands only (the template's condition): the same cell as the document would give, solved the same way.
-                return new SweepRow(index, values, EvaluateBands(cell, values, parameters.Length, SensitivityStart));
+                return EvaluateBands(cell, values, parameters.Length, SensitivityStart);
             }
             var document = spec.Structure.DeepClone().AsObject();
             for (var j = 0; j < parameters.Length; j++)
@@ -190,12 +194,12 @@ internal sealed class SweepRunner(SweepSpec spec, bool rigidBands = false)
                     }
                 }
             }
-            return new SweepRow(index, values, error);
+            return error;
         }
         catch (Exception e) when (e is StructureFileException or ArgumentException or ArithmeticException or InvalidOperationException
             or PeriodicComputationException or UsageException)
         {
-            return new SweepRow(index, values, OneLine(e.Message));
+            return OneLine(e.Message);
         }
     }
 

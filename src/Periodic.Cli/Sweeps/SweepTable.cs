@@ -78,13 +78,7 @@ internal sealed class SweepTable
 
     private void WriteCsv(Stream stream, int maxDegreeOfParallelism)
     {
-        var header = new StringBuilder("design");
-        foreach (var (name, unit) in Columns)
-        {
-            header.Append(',').Append(Csv.Escape($"{name} ({unit})"));
-        }
-        header.Append(",error\n");
-        stream.Write(new UTF8Encoding(false).GetBytes(header.ToString()));
+        WriteCsvHeader(stream, Columns);
         // Formatting doubles in shortest round-trip form is most of the work: chunks of rows are formatted to UTF-8 on all
         // the threads at once, a window of chunks at a time (bounded memory), and written in design order.
         var threads = maxDegreeOfParallelism > 0 ? maxDegreeOfParallelism : Environment.ProcessorCount;
@@ -103,6 +97,18 @@ internal sealed class SweepTable
         }
     }
 
+    /// <summary>The CSV header row: <c>design,FIELD (UNIT),…,error</c>.</summary>
+    public static void WriteCsvHeader(Stream stream, IReadOnlyList<(string Name, string Unit)> columns)
+    {
+        var header = new StringBuilder("design");
+        foreach (var (name, unit) in columns)
+        {
+            header.Append(',').Append(Csv.Escape($"{name} ({unit})"));
+        }
+        header.Append(",error\n");
+        stream.Write(new UTF8Encoding(false).GetBytes(header.ToString()));
+    }
+
     /// <summary>Rows <paramref name="start"/> to <paramref name="end"/> (exclusive) as CSV lines in <paramref name="buffer"/>; returns the byte count.</summary>
     private int FormatRows(int start, int end, ref byte[]? buffer)
     {
@@ -111,37 +117,46 @@ internal sealed class SweepTable
         for (var i = start; i < end; i++)
         {
             var row = Rows[i];
-            var error = row.Error is null ? null : Csv.Escape(row.Error);
-            // design, then each value (at most 24 bytes in round-trip form) after its comma, the error, the line break
-            var most = 11 + 25 * row.Values.Length + 1 + (error is null ? 0 : Encoding.UTF8.GetMaxByteCount(error.Length)) + 1;
-            if (buffer.Length - length < most)
-            {
-                Array.Resize(ref buffer, Math.Max(2 * buffer.Length, length + most));
-            }
-            var line = buffer.AsSpan(length);
-            row.Design.TryFormat(line, out var written, default, CultureInfo.InvariantCulture);
-            var k = written;
-            foreach (var value in row.Values)
-            {
-                line[k++] = (byte)',';
-                if (value is { } x)
-                {
-                    x.TryFormat(line[k..], out written, "R", CultureInfo.InvariantCulture);
-                    k += written;
-                }
-            }
-            line[k++] = (byte)',';
-            if (error is not null)
-            {
-                k += Encoding.UTF8.GetBytes(error, line[k..]);
-            }
-            line[k++] = (byte)'\n';
-            length += k;
+            AppendCsvRow(row.Design, row.Values, row.Error, ref buffer, ref length);
         }
         return length;
     }
 
-    private async Task WriteParquet(Stream stream)
+    /// <summary>
+    /// One design's CSV line (UTF-8, ended by a line break) appended at <paramref name="length"/> in <paramref name="buffer"/>,
+    /// which grows when it must: the design, each value in shortest round-trip form (empty where none), the error.
+    /// </summary>
+    public static void AppendCsvRow(int design, ReadOnlySpan<double?> values, string? error, ref byte[] buffer, ref int length)
+    {
+        var escaped = error is null ? null : Csv.Escape(error);
+        // design, then each value (shortest round-trip form, the same bytes as "R") after its comma, the error, the line break
+        var most = 11 + (ShortestDecimal.MaxBytes + 1) * values.Length + 1 + (escaped is null ? 0 : Encoding.UTF8.GetMaxByteCount(escaped.Length)) + 1;
+        if (buffer.Length - length < most)
+        {
+            Array.Resize(ref buffer, Math.Max(2 * buffer.Length, length + most));
+        }
+        var line = buffer.AsSpan(length);
+        design.TryFormat(line, out var written, default, CultureInfo.InvariantCulture);
+        var k = written;
+        foreach (var value in values)
+        {
+            line[k++] = (byte)',';
+            if (value is { } x)
+            {
+                k += ShortestDecimal.Format(x, line[k..]);
+            }
+        }
+        line[k++] = (byte)',';
+        if (escaped is not null)
+        {
+            k += Encoding.UTF8.GetBytes(escaped, line[k..]);
+        }
+        line[k++] = (byte)'\n';
+        length += k;
+    }
+
+    /// <summary>The table as Parquet (one row group) into <paramref name="stream"/>.</summary>
+    public async Task WriteParquet(Stream stream)
     {
         var designField = new DataField<int>("design");
         var valueFields = Columns.Select(c => new DataField<double?>(c.Name)).ToArray();

@@ -144,10 +144,13 @@ public sealed partial class SweepCommandTest
         var journaled = File.ReadAllLines(journal).Length - 1;
         Assert.InRange(journaled, 1, 19_999);
 
+        // The killed run streamed rows into a temporary file beside the output; the resumed run removes it.
+        Assert.NotEmpty(Directory.GetFiles(folder, ".resumed.csv.*.tmp"));
         var rerun = ToolRunner.Invoke("sweep", spec, "--out", output);
         Assert.True(rerun.ExitCode == 0, rerun.Stderr);
         Assert.Equal(File.ReadAllBytes(reference), File.ReadAllBytes(output));
         Assert.False(File.Exists(journal));
+        Assert.Empty(Directory.GetFiles(folder, ".resumed.csv.*.tmp"));
     }
 
     [Theory]
