@@ -1,7 +1,8 @@
 // SPDX-License-Identifier: MIT
 // Copyright (c) 2026 Periodic contributors
 
-using System.Numerics;
+using System.Runtime.Intrinsics;
+using Periodic.Numerics;
 using Periodic.Stacks;
 using Periodic.Transfer;
 
@@ -309,6 +310,20 @@ internal sealed class KernelState
     private static void NodeSums4(ReadOnlySpan<double> weightedA, ReadOnlySpan<double> momentA, KernelState[] states, int b, int start, int length,
         double[,] moments, double[,] momenta, int row)
     {
+        if (Vector256.IsHardwareAccelerated)
+        {
+            NodeSums4<Lanes256>(weightedA, momentA, states, b, start, length, moments, momenta, row);
+        }
+        else
+        {
+            NodeSums4<Lanes128Pair>(weightedA, momentA, states, b, start, length, moments, momenta, row);
+        }
+    }
+
+    private static void NodeSums4<TLanes>(ReadOnlySpan<double> weightedA, ReadOnlySpan<double> momentA, KernelState[] states, int b, int start,
+        int length, double[,] moments, double[,] momenta, int row)
+        where TLanes : struct, IFourLanes<TLanes>
+    {
         var p0 = states[b]._nodePsi.AsSpan(start, length);
         var p1 = states[b + 1]._nodePsi.AsSpan(start, length);
         var p2 = states[b + 2]._nodePsi.AsSpan(start, length);
@@ -317,27 +332,23 @@ internal sealed class KernelState
         var d1 = states[b + 1]._nodeMassW.AsSpan(start, length);
         var d2 = states[b + 2]._nodeMassW.AsSpan(start, length);
         var d3 = states[b + 3]._nodeMassW.AsSpan(start, length);
-        Vector<double> m0 = default, m1 = default, m2 = default, m3 = default, q0 = default, q1 = default, q2 = default, q3 = default;
+        TLanes m0 = default, m1 = default, m2 = default, m3 = default, q0 = default, q1 = default, q2 = default, q3 = default;
         var q = 0;
-        if (Vector.IsHardwareAccelerated)
+        for (; q <= length - 4; q += 4)
         {
-            var width = Vector<double>.Count;
-            for (; q <= length - width; q += width)
-            {
-                var ma = new Vector<double>(momentA[q..]);
-                var wa = new Vector<double>(weightedA[q..]);
-                m0 += ma * new Vector<double>(p0[q..]);
-                m1 += ma * new Vector<double>(p1[q..]);
-                m2 += ma * new Vector<double>(p2[q..]);
-                m3 += ma * new Vector<double>(p3[q..]);
-                q0 += wa * new Vector<double>(d0[q..]);
-                q1 += wa * new Vector<double>(d1[q..]);
-                q2 += wa * new Vector<double>(d2[q..]);
-                q3 += wa * new Vector<double>(d3[q..]);
-            }
+            var ma = TLanes.Load(momentA, q);
+            var wa = TLanes.Load(weightedA, q);
+            m0 = TLanes.AddProduct(m0, ma, TLanes.Load(p0, q));
+            m1 = TLanes.AddProduct(m1, ma, TLanes.Load(p1, q));
+            m2 = TLanes.AddProduct(m2, ma, TLanes.Load(p2, q));
+            m3 = TLanes.AddProduct(m3, ma, TLanes.Load(p3, q));
+            q0 = TLanes.AddProduct(q0, wa, TLanes.Load(d0, q));
+            q1 = TLanes.AddProduct(q1, wa, TLanes.Load(d1, q));
+            q2 = TLanes.AddProduct(q2, wa, TLanes.Load(d2, q));
+            q3 = TLanes.AddProduct(q3, wa, TLanes.Load(d3, q));
         }
-        double s0 = Vector.Sum(m0), s1 = Vector.Sum(m1), s2 = Vector.Sum(m2), s3 = Vector.Sum(m3);
-        double r0 = Vector.Sum(q0), r1 = Vector.Sum(q1), r2 = Vector.Sum(q2), r3 = Vector.Sum(q3);
+        double s0 = m0.Sum(), s1 = m1.Sum(), s2 = m2.Sum(), s3 = m3.Sum();
+        double r0 = q0.Sum(), r1 = q1.Sum(), r2 = q2.Sum(), r3 = q3.Sum();
         for (; q < length; q++)
         {
             s0 += momentA[q] * p0[q];
@@ -366,21 +377,30 @@ internal sealed class KernelState
     private static void NodeSums(ReadOnlySpan<double> weightedA, ReadOnlySpan<double> momentA, ReadOnlySpan<double> psiB, ReadOnlySpan<double> massWB,
         out double moment, out double momentum)
     {
+        if (Vector256.IsHardwareAccelerated)
+        {
+            NodeSums<Lanes256>(weightedA, momentA, psiB, massWB, out moment, out momentum);
+        }
+        else
+        {
+            NodeSums<Lanes128Pair>(weightedA, momentA, psiB, massWB, out moment, out momentum);
+        }
+    }
+
+    private static void NodeSums<TLanes>(ReadOnlySpan<double> weightedA, ReadOnlySpan<double> momentA, ReadOnlySpan<double> psiB,
+        ReadOnlySpan<double> massWB, out double moment, out double momentum)
+        where TLanes : struct, IFourLanes<TLanes>
+    {
         var length = weightedA.Length;
         var q = 0;
-        var vm = Vector<double>.Zero;
-        var vp = Vector<double>.Zero;
-        if (Vector.IsHardwareAccelerated)
+        TLanes vm = default, vp = default;
+        for (; q <= length - 4; q += 4)
         {
-            var width = Vector<double>.Count;
-            for (; q <= length - width; q += width)
-            {
-                vm += new Vector<double>(momentA[q..]) * new Vector<double>(psiB[q..]);
-                vp += new Vector<double>(weightedA[q..]) * new Vector<double>(massWB[q..]);
-            }
+            vm = TLanes.AddProduct(vm, TLanes.Load(momentA, q), TLanes.Load(psiB, q));
+            vp = TLanes.AddProduct(vp, TLanes.Load(weightedA, q), TLanes.Load(massWB, q));
         }
-        moment = Vector.Sum(vm);
-        momentum = Vector.Sum(vp);
+        moment = vm.Sum();
+        momentum = vp.Sum();
         for (; q < length; q++)
         {
             moment += momentA[q] * psiB[q];
