@@ -22,13 +22,15 @@ namespace Periodic.SpaceCharge;
 public sealed class SelfConsistentStack : SelfConsistentSolution
 {
     internal SelfConsistentStack(DopedStack input, LayerStack stack, SpaceChargeOptions options, double[] positions, double[] hartree, double[] density,
-        double[] holeDensity, double fermiLevel, double neutralityError, int iterations, double residual, int states, double buffer)
+        double[] holeDensity, double fermiLevel, double neutralityError, int iterations, double residual, int states, double buffer,
+        IReadOnlyList<LayerStack> valenceStacks)
         : base(options, [.. positions.Select(x => x - buffer)], [.. hartree], [.. density.Select(n => n * 1e21)], [.. holeDensity.Select(p => p * 1e21)], fermiLevel,
             neutralityError, iterations, residual, input.Temperature.Kelvin)
     {
         Input = input;
         Stack = stack;
         OccupiedStates = states;
+        ValenceStacks = new System.Collections.ObjectModel.ReadOnlyCollection<LayerStack>([.. valenceStacks]);
         BufferNanometres = buffer;
     }
 
@@ -37,6 +39,12 @@ public sealed class SelfConsistentStack : SelfConsistentSolution
 
     /// <summary>The self-consistent stack: lead buffers and every layer as <see cref="Structures.SampledSegment"/>s of band edge plus Hartree energy, delta barriers as given, between flat leads.</summary>
     public LayerStack Stack { get; }
+
+    /// <summary>
+    /// Per valence band of <see cref="DopedStack.ValenceBands"/>: the self-consistent hole stack (buffers included, hole energies
+    /// counted downwards, so with −U added), between flat leads; empty for electrons alone.
+    /// </summary>
+    public IReadOnlyList<LayerStack> ValenceStacks { get; }
 
     /// <summary>The width of lead material kept inside the computed domain on each side, nm (<see cref="SpaceChargeOptions.LeadBufferNanometres"/>).</summary>
     public double BufferNanometres { get; }

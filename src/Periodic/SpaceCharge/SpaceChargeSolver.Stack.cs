@@ -126,8 +126,11 @@ public static partial class SpaceChargeSolver
             var left = Lead.Create(Energy.FromElectronVolts(rigid.LeftLead.Potential.ElectronVolts + hartree[0]), rigid.LeftLead.Mass);
             var right = Lead.Create(Energy.FromElectronVolts(rigid.RightLead.Potential.ElectronVolts + hartree[^1]), rigid.RightLead.Mass);
             var solved = LayerStack.Create(left, carriers[0].Parts!, right);
+            var holeStacks = carriers.Skip(1).Select(c => LayerStack.Create(
+                Lead.Create(Energy.FromElectronVolts(c.LeftLead.Potential.ElectronVolts - hartree[0]), c.LeftLead.Mass), c.Parts!,
+                Lead.Create(Energy.FromElectronVolts(c.RightLead.Potential.ElectronVolts - hartree[^1]), c.RightLead.Mass))).ToArray();
             return new SelfConsistentStack(stack, solved, options, grid.Positions, hartree, core.Density, core.HoleDensity, mu, core.NeutralityError(), iterations, residual,
-                core.StateCount, buffer);
+                core.StateCount, buffer, holeStacks);
         }, progress, cancellationToken);
     }
 
