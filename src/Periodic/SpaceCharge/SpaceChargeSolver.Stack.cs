@@ -32,8 +32,15 @@ public static partial class SpaceChargeSolver
     /// above the leads' band edges is thus that of a closed box: measure its effect by widening the buffers (it vanishes where μ
     /// lies many k_BT below the leads' band edges). The iteration and every formula are those of the periodic solver
     /// (predictor–corrector, A. Trellakis et al., J. Appl. Phys. 81, 7880 (1997)).</para>
+    /// <para>Holes: a stack given valence bands (<see cref="DopedStack.ValenceBands"/>) has the holes of each as carriers too, in
+    /// the closed-domain states of its hole stack with potential V_h − U (hole energies count downwards; the same kernel and
+    /// hard walls), each state of electron energy E holding (m∥/πħ²)·k_BT·ln(1 + e^((E − μ)/k_BT)) holes per area at the same μ;
+    /// Poisson's equation has +p, neutrality p − n + N_D⁺ − N_A⁻ = 0 fixes μ, and acceptors with a level ionise incompletely
+    /// above the first valence band's edge. A carrier whose potential lies more than 40 k_BT beyond μ everywhere holds no
+    /// state (an n-type stack with valence bands gives exactly the electrons' result).</para>
     /// <para>Result: <see cref="SelfConsistentStack.Stack"/>, buffers included, between flat leads at the potential the buffers
-    /// reach at their outer ends. Not modelled: bias (one Fermi level), holes, exchange and correlation, doped leads.</para>
+    /// reach at their outer ends. Not modelled: bias (one Fermi level), holes of a stack without valence bands, heavy/light-hole
+    /// mixing, exchange and correlation, doped leads.</para>
     /// </remarks>
     /// <param name="stack">The doped stack.</param>
     /// <param name="options">Tolerances, grid and buffer width; null for <see cref="SpaceChargeOptions.Default"/>.</param>
