@@ -69,14 +69,23 @@ public sealed partial class SpaceChargeSolverTest
         Assert.Equal(2, result.ValenceStacks.Count);
     }
 
-    [Fact]
-    public void SolveStack_PTypeRepeatedCell_MiddlePeriodApproachesTheSuperlattice()
+    [Theory]
+    [InlineData(0)] // full ionisation
+    [InlineData(0.026)] // an acceptor level 26 meV above the valence-band edge: incompletely ionised at 77 K
+    public void SolveStack_PTypeRepeatedCell_MiddlePeriodApproachesTheSuperlattice(double acceptorLevel)
     {
         // As for n-type: far from the ends each period of many sees the infinite superlattice's potential (common practice, no
         // single source). The middle period's Hartree drop (well middle minus barrier middle) of 5 periods matches the periodic
         // solver's to 1 % (the tolerance of the electron case); the grids are identical (0.1 nm, nodes at the interfaces). 12 k
         // nodes per band and 10 nm lead buffers keep the test quick: neither moves the drop by more than 1e-5 relative.
         var cell = PModulationDoped();
+        if (acceptorLevel > 0)
+        {
+            // The periodic solver's incomplete ionisation is checked against the charge balance solved independently
+            // (Solve_AcceptorLevel_MatchesChargeBalanceSolvedIndependently); here the stack must follow it.
+            cell = DopedCell.Create(cell.Cell, [.. cell.Doping.Select(d => d.AcceptorsPerCubicNanometre > 0 ? d.WithAcceptorIonisationEnergy(Energy.FromElectronVolts(acceptorLevel)) : d)],
+                cell.Temperature, cell.ValenceBands);
+        }
         var periodic = SpaceChargeSolver.Solve(cell, SpaceChargeOptions.Create(wavevectorNodes: 12));
         double periodicDrop = Interpolate(periodic.PositionsNanometres, periodic.HartreeElectronVolts, 8)
             - Interpolate(periodic.PositionsNanometres, periodic.HartreeElectronVolts, 0);
