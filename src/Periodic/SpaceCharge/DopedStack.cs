@@ -178,8 +178,7 @@ public sealed class DopedStack
             }
             for (var i = 0; i < elements.Count; i++)
             {
-                if (elements[i] is not Layer layer || holeElements[i] is not Layer hole || hole.NonParabolicityPerElectronVolt != 0
-                    || Math.Abs(hole.Width.Nanometres - layer.Width.Nanometres) > 1e-12 * layer.Width.Nanometres)
+                if (!DopedCell.IsMatchingHoleLayer(elements[i], holeElements[i]))
                 {
                     throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
                         $"valenceBands[{index}] ({band.Name}) part {p}, element {i} must be a parabolic uniform layer of the width of stack part {p}, element {i} ({elements[i].Width.Nanometres:R} nm; holes are modelled in stacks of uniform layers only); got {holeElements[i].GetType().Name} of {holeElements[i].Width.Nanometres:R} nm."), "valenceBands");

@@ -202,10 +202,7 @@ public static partial class SpaceChargeSolver
         }
         if (!carriers.Any(c => c.Active))
         {
-            foreach (var carrier in carriers)
-            {
-                carrier.Active = true;
-            }
+            Array.ForEach(carriers, c => c.Active = true);
         }
         for (var restart = 0; ; restart++)
         {
