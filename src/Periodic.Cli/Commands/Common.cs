@@ -254,26 +254,43 @@ internal static class Common
             }
             writer.WriteEndArray();
         }
+        var stackValence = stack?.Input.ValenceBands ?? [];
+        if (stackValence.Count > 0)
+        {
+            // Each valence band whose holes are carriers of the stack: its name and its edge on the energy scale of the levels.
+            writer.WriteStartArray("valenceBands");
+            foreach (var band in stackValence)
+            {
+                writer.WriteStartObject();
+                writer.WriteString("name", band.Name);
+                writer.WriteNumber("edge", band.EdgeElectronVolts);
+                writer.WriteEndObject();
+            }
+            writer.WriteEndArray();
+        }
+        var holes = valence.Count > 0 || stackValence.Count > 0;
         writer.WriteNumber("gridSpacing", solution.Options.MaxGridSpacingNanometres);
         if (stack is not null)
         {
             writer.WriteNumber("leadBuffer", stack.BufferNanometres);
         }
         writer.WriteString("model", stack is not null
-            ? "Hartree (Schrödinger–Poisson) electrons of the finite stack between undoped leads at zero bias: states of the closed domain (stack and lead buffers, hard walls at their outer ends), no field through the ends, neutral domain; no holes, exchange-correlation or bias"
+            ? stackValence.Count > 0
+                ? "Hartree (Schrödinger–Poisson) electrons and holes of the finite stack between undoped leads at zero bias at one Fermi level: states of the closed domain (stack and lead buffers, hard walls at their outer ends), holes of each valence band in a single parabolic band (no heavy/light-hole mixing, no split-off band, no strain), dopants fully ionised unless a level is given, no field through the ends, neutral domain; no exchange-correlation or bias"
+                : "Hartree (Schrödinger–Poisson) electrons of the finite stack between undoped leads at zero bias: states of the closed domain (stack and lead buffers, hard walls at their outer ends), no field through the ends, neutral domain; no holes, exchange-correlation or bias"
             : valence.Count > 0
             ? "Hartree (Schrödinger–Poisson) electrons and holes of the cell's minibands at one Fermi level, holes of each valence band in a single parabolic band (no heavy/light-hole mixing, no split-off band, no strain), dopants fully ionised unless a level is given, periodic boundary conditions; no exchange-correlation or bias"
             : "Hartree (Schrödinger–Poisson) electrons of the cell's minibands, fully ionised dopants, periodic boundary conditions; no holes, exchange-correlation or bias");
         Samples(writer, "hartree", solution.PositionsNanometres, solution.HartreeElectronVolts);
         Samples(writer, "electronDensity", solution.PositionsNanometres, solution.ElectronDensityPerCubicCentimetre);
-        if (valence.Count > 0)
+        if (holes)
         {
             Samples(writer, "holeDensity", solution.PositionsNanometres, solution.HoleDensityPerCubicCentimetre);
         }
         var units = new List<(string Name, string Unit)> { ("fermiLevel", "eV"), ("residual", "eV"), ("tolerance", "eV"), ("temperature", "K"), ("gridSpacing", "nm") };
         units.AddRange(stack is not null ? [("leadBuffer", "nm"), ("positions", "nm from the rigid stack's left interface")] : [("positions", "nm")]);
         units.AddRange([("hartree", "eV"), ("electronDensity", "cm^-3")]);
-        if (valence.Count > 0)
+        if (holes)
         {
             units.AddRange([("holeDensity", "cm^-3"), ("edge", "eV")]);
         }
@@ -303,6 +320,8 @@ internal static class Common
     public static string SelfConsistentLine(StructureDefinition structure) => structure.SelfConsistentStack is { } stack
         ? string.Create(CultureInfo.InvariantCulture,
             $"Self-consistent (Schrödinger–Poisson) stack at zero bias, {stack.TemperatureKelvin:G6} K: Fermi level {stack.FermiLevelElectronVolts:F6} eV, {Plural(stack.Iterations, "iteration")}, residual {stack.ResidualElectronVolts:G2} eV, neutrality error {stack.NeutralityError:G2}, Hartree potential from {stack.HartreeElectronVolts.Min() * 1e3:F3} to {stack.HartreeElectronVolts.Max() * 1e3:F3} meV; the stack includes {stack.BufferNanometres:G4} nm of each lead (--no-space-charge: rigid stack)\n")
+            + (stack.Input.ValenceBands.Count == 0 ? "" : string.Create(CultureInfo.InvariantCulture,
+                $"Carriers: electrons up to {stack.ElectronDensityPerCubicCentimetre.Max():G4} cm^-3, holes ({string.Join(", ", stack.Input.ValenceBands.Select(b => b.Name))}; single parabolic bands, no band mixing or strain) up to {stack.HoleDensityPerCubicCentimetre.Max():G4} cm^-3\n"))
         : structure.SelfConsistent is { } sc
         ? string.Create(CultureInfo.InvariantCulture,
             $"Self-consistent (Schrödinger–Poisson) potential at {sc.TemperatureKelvin:G6} K: Fermi level {sc.FermiLevelElectronVolts:F6} eV, {Plural(sc.Iterations, "iteration")}, residual {sc.ResidualElectronVolts:G2} eV, neutrality error {sc.NeutralityError:G2}, Hartree potential from {sc.HartreeElectronVolts.Min() * 1e3:F3} to {sc.HartreeElectronVolts.Max() * 1e3:F3} meV (--no-space-charge: rigid bands)\n")

@@ -588,16 +588,27 @@ internal static class PlotCommand
             fermi.LineWidth = 2;
             var nx = sc.PositionsNanometres.Select(p => p + sc.BufferNanometres).ToArray();
             var ny = sc.ElectronDensityPerCubicCentimetre.ToArray();
-            var exponent = (int)Math.Floor(Math.Log10(Math.Max(ny.Max(), 1)));
+            // With holes the right axis holds p(z) too, scaled to the larger of the two (a p-type stack may hold no electrons).
+            var holes = sc.Input.ValenceBands.Count > 0;
+            var py = sc.HoleDensityPerCubicCentimetre.ToArray();
+            var largest = Math.Max(ny.Max(), holes ? py.Max() : 0);
+            var exponent = (int)Math.Floor(Math.Log10(Math.Max(largest, 1)));
             var scale = Math.Pow(10, exponent);
             var density = plot.Add.ScatterLine(nx, ny.Select(n => n / scale).ToArray());
             density.Color = Colors.SteelBlue;
             density.LineWidth = 1.5f;
             density.Axes.YAxis = plot.Axes.Right;
-            plot.Axes.Right.Label.Text = string.Create(CultureInfo.InvariantCulture, $"Electron density n(z) (1e{exponent} cm^-3)");
-            plot.Axes.Right.Range.Set(0, 1.1 * Math.Max(ny.Max(), 1e-300) / scale);
+            if (holes)
+            {
+                var holeLine = plot.Add.ScatterLine(nx, py.Select(v => v / scale).ToArray());
+                holeLine.Color = Colors.Crimson;
+                holeLine.LineWidth = 1.5f;
+                holeLine.Axes.YAxis = plot.Axes.Right;
+            }
+            plot.Axes.Right.Label.Text = string.Create(CultureInfo.InvariantCulture, $"{(holes ? "Carrier densities n(z), p(z)" : "Electron density n(z)")} (1e{exponent} cm^-3)");
+            plot.Axes.Right.Range.Set(0, 1.1 * Math.Max(largest, 1e-300) / scale);
             plot.Add.Text(string.Create(CultureInfo.InvariantCulture,
-                $"self-consistent stack (Hartree, {sc.TemperatureKelvin:G4} K, {sc.BufferNanometres:G4} nm of each lead included); green: Fermi level {unit.From(sc.FermiLevelElectronVolts):G5} {unit.Symbol}; blue: n(z), right axis"),
+                $"self-consistent stack (Hartree, {sc.TemperatureKelvin:G4} K, {sc.BufferNanometres:G4} nm of each lead included); green: Fermi level {unit.From(sc.FermiLevelElectronVolts):G5} {unit.Symbol}; blue: n(z){(holes ? ", red: p(z)" : "")}, right axis"),
                 -0.95 * margin, unit.From(vMin - 0.02 * range)).LabelFontSize = 11;
         }
         if (unit.Note is { } unitNote)

@@ -331,7 +331,12 @@ public static partial class StructureFile
                     Apply(b.Value, "stack.bias", () => { StackTransmission.CheckBias(stack, bias); return stack; });
                 }
             }
-            return (stack, bias, new StackFile(partDoping, leftPermittivity, rightPermittivity, obj));
+            // Every part a repeated cell or a material layer and every lead a material (or the cell's first layer): the stack has a valence band.
+            static bool OfMaterial(JsonTreeNode node) => node is JsonTreeObject o && o.Properties.Exists(p => p.Name is "material" or "repeat");
+            var ofMaterials = built is not null
+                && (partsProperty is null || partsProperty.Value is JsonTreeArray { Items: var items } && items.All(OfMaterial))
+                && new[] { "leads", "leftLead", "rightLead" }.All(f => !stackFields.TryGetValue(f, out var lead) || OfMaterial(lead.Value));
+            return (stack, bias, new StackFile(partDoping, leftPermittivity, rightPermittivity, obj, ofMaterials));
         }
 
         /// <summary>A lead and, for a lead of a material, that material's static relative permittivity.</summary>
@@ -525,7 +530,8 @@ public static partial class StructureFile
                 var entries = BuildEntries(built.Cell, materialDoping, array, temperature, t.Value);
                 var valence = anyDoping ? ValenceBands(recipe, built, fields, materialDoping) : [];
                 doped = anyDoping ? Apply(array, "cell", () => DopedCell.Create(built.Cell, entries, Temperature.FromKelvin(temperature), valence)) : null;
-                dopedStack = BuildStackDoping(stack, stackFile, entries, temperature, valence.Length > 0, out stackRefusal);
+                var stackValence = valence.Length > 0 ? StackValenceBands(recipe, built, fields, stackFile) : [];
+                dopedStack = BuildStackDoping(stack, stackFile, entries, temperature, valence.Length > 0, out stackRefusal, stackValence);
             }
             return new StructureDefinition(name, description, built.Cell, labels, sourceName, built, stack, bias)
             {
@@ -559,6 +565,39 @@ public static partial class StructureFile
                 var material = recipe.Layers.First(l => l.Material.HeavyHoleMass is null).Material;
                 throw Error(acceptor.Node, acceptor.Path + ".acceptors",
                     $"needs the holes of a valence band, but material {material.Name} has no heavy-hole mass (nor does every material have a light-hole mass): give the material one, or no acceptors.");
+            }
+            return [.. bands];
+        }
+
+        /// <summary>
+        /// The valence bands of a stack of material layers and material leads whose holes are carriers: heavy holes and light
+        /// holes, each where every material of the cell, the stack's layers and its leads has that mass (the hole stack read from
+        /// the same fields with the structure built for that band). Empty without a stack or for a stack with a layer or lead given
+        /// by potential and mass (no valence band to take from it).
+        /// </summary>
+        private StackValenceBand[] StackValenceBands(StructureRecipe recipe, BuiltStructure built, Dictionary<string, JsonTreeProperty> fields, StackFile? file)
+        {
+            if (file is not { OfMaterials: true })
+            {
+                return [];
+            }
+            var bands = new List<StackValenceBand>();
+            foreach (var (carrier, name) in new[] { (Carrier.HeavyHole, "heavy holes"), (Carrier.LightHole, "light holes") })
+            {
+                if (!recipe.Layers.All(l => (carrier == Carrier.HeavyHole ? l.Material.HeavyHoleMass : l.Material.LightHoleMass) is not null))
+                {
+                    continue;
+                }
+                var holes = recipe.WithNonParabolicity(false).WithCarrier(carrier).Build();
+                try
+                {
+                    var (holeStack, _, _) = ReadStack(fields, holes.Cell, holes);
+                    bands.Add(StackValenceBand.Create(holeStack!, Energy.FromElectronVolts(holes.ReferenceElectronVolts - built.ReferenceElectronVolts), name));
+                }
+                catch (StructureFileException)
+                {
+                    // A material of the stack's layers or leads has no mass for this band: the stack's holes leave it out.
+                }
             }
             return [.. bands];
         }
@@ -755,9 +794,11 @@ public static partial class StructureFile
         /// <remarks>
         /// With <paramref name="holes"/> (a cell of material layers), a stack the finite-stack model cannot take because its holes
         /// would matter (no more donors than acceptors, or an acceptor level) is not an error of the file: the cell's commands work,
-        /// and <paramref name="refusal"/> says why the stack's space charge is not solved.
+        /// and <paramref name="refusal"/> says why the stack's space charge is not solved. With <paramref name="valence"/> (a stack of
+        /// material layers and leads), the stack's holes are carriers and such a stack is solved.
         /// </remarks>
-        private DopedStack? BuildStackDoping(LayerStack? stack, StackFile? file, LayerDoping[] cellEntries, double temperatureKelvin, bool holes, out string? refusal)
+        private DopedStack? BuildStackDoping(LayerStack? stack, StackFile? file, LayerDoping[] cellEntries, double temperatureKelvin, bool holes, out string? refusal,
+            StackValenceBand[]? valence = null)
         {
             refusal = null;
             if (stack is null || file is null)
@@ -819,11 +860,11 @@ public static partial class StructureFile
             var right = file.RightPermittivity ?? Beside(first: false) ?? 1;
             try
             {
-                return DopedStack.Create(stack, doping, Temperature.FromKelvin(temperatureKelvin), left, right);
+                return DopedStack.Create(stack, doping, Temperature.FromKelvin(temperatureKelvin), left, right, valence ?? []);
             }
             catch (ArgumentException e) when (holes && e.ParamName == "partDoping")
             {
-                refusal = $"the space charge of the finite stack of {sourceName} is not solved: {Describe(e).TrimEnd('.')}; add --no-space-charge for the rigid stack.";
+                refusal = $"the space charge of the finite stack of {sourceName} is not solved: {Describe(e).TrimEnd('.')}; holes of a finite stack are modelled where every layer and lead is of a material with a hole mass; add --no-space-charge for the rigid stack.";
                 return null;
             }
             catch (ArgumentException e)
@@ -833,7 +874,7 @@ public static partial class StructureFile
         }
 
         /// <summary>What a file's stack says about doping: each single layer's doping fields (null for a repeated cell or none given) and the leads' permittivities where a material supplies them.</summary>
-        private sealed record StackFile(FileDoping?[] Parts, double? LeftPermittivity, double? RightPermittivity, JsonTreeNode Node)
+        private sealed record StackFile(FileDoping?[] Parts, double? LeftPermittivity, double? RightPermittivity, JsonTreeNode Node, bool OfMaterials = false)
         {
             /// <summary>True when a single layer of the stack gives doping fields.</summary>
             public bool IsDoped => Parts.Any(p => p is { Given: true });

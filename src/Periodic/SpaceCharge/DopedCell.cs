@@ -140,14 +140,18 @@ public sealed class DopedCell
         }
         for (var i = 0; i < holes.Count; i++)
         {
-            if (elements[i] is not Layer layer || holes[i] is not Layer hole || hole.NonParabolicityPerElectronVolt != 0
-                || Math.Abs(hole.Width.Nanometres - layer.Width.Nanometres) > 1e-12 * layer.Width.Nanometres)
+            if (!IsMatchingHoleLayer(elements[i], holes[i]))
             {
                 throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
                     $"valenceBands[{index}] ({band.Name}) element {i} must be a parabolic uniform layer of the width of cell element {i} ({elements[i].Width.Nanometres:R} nm; holes are modelled in cells of uniform layers only); got {holes[i].GetType().Name} of {holes[i].Width.Nanometres:R} nm."), "valenceBands");
             }
         }
     }
+
+    /// <summary>True when <paramref name="hole"/> can stand for <paramref name="element"/> in a valence band: both uniform layers, the hole one parabolic, of the same width (to 1e-12 relative).</summary>
+    internal static bool IsMatchingHoleLayer(CellElement element, CellElement hole) =>
+        element is Layer layer && hole is Layer holeLayer && holeLayer.NonParabolicityPerElectronVolt == 0
+        && Math.Abs(holeLayer.Width.Nanometres - layer.Width.Nanometres) <= 1e-12 * layer.Width.Nanometres;
 
     /// <inheritdoc />
     public override string ToString() => string.Create(CultureInfo.InvariantCulture,

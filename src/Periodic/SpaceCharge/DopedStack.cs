@@ -17,14 +17,15 @@ namespace Periodic.SpaceCharge;
 /// </summary>
 /// <remarks>
 /// The self-consistent model (<see cref="SpaceChargeSolver.SolveStack(DopedStack, SpaceChargeOptions?, IProgress{SpaceChargeProgress}?, CancellationToken)"/>)
-/// takes parabolic uniform layers and delta barriers; the carriers are electrons of the single band, so the stack must hold
-/// more donors than acceptors and acceptors cannot have a level (holes are not modelled in finite stacks; periodic cells model
-/// them, <see cref="DopedCell.ValenceBands"/>).
+/// takes parabolic uniform layers and delta barriers. The carriers are electrons of the single band and, where the stack is
+/// given valence bands (<see cref="ValenceBands"/>), holes of each; without a valence band the stack must hold more donors than
+/// acceptors and acceptors cannot have a level.
 /// </remarks>
 public sealed class DopedStack
 {
-    private DopedStack(LayerStack stack, LayerDoping[][] doping, Temperature temperature, double left, double right, double net)
+    private DopedStack(LayerStack stack, LayerDoping[][] doping, Temperature temperature, double left, double right, double net, StackValenceBand[] valenceBands)
     {
+        ValenceBands = new ReadOnlyCollection<StackValenceBand>(valenceBands);
         Stack = stack;
         PartDoping = new ReadOnlyCollection<IReadOnlyList<LayerDoping>>([.. doping.Select(d => (IReadOnlyList<LayerDoping>)new ReadOnlyCollection<LayerDoping>(d))]);
         Temperature = temperature;
@@ -51,7 +52,10 @@ public sealed class DopedStack
     /// <summary>Net ionised donors of the whole stack per unit area, ∫(N_D − N_A)dz + sheets, nm⁻² (full ionisation).</summary>
     public double NetDonorsPerSquareNanometre { get; }
 
-    /// <summary>Creates a doped stack.</summary>
+    /// <summary>The valence bands whose holes are carriers (empty: electrons only).</summary>
+    public IReadOnlyList<StackValenceBand> ValenceBands { get; }
+
+    /// <summary>Creates a doped stack whose carriers are electrons only.</summary>
     /// <param name="stack">A stack of parabolic uniform layers and delta barriers.</param>
     /// <param name="partDoping">One list per part of <paramref name="stack"/>: one entry per element of a repeated cell, or one for a single element; delta barriers undoped.</param>
     /// <param name="temperature">T in [1, 1000] K.</param>
@@ -62,8 +66,27 @@ public sealed class DopedStack
     /// or the stack holds no more donors than acceptors (the message names the parameter and the value).</exception>
     /// <exception cref="ArgumentOutOfRangeException">The temperature or a permittivity lies outside its range.</exception>
     public static DopedStack Create(LayerStack stack, IReadOnlyList<IReadOnlyList<LayerDoping>> partDoping, Temperature temperature,
-        double leftLeadRelativePermittivity, double rightLeadRelativePermittivity)
+        double leftLeadRelativePermittivity, double rightLeadRelativePermittivity) =>
+        Create(stack, partDoping, temperature, leftLeadRelativePermittivity, rightLeadRelativePermittivity, []);
+
+    /// <summary>Creates a doped stack whose holes in <paramref name="valenceBands"/> are carriers beside its electrons.</summary>
+    /// <param name="stack">A stack of parabolic uniform layers and delta barriers: the conduction band.</param>
+    /// <param name="partDoping">One list per part of <paramref name="stack"/>: one entry per element of a repeated cell, or one for a single element; delta barriers undoped.</param>
+    /// <param name="temperature">T in [1, 1000] K.</param>
+    /// <param name="leftLeadRelativePermittivity">ε_r of the left lead, in [1, 1e4].</param>
+    /// <param name="rightLeadRelativePermittivity">ε_r of the right lead, in [1, 1e4].</param>
+    /// <param name="valenceBands">The valence bands (e.g. heavy and light holes), each with a hole stack whose parts match
+    /// <paramref name="stack"/>'s (the same repetitions, parabolic uniform layers of the same widths, element by element; no delta
+    /// barriers); the first one's edges place the acceptor levels. Empty: electrons only.</param>
+    /// <exception cref="ArgumentNullException">An argument or an entry is null.</exception>
+    /// <exception cref="ArgumentException">A count differs, an element is of another kind or non-parabolic, a delta barrier is doped,
+    /// a hole stack does not match the stack, or (without valence bands) the stack holds no more donors than acceptors or gives an
+    /// acceptor level (the message names the parameter and the value).</exception>
+    /// <exception cref="ArgumentOutOfRangeException">The temperature or a permittivity lies outside its range.</exception>
+    public static DopedStack Create(LayerStack stack, IReadOnlyList<IReadOnlyList<LayerDoping>> partDoping, Temperature temperature,
+        double leftLeadRelativePermittivity, double rightLeadRelativePermittivity, IReadOnlyList<StackValenceBand> valenceBands)
     {
+        ArgumentNullException.ThrowIfNull(valenceBands);
         ArgumentNullException.ThrowIfNull(stack);
         ArgumentNullException.ThrowIfNull(partDoping);
         Preconditions.CheckRange(temperature.Kelvin, DopedCell.MinTemperatureKelvin, DopedCell.MaxTemperatureKelvin, nameof(temperature));
@@ -91,10 +114,10 @@ public sealed class DopedStack
             for (var i = 0; i < given.Count; i++)
             {
                 var doping = copy[p][i] = given[i] ?? throw new ArgumentNullException(nameof(partDoping), string.Create(CultureInfo.InvariantCulture, $"partDoping[{p}][{i}] is null."));
-                if (doping.AcceptorIonisationEnergyElectronVolts is not null)
+                if (valenceBands.Count == 0 && doping.AcceptorIonisationEnergyElectronVolts is not null)
                 {
                     throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
-                        $"partDoping[{p}][{i}] gives an acceptor level; the finite-stack model has no valence band (holes are modelled in periodic cells only), so its acceptors are fully ionised: give none."), nameof(partDoping));
+                        $"partDoping[{p}][{i}] gives an acceptor level, which lies above the valence-band edge: the stack needs a valence band (valenceBands) for it."), nameof(partDoping));
                 }
                 switch (elements[i])
                 {
@@ -116,15 +139,56 @@ public sealed class DopedStack
             }
             net += perRepetition * parts[p].Repetitions;
         }
-        if (!(net > 0))
+        var bands = new StackValenceBand[valenceBands.Count];
+        for (var b = 0; b < bands.Length; b++)
+        {
+            bands[b] = valenceBands[b] ?? throw new ArgumentNullException(nameof(valenceBands), string.Create(CultureInfo.InvariantCulture, $"valenceBands[{b}] is null."));
+            CheckHoleStack(stack, bands[b], b);
+        }
+        if (bands.Length == 0 && !(net > 0))
         {
             throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
-                $"partDoping must hold more donors than acceptors in the stack (electrons are the only mobile carriers of a finite stack: holes are modelled in periodic cells only); net donors = {net * 1e14:R} /cm2."), nameof(partDoping));
+                $"partDoping must hold more donors than acceptors in the stack (without valence bands electrons are the only mobile carriers: give valenceBands for a p-type or compensated stack); net donors = {net * 1e14:R} /cm2."), nameof(partDoping));
         }
-        return new DopedStack(stack, copy, temperature, leftLeadRelativePermittivity, rightLeadRelativePermittivity, net);
+        return new DopedStack(stack, copy, temperature, leftLeadRelativePermittivity, rightLeadRelativePermittivity, net, bands);
+    }
+
+    private static void CheckHoleStack(LayerStack stack, StackValenceBand band, int index)
+    {
+        var parts = stack.Parts;
+        var holes = band.Stack.Parts;
+        if (holes.Count != parts.Count)
+        {
+            throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
+                $"valenceBands[{index}] ({band.Name}) has {holes.Count} part(s); the hole stack must match the stack's {parts.Count} part by part."), "valenceBands");
+        }
+        for (var p = 0; p < parts.Count; p++)
+        {
+            if (holes[p].Repetitions != parts[p].Repetitions || holes[p].IsRepeatedCell != parts[p].IsRepeatedCell)
+            {
+                throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
+                    $"valenceBands[{index}] ({band.Name}) part {p} repeats {holes[p].Repetitions} time(s); stack part {p} repeats {parts[p].Repetitions} time(s), and both must be a repeated cell or a single element alike."), "valenceBands");
+            }
+            var elements = parts[p].Cell is { } cell ? cell.Elements : [parts[p].Element!];
+            var holeElements = holes[p].Cell is { } holeCell ? holeCell.Elements : [holes[p].Element!];
+            if (holeElements.Count != elements.Count)
+            {
+                throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
+                    $"valenceBands[{index}] ({band.Name}) part {p} has {holeElements.Count} element(s); stack part {p} has {elements.Count}."), "valenceBands");
+            }
+            for (var i = 0; i < elements.Count; i++)
+            {
+                if (!DopedCell.IsMatchingHoleLayer(elements[i], holeElements[i]))
+                {
+                    throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
+                        $"valenceBands[{index}] ({band.Name}) part {p}, element {i} must be a parabolic uniform layer of the width of stack part {p}, element {i} ({elements[i].Width.Nanometres:R} nm; holes are modelled in stacks of uniform layers only); got {holeElements[i].GetType().Name} of {holeElements[i].Width.Nanometres:R} nm."), "valenceBands");
+                }
+            }
+        }
     }
 
     /// <inheritdoc />
     public override string ToString() => string.Create(CultureInfo.InvariantCulture,
-        $"Doped stack: {Stack.Parts.Count} part(s), {Stack.Thickness.Nanometres:G6} nm, net donors {NetDonorsPerSquareNanometre * 1e14:G6} /cm2, T = {Temperature}");
+        $"Doped stack: {Stack.Parts.Count} part(s), {Stack.Thickness.Nanometres:G6} nm, net donors {NetDonorsPerSquareNanometre * 1e14:G6} /cm2, T = {Temperature}")
+        + (ValenceBands.Count == 0 ? "" : ", holes: " + string.Join(", ", ValenceBands.Select(b => b.Name)));
 }

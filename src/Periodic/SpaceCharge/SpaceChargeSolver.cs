@@ -45,8 +45,8 @@ namespace Periodic.SpaceCharge;
 /// <para>Donors are fully ionised unless their layer gives an ionisation energy (<see cref="LayerDoping.WithDonorIonisationEnergy"/>):
 /// then N_D⁺ = N_D/(1 + 2e^((μ − E_D)/k_BT)) follows the local level E_D = V + U − E_b in the neutrality condition and in
 /// the Newton steps; acceptors likewise with <see cref="LayerDoping.WithAcceptorIonisationEnergy"/>, N_A⁻ = N_A/(1 + 4e^((E_A − μ)/k_BT)),
-/// E_A = E_v + U + E_b. Not modelled: holes of a cell without valence bands and of finite stacks (acceptors are fixed negative
-/// charge there), exchange and correlation, bias. Grid error: the Poisson discretisation and the piecewise-linear potential are second order in the
+/// E_A = E_v + U + E_b. Not modelled: holes of a cell or stack without valence bands (acceptors are fixed negative charge
+/// there), exchange and correlation, bias. Grid error: the Poisson discretisation and the piecewise-linear potential are second order in the
 /// spacing; measure it by halving <see cref="SpaceChargeOptions.MaxGridSpacingNanometres"/>.</para>
 /// </remarks>
 public static partial class SpaceChargeSolver

@@ -92,9 +92,12 @@ public sealed class SpaceChargeTest
     }
 
     [Fact]
-    public void Levels_PTypeCellWithStack_ExitsTwoNamingWhatIsNotModelled()
+    public void Levels_PTypeStackOfMaterials_SolvesWithHoles()
     {
-        // The cell's holes are modelled; a finite stack's are not: its space charge is refused, the rigid stack offered.
+        // A p-type modulation-doped stack of material layers and leads: its holes are carriers, levels exits 0 and the JSON
+        // carries p(z); every acceptor is ionised, so the holes per area equal N_A times the doped width (full ionisation;
+        // common practice, no single source), to 1e-2 relative: the trapezoid rule on the 0.1 nm grid and the holes' share
+        // spilling into the 30 nm lead buffers both stay well inside that.
         var file = ToolRunner.TempFile("""
             {"name": "p", "temperature": 77, "cell": [
               {"material": "Al0.3Ga0.7As", "width": 4, "acceptors": "5e18 cm^-3"},
@@ -102,9 +105,38 @@ public sealed class SpaceChargeTest
              "stack": {"periods": 2, "leads": {"material": "Al0.3Ga0.7As"}}}
             """);
         var run = ToolRunner.Invoke("levels", file, "--json");
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        var sc = run.Json().GetProperty("selfConsistent");
+        Assert.True(sc.GetProperty("converged").GetBoolean());
+        Assert.True(sc.GetProperty("neutralityError").GetDouble() <= 1e-10);
+        var holes = sc.GetProperty("holeDensity");
+        var x = holes.GetProperty("positions").EnumerateArray().Select(e => e.GetDouble()).ToArray();
+        var p = holes.GetProperty("values").EnumerateArray().Select(e => e.GetDouble()).ToArray();
+        var total = 0.0;
+        for (var i = 1; i < x.Length; i++)
+        {
+            total += 0.5 * (p[i] + p[i - 1]) * (x[i] - x[i - 1]) * 1e-7; // cm⁻²
+        }
+        Assert.Equal(2 * 5e18 * 4e-7, total, 1e-2 * 2 * 5e18 * 4e-7);
+        Assert.Equal("cm^-3", sc.GetProperty("units").GetProperty("holeDensity").GetString());
+        Assert.Equal("heavy holes", sc.GetProperty("valenceBands")[0].GetProperty("name").GetString());
+        Assert.Contains("holes", sc.GetProperty("model").GetString());
+    }
+
+    [Fact]
+    public void Levels_PTypeStackWithLeadOfPotential_ExitsTwoNamingWhatIsNotModelled()
+    {
+        // A lead given by potential and mass has no valence band: the stack's space charge is refused, the rigid stack offered.
+        var file = ToolRunner.TempFile("""
+            {"name": "p", "temperature": 77, "cell": [
+              {"material": "Al0.3Ga0.7As", "width": 4, "acceptors": "5e18 cm^-3"},
+              {"material": "GaAs", "width": 8}],
+             "stack": {"periods": 2, "leads": {"potential": 0.25, "mass": 0.092}}}
+            """);
+        var run = ToolRunner.Invoke("levels", file, "--json");
         Assert.Equal(2, run.ExitCode);
         Assert.Equal("", run.Stdout);
-        Assert.Contains("holes are modelled in periodic cells only", run.Stderr);
+        Assert.Contains("every layer and lead is of a material with a hole mass", run.Stderr);
         Assert.Contains("--no-space-charge", run.Stderr);
         Assert.Single(run.Stderr.Trim().Split('\n'));
         Assert.Equal(0, ToolRunner.Invoke("levels", file, "--json", "--no-space-charge").ExitCode);

@@ -136,7 +136,7 @@ public sealed partial class StructureFileTest
     }
 
     [Fact]
-    public void Parse_PTypeCellWithStack_CellLoadsAndStackSpaceChargeIsRefused()
+    public void Parse_PTypeCellWithStackOfMaterials_StackHasHeavyAndLightHoles()
     {
         var structure = StructureFile.Parse("""
             {"name": "p", "temperature": 77, "cell": [
@@ -145,7 +145,33 @@ public sealed partial class StructureFileTest
              "stack": {"periods": 3, "leads": {"material": "Al0.3Ga0.7As"}}}
             """, "p.json");
         Assert.NotNull(structure.Doping);
+        Assert.Null(structure.StackSpaceChargeRefusal);
+        var stack = Assert.IsType<Periodic.SpaceCharge.DopedStack>(structure.StackDoping);
+        Assert.Equal(["heavy holes", "light holes"], stack.ValenceBands.Select(b => b.Name));
+        // The hole stack is the cell's hole cell repeated, between leads of the barrier's valence band, on the same scale as the
+        // cell's valence bands (the structure built for heavy holes; common practice, no single source).
+        var cellBand = structure.Doping!.ValenceBands[0];
+        var stackBand = stack.ValenceBands[0];
+        Assert.Equal(cellBand.EdgeElectronVolts, stackBand.EdgeElectronVolts);
+        Assert.Same(cellBand.Cell.Elements[0].GetType(), stackBand.Stack.Parts[0].Cell!.Elements[0].GetType());
+        var barrier = (Periodic.Structures.Layer)cellBand.Cell.Elements[0];
+        Assert.Equal(barrier.Potential.ElectronVolts, stackBand.Stack.LeftLead.Potential.ElectronVolts);
+        Assert.Equal(barrier.Mass.ElectronMasses, stackBand.Stack.LeftLead.Mass.ElectronMasses);
+        Assert.Equal(3, stackBand.Stack.Parts[0].Repetitions);
+    }
+
+    [Fact]
+    public void Parse_PTypeCellWithStackLeadOfPotential_StackSpaceChargeIsRefused()
+    {
+        // A lead given by potential and mass has no valence band to take the holes from.
+        var structure = StructureFile.Parse("""
+            {"name": "p", "temperature": 77, "cell": [
+              {"material": "Al0.3Ga0.7As", "width": 4, "acceptors": "5e18 cm^-3"},
+              {"material": "GaAs", "width": 8}],
+             "stack": {"periods": 3, "leads": {"potential": 0.25, "mass": 0.092}}}
+            """, "p.json");
+        Assert.NotNull(structure.Doping);
         Assert.Null(structure.StackDoping);
-        Assert.Contains("holes are modelled in periodic cells only", structure.StackSpaceChargeRefusal);
+        Assert.Contains("every layer and lead is of a material with a hole mass", structure.StackSpaceChargeRefusal);
     }
 }
