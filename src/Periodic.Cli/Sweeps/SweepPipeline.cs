@@ -14,8 +14,9 @@ namespace Periodic.Cli.Sweeps;
 /// <remarks>
 /// The designs (this shard's, in order) are cut into chunks of <see cref="DesignsPerChunk"/>. Each worker takes the next
 /// chunk (a shared counter: no barrier, a fast worker just takes more), computes its designs into reused buffers and
-/// formats them itself: the CSV lines and, for designs not resumed from the journal, the journal lines, into the chunk's
-/// pooled byte buffers. Then whichever worker finds the next chunk in design order ready writes it (and every ready chunk
+/// formats them itself: the CSV lines into the chunk's pooled byte buffer (they are also the journal's lines, see
+/// <see cref="SweepJournal"/>; for Parquet, or a chunk with designs resumed from the journal, the journal's lines of the new
+/// designs go to a buffer of their own). Then whichever worker finds the next chunk in design order ready writes it (and every ready chunk
 /// after it) to the output and the journal, so <c>--threads N</c> runs N threads and no more; the calling thread only
 /// shows progress and forces the output written so far onto the disk now and then. At most <see cref="ChunksInFlight"/>
 /// chunks are between a worker and the output, so memory stays bounded and no row is kept once written. Parquet (one row
@@ -173,7 +174,7 @@ internal sealed class SweepPipeline
                 {
                     var slot = _slots[_nextToWrite % _slots.Length];
                     _output?.Write(slot.Csv, 0, slot.CsvLength);
-                    _journal.Write(slot.Journal.AsSpan(0, slot.JournalLength));
+                    _journal.Write(slot.JournalIsCsv ? slot.Csv.AsSpan(0, slot.CsvLength) : slot.Journal.AsSpan(0, slot.JournalLength));
                     Volatile.Write(ref _bytesWritten, _bytesWritten + slot.CsvLength);
                     Volatile.Write(ref _designsWritten, _designsWritten + slot.Count);
                     _nextToWrite++;
@@ -234,6 +235,7 @@ internal sealed class SweepPipeline
                 var first = c * DesignsPerChunk;
                 var end = Math.Min(_designs.Length, first + DesignsPerChunk);
                 var t0 = ThreadClock.Nanoseconds();
+                var resumedInChunk = 0;
                 for (var i = first; i < end; i++)
                 {
                     var design = _designs[i];
@@ -242,8 +244,15 @@ internal sealed class SweepPipeline
                         errors[i - first] = _runner.Evaluate(design, values[i - first]);
                         time.Computed++;
                     }
+                    else
+                    {
+                        resumedInChunk++;
+                    }
                 }
                 var t1 = ThreadClock.Nanoseconds();
+                // The journal's lines are the table's CSV rows: when the chunk streams CSV and resumed none of its designs
+                // (the usual case), the journal gets the very bytes of the table, formatted once.
+                var journalIsCsv = Rows is null && resumedInChunk == 0;
                 for (var i = first; i < end; i++)
                 {
                     var design = _designs[i];
@@ -258,9 +267,9 @@ internal sealed class SweepPipeline
                     {
                         SweepTable.AppendCsvRow(design, row, error, ref csv, ref csvLength);
                     }
-                    if (done is null)
+                    if (done is null && !journalIsCsv)
                     {
-                        SweepJournal.AppendLine(design, row, error, ref journal, ref journalLength);
+                        SweepTable.AppendCsvRow(design, row, error, ref journal, ref journalLength);
                     }
                     if (error is not null)
                     {
@@ -274,6 +283,7 @@ internal sealed class SweepPipeline
                 slot.CsvLength = csvLength;
                 slot.Journal = journal;
                 slot.JournalLength = journalLength;
+                slot.JournalIsCsv = journalIsCsv;
                 slot.Count = end - first;
                 Volatile.Write(ref slot.Number, c);
                 time.Write += WriteReady(free);
@@ -300,6 +310,7 @@ internal sealed class SweepPipeline
         public int CsvLength;
         public byte[] Journal = new byte[1 << 15];
         public int JournalLength;
+        public bool JournalIsCsv;
     }
 }
 

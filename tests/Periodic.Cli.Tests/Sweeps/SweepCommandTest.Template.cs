@@ -104,12 +104,10 @@ public sealed partial class SweepCommandTest
         var structure = ToolRunner.Example("superlattice.json");
         var fingerprint = Convert.ToHexString(SHA256.HashData([.. File.ReadAllBytes(spec), 0, .. File.ReadAllBytes(structure)]))[..16].ToLowerInvariant();
         var output = Path.Combine(folder, "o.csv");
-        var four = BitConverter.DoubleToUInt64Bits(4.0).ToString("x16", System.Globalization.CultureInfo.InvariantCulture);
-        var half = BitConverter.DoubleToUInt64Bits(0.5).ToString("x16", System.Globalization.CultureInfo.InvariantCulture);
         File.WriteAllText(output + ".journal",
-            $"{{\"periodicSweepJournal\":2,\"fingerprint\":\"{fingerprint}\",\"shard\":\"0/1\",\"columns\":7}}\n"
-            + $"0,{four},{half},,,,,,!a made-up error, with a comma\n"
-            + $"1,{four},{half}");
+            $"{{\"periodicSweepJournal\":3,\"fingerprint\":\"{fingerprint}\",\"shard\":\"0/1\",\"columns\":7}}\n"
+            + "0,4,0.5,,,,,,\"a made-up error, with a comma\"\n"
+            + "1,4,0.5");
         var run = ToolRunner.Invoke("sweep", spec, "--out", output);
         Assert.True(run.ExitCode == 0, run.Stderr);
         var lines = File.ReadAllLines(output);

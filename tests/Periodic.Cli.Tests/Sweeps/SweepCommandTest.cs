@@ -154,7 +154,9 @@ public sealed partial class SweepCommandTest
     }
 
     [Theory]
-    [InlineData("{\"periodicSweepJournal\":2,\"fingerprint\":\"0000\"}\n", "journal of another sweep")]
+    [InlineData("{\"periodicSweepJournal\":3,\"fingerprint\":\"0000\"}\n", "journal of another sweep")]
+    // Format 2 (hexadecimal bits) is refused the same way.
+    [InlineData("{\"periodicSweepJournal\":2,\"fingerprint\":\"0123456789abcdef\",\"shard\":\"0/1\",\"columns\":7}\n", "another version of periodic (another journal format); this version does not resume it. Delete it")]
     // A journal of the earlier format (JSON rows) says so: this version does not resume it.
     [InlineData("{\"periodicSweepJournal\":1,\"fingerprint\":\"0123456789abcdef\",\"shard\":\"0/1\",\"columns\":13}\n{\"d\":0,\"v\":[4]}\n", "another version of periodic (another journal format); this version does not resume it. Delete it")]
     public void Sweep_JournalOfAnotherSweepOrFormat_IsRefused(string journal, string message)
