@@ -3,6 +3,8 @@
 
 using System.Globalization;
 using System.Numerics;
+using System.Runtime.CompilerServices;
+using System.Runtime.InteropServices;
 
 namespace Periodic.Cli.Output;
 
@@ -110,7 +112,7 @@ internal static class ShortestDecimal
             e10 = q;
             var k = Pow5InverseBitCount + Pow5Bits(q) - 1;
             var i = -e2 + q + k;
-            var multiplier = Pow5InverseSplit[q];
+            var multiplier = Unsafe.Add(ref MemoryMarshal.GetArrayDataReference(Pow5InverseSplit), q); // q < 342 (Ryū's bound)
             vr = MulShift(4 * m2, multiplier, i);
             vp = MulShift(4 * m2 + 2, multiplier, i);
             vm = MulShift(4 * m2 - 1 - mmShift, multiplier, i);
@@ -138,7 +140,7 @@ internal static class ShortestDecimal
             var i = -e2 - q;
             var k = Pow5Bits(i) - Pow5BitCount;
             var j = q - k;
-            var multiplier = Pow5Split[i];
+            var multiplier = Unsafe.Add(ref MemoryMarshal.GetArrayDataReference(Pow5Split), i); // i < 326 (Ryū's bound)
             vr = MulShift(4 * m2, multiplier, j);
             vp = MulShift(4 * m2 + 2, multiplier, j);
             vm = MulShift(4 * m2 - 1 - mmShift, multiplier, j);
@@ -189,21 +191,32 @@ internal static class ShortestDecimal
         }
         else
         {
+            // The common case (Ryū's own order of operations): each quotient computed once, remainders from it.
             var roundUp = false;
-            if (vp / 100 > vm / 100)
+            var vpDiv100 = vp / 100;
+            var vmDiv100 = vm / 100;
+            if (vpDiv100 > vmDiv100)
             {
-                roundUp = vr % 100 >= 50;
-                vr /= 100;
-                vp /= 100;
-                vm /= 100;
+                var vrDiv100 = vr / 100;
+                roundUp = vr - 100 * vrDiv100 >= 50;
+                vr = vrDiv100;
+                vp = vpDiv100;
+                vm = vmDiv100;
                 removed += 2;
             }
-            while (vp / 10 > vm / 10)
+            while (true)
             {
-                roundUp = vr % 10 >= 5;
-                vr /= 10;
-                vp /= 10;
-                vm /= 10;
+                var vpDiv10 = vp / 10;
+                var vmDiv10 = vm / 10;
+                if (vpDiv10 <= vmDiv10)
+                {
+                    break;
+                }
+                var vrDiv10 = vr / 10;
+                roundUp = vr - 10 * vrDiv10 >= 5;
+                vr = vrDiv10;
+                vp = vpDiv10;
+                vm = vmDiv10;
                 removed++;
             }
             output = vr + (vr == vm || roundUp ? 1UL : 0UL);
@@ -262,8 +275,10 @@ internal static class ShortestDecimal
         {
             destination[k++] = (byte)'0';
             destination[k++] = (byte)'.';
-            destination.Slice(k, -scale).Fill((byte)'0');
-            k += -scale;
+            for (var z = scale; z < 0; z++)
+            {
+                destination[k++] = (byte)'0'; // at most three: smaller magnitudes take the exponent form
+            }
             WriteDigits(digits, destination.Slice(k, count));
             k += count;
         }
@@ -271,7 +286,10 @@ internal static class ShortestDecimal
         {
             // ddd.ddd: the digits one place on, those before the point moved back.
             WriteDigits(digits, destination.Slice(k + 1, count));
-            destination.Slice(k + 1, scale).CopyTo(destination[k..]);
+            for (var i = 0; i < scale; i++)
+            {
+                destination[k + i] = destination[k + 1 + i]; // a few bytes: cheaper than a memmove call
+            }
             destination[k + scale] = (byte)'.';
             k += count + 1;
         }
@@ -303,38 +321,48 @@ internal static class ShortestDecimal
     /// <summary>All <paramref name="destination"/>.Length digits of <paramref name="value"/>, eight at a time in 32-bit arithmetic.</summary>
     private static void WriteDigits(ulong value, Span<byte> destination)
     {
+        ref var first = ref MemoryMarshal.GetReference(destination);
         var end = destination.Length;
         while (value >= 100_000_000)
         {
             var high = value / 100_000_000;
-            WriteEight((uint)(value - high * 100_000_000), destination.Slice(end - 8, 8));
-            value = high;
             end -= 8;
+            WriteEight((uint)(value - high * 100_000_000), ref Unsafe.Add(ref first, end));
+            value = high;
         }
         var rest = (uint)value;
         while (end >= 2)
         {
-            var pair = (int)(rest % 100);
+            var pair = rest % 100;
             rest /= 100;
-            destination[--end] = DigitPairs[2 * pair + 1];
-            destination[--end] = DigitPairs[2 * pair];
+            end -= 2;
+            WritePair(pair, ref Unsafe.Add(ref first, end));
         }
         if (end == 1)
         {
-            destination[0] = (byte)('0' + (int)rest);
+            first = (byte)('0' + rest);
         }
     }
 
-    private static void WriteEight(uint value, Span<byte> destination)
+    /// <summary>The eight digits of <paramref name="value"/> (below 10^8, leading zeros written) from <paramref name="destination"/> on.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static void WriteEight(uint value, ref byte destination)
     {
-        for (var end = 8; end > 0; end -= 2)
-        {
-            var pair = (int)(value % 100);
-            value /= 100;
-            destination[end - 1] = DigitPairs[2 * pair + 1];
-            destination[end - 2] = DigitPairs[2 * pair];
-        }
+        // Two independent halves of four digits, each two pairs: short chains of multiplications instead of four divisions in a row.
+        var high = value / 10_000;
+        var low = value - high * 10_000;
+        var highPair = high / 100;
+        var lowPair = low / 100;
+        WritePair(highPair, ref destination);
+        WritePair(high - highPair * 100, ref Unsafe.Add(ref destination, 2));
+        WritePair(lowPair, ref Unsafe.Add(ref destination, 4));
+        WritePair(low - lowPair * 100, ref Unsafe.Add(ref destination, 6));
     }
+
+    /// <summary>The two digits of <paramref name="pair"/> (below 100) as one two-byte store.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static void WritePair(uint pair, ref byte destination) =>
+        Unsafe.WriteUnaligned(ref destination, Unsafe.ReadUnaligned<ushort>(ref Unsafe.Add(ref MemoryMarshal.GetReference(DigitPairs), (nint)(2 * pair))));
 
     private static ReadOnlySpan<byte> DigitPairs =>
         "00010203040506070809101112131415161718192021222324252627282930313233343536373839404142434445464748495051525354555657585960616263646566676869707172737475767778798081828384858687888990919293949596979899"u8;
