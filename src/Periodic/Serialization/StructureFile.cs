@@ -528,7 +528,9 @@ public static partial class StructureFile
             if (anyDoping || stackFile?.IsDoped == true)
             {
                 var entries = BuildEntries(built.Cell, materialDoping, array, temperature, t.Value);
-                var valence = anyDoping ? ValenceBands(recipe, built, fields, materialDoping) : [];
+                // The holes of the valence bands, also where only the stack's own layers are doped (the cell's carrier must then
+                // be electrons for them to be added; a file of another carrier keeps its stack rigid in holes, as before).
+                var valence = anyDoping || recipe.Carrier == Carrier.Electron ? ValenceBands(recipe, built, fields, materialDoping) : [];
                 doped = anyDoping ? Apply(array, "cell", () => DopedCell.Create(built.Cell, entries, Temperature.FromKelvin(temperature), valence)) : null;
                 var stackValence = valence.Length > 0 ? StackValenceBands(recipe, built, fields, stackFile) : [];
                 dopedStack = BuildStackDoping(stack, stackFile, entries, temperature, valence.Length > 0, out stackRefusal, stackValence);

@@ -174,4 +174,24 @@ public sealed partial class StructureFileTest
         Assert.Null(structure.StackDoping);
         Assert.Contains("every layer and lead is of a material with a hole mass", structure.StackSpaceChargeRefusal);
     }
+
+    [Fact]
+    public void Parse_UndopedCellWithAcceptorsInTheStackLayers_StackHasHeavyAndLightHoles()
+    {
+        // Doping only in the stack's own layers (a p-type contact) must give the stack its holes as a doped cell does: the
+        // acceptors' holes are carriers of the valence band (common practice, no single source).
+        var structure = StructureFile.Parse("""
+            {"name": "p", "temperature": 77, "cell": [
+              {"material": "Al0.3Ga0.7As", "width": 4},
+              {"material": "GaAs", "width": 8}],
+             "stack": {"leads": {"material": "GaAs"}, "parts": [
+               {"material": "GaAs", "width": 20, "acceptors": "1e18 cm^-3"},
+               {"material": "Al0.3Ga0.7As", "width": 4},
+               {"material": "GaAs", "width": 8}]}}
+            """, "p.json");
+        Assert.Null(structure.Doping);
+        Assert.Null(structure.StackSpaceChargeRefusal);
+        var stack = Assert.IsType<Periodic.SpaceCharge.DopedStack>(structure.StackDoping);
+        Assert.Equal(["heavy holes", "light holes"], stack.ValenceBands.Select(b => b.Name));
+    }
 }
