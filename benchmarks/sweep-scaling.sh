@@ -5,7 +5,9 @@
 # spent on output, from the tool's --verbose timing line. Prints a Markdown table and the ratios; commit it under
 # benchmarks/results/DATE/.
 # Usage: benchmarks/sweep-scaling.sh [repeats] [sweep file]   (a few minutes; needs a free second core: check uptime first)
-# SWEEP_TOOL=path/to/Periodic.Cli.dll measures that build instead of building this checkout (e.g. an older commit's, to
+# By default it measures the tool as its package ships it: published for this platform, ReadyToRun (ahead-of-time code
+# for Periodic, the tool and System.CommandLine). SWEEP_TOOL=path/to/Periodic.Cli.dll measures that build instead (e.g.
+# src/Periodic.Cli/bin/Release/net10.0/Periodic.Cli.dll for plain IL compiled by the JIT, or an older commit's, to
 # compare side by side); SWEEP_BASELINE=path/to/other/Periodic.Cli.dll also runs that build, alternated with the first in
 # every repeat; SWEEP_ENV="NAME=VALUE" runs the tool with that environment variable set.
 #
@@ -18,10 +20,13 @@
 set -euo pipefail
 cd "$(dirname "$0")/.."
 repeats="${1:-3}"
-if [ -z "${SWEEP_TOOL:-}" ]; then dotnet build src/Periodic.Cli -c Release -v:q -nologo >/dev/null; fi
-tool="${SWEEP_TOOL:-src/Periodic.Cli/bin/Release/net10.0/Periodic.Cli.dll}"
 spec="${2:-docs/examples/sweeps/scaling-1e5.json}"
 work="$(mktemp -d)"; trap 'rm -rf "$work"' EXIT
+if [ -z "${SWEEP_TOOL:-}" ]; then
+    rid="linux-$(uname -m | sed 's/x86_64/x64/; s/aarch64/arm64/')"
+    dotnet publish src/Periodic.Cli -c Release -r "$rid" --self-contained false -o "$work/tool" -v:q -nologo >/dev/null
+fi
+tool="${SWEEP_TOOL:-$work/tool/Periodic.Cli.dll}"
 cores="$(nproc)"
 if [ "$cores" -lt 2 ]; then echo "needs at least 2 cores to compare parallel with serial; this machine has $cores" >&2; exit 1; fi
 builds=("$tool")
