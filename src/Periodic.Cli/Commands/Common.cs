@@ -181,7 +181,7 @@ internal static class Common
     public static StructureDefinition LoadStack(ParseResult result, string path, string command, double? biasOption, bool usesBias)
     {
         var structure = Load(path);
-        if (result.GetValue(NoSpaceCharge) || (structure.Doping is null && structure.StackDoping is null))
+        if (result.GetValue(NoSpaceCharge) || (structure.Doping is null && structure.StackDoping is null && structure.StackSpaceChargeRefusal is null))
         {
             return structure;
         }

@@ -208,7 +208,7 @@ internal sealed class SweepRunner(SweepSpec spec, bool rigidBands = false)
     /// i.e. without --no-space-charge.
     /// </summary>
     public bool SolvesSpaceCharge => !rigidBands && StructureFile.Parse(Encoding.UTF8.GetBytes(spec.Structure.ToJsonString()), "structure") is var s
-        && (s.Doping is not null || s.StackDoping is not null);
+        && (s.Doping is not null || s.StackDoping is not null || s.StackSpaceChargeRefusal is not null);
 
     /// <summary>The design with its doped periodic cell solved self-consistently (as the cell commands load it).</summary>
     private StructureDefinition SelfConsistentCell(StructureDefinition structure)

@@ -142,6 +142,28 @@ public sealed class SpaceChargeTest
         Assert.Equal(0, ToolRunner.Invoke("levels", file, "--json", "--no-space-charge").ExitCode);
     }
 
+    [Fact]
+    public void Levels_AcceptorsOnlyInAStackWithALayerOfPotential_ExitsTwoInsteadOfTheRigidStack()
+    {
+        // The cell is undoped and the stack's acceptors sit beside a layer given by potential and mass (no valence band):
+        // the stack's space charge is refused, never silently replaced by the rigid stack.
+        var file = ToolRunner.TempFile("""
+            {"name": "p", "temperature": 77, "cell": [
+              {"material": "Al0.3Ga0.7As", "width": 4},
+              {"material": "GaAs", "width": 8}],
+             "stack": {"leads": {"material": "GaAs"}, "parts": [
+               {"material": "GaAs", "width": 20, "acceptors": "1e18 cm^-3"},
+               {"width": 5, "potential": 0, "mass": 0.067, "permittivity": 12.9},
+               {"material": "Al0.3Ga0.7As", "width": 4}]}}
+            """);
+        var run = ToolRunner.Invoke("levels", file, "--json");
+        Assert.Equal(2, run.ExitCode);
+        Assert.Equal("", run.Stdout);
+        Assert.Contains("every layer and lead is of a material with a hole mass", run.Stderr);
+        Assert.Contains("--no-space-charge", run.Stderr);
+        Assert.Equal(0, ToolRunner.Invoke("levels", file, "--json", "--no-space-charge").ExitCode);
+    }
+
     [Theory]
     [InlineData("doped-superlattice.json")]
     [InlineData("p-doped-superlattice.json")] // holes only: the density axis is scaled to p(z)
