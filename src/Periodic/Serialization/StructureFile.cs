@@ -347,7 +347,8 @@ public static partial class StructureFile
             {
                 return ReadMaterialLead(obj, path, built);
             }
-            var leadFields = Fields(obj, path, ["potential", "mass"]);
+            // A cell of material layers also takes a lead of a material (ReadMaterialLead): the message of a misspelt field lists it.
+            var leadFields = Fields(obj, path, built is null ? ["potential", "mass"] : ["material", "potential", "mass"]);
             var potential = ReadQuantity(Required(leadFields, obj, path, "potential"), path + ".potential", EnergyUnits, "eV", "eV, meV");
             var massNode = Required(leadFields, obj, path, "mass");
             var mass = ReadQuantity(massNode, path + ".mass", MassUnits, "m0", "m0");
@@ -1025,7 +1026,9 @@ public static partial class StructureFile
                     var unit = match.Groups[2].Value;
                     if (unit.Length == 0)
                     {
-                        throw Error(node, path, $"a value given as a string needs a unit ({allowed}); write {match.Groups[1].Value} as a bare number for {defaultUnit}.");
+                        throw Error(node, path, defaultUnit.Length == 0
+                            ? $"has no unit: write {match.Groups[1].Value} as a bare number, not as a string."
+                            : $"a value given as a string needs a unit ({allowed}); write {match.Groups[1].Value} as a bare number for {defaultUnit}.");
                     }
                     var key = units == StrengthUnits ? unit.Replace(" ", "").Replace("·", "").Replace("⋅", "").Replace("*", "") : unit;
                     if (!units.TryGetValue(key, out var factor))

@@ -194,4 +194,21 @@ public sealed partial class StructureFileTest
         var stack = Assert.IsType<Periodic.SpaceCharge.DopedStack>(structure.StackDoping);
         Assert.Equal(["heavy holes", "light holes"], stack.ValenceBands.Select(b => b.Name));
     }
+
+    [Fact]
+    public void Parse_PermittivityAsAString_SaysToWriteItAsABareNumber()
+    {
+        var error = Assert.Throws<StructureFileException>(() => StructureFile.Parse(
+            """{"name": "e", "temperature": 300, "cell": [{"width": 4, "potential": 0, "mass": 0.067, "permittivity": "12.9", "donors": 1e17}]}""", "e.json"));
+        Assert.Equal("cell[0].permittivity", error.Field);
+        Assert.Contains("write 12.9 as a bare number, not as a string", error.Message);
+    }
+
+    [Fact]
+    public void Parse_MisspeltLeadFieldInACellOfMaterials_ListsMaterialAmongTheAllowed()
+    {
+        var error = Assert.Throws<StructureFileException>(() => StructureFile.Parse(
+            """{"name": "l", "temperature": 300, "cell": [{"material": "GaAs", "width": 4}], "stack": {"periods": 2, "leads": {"materal": "GaAs"}}}""", "l.json"));
+        Assert.Contains("allowed here: material, potential, mass", error.Message);
+    }
 }
