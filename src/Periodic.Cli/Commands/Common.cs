@@ -395,9 +395,13 @@ internal static class Common
         {
             return [];
         }
-        foreach (var warning in warnings)
+        // One line per kind and layer: a scan over many energies (transmission, dos) would otherwise repeat the same
+        // warning for every point beyond the limit. The JSON keeps every warning.
+        foreach (var group in warnings.GroupBy(w => (w.Kind, w.LayerIndex)))
         {
-            Console.Error.WriteLine($"periodic: warning: {structure.SourceName}: {warning.Message}");
+            var count = group.Count();
+            var more = count > 1 ? string.Create(CultureInfo.InvariantCulture, $" ({count - 1} more results beyond it in the same layer; --json lists each)") : "";
+            Console.Error.WriteLine($"periodic: warning: {structure.SourceName}: {group.First().Message}{more}");
         }
         return warnings;
     }
