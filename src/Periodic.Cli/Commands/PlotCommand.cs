@@ -535,6 +535,9 @@ internal static class PlotCommand
         var unit = DisplayUnits.Energy(structure, all, latticeUnit);
         var range = Math.Max(vMax - vMin, 1e-300);
         var margin = 0.2 * length;
+        // x from the rigid stack's left interface, as in the JSON and the rigid picture: a self-consistent stack's lead buffers
+        // are drawn at negative positions and beyond the stack's thickness.
+        var origin = -(structure.SelfConsistentStack?.BufferNanometres ?? 0);
         var x = new List<double> { -margin, 0 };
         var v = new List<double> { leftEdge, leftEdge };
         x.AddRange(xs);
@@ -543,7 +546,7 @@ internal static class PlotCommand
         v.AddRange([rightEdge, rightEdge]);
         var plot = NewPlot(string.Create(CultureInfo.InvariantCulture, $"{StackOptions.Describe(layers)}{(bias.ElectronVolts == 0 ? "" : $", eU = {bias.ElectronVolts:G4} eV")}: {structure.Name}"),
             "Position x (nm)", $"Energy ({unit.Symbol})");
-        var profile = plot.Add.ScatterLine(x.ToArray(), v.Select(unit.From).ToArray());
+        var profile = plot.Add.ScatterLine(x.Select(p => p + origin).ToArray(), v.Select(unit.From).ToArray());
         profile.LineWidth = 2.5f;
         profile.Color = ProfileColor;
         var notes = new List<string>();
@@ -559,7 +562,7 @@ internal static class PlotCommand
                 level.Color = Colors.Gray;
                 level.LinePattern = LinePattern.Dotted;
                 var density = grid.Values[n].Select(p => unit.From(e + 0.1 * range * p * p / peak)).ToArray();
-                var curve = plot.Add.ScatterLine(grid.Positions, density);
+                var curve = plot.Add.ScatterLine(grid.Positions.Select(p => p + origin).ToArray(), density);
                 curve.Color = LineColor;
                 curve.LineWidth = 1.5f;
             }
@@ -581,12 +584,12 @@ internal static class PlotCommand
         notes.Add(string.Create(CultureInfo.InvariantCulture, $"{Common.Plural(peaks.Count, "transmission peak")} dashed"));
         if (structure.SelfConsistentStack is { } sc)
         {
-            // The Fermi level across the picture and n(z) on a right axis; the solution's positions start at the rigid stack,
-            // the drawn stack at the outer end of the left lead buffer.
+            // The Fermi level across the picture and n(z) on a right axis, at the solution's positions (from the rigid stack's
+            // left interface, as the picture's).
             var fermi = plot.Add.HorizontalLine(unit.From(sc.FermiLevelElectronVolts));
             fermi.Color = Colors.DarkGreen;
             fermi.LineWidth = 2;
-            var nx = sc.PositionsNanometres.Select(p => p + sc.BufferNanometres).ToArray();
+            var nx = sc.PositionsNanometres.ToArray();
             var ny = sc.ElectronDensityPerCubicCentimetre.ToArray();
             // With holes the right axis holds p(z) too, scaled to the larger of the two (a p-type stack may hold no electrons).
             var holes = sc.Input.ValenceBands.Count > 0;
@@ -609,15 +612,15 @@ internal static class PlotCommand
             plot.Axes.Right.Range.Set(0, 1.1 * Math.Max(largest, 1e-300) / scale);
             plot.Add.Text(string.Create(CultureInfo.InvariantCulture,
                 $"self-consistent stack (Hartree, {sc.TemperatureKelvin:G4} K, {sc.BufferNanometres:G4} nm of each lead included); green: Fermi level {unit.From(sc.FermiLevelElectronVolts):G5} {unit.Symbol}; blue: n(z){(holes ? ", red: p(z)" : "")}, right axis"),
-                -0.95 * margin, unit.From(vMin - 0.02 * range)).LabelFontSize = 11;
+                origin - 0.95 * margin, unit.From(vMin - 0.02 * range)).LabelFontSize = 11;
         }
         if (unit.Note is { } unitNote)
         {
             notes.Add(unitNote);
         }
-        var text = plot.Add.Text(string.Join("; ", notes), -0.95 * margin, unit.From(top) - 0.02 * unit.From(range));
+        var text = plot.Add.Text(string.Join("; ", notes), origin - 0.95 * margin, unit.From(top) - 0.02 * unit.From(range));
         text.LabelFontSize = 11;
-        plot.Axes.SetLimits(-margin, length + margin, unit.From(vMin - 0.08 * range), unit.From(top));
+        plot.Axes.SetLimits(origin - margin, origin + length + margin, unit.From(vMin - 0.08 * range), unit.From(top));
         return plot;
     }
 
