@@ -68,6 +68,11 @@ internal static partial class SweepCommand
                 }
                 rows[row.Design] = row;
             }
+            if (journal.Resumed)
+            {
+                Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,
+                    $"periodic: resuming {Printable.Quote(journal.Path)}: {journal.Done.Count} of {mine.Length} designs already computed"));
+            }
             var parquet = SweepTable.IsParquet(outPath, "--out");
             var pipeline = new SweepPipeline(runner, mine, rows, journal, workers, parquet);
             var clock = System.Diagnostics.Stopwatch.StartNew();

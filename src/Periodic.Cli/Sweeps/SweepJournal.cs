@@ -69,7 +69,7 @@ internal sealed class SweepJournal : IDisposable
                 {
                     throw new UsageException($"{Printable.Quote(path)} was written by another version of periodic (another journal format); this version does not resume it. Delete it and run the sweep again.");
                 }
-                throw new UsageException($"{Printable.Quote(path)} is the journal of another sweep or shard; delete it, or give another --out.");
+                throw new UsageException($"{Printable.Quote(path)} is the journal of another sweep, shard or mode (with or without --no-space-charge); delete it, or give another --out.");
             }
             for (var i = 1; i < complete; i++)
             {

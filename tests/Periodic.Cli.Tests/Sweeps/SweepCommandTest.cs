@@ -148,6 +148,10 @@ public sealed partial class SweepCommandTest
         Assert.NotEmpty(Directory.GetFiles(folder, ".resumed.csv.*.tmp"));
         var rerun = ToolRunner.Invoke("sweep", spec, "--out", output);
         Assert.True(rerun.ExitCode == 0, rerun.Stderr);
+        // The resumed run says so, with the journal's whole rows (a line torn by the kill is not one of them).
+        var resumed = System.Text.RegularExpressions.Regex.Match(rerun.Stderr, @"resuming .*: (\d+) of 20000 designs already computed");
+        Assert.True(resumed.Success, rerun.Stderr);
+        Assert.InRange(int.Parse(resumed.Groups[1].Value, System.Globalization.CultureInfo.InvariantCulture), journaled - 1, journaled);
         Assert.Equal(File.ReadAllBytes(reference), File.ReadAllBytes(output));
         Assert.False(File.Exists(journal));
         Assert.Empty(Directory.GetFiles(folder, ".resumed.csv.*.tmp"));
