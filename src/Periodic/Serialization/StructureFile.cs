@@ -263,7 +263,11 @@ public static partial class StructureFile
                     throw Error(array, "temperature", "is required for a doped cell or stack (it sets the carriers' Fermi–Dirac statistics), e.g. \"temperature\": \"300 K\".");
                 }
                 var kelvin = ReadQuantity(t.Value, "temperature", TemperatureUnits, "K", "K");
-                Apply(t.Value, "temperature", () => Preconditions.CheckRange(kelvin, DopedCell.MinTemperatureKelvin, DopedCell.MaxTemperatureKelvin, "temperature"));
+                if (!(kelvin >= DopedCell.MinTemperatureKelvin && kelvin <= DopedCell.MaxTemperatureKelvin))
+                {
+                    throw Error(t.Value, "temperature", string.Create(CultureInfo.InvariantCulture,
+                        $"must be between {DopedCell.MinTemperatureKelvin} K and {DopedCell.MaxTemperatureKelvin} K in a doped structure (the carriers' Fermi–Dirac statistics); got {Format(kelvin)} K."));
+                }
                 // The cell's layers need their permittivities where the cell is doped or the stack repeats it.
                 var entries = cellDoped || stack?.Parts.Any(p => p.IsRepeatedCell) == true ? BuildEntries(cell, doping, array, kelvin, t.Value) : [];
                 doped = cellDoped ? Apply(array, "cell", () => DopedCell.Create(cell, entries, Temperature.FromKelvin(kelvin))) : null;

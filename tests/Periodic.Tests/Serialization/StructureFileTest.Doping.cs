@@ -3,6 +3,7 @@
 
 using Periodic.Materials;
 using Periodic.Serialization;
+using Periodic.SpaceCharge;
 
 namespace Periodic.Tests.Serialization;
 
@@ -210,5 +211,15 @@ public sealed partial class StructureFileTest
         var error = Assert.Throws<StructureFileException>(() => StructureFile.Parse(
             """{"name": "l", "temperature": 300, "cell": [{"material": "GaAs", "width": 4}], "stack": {"periods": 2, "leads": {"materal": "GaAs"}}}""", "l.json"));
         Assert.Contains("allowed here: material, potential, mass", error.Message);
+    }
+
+    [Fact]
+    public void Parse_DopedWithTemperatureOutOfRange_NamesTheRangeInKelvin()
+    {
+        var error = Assert.Throws<StructureFileException>(() => StructureFile.Parse(
+            """{"name": "t", "temperature": 0.5, "cell": [{"width": 4, "potential": 0, "mass": 0.067, "permittivity": 12, "donors": 1e17}]}""", "t.json"));
+        Assert.Equal("temperature", error.Field);
+        Assert.Contains($"must be between {DopedCell.MinTemperatureKelvin} K and {DopedCell.MaxTemperatureKelvin} K", error.Message);
+        Assert.Contains("got 0.5 K", error.Message);
     }
 }
