@@ -400,8 +400,12 @@ internal static class Common
         foreach (var group in warnings.GroupBy(w => (w.Kind, w.LayerIndex)))
         {
             var count = group.Count();
-            var more = count > 1 ? string.Create(CultureInfo.InvariantCulture, $" ({count - 1} more results beyond it in the same layer; --json lists each)") : "";
-            Console.Error.WriteLine($"periodic: warning: {structure.SourceName}: {group.First().Message}{more}");
+            var message = group.First().Message;
+            if (count > 1)
+            {
+                message = string.Create(CultureInfo.InvariantCulture, $"{message.TrimEnd('.')} ({count - 1} more results beyond it in the same layer; --json lists each).");
+            }
+            Console.Error.WriteLine($"periodic: warning: {structure.SourceName}: {message}");
         }
         return warnings;
     }

@@ -208,7 +208,7 @@ public sealed class BandsSmoothTest
     {
         // A scan far above the well's edge: every point is beyond the single-band model's limit, but stderr says so once per
         // layer and kind, with the count, not once per point.
-        var run = ToolRunner.Invoke("transmission", ToolRunner.Example("gaas-algaas.json"), "--from", "0.9", "--to", "1.2", "--points", "200");
+        var run = ToolRunner.Invoke("transmission", ToolRunner.Example("gaas-algaas.json"), "--periods", "3", "--from", "0.9", "--to", "1.2", "--points", "200");
         Assert.Equal(0, run.ExitCode);
         var lines = run.Stderr.Split('\n', StringSplitOptions.RemoveEmptyEntries).Where(l => l.Contains("no longer reliable", StringComparison.Ordinal)).ToArray();
         Assert.InRange(lines.Length, 1, 2); // at most one per layer of the two-layer cell
