@@ -13,4 +13,4 @@ if (args.Length > 0 && args[0] == "--calibrate-optics")
     Periodic.Benchmarks.Optics.IntersubbandBenchmarks.Calibrate();
     return;
 }
-BenchmarkSwitcher.FromAssembly(typeof(Program).Assembly).Run(args);
+BenchmarkSwitcher.FromAssembly(typeof(Periodic.Benchmarks.Scenarios).Assembly).Run(args);

@@ -18,6 +18,9 @@ internal static class Scenarios
     internal const double WellMass = 0.067;
     internal const double BarrierMass = 0.088;
 
+    /// <summary>The repository's root (the folder holding Periodic.sln), found above this assembly's folder.</summary>
+    internal static string RepositoryRoot { get; } = FindRoot();
+
     internal static UnitCell KronigPenney(double barrierNanometres = BarrierNanometres) =>
         UnitCell.KronigPenney(Length.FromNanometres(WellNanometres), Length.FromNanometres(barrierNanometres),
             Energy.FromElectronVolts(BarrierElectronVolts), EffectiveMass.FromElectronMasses(WellMass), EffectiveMass.FromElectronMasses(BarrierMass));
@@ -61,5 +64,15 @@ internal static class Scenarios
             values[i] = first + (last - first) * i / (count - 1);
         }
         return values;
+    }
+
+    private static string FindRoot()
+    {
+        var directory = new DirectoryInfo(AppContext.BaseDirectory);
+        while (directory is not null && !File.Exists(Path.Combine(directory.FullName, "Periodic.sln")))
+        {
+            directory = directory.Parent;
+        }
+        return directory?.FullName ?? throw new InvalidOperationException("repository root (Periodic.sln) not found above " + AppContext.BaseDirectory);
     }
 }
