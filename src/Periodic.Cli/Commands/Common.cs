@@ -316,15 +316,22 @@ internal static class Common
         writer.WriteEndObject();
     }
 
+    /// <summary>
+    /// An energy in meV with three decimals; a value that rounds to zero prints as 0.000, not -0.000 (the sign of a
+    /// round-off below a µeV says nothing).
+    /// </summary>
+    private static string MilliElectronVolts(double electronVolts) =>
+        (Math.Round(electronVolts * 1e3, 3) + 0.0).ToString("F3", CultureInfo.InvariantCulture);
+
     /// <summary>One line under a text table's title for a self-consistent structure; empty otherwise.</summary>
     public static string SelfConsistentLine(StructureDefinition structure) => structure.SelfConsistentStack is { } stack
         ? string.Create(CultureInfo.InvariantCulture,
-            $"Self-consistent (Schrödinger–Poisson) stack at zero bias, {stack.TemperatureKelvin:G6} K: Fermi level {stack.FermiLevelElectronVolts:F6} eV, {Plural(stack.Iterations, "iteration")}, residual {stack.ResidualElectronVolts:G2} eV, neutrality error {stack.NeutralityError:G2}, Hartree potential from {stack.HartreeElectronVolts.Min() * 1e3:F3} to {stack.HartreeElectronVolts.Max() * 1e3:F3} meV; the stack includes {stack.BufferNanometres:G4} nm of each lead (--no-space-charge: rigid stack)\n")
+            $"Self-consistent (Schrödinger–Poisson) stack at zero bias, {stack.TemperatureKelvin:G6} K: Fermi level {stack.FermiLevelElectronVolts:F6} eV, {Plural(stack.Iterations, "iteration")}, residual {stack.ResidualElectronVolts:G2} eV, neutrality error {stack.NeutralityError:G2}, Hartree potential from {MilliElectronVolts(stack.HartreeElectronVolts.Min())} to {MilliElectronVolts(stack.HartreeElectronVolts.Max())} meV; the stack includes {stack.BufferNanometres:G4} nm of each lead (--no-space-charge: rigid stack)\n")
             + (stack.Input.ValenceBands.Count == 0 ? "" : string.Create(CultureInfo.InvariantCulture,
                 $"Carriers: electrons up to {stack.ElectronDensityPerCubicCentimetre.Max():G4} cm^-3, holes ({string.Join(", ", stack.Input.ValenceBands.Select(b => b.Name))}; single parabolic bands, no band mixing or strain) up to {stack.HoleDensityPerCubicCentimetre.Max():G4} cm^-3\n"))
         : structure.SelfConsistent is { } sc
         ? string.Create(CultureInfo.InvariantCulture,
-            $"Self-consistent (Schrödinger–Poisson) potential at {sc.TemperatureKelvin:G6} K: Fermi level {sc.FermiLevelElectronVolts:F6} eV, {Plural(sc.Iterations, "iteration")}, residual {sc.ResidualElectronVolts:G2} eV, neutrality error {sc.NeutralityError:G2}, Hartree potential from {sc.HartreeElectronVolts.Min() * 1e3:F3} to {sc.HartreeElectronVolts.Max() * 1e3:F3} meV (--no-space-charge: rigid bands)\n")
+            $"Self-consistent (Schrödinger–Poisson) potential at {sc.TemperatureKelvin:G6} K: Fermi level {sc.FermiLevelElectronVolts:F6} eV, {Plural(sc.Iterations, "iteration")}, residual {sc.ResidualElectronVolts:G2} eV, neutrality error {sc.NeutralityError:G2}, Hartree potential from {MilliElectronVolts(sc.HartreeElectronVolts.Min())} to {MilliElectronVolts(sc.HartreeElectronVolts.Max())} meV (--no-space-charge: rigid bands)\n")
             + (sc.Input.ValenceBands.Count == 0 ? "" : string.Create(CultureInfo.InvariantCulture,
                 $"Carriers: electrons up to {sc.ElectronDensityPerCubicCentimetre.Max():G4} cm^-3, holes ({string.Join(", ", sc.Input.ValenceBands.Select(b => b.Name))}; single parabolic bands, no band mixing or strain) up to {sc.HoleDensityPerCubicCentimetre.Max():G4} cm^-3\n"))
         : structure.Doping is not null ? "Doped structure computed with its rigid bands (--no-space-charge).\n" : "";

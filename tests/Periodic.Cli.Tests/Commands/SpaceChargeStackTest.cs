@@ -60,6 +60,10 @@ public sealed class SpaceChargeStackTest
         var run = ToolRunner.Invoke("levels", Doped);
         Assert.Equal(0, run.ExitCode);
         Assert.Contains("Self-consistent (Schrödinger–Poisson) stack at zero bias, 77 K", run.Stdout);
+        // The Hartree potential is zero in the leads up to round-off of either sign: a round-off below a µeV prints as
+        // 0.000 meV, never as "-0.000" (common practice for tables: no sign on a displayed zero).
+        Assert.Contains("Hartree potential from 0.000 to ", run.Stdout);
+        Assert.DoesNotContain("from -0.000 ", run.Stdout);
     }
 
     [Fact]
