@@ -36,6 +36,7 @@ root.Subcommands.Add(FieldCommands.Ladder());
 root.Subcommands.Add(TransitionsCommand.Create());
 root.Subcommands.Add(AbsorptionCommand.Create());
 root.Subcommands.Add(ExampleCommand.Create());
+Common.ParseWholeNumbers(root);
 root.SetAction(_ =>
 {
     BandsCommand.Write(BuiltInExample.Load(), 4, OutputFormat.Table, null);

@@ -71,6 +71,46 @@ internal static class Common
         },
     };
 
+    /// <summary>
+    /// Gives every whole-number option of <paramref name="command"/> and its subcommands (<c>--threads</c>, <c>--periods</c>,
+    /// <c>--points</c>, …) that has no parser of its own one that reports a bad value with the option and the text given,
+    /// rather than the parser's default message (which names a .NET type). Ranges are checked where the value is used.
+    /// </summary>
+    public static void ParseWholeNumbers(Command command)
+    {
+        foreach (var option in command.Options)
+        {
+            switch (option)
+            {
+                case Option<int> whole when whole.CustomParser is null:
+                    whole.CustomParser = argument => WholeNumber(argument, whole.Name, whole.DefaultValueFactory) ?? 0;
+                    break;
+                case Option<int?> optional when optional.CustomParser is null:
+                    optional.CustomParser = argument => WholeNumber(argument, optional.Name, optional.DefaultValueFactory);
+                    break;
+            }
+        }
+        foreach (var subcommand in command.Subcommands)
+        {
+            ParseWholeNumbers(subcommand);
+        }
+    }
+
+    private static int? WholeNumber<T>(System.CommandLine.Parsing.ArgumentResult argument, string name, Func<System.CommandLine.Parsing.ArgumentResult, T>? fallback)
+    {
+        if (argument.Tokens.Count == 0)
+        {
+            return fallback is null ? null : fallback(argument) is int value ? value : null;
+        }
+        var text = argument.Tokens[0].Value;
+        if (int.TryParse(text, NumberStyles.AllowLeadingSign, CultureInfo.InvariantCulture, out var number))
+        {
+            return number;
+        }
+        argument.AddError($"{name} {Output.Printable.Quote(text)} is not a whole number.");
+        return null;
+    }
+
     /// <summary>The in-plane wavevector k∥ (1/nm) shared by the commands that take it.</summary>
     public static Option<double?> InPlaneWavevectorOption() => NumberOption("--in-plane-wavevector", "1/nm", "0.3",
         "In-plane wavevector k∥, 1/nm (default 0): every layer and lead is seen with its potential raised by ħ²k∥²/2m of its own mass, "

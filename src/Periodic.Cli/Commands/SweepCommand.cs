@@ -52,8 +52,10 @@ internal static partial class SweepCommand
             var mine = Enumerable.Range(0, sweep.DesignCount).Where(d => d % of == index).ToArray();
             var shardText = of == 1 ? null : string.Create(CultureInfo.InvariantCulture, $"{index}/{of}");
             var identity = string.Create(CultureInfo.InvariantCulture,
-                $"{{\"periodicSweepJournal\":{SweepJournal.Format},\"fingerprint\":\"{sweep.Fingerprint}\",\"shard\":\"{index}/{of}\",\"columns\":{runner.Columns.Count}{(rigid ? ",\"rigidBands\":true" : "")}}}");
+                $"{{\"periodicSweepJournal\":{SweepJournal.Format},\"fingerprint\":\"{sweep.Fingerprint}\",\"shard\":\"{index}/{of}\",\"columns\":{runner.Columns.Count}{(rigid && runner.IsDoped ? ",\"rigidBands\":true" : "")}}}");
             var rows = new SweepRow?[sweep.DesignCount];
+            // Every refusal of --out comes before the journal is created beside it, so a refused run leaves nothing behind.
+            OutputFile.Validate(outPath);
             using var journal = SweepJournal.Open(outPath, identity, runner.Columns.Count);
             if (journal.Resumed)
             {
@@ -67,6 +69,7 @@ internal static partial class SweepCommand
                     throw new UsageException($"{Printable.Quote(journal.Path)} holds design {row.Design}, which is not in this sweep or shard; delete it.");
                 }
                 rows[row.Design] = row;
+                runner.NoteValues(row.Values);
             }
             if (journal.Resumed)
             {
@@ -112,12 +115,60 @@ internal static partial class SweepCommand
                 Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,
                     $"periodic: {pipeline.Computed} designs computed in {pipeline.Elapsed.TotalSeconds:F3} s on {workers} threads ({(ThreadClock.IsProcessorTime ? "processor" : "wall")} time: designs {compute:F3} s, formatting rows {format:F3} s, writing {write:F3} s); then {tail:F3} s to finish the file; output share {100 * share:F1} %; whole run {total.TotalSeconds:F3} s; garbage collections {GC.CollectionCount(0)} (pauses {GC.GetTotalPauseDuration().TotalSeconds:F3} s); {(runner.UsesTemplate ? "each design built from the structure read once" : "each design read as a document")}"));
             }
+            if (failed < mine.Length)
+            {
+                WarnOfEmptyColumns(runner);
+            }
             Console.Out.WriteLine(string.Create(CultureInfo.InvariantCulture,
                 $"{mine.Length} designs{(shardText is null ? "" : $" (shard {shardText} of {sweep.DesignCount})")}, {failed} failed (their rows give the error); written to {outPath}"));
             return 0;
         });
         return command;
     }
+
+    /// <summary>
+    /// One warning line per group of output columns (bands, levels, resonances, transitions, Hubbard, sensitivities) that
+    /// is empty in every row although some design succeeded: the sweep asked for quantities its designs do not have.
+    /// </summary>
+    private static void WarnOfEmptyColumns(SweepRunner runner)
+    {
+        var groups = new List<(string Group, List<string> Names)>();
+        for (var j = runner.ParameterCount; j < runner.Columns.Count; j++)
+        {
+            if (runner.HasValue(j))
+            {
+                continue;
+            }
+            var name = runner.Columns[j].Name;
+            var group = ColumnGroup(name);
+            var at = groups.FindIndex(g => g.Group == group);
+            if (at < 0)
+            {
+                groups.Add((group, []));
+                at = groups.Count - 1;
+            }
+            groups[at].Names.Add(name);
+        }
+        foreach (var (group, names) in groups)
+        {
+            var why = group switch
+            {
+                "transitions" => "no design has both levels of these transitions in its stack; a structure without \"stack\" is one period between leads of its first layer's material, so a first layer that is a well binds nothing (docs/sweeps.md, \"The sweep file\")",
+                "levels" => "no design has bound levels in its stack; a structure without \"stack\" is one period between leads of its first layer's material, so a first layer that is a well binds nothing (docs/sweeps.md, \"The sweep file\")",
+                "resonances" => "no design has transmission resonances in its stack below its leads' barrier (docs/sweeps.md, \"The sweep file\")",
+                _ => "no design has a finite value there",
+            };
+            var list = names.Count <= 4 ? string.Join(", ", names) : $"{string.Join(", ", names.Take(3))} … {names[^1]}";
+            Console.Error.WriteLine($"periodic: warning: {list}: empty in every row; {why}.");
+        }
+    }
+
+    private static string ColumnGroup(string name) =>
+        name.StartsWith("dLevel", StringComparison.Ordinal) || name.StartsWith("level", StringComparison.Ordinal) ? "levels"
+        : name.StartsWith("dResonance", StringComparison.Ordinal) || name.StartsWith("resonance", StringComparison.Ordinal) ? "resonances"
+        : name.StartsWith("dTransition", StringComparison.Ordinal) || name.StartsWith("transition", StringComparison.Ordinal) ? "transitions"
+        : name.StartsWith("hubbard", StringComparison.Ordinal) ? "hubbard"
+        : "bands";
 
     private static (int Index, int Of) ParseShard(string? text)
     {
@@ -145,16 +196,26 @@ internal static class MergeCommand
     {
         var parts = new Argument<string[]>("parts") { Description = "Tables written by 'periodic sweep --shard' (all .csv or all .parquet), in any order.", Arity = ArgumentArity.OneOrMore };
         var output = new Option<string>("--out", "-o") { Description = "The joined table (.csv or .parquet). Required.", Required = true };
-        var command = new Command("merge", "Join the parts of a sharded sweep into one table in design order; refuses parts that overlap, miss designs or come from different sweeps.");
+        var command = new Command("merge", "Join the parts of a sharded sweep into one table in design order; refuses parts that overlap, miss designs or mix CSV and Parquet. Parquet parts carry the sweep's fingerprint, so parts of different sweeps are refused; CSV parts are checked only by their header and design numbers.");
         command.Arguments.Add(parts);
         command.Options.Add(output);
         command.SetAction(result =>
         {
             var outPath = result.GetValue(output)!;
             SweepTable.IsParquet(outPath, "--out");
-            var tables = result.GetValue(parts)!.Select(SweepTable.Read).ToArray();
+            var names = result.GetValue(parts)!;
+            var firstParquet = SweepTable.IsParquet(names[0], "merge");
+            foreach (var name in names)
+            {
+                if (SweepTable.IsParquet(name, "merge") != firstParquet)
+                {
+                    throw new UsageException($"merge: {Printable.Quote(name)} is {Format(!firstParquet)} but the first part {Printable.Quote(names[0])} is {Format(firstParquet)}; give the parts in one format (all .csv or all .parquet), as one sweep's shards wrote them.");
+                }
+            }
+            var tables = names.Select(SweepTable.Read).ToArray();
+            OutputFile.Validate(outPath);
             var first = tables[0];
-            foreach (var (table, name) in tables.Zip(result.GetValue(parts)!))
+            foreach (var (table, name) in tables.Zip(names))
             {
                 if (!table.Columns.SequenceEqual(first.Columns))
                 {
@@ -165,24 +226,39 @@ internal static class MergeCommand
                     throw new UsageException($"merge: {Printable.Quote(name)} comes from another sweep (or another version of its files) than the first part.");
                 }
             }
-            var rows = tables.SelectMany(t => t.Rows).OrderBy(r => r.Design).ToArray();
+            // Each row with the part it came from, so that an overlap or a gap names the files.
+            var rows = tables.SelectMany((t, p) => t.Rows.Select(r => (Row: r, Part: p))).OrderBy(x => x.Row.Design).ThenBy(x => x.Part).ToArray();
             var expected = first.TotalDesigns >= 0 ? first.TotalDesigns : rows.Length;
-            for (var i = 0; i < rows.Length; i++)
+            for (var i = 0; i < Math.Max(rows.Length, expected); i++)
             {
-                if (rows[i].Design != i)
+                if (i > 0 && i < rows.Length && rows[i].Row.Design == rows[i - 1].Row.Design)
                 {
-                    var what = i > 0 && rows[i].Design == rows[i - 1].Design ? $"design {rows[i].Design} appears in two parts" : $"design {i} is in no part";
-                    throw new UsageException($"merge: {what}; give every shard's table once.");
+                    var (a, b) = (names[rows[i - 1].Part], names[rows[i].Part]);
+                    var where = rows[i - 1].Part == rows[i].Part ? $"twice in {Printable.Quote(a)}"
+                        : a == b ? $"in {Printable.Quote(a)}, which is given twice" : $"in both {Printable.Quote(a)} and {Printable.Quote(b)}";
+                    throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"merge: design {rows[i].Row.Design} is {where}; give every shard's table once."));
+                }
+                if (i >= rows.Length || rows[i].Row.Design != i)
+                {
+                    throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"merge: design {i} is in none of the {Common.Plural(tables.Length, "part")} given ({Missing(i, tables, names)}); give every shard's table."));
                 }
             }
-            if (rows.Length != expected)
-            {
-                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"merge: the parts hold {rows.Length} of the sweep's {expected} designs; give every shard's table."));
-            }
-            new SweepTable(first.Columns, first.Fingerprint, expected, null, rows).Write(outPath);
+            new SweepTable(first.Columns, first.Fingerprint, expected, null, rows.Select(x => x.Row).ToArray()).Write(outPath);
             Console.Out.WriteLine(string.Create(CultureInfo.InvariantCulture, $"{rows.Length} designs from {tables.Length} parts; written to {outPath}"));
             return 0;
         });
         return command;
+    }
+
+    private static string Format(bool parquet) => parquet ? "Parquet" : "CSV";
+
+    /// <summary>Where a missing design should have come from: its shard, when the parts say which shards they are; else the parts given.</summary>
+    private static string Missing(int design, SweepTable[] tables, string[] names)
+    {
+        if (tables[0].Shard is { } shard && shard.Split('/') is [_, var total] && int.TryParse(total, NumberStyles.None, CultureInfo.InvariantCulture, out var of) && of > 0)
+        {
+            return string.Create(CultureInfo.InvariantCulture, $"it belongs to shard {design % of}/{of}, whose table is missing");
+        }
+        return string.Join(", ", names.Select(Printable.Quote));
     }
 }

@@ -55,6 +55,12 @@ internal static class OutputFile
         }
     }
 
+    /// <summary>
+    /// Refuses <paramref name="path"/> as <see cref="WriteAtomically"/> would (empty, a directory, a missing directory, a
+    /// read-only file, an input of this command), before a command creates anything beside it (a sweep's journal).
+    /// </summary>
+    public static void Validate(string path) => Check(path);
+
     /// <summary>Writes UTF-8 text (no byte-order mark) under the rules of <see cref="WriteAtomically"/>.</summary>
     public static void WriteText(string path, string text) =>
         WriteAtomically(path, stream =>

@@ -88,13 +88,20 @@ internal sealed class SweepJournal : IDisposable
                 File.WriteAllText(path, text[..(text.LastIndexOf('\n') + 1)], new UTF8Encoding(false));
             }
         }
-        else
+        try
         {
-            File.WriteAllText(path, identity + "\n", new UTF8Encoding(false));
+            if (!resumed)
+            {
+                File.WriteAllText(path, identity + "\n", new UTF8Encoding(false));
+            }
+            // Unbuffered: the lines come a chunk of designs at a time, already gathered in one buffer.
+            var stream = new FileStream(path, FileMode.Append, FileAccess.Write, FileShare.Read, 0);
+            return new SweepJournal(path, stream, done, resumed);
         }
-        // Unbuffered: the lines come a chunk of designs at a time, already gathered in one buffer.
-        var stream = new FileStream(path, FileMode.Append, FileAccess.Write, FileShare.Read, 0);
-        return new SweepJournal(path, stream, done, resumed);
+        catch (Exception e) when (e is IOException or UnauthorizedAccessException)
+        {
+            throw new UsageException($"cannot write the journal {Printable.Quote(path)} beside {OutputFile.Option} {Printable.Quote(outPath)}: {e.Message}");
+        }
     }
 
     /// <summary>Appends journal lines: CSV rows as <see cref="SweepTable.AppendCsvRow"/> formats them.</summary>

@@ -39,6 +39,9 @@ internal sealed class SweepRunner(SweepSpec spec, bool rigidBands = false)
     /// <summary>The columns of a row after the design number, with their units.</summary>
     public IReadOnlyList<(string Name, string Unit)> Columns { get; } = BuildColumns(spec);
 
+    // Per column: whether some row has a value there (see NoteValues); the workers only ever set a flag.
+    private readonly bool[] _hasValue = new bool[BuildColumns(spec).Count];
+
     /// <summary>Number of parameter columns at the start of <see cref="Columns"/>.</summary>
     public int ParameterCount => spec.Parameters.Count;
 
@@ -111,6 +114,29 @@ internal sealed class SweepRunner(SweepSpec spec, bool rigidBands = false)
     /// row with its error).
     /// </summary>
     public string? Evaluate(int index, double?[] values)
+    {
+        var error = EvaluateDesign(index, values);
+        NoteValues(values);
+        return error;
+    }
+
+    /// <summary>Records which columns of <paramref name="values"/> hold a value (a row computed, or resumed from the journal).</summary>
+    public void NoteValues(ReadOnlySpan<double?> values)
+    {
+        for (var j = ParameterCount; j < values.Length; j++)
+        {
+            // Written only the first time: the flags are shared by the workers, and a flag once set stays set.
+            if (!_hasValue[j] && values[j] is not null)
+            {
+                _hasValue[j] = true;
+            }
+        }
+    }
+
+    /// <summary>True when some row noted so far (<see cref="NoteValues"/>) has a value in column <paramref name="column"/>.</summary>
+    public bool HasValue(int column) => column < ParameterCount || _hasValue[column];
+
+    private string? EvaluateDesign(int index, double?[] values)
     {
         Array.Clear(values);
         Span<double> parameters = stackalloc double[spec.Parameters.Count];
@@ -196,6 +222,11 @@ internal sealed class SweepRunner(SweepSpec spec, bool rigidBands = false)
             }
             return error;
         }
+        catch (StructureFileException e) when (e.LineNumber > 0)
+        {
+            // The position is inside the design's document, which the user never sees: the design and the field say where.
+            return OneLine(e.Field.Length == 0 ? $"{e.SourceName}: {e.Problem}" : $"{e.SourceName}: {e.Field}: {e.Problem}");
+        }
         catch (Exception e) when (e is StructureFileException or ArgumentException or ArithmeticException or InvalidOperationException
             or PeriodicComputationException or UsageException)
         {
@@ -207,7 +238,12 @@ internal sealed class SweepRunner(SweepSpec spec, bool rigidBands = false)
     /// True when the sweep's own structure (before any parameter is written in) is doped and will be solved self-consistently,
     /// i.e. without --no-space-charge.
     /// </summary>
-    public bool SolvesSpaceCharge => !rigidBands && StructureFile.Parse(Encoding.UTF8.GetBytes(spec.Structure.ToJsonString()), "structure") is var s
+    public bool SolvesSpaceCharge => !rigidBands && IsDoped;
+
+    /// <summary>
+    /// True when the sweep's own structure is doped (in its cell or stack): only then does --no-space-charge change the rows.
+    /// </summary>
+    public bool IsDoped => StructureFile.Parse(Encoding.UTF8.GetBytes(spec.Structure.ToJsonString()), "structure") is var s
         && (s.Doping is not null || s.StackDoping is not null || s.StackSpaceChargeRefusal is not null);
 
     /// <summary>The design with its doped periodic cell solved self-consistently (as the cell commands load it).</summary>

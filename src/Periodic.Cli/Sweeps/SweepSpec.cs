@@ -206,7 +206,12 @@ internal sealed class SweepSpec
             var field = item["field"] is JsonValue f && f.TryGetValue<string>(out var text) ? text : throw Bad(path, $"{where}.field", "is required: the structure field to vary, e.g. \"cell[0].width\".");
             if (!allowed.Contains(field))
             {
-                throw Bad(path, $"{where}.field", $"{Printable.Quote(field)} is not a numeric field of the structure; allowed: {string.Join(", ", allowed)}.");
+                // A field the file format knows (it has a unit) that this structure leaves out: it is swept only once written in.
+                var dot = field.LastIndexOf('.');
+                var missing = FieldUnits.Of(field) != "1" && dot > 0
+                    ? $" (the structure gives no {field[(dot + 1)..]} there: write one into it, e.g. \"{field[(dot + 1)..]}\": 0 in {field[..dot]}, to sweep it)"
+                    : "";
+                throw Bad(path, $"{where}.field", $"{Printable.Quote(field)} is not a numeric field of the structure{missing}; allowed: {string.Join(", ", allowed)}.");
             }
             if (parameters.Exists(p => p.Field == field))
             {

@@ -19,7 +19,8 @@ namespace Periodic.Cli.Sweeps;
 /// exist (a failed design, a band too narrow for a finite mass). Parquet: columns <c>design</c> (int32), one optional
 /// double column per value, <c>error</c> (optional string); the key-value metadata holds <c>periodic.units</c>
 /// (a JSON object column → unit), <c>periodic.fingerprint</c> (a hash of the sweep and structure files),
-/// <c>periodic.designs</c> (designs in the whole sweep) and, in a shard's file, <c>periodic.shard</c>.
+/// <c>periodic.designs</c> (designs in the whole sweep) and, in a shard's file, <c>periodic.shard</c>. A table merged
+/// from CSV parts has no <c>periodic.fingerprint</c> (CSV carries none).
 /// </remarks>
 internal sealed class SweepTable
 {
@@ -188,9 +189,13 @@ internal sealed class SweepTable
         var metadata = new Dictionary<string, string>(StringComparer.Ordinal)
         {
             ["periodic.units"] = JsonSerializer.Serialize(units),
-            ["periodic.fingerprint"] = Fingerprint,
-            ["periodic.designs"] = TotalDesigns.ToString(CultureInfo.InvariantCulture),
         };
+        // A table merged from CSV parts has no fingerprint (CSV carries none): the key is left out rather than written empty.
+        if (Fingerprint.Length > 0)
+        {
+            metadata["periodic.fingerprint"] = Fingerprint;
+        }
+        metadata["periodic.designs"] = TotalDesigns.ToString(CultureInfo.InvariantCulture);
         if (Shard is not null)
         {
             metadata["periodic.shard"] = Shard;
@@ -284,7 +289,7 @@ internal sealed class SweepTable
             }
         }
         var columns = valueFields.Select(f => (f.Name, units[f.Name])).ToList();
-        return new SweepTable(columns, metadata["periodic.fingerprint"], int.Parse(metadata["periodic.designs"], CultureInfo.InvariantCulture),
+        return new SweepTable(columns, metadata.TryGetValue("periodic.fingerprint", out var fingerprint) ? fingerprint : "", int.Parse(metadata["periodic.designs"], CultureInfo.InvariantCulture),
             metadata.TryGetValue("periodic.shard", out var shard) ? shard : null, rows);
     }
 }

@@ -262,10 +262,10 @@ public sealed partial class SweepCommandTest
         Assert.Equal(0, ToolRunner.Invoke("sweep", spec, "--shard", "1/2", "--out", b).ExitCode);
         var missing = ToolRunner.Invoke("merge", a, "--out", Path.Combine(folder, "m.csv"));
         Assert.Equal(2, missing.ExitCode);
-        Assert.Contains("design 1 is in no part", missing.Stderr);
+        Assert.Contains($"design 1 is in none of the 1 part given (\"{a}\")", missing.Stderr);
         var twice = ToolRunner.Invoke("merge", a, b, a, "--out", Path.Combine(folder, "m.csv"));
         Assert.Equal(2, twice.ExitCode);
-        Assert.Contains("appears in two parts", twice.Stderr);
+        Assert.Contains($"design 0 is in \"{a}\", which is given twice", twice.Stderr);
         Assert.False(File.Exists(Path.Combine(folder, "m.csv")));
     }
 
