@@ -86,6 +86,28 @@ public sealed partial class DesignCommandTest
     }
 
     [Fact]
+    public void Design_NeighbourWithoutTheLevel_IsGoneInTheToleranceTable()
+    {
+        // Placed at 6.3 um the well is ~5.1 nm wide; 2 nm thinner it binds one level only (checked with the library), so
+        // that side of the table has no transition: shown as gone, not a failure of the run.
+        var run = ToolRunner.Invoke("design", WellDesign(7.0, """{"quantity": "transition1-2", "value": "6.3 um"}""", ", \"monolayer\": 2"), "--json");
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        var json = run.Json();
+        var width = json.GetProperty("adjusted")[0].GetProperty("reached").GetDouble();
+        Assert.Single(WellLevels(width - 2, 0).Levels);
+        var shift = json.GetProperty("tolerances")[0].GetProperty("shifts")[0];
+        Assert.Equal(System.Text.Json.JsonValueKind.Null, shift.GetProperty("minus").ValueKind);
+        Assert.Equal(System.Text.Json.JsonValueKind.Null, shift.GetProperty("minusWavelength").ValueKind);
+        // The thicker side in wavelength: hc/E' − hc/E of the re-solved energy shift, in um.
+        var reached = json.GetProperty("targets")[0].GetProperty("reached").GetDouble();
+        var hc = PhysicalConstants.PhotonEnergyWavelengthElectronVoltNanometres;
+        Assert.Equal(hc / (reached + shift.GetProperty("plus").GetDouble()) / 1000 - hc / reached / 1000, shift.GetProperty("plusWavelength").GetDouble(), 1e-12);
+        var text = ToolRunner.Invoke("design", WellDesign(7.0, """{"quantity": "transition1-2", "value": "6.3 um"}""", ", \"monolayer\": 2"));
+        Assert.Contains("gone²", text.Stdout);
+        Assert.Contains("² gone: the design one monolayer away does not have this level or resonance.", text.Stdout);
+    }
+
+    [Fact]
     public void Design_Table_ShowsEachTargetInItsOwnUnitWithoutExponentsOrSignedZeros()
     {
         var run = ToolRunner.Invoke("design", WellDesign(7.0, """{"quantity": "transition1-2", "value": "2.5 um"}""", ", \"monolayer\": 0.2827"));
