@@ -25,7 +25,7 @@ internal static class DesignCommand
         var file = new Argument<string>("file") { Description = "Design file (JSON): structure, adjust, targets, monolayer (docs/design.md)." };
         var json = Common.JsonOption();
         var output = new Option<string?>("--out", "-o") { Description = "Write to this file (atomically) instead of stdout." };
-        var command = new Command("design", "Adjust layer widths, potentials or masses within bounds to reach target band edges, widths, gaps, stack levels, resonances or transition energies (or wavelengths); report the residuals and a one-monolayer tolerance table.");
+        var command = new Command("design", "Adjust layer widths, potentials or masses within bounds to reach target band edges, widths, gaps, stack levels, resonances or transition energies (or wavelengths); report the residuals and a one-monolayer tolerance table. A target not reached is a result, not an error: the closest design within the bounds is reported with exit status 0, and a script detects it by \"converged\": false (or a target's \"withinTolerance\": false) in --json.");
         command.Arguments.Add(file);
         command.Options.Add(json);
         command.Options.Add(output);
@@ -44,13 +44,36 @@ internal static class DesignCommand
         return command;
     }
 
+    /// <summary>
+    /// A fitted design: start, reached fields and target values, how the optimiser ended, and per tolerance field the
+    /// shifts one monolayer thicker and thinner (<c>MinusOne</c> is null for a layer not thicker than one monolayer, which
+    /// one monolayer less would leave without width) with their first-order estimates and the layer's reached width.
+    /// </summary>
     internal sealed record Report(double[] Start, double[] Reached, double[] Values, int Iterations, string Exit, bool Converged,
-        double[][] PlusOne, double[][] MinusOne, double[][] Linear, string[] ToleranceFields, double[] ToleranceSteps);
+        double[][] PlusOne, double[]?[] MinusOne, double[][] Linear, string[] ToleranceFields, double[] ToleranceSteps, double[] ToleranceWidths);
+
+    /// <summary>
+    /// How far (eV) from its target a design that does not have a target quantity (fewer levels or resonances) is put:
+    /// far beyond any real residual, so its sum of squares exceeds that of every design that has all targets and the
+    /// Levenberg–Marquardt step that led there is rejected (its damping raised, a shorter step tried), while staying finite
+    /// (MathNet stops at a NaN).
+    /// </summary>
+    private const double MissingPenaltyElectronVolts = 1e6;
 
     private static Report Run(DesignSpec spec)
     {
         var model = new DesignModel(spec.Structure, spec.Fields, spec.Layers, spec.Targets);
         var count = spec.Targets.Count;
+        var startValues = model.Evaluate(spec.Start).Values;
+        for (var i = 0; i < count; i++)
+        {
+            if (double.IsNaN(startValues[i]))
+            {
+                var at = string.Join(", ", spec.Fields.Select((f, j) => string.Create(CultureInfo.InvariantCulture, $"{f} = {spec.Start[j]:R} {FieldUnits.Of(f)}")));
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                    $"{Printable.Quote(spec.Source)}: targets[{i}] {spec.Targets[i].Name}: the start design ({at}) has {spec.Targets[i].Missing}, so the optimiser has nothing to move; start from a design that has it (set the structure's value, within the bounds, to one where the target exists)."));
+            }
+        }
         var cache = (Point: (double[]?)null, Values: Array.Empty<double>(), Jacobian: new double[0, 0]);
         (double[] Values, double[,] Jacobian) At(Vector<double> p)
         {
@@ -58,6 +81,13 @@ internal static class DesignCommand
             if (cache.Point is null || !cache.Point.AsSpan().SequenceEqual(point))
             {
                 var (values, jacobian) = model.Evaluate(point);
+                for (var i = 0; i < values.Length; i++)
+                {
+                    if (double.IsNaN(values[i]))
+                    {
+                        values[i] = spec.Targets[i].TargetElectronVolts + MissingPenaltyElectronVolts;
+                    }
+                }
                 cache = (point, values, jacobian);
             }
             return (cache.Values, cache.Jacobian);
@@ -83,22 +113,25 @@ internal static class DesignCommand
 
         // Tolerance table: every width of the cell one monolayer thicker and thinner, solved again (not linearised),
         // beside the first-order estimate from the exact sensitivities.
+        // A layer thinner than one monolayer has no "one monolayer thinner" (its width would not be positive): that side is null.
         var plus = new double[spec.ToleranceFields.Count][];
-        var minus = new double[spec.ToleranceFields.Count][];
+        var minus = new double[]?[spec.ToleranceFields.Count];
         var linear = new double[spec.ToleranceFields.Count][];
         var steps = new double[spec.ToleranceFields.Count];
+        var widths = new double[spec.ToleranceFields.Count];
         for (var f = 0; f < spec.ToleranceFields.Count; f++)
         {
             var (field, element, step) = spec.ToleranceFields[f];
             steps[f] = step;
             var adjusted = spec.Fields.ToList().IndexOf(field);
             var basis = adjusted >= 0 ? reached[adjusted] : spec.BaseValue(field);
+            widths[f] = basis;
             plus[f] = Diff(model.Values(reached, d => FieldPath.Set(d, field, basis + step)), values);
-            minus[f] = Diff(model.Values(reached, d => FieldPath.Set(d, field, basis - step)), values);
+            minus[f] = basis - step > 0 ? Diff(model.Values(reached, d => FieldPath.Set(d, field, basis - step)), values) : null;
             linear[f] = model.Derivatives(reached, element, LayerQuantity.Width).Select(d => (d ?? double.NaN) * step).ToArray();
         }
         return new Report(spec.Start, reached, values, fit.Iterations, fit.ReasonForExit.ToString(), converged, plus, minus, linear,
-            spec.ToleranceFields.Select(t => t.Field).ToArray(), steps);
+            spec.ToleranceFields.Select(t => t.Field).ToArray(), steps, widths);
     }
 
     /// <summary>The photon wavelength hc/E of a transition energy, µm.</summary>
@@ -106,54 +139,124 @@ internal static class DesignCommand
 
     private static double[] Diff(double[] a, double[] b) => a.Zip(b, (x, y) => x - y).ToArray();
 
+    /// <summary>A number rounded to <paramref name="decimals"/> and printed with them all; a value that rounds to zero prints unsigned.</summary>
+    internal static string Fixed(double value, int decimals) =>
+        double.IsNaN(value) ? "n/a" : (Math.Round(value, decimals) + 0.0).ToString("F" + decimals.ToString(CultureInfo.InvariantCulture), CultureInfo.InvariantCulture);
+
+    /// <summary>Decimals of an adjusted field's value by its unit: 0.1 pm for widths, 1 µeV for potentials, 1e-5 m0 for masses.</summary>
+    private static int FieldDecimals(string unit) => unit switch { "nm" => 4, "eV" => 6, _ => 5 };
+
+    /// <summary>A target's display unit: its wavelength unit (µm or nm) where it was given as a wavelength, else meV.</summary>
+    private static string DisplayUnit(DesignQuantity target) => target.WavelengthUnit ?? "meV";
+
+    /// <summary>An energy (eV) in the target's display unit.</summary>
+    private static double Display(DesignQuantity target, double energyElectronVolts) => target.WavelengthUnit switch
+    {
+        null => energyElectronVolts * 1e3,
+        "nm" => Wavelength(energyElectronVolts) * 1000,
+        _ => Wavelength(energyElectronVolts),
+    };
+
+    /// <summary>Decimals shown in a display unit: 0.1 µeV, 10 pm in µm, 1 pm in nm.</summary>
+    private static int DisplayDecimals(string unit) => unit switch { "meV" => 4, "µm" => 5, _ => 3 };
+
     private static string RenderTable(DesignSpec spec, Report report)
     {
         var text = new System.Text.StringBuilder();
         text.Append(CultureInfo.InvariantCulture, $"design: {spec.Source}  ({(report.Converged ? "targets reached" : "TARGETS NOT REACHED")}; {report.Iterations} iterations, optimiser exit: {report.Exit})\n\n");
-        var adjusted = new Table(new Column("field"), new Column("unit"), new Column("start", Format: "G8"), new Column("reached", Format: "G10"),
-            new Column("lower bound", Format: "G6"), new Column("upper bound", Format: "G6"));
+        var adjusted = new Table("field", "unit", "start", "reached", "lower bound", "upper bound");
         for (var j = 0; j < spec.Fields.Count; j++)
         {
-            adjusted.Add(spec.Fields[j], FieldUnits.Of(spec.Fields[j]), report.Start[j], report.Reached[j], spec.Lower[j], spec.Upper[j]);
+            var unit = FieldUnits.Of(spec.Fields[j]);
+            var decimals = FieldDecimals(unit);
+            adjusted.Add(spec.Fields[j], unit, Fixed(report.Start[j], decimals), Fixed(report.Reached[j], decimals), Fixed(spec.Lower[j], decimals), Fixed(spec.Upper[j], decimals));
         }
         text.Append(adjusted.ToText()).Append('\n');
         var transitions = spec.Targets.Any(t => t.What == DesignQuantity.Kind.Transition);
-        var columns = new List<Column> { new("target"), new("wanted", "meV", Format: "F4"), new("reached", "meV", Format: "F4"), new("residual", "µeV", Format: "G4") };
+        var columns = new List<string> { "target", "unit", "wanted", "reached", "residual", "within tolerance" };
         if (transitions)
         {
-            columns.Add(new Column("reached wavelength", "µm", Format: "F5"));
+            columns.Add("reached photon");
         }
         var targets = new Table([.. columns]);
         for (var i = 0; i < spec.Targets.Count; i++)
         {
-            var cells = new List<Cell> { spec.Targets[i].Name, spec.Targets[i].TargetElectronVolts * 1e3, report.Values[i] * 1e3, (report.Values[i] - spec.Targets[i].TargetElectronVolts) * 1e6 };
+            var target = spec.Targets[i];
+            var unit = DisplayUnit(target);
+            var decimals = DisplayDecimals(unit);
+            var wanted = Display(target, target.TargetElectronVolts);
+            var reached = Display(target, report.Values[i]);
+            var within = Math.Abs(report.Values[i] - target.TargetElectronVolts) <= spec.ResidualToleranceElectronVolts;
+            var cells = new List<Cell> { target.Name, unit, Fixed(wanted, decimals), Fixed(reached, decimals), Fixed(reached - wanted, decimals), within ? "yes" : "NO" };
             if (transitions)
             {
-                cells.Add(spec.Targets[i].What == DesignQuantity.Kind.Transition ? Wavelength(report.Values[i]) : "");
+                cells.Add(target.What != DesignQuantity.Kind.Transition ? ""
+                    : target.WavelengthUnit is null ? Fixed(Wavelength(report.Values[i]), 5) + " µm"
+                    : Fixed(report.Values[i] * 1e3, 4) + " meV");
             }
             targets.Add([.. cells]);
         }
-        text.Append(targets.ToText()).Append('\n');
+        text.Append(targets.ToText());
+        if (!report.Converged)
+        {
+            text.Append(CultureInfo.InvariantCulture, $"Not reached within {spec.ResidualToleranceElectronVolts * 1e6:G6} µeV: the design shown is the closest the optimiser found within the bounds (exit status 0; with --json, \"converged\" is false).\n");
+        }
+        text.Append('\n');
         if (report.ToleranceFields.Length > 0)
         {
-            text.Append("growth tolerance: each layer one step thicker (+) and thinner (−), solved again; shifts in meV (first-order estimate in brackets)\n");
-            var headers = new List<Column> { new("layer"), new("step", "nm", Format: "G4") };
-            headers.AddRange(spec.Targets.SelectMany(t => new[] { new Column(t.Name + " +"), new Column(t.Name + " −") }));
+            text.Append("growth tolerance: each layer one step thicker (+) and thinner (−), solved again; shifts in each target's unit (meV, or nm for a wavelength), first-order estimate in brackets\n");
+            var headers = new List<string> { "layer", "step (nm)" };
+            headers.AddRange(spec.Targets.SelectMany(t => new[] { $"{t.Name} + ({ShiftUnit(t)})", $"{t.Name} − ({ShiftUnit(t)})" }));
             var table = new Table([.. headers]);
+            var thin = new List<string>();
+            var gone = false;
             for (var f = 0; f < report.ToleranceFields.Length; f++)
             {
-                var cells = new List<Cell> { report.ToleranceFields[f], report.ToleranceSteps[f] };
+                var cells = new List<Cell> { report.ToleranceFields[f], Fixed(report.ToleranceSteps[f], 4) };
                 for (var i = 0; i < spec.Targets.Count; i++)
                 {
-                    cells.Add(string.Create(CultureInfo.InvariantCulture, $"{report.PlusOne[f][i] * 1e3:F3} [{report.Linear[f][i] * 1e3:F3}]"));
-                    cells.Add(string.Create(CultureInfo.InvariantCulture, $"{report.MinusOne[f][i] * 1e3:F3} [{-report.Linear[f][i] * 1e3:F3}]"));
+                    cells.Add(ShiftCell(spec.Targets[i], report.Values[i], report.PlusOne[f][i], report.Linear[f][i], ref gone));
+                    cells.Add(report.MinusOne[f] is { } minus ? ShiftCell(spec.Targets[i], report.Values[i], minus[i], -report.Linear[f][i], ref gone) : "n/a¹");
+                }
+                if (report.MinusOne[f] is null)
+                {
+                    thin.Add(string.Create(CultureInfo.InvariantCulture, $"{report.ToleranceFields[f]} ({Fixed(report.ToleranceWidths[f], 4)} nm)"));
                 }
                 table.Add([.. cells]);
             }
             text.Append(table.ToText());
+            if (thin.Count > 0)
+            {
+                text.Append(CultureInfo.InvariantCulture, $"¹ not applicable: {string.Join(", ", thin)} {(thin.Count == 1 ? "is" : "are")} not thicker than one monolayer ({Fixed(report.ToleranceSteps[0], 4)} nm), so one monolayer less leaves no layer.\n");
+            }
+            if (gone)
+            {
+                text.Append("² gone: the design one monolayer away does not have this level or resonance.\n");
+            }
+            text.Append("\nModel: single-band envelope functions of an undoped structure; the material parameters are uncertain by more than these shifts. Confirm a design by measurement.\n");
         }
-        text.Append("\nModel: single-band envelope functions of an undoped structure; the material parameters are uncertain by more than these shifts. Confirm a design by measurement.\n");
+        else
+        {
+            text.Append("Model: single-band envelope functions of an undoped structure; the material parameters are uncertain by more than most growth tolerances (give \"monolayer\", the growth step in nm, in the design file for a one-monolayer tolerance table). Confirm a design by measurement.\n");
+        }
         return text.ToString();
+    }
+
+    /// <summary>The unit of a target's tolerance shifts: nm for a wavelength target, meV otherwise.</summary>
+    private static string ShiftUnit(DesignQuantity target) => target.WavelengthUnit is null ? "meV" : "nm";
+
+    /// <summary>One tolerance cell, "shift [first order]" in the target's shift unit; "gone²" where the neighbouring design lacks the target.</summary>
+    private static string ShiftCell(DesignQuantity target, double reachedElectronVolts, double shiftElectronVolts, double linearElectronVolts, ref bool gone)
+    {
+        if (double.IsNaN(shiftElectronVolts))
+        {
+            gone = true;
+            return "gone²";
+        }
+        var (shift, linear) = target.WavelengthUnit is null
+            ? (shiftElectronVolts * 1e3, linearElectronVolts * 1e3)
+            : ((Wavelength(reachedElectronVolts + shiftElectronVolts) - Wavelength(reachedElectronVolts)) * 1000, -Wavelength(reachedElectronVolts) * 1000 / reachedElectronVolts * linearElectronVolts);
+        return $"{Fixed(shift, 3)} [{Fixed(linear, 3)}]";
     }
 
     private static string RenderJson(DesignSpec spec, Report report) => Common.Json(w =>
@@ -183,6 +286,7 @@ internal static class DesignCommand
             w.WriteNumber("wanted", spec.Targets[i].TargetElectronVolts);
             w.WriteNumber("reached", report.Values[i]);
             w.WriteNumber("residual", report.Values[i] - spec.Targets[i].TargetElectronVolts);
+            w.WriteBoolean("withinTolerance", Math.Abs(report.Values[i] - spec.Targets[i].TargetElectronVolts) <= spec.ResidualToleranceElectronVolts);
             if (spec.Targets[i].What == DesignQuantity.Kind.Transition && report.Values[i] > 0)
             {
                 w.WriteNumber("reachedWavelength", Wavelength(report.Values[i]));
@@ -201,9 +305,16 @@ internal static class DesignCommand
             {
                 w.WriteStartObject();
                 w.WriteString("quantity", spec.Targets[i].Name);
-                w.WriteNumber("plus", report.PlusOne[f][i]);
-                w.WriteNumber("minus", report.MinusOne[f][i]);
+                w.Number("plus", report.PlusOne[f][i]);
+                w.Number("minus", report.MinusOne[f] is { } minus ? minus[i] : double.NaN);
                 w.Number("firstOrder", report.Linear[f][i]);
+                if (spec.Targets[i].WavelengthUnit is not null)
+                {
+                    var reached = report.Values[i];
+                    w.Number("plusWavelength", Wavelength(reached + report.PlusOne[f][i]) - Wavelength(reached));
+                    w.Number("minusWavelength", report.MinusOne[f] is { } m ? Wavelength(reached + m[i]) - Wavelength(reached) : double.NaN);
+                    w.Number("firstOrderWavelength", -Wavelength(reached) / reached * report.Linear[f][i]);
+                }
                 w.WriteEndObject();
             }
             w.WriteEndArray();
@@ -242,7 +353,18 @@ internal sealed class DesignSpec
                 throw SweepSpec.Bad(path, name, "is not a design field; allowed: structure, adjust, targets, monolayer, residualTolerance, description.");
             }
         }
-        var (structure, _, _) = SweepSpec.ReadStructure(path, root["structure"]);
+        var (structure, structureSource, _) = SweepSpec.ReadStructure(path, root["structure"]);
+        try
+        {
+            Periodic.Serialization.StructureFile.Parse(System.Text.Encoding.UTF8.GetBytes(structure.ToJsonString()), "structure");
+        }
+        catch (Periodic.Serialization.StructureFileException e)
+        {
+            // The structure is read as a JSON object and parsed again, so a line and column would point into that
+            // copy: name the field path instead (inside the design file, or inside the structure file it names).
+            var where = structureSource == "inline" ? "structure" : $"structure ({Printable.Quote(structureSource)})";
+            throw SweepSpec.Bad(path, e.Field.Length == 0 ? where : $"{where} {e.Field}:", e.Problem);
+        }
         var allowed = FieldPath.NumericFields(structure);
         if (root["adjust"] is not JsonArray adjust || adjust.Count == 0)
         {
@@ -291,8 +413,12 @@ internal sealed class DesignSpec
             var item = targetArray[i] as JsonObject ?? throw SweepSpec.Bad(path, where, "must be an object with quantity and value.");
             var name = item["quantity"] is JsonValue q && q.TryGetValue<string>(out var n) ? n : throw SweepSpec.Bad(path, $"{where}.quantity", "is required.");
             var target = TargetEnergy(path, $"{where}.value", item["value"], name.StartsWith("transition", StringComparison.Ordinal));
-            targets.Add(DesignQuantity.TryParse(name, target)
-                ?? throw SweepSpec.Bad(path, $"{where}.quantity", $"{Printable.Quote(name)} is not a target; allowed: {DesignQuantity.Allowed}."));
+            var quantity = DesignQuantity.TryParse(name, target)
+                ?? throw SweepSpec.Bad(path, $"{where}.quantity", $"{Printable.Quote(name)} is not a target; allowed: {DesignQuantity.Allowed}.");
+            var wavelengthUnit = item["value"] is JsonValue given && given.TryGetValue<string>(out var written)
+                ? written.TrimEnd() switch { var t when t.EndsWith("nm", StringComparison.Ordinal) => "nm", var t when t.EndsWith("um", StringComparison.Ordinal) || t.EndsWith("µm", StringComparison.Ordinal) => "µm", _ => null }
+                : null;
+            targets.Add(quantity with { WavelengthUnit = wavelengthUnit });
         }
         var monolayer = root["monolayer"] is { } m ? SweepSpec.Number(path, "monolayer", m) : (double?)null;
         if (monolayer is { } step && !(step > 0 && step < 10))

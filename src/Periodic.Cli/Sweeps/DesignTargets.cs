@@ -28,8 +28,12 @@ internal sealed partial record DesignQuantity(string Name, int Band, DesignQuant
         Transition,
     }
 
-    /// <summary>What a target may be called, for error messages.</summary>
-    public const string Allowed = "bandN.bottom, bandN.top, bandN.width, gapN.width (N from 1 to 50), levelN, resonanceN (N from 1 to 999), transitionI-J (bound levels I < J)";
+    /// <summary>What a target may be called, for error messages (the bounds are the sweep's: <see cref="SweepSpec.MaximumBands"/>, <see cref="SweepSpec.MaximumStackQuantities"/>).</summary>
+    public static readonly string Allowed = string.Create(CultureInfo.InvariantCulture,
+        $"bandN.bottom, bandN.top, bandN.width, gapN.width (N from 1 to {SweepSpec.MaximumBands}), levelN, resonanceN (N from 1 to {SweepSpec.MaximumStackQuantities}), transitionI-J (bound levels I < J ≤ {SweepSpec.MaximumStackQuantities})");
+
+    /// <summary>The unit the target was given in where it is a photon wavelength ("µm" or "nm"); null for an energy.</summary>
+    public string? WavelengthUnit { get; init; }
 
     /// <summary>Highest band number a target may name (0 for a stack quantity).</summary>
     public int BandsNeeded => What switch
@@ -50,7 +54,8 @@ internal sealed partial record DesignQuantity(string Name, int Band, DesignQuant
             var n = int.Parse(stack.Groups[2].Value, CultureInfo.InvariantCulture);
             var kind = stack.Groups[1].Value switch { "level" => Kind.Level, "resonance" => Kind.Resonance, _ => Kind.Transition };
             var upper = stack.Groups[3].Success ? int.Parse(stack.Groups[3].Value, CultureInfo.InvariantCulture) : 0;
-            var valid = n >= 1 && (kind == Kind.Transition ? stack.Groups[3].Success && upper > n : !stack.Groups[3].Success);
+            var valid = n >= 1 && n <= SweepSpec.MaximumStackQuantities
+                && (kind == Kind.Transition ? stack.Groups[3].Success && upper > n && upper <= SweepSpec.MaximumStackQuantities : !stack.Groups[3].Success);
             return valid ? new DesignQuantity(name, n, kind, target, upper) : null;
         }
         var match = Pattern().Match(name);
@@ -67,7 +72,7 @@ internal sealed partial record DesignQuantity(string Name, int Band, DesignQuant
             ("gap", "width") => Kind.Gap,
             _ => (Kind?)null,
         };
-        return what is null || band < 1 || band > 50 ? null : new DesignQuantity(name, band, what.Value, target);
+        return what is null || band < 1 || band > SweepSpec.MaximumBands ? null : new DesignQuantity(name, band, what.Value, target);
     }
 
     /// <summary>The quantity's value in <paramref name="bands"/> (a band quantity).</summary>
@@ -79,16 +84,19 @@ internal sealed partial record DesignQuantity(string Name, int Band, DesignQuant
         _ => bands.Bands[Band].BottomElectronVolts - bands.Bands[Band - 1].TopElectronVolts,
     };
 
-    /// <summary>The quantity's value in a solved design; a level or resonance the stack does not have is an error.</summary>
-    public double Value(DesignSolution solution) => What switch
+    /// <summary>The quantity's value in a solved design, or null where the stack does not have the level or resonance.</summary>
+    public double? Value(DesignSolution solution) => What switch
     {
         Kind.Level => solution.Stack!.Level(Band),
         Kind.Resonance => solution.Stack!.Resonance(Band),
         Kind.Transition => solution.Stack!.Transition(Band, Upper),
         _ => Value(solution.Bands!),
-    } ?? throw new InvalidOperationException(What == Kind.Resonance
-        ? string.Create(CultureInfo.InvariantCulture, $"{Name}: this design has fewer than {Band} resonances below its barrier tops.")
-        : string.Create(CultureInfo.InvariantCulture, $"{Name}: this design has fewer than {Math.Max(Band, Upper)} bound levels."));
+    };
+
+    /// <summary>Why a design has no value of this quantity: fewer levels or resonances than it names.</summary>
+    public string Missing => What == Kind.Resonance
+        ? string.Create(CultureInfo.InvariantCulture, $"fewer than {Band} resonances below its barrier tops")
+        : string.Create(CultureInfo.InvariantCulture, $"fewer than {Math.Max(Band, Upper)} bound levels");
 
     /// <summary>d(quantity)/d(quantity of a layer) from the exact edge sensitivities, or null where an edge has none.</summary>
     public double? Derivative(EdgeSensitivities exact, int element, LayerQuantity quantity) => What switch
@@ -143,7 +151,10 @@ internal sealed class DesignSolution(BandStructure? bands, StackQuantities? stac
 internal sealed class DesignModel(JsonObject structure, IReadOnlyList<string> fields, IReadOnlyList<(int Element, LayerQuantity Quantity)> layers,
     IReadOnlyList<DesignQuantity> targets)
 {
-    /// <summary>The targets' values and d(value)/d(field) at the given field values.</summary>
+    /// <summary>
+    /// The targets' values and d(value)/d(field) at the given field values; a target the design does not have (fewer
+    /// levels or resonances than it names) is NaN, with a zero row of the Jacobian.
+    /// </summary>
     public (double[] Values, double[,] Jacobian) Evaluate(ReadOnlySpan<double> parameters)
     {
         var solved = Solve(parameters);
@@ -151,7 +162,12 @@ internal sealed class DesignModel(JsonObject structure, IReadOnlyList<string> fi
         var jacobian = new double[targets.Count, fields.Count];
         for (var i = 0; i < targets.Count; i++)
         {
-            values[i] = targets[i].Value(solved);
+            if (targets[i].Value(solved) is not { } value)
+            {
+                values[i] = double.NaN;
+                continue;
+            }
+            values[i] = value;
             for (var j = 0; j < fields.Count; j++)
             {
                 jacobian[i, j] = targets[i].Derivative(solved, layers[j].Element, layers[j].Quantity)
@@ -161,11 +177,11 @@ internal sealed class DesignModel(JsonObject structure, IReadOnlyList<string> fi
         return (values, jacobian);
     }
 
-    /// <summary>The targets' values of the structure with <paramref name="edit"/> applied (for the tolerance table).</summary>
+    /// <summary>The targets' values of the structure with <paramref name="edit"/> applied (for the tolerance table); NaN for a target the design does not have.</summary>
     public double[] Values(ReadOnlySpan<double> parameters, Action<JsonObject>? edit = null)
     {
         var solved = Solve(parameters, edit);
-        return targets.Select(t => t.Value(solved)).ToArray();
+        return targets.Select(t => t.Value(solved) ?? double.NaN).ToArray();
     }
 
     /// <summary>Each target's derivative with respect to one layer quantity at the given field values (null where none exists).</summary>

@@ -158,7 +158,10 @@ internal sealed class SweepSpec
         switch (node)
         {
             case JsonObject inline:
-                return ((JsonObject)inline.DeepClone(), "inline", Encoding.UTF8.GetBytes(inline.ToJsonString()));
+                // An inline structure needs no name: it is named after the file that holds it.
+                var structure = (JsonObject)inline.DeepClone();
+                structure["name"] ??= $"inline structure of {Path.GetFileName(path)}";
+                return (structure, "inline", Encoding.UTF8.GetBytes(inline.ToJsonString()));
             case JsonValue value when value.TryGetValue<string>(out var relative):
                 var full = Path.Combine(Path.GetDirectoryName(Path.GetFullPath(path))!, relative);
                 if (!File.Exists(full))
@@ -291,9 +294,10 @@ internal sealed class SweepSpec
                         var item = list[i] is JsonValue t && t.TryGetValue<string>(out var text) ? System.Text.RegularExpressions.Regex.Match(text, @"^(\d{1,3})-(\d{1,3})$") : null;
                         int from = 0, to = 0;
                         if (item is not { Success: true } || !int.TryParse(item.Groups[1].Value, NumberStyles.None, CultureInfo.InvariantCulture, out from)
-                            || !int.TryParse(item.Groups[2].Value, NumberStyles.None, CultureInfo.InvariantCulture, out to) || from < 1 || to <= from)
+                            || !int.TryParse(item.Groups[2].Value, NumberStyles.None, CultureInfo.InvariantCulture, out to) || from < 1 || to <= from || to > MaximumStackQuantities)
                         {
-                            throw Bad(path, string.Create(CultureInfo.InvariantCulture, $"outputs.transitions[{i}]"), $"must be \"I-J\" with bound levels 1 ≤ I < J ≤ 999; got {list[i]?.ToJsonString() ?? "null"}.");
+                            throw Bad(path, string.Create(CultureInfo.InvariantCulture, $"outputs.transitions[{i}]"), string.Create(CultureInfo.InvariantCulture,
+                                $"must be \"I-J\" with bound levels 1 ≤ I < J ≤ {MaximumStackQuantities}; got {list[i]?.ToJsonString() ?? "null"}."));
                         }
                         transitions.Add((from, to));
                     }

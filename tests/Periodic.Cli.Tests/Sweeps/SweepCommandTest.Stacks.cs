@@ -120,6 +120,7 @@ public sealed partial class SweepCommandTest
     [Theory]
     [InlineData("\"2-1\"", "outputs.transitions[0]")]
     [InlineData("\"1-x\"", "outputs.transitions[0]")]
+    [InlineData("\"1-101\"", "outputs.transitions[0]")]
     public void Sweep_BadTransition_IsRefusedNamingIt(string transition, string field)
     {
         var folder = Folder();

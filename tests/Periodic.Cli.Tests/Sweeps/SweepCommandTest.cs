@@ -176,6 +176,19 @@ public sealed partial class SweepCommandTest
     }
 
     [Fact]
+    public void Sweep_InlineStructureWithoutName_IsSolved()
+    {
+        var folder = Folder();
+        var spec = Path.Combine(folder, "sweep.json");
+        File.WriteAllText(spec, """{"structure": {"cell": [{"width": 6, "potential": 0, "mass": 0.067}, {"width": 2, "potential": 0.3, "mass": 0.067}]}, "parameters": [{"field": "cell[0].width", "values": [3, 9]}], "outputs": {"bands": 1}}""");
+        var output = Path.Combine(folder, "o.csv");
+        var run = ToolRunner.Invoke("sweep", spec, "--out", output);
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        Assert.Contains("0 failed", run.Stdout);
+        Assert.All(File.ReadAllLines(output)[1..], line => Assert.EndsWith(",", line, StringComparison.Ordinal));
+    }
+
+    [Fact]
     public void Sweep_InvalidLayerInARange_IsARowWithItsError()
     {
         var folder = Folder();
