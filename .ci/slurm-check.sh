@@ -15,12 +15,24 @@ if ! command -v slurmctld >/dev/null || ! command -v munged >/dev/null; then
 fi
 WORK="$(mktemp -d "${TMPDIR:-/tmp}/periodic-slurm.XXXXXX")"
 chmod 755 "$WORK"
+# Stops the daemon whose pid file is $1 and waits (up to 10 s) until it has exited: slurmctld writes its state into
+# $WORK/state while it shuts down, so removing $WORK before it is gone can fail on a directory that is filling up.
+stop_daemon() {
+    [ -f "$1" ] || return 0
+    local pid
+    pid="$(cat "$1")"
+    kill "$pid" 2>/dev/null || return 0
+    for _ in $(seq 100); do kill -0 "$pid" 2>/dev/null || return 0; sleep 0.1; done
+    kill -9 "$pid" 2>/dev/null || true
+}
 cleanup() {
+    local status=$?
     scancel --user=root >/dev/null 2>&1 || true
-    [ -f "$WORK/slurmd.pid" ] && kill "$(cat "$WORK/slurmd.pid")" 2>/dev/null || true
-    [ -f "$WORK/slurmctld.pid" ] && kill "$(cat "$WORK/slurmctld.pid")" 2>/dev/null || true
-    [ -f /run/munge/periodic-ci.pid ] && kill "$(cat /run/munge/periodic-ci.pid)" 2>/dev/null || true
-    rm -rf "$WORK"
+    stop_daemon "$WORK/slurmd.pid"
+    stop_daemon "$WORK/slurmctld.pid"
+    stop_daemon /run/munge/periodic-ci.pid
+    rm -rf "$WORK" || { sleep 1; rm -rf "$WORK"; } || echo "slurm-check: could not remove $WORK (left behind)" >&2
+    exit "$status"
 }
 trap cleanup EXIT
 
