@@ -90,12 +90,22 @@ internal static class AbsorptionCommand
             {
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--repeats must lie in [1, 100000]; got {copies}."));
             }
-            foreach (var path in new[] { result.GetValue(plot), result.GetValue(plotLevels) })
+            // Every output path is checked before anything is computed or written, so a bad picture path leaves no --out file behind.
+            foreach (var (name, path) in new[] { ("--plot", result.GetValue(plot)), ("--plot-levels", result.GetValue(plotLevels)) })
             {
-                if (path is not null && Path.GetExtension(path).ToLowerInvariant() is not (".png" or ".svg"))
+                if (path is null)
                 {
-                    throw new UsageException($"--plot and --plot-levels must end in .png or .svg; got \"{path}\".");
+                    continue;
                 }
+                if (Path.GetExtension(path).ToLowerInvariant() is not (".png" or ".svg"))
+                {
+                    throw new UsageException($"{name} must end in .png or .svg; got {Printable.Quote(path)}.");
+                }
+                OutputFile.Validate(path, name);
+            }
+            if (result.GetValue(output) is { } outPath)
+            {
+                OutputFile.Validate(outPath);
             }
             var hasGrid = result.GetValue(grid.From) is not null || result.GetValue(grid.To) is not null || result.GetValue(grid.Points) is not null || result.GetValue(grid.Energies) is not null;
             var given = hasGrid ? grid.Read(result) : null;
@@ -122,19 +132,19 @@ internal static class AbsorptionCommand
             }
             // Render everything before writing anything, so that a failure leaves no partial output.
             var text = Render(structure, absorption, energies, alpha, format);
-            var pictures = new List<(string Path, Plot Plot)>();
+            var pictures = new List<(string Option, string Path, Plot Plot)>();
             if (result.GetValue(plot) is { } alphaPath)
             {
-                pictures.Add((alphaPath, AlphaPlot(structure, absorption, energies, alpha)));
+                pictures.Add(("--plot", alphaPath, AlphaPlot(structure, absorption, energies, alpha)));
             }
             if (result.GetValue(plotLevels) is { } levelsPath)
             {
-                pictures.Add((levelsPath, LevelsPlot(structure, spectrum)));
+                pictures.Add(("--plot-levels", levelsPath, LevelsPlot(structure, spectrum)));
             }
             Common.Emit(text, result.GetValue(output));
-            foreach (var (path, picture) in pictures)
+            foreach (var (option, path, picture) in pictures)
             {
-                Save(picture, path);
+                Save(picture, path, option);
                 Console.Error.WriteLine($"wrote {path}");
             }
             return 0;
@@ -311,16 +321,16 @@ internal static class AbsorptionCommand
         return plot;
     }
 
-    private static void Save(Plot plot, string path)
+    private static void Save(Plot plot, string path, string option)
     {
         if (Path.GetExtension(path).Equals(".svg", StringComparison.OrdinalIgnoreCase))
         {
-            OutputFile.WriteText(path, plot.GetSvgXml(900, 600));
+            OutputFile.WriteText(path, plot.GetSvgXml(900, 600), option);
         }
         else
         {
             var bytes = plot.GetImage(900, 600).GetImageBytes(ImageFormat.Png);
-            OutputFile.WriteAtomically(path, stream => stream.Write(bytes));
+            OutputFile.WriteAtomically(path, stream => stream.Write(bytes), option);
         }
     }
 }

@@ -100,6 +100,25 @@ public sealed class OpticsCommandsTest
     }
 
     [Fact]
+    public void Absorption_PictureInMissingDirectory_NamesPlotAndLeavesNoOutFile()
+    {
+        var file = FiniteWell(8, 0.3, 0.067);
+        var directory = Path.GetDirectoryName(file)!;
+        var table = Path.Combine(directory, "alpha.csv");
+        var picture = Path.Combine(directory, "alpha.png");
+        var missing = Path.Combine(directory, "missing", "levels.svg");
+        var run = ToolRunner.Invoke("absorption", file, "--density", "1e11", "--csv", "--out", table, "--plot", picture, "--plot-levels", missing);
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("--plot-levels", run.Stderr);
+        Assert.DoesNotContain("--out", run.Stderr);
+        Assert.False(File.Exists(table));
+        Assert.False(File.Exists(picture));
+        run = ToolRunner.Invoke("absorption", file, "--density", "1e11", "--plot", directory + "/");
+        Assert.Equal(2, run.ExitCode);
+        Assert.StartsWith("periodic: error: --plot ", run.Stderr);
+    }
+
+    [Fact]
     public void Transitions_Bias_ReportsItAndShiftsSymmetricStackByHalf()
     {
         // A symmetric stack under a small bias eU: each level moves by −eU/2 to first order (Hellmann–Feynman with V = −eU·x/L,
