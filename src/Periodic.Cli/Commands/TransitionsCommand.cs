@@ -287,15 +287,17 @@ internal static class TransitionsCommand
         }
         var csv = format == OutputFormat.Csv;
         var table = new Table("from", "to", csv ? "energy (eV)" : "energy (meV)", "wavelength (um)", "|z| (nm)", "f", "f_p", "kind", "domain start (nm)", "domain end (nm)", "domain change", "status");
+        // A number that does not exist (an unresolved transition, no momentum form) is "n/a" in the table and an empty cell in the CSV.
+        var missing = csv ? "" : "n/a";
         foreach (var t in spectrum.Transitions)
         {
             var domain = Domain(spectrum, t);
             table.Add(Table.Integer(t.From), Table.Integer(t.To),
                 csv ? R(t.EnergyElectronVolts) : Table.Number(t.EnergyElectronVolts * 1000, "F4"),
                 csv ? R(t.WavelengthMicrometres) : Table.Number(t.WavelengthMicrometres, "G6"),
-                t.IsResolved ? (csv ? R(Math.Abs(t.DipoleNanometres)) : Table.Number(Math.Abs(t.DipoleNanometres), "G8")) : "n/a",
-                t.IsResolved ? (csv ? R(t.OscillatorStrength) : Table.Number(t.OscillatorStrength, "G8")) : "n/a",
-                t.HasMomentumForm ? (csv ? R(t.MomentumOscillatorStrength) : Table.Number(t.MomentumOscillatorStrength, "G8")) : "n/a",
+                t.IsResolved ? (csv ? R(Math.Abs(t.DipoleNanometres)) : Table.Number(Math.Abs(t.DipoleNanometres), "G8")) : missing,
+                t.IsResolved ? (csv ? R(t.OscillatorStrength) : Table.Number(t.OscillatorStrength, "G8")) : missing,
+                t.HasMomentumForm ? (csv ? R(t.MomentumOscillatorStrength) : Table.Number(t.MomentumOscillatorStrength, "G8")) : missing,
                 Kind(spectrum, t),
                 domain is { } a ? (csv ? R(a.Start) : Table.Number(a.Start, "G6")) : "",
                 domain is { } b ? (csv ? R(b.End) : Table.Number(b.End, "G6")) : "",
@@ -314,13 +316,21 @@ internal static class TransitionsCommand
                 $"quasi-bound levels are normalised on [{q.DomainStartNanometres:G6}, {q.DomainEndNanometres:G6}] nm (the stack plus a margin of each lead); 'domain change' is the change of |z| when the margin is doubled\n");
         }
         text += "levels (eV): " + string.Join(", ", spectrum.Levels.Select(l => string.Create(CultureInfo.InvariantCulture,
-            $"{l.Number}: {l.EnergyElectronVolts:G8}{(l.IsQuasiBound ? string.Create(CultureInfo.InvariantCulture, $" (quasi-bound, width {l.WidthElectronVolts:G3})") : "")}"))) + "\n\n";
+            $"{l.Number}: {l.EnergyElectronVolts:G8}{(l.IsQuasiBound ? $" (quasi-bound, {LevelWidth(l.WidthElectronVolts)})" : "")}"))) + "\n\n";
         text += table.ToText();
         var sum = spectrum.SumRule(1);
         text += string.Create(CultureInfo.InvariantCulture,
             $"\nf-sum from level 1: {sum.BoundStrength:G8} (bound) + {sum.QuasiBoundStrength:G8} (quasi-bound) of {sum.ExpectedStrength:G8}; the rest, {sum.MissingStrength:G4}, lies in the continuum.\n");
         return text + IntersubbandLimits + "\n";
     }
+
+    /// <summary>
+    /// A quasi-bound level's width for the table: the FWHM of its transmission peak, or, where T stays above half its peak on a
+    /// side (a broad continuum peak), no width at all (null in JSON, as for <c>resonances</c>).
+    /// </summary>
+    private static string LevelWidth(double widthElectronVolts) => double.IsFinite(widthElectronVolts)
+        ? string.Create(CultureInfo.InvariantCulture, $"width {widthElectronVolts:G3}")
+        : "no width: T stays above half its peak on a side";
 
     /// <summary>"bound-bound", "bound-quasi-bound" or "quasi-bound-quasi-bound".</summary>
     private static string Kind(IntersubbandSpectrum spectrum, IntersubbandTransition t) =>

@@ -155,6 +155,34 @@ public sealed class OpticsCommandsTest
         Assert.Contains("domain start (nm)", csv.Stdout.Split('\n')[0]);
     }
 
+    private const string BoundToContinuumWell =
+        """{"name": "bound-to-continuum well", "temperature": "77 K", "cell": [{"material": "Al0.25Ga0.75As", "width": "30 nm"}, {"material": "GaAs", "width": "4.5 nm"}, {"material": "Al0.25Ga0.75As", "width": "30 nm"}]}""";
+
+    [Fact]
+    public void Transitions_UnresolvedContinuumLevel_EmptyCsvCellsAndNoInfiniteWidth()
+    {
+        // A 4.5 nm GaAs well in Al0.25Ga0.75As binds one level; the next lies just above the barriers as a broad transmission peak
+        // (T stays above half on one side: no FWHM, JSON null) whose dipole depends on the domain (unresolved, JSON null).
+        var file = ToolRunner.TempFile(BoundToContinuumWell);
+        var json = ToolRunner.Invoke("transitions", file, "--continuum", "--json").Json();
+        var transition = json.GetProperty("transitions")[0];
+        Assert.False(transition.GetProperty("resolved").GetBoolean());
+        Assert.Equal(System.Text.Json.JsonValueKind.Null, transition.GetProperty("dipole").ValueKind);
+        Assert.Equal(System.Text.Json.JsonValueKind.Null, json.GetProperty("levels")[1].GetProperty("width").ValueKind);
+        // CSV: a number that does not exist is an empty cell (docs/cli.md, Output), never "n/a".
+        var csv = ToolRunner.Invoke("transitions", file, "--continuum", "--csv");
+        Assert.True(csv.ExitCode == 0, csv.Stderr);
+        var row = csv.Stdout.Split('\n')[1].Split(',');
+        Assert.Equal("bound-quasi-bound", row[7]);
+        Assert.Equal(["", "", ""], row[4..7]);
+        Assert.DoesNotContain("n/a", csv.Stdout);
+        // Table: the level without a width says so instead of printing "Infinity".
+        var table = ToolRunner.Invoke("transitions", file, "--continuum");
+        Assert.DoesNotContain("Infinity", table.Stdout);
+        Assert.Contains("2: 0.277", table.Stdout);
+        Assert.Contains("no width: T stays above half its peak on a side", table.Stdout);
+    }
+
     [Fact]
     public void Transitions_ContinuumUnderBias_GivesLevelBetweenLeadEdgesWithWidth()
     {
