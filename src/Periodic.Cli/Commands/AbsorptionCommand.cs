@@ -123,6 +123,7 @@ internal static class AbsorptionCommand
             var absorption = n is { } sheetDensity
                 ? AbsorptionSpectrum.Compute(spectrum, sheetDensity, options)
                 : AbsorptionSpectrum.ComputeAtFermiLevel(spectrum, ef!.Value, options);
+            var levelWarnings = stackOptions.CheckLevels(result, structure, spectrum);
             var energies = given ?? DefaultGrid(absorption);
             var alpha = new double[energies.Length];
             absorption.Evaluate(energies, alpha);
@@ -131,7 +132,7 @@ internal static class AbsorptionCommand
                 Console.Error.WriteLine($"periodic: warning: {warning}");
             }
             // Render everything before writing anything, so that a failure leaves no partial output.
-            var text = Render(structure, absorption, energies, alpha, format);
+            var text = Render(structure, absorption, energies, alpha, format, levelWarnings);
             var pictures = new List<(string Option, string Path, Plot Plot)>();
             if (result.GetValue(plot) is { } alphaPath)
             {
@@ -169,13 +170,14 @@ internal static class AbsorptionCommand
 
     private static string R(double value) => Table.Number(value, "R");
 
-    private static string Render(StructureDefinition structure, AbsorptionSpectrum absorption, double[] energies, double[] alpha, OutputFormat format)
+    private static string Render(StructureDefinition structure, AbsorptionSpectrum absorption, double[] energies, double[] alpha, OutputFormat format,
+        IReadOnlyList<Periodic.Materials.ModelWarning> levelWarnings)
     {
         if (format == OutputFormat.Json)
         {
             return Common.Json(w =>
             {
-                Common.StructureHeader(w, structure);
+                Common.StructureHeader(w, structure, levelWarnings);
                 Common.Units(w, ("energy", "eV"), ("alpha", "1/cm"), ("density", "1/cm^2"), ("dipole", "nm"), ("thickness", "nm"), ("temperature", "K"), ("linewidth", "eV"));
                 w.WriteString("model", TransitionsCommand.IntersubbandLimits + " Only bound levels hold electrons; the line width is an input.");
                 w.WriteNumber("temperature", absorption.Options.TemperatureKelvin);

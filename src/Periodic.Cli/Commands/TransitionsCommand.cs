@@ -105,6 +105,18 @@ internal static class TransitionsCommand
             }
             return TransmissionCommand.BuildStack(structure, n, potential, mass);
         }
+
+        /// <summary>
+        /// The model's warnings about the levels of <paramref name="spectrum"/> (a level far above a layer's band edge, where the
+        /// single-band mass is poor), printed on stderr; none when the spectrum is of another band than the file's materials.
+        /// </summary>
+        public IReadOnlyList<ModelWarning> CheckLevels(ParseResult result, StructureDefinition structure, IntersubbandSpectrum spectrum)
+        {
+            var wanted = result.GetValue(Carrier) switch { "heavy-hole" => Materials.Carrier.HeavyHole, "light-hole" => Materials.Carrier.LightHole, _ => Materials.Carrier.Electron };
+            return structure.Materials is { } built && built.Carrier == wanted
+                ? Common.CheckEnergies(structure, spectrum.Levels.Select(l => l.EnergyElectronVolts).ToArray())
+                : [];
+        }
     }
 
     public static Command Create()
@@ -159,7 +171,8 @@ internal static class TransitionsCommand
                 var stack = stackOptions.Build(result, structure);
                 var options = IntersubbandOptions.Create(referenceMassElectronMasses: m, includeQuasiBound: result.GetValue(continuum),
                     domainMarginNanometres: d ?? IntersubbandOptions.DefaultDomainMarginNanometres);
-                text = Render(structure, Compute(stack, ChooseBias(result, stackOptions, structure), options), format);
+                var spectrum = Compute(stack, ChooseBias(result, stackOptions, structure), options);
+                text = Render(structure, spectrum, format, stackOptions.CheckLevels(result, structure, spectrum));
             }
             Common.Emit(text, result.GetValue(output));
             return 0;
@@ -196,13 +209,13 @@ internal static class TransitionsCommand
         return IntersubbandSpectrum.ComputeUnderBias(stack, Energy.FromElectronVolts(bias.ElectronVolts), options);
     }
 
-    public static string Render(StructureDefinition structure, IntersubbandSpectrum spectrum, OutputFormat format)
+    public static string Render(StructureDefinition structure, IntersubbandSpectrum spectrum, OutputFormat format, IReadOnlyList<ModelWarning> warnings)
     {
         if (format == OutputFormat.Json)
         {
             return Common.Json(w =>
             {
-                Common.StructureHeader(w, structure);
+                Common.StructureHeader(w, structure, warnings);
                 Common.Units(w, ("energy", "eV"), ("dipole", "nm"), ("wavelength", "um"), ("width", "eV"), ("mass", "m0"), ("thickness", "nm"), ("bias", "eV"), ("domain", "nm"));
                 w.WriteString("model", IntersubbandLimits);
                 w.WriteNumber("referenceMass", spectrum.ReferenceMassElectronMasses);

@@ -184,6 +184,23 @@ public sealed class OpticsCommandsTest
     }
 
     [Fact]
+    public void TransitionsAndAbsorption_LevelFarAboveWellEdge_WarnAsLevelsDoes()
+    {
+        // The quasi-bound level at 0.277 eV lies 0.18 Eg above the GaAs edge (Eg = 1.508 eV at 77 K), beyond the parabolic mass's
+        // 0.1 Eg (docs/materials.md): every command that reports such a level warns, on stderr and in structure.warnings.
+        var file = ToolRunner.TempFile(BoundToContinuumWell);
+        var run = ToolRunner.Invoke("transitions", file, "--continuum", "--json");
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        Assert.Contains("Eg above the band edge of GaAs", run.Stderr);
+        Assert.Contains(run.Json().GetProperty("structure").GetProperty("warnings").EnumerateArray(), w => w.GetString()!.Contains("E = 0.277", StringComparison.Ordinal));
+        var absorption = ToolRunner.Invoke("absorption", file, "--continuum", "--density", "1e11", "--json");
+        Assert.True(absorption.ExitCode == 0, absorption.Stderr);
+        Assert.Contains(absorption.Json().GetProperty("structure").GetProperty("warnings").EnumerateArray(), w => w.GetString()!.Contains("E = 0.277", StringComparison.Ordinal));
+        // The bound level alone (0.082 eV, 0.05 Eg) draws no warning.
+        Assert.DoesNotContain("Eg above", ToolRunner.Invoke("transitions", file).Stderr);
+    }
+
+    [Fact]
     public void Transitions_ContinuumUnderBias_GivesLevelBetweenLeadEdgesWithWidth()
     {
         // A 10 nm well between 15 nm barriers 0.4 eV high: under eU = 0.25 eV the right lead's edge is at 0.15 eV and the third
