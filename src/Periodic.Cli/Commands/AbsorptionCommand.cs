@@ -109,9 +109,10 @@ internal static class AbsorptionCommand
             }
             var hasGrid = result.GetValue(grid.From) is not null || result.GetValue(grid.To) is not null || result.GetValue(grid.Points) is not null || result.GetValue(grid.Energies) is not null;
             var given = hasGrid ? grid.Read(result) : null;
-            if (given is not null && given.Any(e => !(e > 0)))
+            if (given is not null && Array.FindIndex(given, e => !(e > 0)) is var bad and >= 0)
             {
-                throw new UsageException("photon energies must be positive (eV).");
+                var option = result.GetValue(grid.Energies) is not null ? string.Create(CultureInfo.InvariantCulture, $"--energies: item {bad + 1}") : bad == 0 ? "--from" : "--to";
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"{option} is {given[bad]:R} eV, but photon energies must be positive (above 0 eV)."));
             }
             var structure = Common.LoadStack(result, result.GetValue(file)!, "absorption", result.GetValue(stackOptions.Bias), usesBias: true);
             var stack = stackOptions.Build(result, structure);

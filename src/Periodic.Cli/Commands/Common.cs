@@ -674,7 +674,10 @@ internal sealed class EnergyGridOptions
         }
         if (from is null || to is null || points is null)
         {
-            throw new UsageException("give the energies: --from E --to E --points N, or --energies e1,e2,... (eV).");
+            var missing = string.Join(" and ", new[] { from is null ? "--from" : null, to is null ? "--to" : null, points is null ? "--points" : null }.OfType<string>());
+            throw new UsageException(from is null && to is null && points is null
+                ? "give the energies: --from E --to E --points N, or --energies e1,e2,... (eV)."
+                : $"{missing} missing: give all of --from E --to E --points N, or --energies e1,e2,... (eV).");
         }
         if (!double.IsFinite(from.Value) || !double.IsFinite(to.Value) || !(to.Value > from.Value))
         {

@@ -73,6 +73,31 @@ public sealed class OpticsCommandsTest
     }
 
     [Fact]
+    public void Absorption_BadGrid_NamesTheOptionAndValue()
+    {
+        var file = FiniteWell(8, 0.3, 0.067);
+        var run = ToolRunner.Invoke("absorption", file, "--density", "1e11", "--energies", "0.1,-0.1");
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("--energies: item 2 is -0.1 eV", run.Stderr);
+        run = ToolRunner.Invoke("absorption", file, "--density", "1e11", "--from", "-0.1", "--to", "0.2", "--points", "3");
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("--from is -0.1 eV", run.Stderr);
+        run = ToolRunner.Invoke("absorption", file, "--density", "1e11", "--points", "11");
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("--from and --to missing", run.Stderr);
+    }
+
+    [Fact]
+    public void Absorption_FermiLevelAboveContinuum_WarningSaysAbove()
+    {
+        // The well's continuum starts at its 0.3 eV leads; a Fermi level of 1 eV lies 0.7 eV above it, not "within 5 kT".
+        var run = ToolRunner.Invoke("absorption", FiniteWell(8, 0.3, 0.067), "--fermi", "1");
+        Assert.Equal(0, run.ExitCode);
+        Assert.Contains("lies 0.7 eV above the continuum edge 0.3 eV", run.Stderr);
+        Assert.DoesNotContain("within 5 kT", run.Stderr);
+    }
+
+    [Fact]
     public void Transitions_NoBoundState_ExitsTwo()
     {
         var file = ToolRunner.TempFile("""{"name": "barrier", "cell": [{"width": 5, "potential": 0.3, "mass": 0.067}], "stack": {"periods": 1, "leads": {"potential": 0, "mass": 0.067}}}""");
