@@ -20,9 +20,9 @@ internal static class AbsorptionCommand
     {
         var file = Common.FileArgument();
         var stackOptions = new TransitionsCommand.StackOptions();
-        var temperature = Common.NumberOption("--temperature", "K", "77", "Temperature, K (0.1 to 1000; default 77).");
-        var density = Common.NumberOption("--density", "cm^-2", "1e11", "Electrons in the whole stack per cm^2 (give this or --fermi).");
-        var fermi = Common.NumberOption("--fermi", "eV", "0.05", "Fermi level, eV on the stack's energy scale (give this or --density).");
+        var temperature = Common.NumberOption("--temperature", "K", "77", "Temperature, K (0.1 to 1000; default 77, or with a doped file's own Fermi level the temperature it was solved at).");
+        var density = Common.NumberOption("--density", "cm^-2", "1e11", "Electrons in the whole stack per cm^2 (give this or --fermi; a doped file: default its self-consistent Fermi level).");
+        var fermi = Common.NumberOption("--fermi", "eV", "0.05", "Fermi level, eV on the stack's energy scale (give this or --density; a doped file: default its self-consistent Fermi level).");
         var linewidth = Common.NumberOption("--linewidth", "eV", "0.005", "Full width at half maximum of each line, eV (default 0.005).");
         var shape = new Option<string>("--shape") { Description = "Line shape: lorentzian (default) or gaussian.", DefaultValueFactory = _ => "lorentzian" };
         shape.AcceptOnlyFromAmong("lorentzian", "gaussian");
@@ -62,7 +62,7 @@ internal static class AbsorptionCommand
             }
             var n = result.GetValue(density);
             var ef = result.GetValue(fermi);
-            if ((n is null) == (ef is null))
+            if (n is not null && ef is not null)
             {
                 throw new UsageException("give exactly one of --density (cm^-2) and --fermi (eV).");
             }
@@ -115,6 +115,19 @@ internal static class AbsorptionCommand
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"{option} is {given[bad]:R} eV, but photon energies must be positive (above 0 eV)."));
             }
             var structure = Common.LoadStack(result, result.GetValue(file)!, "absorption", result.GetValue(stackOptions.Bias), usesBias: true);
+            // A doped file solved self-consistently has its electrons already: its Fermi level is the default.
+            var selfConsistent = (Periodic.SpaceCharge.SelfConsistentSolution?)structure.SelfConsistentStack ?? structure.SelfConsistent;
+            var fermiSource = n is not null ? "--density" : ef is not null ? "--fermi" : "self-consistent";
+            if (n is null && ef is null && selfConsistent is not null && result.GetValue(temperature) is null)
+            {
+                // The Fermi level belongs to the solution's temperature.
+                t = Math.Clamp(selfConsistent.TemperatureKelvin, AbsorptionOptions.MinTemperatureKelvin, AbsorptionOptions.MaxTemperatureKelvin);
+            }
+            if (n is null && ef is null)
+            {
+                ef = selfConsistent?.FermiLevelElectronVolts
+                    ?? throw new UsageException("give exactly one of --density (cm^-2) and --fermi (eV); only a doped file (solved self-consistently) has a Fermi level of its own.");
+            }
             var stack = stackOptions.Build(result, structure);
             var spectrum = TransitionsCommand.Compute(stack, TransitionsCommand.ChooseBias(result, stackOptions, structure),
                 result.GetValue(continuum) ? IntersubbandOptions.Create(includeQuasiBound: true) : null);
@@ -133,7 +146,7 @@ internal static class AbsorptionCommand
                 Console.Error.WriteLine($"periodic: warning: {warning}");
             }
             // Render everything before writing anything, so that a failure leaves no partial output.
-            var text = Render(structure, absorption, energies, alpha, format, levelWarnings);
+            var text = Render(structure, absorption, energies, alpha, format, levelWarnings, fermiSource);
             var pictures = new List<(string Option, string Path, Plot Plot)>();
             if (result.GetValue(plot) is { } alphaPath)
             {
@@ -172,7 +185,7 @@ internal static class AbsorptionCommand
     private static string R(double value) => Table.Number(value, "R");
 
     private static string Render(StructureDefinition structure, AbsorptionSpectrum absorption, double[] energies, double[] alpha, OutputFormat format,
-        IReadOnlyList<Periodic.Materials.ModelWarning> levelWarnings)
+        IReadOnlyList<Periodic.Materials.ModelWarning> levelWarnings, string fermiSource)
     {
         if (format == OutputFormat.Json)
         {
@@ -183,6 +196,7 @@ internal static class AbsorptionCommand
                 w.WriteString("model", TransitionsCommand.IntersubbandLimits + " Only bound levels hold electrons; the line width is an input.");
                 w.WriteNumber("temperature", absorption.Options.TemperatureKelvin);
                 w.WriteNumber("fermiLevel", absorption.FermiLevelElectronVolts);
+                w.WriteString("fermiLevelSource", fermiSource);
                 w.WriteNumber("density", absorption.SheetDensityPerSquareCentimetre);
                 w.WriteNumber("linewidth", absorption.Options.LinewidthElectronVolts);
                 w.WriteString("shape", absorption.Options.Shape == LineShape.Gaussian ? "gaussian" : "lorentzian");
@@ -243,7 +257,7 @@ internal static class AbsorptionCommand
             return table.ToCsv();
         }
         var head = Common.TableTitle(structure) + string.Create(CultureInfo.InvariantCulture,
-            $"{absorption.Options.TemperatureKelvin:G6} K, E_F = {absorption.FermiLevelElectronVolts:G8} eV, {absorption.SheetDensityPerSquareCentimetre:G4} cm^-2 in {Common.Plural(absorption.Spectrum.BoundCount, "level")}, FWHM {absorption.Options.LinewidthElectronVolts * 1000:G4} meV, n = {absorption.Options.RefractiveIndex:G4}, alpha averaged over {absorption.ThicknessNanometres:G6} nm, {(absorption.Options.PassRepeats == 1 ? "1 copy" : $"{absorption.Options.PassRepeats} copies")} per pass\n");
+            $"{absorption.Options.TemperatureKelvin:G6} K, E_F = {absorption.FermiLevelElectronVolts:G8} eV{(fermiSource == "self-consistent" ? " (the doped file's self-consistent Fermi level)" : "")}, {absorption.SheetDensityPerSquareCentimetre:G4} cm^-2 in {Common.Plural(absorption.Spectrum.BoundCount, "level")}, FWHM {absorption.Options.LinewidthElectronVolts * 1000:G4} meV, n = {absorption.Options.RefractiveIndex:G4}, alpha averaged over {absorption.ThicknessNanometres:G6} nm, {(absorption.Options.PassRepeats == 1 ? "1 copy" : $"{absorption.Options.PassRepeats} copies")} per pass\n");
         foreach (var line in absorption.Lines.Where(l => l.DensityDifferencePerSquareCentimetre != 0))
         {
             head += string.Create(CultureInfo.InvariantCulture,

@@ -98,6 +98,27 @@ public sealed class OpticsCommandsTest
     }
 
     [Fact]
+    public void Absorption_DopedFile_DefaultsToItsSelfConsistentFermiLevel()
+    {
+        // The modulation-doped well holds the electrons of its two 5e11 cm^-2 donor sheets: absorption needs no --density, takes the
+        // solution's Fermi level (the one levels reports) and finds about 1e12 cm^-2 in the bound levels (neutrality; the rest of
+        // the closed domain's electrons sit in box states above the leads' edges, which absorption does not count).
+        var example = ToolRunner.Example("modulation-doped-well.json");
+        var levels = ToolRunner.Invoke("levels", example, "--json");
+        var run = ToolRunner.Invoke("absorption", example, "--json");
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        var json = run.Json();
+        Assert.Equal(levels.Json().GetProperty("selfConsistent").GetProperty("fermiLevel").GetDouble(), json.GetProperty("fermiLevel").GetDouble());
+        Assert.Equal("self-consistent", json.GetProperty("fermiLevelSource").GetString());
+        Assert.Equal(77, json.GetProperty("temperature").GetDouble());
+        Assert.Equal(1e12, json.GetProperty("density").GetDouble(), 0.01e12);
+        // An undoped file still needs one of them.
+        run = ToolRunner.Invoke("absorption", FiniteWell(8, 0.3, 0.067));
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("--density", run.Stderr);
+    }
+
+    [Fact]
     public void Transitions_NoBoundState_ExitsTwo()
     {
         var file = ToolRunner.TempFile("""{"name": "barrier", "cell": [{"width": 5, "potential": 0.3, "mass": 0.067}], "stack": {"periods": 1, "leads": {"potential": 0, "mass": 0.067}}}""");
