@@ -130,7 +130,7 @@ internal static class AbsorptionCommand
             }
             var stack = stackOptions.Build(result, structure);
             var spectrum = TransitionsCommand.Compute(stack, TransitionsCommand.ChooseBias(result, stackOptions, structure),
-                result.GetValue(continuum) ? IntersubbandOptions.Create(includeQuasiBound: true) : null);
+                result.GetValue(continuum) ? IntersubbandOptions.Create(includeQuasiBound: true) : null, stackOptions.DefaultLeadsHint(result, structure, stack));
             var options = AbsorptionOptions.Create(temperatureKelvin: t, linewidthElectronVolts: gamma,
                 shape: result.GetValue(shape) == "gaussian" ? LineShape.Gaussian : LineShape.Lorentzian, refractiveIndex: refractive,
                 depolarisation: result.GetValue(depolarisation), relativePermittivity: eps, passRepeats: copies);

@@ -47,6 +47,10 @@ internal static class TransitionsCommand
         public void AddTo(Command command, bool withInterband)
         {
             Carrier.AcceptOnlyFromAmong(withInterband ? Carriers : Carriers[..3]);
+            if (!withInterband)
+            {
+                Carrier.Description = "electron (default: the file's own carrier and stack), heavy-hole or light-hole (intersubband in that band; files with materials).";
+            }
             command.Options.Add(Carrier);
             command.Options.Add(Periods);
             command.Options.Add(LeadPotential);
@@ -104,6 +108,21 @@ internal static class TransitionsCommand
                 throw new UsageException($"--carrier {carrier} needs a structure built from materials (the file gives potentials directly).");
             }
             return TransmissionCommand.BuildStack(structure, n, potential, mass);
+        }
+
+        /// <summary>
+        /// Where the leads of <see cref="Build"/> came from when nothing chose them (no stack in the file, no lead options, the
+        /// file's own carrier): a hint for a stack that binds nothing because its leads are the cell's first layer; else null.
+        /// </summary>
+        public string? DefaultLeadsHint(ParseResult result, StructureDefinition structure, LayerStack stack)
+        {
+            if (structure.Stack is not null || structure.SelfConsistentStack is not null || result.GetValue(LeadPotential) is not null
+                || result.GetValue(LeadMass) is not null || result.GetValue(Carrier) != "electron" || !structure.Cell.Elements.OfType<Structures.Layer>().Any())
+            {
+                return null;
+            }
+            return string.Create(CultureInfo.InvariantCulture,
+                $"The file has no \"stack\", so both leads are like the cell's first layer (V = {stack.LeftLead.Potential.ElectronVolts:G6} eV); to confine the wells, start the cell with a barrier, give the file a stack with \"leads\" of the barrier's material or potential, or use --lead-potential.");
         }
 
         /// <summary>
@@ -171,7 +190,7 @@ internal static class TransitionsCommand
                 var stack = stackOptions.Build(result, structure);
                 var options = IntersubbandOptions.Create(referenceMassElectronMasses: m, includeQuasiBound: result.GetValue(continuum),
                     domainMarginNanometres: d ?? IntersubbandOptions.DefaultDomainMarginNanometres);
-                var spectrum = Compute(stack, ChooseBias(result, stackOptions, structure), options);
+                var spectrum = Compute(stack, ChooseBias(result, stackOptions, structure), options, stackOptions.DefaultLeadsHint(result, structure, stack));
                 text = Render(structure, spectrum, format, stackOptions.CheckLevels(result, structure, spectrum));
             }
             Common.Emit(text, result.GetValue(output));
@@ -199,14 +218,25 @@ internal static class TransitionsCommand
     }
 
     /// <summary>The spectrum under <paramref name="bias"/>; the library's refusal of a bias (an element that cannot take a field, too many elements) becomes a usage error.</summary>
-    internal static IntersubbandSpectrum Compute(LayerStack stack, (double ElectronVolts, string Source) bias, IntersubbandOptions? options)
+    /// <param name="stack">The stack.</param>
+    /// <param name="bias">The bias and where it came from.</param>
+    /// <param name="options">The spectrum's options.</param>
+    /// <param name="leadsHint">Appended to the refusal of a stack without a bound level (see <see cref="StackOptions.DefaultLeadsHint"/>).</param>
+    internal static IntersubbandSpectrum Compute(LayerStack stack, (double ElectronVolts, string Source) bias, IntersubbandOptions? options, string? leadsHint)
     {
-        if (bias.ElectronVolts == 0)
+        try
         {
-            return IntersubbandSpectrum.Compute(stack, options);
+            if (bias.ElectronVolts == 0)
+            {
+                return IntersubbandSpectrum.Compute(stack, options);
+            }
+            TransmissionCommand.Compile(stack, bias.ElectronVolts, bias.Source); // validates the bias with the transmission's messages
+            return IntersubbandSpectrum.ComputeUnderBias(stack, Energy.FromElectronVolts(bias.ElectronVolts), options);
         }
-        TransmissionCommand.Compile(stack, bias.ElectronVolts, bias.Source); // validates the bias with the transmission's messages
-        return IntersubbandSpectrum.ComputeUnderBias(stack, Energy.FromElectronVolts(bias.ElectronVolts), options);
+        catch (ArgumentException e) when (leadsHint is not null && e.Message.StartsWith("stack has no bound state", StringComparison.Ordinal))
+        {
+            throw new UsageException(Common.Describe(e) + " " + leadsHint);
+        }
     }
 
     public static string Render(StructureDefinition structure, IntersubbandSpectrum spectrum, OutputFormat format, IReadOnlyList<ModelWarning> warnings)

@@ -119,6 +119,36 @@ public sealed class OpticsCommandsTest
     }
 
     [Fact]
+    public void Transitions_WellFirstWithoutStack_SaysTheLeadsAreTheWell()
+    {
+        // Without a stack both leads are the first layer: here the well, so nothing is bound, and the refusal says why and what to give.
+        var file = ToolRunner.TempFile("""{"name": "well first", "cell": [{"width": 5, "potential": 0, "mass": 0.067}, {"width": 20, "potential": 0.3, "mass": 0.067}]}""");
+        foreach (var command in new[] { "transitions", "absorption" })
+        {
+            var run = ToolRunner.Invoke(command, file, "--density", "1e11");
+            if (command == "transitions")
+            {
+                run = ToolRunner.Invoke(command, file);
+            }
+            Assert.Equal(2, run.ExitCode);
+            Assert.Contains("no bound state", run.Stderr);
+            Assert.Contains("The file has no \"stack\", so both leads are like the cell's first layer (V = 0 eV)", run.Stderr);
+            Assert.Contains("--lead-potential", run.Stderr);
+            Assert.Single(run.Stderr.Trim().Split('\n'));
+        }
+        Assert.Equal(0, ToolRunner.Invoke("transitions", file, "--lead-potential", "0.3").ExitCode);
+    }
+
+    [Fact]
+    public void Absorption_Help_OffersOnlyTheCarriersItTakes()
+    {
+        var run = ToolRunner.Invoke("absorption", "--help");
+        Assert.Equal(0, run.ExitCode);
+        Assert.DoesNotContain("interband", run.Stdout);
+        Assert.Contains("interband", ToolRunner.Invoke("transitions", "--help").Stdout);
+    }
+
+    [Fact]
     public void Transitions_NoBoundState_ExitsTwo()
     {
         var file = ToolRunner.TempFile("""{"name": "barrier", "cell": [{"width": 5, "potential": 0.3, "mass": 0.067}], "stack": {"periods": 1, "leads": {"potential": 0, "mass": 0.067}}}""");
