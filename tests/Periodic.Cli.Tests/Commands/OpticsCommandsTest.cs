@@ -148,6 +148,23 @@ public sealed class OpticsCommandsTest
         Assert.Contains("interband", ToolRunner.Invoke("transitions", "--help").Stdout);
     }
 
+    [Theory]
+    [InlineData("transitions")]
+    [InlineData("absorption")]
+    public void CliDoc_SynopsisListsEveryOptionOfTheCommand(string command)
+    {
+        // docs/cli.md's command table is where a user looks first: its row names every option that --help lists (the options
+        // every command takes, --help, --verbose and --no-space-charge, are described below the table).
+        var row = File.ReadLines(Path.Combine(ToolRunner.RepositoryRoot, "docs", "cli.md")).Single(l => l.StartsWith($"| `{command} FILE", StringComparison.Ordinal));
+        // The first cell: up to the first column bar that is not an escaped "\|" inside the synopsis.
+        var synopsis = System.Text.RegularExpressions.Regex.Split(row, @"(?<!\\)\|")[1];
+        var help = ToolRunner.Invoke(command, "--help").Stdout;
+        var options = System.Text.RegularExpressions.Regex.Matches(help, @"^\s+(?:-\w, )?(--[a-z-]+)", System.Text.RegularExpressions.RegexOptions.Multiline)
+            .Select(m => m.Groups[1].Value).Except(["--help", "--verbose", "--no-space-charge"]).ToList();
+        Assert.NotEmpty(options);
+        Assert.All(options, option => Assert.Contains(option, synopsis, StringComparison.Ordinal));
+    }
+
     [Fact]
     public void Transitions_NoBoundState_ExitsTwo()
     {
