@@ -36,7 +36,7 @@ internal static class TransitionsCommand
             DefaultValueFactory = _ => "electron",
         };
 
-        public Option<int?> Periods { get; } = new("--periods", "-N") { Description = "Number of unit cells in the stack (1 to 100,000); default: the file's stack.periods, else 1." };
+        public Option<int?> Periods { get; } = new("--periods", "-N") { Description = "Use N periods of the cell (1 to 100,000) instead of the file's stack; default: the file's stack as written, else 1 period." };
 
         public Option<double?> LeadPotential { get; } = new("--lead-potential") { Description = "Potential of both leads, eV (default: the file's stack, else the first layer's)." };
 
@@ -106,6 +106,11 @@ internal static class TransitionsCommand
             if (structure.Materials is null && wanted != Materials.Carrier.Electron)
             {
                 throw new UsageException($"--carrier {carrier} needs a structure built from materials (the file gives potentials directly).");
+            }
+            if (periods is null && structure.Stack is not null && structure.SelfConsistent is null)
+            {
+                // The file's stack as written (its parts: extra layers, defects, several cells), as levels and resonances take it.
+                return Physics.StackOptions.Choose(structure, null, potential, mass).Stack;
             }
             return TransmissionCommand.BuildStack(structure, n, potential, mass);
         }

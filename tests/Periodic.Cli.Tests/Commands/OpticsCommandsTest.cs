@@ -166,6 +166,29 @@ public sealed class OpticsCommandsTest
     }
 
     [Fact]
+    public void TransitionsAndAbsorption_StackWithParts_UseTheFileStackAsLevelsDoes()
+    {
+        // The defect superlattice's stack is a spacer, 5 periods, a defect well, a layer and 5 periods (stack.parts): the optics
+        // take that stack, with the same thickness and the same bound levels as levels, not periods of the bare cell.
+        var file = ToolRunner.Example("defect-superlattice.json");
+        var levels = ToolRunner.Invoke("levels", file, "--json").Json();
+        var transitions = ToolRunner.Invoke("transitions", file, "--json");
+        Assert.True(transitions.ExitCode == 0, transitions.Stderr);
+        var stack = transitions.Json().GetProperty("stack");
+        Assert.Equal(levels.GetProperty("stack").GetProperty("thickness").GetDouble(), stack.GetProperty("thickness").GetDouble());
+        var expected = levels.GetProperty("levels").EnumerateArray().Select(l => l.GetProperty("energy").GetDouble()).ToArray();
+        var found = transitions.Json().GetProperty("levels").EnumerateArray().Select(l => l.GetProperty("energy").GetDouble()).ToArray();
+        Assert.Equal(expected.Length, found.Length);
+        Assert.All(expected.Zip(found), pair => Assert.Equal(pair.First, pair.Second, 1e-9));
+        var absorption = ToolRunner.Invoke("absorption", file, "--density", "1e11", "--json");
+        Assert.True(absorption.ExitCode == 0, absorption.Stderr);
+        Assert.Equal(stack.GetProperty("thickness").GetDouble(), absorption.Json().GetProperty("thickness").GetDouble());
+        // --periods still asks for N periods of the cell.
+        var periods = ToolRunner.Invoke("transitions", file, "--periods", "3", "--json").Json();
+        Assert.NotEqual(stack.GetProperty("thickness").GetDouble(), periods.GetProperty("stack").GetProperty("thickness").GetDouble());
+    }
+
+    [Fact]
     public void Transitions_NoBoundState_ExitsTwo()
     {
         var file = ToolRunner.TempFile("""{"name": "barrier", "cell": [{"width": 5, "potential": 0.3, "mass": 0.067}], "stack": {"periods": 1, "leads": {"potential": 0, "mass": 0.067}}}""");
