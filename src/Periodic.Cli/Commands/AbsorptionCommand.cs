@@ -141,12 +141,19 @@ internal static class AbsorptionCommand
             var energies = given ?? DefaultGrid(absorption);
             var alpha = new double[energies.Length];
             absorption.Evaluate(energies, alpha);
+            // A self-consistent stack carries lead buffers inside its domain: alpha is averaged over the file's own stack, as for
+            // the rigid bands (alpha L, and so the fraction absorbed per pass, is the same either way).
+            var thickness = structure.SelfConsistentStack?.Input.Stack.Thickness.Nanometres ?? absorption.ThicknessNanometres;
+            for (var i = 0; i < alpha.Length; i++)
+            {
+                alpha[i] *= absorption.ThicknessNanometres / thickness;
+            }
             foreach (var warning in absorption.Warnings)
             {
                 Console.Error.WriteLine($"periodic: warning: {warning}");
             }
             // Render everything before writing anything, so that a failure leaves no partial output.
-            var text = Render(structure, absorption, energies, alpha, format, levelWarnings, fermiSource);
+            var text = Render(structure, absorption, energies, alpha, format, levelWarnings, fermiSource, thickness);
             var pictures = new List<(string Option, string Path, Plot Plot)>();
             if (result.GetValue(plot) is { } alphaPath)
             {
@@ -185,7 +192,7 @@ internal static class AbsorptionCommand
     private static string R(double value) => Table.Number(value, "R");
 
     private static string Render(StructureDefinition structure, AbsorptionSpectrum absorption, double[] energies, double[] alpha, OutputFormat format,
-        IReadOnlyList<Periodic.Materials.ModelWarning> levelWarnings, string fermiSource)
+        IReadOnlyList<Periodic.Materials.ModelWarning> levelWarnings, string fermiSource, double thickness)
     {
         if (format == OutputFormat.Json)
         {
@@ -201,7 +208,7 @@ internal static class AbsorptionCommand
                 w.WriteNumber("linewidth", absorption.Options.LinewidthElectronVolts);
                 w.WriteString("shape", absorption.Options.Shape == LineShape.Gaussian ? "gaussian" : "lorentzian");
                 w.WriteNumber("refractiveIndex", absorption.Options.RefractiveIndex);
-                w.WriteNumber("thickness", absorption.ThicknessNanometres);
+                w.WriteNumber("thickness", thickness);
                 w.WriteNumber("repeats", absorption.Options.PassRepeats);
                 w.WriteStartArray("occupations");
                 for (var i = 0; i < absorption.Occupations.Count; i++)
@@ -257,7 +264,7 @@ internal static class AbsorptionCommand
             return table.ToCsv();
         }
         var head = Common.TableTitle(structure) + string.Create(CultureInfo.InvariantCulture,
-            $"{absorption.Options.TemperatureKelvin:G6} K, E_F = {absorption.FermiLevelElectronVolts:G8} eV{(fermiSource == "self-consistent" ? " (the doped file's self-consistent Fermi level)" : "")}, {absorption.SheetDensityPerSquareCentimetre:G4} cm^-2 in {Common.Plural(absorption.Spectrum.BoundCount, "level")}, FWHM {absorption.Options.LinewidthElectronVolts * 1000:G4} meV, n = {absorption.Options.RefractiveIndex:G4}, alpha averaged over {absorption.ThicknessNanometres:G6} nm, {(absorption.Options.PassRepeats == 1 ? "1 copy" : $"{absorption.Options.PassRepeats} copies")} per pass\n");
+            $"{absorption.Options.TemperatureKelvin:G6} K, E_F = {absorption.FermiLevelElectronVolts:G8} eV{(fermiSource == "self-consistent" ? " (the doped file's self-consistent Fermi level)" : "")}, {absorption.SheetDensityPerSquareCentimetre:G4} cm^-2 in {Common.Plural(absorption.Spectrum.BoundCount, "level")}, FWHM {absorption.Options.LinewidthElectronVolts * 1000:G4} meV, n = {absorption.Options.RefractiveIndex:G4}, alpha averaged over {thickness:G6} nm, {(absorption.Options.PassRepeats == 1 ? "1 copy" : $"{absorption.Options.PassRepeats} copies")} per pass\n");
         foreach (var line in absorption.Lines.Where(l => l.DensityDifferencePerSquareCentimetre != 0))
         {
             head += string.Create(CultureInfo.InvariantCulture,

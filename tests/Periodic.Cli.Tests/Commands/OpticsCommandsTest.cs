@@ -189,6 +189,25 @@ public sealed class OpticsCommandsTest
     }
 
     [Fact]
+    public void Absorption_SelfConsistentStack_AveragesAlphaOverTheFileStack()
+    {
+        // The self-consistent stack carries 30 nm of each lead inside its domain; alpha is still averaged over the file's 30 nm
+        // stack, as with --no-space-charge, and alpha L = -ln(1 - absorbed per pass) (docs/optics.md, Absorption) holds with it.
+        var example = ToolRunner.Example("modulation-doped-well.json");
+        foreach (var extra in new[] { "--json", "--no-space-charge" })
+        {
+            var run = ToolRunner.Invoke("absorption", example, "--density", "1e12", "--json", extra);
+            Assert.True(run.ExitCode == 0, run.Stderr);
+            var json = run.Json();
+            var thickness = json.GetProperty("thickness").GetDouble();
+            Assert.Equal(30, thickness);
+            var peak = json.GetProperty("points").EnumerateArray().MaxBy(p => p.GetProperty("alpha").GetDouble());
+            var alphaL = peak.GetProperty("alpha").GetDouble() * thickness * 1e-7;
+            Assert.Equal(-Math.Log(1 - peak.GetProperty("passAbsorption").GetDouble()), alphaL, 1e-12 * alphaL);
+        }
+    }
+
+    [Fact]
     public void Transitions_NoBoundState_ExitsTwo()
     {
         var file = ToolRunner.TempFile("""{"name": "barrier", "cell": [{"width": 5, "potential": 0.3, "mass": 0.067}], "stack": {"periods": 1, "leads": {"potential": 0, "mass": 0.067}}}""");
