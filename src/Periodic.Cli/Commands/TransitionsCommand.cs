@@ -92,6 +92,7 @@ internal static class TransitionsCommand
             if (structure.Materials is { } built && built.Carrier != wanted)
             {
                 // Another band of the same recipe: leads of the first layer's material.
+                RefuseStackParts(structure, periods, $"--carrier {carrier}");
                 var other = built.Recipe.WithNonParabolicity(false).WithCarrier(wanted).WithPeriods(n).Build();
                 var material = other.Layers[0].Material;
                 if (potential is not null || mass is not null)
@@ -205,6 +206,18 @@ internal static class TransitionsCommand
     }
 
     private static string R(double value) => Table.Number(value, "R");
+
+    /// <summary>
+    /// Refuses a file whose stack is more than periods of its cell (stack.parts with other layers) for a calculation that builds N
+    /// periods of the cell from the recipe (another band, interband), unless --periods asks for that explicitly.
+    /// </summary>
+    private static void RefuseStackParts(StructureDefinition structure, int? periods, string what)
+    {
+        if (periods is null && structure.Stack is { } stack && !(stack.Parts.Count == 1 && stack.Parts[0].IsRepeatedCell))
+        {
+            throw new UsageException($"{what} is computed for periods of the cell between leads of its first layer's material, not for the file's stack as written ({Physics.StackOptions.Describe(stack)}); give --periods N for N periods of the cell, or leave out --carrier for the file's own carrier in its stack.");
+        }
+    }
 
     /// <summary>
     /// The bias for an intersubband spectrum: <c>--bias</c>, else the file's <c>stack.bias</c>; only for the file's own carrier (a
@@ -402,6 +415,7 @@ internal static class TransitionsCommand
         {
             throw new UsageException("--carrier interband needs a structure built from materials (the file gives potentials directly).");
         }
+        RefuseStackParts(structure, periods, "--carrier interband");
         var recipe = built.Recipe;
         if (periods is { } p)
         {

@@ -207,6 +207,20 @@ public sealed class OpticsCommandsTest
         }
     }
 
+    [Theory]
+    [InlineData("interband")]
+    [InlineData("heavy-hole")]
+    public void Transitions_OtherCarrierOfStackWithParts_RefusedInsteadOfAnotherStructure(string carrier)
+    {
+        // Another band is built as periods of the bare cell; for a stack with parts (the defect superlattice) that would be another
+        // structure than the file's, so it is refused unless --periods asks for the periods explicitly.
+        var run = ToolRunner.Invoke("transitions", ToolRunner.Example("defect-superlattice.json"), "--carrier", carrier);
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains($"--carrier {carrier} is computed for periods of the cell", run.Stderr);
+        Assert.Contains("give --periods N", run.Stderr);
+        Assert.Single(run.Stderr.Trim().Split('\n'));
+    }
+
     [Fact]
     public void Transitions_NoBoundState_ExitsTwo()
     {
