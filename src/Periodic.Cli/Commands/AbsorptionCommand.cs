@@ -20,9 +20,9 @@ internal static class AbsorptionCommand
     {
         var file = Common.FileArgument();
         var stackOptions = new TransitionsCommand.StackOptions();
-        var temperature = Common.NumberOption("--temperature", "K", "77", "Temperature, K (0.1 to 1000; default 77).");
-        var density = Common.NumberOption("--density", "cm^-2", "1e11", "Electrons in the whole stack per cm^2 (give this or --fermi).");
-        var fermi = Common.NumberOption("--fermi", "eV", "0.05", "Fermi level, eV on the stack's energy scale (give this or --density).");
+        var temperature = Common.NumberOption("--temperature", "K", "77", "Temperature, K (0.1 to 1000; default 77, or with a doped file's own Fermi level the temperature it was solved at).");
+        var density = Common.NumberOption("--density", "cm^-2", "1e11", "Electrons in the whole stack per cm^2 (give this or --fermi; a doped file: default its self-consistent Fermi level).");
+        var fermi = Common.NumberOption("--fermi", "eV", "0.05", "Fermi level, eV on the stack's energy scale (give this or --density; a doped file: default its self-consistent Fermi level).");
         var linewidth = Common.NumberOption("--linewidth", "eV", "0.005", "Full width at half maximum of each line, eV (default 0.005).");
         var shape = new Option<string>("--shape") { Description = "Line shape: lorentzian (default) or gaussian.", DefaultValueFactory = _ => "lorentzian" };
         shape.AcceptOnlyFromAmong("lorentzian", "gaussian");
@@ -62,7 +62,7 @@ internal static class AbsorptionCommand
             }
             var n = result.GetValue(density);
             var ef = result.GetValue(fermi);
-            if ((n is null) == (ef is null))
+            if (n is not null && ef is not null)
             {
                 throw new UsageException("give exactly one of --density (cm^-2) and --fermi (eV).");
             }
@@ -90,51 +90,83 @@ internal static class AbsorptionCommand
             {
                 throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--repeats must lie in [1, 100000]; got {copies}."));
             }
-            foreach (var path in new[] { result.GetValue(plot), result.GetValue(plotLevels) })
+            // Every output path is checked before anything is computed or written, so a bad picture path leaves no --out file behind.
+            foreach (var (name, path) in new[] { ("--plot", result.GetValue(plot)), ("--plot-levels", result.GetValue(plotLevels)) })
             {
-                if (path is not null && Path.GetExtension(path).ToLowerInvariant() is not (".png" or ".svg"))
+                if (path is null)
                 {
-                    throw new UsageException($"--plot and --plot-levels must end in .png or .svg; got \"{path}\".");
+                    continue;
                 }
+                if (Path.GetExtension(path).ToLowerInvariant() is not (".png" or ".svg"))
+                {
+                    throw new UsageException($"{name} must end in .png or .svg; got {Printable.Quote(path)}.");
+                }
+                OutputFile.Validate(path, name);
+            }
+            if (result.GetValue(output) is { } outPath)
+            {
+                OutputFile.Validate(outPath);
             }
             var hasGrid = result.GetValue(grid.From) is not null || result.GetValue(grid.To) is not null || result.GetValue(grid.Points) is not null || result.GetValue(grid.Energies) is not null;
             var given = hasGrid ? grid.Read(result) : null;
-            if (given is not null && given.Any(e => !(e > 0)))
+            if (given is not null && Array.FindIndex(given, e => !(e > 0)) is var bad and >= 0)
             {
-                throw new UsageException("photon energies must be positive (eV).");
+                var option = result.GetValue(grid.Energies) is not null ? string.Create(CultureInfo.InvariantCulture, $"--energies: item {bad + 1}") : bad == 0 ? "--from" : "--to";
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"{option} is {given[bad]:R} eV, but photon energies must be positive (above 0 eV)."));
             }
             var structure = Common.LoadStack(result, result.GetValue(file)!, "absorption", result.GetValue(stackOptions.Bias), usesBias: true);
+            // A doped file solved self-consistently has its electrons already: its Fermi level is the default.
+            var selfConsistent = (Periodic.SpaceCharge.SelfConsistentSolution?)structure.SelfConsistentStack ?? structure.SelfConsistent;
+            var fermiSource = n is not null ? "--density" : ef is not null ? "--fermi" : "self-consistent";
+            if (n is null && ef is null && selfConsistent is not null && result.GetValue(temperature) is null)
+            {
+                // The Fermi level belongs to the solution's temperature.
+                t = Math.Clamp(selfConsistent.TemperatureKelvin, AbsorptionOptions.MinTemperatureKelvin, AbsorptionOptions.MaxTemperatureKelvin);
+            }
+            if (n is null && ef is null)
+            {
+                ef = selfConsistent?.FermiLevelElectronVolts
+                    ?? throw new UsageException("give exactly one of --density (cm^-2) and --fermi (eV); only a doped file (solved self-consistently) has a Fermi level of its own.");
+            }
             var stack = stackOptions.Build(result, structure);
             var spectrum = TransitionsCommand.Compute(stack, TransitionsCommand.ChooseBias(result, stackOptions, structure),
-                result.GetValue(continuum) ? IntersubbandOptions.Create(includeQuasiBound: true) : null);
+                result.GetValue(continuum) ? IntersubbandOptions.Create(includeQuasiBound: true) : null, stackOptions.DefaultLeadsHint(result, structure, stack));
             var options = AbsorptionOptions.Create(temperatureKelvin: t, linewidthElectronVolts: gamma,
                 shape: result.GetValue(shape) == "gaussian" ? LineShape.Gaussian : LineShape.Lorentzian, refractiveIndex: refractive,
                 depolarisation: result.GetValue(depolarisation), relativePermittivity: eps, passRepeats: copies);
             var absorption = n is { } sheetDensity
                 ? AbsorptionSpectrum.Compute(spectrum, sheetDensity, options)
                 : AbsorptionSpectrum.ComputeAtFermiLevel(spectrum, ef!.Value, options);
+            var levelWarnings = stackOptions.CheckLevels(result, structure, spectrum);
             var energies = given ?? DefaultGrid(absorption);
             var alpha = new double[energies.Length];
             absorption.Evaluate(energies, alpha);
+            // A self-consistent stack carries lead buffers inside its domain: alpha is averaged over the file's own stack, as for
+            // the rigid bands (alpha L, and so the fraction absorbed per pass, is the same either way).
+            var thickness = structure.SelfConsistentStack?.Input.Stack.Thickness.Nanometres ?? absorption.ThicknessNanometres;
+            for (var i = 0; i < alpha.Length; i++)
+            {
+                alpha[i] *= absorption.ThicknessNanometres / thickness;
+            }
             foreach (var warning in absorption.Warnings)
             {
                 Console.Error.WriteLine($"periodic: warning: {warning}");
             }
             // Render everything before writing anything, so that a failure leaves no partial output.
-            var text = Render(structure, absorption, energies, alpha, format);
-            var pictures = new List<(string Path, Plot Plot)>();
+            var text = Render(structure, absorption, energies, alpha, format, levelWarnings, fermiSource, thickness);
+            var pictures = new List<(string Option, string Path, Plot Plot)>();
             if (result.GetValue(plot) is { } alphaPath)
             {
-                pictures.Add((alphaPath, AlphaPlot(structure, absorption, energies, alpha)));
+                pictures.Add(("--plot", alphaPath, AlphaPlot(structure, absorption, energies, alpha)));
             }
             if (result.GetValue(plotLevels) is { } levelsPath)
             {
-                pictures.Add((levelsPath, LevelsPlot(structure, spectrum)));
+                pictures.Add(("--plot-levels", levelsPath, LevelsPlot(structure, spectrum)));
             }
             Common.Emit(text, result.GetValue(output));
-            foreach (var (path, picture) in pictures)
+            foreach (var (option, path, picture) in pictures)
             {
-                Save(picture, path);
+                Save(picture, path, option);
                 Console.Error.WriteLine($"wrote {path}");
             }
             return 0;
@@ -159,22 +191,24 @@ internal static class AbsorptionCommand
 
     private static string R(double value) => Table.Number(value, "R");
 
-    private static string Render(StructureDefinition structure, AbsorptionSpectrum absorption, double[] energies, double[] alpha, OutputFormat format)
+    private static string Render(StructureDefinition structure, AbsorptionSpectrum absorption, double[] energies, double[] alpha, OutputFormat format,
+        IReadOnlyList<Periodic.Materials.ModelWarning> levelWarnings, string fermiSource, double thickness)
     {
         if (format == OutputFormat.Json)
         {
             return Common.Json(w =>
             {
-                Common.StructureHeader(w, structure);
+                Common.StructureHeader(w, structure, levelWarnings);
                 Common.Units(w, ("energy", "eV"), ("alpha", "1/cm"), ("density", "1/cm^2"), ("dipole", "nm"), ("thickness", "nm"), ("temperature", "K"), ("linewidth", "eV"));
                 w.WriteString("model", TransitionsCommand.IntersubbandLimits + " Only bound levels hold electrons; the line width is an input.");
                 w.WriteNumber("temperature", absorption.Options.TemperatureKelvin);
                 w.WriteNumber("fermiLevel", absorption.FermiLevelElectronVolts);
+                w.WriteString("fermiLevelSource", fermiSource);
                 w.WriteNumber("density", absorption.SheetDensityPerSquareCentimetre);
                 w.WriteNumber("linewidth", absorption.Options.LinewidthElectronVolts);
                 w.WriteString("shape", absorption.Options.Shape == LineShape.Gaussian ? "gaussian" : "lorentzian");
                 w.WriteNumber("refractiveIndex", absorption.Options.RefractiveIndex);
-                w.WriteNumber("thickness", absorption.ThicknessNanometres);
+                w.WriteNumber("thickness", thickness);
                 w.WriteNumber("repeats", absorption.Options.PassRepeats);
                 w.WriteStartArray("occupations");
                 for (var i = 0; i < absorption.Occupations.Count; i++)
@@ -230,7 +264,7 @@ internal static class AbsorptionCommand
             return table.ToCsv();
         }
         var head = Common.TableTitle(structure) + string.Create(CultureInfo.InvariantCulture,
-            $"{absorption.Options.TemperatureKelvin:G6} K, E_F = {absorption.FermiLevelElectronVolts:G8} eV, {absorption.SheetDensityPerSquareCentimetre:G4} cm^-2 in {Common.Plural(absorption.Spectrum.BoundCount, "level")}, FWHM {absorption.Options.LinewidthElectronVolts * 1000:G4} meV, n = {absorption.Options.RefractiveIndex:G4}, alpha averaged over {absorption.ThicknessNanometres:G6} nm, {(absorption.Options.PassRepeats == 1 ? "1 copy" : $"{absorption.Options.PassRepeats} copies")} per pass\n");
+            $"{absorption.Options.TemperatureKelvin:G6} K, E_F = {absorption.FermiLevelElectronVolts:G8} eV{(fermiSource == "self-consistent" ? " (the doped file's self-consistent Fermi level)" : "")}, {absorption.SheetDensityPerSquareCentimetre:G4} cm^-2 in {Common.Plural(absorption.Spectrum.BoundCount, "level")}, FWHM {absorption.Options.LinewidthElectronVolts * 1000:G4} meV, n = {absorption.Options.RefractiveIndex:G4}, alpha averaged over {thickness:G6} nm, {(absorption.Options.PassRepeats == 1 ? "1 copy" : $"{absorption.Options.PassRepeats} copies")} per pass\n");
         foreach (var line in absorption.Lines.Where(l => l.DensityDifferencePerSquareCentimetre != 0))
         {
             head += string.Create(CultureInfo.InvariantCulture,
@@ -311,16 +345,16 @@ internal static class AbsorptionCommand
         return plot;
     }
 
-    private static void Save(Plot plot, string path)
+    private static void Save(Plot plot, string path, string option)
     {
         if (Path.GetExtension(path).Equals(".svg", StringComparison.OrdinalIgnoreCase))
         {
-            OutputFile.WriteText(path, plot.GetSvgXml(900, 600));
+            OutputFile.WriteText(path, plot.GetSvgXml(900, 600), option);
         }
         else
         {
             var bytes = plot.GetImage(900, 600).GetImageBytes(ImageFormat.Png);
-            OutputFile.WriteAtomically(path, stream => stream.Write(bytes));
+            OutputFile.WriteAtomically(path, stream => stream.Write(bytes), option);
         }
     }
 }

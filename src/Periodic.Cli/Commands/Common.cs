@@ -203,7 +203,24 @@ internal static class Common
         {
             return structure;
         }
-        return structure.WithSelfConsistentCell(SpaceChargeSolver.Solve(doped));
+        return structure.WithSelfConsistentCell(SolveCell(doped));
+    }
+
+    /// <summary>
+    /// The periodic (superlattice) space-charge solution of a doped cell; where its Bloch states cannot be built (barriers so thick
+    /// that the wells are isolated), the failure says how to model isolated doped wells instead (exit 1 still).
+    /// </summary>
+    private static SelfConsistentCell SolveCell(DopedCell doped)
+    {
+        try
+        {
+            return SpaceChargeSolver.Solve(doped);
+        }
+        catch (PrecisionLimitException e) when (e.Message.Contains("too opaque", StringComparison.Ordinal))
+        {
+            throw new PrecisionLimitException(
+                $"the doped cell is solved as a superlattice (periodic space charge), and {e.Message.TrimEnd('.')}. The wells are too far apart for minibands: for isolated doped wells give the file a \"stack\" (periods and leads; it is solved between its leads), or add --no-space-charge.", e);
+        }
     }
 
     /// <summary>
@@ -240,7 +257,7 @@ internal static class Common
         }
         return structure.StackDoping is { } stack
             ? structure.WithSelfConsistentStack(SpaceChargeSolver.SolveStack(stack))
-            : structure.WithSelfConsistentCell(SpaceChargeSolver.Solve(structure.Doping!));
+            : structure.WithSelfConsistentCell(SolveCell(structure.Doping!));
     }
 
     /// <summary>True when the structure's doping (of its cell or of its stack) asks for a self-consistent potential, i.e. without --no-space-charge.</summary>
@@ -674,7 +691,10 @@ internal sealed class EnergyGridOptions
         }
         if (from is null || to is null || points is null)
         {
-            throw new UsageException("give the energies: --from E --to E --points N, or --energies e1,e2,... (eV).");
+            var missing = string.Join(" and ", new[] { from is null ? "--from" : null, to is null ? "--to" : null, points is null ? "--points" : null }.OfType<string>());
+            throw new UsageException(from is null && to is null && points is null
+                ? "give the energies: --from E --to E --points N, or --energies e1,e2,... (eV)."
+                : $"{missing} missing: give all of --from E --to E --points N, or --energies e1,e2,... (eV).");
         }
         if (!double.IsFinite(from.Value) || !double.IsFinite(to.Value) || !(to.Value > from.Value))
         {

@@ -105,14 +105,15 @@ internal static class ResonancesCommand
             return;
         }
         var unit = DisplayUnits.Energy(structure, peaks.Select(r => r.EnergyElectronVolts).DefaultIfEmpty(spectrum.UpperElectronVolts));
-        var widthUnit = DisplayUnits.Energy(structure, peaks.Select(r => r.WidthElectronVolts));
+        var widthUnit = DisplayUnits.Energy(structure, peaks.Where(r => r.HasWidth).Select(r => r.WidthElectronVolts));
         var time = DisplayUnits.Time(peaks.Where(r => r.HasWidth).Select(r => r.LifetimeSeconds));
         var table = new Table(new Column("peak"), Column.Energy("energy", unit), new Column("peak T", Format: "G8"), Column.Energy("width", widthUnit),
             new Column("lifetime", "s", time.Symbol, time.Seconds, "G6"));
         for (var i = 0; i < peaks.Count; i++)
         {
             var r = peaks[i];
-            table.Add(i + 1, r.EnergyElectronVolts, r.PeakTransmission, r.WidthElectronVolts, r.HasWidth ? r.LifetimeSeconds : double.NaN);
+            // No width where T stays above half on a side: "n/a" like the lifetime, as the note above the table says (empty in CSV).
+            table.Add(i + 1, r.EnergyElectronVolts, r.PeakTransmission, r.HasWidth ? r.WidthElectronVolts : double.NaN, r.HasWidth ? r.LifetimeSeconds : double.NaN);
         }
         var title = Common.TableTitle(structure, unit) + string.Create(CultureInfo.InvariantCulture,
             $"Stack: {source}: {StackOptions.Describe(stack)}; {stack.Thickness.Nanometres:G6} nm, bias eU = {transmission.Bias.ElectronVolts:G6} eV; window {spectrum.LowerElectronVolts:G6} to {spectrum.UpperElectronVolts:G6} eV\n")

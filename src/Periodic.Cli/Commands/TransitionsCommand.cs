@@ -36,7 +36,7 @@ internal static class TransitionsCommand
             DefaultValueFactory = _ => "electron",
         };
 
-        public Option<int?> Periods { get; } = new("--periods", "-N") { Description = "Number of unit cells in the stack (1 to 100,000); default: the file's stack.periods, else 1." };
+        public Option<int?> Periods { get; } = new("--periods", "-N") { Description = "Use N periods of the cell (1 to 100,000) instead of the file's stack; default: the file's stack as written, else 1 period." };
 
         public Option<double?> LeadPotential { get; } = new("--lead-potential") { Description = "Potential of both leads, eV (default: the file's stack, else the first layer's)." };
 
@@ -47,6 +47,10 @@ internal static class TransitionsCommand
         public void AddTo(Command command, bool withInterband)
         {
             Carrier.AcceptOnlyFromAmong(withInterband ? Carriers : Carriers[..3]);
+            if (!withInterband)
+            {
+                Carrier.Description = "electron (default: the file's own carrier and stack), heavy-hole or light-hole (intersubband in that band; files with materials).";
+            }
             command.Options.Add(Carrier);
             command.Options.Add(Periods);
             command.Options.Add(LeadPotential);
@@ -88,6 +92,7 @@ internal static class TransitionsCommand
             if (structure.Materials is { } built && built.Carrier != wanted)
             {
                 // Another band of the same recipe: leads of the first layer's material.
+                RefuseStackParts(structure, periods, $"--carrier {carrier}");
                 var other = built.Recipe.WithNonParabolicity(false).WithCarrier(wanted).WithPeriods(n).Build();
                 var material = other.Layers[0].Material;
                 if (potential is not null || mass is not null)
@@ -103,7 +108,39 @@ internal static class TransitionsCommand
             {
                 throw new UsageException($"--carrier {carrier} needs a structure built from materials (the file gives potentials directly).");
             }
+            if (periods is null && structure.Stack is not null && structure.SelfConsistent is null)
+            {
+                // The file's stack as written (its parts: extra layers, defects, several cells), as levels and resonances take it.
+                return Physics.StackOptions.Choose(structure, null, potential, mass).Stack;
+            }
             return TransmissionCommand.BuildStack(structure, n, potential, mass);
+        }
+
+        /// <summary>
+        /// Where the leads of <see cref="Build"/> came from when nothing chose them (no stack in the file, no lead options, the
+        /// file's own carrier): a hint for a stack that binds nothing because its leads are the cell's first layer; else null.
+        /// </summary>
+        public string? DefaultLeadsHint(ParseResult result, StructureDefinition structure, LayerStack stack)
+        {
+            if (structure.Stack is not null || structure.SelfConsistentStack is not null || result.GetValue(LeadPotential) is not null
+                || result.GetValue(LeadMass) is not null || result.GetValue(Carrier) != "electron" || !structure.Cell.Elements.OfType<Structures.Layer>().Any())
+            {
+                return null;
+            }
+            return string.Create(CultureInfo.InvariantCulture,
+                $"The file has no \"stack\", so both leads are like the cell's first layer (V = {stack.LeftLead.Potential.ElectronVolts:G6} eV); to confine the wells, start the cell with a barrier, give the file a stack with \"leads\" of the barrier's material or potential, or use --lead-potential.");
+        }
+
+        /// <summary>
+        /// The model's warnings about the levels of <paramref name="spectrum"/> (a level far above a layer's band edge, where the
+        /// single-band mass is poor), printed on stderr; none when the spectrum is of another band than the file's materials.
+        /// </summary>
+        public IReadOnlyList<ModelWarning> CheckLevels(ParseResult result, StructureDefinition structure, IntersubbandSpectrum spectrum)
+        {
+            var wanted = result.GetValue(Carrier) switch { "heavy-hole" => Materials.Carrier.HeavyHole, "light-hole" => Materials.Carrier.LightHole, _ => Materials.Carrier.Electron };
+            return structure.Materials is { } built && built.Carrier == wanted
+                ? Common.CheckEnergies(structure, spectrum.Levels.Select(l => l.EnergyElectronVolts).ToArray())
+                : [];
         }
     }
 
@@ -159,7 +196,8 @@ internal static class TransitionsCommand
                 var stack = stackOptions.Build(result, structure);
                 var options = IntersubbandOptions.Create(referenceMassElectronMasses: m, includeQuasiBound: result.GetValue(continuum),
                     domainMarginNanometres: d ?? IntersubbandOptions.DefaultDomainMarginNanometres);
-                text = Render(structure, Compute(stack, ChooseBias(result, stackOptions, structure), options), format);
+                var spectrum = Compute(stack, ChooseBias(result, stackOptions, structure), options, stackOptions.DefaultLeadsHint(result, structure, stack));
+                text = Render(structure, spectrum, format, stackOptions.CheckLevels(result, structure, spectrum));
             }
             Common.Emit(text, result.GetValue(output));
             return 0;
@@ -168,6 +206,18 @@ internal static class TransitionsCommand
     }
 
     private static string R(double value) => Table.Number(value, "R");
+
+    /// <summary>
+    /// Refuses a file whose stack is more than periods of its cell (stack.parts with other layers) for a calculation that builds N
+    /// periods of the cell from the recipe (another band, interband), unless --periods asks for that explicitly.
+    /// </summary>
+    private static void RefuseStackParts(StructureDefinition structure, int? periods, string what)
+    {
+        if (periods is null && structure.Stack is { } stack && !(stack.Parts.Count == 1 && stack.Parts[0].IsRepeatedCell))
+        {
+            throw new UsageException($"{what} is computed for periods of the cell between leads of its first layer's material, not for the file's stack as written ({Physics.StackOptions.Describe(stack)}); give --periods N for N periods of the cell, or leave out --carrier for the file's own carrier in its stack.");
+        }
+    }
 
     /// <summary>
     /// The bias for an intersubband spectrum: <c>--bias</c>, else the file's <c>stack.bias</c>; only for the file's own carrier (a
@@ -186,23 +236,34 @@ internal static class TransitionsCommand
     }
 
     /// <summary>The spectrum under <paramref name="bias"/>; the library's refusal of a bias (an element that cannot take a field, too many elements) becomes a usage error.</summary>
-    internal static IntersubbandSpectrum Compute(LayerStack stack, (double ElectronVolts, string Source) bias, IntersubbandOptions? options)
+    /// <param name="stack">The stack.</param>
+    /// <param name="bias">The bias and where it came from.</param>
+    /// <param name="options">The spectrum's options.</param>
+    /// <param name="leadsHint">Appended to the refusal of a stack without a bound level (see <see cref="StackOptions.DefaultLeadsHint"/>).</param>
+    internal static IntersubbandSpectrum Compute(LayerStack stack, (double ElectronVolts, string Source) bias, IntersubbandOptions? options, string? leadsHint)
     {
-        if (bias.ElectronVolts == 0)
+        try
         {
-            return IntersubbandSpectrum.Compute(stack, options);
+            if (bias.ElectronVolts == 0)
+            {
+                return IntersubbandSpectrum.Compute(stack, options);
+            }
+            TransmissionCommand.Compile(stack, bias.ElectronVolts, bias.Source); // validates the bias with the transmission's messages
+            return IntersubbandSpectrum.ComputeUnderBias(stack, Energy.FromElectronVolts(bias.ElectronVolts), options);
         }
-        TransmissionCommand.Compile(stack, bias.ElectronVolts, bias.Source); // validates the bias with the transmission's messages
-        return IntersubbandSpectrum.ComputeUnderBias(stack, Energy.FromElectronVolts(bias.ElectronVolts), options);
+        catch (ArgumentException e) when (leadsHint is not null && e.Message.StartsWith("stack has no bound state", StringComparison.Ordinal))
+        {
+            throw new UsageException(Common.Describe(e) + " " + leadsHint);
+        }
     }
 
-    public static string Render(StructureDefinition structure, IntersubbandSpectrum spectrum, OutputFormat format)
+    public static string Render(StructureDefinition structure, IntersubbandSpectrum spectrum, OutputFormat format, IReadOnlyList<ModelWarning> warnings)
     {
         if (format == OutputFormat.Json)
         {
             return Common.Json(w =>
             {
-                Common.StructureHeader(w, structure);
+                Common.StructureHeader(w, structure, warnings);
                 Common.Units(w, ("energy", "eV"), ("dipole", "nm"), ("wavelength", "um"), ("width", "eV"), ("mass", "m0"), ("thickness", "nm"), ("bias", "eV"), ("domain", "nm"));
                 w.WriteString("model", IntersubbandLimits);
                 w.WriteNumber("referenceMass", spectrum.ReferenceMassElectronMasses);
@@ -287,15 +348,17 @@ internal static class TransitionsCommand
         }
         var csv = format == OutputFormat.Csv;
         var table = new Table("from", "to", csv ? "energy (eV)" : "energy (meV)", "wavelength (um)", "|z| (nm)", "f", "f_p", "kind", "domain start (nm)", "domain end (nm)", "domain change", "status");
+        // A number that does not exist (an unresolved transition, no momentum form) is "n/a" in the table and an empty cell in the CSV.
+        var missing = csv ? "" : "n/a";
         foreach (var t in spectrum.Transitions)
         {
             var domain = Domain(spectrum, t);
             table.Add(Table.Integer(t.From), Table.Integer(t.To),
                 csv ? R(t.EnergyElectronVolts) : Table.Number(t.EnergyElectronVolts * 1000, "F4"),
                 csv ? R(t.WavelengthMicrometres) : Table.Number(t.WavelengthMicrometres, "G6"),
-                t.IsResolved ? (csv ? R(Math.Abs(t.DipoleNanometres)) : Table.Number(Math.Abs(t.DipoleNanometres), "G8")) : "n/a",
-                t.IsResolved ? (csv ? R(t.OscillatorStrength) : Table.Number(t.OscillatorStrength, "G8")) : "n/a",
-                t.HasMomentumForm ? (csv ? R(t.MomentumOscillatorStrength) : Table.Number(t.MomentumOscillatorStrength, "G8")) : "n/a",
+                t.IsResolved ? (csv ? R(Math.Abs(t.DipoleNanometres)) : Table.Number(Math.Abs(t.DipoleNanometres), "G8")) : missing,
+                t.IsResolved ? (csv ? R(t.OscillatorStrength) : Table.Number(t.OscillatorStrength, "G8")) : missing,
+                t.HasMomentumForm ? (csv ? R(t.MomentumOscillatorStrength) : Table.Number(t.MomentumOscillatorStrength, "G8")) : missing,
                 Kind(spectrum, t),
                 domain is { } a ? (csv ? R(a.Start) : Table.Number(a.Start, "G6")) : "",
                 domain is { } b ? (csv ? R(b.End) : Table.Number(b.End, "G6")) : "",
@@ -314,13 +377,21 @@ internal static class TransitionsCommand
                 $"quasi-bound levels are normalised on [{q.DomainStartNanometres:G6}, {q.DomainEndNanometres:G6}] nm (the stack plus a margin of each lead); 'domain change' is the change of |z| when the margin is doubled\n");
         }
         text += "levels (eV): " + string.Join(", ", spectrum.Levels.Select(l => string.Create(CultureInfo.InvariantCulture,
-            $"{l.Number}: {l.EnergyElectronVolts:G8}{(l.IsQuasiBound ? string.Create(CultureInfo.InvariantCulture, $" (quasi-bound, width {l.WidthElectronVolts:G3})") : "")}"))) + "\n\n";
+            $"{l.Number}: {l.EnergyElectronVolts:G8}{(l.IsQuasiBound ? $" (quasi-bound, {LevelWidth(l.WidthElectronVolts)})" : "")}"))) + "\n\n";
         text += table.ToText();
         var sum = spectrum.SumRule(1);
         text += string.Create(CultureInfo.InvariantCulture,
             $"\nf-sum from level 1: {sum.BoundStrength:G8} (bound) + {sum.QuasiBoundStrength:G8} (quasi-bound) of {sum.ExpectedStrength:G8}; the rest, {sum.MissingStrength:G4}, lies in the continuum.\n");
         return text + IntersubbandLimits + "\n";
     }
+
+    /// <summary>
+    /// A quasi-bound level's width for the table: the FWHM of its transmission peak, or, where T stays above half its peak on a
+    /// side (a broad continuum peak), no width at all (null in JSON, as for <c>resonances</c>).
+    /// </summary>
+    private static string LevelWidth(double widthElectronVolts) => double.IsFinite(widthElectronVolts)
+        ? string.Create(CultureInfo.InvariantCulture, $"width {widthElectronVolts:G3}")
+        : "no width: T stays above half its peak on a side";
 
     /// <summary>"bound-bound", "bound-quasi-bound" or "quasi-bound-quasi-bound".</summary>
     private static string Kind(IntersubbandSpectrum spectrum, IntersubbandTransition t) =>
@@ -344,6 +415,7 @@ internal static class TransitionsCommand
         {
             throw new UsageException("--carrier interband needs a structure built from materials (the file gives potentials directly).");
         }
+        RefuseStackParts(structure, periods, "--carrier interband");
         var recipe = built.Recipe;
         if (periods is { } p)
         {

@@ -42,16 +42,19 @@ internal static class OutputFile
     }
 
     /// <summary>Writes <paramref name="write"/>'s bytes to <paramref name="path"/> under the rules above.</summary>
-    public static void WriteAtomically(string path, Action<Stream> write)
+    /// <param name="path">The output file.</param>
+    /// <param name="write">Writes the bytes.</param>
+    /// <param name="option">The option that named the file, for messages (<c>--out</c> unless a command has other outputs, e.g. <c>--plot</c>).</param>
+    public static void WriteAtomically(string path, Action<Stream> write, string option = Option)
     {
-        var target = Check(path);
+        var target = Check(path, option);
         if (target.Kind == FileKind.Stream)
         {
-            WriteStream(path, target.Path, write);
+            WriteStream(path, target.Path, write, option);
         }
         else
         {
-            Replace(path, target.Path, write);
+            Replace(path, target.Path, write, option);
         }
     }
 
@@ -59,15 +62,20 @@ internal static class OutputFile
     /// Refuses <paramref name="path"/> as <see cref="WriteAtomically"/> would (empty, a directory, a missing directory, a
     /// read-only file, an input of this command), before a command creates anything beside it (a sweep's journal).
     /// </summary>
-    public static void Validate(string path) => Check(path);
+    /// <param name="path">The output file.</param>
+    /// <param name="option">The option that named the file, for messages.</param>
+    public static void Validate(string path, string option = Option) => Check(path, option);
 
     /// <summary>Writes UTF-8 text (no byte-order mark) under the rules of <see cref="WriteAtomically"/>.</summary>
-    public static void WriteText(string path, string text) =>
+    /// <param name="path">The output file.</param>
+    /// <param name="text">The text.</param>
+    /// <param name="option">The option that named the file, for messages.</param>
+    public static void WriteText(string path, string text, string option = Option) =>
         WriteAtomically(path, stream =>
         {
             var bytes = new System.Text.UTF8Encoding(false).GetBytes(text);
             stream.Write(bytes);
-        });
+        }, option);
 
     /// <summary>
     /// Removes the temporary files a killed writer of <paramref name="path"/> left beside it (<c>.NAME.XXXXXXXX.tmp</c>): for a
@@ -93,39 +101,39 @@ internal static class OutputFile
     }
 
     /// <summary>Where the bytes go and how, or a refusal that names the option and the path.</summary>
-    private static (string Path, FileKind Kind) Check(string path)
+    private static (string Path, FileKind Kind) Check(string path, string option)
     {
         if (string.IsNullOrWhiteSpace(path))
         {
-            throw new UsageException($"{Option} needs a file path; got an empty one.");
+            throw new UsageException($"{option} needs a file path; got an empty one.");
         }
         var full = Path.GetFullPath(path);
-        var target = FinalTarget(full);
+        var target = FinalTarget(full, option);
         var identity = FileIdentity.Of(target);
         if (identity.Kind == FileKind.Directory)
         {
-            throw new UsageException($"{Option} {Printable.Quote(path)} is a directory; give a file path.");
+            throw new UsageException($"{option} {Printable.Quote(path)} is a directory; give a file path.");
         }
         var directory = Path.GetDirectoryName(target)!;
         if (!Directory.Exists(directory))
         {
-            throw new UsageException($"{Option} {Printable.Quote(path)}: the directory {Printable.Quote(directory)} does not exist.");
+            throw new UsageException($"{option} {Printable.Quote(path)}: the directory {Printable.Quote(directory)} does not exist.");
         }
         foreach (var (inputPath, input) in Inputs)
         {
             if (string.Equals(inputPath, target, StringComparison.Ordinal) || identity.SameFileAs(input))
             {
-                throw new UsageException($"{Option} {Printable.Quote(path)} is an input file of this command; choose another output path.");
+                throw new UsageException($"{option} {Printable.Quote(path)} is an input file of this command; choose another output path.");
             }
         }
         if (identity.Kind == FileKind.Regular && new FileInfo(target).IsReadOnly)
         {
-            throw new UsageException($"{Option} {Printable.Quote(path)} is read-only; make it writable or choose another path (the tool does not replace read-only files).");
+            throw new UsageException($"{option} {Printable.Quote(path)} is read-only; make it writable or choose another path (the tool does not replace read-only files).");
         }
         return (target, identity.Kind == FileKind.Missing ? FileKind.Regular : identity.Kind);
     }
 
-    private static void Replace(string given, string target, Action<Stream> write)
+    private static void Replace(string given, string target, Action<Stream> write, string option)
     {
         var directory = Path.GetDirectoryName(target)!;
         var temporary = Path.Combine(directory, "." + Path.GetFileName(target) + "." + Guid.NewGuid().ToString("N")[..8] + ".tmp");
@@ -146,7 +154,7 @@ internal static class OutputFile
         }
         catch (Exception e) when (e is IOException or UnauthorizedAccessException)
         {
-            throw Failure(given, temporary, e);
+            throw Failure(given, temporary, e, option);
         }
         finally
         {
@@ -155,7 +163,7 @@ internal static class OutputFile
         }
     }
 
-    private static void WriteStream(string given, string target, Action<Stream> write)
+    private static void WriteStream(string given, string target, Action<Stream> write, string option)
     {
         try
         {
@@ -166,22 +174,22 @@ internal static class OutputFile
         }
         catch (Exception e) when (e is IOException or UnauthorizedAccessException)
         {
-            throw Failure(given, target, e);
+            throw Failure(given, target, e, option);
         }
     }
 
     /// <summary>An I/O failure that names the target the user gave, never the temporary file.</summary>
-    private static Exception Failure(string given, string inner, Exception e)
+    private static Exception Failure(string given, string inner, Exception e, string option)
     {
         var reason = e.Message.Replace(inner, given, StringComparison.Ordinal);
-        var message = $"cannot write {Option} {Printable.Quote(given)}: {reason}";
+        var message = $"cannot write {option} {Printable.Quote(given)}: {reason}";
         return e is UnauthorizedAccessException or DirectoryNotFoundException
             ? new UsageException(message)
             : new IOException(message, e);
     }
 
     /// <summary>The file a path finally names: symbolic links are followed (also dangling ones, whose target is created).</summary>
-    private static string FinalTarget(string full)
+    private static string FinalTarget(string full, string option = Option)
     {
         try
         {
@@ -195,7 +203,7 @@ internal static class OutputFile
         }
         catch (IOException e)
         {
-            throw new UsageException($"{Option} {Printable.Quote(full)}: {e.Message}");
+            throw new UsageException($"{option} {Printable.Quote(full)}: {e.Message}");
         }
     }
 

@@ -22,7 +22,7 @@ namespace Periodic.Optics;
 /// in-plane 2D density of states ⟨m⟩_i m₀/(πħ²) (spin included) and Fermi–Dirac occupation,
 /// n_i = (⟨m⟩_i m₀ kT/(πħ²)) ln(1 + e^((E_F − E_i)/kT)); g is the unit-area line shape; L is the stack thickness, so α is
 /// the average over the stack. Only bound levels hold electrons: the continuum's share is neglected, which the result
-/// warns about when E_F lies within 5 kT of the lead band edge.</para>
+/// warns about when E_F lies within 5 kT of the lead band edge or above it.</para>
 /// <para>Depolarisation (plasma) shift, on request: Ẽ² = E²(1 + α_dep), α_dep = 2e²(n_i − n_f)S/(ε ε₀ E),
 /// S = ∫(∫_{−∞}^z ψ_iψ_f dz′)² dz (T. Ando, A. B. Fowler, F. Stern, Rev. Mod. Phys. 54, 437 (1982); S. J. Allen, D. C. Tsui,
 /// B. Vinter, Solid State Commun. 20, 425 (1976)), each line on its own (no coupling between lines, no exciton-like
@@ -170,8 +170,11 @@ public sealed class AbsorptionSpectrum
         var edge = spectrum.BoundStates.ContinuumEdgeElectronVolts;
         if (fermiLevel > edge - 5 * kt)
         {
-            warnings.Add(string.Create(CultureInfo.InvariantCulture,
-                $"the Fermi level {fermiLevel:G6} eV lies within 5 kT of the continuum edge {edge:G6} eV: electrons in the continuum are not counted."));
+            warnings.Add(fermiLevel > edge
+                ? string.Create(CultureInfo.InvariantCulture,
+                    $"the Fermi level {fermiLevel:G6} eV lies {fermiLevel - edge:G4} eV above the continuum edge {edge:G6} eV: electrons in the continuum are not counted, so the bound levels hold far fewer electrons than such a Fermi level puts in a real structure.")
+                : string.Create(CultureInfo.InvariantCulture,
+                    $"the Fermi level {fermiLevel:G6} eV lies within 5 kT of the continuum edge {edge:G6} eV: electrons in the continuum are not counted."));
         }
         var permittivity = options.RelativePermittivity ?? options.RefractiveIndex * options.RefractiveIndex;
         var lines = new List<AbsorptionLine>();

@@ -73,6 +73,155 @@ public sealed class OpticsCommandsTest
     }
 
     [Fact]
+    public void Absorption_BadGrid_NamesTheOptionAndValue()
+    {
+        var file = FiniteWell(8, 0.3, 0.067);
+        var run = ToolRunner.Invoke("absorption", file, "--density", "1e11", "--energies", "0.1,-0.1");
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("--energies: item 2 is -0.1 eV", run.Stderr);
+        run = ToolRunner.Invoke("absorption", file, "--density", "1e11", "--from", "-0.1", "--to", "0.2", "--points", "3");
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("--from is -0.1 eV", run.Stderr);
+        run = ToolRunner.Invoke("absorption", file, "--density", "1e11", "--points", "11");
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("--from and --to missing", run.Stderr);
+    }
+
+    [Fact]
+    public void Absorption_FermiLevelAboveContinuum_WarningSaysAbove()
+    {
+        // The well's continuum starts at its 0.3 eV leads; a Fermi level of 1 eV lies 0.7 eV above it, not "within 5 kT".
+        var run = ToolRunner.Invoke("absorption", FiniteWell(8, 0.3, 0.067), "--fermi", "1");
+        Assert.Equal(0, run.ExitCode);
+        Assert.Contains("lies 0.7 eV above the continuum edge 0.3 eV", run.Stderr);
+        Assert.DoesNotContain("within 5 kT", run.Stderr);
+    }
+
+    [Fact]
+    public void Absorption_DopedFile_DefaultsToItsSelfConsistentFermiLevel()
+    {
+        // The modulation-doped well holds the electrons of its two 5e11 cm^-2 donor sheets: absorption needs no --density, takes the
+        // solution's Fermi level (the one levels reports) and finds about 1e12 cm^-2 in the bound levels (neutrality; the rest of
+        // the closed domain's electrons sit in box states above the leads' edges, which absorption does not count).
+        var example = ToolRunner.Example("modulation-doped-well.json");
+        var levels = ToolRunner.Invoke("levels", example, "--json");
+        var run = ToolRunner.Invoke("absorption", example, "--json");
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        var json = run.Json();
+        Assert.Equal(levels.Json().GetProperty("selfConsistent").GetProperty("fermiLevel").GetDouble(), json.GetProperty("fermiLevel").GetDouble());
+        Assert.Equal("self-consistent", json.GetProperty("fermiLevelSource").GetString());
+        Assert.Equal(77, json.GetProperty("temperature").GetDouble());
+        Assert.Equal(1e12, json.GetProperty("density").GetDouble(), 0.01e12);
+        // An undoped file still needs one of them.
+        run = ToolRunner.Invoke("absorption", FiniteWell(8, 0.3, 0.067));
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("--density", run.Stderr);
+    }
+
+    [Fact]
+    public void Transitions_WellFirstWithoutStack_SaysTheLeadsAreTheWell()
+    {
+        // Without a stack both leads are the first layer: here the well, so nothing is bound, and the refusal says why and what to give.
+        var file = ToolRunner.TempFile("""{"name": "well first", "cell": [{"width": 5, "potential": 0, "mass": 0.067}, {"width": 20, "potential": 0.3, "mass": 0.067}]}""");
+        foreach (var command in new[] { "transitions", "absorption" })
+        {
+            var run = ToolRunner.Invoke(command, file, "--density", "1e11");
+            if (command == "transitions")
+            {
+                run = ToolRunner.Invoke(command, file);
+            }
+            Assert.Equal(2, run.ExitCode);
+            Assert.Contains("no bound state", run.Stderr);
+            Assert.Contains("The file has no \"stack\", so both leads are like the cell's first layer (V = 0 eV)", run.Stderr);
+            Assert.Contains("--lead-potential", run.Stderr);
+            Assert.Single(run.Stderr.Trim().Split('\n'));
+        }
+        Assert.Equal(0, ToolRunner.Invoke("transitions", file, "--lead-potential", "0.3").ExitCode);
+    }
+
+    [Fact]
+    public void Absorption_Help_OffersOnlyTheCarriersItTakes()
+    {
+        var run = ToolRunner.Invoke("absorption", "--help");
+        Assert.Equal(0, run.ExitCode);
+        Assert.DoesNotContain("interband", run.Stdout);
+        Assert.Contains("interband", ToolRunner.Invoke("transitions", "--help").Stdout);
+    }
+
+    [Theory]
+    [InlineData("transitions")]
+    [InlineData("absorption")]
+    public void CliDoc_SynopsisListsEveryOptionOfTheCommand(string command)
+    {
+        // docs/cli.md's command table is where a user looks first: its row names every option that --help lists (the options
+        // every command takes, --help, --verbose and --no-space-charge, are described below the table).
+        var row = File.ReadLines(Path.Combine(ToolRunner.RepositoryRoot, "docs", "cli.md")).Single(l => l.StartsWith($"| `{command} FILE", StringComparison.Ordinal));
+        // The first cell: up to the first column bar that is not an escaped "\|" inside the synopsis.
+        var synopsis = System.Text.RegularExpressions.Regex.Split(row, @"(?<!\\)\|")[1];
+        var help = ToolRunner.Invoke(command, "--help").Stdout;
+        var options = System.Text.RegularExpressions.Regex.Matches(help, @"^\s+(?:-\w, )?(--[a-z-]+)", System.Text.RegularExpressions.RegexOptions.Multiline)
+            .Select(m => m.Groups[1].Value).Except(["--help", "--verbose", "--no-space-charge"]).ToList();
+        Assert.NotEmpty(options);
+        Assert.All(options, option => Assert.Contains(option, synopsis, StringComparison.Ordinal));
+    }
+
+    [Fact]
+    public void TransitionsAndAbsorption_StackWithParts_UseTheFileStackAsLevelsDoes()
+    {
+        // The defect superlattice's stack is a spacer, 5 periods, a defect well, a layer and 5 periods (stack.parts): the optics
+        // take that stack, with the same thickness and the same bound levels as levels, not periods of the bare cell.
+        var file = ToolRunner.Example("defect-superlattice.json");
+        var levels = ToolRunner.Invoke("levels", file, "--json").Json();
+        var transitions = ToolRunner.Invoke("transitions", file, "--json");
+        Assert.True(transitions.ExitCode == 0, transitions.Stderr);
+        var stack = transitions.Json().GetProperty("stack");
+        Assert.Equal(levels.GetProperty("stack").GetProperty("thickness").GetDouble(), stack.GetProperty("thickness").GetDouble());
+        var expected = levels.GetProperty("levels").EnumerateArray().Select(l => l.GetProperty("energy").GetDouble()).ToArray();
+        var found = transitions.Json().GetProperty("levels").EnumerateArray().Select(l => l.GetProperty("energy").GetDouble()).ToArray();
+        Assert.Equal(expected.Length, found.Length);
+        Assert.All(expected.Zip(found), pair => Assert.Equal(pair.First, pair.Second, 1e-9));
+        var absorption = ToolRunner.Invoke("absorption", file, "--density", "1e11", "--json");
+        Assert.True(absorption.ExitCode == 0, absorption.Stderr);
+        Assert.Equal(stack.GetProperty("thickness").GetDouble(), absorption.Json().GetProperty("thickness").GetDouble());
+        // --periods still asks for N periods of the cell.
+        var periods = ToolRunner.Invoke("transitions", file, "--periods", "3", "--json").Json();
+        Assert.NotEqual(stack.GetProperty("thickness").GetDouble(), periods.GetProperty("stack").GetProperty("thickness").GetDouble());
+    }
+
+    [Fact]
+    public void Absorption_SelfConsistentStack_AveragesAlphaOverTheFileStack()
+    {
+        // The self-consistent stack carries 30 nm of each lead inside its domain; alpha is still averaged over the file's 30 nm
+        // stack, as with --no-space-charge, and alpha L = -ln(1 - absorbed per pass) (docs/optics.md, Absorption) holds with it.
+        var example = ToolRunner.Example("modulation-doped-well.json");
+        foreach (var extra in new[] { "--json", "--no-space-charge" })
+        {
+            var run = ToolRunner.Invoke("absorption", example, "--density", "1e12", "--json", extra);
+            Assert.True(run.ExitCode == 0, run.Stderr);
+            var json = run.Json();
+            var thickness = json.GetProperty("thickness").GetDouble();
+            Assert.Equal(30, thickness);
+            var peak = json.GetProperty("points").EnumerateArray().MaxBy(p => p.GetProperty("alpha").GetDouble());
+            var alphaL = peak.GetProperty("alpha").GetDouble() * thickness * 1e-7;
+            Assert.Equal(-Math.Log(1 - peak.GetProperty("passAbsorption").GetDouble()), alphaL, 1e-12 * alphaL);
+        }
+    }
+
+    [Theory]
+    [InlineData("interband")]
+    [InlineData("heavy-hole")]
+    public void Transitions_OtherCarrierOfStackWithParts_RefusedInsteadOfAnotherStructure(string carrier)
+    {
+        // Another band is built as periods of the bare cell; for a stack with parts (the defect superlattice) that would be another
+        // structure than the file's, so it is refused unless --periods asks for the periods explicitly.
+        var run = ToolRunner.Invoke("transitions", ToolRunner.Example("defect-superlattice.json"), "--carrier", carrier);
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains($"--carrier {carrier} is computed for periods of the cell", run.Stderr);
+        Assert.Contains("give --periods N", run.Stderr);
+        Assert.Single(run.Stderr.Trim().Split('\n'));
+    }
+
+    [Fact]
     public void Transitions_NoBoundState_ExitsTwo()
     {
         var file = ToolRunner.TempFile("""{"name": "barrier", "cell": [{"width": 5, "potential": 0.3, "mass": 0.067}], "stack": {"periods": 1, "leads": {"potential": 0, "mass": 0.067}}}""");
@@ -97,6 +246,25 @@ public sealed class OpticsCommandsTest
         var peak = json.GetProperty("points").EnumerateArray().MaxBy(p => p.GetProperty("alpha").GetDouble());
         // The default grid has 400 points over the line ± 6 FWHM: the sampled peak lies within one grid step of the line.
         Assert.Equal(line.GetProperty("energy").GetDouble(), peak.GetProperty("energy").GetDouble(), 0.001);
+    }
+
+    [Fact]
+    public void Absorption_PictureInMissingDirectory_NamesPlotAndLeavesNoOutFile()
+    {
+        var file = FiniteWell(8, 0.3, 0.067);
+        var directory = Path.GetDirectoryName(file)!;
+        var table = Path.Combine(directory, "alpha.csv");
+        var picture = Path.Combine(directory, "alpha.png");
+        var missing = Path.Combine(directory, "missing", "levels.svg");
+        var run = ToolRunner.Invoke("absorption", file, "--density", "1e11", "--csv", "--out", table, "--plot", picture, "--plot-levels", missing);
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("--plot-levels", run.Stderr);
+        Assert.DoesNotContain("--out", run.Stderr);
+        Assert.False(File.Exists(table));
+        Assert.False(File.Exists(picture));
+        run = ToolRunner.Invoke("absorption", file, "--density", "1e11", "--plot", directory + "/");
+        Assert.Equal(2, run.ExitCode);
+        Assert.StartsWith("periodic: error: --plot ", run.Stderr);
     }
 
     [Fact]
@@ -134,6 +302,51 @@ public sealed class OpticsCommandsTest
         var csv = ToolRunner.Invoke("transitions", file, "--csv", "--continuum");
         Assert.Contains("quasi-bound-quasi-bound", csv.Stdout);
         Assert.Contains("domain start (nm)", csv.Stdout.Split('\n')[0]);
+    }
+
+    private const string BoundToContinuumWell =
+        """{"name": "bound-to-continuum well", "temperature": "77 K", "cell": [{"material": "Al0.25Ga0.75As", "width": "30 nm"}, {"material": "GaAs", "width": "4.5 nm"}, {"material": "Al0.25Ga0.75As", "width": "30 nm"}]}""";
+
+    [Fact]
+    public void Transitions_UnresolvedContinuumLevel_EmptyCsvCellsAndNoInfiniteWidth()
+    {
+        // A 4.5 nm GaAs well in Al0.25Ga0.75As binds one level; the next lies just above the barriers as a broad transmission peak
+        // (T stays above half on one side: no FWHM, JSON null) whose dipole depends on the domain (unresolved, JSON null).
+        var file = ToolRunner.TempFile(BoundToContinuumWell);
+        var json = ToolRunner.Invoke("transitions", file, "--continuum", "--json").Json();
+        var transition = json.GetProperty("transitions")[0];
+        Assert.False(transition.GetProperty("resolved").GetBoolean());
+        Assert.Equal(System.Text.Json.JsonValueKind.Null, transition.GetProperty("dipole").ValueKind);
+        Assert.Equal(System.Text.Json.JsonValueKind.Null, json.GetProperty("levels")[1].GetProperty("width").ValueKind);
+        // CSV: a number that does not exist is an empty cell (docs/cli.md, Output), never "n/a".
+        var csv = ToolRunner.Invoke("transitions", file, "--continuum", "--csv");
+        Assert.True(csv.ExitCode == 0, csv.Stderr);
+        var row = csv.Stdout.Split('\n')[1].Split(',');
+        Assert.Equal("bound-quasi-bound", row[7]);
+        Assert.Equal(["", "", ""], row[4..7]);
+        Assert.DoesNotContain("n/a", csv.Stdout);
+        // Table: the level without a width says so instead of printing "Infinity".
+        var table = ToolRunner.Invoke("transitions", file, "--continuum");
+        Assert.DoesNotContain("Infinity", table.Stdout);
+        Assert.Contains("2: 0.277", table.Stdout);
+        Assert.Contains("no width: T stays above half its peak on a side", table.Stdout);
+    }
+
+    [Fact]
+    public void TransitionsAndAbsorption_LevelFarAboveWellEdge_WarnAsLevelsDoes()
+    {
+        // The quasi-bound level at 0.277 eV lies 0.18 Eg above the GaAs edge (Eg = 1.508 eV at 77 K), beyond the parabolic mass's
+        // 0.1 Eg (docs/materials.md): every command that reports such a level warns, on stderr and in structure.warnings.
+        var file = ToolRunner.TempFile(BoundToContinuumWell);
+        var run = ToolRunner.Invoke("transitions", file, "--continuum", "--json");
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        Assert.Contains("Eg above the band edge of GaAs", run.Stderr);
+        Assert.Contains(run.Json().GetProperty("structure").GetProperty("warnings").EnumerateArray(), w => w.GetString()!.Contains("E = 0.277", StringComparison.Ordinal));
+        var absorption = ToolRunner.Invoke("absorption", file, "--continuum", "--density", "1e11", "--json");
+        Assert.True(absorption.ExitCode == 0, absorption.Stderr);
+        Assert.Contains(absorption.Json().GetProperty("structure").GetProperty("warnings").EnumerateArray(), w => w.GetString()!.Contains("E = 0.277", StringComparison.Ordinal));
+        // The bound level alone (0.082 eV, 0.05 Eg) draws no warning.
+        Assert.DoesNotContain("Eg above", ToolRunner.Invoke("transitions", file).Stderr);
     }
 
     [Fact]

@@ -169,4 +169,19 @@ public sealed class ResonancesCommandTest(ITestOutputHelper output)
         Assert.Single(run.Stderr.Trim().Split('\n'));
         Assert.False(File.Exists(target));
     }
+
+    [Fact]
+    public void Resonances_PeakWithoutHalfMaximum_TableSaysNaForWidthAsForLifetime()
+    {
+        // Above a single 4.5 nm GaAs well in Al0.25Ga0.75As the first transmission peak reaches T = 1 and T never falls to half on
+        // its upper side: no FWHM (JSON null), which the table shows as "n/a", as its note says, not "inf".
+        var file = ToolRunner.TempFile("""{"name": "well", "temperature": "77 K", "cell": [{"material": "Al0.25Ga0.75As", "width": "30 nm"}, {"material": "GaAs", "width": "4.5 nm"}, {"material": "Al0.25Ga0.75As", "width": "30 nm"}]}""");
+        var json = ToolRunner.Invoke("resonances", file, "--periods", "1", "--from", "0.2", "--to", "0.5", "--json").Json();
+        Assert.Equal(System.Text.Json.JsonValueKind.Null, json.GetProperty("resonances")[0].GetProperty("width").ValueKind);
+        var table = ToolRunner.Invoke("resonances", file, "--periods", "1", "--from", "0.2", "--to", "0.5");
+        Assert.Equal(0, table.ExitCode);
+        var row = table.Stdout.Split('\n').Single(l => l.Contains("277.155", StringComparison.Ordinal)); // the peak at 0.277 eV, in meV
+        Assert.DoesNotContain("inf", row);
+        Assert.Equal(2, row.Split(' ', StringSplitOptions.RemoveEmptyEntries).Count(c => c == "n/a"));
+    }
 }

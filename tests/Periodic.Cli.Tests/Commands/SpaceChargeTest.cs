@@ -193,4 +193,23 @@ public sealed class SpaceChargeTest
         Assert.Contains("--no-space-charge", run.Stderr);
         Assert.False(File.Exists(path));
     }
+
+    [Fact]
+    public void DopedCellOfIsolatedWell_FailureSaysToGiveAStack()
+    {
+        // One doped 6 nm GaAs well between 20 nm Al0.3Ga0.7As barriers, no stack: the cell is solved as a superlattice whose wells,
+        // 40 nm apart, are too isolated for its Bloch states (exit 1); the message points to the finite stack, which works.
+        const string cell = """
+            {"name": "doped well", "temperature": "77 K", "cell": [{"material": "Al0.3Ga0.7As", "width": "20 nm"}, {"material": "GaAs", "width": "6 nm", "donors": "1e18 cm^-3"}, {"material": "Al0.3Ga0.7As", "width": "20 nm"}]
+            """;
+        var file = ToolRunner.TempFile(cell + "}");
+        var run = ToolRunner.Invoke("transitions", file);
+        Assert.Equal(1, run.ExitCode);
+        Assert.Contains("solved as a superlattice", run.Stderr);
+        Assert.Contains("give the file a \"stack\"", run.Stderr);
+        Assert.Single(run.Stderr.Trim().Split('\n'));
+        var stack = ToolRunner.TempFile(cell + """, "stack": {"periods": 1, "leads": {"material": "Al0.3Ga0.7As"}}}""");
+        run = ToolRunner.Invoke("transitions", stack);
+        Assert.True(run.ExitCode == 0, run.Stderr);
+    }
 }
