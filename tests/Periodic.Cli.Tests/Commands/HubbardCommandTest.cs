@@ -136,6 +136,20 @@ public sealed class HubbardCommandTest
     }
 
     [Fact]
+    public void Bands_VeryDeepLattice_WarnsOfThePlaneWaveBasisInsteadOfCrashing()
+    {
+        // s = 1e9: the plane-wave basis stops growing before the edges settle. Expected: the bands near the harmonic
+        // levels (n + 1/2)·2√s − 1/4 (bottom of band 1 ≈ √s − 1/4, the deep-lattice expansion of the Mathieu
+        // characteristic values, Abramowitz and Stegun 20.2.30) and a warning naming the basis, not a null reference.
+        var file = Lattice("\"wavelength\": 1064, \"depth\": 1e9, \"species\": \"87Rb\"");
+        var run = ToolRunner.Invoke("bands", file, "-n", "1", "--csv");
+        Assert.Equal(0, run.ExitCode);
+        Assert.Contains("plane-wave basis", run.Stderr, StringComparison.Ordinal);
+        var bottom = double.Parse(run.Stdout.Trim().Split('\n')[1].Split(',')[1], System.Globalization.CultureInfo.InvariantCulture);
+        Assert.Equal(Math.Sqrt(1e9) - 0.25, bottom, 1e-3 * Math.Sqrt(1e9));
+    }
+
+    [Fact]
     public void Hubbard_DepthScanPlot_DrawsParametersAgainstDepth()
     {
         var file = ToolRunner.Example("rubidium-lattice.json");
