@@ -38,7 +38,7 @@ internal static class HubbardCommand
         var bands = new Option<int>("--bands") { Description = "Number of bands to describe, from the lowest (1 to 10); each must be isolated.", DefaultValueFactory = _ => 1 };
         var depths = new Option<string?>("--depths")
         {
-            Description = "Depth scan of the lowest band, in recoil energies: FROM:TO:STEP (e.g. 5:30:1) or a list 5,10,20. Replaces the file's depth.",
+            Description = "Depth scan of the lowest band, in recoil energies (above 0, at most 190): FROM:TO:STEP (e.g. 5:30:1) or a list 5,10,20. Replaces the file's depth; not with --bands.",
         };
         var unit = new Option<string>("--unit")
         {
@@ -65,7 +65,12 @@ internal static class HubbardCommand
             var window = result.GetValue(sites) ?? 3;
             if (!(window > 0 && window <= 50))
             {
-                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--sites must be between 0 and 50 lattice sites; got {window:R}."));
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--sites must be above 0 and at most 50 lattice sites; got {window:R}."));
+            }
+            if (scan is not null && count > 1)
+            {
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                    $"--bands {count} cannot be combined with --depths: a depth scan describes the lowest band only; leave out --bands, or give one depth in the file."));
             }
             var plotPath = result.GetValue(plot);
             var extension = plotPath is null ? "" : Path.GetExtension(plotPath).ToLowerInvariant();
@@ -76,6 +81,10 @@ internal static class HubbardCommand
             var structure = Common.Load(result, result.GetValue(file)!);
             var lattice = structure.OpticalLattice ?? throw new UsageException(
                 $"{structure.SourceName} does not describe an optical lattice; hubbard needs a file with \"opticalLattice\": {{\"wavelength\": ..., \"depth\": ..., \"species\": ...}} (see docs/cold-atoms.md).");
+            foreach (var depth in scan ?? [lattice.DepthInRecoilEnergies])
+            {
+                CheckTunnellingResolved(depth, scan is null ? "opticalLattice.depth" : "--depths");
+            }
             var scanned = scan is null ? null : Scan(lattice, scan, confinement, a);
             var text2 = scanned is null
                 ? Render(structure, lattice, Describe(lattice, confinement, a, count), format, displayUnit)
@@ -141,6 +150,24 @@ internal static class HubbardCommand
                 return TransverseConfinement.Harmonic(f);
             default:
                 throw new UsageException($"--geometry \"{text}\" is not known; use cubic or tubes.");
+        }
+    }
+
+    /// <summary>The deepest lattice whose tunnelling is resolved, in recoil energies (see <see cref="CheckTunnellingResolved"/>).</summary>
+    internal const double MaxDepth = 190;
+
+    /// <summary>
+    /// Refuses a depth at which J is lost in the rounding of the band energies. The deep-lattice form
+    /// J/E_R ≈ (4/√π)s^{3/4}e^{−2√s} (an overestimate) falls below 1e-10 near s = 190, where the band lies ≈ 14 E_R up:
+    /// J would be known to a few parts in 1e5 at best, and deeper it is rounding noise (negative J, U/J of 1e15) and the
+    /// Wannier construction no longer converges.
+    /// </summary>
+    private static void CheckTunnellingResolved(double depth, string name)
+    {
+        if (depth > MaxDepth)
+        {
+            throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                $"{name}: s = {depth:R} E_R is too deep for hubbard (at most {MaxDepth:R} E_R): there J ≈ (4/√π)s^(3/4)e^(-2√s) E_R falls below 1e-10 E_R, lost in the rounding of the band energies."));
         }
     }
 

@@ -69,6 +69,7 @@ public sealed class HubbardCommandTest
     [InlineData("\"wavelength\": 1064, \"depth\": -3, \"species\": \"87Rb\"", "opticalLattice.depth")]
     [InlineData("\"wavelength\": 1064, \"depth\": 10, \"species\": \"Rb88\"", "known species are")]
     [InlineData("\"wavelength\": 1064, \"depth\": 10", "species")]
+    [InlineData("\"wavelength\": 1064, \"depth\": 1000, \"species\": \"87Rb\"", "opticalLattice.depth: s = 1000 E_R is too deep")]
     [InlineData("\"wavelength\": 1064, \"depth\": 10, \"species\": \"87Rb\", \"secondWave\": {\"wavelength\": 752.3, \"depth\": 1}", "not commensurate")]
     public void Hubbard_BadFile_ExitsTwoNamingTheField(string body, string expected)
     {
@@ -85,6 +86,8 @@ public sealed class HubbardCommandTest
     [InlineData("--depths", "0,5", "--depths")]
     [InlineData("--geometry", "tubes", "--transverse-frequency")]
     [InlineData("--unit", "furlongs", "--unit")]
+    [InlineData("--sites", "0", "--sites must be above 0 and at most 50")]
+    [InlineData("--depths", "10,200", "--depths: s = 200 E_R is too deep for hubbard (at most 190 E_R)")]
     public void Hubbard_BadOption_ExitsTwoNamingTheOption(string option, string value, string expected)
     {
         var file = ToolRunner.Example("rubidium-lattice.json");
@@ -93,6 +96,16 @@ public sealed class HubbardCommandTest
             : ToolRunner.Invoke("hubbard", file, "-a", "100", option, value);
         Assert.Equal(2, run.ExitCode);
         Assert.Contains(expected, run.Stderr, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void Hubbard_DepthScanWithSeveralBands_ExitsTwoInsteadOfIgnoringBands()
+    {
+        // A scan describes the lowest band only; --bands 2 was silently dropped.
+        var run = ToolRunner.Invoke("hubbard", ToolRunner.Example("rubidium-lattice.json"), "-a", "100", "--depths", "5,10", "--bands", "2");
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("--bands 2 cannot be combined with --depths", run.Stderr, StringComparison.Ordinal);
+        Assert.Equal(string.Empty, run.Stdout);
     }
 
     [Fact]
