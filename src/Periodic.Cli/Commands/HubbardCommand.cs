@@ -271,6 +271,36 @@ internal static class HubbardCommand
     private const string Limits =
         "Single atom in a perfect lattice: no harmonic trap envelope; the one-band Hubbard model holds only when the gap is much larger than U and kT.\n";
 
+    /// <summary>Above this |J2/J1| the nearest-neighbour Hubbard model is noted as a rough guide (reached near s = 5 E_R).</summary>
+    internal const double NextNearestNote = 0.05;
+
+    /// <summary>Above this U/gap the single-band model is noted as a first estimate.</summary>
+    internal const double InteractionGapNote = 0.1;
+
+    /// <summary>
+    /// Lines naming the rows (bands or depths) where the table's own numbers leave the model's range: next-nearest
+    /// tunnelling that is not negligible (shallow lattices, higher bands), or U not small against the gap above.
+    /// </summary>
+    private static string ValidityNotes(IReadOnlyList<HubbardParameters> rows, Func<HubbardParameters, string> name)
+    {
+        var notes = new System.Text.StringBuilder();
+        var shallow = rows.Where(r => Math.Abs(r.Wannier.HoppingElectronVolts[1] / r.Wannier.HoppingElectronVolts[0]) > NextNearestNote).ToList();
+        if (shallow.Count > 0)
+        {
+            var worst = shallow.Max(r => Math.Abs(r.Wannier.HoppingElectronVolts[1] / r.Wannier.HoppingElectronVolts[0]));
+            notes.Append(string.Create(CultureInfo.InvariantCulture,
+                $"Note: |J2/J1| is above {NextNearestNote:R} (up to {worst:G2}) at {string.Join(", ", shallow.Select(name))}: next-nearest tunnelling is not negligible, so a nearest-neighbour Hubbard model (J = J1) is a rough guide there (tight binding needs a deeper lattice, s above about 5 E_R for the lowest band).\n"));
+        }
+        var strong = rows.Where(r => Math.Abs(r.InteractionElectronVolts / r.GapAboveElectronVolts) > InteractionGapNote).ToList();
+        if (strong.Count > 0)
+        {
+            var worst = strong.Max(r => Math.Abs(r.InteractionElectronVolts / r.GapAboveElectronVolts));
+            notes.Append(string.Create(CultureInfo.InvariantCulture,
+                $"Note: |U| is above {InteractionGapNote:R} of the gap above (up to {worst:G2} of it) at {string.Join(", ", strong.Select(name))}: the single-band model needs U much smaller than the gap; take these numbers as a first estimate.\n"));
+        }
+        return notes.ToString();
+    }
+
     public static string Render(StructureDefinition structure, OpticalLattice lattice, HubbardParameters[] results, OutputFormat format, LatticeEnergyUnit unit)
     {
         if (format == OutputFormat.Json)
@@ -305,7 +335,8 @@ internal static class HubbardCommand
         {
             return table.ToCsv();
         }
-        return Header(lattice, results[0]) + string.Create(CultureInfo.InvariantCulture, $"depth s = {lattice.DepthInRecoilEnergies:G6} E_R\n\n") + table.ToText() + "\n" + Limits;
+        return Header(lattice, results[0]) + string.Create(CultureInfo.InvariantCulture, $"depth s = {lattice.DepthInRecoilEnergies:G6} E_R\n\n") + table.ToText() + "\n" + Limits
+            + ValidityNotes(results, r => string.Create(CultureInfo.InvariantCulture, $"band {r.BandIndex}"));
     }
 
     public static string RenderScan(StructureDefinition structure, OpticalLattice lattice, IReadOnlyList<HubbardParameters> results, OutputFormat format, LatticeEnergyUnit unit)
@@ -340,7 +371,8 @@ internal static class HubbardCommand
         {
             return table.ToCsv();
         }
-        return Header(lattice, results[0]) + "lowest band\n\n" + table.ToText() + "\n" + Limits;
+        return Header(lattice, results[0]) + "lowest band\n\n" + table.ToText() + "\n" + Limits
+            + ValidityNotes(results, r => string.Create(CultureInfo.InvariantCulture, $"s = {r.Lattice.DepthInRecoilEnergies:G6} E_R"));
     }
 
     private static void WriteLattice(System.Text.Json.Utf8JsonWriter w, OpticalLattice lattice, HubbardParameters first)

@@ -109,6 +109,23 @@ public sealed class HubbardCommandTest
     }
 
     [Fact]
+    public void Hubbard_ShallowLatticeOrStrongInteraction_IsNotedUnderTheTable()
+    {
+        // |J2/J1| tends to 1/4 as s -> 0 (free atom: E = q² E_R has the Fourier coefficients J_n = 2(-1)^(n+1)/(π²n²) E_R)
+        // and falls below 0.05 near s = 5; the one-band model needs U much smaller than the gap (docs/cold-atoms.md, Limits).
+        var file = ToolRunner.Example("rubidium-lattice.json");
+        var shallow = ToolRunner.Invoke("hubbard", file, "-a", "100", "--depths", "1,10");
+        Assert.Equal(0, shallow.ExitCode);
+        Assert.Contains("|J2/J1| is above 0.05 (up to 0.2) at s = 1 E_R:", shallow.Stdout, StringComparison.Ordinal);
+        Assert.DoesNotContain("gap above (up to", shallow.Stdout, StringComparison.Ordinal);
+        var deep = ToolRunner.Invoke("hubbard", file, "-a", "100", "--depths", "10,20");
+        Assert.DoesNotContain("Note:", deep.Stdout, StringComparison.Ordinal);
+        var strong = ToolRunner.Invoke("hubbard", file, "-a", "3000", "--depths", "10");
+        Assert.Contains("|U| is above 0.1 of the gap above", strong.Stdout, StringComparison.Ordinal);
+        Assert.Contains("at s = 10 E_R:", strong.Stdout, StringComparison.Ordinal);
+    }
+
+    [Fact]
     public void Hubbard_BandNotIsolated_ExitsTwoNamingBands()
     {
         // λ₂ = 2λ with s₂ = 0: the two-site cell's bands 1 and 2 touch (folded band), so band 1 is not isolated.
