@@ -180,6 +180,23 @@ public sealed class HubbardCommandTest
     }
 
     [Fact]
+    public void Dos_LatticeFile_SaysTheColumnsCountTwoStatesPerOrbital()
+    {
+        // A filled band holds one Bloch state per cell and internal state (Bloch's theorem: N cells, N wavevectors), so the
+        // integrated column in the first gap is 2/d with the two spin states it counts, and 1/d for atoms in one state.
+        var file = ToolRunner.Example("rubidium-lattice.json");
+        var lattice = StructureFile.Load(file).OpticalLattice!;
+        var bands = Periodic.Bands.SpectralBandStructure.Compute(lattice.Cell, 2).Bands;
+        var gapMiddle = 0.5 * (bands.GetBand(1).TopElectronVolts + bands.GetBand(2).BottomElectronVolts);
+        var run = ToolRunner.Invoke("dos", file, "--energies", gapMiddle.ToString("R", System.Globalization.CultureInfo.InvariantCulture));
+        Assert.Equal(0, run.ExitCode);
+        Assert.Contains("count two states per orbital", run.Stdout, StringComparison.Ordinal);
+        var d = lattice.LatticePeriod.Nanometres;
+        Assert.Contains((1 / d).ToString("G6", System.Globalization.CultureInfo.InvariantCulture) + " /nm, one atom per site", run.Stdout, StringComparison.Ordinal);
+        Assert.Contains((2 / d).ToString("G8", System.Globalization.CultureInfo.InvariantCulture), run.Stdout, StringComparison.Ordinal);
+    }
+
+    [Fact]
     public void Hubbard_DepthScanPlot_DrawsParametersAgainstDepth()
     {
         var file = ToolRunner.Example("rubidium-lattice.json");
