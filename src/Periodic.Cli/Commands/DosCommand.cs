@@ -199,7 +199,12 @@ internal static class DosCommand
         var title = Common.TableTitle(structure, unit) + (inPlane is { } mass
             ? string.Create(CultureInfo.InvariantCulture, $"3D values: dos3d and integrated3d with one in-plane mass {mass.ElectronMasses:G6} m0 (--in-plane-mass)")
                 + (exactDos is not null ? "; exact: each layer's own in-plane mass; 1-mass rel. error = (one mass - exact)/exact\n" : $"; exact values not computed: {exactWhy}\n")
-            : "");
+            : "")
+            // Atoms in one internal state have one state per band and site; the columns count two (spin), as for electrons.
+            + (structure.OpticalLattice is { } lattice
+                ? string.Create(CultureInfo.InvariantCulture,
+                    $"dos and integrated count two states per orbital (spin, as for electrons): for atoms in one internal state halve them; a filled band then holds 1/d = {1 / lattice.LatticePeriod.Nanometres:G6} /nm, one atom per site\n")
+                : "");
         Common.EmitTable(table, format, title, outPath);
     }
 

@@ -38,7 +38,7 @@ internal static class HubbardCommand
         var bands = new Option<int>("--bands") { Description = "Number of bands to describe, from the lowest (1 to 10); each must be isolated.", DefaultValueFactory = _ => 1 };
         var depths = new Option<string?>("--depths")
         {
-            Description = "Depth scan of the lowest band, in recoil energies: FROM:TO:STEP (e.g. 5:30:1) or a list 5,10,20. Replaces the file's depth.",
+            Description = "Depth scan of the lowest band, in recoil energies (above 0, at most 190): FROM:TO:STEP (e.g. 5:30:1) or a list 5,10,20. Replaces the file's depth; not with --bands.",
         };
         var unit = new Option<string>("--unit")
         {
@@ -65,7 +65,12 @@ internal static class HubbardCommand
             var window = result.GetValue(sites) ?? 3;
             if (!(window > 0 && window <= 50))
             {
-                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--sites must be between 0 and 50 lattice sites; got {window:R}."));
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture, $"--sites must be above 0 and at most 50 lattice sites; got {window:R}."));
+            }
+            if (scan is not null && count > 1)
+            {
+                throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                    $"--bands {count} cannot be combined with --depths: a depth scan describes the lowest band only; leave out --bands, or give one depth in the file."));
             }
             var plotPath = result.GetValue(plot);
             var extension = plotPath is null ? "" : Path.GetExtension(plotPath).ToLowerInvariant();
@@ -76,6 +81,10 @@ internal static class HubbardCommand
             var structure = Common.Load(result, result.GetValue(file)!);
             var lattice = structure.OpticalLattice ?? throw new UsageException(
                 $"{structure.SourceName} does not describe an optical lattice; hubbard needs a file with \"opticalLattice\": {{\"wavelength\": ..., \"depth\": ..., \"species\": ...}} (see docs/cold-atoms.md).");
+            foreach (var depth in scan ?? [lattice.DepthInRecoilEnergies])
+            {
+                CheckTunnellingResolved(depth, scan is null ? "opticalLattice.depth" : "--depths");
+            }
             var scanned = scan is null ? null : Scan(lattice, scan, confinement, a);
             var text2 = scanned is null
                 ? Render(structure, lattice, Describe(lattice, confinement, a, count), format, displayUnit)
@@ -141,6 +150,24 @@ internal static class HubbardCommand
                 return TransverseConfinement.Harmonic(f);
             default:
                 throw new UsageException($"--geometry \"{text}\" is not known; use cubic or tubes.");
+        }
+    }
+
+    /// <summary>The deepest lattice whose tunnelling is resolved, in recoil energies (see <see cref="CheckTunnellingResolved"/>).</summary>
+    internal const double MaxDepth = 190;
+
+    /// <summary>
+    /// Refuses a depth at which J is lost in the rounding of the band energies. The deep-lattice form
+    /// J/E_R ≈ (4/√π)s^{3/4}e^{−2√s} (an overestimate) falls below 1e-10 near s = 190, where the band lies ≈ 14 E_R up:
+    /// J would be known to a few parts in 1e5 at best, and deeper it is rounding noise (negative J, U/J of 1e15) and the
+    /// Wannier construction no longer converges.
+    /// </summary>
+    private static void CheckTunnellingResolved(double depth, string name)
+    {
+        if (depth > MaxDepth)
+        {
+            throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                $"{name}: s = {depth:R} E_R is too deep for hubbard (at most {MaxDepth:R} E_R): there J ≈ (4/√π)s^(3/4)e^(-2√s) E_R falls below 1e-10 E_R, lost in the rounding of the band energies."));
         }
     }
 
@@ -244,6 +271,36 @@ internal static class HubbardCommand
     private const string Limits =
         "Single atom in a perfect lattice: no harmonic trap envelope; the one-band Hubbard model holds only when the gap is much larger than U and kT.\n";
 
+    /// <summary>Above this |J2/J1| the nearest-neighbour Hubbard model is noted as a rough guide (reached near s = 5 E_R).</summary>
+    internal const double NextNearestNote = 0.05;
+
+    /// <summary>Above this U/gap the single-band model is noted as a first estimate.</summary>
+    internal const double InteractionGapNote = 0.1;
+
+    /// <summary>
+    /// Lines naming the rows (bands or depths) where the table's own numbers leave the model's range: next-nearest
+    /// tunnelling that is not negligible (shallow lattices, higher bands), or U not small against the gap above.
+    /// </summary>
+    private static string ValidityNotes(IReadOnlyList<HubbardParameters> rows, Func<HubbardParameters, string> name)
+    {
+        var notes = new System.Text.StringBuilder();
+        var shallow = rows.Where(r => Math.Abs(r.Wannier.HoppingElectronVolts[1] / r.Wannier.HoppingElectronVolts[0]) > NextNearestNote).ToList();
+        if (shallow.Count > 0)
+        {
+            var worst = shallow.Max(r => Math.Abs(r.Wannier.HoppingElectronVolts[1] / r.Wannier.HoppingElectronVolts[0]));
+            notes.Append(string.Create(CultureInfo.InvariantCulture,
+                $"Note: |J2/J1| is above {NextNearestNote:R} (up to {worst:G2}) at {string.Join(", ", shallow.Select(name))}: next-nearest tunnelling is not negligible, so a nearest-neighbour Hubbard model (J = J1) is a rough guide there (tight binding needs a deeper lattice, s above about 5 E_R for the lowest band).\n"));
+        }
+        var strong = rows.Where(r => Math.Abs(r.InteractionElectronVolts / r.GapAboveElectronVolts) > InteractionGapNote).ToList();
+        if (strong.Count > 0)
+        {
+            var worst = strong.Max(r => Math.Abs(r.InteractionElectronVolts / r.GapAboveElectronVolts));
+            notes.Append(string.Create(CultureInfo.InvariantCulture,
+                $"Note: |U| is above {InteractionGapNote:R} of the gap above (up to {worst:G2} of it) at {string.Join(", ", strong.Select(name))}: the single-band model needs U much smaller than the gap; take these numbers as a first estimate.\n"));
+        }
+        return notes.ToString();
+    }
+
     public static string Render(StructureDefinition structure, OpticalLattice lattice, HubbardParameters[] results, OutputFormat format, LatticeEnergyUnit unit)
     {
         if (format == OutputFormat.Json)
@@ -278,7 +335,8 @@ internal static class HubbardCommand
         {
             return table.ToCsv();
         }
-        return Header(lattice, results[0]) + string.Create(CultureInfo.InvariantCulture, $"depth s = {lattice.DepthInRecoilEnergies:G6} E_R\n\n") + table.ToText() + "\n" + Limits;
+        return Header(lattice, results[0]) + string.Create(CultureInfo.InvariantCulture, $"depth s = {lattice.DepthInRecoilEnergies:G6} E_R\n\n") + table.ToText() + "\n" + Limits
+            + ValidityNotes(results, r => string.Create(CultureInfo.InvariantCulture, $"band {r.BandIndex}"));
     }
 
     public static string RenderScan(StructureDefinition structure, OpticalLattice lattice, IReadOnlyList<HubbardParameters> results, OutputFormat format, LatticeEnergyUnit unit)
@@ -313,7 +371,8 @@ internal static class HubbardCommand
         {
             return table.ToCsv();
         }
-        return Header(lattice, results[0]) + "lowest band\n\n" + table.ToText() + "\n" + Limits;
+        return Header(lattice, results[0]) + "lowest band\n\n" + table.ToText() + "\n" + Limits
+            + ValidityNotes(results, r => string.Create(CultureInfo.InvariantCulture, $"s = {r.Lattice.DepthInRecoilEnergies:G6} E_R"));
     }
 
     private static void WriteLattice(System.Text.Json.Utf8JsonWriter w, OpticalLattice lattice, HubbardParameters first)

@@ -9,7 +9,7 @@ namespace Periodic.Cli.Physics;
 
 /// <summary>
 /// The tool's call of the library's band solver (<see cref="BandSolver"/>, which chooses exact or refined per cell), plus the
-/// tool's own concern: a warning on stderr when the refinement of smooth segments did not converge.
+/// tool's own concern: a warning on stderr when the refinement of smooth segments, or the plane-wave basis of a Fourier cell, did not converge.
 /// </summary>
 internal static class Solver
 {
@@ -21,10 +21,16 @@ internal static class Solver
 
     private static BandSolution Warn(BandSolution solution)
     {
-        if (!solution.Converged)
+        if (!solution.Converged && solution.Refinement is { } refinement)
         {
             Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,
-                $"periodic: warning: the smooth segments did not converge to {solution.Refinement!.RelativeTolerance:G2} relative; edge errors up to {solution.MaxEdgeErrorElectronVolts:G3} eV."));
+                $"periodic: warning: the smooth segments did not converge to {refinement.RelativeTolerance:G2} relative; edge errors up to {solution.MaxEdgeErrorElectronVolts:G3} eV."));
+        }
+        else if (!solution.Converged && solution.Spectral is { } spectral)
+        {
+            // A Fourier cell (an optical lattice) solved in plane waves: the basis reached its largest size first.
+            Console.Error.WriteLine(string.Create(CultureInfo.InvariantCulture,
+                $"periodic: warning: the plane-wave basis ({spectral.BasisSize} waves) did not converge to {spectral.RelativeTolerance:G2} relative; edge errors up to {solution.MaxEdgeErrorElectronVolts:G3} eV ({spectral.MaxRelativeError:G2} relative)."));
         }
         return solution;
     }

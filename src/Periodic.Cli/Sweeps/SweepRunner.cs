@@ -190,6 +190,12 @@ internal sealed class SweepRunner(SweepSpec spec, bool rigidBands = false)
             if (outputs.Hubbard is { } hubbard)
             {
                 var lattice = structure.OpticalLattice ?? throw new ArgumentException("the structure is not an optical-lattice file.");
+                if (lattice.DepthInRecoilEnergies > Commands.HubbardCommand.MaxDepth)
+                {
+                    // As periodic hubbard: deeper, J is rounding noise and the Wannier construction may not finish.
+                    throw new ArgumentException(string.Create(CultureInfo.InvariantCulture,
+                        $"opticalLattice.depth: s = {lattice.DepthInRecoilEnergies:R} E_R is too deep for outputs.hubbard (at most {Commands.HubbardCommand.MaxDepth:R} E_R): J falls below 1e-10 E_R, lost in the rounding of the band energies."));
+                }
                 var model = HubbardParameters.Compute(lattice, hubbard.Confinement, hubbard.ScatteringLength);
                 values[k++] = model.TunnellingElectronVolts;
                 values[k++] = model.InteractionElectronVolts;

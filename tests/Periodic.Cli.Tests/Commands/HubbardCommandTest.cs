@@ -69,6 +69,7 @@ public sealed class HubbardCommandTest
     [InlineData("\"wavelength\": 1064, \"depth\": -3, \"species\": \"87Rb\"", "opticalLattice.depth")]
     [InlineData("\"wavelength\": 1064, \"depth\": 10, \"species\": \"Rb88\"", "known species are")]
     [InlineData("\"wavelength\": 1064, \"depth\": 10", "species")]
+    [InlineData("\"wavelength\": 1064, \"depth\": 1000, \"species\": \"87Rb\"", "opticalLattice.depth: s = 1000 E_R is too deep")]
     [InlineData("\"wavelength\": 1064, \"depth\": 10, \"species\": \"87Rb\", \"secondWave\": {\"wavelength\": 752.3, \"depth\": 1}", "not commensurate")]
     public void Hubbard_BadFile_ExitsTwoNamingTheField(string body, string expected)
     {
@@ -85,6 +86,8 @@ public sealed class HubbardCommandTest
     [InlineData("--depths", "0,5", "--depths")]
     [InlineData("--geometry", "tubes", "--transverse-frequency")]
     [InlineData("--unit", "furlongs", "--unit")]
+    [InlineData("--sites", "0", "--sites must be above 0 and at most 50")]
+    [InlineData("--depths", "10,200", "--depths: s = 200 E_R is too deep for hubbard (at most 190 E_R)")]
     public void Hubbard_BadOption_ExitsTwoNamingTheOption(string option, string value, string expected)
     {
         var file = ToolRunner.Example("rubidium-lattice.json");
@@ -93,6 +96,33 @@ public sealed class HubbardCommandTest
             : ToolRunner.Invoke("hubbard", file, "-a", "100", option, value);
         Assert.Equal(2, run.ExitCode);
         Assert.Contains(expected, run.Stderr, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void Hubbard_DepthScanWithSeveralBands_ExitsTwoInsteadOfIgnoringBands()
+    {
+        // A scan describes the lowest band only; --bands 2 was silently dropped.
+        var run = ToolRunner.Invoke("hubbard", ToolRunner.Example("rubidium-lattice.json"), "-a", "100", "--depths", "5,10", "--bands", "2");
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("--bands 2 cannot be combined with --depths", run.Stderr, StringComparison.Ordinal);
+        Assert.Equal(string.Empty, run.Stdout);
+    }
+
+    [Fact]
+    public void Hubbard_ShallowLatticeOrStrongInteraction_IsNotedUnderTheTable()
+    {
+        // |J2/J1| tends to 1/4 as s -> 0 (free atom: E = q² E_R has the Fourier coefficients J_n = 2(-1)^(n+1)/(π²n²) E_R)
+        // and falls below 0.05 near s = 5; the one-band model needs U much smaller than the gap (docs/cold-atoms.md, Limits).
+        var file = ToolRunner.Example("rubidium-lattice.json");
+        var shallow = ToolRunner.Invoke("hubbard", file, "-a", "100", "--depths", "1,10");
+        Assert.Equal(0, shallow.ExitCode);
+        Assert.Contains("|J2/J1| is above 0.05 (up to 0.2) at s = 1 E_R:", shallow.Stdout, StringComparison.Ordinal);
+        Assert.DoesNotContain("gap above (up to", shallow.Stdout, StringComparison.Ordinal);
+        var deep = ToolRunner.Invoke("hubbard", file, "-a", "100", "--depths", "10,20");
+        Assert.DoesNotContain("Note:", deep.Stdout, StringComparison.Ordinal);
+        var strong = ToolRunner.Invoke("hubbard", file, "-a", "3000", "--depths", "10");
+        Assert.Contains("|U| is above 0.1 of the gap above", strong.Stdout, StringComparison.Ordinal);
+        Assert.Contains("at s = 10 E_R:", strong.Stdout, StringComparison.Ordinal);
     }
 
     [Fact]
@@ -133,6 +163,37 @@ public sealed class HubbardCommandTest
         var dispersion = ToolRunner.Invoke("dispersion", file, "-k", "3");
         Assert.Equal(0, dispersion.ExitCode);
         Assert.Contains("q/k_L", dispersion.Stdout, StringComparison.Ordinal);
+    }
+
+    [Fact]
+    public void Bands_VeryDeepLattice_WarnsOfThePlaneWaveBasisInsteadOfCrashing()
+    {
+        // s = 1e9: the plane-wave basis stops growing before the edges settle. Expected: the bands near the harmonic
+        // levels (n + 1/2)·2√s − 1/4 (bottom of band 1 ≈ √s − 1/4, the deep-lattice expansion of the Mathieu
+        // characteristic values, Abramowitz and Stegun 20.2.30) and a warning naming the basis, not a null reference.
+        var file = Lattice("\"wavelength\": 1064, \"depth\": 1e9, \"species\": \"87Rb\"");
+        var run = ToolRunner.Invoke("bands", file, "-n", "1", "--csv");
+        Assert.Equal(0, run.ExitCode);
+        Assert.Contains("plane-wave basis", run.Stderr, StringComparison.Ordinal);
+        var bottom = double.Parse(run.Stdout.Trim().Split('\n')[1].Split(',')[1], System.Globalization.CultureInfo.InvariantCulture);
+        Assert.Equal(Math.Sqrt(1e9) - 0.25, bottom, 1e-3 * Math.Sqrt(1e9));
+    }
+
+    [Fact]
+    public void Dos_LatticeFile_SaysTheColumnsCountTwoStatesPerOrbital()
+    {
+        // A filled band holds one Bloch state per cell and internal state (Bloch's theorem: N cells, N wavevectors), so the
+        // integrated column in the first gap is 2/d with the two spin states it counts, and 1/d for atoms in one state.
+        var file = ToolRunner.Example("rubidium-lattice.json");
+        var lattice = StructureFile.Load(file).OpticalLattice!;
+        var bands = Periodic.Bands.SpectralBandStructure.Compute(lattice.Cell, 2).Bands;
+        var gapMiddle = 0.5 * (bands.GetBand(1).TopElectronVolts + bands.GetBand(2).BottomElectronVolts);
+        var run = ToolRunner.Invoke("dos", file, "--energies", gapMiddle.ToString("R", System.Globalization.CultureInfo.InvariantCulture));
+        Assert.Equal(0, run.ExitCode);
+        Assert.Contains("count two states per orbital", run.Stdout, StringComparison.Ordinal);
+        var d = lattice.LatticePeriod.Nanometres;
+        Assert.Contains((1 / d).ToString("G6", System.Globalization.CultureInfo.InvariantCulture) + " /nm, one atom per site", run.Stdout, StringComparison.Ordinal);
+        Assert.Contains((2 / d).ToString("G8", System.Globalization.CultureInfo.InvariantCulture), run.Stdout, StringComparison.Ordinal);
     }
 
     [Fact]

@@ -107,6 +107,24 @@ public sealed partial class SweepCommandTest
     }
 
     [Fact]
+    public void Sweep_HubbardTooDeep_IsARowErrorNotANoiseValue()
+    {
+        // At s = 1000, J ≈ (4/√π)s^{3/4}e^{−2√s} E_R ≈ 1e-24 E_R (Bloch, Dalibard and Zwerger, Rev. Mod. Phys. 80, 885 (2008)),
+        // far below the rounding of the band energies: the tunnelling column held rounding noise (a negative J).
+        var folder = Folder();
+        var structure = ToolRunner.Example("rubidium-lattice.json").Replace("\\", "/", StringComparison.Ordinal);
+        var spec = Path.Combine(folder, "sweep.json");
+        File.WriteAllText(spec, $$"""{"structure": "{{structure}}", "parameters": [{"field": "opticalLattice.depth", "values": [10, 1000]}], "outputs": {"hubbard": {"scatteringLength": "100 a0" """ + "}}}");
+        var output = Path.Combine(folder, "o.csv");
+        var run = ToolRunner.Invoke("sweep", spec, "--out", output);
+        Assert.True(run.ExitCode == 0, run.Stderr);
+        var rows = Rows(output);
+        Assert.True(Number(rows[0][2]) > 0);
+        Assert.Equal(string.Empty, rows[1][2]);
+        Assert.Contains("too deep for outputs.hubbard (at most 190 E_R)", string.Join(",", rows[1]), StringComparison.Ordinal);
+    }
+
+    [Fact]
     public void Sweep_HubbardOfAStructureWithoutALattice_IsRefused()
     {
         var folder = Folder();
