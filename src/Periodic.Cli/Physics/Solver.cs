@@ -13,7 +13,17 @@ namespace Periodic.Cli.Physics;
 /// </summary>
 internal static class Solver
 {
-    public static BandSolution Compute(UnitCell cell, int count) => Warn(BandSolver.Compute(cell, count));
+    public static BandSolution Compute(UnitCell cell, int count)
+    {
+        // An optical lattice's bands come from plane waves up to the solver's limit; beyond it the library falls back to
+        // the refined sampled potential, whose cost grows with the band's energy (n² recoil): minutes a band near 200.
+        if (count > SpectralBandStructure.MaxBandCount && cell.Elements is [FourierSegment])
+        {
+            throw new UsageException(string.Create(CultureInfo.InvariantCulture,
+                $"{count} bands asked of an optical lattice: its bands come from the plane-wave solver, which gives at most {SpectralBandStructure.MaxBandCount}; beyond that the sampled-potential solver would take minutes a band. Ask for at most {SpectralBandStructure.MaxBandCount} bands."));
+        }
+        return Warn(BandSolver.Compute(cell, count));
+    }
 
     /// <summary>Every band whose bottom lies below <paramref name="energyElectronVolts"/> (at least one).</summary>
     public static BandSolution ComputeBelow(UnitCell cell, double energyElectronVolts) =>

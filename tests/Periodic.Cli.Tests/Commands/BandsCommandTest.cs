@@ -296,6 +296,18 @@ public sealed class BandsSmoothTest
     }
 
     [Fact]
+    public void Bands_LatticeBeyondThePlaneWaveLimit_IsRefusedAtOnce()
+    {
+        // 199 bands are the plane-wave solver's limit (SpectralBandStructure.MaxBandCount); 200 would fall back to the
+        // sampled-potential solver and run for many minutes. The 60 s limit of ToolRunner makes a hang fail here.
+        var run = ToolRunner.Invoke("bands", ToolRunner.Example("rubidium-lattice.json"), "--count", "200");
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains("200 bands asked of an optical lattice", run.Stderr, StringComparison.Ordinal);
+        Assert.Contains("at most 199 bands", run.Stderr, StringComparison.Ordinal);
+        Assert.Empty(run.Stdout);
+    }
+
+    [Fact]
     public void Bands_InPlaneMass_EqualsLibraryAndLiesBetweenLayerMasses()
     {
         var file = ToolRunner.Example("superlattice.json");
