@@ -46,6 +46,7 @@ public static partial class StructureFile
             var wavelength = ReadPositive(wavelengthNode, path + ".wavelength", LengthUnits, "nm", "nm, Å, pm, µm");
             var depthNode = Required(fields, obj, path, "depth");
             var depth = ReadPositive(depthNode, path + ".depth", RecoilUnits, "E_R", "E_R");
+            CheckDepth(depthNode, path + ".depth", depth);
             AtomicSpecies species;
             if (fields.TryGetValue("species", out var speciesField))
             {
@@ -76,10 +77,19 @@ public static partial class StructureFile
                 {
                     throw Error(secondDepthNode, second + ".depth", $"must be zero or positive; got {Format(secondDepth)}.");
                 }
+                CheckDepth(secondDepthNode, second + ".depth", secondDepth);
                 var phase = secondFields.TryGetValue("phase", out var phaseField) ? ReadQuantity(phaseField.Value, second + ".phase", AngleUnits, "rad", "rad, deg") : 0.0;
                 lattice = Apply(secondWavelengthNode, second + ".wavelength", () => lattice.WithSecondWave(Length.FromNanometres(secondWavelength), secondDepth, phase));
             }
             return new StructureDefinition(name, description, lattice.Cell, [null], sourceName, null, null, default) { OpticalLattice = lattice };
+        }
+
+        private void CheckDepth(JsonTreeNode node, string path, double depth)
+        {
+            if (depth > StructureFileLimits.MaxLatticeDepthRecoilEnergies)
+            {
+                throw Error(node, path, $"must be at most {Format(StructureFileLimits.MaxLatticeDepthRecoilEnergies)} E_R (about 10 mK for 87Rb at 1064 nm, beyond any optical trap); got {Format(depth)} E_R.");
+            }
         }
 
         private double ReadPositive(JsonTreeNode node, string path, Dictionary<string, double> units, string defaultUnit, string allowed)

@@ -42,6 +42,13 @@ public static class StructureFileLimits
     /// <summary>Largest magnitude of a potential, lead potential, bias or Fourier amplitude, eV (band offsets are below ~5 eV).</summary>
     public const double MaxPotentialElectronVolts = 1e3;
 
+    /// <summary>
+    /// Deepest optical lattice, in recoil energies of its own wave (first and second wave): 10⁵ E_R is about 10 mK for ⁸⁷Rb
+    /// at 1064 nm, beyond the deepest optical traps, and the band solvers' cost grows with the depth (E(k) of 3 bands:
+    /// 0.5 s at 10⁵, 2.4 s at 10⁶, 47 s at 10⁹).
+    /// </summary>
+    public const double MaxLatticeDepthRecoilEnergies = 1e5;
+
     /// <summary>Largest magnitude of a delta strength, eV·nm.</summary>
     public const double MaxDeltaStrengthElectronVoltNanometres = 1e3;
 

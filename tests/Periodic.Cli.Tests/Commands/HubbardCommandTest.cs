@@ -165,18 +165,18 @@ public sealed class HubbardCommandTest
         Assert.Contains("q/k_L", dispersion.Stdout, StringComparison.Ordinal);
     }
 
-    [Fact]
-    public void Bands_VeryDeepLattice_WarnsOfThePlaneWaveBasisInsteadOfCrashing()
+    [Theory]
+    [InlineData("\"depth\": 1e9", "opticalLattice.depth")]
+    [InlineData("\"depth\": 10, \"secondWave\": {\"wavelength\": 2128, \"depth\": 2e5}", "opticalLattice.secondWave.depth")]
+    public void Bands_LatticeDeeperThanTheFileLimit_IsRefusedNamingTheField(string depths, string field)
     {
-        // s = 1e9: the plane-wave basis stops growing before the edges settle. Expected: the bands near the harmonic
-        // levels (n + 1/2)·2√s − 1/4 (bottom of band 1 ≈ √s − 1/4, the deep-lattice expansion of the Mathieu
-        // characteristic values, Abramowitz and Stegun 20.2.30) and a warning naming the basis, not a null reference.
-        var file = Lattice("\"wavelength\": 1064, \"depth\": 1e9, \"species\": \"87Rb\"");
-        var run = ToolRunner.Invoke("bands", file, "-n", "1", "--csv");
-        Assert.Equal(0, run.ExitCode);
-        Assert.Contains("plane-wave basis", run.Stderr, StringComparison.Ordinal);
-        var bottom = double.Parse(run.Stdout.Trim().Split('\n')[1].Split(',')[1], System.Globalization.CultureInfo.InvariantCulture);
-        Assert.Equal(Math.Sqrt(1e9) - 0.25, bottom, 1e-3 * Math.Sqrt(1e9));
+        // 10^5 E_R (StructureFileLimits.MaxLatticeDepthRecoilEnergies): at s = 1e9 E(k) took 47 s and the plane-wave basis
+        // stopped growing before the edges settled (once a null-reference failure).
+        var file = Lattice("\"wavelength\": 1064, \"species\": \"87Rb\", " + depths);
+        var run = ToolRunner.Invoke("bands", file);
+        Assert.Equal(2, run.ExitCode);
+        Assert.Contains(field + ": must be at most 100000 E_R", run.Stderr, StringComparison.Ordinal);
+        Assert.Empty(run.Stdout);
     }
 
     [Fact]
