@@ -269,7 +269,14 @@ internal static class HubbardCommand
     }
 
     private const string Limits =
-        "Single atom in a perfect lattice: no harmonic trap envelope; the one-band Hubbard model holds only when the gap is much larger than U and kT.\n";
+        "Single atom in a perfect lattice: no harmonic trap envelope; the one-band Hubbard model holds only when the gap is much larger than U and kT. "
+        + "(U/J)/(U/J)c is given for the lowest band with repulsive U only (n/a otherwise): the critical value is that band's superfluid-Mott point at unit filling.\n";
+
+    /// <summary>
+    /// (U/J)/(U/J)c where it means something: the critical ratios are those of the superfluid–Mott transition of repulsive
+    /// bosons in the lowest band at unit filling, so a higher band (whose J alternates in sign) or an attractive U has none.
+    /// </summary>
+    private static double? MottRatio(HubbardParameters r) => r.BandIndex == 1 && r.InteractionElectronVolts > 0 ? r.RatioToCritical : null;
 
     /// <summary>Above this |J2/J1| the nearest-neighbour Hubbard model is noted as a rough guide (reached near s = 5 E_R).</summary>
     internal const double NextNearestNote = 0.05;
@@ -329,7 +336,8 @@ internal static class HubbardCommand
         {
             var j = r.Wannier.HoppingElectronVolts;
             table.Add(r.BandIndex, j[0] * f, j[1] * f, j[2] * f, r.Wannier.OnSiteIntegralPerNanometre, Math.Sqrt(r.Wannier.SpreadNanometresSquared),
-                r.InteractionElectronVolts * f, r.InteractionToTunnellingRatio, r.RatioToCritical, r.GapAboveElectronVolts * f, r.AdiabaticTimeSeconds * 1e3);
+                r.InteractionElectronVolts * f, r.InteractionToTunnellingRatio, MottRatio(r) is { } m ? m : (Cell)(format == OutputFormat.Csv ? "" : "n/a"),
+                r.GapAboveElectronVolts * f, r.AdiabaticTimeSeconds * 1e3);
         }
         if (format == OutputFormat.Csv)
         {
@@ -364,8 +372,8 @@ internal static class HubbardCommand
             new Column("(U/J)/(U/J)c", Format: "G4"), new Column("gap above", name, Format: "G6"), new Column("hbar/gap", "ms", Format: "G4"));
         foreach (var r in results)
         {
-            table.Add(r.Lattice.DepthInRecoilEnergies, r.TunnellingElectronVolts * f, r.InteractionElectronVolts * f, r.InteractionToTunnellingRatio, r.RatioToCritical,
-                r.GapAboveElectronVolts * f, r.AdiabaticTimeSeconds * 1e3);
+            table.Add(r.Lattice.DepthInRecoilEnergies, r.TunnellingElectronVolts * f, r.InteractionElectronVolts * f, r.InteractionToTunnellingRatio,
+                MottRatio(r) is { } m ? m : (Cell)(format == OutputFormat.Csv ? "" : "n/a"), r.GapAboveElectronVolts * f, r.AdiabaticTimeSeconds * 1e3);
         }
         if (format == OutputFormat.Csv)
         {
@@ -408,7 +416,14 @@ internal static class HubbardCommand
         w.Number("spread", wannier.SpreadNanometresSquared);
         w.Number("interaction", r.InteractionElectronVolts);
         w.Number("interactionOverTunnelling", r.InteractionToTunnellingRatio);
-        w.Number("ratioToCritical", r.RatioToCritical);
+        if (MottRatio(r) is { } mott)
+        {
+            w.Number("ratioToCritical", mott);
+        }
+        else
+        {
+            w.WriteNull("ratioToCritical");
+        }
         w.Number("gapAbove", r.GapAboveElectronVolts);
         w.Number("adiabaticTime", r.AdiabaticTimeSeconds);
         w.WriteStartObject("accuracy");

@@ -180,6 +180,28 @@ public sealed class HubbardCommandTest
     }
 
     [Fact]
+    public void Hubbard_RatioToCritical_OnlyForTheLowestBandWithRepulsiveU()
+    {
+        // The critical (U/J)c values are the superfluid-Mott point of repulsive bosons in the lowest band at unit filling
+        // (Kühner, White, Monien, PRB 61, 12474 (2000) in 1D); band 2's J1 is negative (a band's minimum alternates between k = 0
+        // and the zone edge from band to band, Kohn, Phys. Rev. 115, 809 (1959)), so a ratio to that value is meaningless
+        // there, as for U < 0.
+        var file = ToolRunner.Example("rubidium-lattice.json");
+        var csv = ToolRunner.Invoke("hubbard", file, "-a", "100", "--bands", "2", "--csv");
+        Assert.Equal(0, csv.ExitCode);
+        var lines = csv.Stdout.Split('\n', StringSplitOptions.RemoveEmptyEntries);
+        var column = Array.IndexOf(lines[0].Split(','), "(U/J)/(U/J)c");
+        Assert.True(column > 0, lines[0]);
+        Assert.NotEqual("", lines[1].Split(',')[column]);
+        Assert.Equal("", lines[2].Split(',')[column]);
+        var attractive = ToolRunner.Invoke("hubbard", file, "-a", "-100", "--json");
+        Assert.Equal(0, attractive.ExitCode);
+        Assert.Equal(System.Text.Json.JsonValueKind.Null, attractive.Json().GetProperty("bands")[0].GetProperty("ratioToCritical").ValueKind);
+        var table = ToolRunner.Invoke("hubbard", file, "-a", "100", "--bands", "2");
+        Assert.Contains("n/a", table.Stdout, StringComparison.Ordinal);
+    }
+
+    [Fact]
     public void Dos_LatticeFile_SaysTheColumnsCountTwoStatesPerOrbital()
     {
         // A filled band holds one Bloch state per cell and internal state (Bloch's theorem: N cells, N wavevectors), so the
