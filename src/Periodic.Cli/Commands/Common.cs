@@ -459,19 +459,28 @@ internal static class Common
         {
             return [];
         }
-        // One line per kind and layer: a scan over many energies (transmission, dos) would otherwise repeat the same
-        // warning for every point beyond the limit. The JSON keeps every warning.
+        foreach (var message in GroupedMessages(warnings))
+        {
+            Console.Error.WriteLine($"periodic: warning: {structure.SourceName}: {message}");
+        }
+        return warnings;
+    }
+
+    /// <summary>
+    /// One sentence per kind and layer, with how many more results it covers: a scan over many energies (transmission,
+    /// dos) would otherwise repeat the same warning for every point beyond the limit (870,000 times for 10⁶ energies).
+    /// Used for stderr and for the JSON's <c>warnings</c>.
+    /// </summary>
+    public static IEnumerable<string> GroupedMessages(IEnumerable<Periodic.Materials.ModelWarning> warnings)
+    {
         foreach (var group in warnings.GroupBy(w => (w.Kind, w.LayerIndex)))
         {
             var count = group.Count();
             var message = group.First().Message;
-            if (count > 1)
-            {
-                message = string.Create(CultureInfo.InvariantCulture, $"{message.TrimEnd('.')} ({count - 1} more results beyond it in the same layer; --json lists each).");
-            }
-            Console.Error.WriteLine($"periodic: warning: {structure.SourceName}: {message}");
+            yield return count > 1
+                ? string.Create(CultureInfo.InvariantCulture, $"{message.TrimEnd('.')} ({count - 1} more results beyond it in the same layer).")
+                : message;
         }
-        return warnings;
     }
 
     /// <summary>Model warnings for a set of result energies (band edges, levels, peaks) of a material cell; empty otherwise.</summary>
@@ -523,7 +532,7 @@ internal static class Common
     /// <summary>
     /// The <c>structure</c> object: name, source, period, elements; for a material cell its temperature, reference
     /// energy, the derived <c>layers</c> (material, width nm, potential eV, mass m0, nonParabolicity 1/eV, bandGap eV,
-    /// latticeMismatch) and every model warning (the structure's and <paramref name="resultWarnings"/>).
+    /// latticeMismatch) and the model warnings (the structure's and <paramref name="resultWarnings"/>), one per kind and layer with the count of results it covers.
     /// </summary>
     public static void StructureHeader(Utf8JsonWriter writer, StructureDefinition structure, IReadOnlyList<Periodic.Materials.ModelWarning> resultWarnings)
     {
@@ -537,9 +546,9 @@ internal static class Common
             writer.WriteNumber("temperature", built.Temperature.Kelvin);
             writer.WriteNumber("referenceEnergy", built.ReferenceElectronVolts);
             writer.WriteStartArray("warnings");
-            foreach (var warning in built.Warnings.Concat(resultWarnings))
+            foreach (var message in GroupedMessages(built.Warnings.Concat(resultWarnings)))
             {
-                writer.WriteStringValue(warning.Message);
+                writer.WriteStringValue(message);
             }
             writer.WriteEndArray();
             writer.WriteStartArray("layers");

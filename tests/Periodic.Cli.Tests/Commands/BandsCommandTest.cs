@@ -213,6 +213,13 @@ public sealed class BandsSmoothTest
         var lines = run.Stderr.Split('\n', StringSplitOptions.RemoveEmptyEntries).Where(l => l.Contains("no longer reliable", StringComparison.Ordinal)).ToArray();
         Assert.InRange(lines.Length, 1, 2); // at most one per layer of the two-layer cell
         Assert.Contains(lines, l => l.Contains("more results beyond it in the same layer", StringComparison.Ordinal));
+        // The JSON holds the same grouped sentences, not one per point (10⁶ points once gave 870,000 strings).
+        var json = ToolRunner.Invoke("transmission", ToolRunner.Example("gaas-algaas.json"), "--periods", "3", "--from", "0.9", "--to", "1.2", "--points", "200", "--json");
+        Assert.Equal(0, json.ExitCode);
+        var warnings = json.Json().GetProperty("structure").GetProperty("warnings").EnumerateArray()
+            .Select(w => w.GetString()!).Where(w => w.Contains("no longer reliable", StringComparison.Ordinal)).ToArray();
+        Assert.InRange(warnings.Length, 1, 2);
+        Assert.Contains(warnings, w => w.Contains("more results beyond it in the same layer", StringComparison.Ordinal));
     }
 
     [Fact]
