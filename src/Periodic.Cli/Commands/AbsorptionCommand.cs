@@ -120,8 +120,9 @@ internal static class AbsorptionCommand
             var fermiSource = n is not null ? "--density" : ef is not null ? "--fermi" : "self-consistent";
             if (n is null && ef is null && selfConsistent is not null && result.GetValue(temperature) is null)
             {
-                // The Fermi level belongs to the solution's temperature.
-                t = Math.Clamp(selfConsistent.TemperatureKelvin, AbsorptionOptions.MinTemperatureKelvin, AbsorptionOptions.MaxTemperatureKelvin);
+                // The Fermi level belongs to the solution's temperature (1 to 1000 K for a doped structure, inside the
+                // absorption's range; AbsorptionOptions.Create checks it all the same).
+                t = selfConsistent.TemperatureKelvin;
             }
             if (n is null && ef is null)
             {
